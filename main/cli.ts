@@ -1,0 +1,178 @@
+/**
+ * `forelog <command>`: the diary from the command line (INTERFACES.md §2). Every command
+ * takes `--db PATH` and, on failure, exits non-zero with a one-line message on stderr.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import { ApiError } from '../shared/contract';
+import { defaultDiaryPath } from './paths';
+import { inspectBackup, restoreFrom } from './service/backup';
+import { callOrThrow } from './service/dispatch';
+import { openDiary, type DiaryService } from './service/index';
+import { startHttpServer } from './transport/http';
+
+const USAGE = `Usage: forelog <command> [--db PATH]
+
+Commands:
+  serve [--port N]            the full app in a browser, on 127.0.0.1 only
+  import FILE                 add a diary file (JSON v1) to the diary
+  export [FILE]               write the diary file (to stdout without FILE)
+  demo                        fill an empty diary with the invented example
+  backup FILE                 online copy of the diary database
+  restore FILE                put a backup copy in place of the diary
+
+Options:
+  --db PATH                   the diary file (default: the desktop app's own diary)
+  --help                      this text`;
+
+class UsageError extends Error {}
+
+interface Parsed {
+  command: string | undefined;
+  positionals: string[];
+  values: { db?: string; port?: string; format?: string; help?: boolean };
+}
+
+function parse(argv: string[]): Parsed {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    strict: true,
+    options: {
+      db: { type: 'string' },
+      port: { type: 'string' },
+      format: { type: 'string' },
+      help: { type: 'boolean', short: 'h' },
+    },
+  });
+  return { command: positionals[0], positionals: positionals.slice(1), values };
+}
+
+function one(positionals: string[], what: string): string {
+  if (positionals.length !== 1) throw new UsageError(`expects exactly one ${what}`);
+  return positionals[0]!;
+}
+
+function withDiary<T>(dbPath: string, fn: (service: DiaryService) => Promise<T>): Promise<T> {
+  const service = openDiary({ dbPath });
+  return fn(service).finally(() => service.close());
+}
+
+/** Finds the built renderer next to this program, building it first in a source checkout. */
+async function rendererDir(): Promise<string> {
+  const here = path.dirname(path.resolve(process.argv[1] ?? '.'));
+  const candidates = [path.join(here, '..', 'renderer'), path.join(here, '..', 'dist', 'renderer')];
+  const found = candidates.find((dir) => fs.existsSync(path.join(dir, 'index.html')));
+  if (found) return found;
+  const root = path.join(here, '..');
+  if (!fs.existsSync(path.join(root, 'vite.config.ts'))) {
+    throw new Error('The app screens are missing from this installation; reinstall Forelog.');
+  }
+  process.stderr.write('Building the app screens (first run in this checkout)…\n');
+  const vite = await import('vite');
+  await vite.build({ root: path.join(root, 'renderer'), configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn' });
+  return path.join(root, 'dist', 'renderer');
+}
+
+async function serve(dbPath: string, portText: string | undefined): Promise<void> {
+  const port = portText === undefined ? 0 : Number(portText);
+  if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
+  const dir = await rendererDir();
+  const service = openDiary({ dbPath, onInternalError: (err) => process.stderr.write(`internal error: ${String(err)}\n`) });
+  let server;
+  try {
+    server = await startHttpServer({ dispatch: service.dispatch, rendererDir: dir, port });
+  } catch (err) {
+    service.close();
+    if ((err as NodeJS.ErrnoException).code === 'EADDRINUSE') throw new Error(`port ${port} is already in use; choose another with --port or use --port 0`);
+    throw err;
+  }
+  // The first line is the address with the token: scripts and tests read it.
+  process.stdout.write(`${server.url}\n`);
+  process.stderr.write(`Forelog is serving ${service.location} on 127.0.0.1 only. Open the address above; press Ctrl+C to stop.\n`);
+  const stop = () => {
+    void server.close().then(() => {
+      service.close();
+      process.exit(0);
+    });
+  };
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+}
+
+async function run(argv: string[]): Promise<void> {
+  const { command, positionals, values } = parse(argv);
+  if (values.help || command === undefined || command === 'help') {
+    process.stdout.write(`${USAGE}\n`);
+    return;
+  }
+  const dbPath = values.db ?? defaultDiaryPath();
+  switch (command) {
+    case 'serve':
+      return serve(dbPath, values.port);
+    case 'import': {
+      const file = one(positionals, 'FILE to import');
+      const text = fs.readFileSync(file, 'utf8');
+      let diary: unknown;
+      try {
+        diary = JSON.parse(text);
+      } catch (err) {
+        throw new Error(`${file} is not valid JSON (${(err as Error).message}); nothing was imported`);
+      }
+      const result = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'importDiary', { diary }))) as { added: number };
+      process.stdout.write(`Imported ${result.added} question${result.added === 1 ? '' : 's'} into ${path.resolve(dbPath)}.\n`);
+      return;
+    }
+    case 'export': {
+      if (positionals.length > 1) throw new UsageError('expects at most one FILE');
+      const format = values.format ?? 'json';
+      if (format !== 'json') throw new UsageError(`--format must be json (got "${format}")`);
+      const text = await withDiary(dbPath, async (s) => s.exportDiaryJson());
+      if (positionals[0]) {
+        fs.writeFileSync(positionals[0], text);
+        process.stderr.write(`Wrote ${positionals[0]}.\n`);
+      } else process.stdout.write(text);
+      return;
+    }
+    case 'demo': {
+      const result = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'loadDemo', {}))) as { added: number };
+      process.stdout.write(`Added the example diary: ${result.added} invented questions in ${path.resolve(dbPath)}.\n`);
+      return;
+    }
+    case 'backup': {
+      const file = one(positionals, 'FILE to write the backup to');
+      await withDiary(dbPath, (s) =>
+        s.backupTo(file, (percent) => {
+          if (process.stderr.isTTY) process.stderr.write(`\rBacking up… ${percent}%`);
+        }),
+      );
+      if (process.stderr.isTTY) process.stderr.write('\n');
+      process.stdout.write(`Backed up ${path.resolve(dbPath)} to ${path.resolve(file)} (${inspectBackup(file).questions} questions).\n`);
+      return;
+    }
+    case 'restore': {
+      const file = one(positionals, 'backup FILE to restore');
+      const result = await restoreFrom(file, dbPath, Date.now());
+      process.stdout.write(
+        `Restored ${result.questions} questions from ${path.resolve(file)} into ${path.resolve(dbPath)}.` +
+          (result.safetyCopy ? ` The diary as it was is kept at ${result.safetyCopy}.` : '') +
+          '\n',
+      );
+      return;
+    }
+    default:
+      throw new UsageError(`unknown command "${command}" (try forelog --help)`);
+  }
+}
+
+run(process.argv.slice(2)).catch((err: unknown) => {
+  const message =
+    err instanceof UsageError
+      ? `forelog: ${err.message}. See forelog --help.`
+      : err instanceof ApiError
+        ? `forelog: ${err.message}`
+        : `forelog: ${err instanceof Error ? err.message : String(err)}`;
+  process.stderr.write(`${message.replace(/\s*\n\s*/g, ' ')}\n`);
+  process.exitCode = 1;
+});

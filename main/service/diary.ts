@@ -1,0 +1,419 @@
+/**
+ * The diary's operations: the only code that writes the store. Requests arrive already
+ * validated against the contract (see dispatch.ts); the checks here are the ones that
+ * need the diary's state (does the question exist, is the close still after the opening).
+ */
+import { randomUUID } from 'node:crypto';
+import type { Handlers, QuestionList, ValidRequest } from '../../shared/contract';
+import { ApiError } from '../../shared/contract';
+import { parseDiaryFile, toDiaryFile, DiaryFileError, type FileQuestion } from '../../shared/diary-file';
+import {
+  questionStatus,
+  type Lens,
+  type Outcome,
+  type Question,
+  type QuestionKind,
+  type QuestionSummary,
+  type Settings,
+} from '../../shared/domain';
+import { parseInstant, toIso } from '../../shared/time';
+import type { StoreHandles } from '../store/open';
+import * as nudgeStore from '../store/nudges';
+import * as qs from '../store/questions';
+import { readSettings, writeSettings } from '../store/settings';
+
+export interface DiaryContext {
+  store: StoreHandles;
+  now: () => number;
+  systemTimeZone: string;
+  /** Builds the example diary for an empty diary (injected so the service stays small). */
+  demo: (now: number) => unknown;
+}
+
+const ms = (iso: string): number => parseInstant(iso)!;
+
+function notFound(what: string, id: string): ApiError {
+  return new ApiError('not_found', `No ${what} with id "${id}" in this diary. It may have been deleted; reload and try again.`);
+}
+
+function invalid(field: string, reason: string): ApiError {
+  return new ApiError('invalid', `The request was not accepted: ${field}: ${reason}. Nothing was changed.`, [`${field}: ${reason}`]);
+}
+
+export function createDiary(ctx: DiaryContext) {
+  const { store, now } = ctx;
+  const { read, write } = store;
+
+  const settings = (): Settings => readSettings(read, ctx.systemTimeZone);
+
+  function getQuestion(id: string): Question {
+    const bundle = qs.loadBundles(read, [id])[0];
+    if (!bundle) throw notFound('question', id);
+    return qs.toQuestion(bundle);
+  }
+
+  function requireQuestionRow(id: string): qs.QuestionRow {
+    const row = qs.questionRow(write, id);
+    if (!row) throw notFound('question', id);
+    return row;
+  }
+
+  /** Inserts one question with its history; the caller holds the transaction. */
+  function insertWhole(q: FileQuestion, s: Settings, stamp: number): string {
+    const id = q.id ?? randomUUID();
+    const firstAt = q.forecasts.length ? Math.min(...q.forecasts.map((f) => ms(f.at))) : null;
+    const closes = ms(q.closes_at);
+    const opened = q.opened_at !== undefined ? ms(q.opened_at) : Math.min(firstAt ?? stamp, closes - 1);
+    if (closes <= opened) throw invalid('closes_at', 'must be after the opening time (opened_at)');
+    qs.insertQuestion(
+      write,
+      {
+        id,
+        title: q.title,
+        rule: q.rule ?? '',
+        kind: (q.kind ?? 'event_by_deadline') as QuestionKind,
+        opened_at: opened,
+        closes_at: closes,
+        time_zone: q.time_zone ?? s.time_zone,
+        base_rate: q.base_rate ?? null,
+        base_rate_note: q.base_rate_note ?? '',
+        false_alarm_cost: q.costs?.false_alarm ?? null,
+        miss_cost: q.costs?.miss ?? null,
+        checkin_days: q.checkin_days ?? null,
+        created_at: stamp,
+        updated_at: stamp,
+      },
+      q.tags ?? [],
+    );
+    for (const f of q.forecasts) {
+      qs.insertForecast(write, {
+        id: randomUUID(),
+        question_id: id,
+        at: ms(f.at),
+        p: f.p,
+        note: f.note ?? '',
+        lenses: (f.lenses ?? []) as Lens[],
+      });
+    }
+    for (const r of q.references ?? []) {
+      qs.insertReference(write, { id: randomUUID(), question_id: id, at: ms(r.at), p: r.p, source: r.source });
+    }
+    if (q.resolution) {
+      qs.upsertResolution(write, {
+        question_id: id,
+        outcome: q.resolution.outcome as Outcome,
+        at: ms(q.resolution.at),
+        note: q.resolution.note ?? '',
+        recorded_at: stamp,
+      });
+    }
+    return id;
+  }
+
+  function listQuestions(req: ValidRequest<'listQuestions'>): QuestionList {
+    const t = now();
+    const s = settings();
+    const where: string[] = [];
+    const args: unknown[] = [];
+    if (req.tag) {
+      where.push('q.id IN (SELECT question_id FROM question_tags WHERE tag = ?)');
+      args.push(req.tag);
+    }
+    const text = req.text?.trim();
+    if (text) {
+      // Search title, rule and tags; LIKE's own wildcards in the text are taken literally.
+      const like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      where.push(
+        `(lower(q.title) LIKE ? ESCAPE '\\' OR lower(q.rule) LIKE ? ESCAPE '\\' OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE ? ESCAPE '\\'))`,
+      );
+      args.push(like, like, like);
+    }
+    const rows = read
+      .prepare(
+        `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, r.outcome,
+           (SELECT json_group_array(tag) FROM (SELECT tag FROM question_tags WHERE question_id = q.id ORDER BY position)) AS tags,
+           (SELECT p FROM forecasts f WHERE f.question_id = q.id ORDER BY f.at DESC, f.seq DESC LIMIT 1) AS last_p,
+           (SELECT at FROM forecasts f WHERE f.question_id = q.id ORDER BY f.at DESC, f.seq DESC LIMIT 1) AS last_at,
+           (SELECT count(*) FROM forecasts f WHERE f.question_id = q.id) AS forecast_count
+         FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id
+         ${where.length ? `WHERE ${where.join(' AND ')}` : ''}
+         ORDER BY q.closes_at, q.title`,
+      )
+      .all(...args) as {
+      id: string;
+      title: string;
+      kind: QuestionKind;
+      opened_at: number;
+      closes_at: number;
+      time_zone: string;
+      base_rate: number | null;
+      outcome: Outcome | null;
+      tags: string;
+      last_p: number | null;
+      last_at: number | null;
+      forecast_count: number;
+    }[];
+    const questions: QuestionSummary[] = [];
+    for (const r of rows) {
+      const status = questionStatus(r.closes_at, r.outcome, t, s.closing_soon_hours);
+      if (req.status && req.status !== status) continue;
+      questions.push({
+        id: r.id,
+        title: r.title,
+        kind: r.kind,
+        tags: JSON.parse(r.tags) as string[],
+        opened_at: toIso(r.opened_at),
+        closes_at: toIso(r.closes_at),
+        time_zone: r.time_zone,
+        base_rate: r.base_rate,
+        last_p: r.last_p,
+        last_forecast_at: r.last_at === null ? null : toIso(r.last_at),
+        forecast_count: r.forecast_count,
+        status,
+        outcome: r.outcome,
+      });
+    }
+    return { questions, tags: qs.allTagCounts(read), total: qs.questionCount(read) };
+  }
+
+  function importParsed(raw: unknown): { added: number } {
+    let parsed;
+    try {
+      parsed = parseDiaryFile(raw);
+    } catch (err) {
+      if (err instanceof DiaryFileError) throw new ApiError('invalid', err.message, err.field ? [`${err.field}: ${err.message}`] : []);
+      throw err;
+    }
+    const stamp = now();
+    write.transaction(() => {
+      const empty = qs.questionCount(write) === 0;
+      // The file's settings come along only into an empty diary: importing a colleague's
+      // file into a working diary must not change its defaults.
+      if (empty && parsed.settings) {
+        const { default_false_alarm_cost, default_miss_cost, default_checkin_days, closing_soon_hours, overdue_after_days, time_zone, quiet_hours } =
+          parsed.settings;
+        writeSettings(write, {
+          default_false_alarm_cost,
+          default_miss_cost,
+          default_checkin_days,
+          closing_soon_hours,
+          overdue_after_days,
+          time_zone,
+          quiet_hours: quiet_hours === undefined ? undefined : quiet_hours,
+        } as Partial<Settings>);
+      }
+      const s = readSettings(write, ctx.systemTimeZone);
+      parsed.questions.forEach((q, index) => {
+        if (q.id !== undefined && qs.questionRow(write, q.id)) {
+          throw new ApiError(
+            'conflict',
+            `Question record ${index} is not valid: field id: "${q.id}" is already in this diary (was this file imported before?). Nothing was imported.`,
+            [`questions[${index}].id: already in this diary`],
+          );
+        }
+        try {
+          insertWhole(q, s, stamp);
+        } catch (err) {
+          if (err instanceof ApiError) {
+            throw new ApiError(err.code, `Question record ${index} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
+          }
+          throw err;
+        }
+      });
+    })();
+    return { added: parsed.questions.length };
+  }
+
+  function exportDiary(): Record<string, unknown> {
+    const questions = qs.loadBundles(read).map(qs.toQuestion);
+    return toDiaryFile(settings(), questions);
+  }
+
+  const handlers: Handlers = {
+    diaryInfo: () => ({ question_count: qs.questionCount(read), location: store.path, time_zone: settings().time_zone }),
+
+    listQuestions,
+
+    getQuestion: (req) => getQuestion(req.id),
+
+    createQuestion: (req) => {
+      const stamp = now();
+      const s = settings();
+      const opened = req.opened_at !== undefined ? ms(req.opened_at) : stamp;
+      if (ms(req.closes_at) <= opened) {
+        throw invalid('closes_at', req.opened_at === undefined ? 'must be in the future (after now, when the question opens)' : 'must be after the opening time (opened_at)');
+      }
+      let id = '';
+      write.transaction(() => {
+        id = insertWhole(
+          {
+            ...req,
+            opened_at: toIso(opened),
+            forecasts: req.first_forecast
+              ? [{ at: req.first_forecast.at ?? toIso(Math.max(stamp, opened)), p: req.first_forecast.p, note: req.first_forecast.note, lenses: req.first_forecast.lenses }]
+              : [],
+          } as FileQuestion,
+          s,
+          stamp,
+        );
+      })();
+      return getQuestion(id);
+    },
+
+    updateQuestion: (req) => {
+      write.transaction(() => {
+        const row = requireQuestionRow(req.id);
+        const c = req.changes;
+        const next: qs.QuestionRow = {
+          ...row,
+          title: c.title ?? row.title,
+          rule: c.rule ?? row.rule,
+          kind: (c.kind as QuestionKind | undefined) ?? row.kind,
+          opened_at: c.opened_at !== undefined ? ms(c.opened_at) : row.opened_at,
+          closes_at: c.closes_at !== undefined ? ms(c.closes_at) : row.closes_at,
+          time_zone: c.time_zone ?? row.time_zone,
+          base_rate: c.base_rate !== undefined ? c.base_rate : row.base_rate,
+          base_rate_note: c.base_rate_note ?? row.base_rate_note,
+          false_alarm_cost: c.costs !== undefined ? (c.costs?.false_alarm ?? null) : row.false_alarm_cost,
+          miss_cost: c.costs !== undefined ? (c.costs?.miss ?? null) : row.miss_cost,
+          checkin_days: c.checkin_days !== undefined ? c.checkin_days : row.checkin_days,
+          updated_at: now(),
+        };
+        if (next.closes_at <= next.opened_at) throw invalid('changes.closes_at', 'must be after the opening time (opened_at)');
+        qs.updateQuestionRow(write, next);
+        if (c.tags) qs.replaceTags(write, req.id, c.tags);
+      })();
+      return getQuestion(req.id);
+    },
+
+    deleteQuestion: (req) => {
+      write.transaction(() => {
+        if (!qs.deleteQuestionRow(write, req.id)) throw notFound('question', req.id);
+      })();
+      return { deleted: req.id };
+    },
+
+    addForecast: (req) => {
+      write.transaction(() => {
+        requireQuestionRow(req.question_id);
+        const stamp = now();
+        qs.insertForecast(write, {
+          id: randomUUID(),
+          question_id: req.question_id,
+          at: req.at !== undefined ? ms(req.at) : stamp,
+          p: req.p,
+          note: req.note ?? '',
+          lenses: (req.lenses ?? []) as Lens[],
+        });
+        // A revision answers any pending check-in, snoozed or not.
+        nudgeStore.clearSnoozes(write, req.question_id, 'checkin');
+        qs.touchQuestion(write, req.question_id, stamp);
+      })();
+      return getQuestion(req.question_id);
+    },
+
+    updateForecast: (req) => {
+      let questionId = '';
+      write.transaction(() => {
+        const f = qs.forecastRow(write, req.id);
+        if (!f) throw notFound('revision', req.id);
+        questionId = f.question_id;
+        qs.updateForecastRow(write, {
+          id: f.id,
+          at: req.at !== undefined ? ms(req.at) : f.at,
+          p: req.p ?? f.p,
+          note: req.note ?? f.note,
+        });
+        if (req.lenses) qs.replaceLenses(write, f.id, req.lenses as Lens[]);
+        qs.touchQuestion(write, f.question_id, now());
+      })();
+      return getQuestion(questionId);
+    },
+
+    deleteForecast: (req) => {
+      let questionId = '';
+      write.transaction(() => {
+        const f = qs.forecastRow(write, req.id);
+        if (!f) throw notFound('revision', req.id);
+        questionId = f.question_id;
+        qs.deleteForecastRow(write, req.id);
+        qs.touchQuestion(write, f.question_id, now());
+      })();
+      return getQuestion(questionId);
+    },
+
+    addReference: (req) => {
+      write.transaction(() => {
+        requireQuestionRow(req.question_id);
+        qs.insertReference(write, {
+          id: randomUUID(),
+          question_id: req.question_id,
+          at: req.at !== undefined ? ms(req.at) : now(),
+          p: req.p,
+          source: req.source,
+        });
+        qs.touchQuestion(write, req.question_id, now());
+      })();
+      return getQuestion(req.question_id);
+    },
+
+    deleteReference: (req) => {
+      let questionId = '';
+      write.transaction(() => {
+        const r = qs.referenceRow(write, req.id);
+        if (!r) throw notFound('reference forecast', req.id);
+        questionId = r.question_id;
+        qs.deleteReferenceRow(write, req.id);
+        qs.touchQuestion(write, r.question_id, now());
+      })();
+      return getQuestion(questionId);
+    },
+
+    resolveQuestion: (req) => {
+      write.transaction(() => {
+        const row = requireQuestionRow(req.id);
+        const stamp = now();
+        const at = req.at !== undefined ? ms(req.at) : stamp;
+        if (at < row.opened_at) throw invalid('at', 'must not be before the question opened');
+        qs.upsertResolution(write, { question_id: req.id, outcome: req.outcome as Outcome, at, note: req.note ?? '', recorded_at: stamp });
+        nudgeStore.clearSnoozes(write, req.id);
+        qs.touchQuestion(write, req.id, stamp);
+      })();
+      return getQuestion(req.id);
+    },
+
+    reopenQuestion: (req) => {
+      write.transaction(() => {
+        requireQuestionRow(req.id);
+        qs.deleteResolution(write, req.id);
+        qs.touchQuestion(write, req.id, now());
+      })();
+      return getQuestion(req.id);
+    },
+
+    getSettings: () => settings(),
+
+    updateSettings: (req) => {
+      write.transaction(() => writeSettings(write, req as Partial<Settings>))();
+      return settings();
+    },
+
+    importDiary: (req) => importParsed(req.diary),
+
+    exportDiary: () => exportDiary(),
+
+    loadDemo: () => {
+      if (qs.questionCount(read) > 0) {
+        throw new ApiError(
+          'conflict',
+          'The example diary can only be loaded into an empty diary, and this one already has questions. Start a new diary file (--db) to explore the example.',
+        );
+      }
+      return importParsed(ctx.demo(now()));
+    },
+  };
+
+  return { handlers, settings, getQuestion, exportDiary };
+}
+
+export type Diary = ReturnType<typeof createDiary>;

@@ -1,0 +1,111 @@
+/**
+ * Numbered forward migrations. `user_version` holds the number of the last one applied;
+ * a database whose version is higher than the last migration here was written by a newer
+ * Forelog and is refused rather than misread. Never edit a shipped migration: add one.
+ */
+export interface Migration {
+  version: number;
+  description: string;
+  sql: string;
+}
+
+export const MIGRATIONS: readonly Migration[] = [
+  {
+    version: 1,
+    description: 'questions, tags, forecast revisions with lenses, reference forecasts, resolutions, settings',
+    sql: `
+      CREATE TABLE questions (
+        id             TEXT PRIMARY KEY,
+        title          TEXT NOT NULL CHECK (length(trim(title)) > 0),
+        rule           TEXT NOT NULL DEFAULT '',
+        kind           TEXT NOT NULL CHECK (kind IN ('event_by_deadline', 'state_at_deadline')),
+        opened_at      INTEGER NOT NULL,
+        closes_at      INTEGER NOT NULL,
+        time_zone      TEXT NOT NULL,
+        base_rate      REAL CHECK (base_rate IS NULL OR (base_rate >= 0 AND base_rate <= 1)),
+        base_rate_note TEXT NOT NULL DEFAULT '',
+        false_alarm_cost REAL CHECK (false_alarm_cost IS NULL OR false_alarm_cost > 0),
+        miss_cost      REAL CHECK (miss_cost IS NULL OR miss_cost > 0),
+        checkin_days   INTEGER CHECK (checkin_days IS NULL OR checkin_days >= 0),
+        created_at     INTEGER NOT NULL,
+        updated_at     INTEGER NOT NULL,
+        CHECK (closes_at > opened_at),
+        CHECK ((false_alarm_cost IS NULL) = (miss_cost IS NULL))
+      );
+      CREATE INDEX questions_closes_at ON questions (closes_at);
+
+      CREATE TABLE question_tags (
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        tag         TEXT NOT NULL,
+        position    INTEGER NOT NULL,
+        PRIMARY KEY (question_id, tag)
+      );
+      CREATE INDEX question_tags_tag ON question_tags (tag);
+
+      -- seq is the entry order across the diary; it breaks ties between equal times.
+      CREATE TABLE forecasts (
+        seq         INTEGER PRIMARY KEY AUTOINCREMENT,
+        id          TEXT NOT NULL UNIQUE,
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        at          INTEGER NOT NULL,
+        p           REAL NOT NULL CHECK (p >= 0 AND p <= 1),
+        note        TEXT NOT NULL DEFAULT ''
+      );
+      CREATE INDEX forecasts_question ON forecasts (question_id, at, seq);
+
+      CREATE TABLE forecast_lenses (
+        forecast_id TEXT NOT NULL REFERENCES forecasts (id) ON DELETE CASCADE,
+        position    INTEGER NOT NULL,
+        name        TEXT NOT NULL,
+        p           REAL NOT NULL CHECK (p >= 0 AND p <= 1),
+        weight      REAL NOT NULL CHECK (weight >= 0),
+        PRIMARY KEY (forecast_id, position)
+      );
+
+      CREATE TABLE reference_forecasts (
+        seq         INTEGER PRIMARY KEY AUTOINCREMENT,
+        id          TEXT NOT NULL UNIQUE,
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        at          INTEGER NOT NULL,
+        p           REAL NOT NULL CHECK (p >= 0 AND p <= 1),
+        source      TEXT NOT NULL
+      );
+      CREATE INDEX reference_forecasts_question ON reference_forecasts (question_id, at, seq);
+
+      CREATE TABLE resolutions (
+        question_id TEXT PRIMARY KEY REFERENCES questions (id) ON DELETE CASCADE,
+        outcome     TEXT NOT NULL CHECK (outcome IN ('yes', 'no', 'void')),
+        at          INTEGER NOT NULL,
+        note        TEXT NOT NULL DEFAULT '',
+        recorded_at INTEGER NOT NULL
+      );
+
+      CREATE TABLE settings (
+        key   TEXT PRIMARY KEY,
+        value TEXT NOT NULL
+      );
+    `,
+  },
+  {
+    version: 2,
+    description: 'nudge delivery log and snoozes',
+    sql: `
+      CREATE TABLE nudge_log (
+        key          TEXT PRIMARY KEY,
+        question_id  TEXT,
+        kind         TEXT NOT NULL,
+        delivered_at INTEGER NOT NULL
+      );
+      CREATE INDEX nudge_log_question ON nudge_log (question_id);
+
+      CREATE TABLE snoozes (
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        kind        TEXT NOT NULL CHECK (kind IN ('checkin', 'closing_soon', 'window_closed', 'overdue')),
+        until       INTEGER NOT NULL,
+        PRIMARY KEY (question_id, kind)
+      );
+    `,
+  },
+];
+
+export const SCHEMA_VERSION = MIGRATIONS[MIGRATIONS.length - 1]!.version;

@@ -1,0 +1,227 @@
+/**
+ * The API contract: every operation the renderer (or a script) can ask of the diary,
+ * with the runtime schema of its request and the type of its response. Both transports
+ * (Electron IPC and browser-mode HTTP) and the command line validate requests against
+ * these schemas before the service runs, so a bad request changes nothing.
+ */
+import { z } from 'zod';
+import type {
+  Question,
+  QuestionSummary,
+  Settings,
+} from './domain';
+import { OUTCOMES, QUESTION_KINDS, QUESTION_STATUSES } from './domain';
+import * as v from './validation';
+
+const id = z.string({ error: 'must be an id' }).min(1, { message: 'must not be empty' }).max(200);
+
+const firstForecast = z.object({
+  p: v.probability,
+  note: v.note.optional(),
+  at: v.instant.optional(),
+  lenses: v.lenses.optional(),
+});
+
+/** Fields of a question the user writes; shared by create and edit. */
+const questionFields = {
+  title: v.title,
+  rule: v.note.optional(),
+  kind: z.enum(QUESTION_KINDS as [string, ...string[]], { error: 'must be event_by_deadline or state_at_deadline' }).optional(),
+  tags: v.tags.optional(),
+  opened_at: v.instant.optional(),
+  closes_at: v.instant,
+  time_zone: v.timeZone.optional(),
+  base_rate: v.probability.nullable().optional(),
+  base_rate_note: v.note.optional(),
+  costs: v.costs.nullable().optional(),
+  checkin_days: v.checkinDays.nullable().optional(),
+};
+
+export const createQuestionRequest = z
+  .object({ ...questionFields, first_forecast: firstForecast.optional() })
+  .refine((q) => q.opened_at === undefined || Date.parse(q.closes_at) > Date.parse(q.opened_at), {
+    message: 'must be after the opening time (opened_at)',
+    path: ['closes_at'],
+  });
+
+export const updateQuestionRequest = z.object({
+  id,
+  changes: z
+    .object({
+      title: questionFields.title.optional(),
+      rule: questionFields.rule,
+      kind: questionFields.kind,
+      tags: questionFields.tags,
+      opened_at: questionFields.opened_at,
+      closes_at: questionFields.closes_at.optional(),
+      time_zone: questionFields.time_zone,
+      base_rate: questionFields.base_rate,
+      base_rate_note: questionFields.base_rate_note,
+      costs: questionFields.costs,
+      checkin_days: questionFields.checkin_days,
+    })
+    .strict(),
+});
+
+export const forecastRequest = z.object({
+  question_id: id,
+  p: v.probability,
+  note: v.note.optional(),
+  at: v.instant.optional(),
+  lenses: v.lenses.optional(),
+});
+
+export const updateForecastRequest = z.object({
+  id,
+  p: v.probability.optional(),
+  note: v.note.optional(),
+  at: v.instant.optional(),
+  lenses: v.lenses.optional(),
+});
+
+export const referenceRequest = z.object({
+  question_id: id,
+  p: v.probability,
+  source: z.string({ error: 'must be text' }).trim().min(1, { message: 'must name the source' }).max(200),
+  at: v.instant.optional(),
+});
+
+export const resolveRequest = z.object({
+  id,
+  outcome: z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' }),
+  at: v.instant.optional(),
+  note: v.note.optional(),
+});
+
+export const listRequest = z.object({
+  status: z.enum(QUESTION_STATUSES as [string, ...string[]], { error: `must be one of ${QUESTION_STATUSES.join(', ')}` }).optional(),
+  tag: v.tag.optional(),
+  text: z.string().max(200).optional(),
+});
+
+export const settingsPatch = z
+  .object({
+    default_false_alarm_cost: v.positiveCost.optional(),
+    default_miss_cost: v.positiveCost.optional(),
+    default_checkin_days: v.checkinDays.optional(),
+    closing_soon_hours: z.number().int({ message: 'must be whole hours' }).min(1, { message: 'must be at least 1 hour' }).max(24 * 14).optional(),
+    overdue_after_days: z.number().int({ message: 'must be whole days' }).min(0).max(90, { message: 'must be at most 90 days' }).optional(),
+    time_zone: v.timeZone.optional(),
+    quiet_hours: z.object({ start: v.hhmm, end: v.hhmm }).nullable().optional(),
+  })
+  .strict();
+
+const empty = z.object({}).strict();
+const byId = z.object({ id });
+
+export interface TagCount {
+  tag: string;
+  count: number;
+}
+
+export interface QuestionList {
+  questions: QuestionSummary[];
+  tags: TagCount[];
+  /** Number of questions in the whole diary, before filters. */
+  total: number;
+}
+
+export interface DiaryInfo {
+  question_count: number;
+  /** Where the diary file lives, for the about box; null in tests. */
+  location: string | null;
+  time_zone: string;
+}
+
+/** Operation name → request schema. The response type is in `Responses`. */
+export const operations = {
+  diaryInfo: empty,
+  listQuestions: listRequest,
+  getQuestion: byId,
+  createQuestion: createQuestionRequest,
+  updateQuestion: updateQuestionRequest,
+  deleteQuestion: byId,
+  addForecast: forecastRequest,
+  updateForecast: updateForecastRequest,
+  deleteForecast: byId,
+  addReference: referenceRequest,
+  deleteReference: byId,
+  resolveQuestion: resolveRequest,
+  reopenQuestion: byId,
+  getSettings: empty,
+  updateSettings: settingsPatch,
+  importDiary: z.object({ diary: z.unknown() }),
+  exportDiary: empty,
+  loadDemo: empty,
+} as const;
+
+export type OperationName = keyof typeof operations;
+
+export interface Responses {
+  diaryInfo: DiaryInfo;
+  listQuestions: QuestionList;
+  getQuestion: Question;
+  createQuestion: Question;
+  updateQuestion: Question;
+  deleteQuestion: { deleted: string };
+  addForecast: Question;
+  updateForecast: Question;
+  deleteForecast: Question;
+  addReference: Question;
+  deleteReference: Question;
+  resolveQuestion: Question;
+  reopenQuestion: Question;
+  getSettings: Settings;
+  updateSettings: Settings;
+  importDiary: { added: number };
+  exportDiary: unknown;
+  loadDemo: { added: number };
+}
+
+export type Request<K extends OperationName> = z.input<(typeof operations)[K]>;
+export type ValidRequest<K extends OperationName> = z.output<(typeof operations)[K]>;
+
+/** What the renderer holds: one async function per operation. */
+export type Api = { [K in OperationName]: (request: Request<K>) => Promise<Responses[K]> };
+
+/** The handlers behind the API; they receive requests already validated. */
+export type Handlers = { [K in OperationName]: (request: ValidRequest<K>) => Responses[K] | Promise<Responses[K]> };
+
+export function isOperationName(name: string): name is OperationName {
+  return Object.prototype.hasOwnProperty.call(operations, name);
+}
+
+/** An error a user can act on; `fields` lists `field: reason` lines. Carried by both transports. */
+export interface ApiErrorBody {
+  error: { code: ApiErrorCode; message: string; fields: string[] };
+}
+
+export type ApiErrorCode = 'invalid' | 'not_found' | 'conflict' | 'internal';
+
+export class ApiError extends Error {
+  constructor(
+    readonly code: ApiErrorCode,
+    message: string,
+    readonly fields: string[] = [],
+  ) {
+    super(message);
+    this.name = 'ApiError';
+  }
+
+  toBody(): ApiErrorBody {
+    return { error: { code: this.code, message: this.message, fields: this.fields } };
+  }
+}
+
+/**
+ * Validates `raw` against the operation's schema; throws an `invalid` ApiError listing each
+ * field and reason.
+ */
+export function parseRequest<K extends OperationName>(name: K, raw: unknown): ValidRequest<K> {
+  const result = operations[name].safeParse(raw ?? {});
+  if (!result.success) {
+    const fields = v.describeIssues(result.error);
+    throw new ApiError('invalid', `The request was not accepted: ${fields.join('; ')}. Nothing was changed.`, fields);
+  }
+  return result.data as ValidRequest<K>;
+}

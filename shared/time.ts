@@ -1,0 +1,181 @@
+/**
+ * Time-zone arithmetic on IANA zones using only `Intl` (no tz database of our own).
+ *
+ * Local wall-clock times are resolved to instants by RFC 5545 §3.3.5: a wall time that
+ * occurs twice (the hour repeated when clocks go back) means its first occurrence; a
+ * wall time in a gap (the hour skipped when clocks go forward) is read with the UTC
+ * offset in force before the gap, which lands it that far after the gap's start.
+ */
+
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+function formatterFor(timeZone: string): Intl.DateTimeFormat {
+  let f = formatters.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-US', {
+      timeZone,
+      hourCycle: 'h23',
+      year: 'numeric',
+      month: 'numeric',
+      day: 'numeric',
+      hour: 'numeric',
+      minute: 'numeric',
+      second: 'numeric',
+    });
+    formatters.set(timeZone, f);
+  }
+  return f;
+}
+
+/** True when `timeZone` is an IANA zone name this runtime knows. */
+export function isValidTimeZone(timeZone: string): boolean {
+  if (typeof timeZone !== 'string' || timeZone.length === 0) return false;
+  try {
+    formatterFor(timeZone);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+/** The system's own zone, falling back to UTC. */
+export function systemTimeZone(): string {
+  try {
+    return Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
+  } catch {
+    return 'UTC';
+  }
+}
+
+export interface WallTime {
+  year: number;
+  month: number; // 1–12
+  day: number;
+  hour: number;
+  minute: number;
+  second: number;
+}
+
+/** The wall-clock reading in `timeZone` at instant `ms`. */
+export function wallTimeAt(ms: number, timeZone: string): WallTime {
+  const parts = formatterFor(timeZone).formatToParts(new Date(ms));
+  const get = (type: Intl.DateTimeFormatPartTypes): number =>
+    Number(parts.find((p) => p.type === type)?.value ?? 0);
+  return {
+    year: get('year'),
+    month: get('month'),
+    day: get('day'),
+    hour: get('hour') % 24,
+    minute: get('minute'),
+    second: get('second'),
+  };
+}
+
+/** UTC offset of `timeZone` at instant `ms`, in minutes east of UTC. */
+export function offsetMinutesAt(ms: number, timeZone: string): number {
+  const w = wallTimeAt(ms, timeZone);
+  const asUtc = Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second);
+  const whole = Math.floor(ms / 1000) * 1000;
+  return Math.round((asUtc - whole) / 60_000);
+}
+
+/**
+ * The instant at which `timeZone`'s clocks read `wall` (RFC 5545 §3.3.5 for repeated
+ * and skipped wall times; see the module comment).
+ */
+export function wallTimeToInstant(wall: WallTime, timeZone: string): number {
+  const naive = Date.UTC(wall.year, wall.month - 1, wall.day, wall.hour, wall.minute, wall.second);
+  // Offsets a day either side bracket any single transition near this wall time.
+  const before = offsetMinutesAt(naive - 86_400_000, timeZone);
+  const after = offsetMinutesAt(naive + 86_400_000, timeZone);
+  const candidates = [naive - before * 60_000, naive - after * 60_000].sort((a, b) => a - b);
+  for (const t of candidates) {
+    if (offsetMinutesAt(t, timeZone) * 60_000 === naive - t) return t; // first occurrence
+  }
+  // In a gap: read with the offset in force before it.
+  return naive - before * 60_000;
+}
+
+const LOCAL_RE = /^(\d{4})-(\d{2})-(\d{2})[T ](\d{2}):(\d{2})(?::(\d{2}))?$/;
+
+/** Parses "YYYY-MM-DDTHH:MM[:SS]" (no offset) as a wall time; null when malformed. */
+export function parseLocalDateTime(text: string): WallTime | null {
+  const m = LOCAL_RE.exec(text.trim());
+  if (!m) return null;
+  const [year, month, day, hour, minute, second] = [m[1], m[2], m[3], m[4], m[5], m[6] ?? '0'].map(Number) as [
+    number, number, number, number, number, number,
+  ];
+  if (month < 1 || month > 12 || day < 1 || day > daysInMonth(year, month)) return null;
+  if (hour > 23 || minute > 59 || second > 59) return null;
+  return { year, month, day, hour, minute, second };
+}
+
+export function daysInMonth(year: number, month: number): number {
+  return new Date(Date.UTC(year, month, 0)).getUTCDate();
+}
+
+/**
+ * The same wall-clock reading `days` calendar days later (earlier when negative), in the
+ * proleptic Gregorian calendar: month lengths and leap days come from `Date.UTC`, so
+ * 2028-02-28 + 1 is 2028-02-29 and 2027-02-28 + 1 is 2027-03-01. The time of day is kept;
+ * turning the result into an instant (and handling a DST gap or repeat) is
+ * `wallTimeToInstant`'s job.
+ */
+export function addCalendarDays(wall: WallTime, days: number): WallTime {
+  // setUTCFullYear rather than Date.UTC: Date.UTC maps years 0–99 onto 1900–1999.
+  const d = new Date(0);
+  d.setUTCFullYear(wall.year, wall.month - 1, wall.day + days);
+  return {
+    year: d.getUTCFullYear(),
+    month: d.getUTCMonth() + 1,
+    day: d.getUTCDate(),
+    hour: wall.hour,
+    minute: wall.minute,
+    second: wall.second,
+  };
+}
+
+/** "YYYY-MM-DDTHH:MM" of instant `ms` in `timeZone` (the value an <input type=datetime-local> takes). */
+export function toLocalInputValue(ms: number, timeZone: string): string {
+  const w = wallTimeAt(ms, timeZone);
+  const p = (n: number) => String(n).padStart(2, '0');
+  return `${w.year}-${p(w.month)}-${p(w.day)}T${p(w.hour)}:${p(w.minute)}`;
+}
+
+/**
+ * Parses an ISO 8601 date-time that carries an offset or `Z` (as the diary file and the
+ * API require); returns epoch ms or null. A bare date or a time without offset is
+ * rejected here on purpose: it would be ambiguous.
+ */
+const ISO_INSTANT_RE =
+  /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,9}))?)?(Z|[+-]\d{2}:?\d{2})$/i;
+
+export function parseInstant(text: string): number | null {
+  if (typeof text !== 'string') return null;
+  const m = ISO_INSTANT_RE.exec(text.trim());
+  if (!m) return null;
+  const wall = parseLocalDateTime(`${m[1]}-${m[2]}-${m[3]}T${m[4]}:${m[5]}:${m[6] ?? '00'}`);
+  if (!wall) return null;
+  const ms = Date.parse(text.trim());
+  return Number.isFinite(ms) ? ms : null;
+}
+
+/** Canonical form used across the API: ISO 8601 UTC with milliseconds. */
+export function toIso(ms: number): string {
+  return new Date(ms).toISOString();
+}
+
+/**
+ * A date-range bound for filters: an ISO instant, or a bare date `YYYY-MM-DD` meaning that
+ * whole day in UTC (start of the day for `from`, end of the day for `to`, both inclusive).
+ */
+export function parseRangeBound(text: string, end: 'from' | 'to'): number | null {
+  const bare = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text.trim());
+  if (bare) {
+    const wall = parseLocalDateTime(`${bare[1]}-${bare[2]}-${bare[3]}T00:00`);
+    if (!wall) return null;
+    const start = Date.UTC(wall.year, wall.month - 1, wall.day);
+    return end === 'from' ? start : start + 86_400_000 - 1;
+  }
+  return parseInstant(text);
+}

@@ -1,0 +1,118 @@
+/**
+ * Browser mode's transport: the token, the Host/Origin checks against DNS rebinding,
+ * static files, and the same validated API as the desktop app.
+ */
+import assert from 'node:assert/strict';
+import fs from 'node:fs';
+import http from 'node:http';
+import path from 'node:path';
+import { after, test } from 'node:test';
+import { startHttpServer } from '../../main/transport/http';
+import { openTestDiary, tempDir } from '../support/temp-diary';
+
+async function setup() {
+  const d = openTestDiary();
+  const dir = tempDir();
+  fs.writeFileSync(path.join(dir, 'index.html'), '<!doctype html><title>Forelog</title>');
+  const server = await startHttpServer({ dispatch: d.service.dispatch, rendererDir: dir, port: 0 });
+  after(() => server.close());
+  return { d, server, dir };
+}
+
+/** A raw request, so the test controls the Host and Origin headers exactly. */
+function request(
+  port: number,
+  options: { path: string; method?: string; headers?: Record<string, string>; body?: string },
+): Promise<{ status: number; body: string; headers: http.IncomingHttpHeaders }> {
+  return new Promise((resolve, reject) => {
+    const req = http.request(
+      { host: '127.0.0.1', port, path: options.path, method: options.method ?? 'GET', headers: options.headers, setHost: false },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, body: Buffer.concat(chunks).toString('utf8'), headers: res.headers }));
+      },
+    );
+    req.on('error', reject);
+    if (options.body) req.write(options.body);
+    req.end();
+  });
+}
+
+test('prints a loopback URL carrying the token', async () => {
+  const { server } = await setup();
+  assert.match(server.url, /^http:\/\/127\.0\.0\.1:\d+\/\?token=[A-Za-z0-9_-]{32}$/);
+  assert.ok(server.url.endsWith(server.token));
+});
+
+test('API calls need the token (401) and the loopback Host (403)', async () => {
+  const { server } = await setup();
+  const host = `127.0.0.1:${server.port}`;
+  const noToken = await request(server.port, { path: '/api/listQuestions', method: 'POST', headers: { Host: host }, body: '{}' });
+  assert.equal(noToken.status, 401);
+  const wrongToken = await request(server.port, {
+    path: '/api/listQuestions',
+    method: 'POST',
+    headers: { Host: host, Authorization: 'Bearer nope' },
+    body: '{}',
+  });
+  assert.equal(wrongToken.status, 401);
+  const rebound = await request(server.port, {
+    path: '/api/listQuestions',
+    method: 'POST',
+    headers: { Host: `evil.example:${server.port}`, Authorization: `Bearer ${server.token}` },
+    body: '{}',
+  });
+  assert.equal(rebound.status, 403);
+  const otherPort = await request(server.port, { path: '/', headers: { Host: '127.0.0.1:1' } });
+  assert.equal(otherPort.status, 403);
+  const foreignOrigin = await request(server.port, {
+    path: '/api/listQuestions',
+    method: 'POST',
+    headers: { Host: host, Origin: 'http://evil.example', Authorization: `Bearer ${server.token}` },
+    body: '{}',
+  });
+  assert.equal(foreignOrigin.status, 403);
+  const ok = await request(server.port, {
+    path: '/api/listQuestions',
+    method: 'POST',
+    headers: { Host: host, Origin: `http://127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}` },
+    body: '{}',
+  });
+  assert.equal(ok.status, 200);
+  assert.deepEqual(JSON.parse(ok.body), { ok: true, value: { questions: [], tags: [], total: 0 } });
+});
+
+test('the same validation as every transport: 400 with the field, nothing written', async () => {
+  const { server, d } = await setup();
+  const res = await request(server.port, {
+    path: '/api/createQuestion',
+    method: 'POST',
+    headers: { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}`, 'Content-Type': 'application/json' },
+    body: JSON.stringify({ title: 'x', closes_at: '2030-01-01T00:00:00Z', first_forecast: { p: 2 } }),
+  });
+  assert.equal(res.status, 400);
+  const body = JSON.parse(res.body);
+  assert.equal(body.ok, false);
+  assert.deepEqual(body.error.fields, ['first_forecast.p: must be a probability between 0 and 1']);
+  assert.equal((await d.call('listQuestions', {})).total, 0);
+  const notJson = await request(server.port, {
+    path: '/api/createQuestion',
+    method: 'POST',
+    headers: { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}` },
+    body: '{oops',
+  });
+  assert.equal(notJson.status, 400);
+  assert.match(JSON.parse(notJson.body).error.message, /not valid JSON/);
+});
+
+test('serves the renderer with a strict CSP and never files outside it', async () => {
+  const { server } = await setup();
+  const host = `localhost:${server.port}`;
+  const page = await request(server.port, { path: '/', headers: { Host: host } });
+  assert.equal(page.status, 200);
+  assert.match(page.body, /<title>Forelog<\/title>/);
+  assert.match(String(page.headers['content-security-policy']), /script-src 'self'/);
+  const escape = await request(server.port, { path: '/..%2f..%2fetc%2fpasswd', headers: { Host: host } });
+  assert.equal(escape.status, 404);
+});

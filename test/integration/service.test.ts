@@ -1,0 +1,167 @@
+/**
+ * The diary's operations on a real SQLite file: what a user relies on when they write,
+ * revise, resolve and correct questions, and the refusals that leave the diary unchanged.
+ */
+import assert from 'node:assert/strict';
+import { test } from 'node:test';
+import { ApiError } from '../../shared/contract';
+import { openTestDiary } from '../support/temp-diary';
+
+const base = {
+  title: 'Northgate signs the phase-2 statement of work',
+  rule: 'Yes if a countersigned SOW is received by the close.',
+  closes_at: '2026-09-30T17:00:00+01:00',
+  tags: ['client:northgate', 'renewals'],
+  base_rate: 0.3,
+  base_rate_note: '6 of 20 comparable renewals',
+  first_forecast: { p: 0.4, note: 'first look' },
+};
+
+async function rejects(promise: Promise<unknown>, code: string, field: RegExp): Promise<void> {
+  await assert.rejects(promise, (err: unknown) => {
+    assert.ok(err instanceof ApiError, 'an ApiError');
+    assert.equal(err.code, code);
+    assert.match(err.message, field);
+    return true;
+  });
+}
+
+test('a question keeps every field, its first forecast and stores times as UTC instants', async () => {
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', { ...base, costs: { false_alarm: 1, miss: 4 }, checkin_days: 14, time_zone: 'Europe/London' });
+  assert.equal(q.title, base.title);
+  assert.equal(q.closes_at, '2026-09-30T16:00:00.000Z');
+  assert.equal(q.opened_at, '2026-06-01T12:00:00.000Z');
+  assert.deepEqual(q.tags, ['client:northgate', 'renewals']);
+  assert.deepEqual(q.costs, { false_alarm: 1, miss: 4 });
+  assert.equal(q.checkin_days, 14);
+  assert.equal(q.time_zone, 'Europe/London');
+  assert.equal(q.forecasts.length, 1);
+  assert.equal(q.forecasts[0].p, 0.4);
+  assert.equal(q.resolution, null);
+  const again = await d.call('getQuestion', { id: q.id });
+  assert.deepEqual(again, q);
+});
+
+test('probabilities are stored exactly as given, never rounded', async () => {
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', { ...base, first_forecast: { p: 0.123456789012345 } });
+  assert.equal(q.forecasts[0].p, 0.123456789012345);
+});
+
+test('revisions, references and resolution build the history; correction and reopening work', async () => {
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', base);
+  d.clock.now += 86_400_000;
+  await d.call('addForecast', { question_id: q.id, p: 0.55, note: 'procurement signed off', lenses: [{ name: 'outside view', p: 0.3, weight: 1 }] });
+  await d.call('addReference', { question_id: q.id, p: 0.7, source: "client's view" });
+  d.clock.now += 86_400_000;
+  let r = await d.call('resolveQuestion', { id: q.id, outcome: 'yes', note: 'SOW arrived' });
+  assert.equal(r.forecasts.length, 2);
+  assert.deepEqual(r.forecasts[1].lenses, [{ name: 'outside view', p: 0.3, weight: 1 }]);
+  assert.equal(r.references[0].source, "client's view");
+  assert.equal(r.resolution.outcome, 'yes');
+  r = await d.call('resolveQuestion', { id: q.id, outcome: 'void', note: 'scope changed; not fair to score' });
+  assert.equal(r.resolution.outcome, 'void');
+  r = await d.call('reopenQuestion', { id: q.id });
+  assert.equal(r.resolution, null);
+});
+
+test('editing and deleting a revision', async () => {
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', base);
+  const f = q.forecasts[0];
+  let r = await d.call('updateForecast', { id: f.id, p: 0.45, note: 'typo fixed' });
+  assert.equal(r.forecasts[0].p, 0.45);
+  assert.equal(r.forecasts[0].note, 'typo fixed');
+  r = await d.call('deleteForecast', { id: f.id });
+  assert.equal(r.forecasts.length, 0);
+  await rejects(d.call('deleteForecast', { id: f.id }), 'not_found', /No revision/);
+});
+
+test('invalid requests name the field and change nothing', async () => {
+  const d = openTestDiary();
+  await rejects(d.call('createQuestion', { ...base, title: '   ' }), 'invalid', /title: must not be empty/);
+  await rejects(d.call('createQuestion', { ...base, first_forecast: { p: 1.5 } }), 'invalid', /first_forecast\.p: must be a probability/);
+  await rejects(d.call('createQuestion', { ...base, base_rate: -0.1 }), 'invalid', /base_rate: must be a probability/);
+  await rejects(d.call('createQuestion', { ...base, tags: ['Client Northgate'] }), 'invalid', /tags\[0\]: is not a valid tag/);
+  await rejects(d.call('createQuestion', { ...base, closes_at: '31/03/2026' }), 'invalid', /closes_at: must be an ISO 8601/);
+  await rejects(d.call('createQuestion', { ...base, closes_at: '2026-03-31T17:00:00' }), 'invalid', /closes_at: must be an ISO 8601/);
+  await rejects(
+    d.call('createQuestion', { ...base, opened_at: '2026-05-01T00:00:00Z', closes_at: '2026-04-01T00:00:00Z' }),
+    'invalid',
+    /closes_at: must be after the opening time/,
+  );
+  await rejects(d.call('createQuestion', { ...base, closes_at: '2026-01-01T00:00:00Z' }), 'invalid', /closes_at: must be in the future/);
+  await rejects(d.call('createQuestion', { ...base, time_zone: 'Mars/Olympus' }), 'invalid', /time_zone: is not a time zone/);
+  const list = await d.call('listQuestions', {});
+  assert.equal(list.total, 0, 'nothing was written');
+
+  const q = await d.call('createQuestion', base);
+  await rejects(d.call('addForecast', { question_id: q.id, p: Number.NaN }), 'invalid', /p: /);
+  await rejects(d.call('updateQuestion', { id: q.id, changes: { closes_at: '2026-05-01T00:00:00Z' } }), 'invalid', /closes_at: must be after/);
+  await rejects(d.call('addForecast', { question_id: 'nope', p: 0.5 }), 'not_found', /No question with id "nope"/);
+  const after = await d.call('getQuestion', { id: q.id });
+  assert.equal(after.forecasts.length, 1);
+  assert.equal(after.closes_at, q.closes_at);
+});
+
+test('list filters by status, tag and text', async () => {
+  const d = openTestDiary();
+  const a = await d.call('createQuestion', { ...base, title: 'Alpha renewal', closes_at: '2026-06-01T20:00:00Z' });
+  const b = await d.call('createQuestion', { ...base, title: 'Beta pilot reaches 500 users', tags: ['pilots'], closes_at: '2026-12-01T00:00:00Z' });
+  const c = await d.call('createQuestion', { ...base, title: 'Gamma ruling', tags: ['regulation'], closes_at: '2026-06-10T00:00:00Z' });
+  await d.call('resolveQuestion', { id: c.id, outcome: 'no' });
+  d.clock.now = Date.parse('2026-06-05T00:00:00Z');
+  const v = await d.call('createQuestion', { ...base, title: 'Delta void', closes_at: '2026-07-01T00:00:00Z' });
+  await d.call('resolveQuestion', { id: v.id, outcome: 'void' });
+  const ids = async (req: object) => (await d.call('listQuestions', req)).questions.map((q: { id: string }) => q.id);
+  assert.deepEqual(await ids({ status: 'awaiting' }), [a.id]);
+  assert.deepEqual(await ids({ status: 'open' }), [b.id]);
+  assert.deepEqual(await ids({ status: 'resolved' }), [c.id]);
+  assert.deepEqual(await ids({ status: 'void' }), [v.id]);
+  assert.deepEqual(await ids({ tag: 'pilots' }), [b.id]);
+  assert.deepEqual(await ids({ text: 'PILOT' }), [b.id]);
+  assert.deepEqual(await ids({ text: '100%' }), []);
+  d.clock.now = Date.parse('2026-11-30T12:00:00Z');
+  assert.deepEqual(await ids({ status: 'closing' }), [b.id]);
+  const list = await d.call('listQuestions', {});
+  assert.equal(list.total, 4);
+  assert.deepEqual(
+    list.tags.find((t: { tag: string }) => t.tag === 'renewals'),
+    { tag: 'renewals', count: 2 },
+  );
+});
+
+test('deleting a question removes its whole history', async () => {
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', base);
+  await d.call('addReference', { question_id: q.id, p: 0.5, source: 'steering committee' });
+  await d.call('deleteQuestion', { id: q.id });
+  await rejects(d.call('getQuestion', { id: q.id }), 'not_found', /No question/);
+  const counts = d.service.store.read
+    .prepare('SELECT (SELECT count(*) FROM forecasts) f, (SELECT count(*) FROM reference_forecasts) r, (SELECT count(*) FROM question_tags) t')
+    .get();
+  assert.deepEqual({ ...(counts as object) }, { f: 0, r: 0, t: 0 });
+});
+
+test('settings default, update with validation, and persist', async () => {
+  const d = openTestDiary({ timeZone: 'Europe/London' });
+  const s = await d.call('getSettings', {});
+  assert.equal(s.default_checkin_days, 7);
+  assert.equal(s.closing_soon_hours, 24);
+  assert.equal(s.time_zone, 'Europe/London');
+  const updated = await d.call('updateSettings', { default_checkin_days: 14, quiet_hours: { start: '22:00', end: '07:00' } });
+  assert.equal(updated.default_checkin_days, 14);
+  assert.deepEqual(updated.quiet_hours, { start: '22:00', end: '07:00' });
+  await rejects(d.call('updateSettings', { quiet_hours: { start: '25:00', end: '07:00' } }), 'invalid', /quiet_hours\.start/);
+  await rejects(d.call('updateSettings', { closing_soon_hours: 0 }), 'invalid', /closing_soon_hours/);
+  await rejects(d.call('updateSettings', { bogus: 1 } as never), 'invalid', /bogus|Unrecognized/i);
+});
+
+test('unknown operations are refused', async () => {
+  const d = openTestDiary();
+  const answer = await d.service.dispatch('dropEverything', {});
+  assert.equal(answer.ok, false);
+  assert.match(!answer.ok ? answer.error.message : '', /Unknown operation "dropEverything"/);
+});

@@ -1,0 +1,95 @@
+/**
+ * The diary file itself: pragmas, numbered migrations from an empty and from a version-1
+ * database, refusal of a database newer than the code, and distinct read/write handles.
+ */
+import assert from 'node:assert/strict';
+import Database from 'better-sqlite3';
+import fs from 'node:fs';
+import path from 'node:path';
+import { test } from 'node:test';
+import { MIGRATIONS, SCHEMA_VERSION } from '../../main/store/migrations';
+import { migrate, NewerDatabaseError, openStore } from '../../main/store/open';
+import { tempDir } from '../support/temp-diary';
+
+test('a new diary gets WAL, synchronous=FULL, foreign keys and the latest schema', () => {
+  const file = path.join(tempDir(), 'new.sqlite');
+  const store = openStore(file);
+  try {
+    assert.equal(store.write.pragma('journal_mode', { simple: true }), 'wal');
+    assert.equal(store.write.pragma('synchronous', { simple: true }), 2, 'FULL is 2');
+    assert.equal(store.write.pragma('foreign_keys', { simple: true }), 1);
+    assert.equal(store.read.pragma('foreign_keys', { simple: true }), 1);
+    assert.equal(store.write.pragma('user_version', { simple: true }), SCHEMA_VERSION);
+    assert.equal(SCHEMA_VERSION, MIGRATIONS.length, 'migrations are numbered 1…n without gaps');
+    MIGRATIONS.forEach((m, i) => assert.equal(m.version, i + 1));
+  } finally {
+    store.close();
+  }
+});
+
+test('the read handle cannot write', () => {
+  const store = openStore(path.join(tempDir(), 'ro.sqlite'));
+  try {
+    assert.throws(() => store.read.prepare("INSERT INTO settings (key, value) VALUES ('x', '1')").run(), /readonly/i);
+  } finally {
+    store.close();
+  }
+});
+
+test('a version-1 diary is migrated forward and keeps its data', () => {
+  const file = path.join(tempDir(), 'v1.sqlite');
+  const db = new Database(file);
+  migrate(db, MIGRATIONS.slice(0, 1));
+  assert.equal(db.pragma('user_version', { simple: true }), 1);
+  db.prepare(
+    `INSERT INTO questions (id, title, rule, kind, opened_at, closes_at, time_zone, created_at, updated_at)
+     VALUES ('q1', 'Old question', '', 'event_by_deadline', 0, 1000, 'UTC', 0, 0)`,
+  ).run();
+  db.close();
+  const store = openStore(file);
+  try {
+    assert.equal(store.read.pragma('user_version', { simple: true }), SCHEMA_VERSION);
+    assert.equal((store.read.prepare('SELECT title FROM questions').get() as { title: string }).title, 'Old question');
+    assert.ok(store.read.prepare("SELECT 1 FROM sqlite_master WHERE name = 'nudge_log'").get(), 'version 2 tables exist');
+  } finally {
+    store.close();
+  }
+});
+
+test('a diary from a newer Forelog is refused and left untouched', () => {
+  const file = path.join(tempDir(), 'future.sqlite');
+  const db = new Database(file);
+  db.pragma(`user_version = ${SCHEMA_VERSION + 1}`);
+  db.close();
+  const before = fs.readFileSync(file);
+  assert.throws(() => openStore(file), (err: unknown) => {
+    assert.ok(err instanceof NewerDatabaseError);
+    assert.match((err as Error).message, /newer version of Forelog/);
+    assert.match((err as Error).message, /Update Forelog/);
+    return true;
+  });
+  assert.deepEqual(fs.readFileSync(file), before);
+});
+
+test('the schema refuses what the service would never write', () => {
+  const store = openStore(path.join(tempDir(), 'checks.sqlite'));
+  try {
+    const insert = (p: number) =>
+      store.write
+        .prepare(
+          `INSERT INTO questions (id, title, rule, kind, opened_at, closes_at, time_zone, base_rate, created_at, updated_at)
+           VALUES (?, 't', '', 'event_by_deadline', 0, 10, 'UTC', ?, 0, 0)`,
+        )
+        .run(`q${p}`, p);
+    assert.throws(() => insert(1.5), /CHECK constraint failed/);
+    assert.throws(
+      () =>
+        store.write
+          .prepare(`INSERT INTO forecasts (id, question_id, at, p) VALUES ('f', 'missing', 0, 0.5)`)
+          .run(),
+      /FOREIGN KEY constraint failed/,
+    );
+  } finally {
+    store.close();
+  }
+});
