@@ -5,9 +5,12 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
-import { ApiError } from '../shared/contract';
+import { ApiError, parseRequest, type DueList } from '../shared/contract';
 import { defaultDiaryPath } from './paths';
+import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
+import { toICalendar } from './service/calendar';
+import { unresolvedQuestions } from './service/nudges';
 import { callOrThrow } from './service/dispatch';
 import { openDiary, type DiaryService } from './service/index';
 import { startHttpServer } from './transport/http';
@@ -17,7 +20,12 @@ const USAGE = `Usage: forelog <command> [--db PATH]
 Commands:
   serve [--port N]            the full app in a browser, on 127.0.0.1 only
   import FILE                 add a diary file (JSON v1) to the diary
-  export [FILE]               write the diary file (to stdout without FILE)
+  score [--tag T] [--from D] [--to D] [--json]
+                              the scorecard (JSON as documented with --json)
+  export [FILE] [--format json|ics]
+                              write the diary file (to stdout without FILE);
+                              ics: every open question's close as a calendar event
+  due [--at TIME] [--json]    the nudges due at that instant (default now)
   demo                        fill an empty diary with the invented example
   backup FILE                 online copy of the diary database
   restore FILE                put a backup copy in place of the diary
@@ -28,10 +36,15 @@ Options:
 
 class UsageError extends Error {}
 
+/** Unexpected failures keep their stack on stderr when FORELOG_DEBUG is set. */
+function reportInternal(err: unknown): void {
+  if (process.env.FORELOG_DEBUG) process.stderr.write(`${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);
+}
+
 interface Parsed {
   command: string | undefined;
   positionals: string[];
-  values: { db?: string; port?: string; format?: string; help?: boolean };
+  values: { db?: string; port?: string; format?: string; tag?: string; from?: string; to?: string; at?: string; json?: boolean; help?: boolean };
 }
 
 function parse(argv: string[]): Parsed {
@@ -43,6 +56,11 @@ function parse(argv: string[]): Parsed {
       db: { type: 'string' },
       port: { type: 'string' },
       format: { type: 'string' },
+      tag: { type: 'string' },
+      from: { type: 'string' },
+      to: { type: 'string' },
+      at: { type: 'string' },
+      json: { type: 'boolean' },
       help: { type: 'boolean', short: 'h' },
     },
   });
@@ -55,7 +73,7 @@ function one(positionals: string[], what: string): string {
 }
 
 function withDiary<T>(dbPath: string, fn: (service: DiaryService) => Promise<T>): Promise<T> {
-  const service = openDiary({ dbPath });
+  const service = openDiary({ dbPath, onInternalError: reportInternal });
   return fn(service).finally(() => service.close());
 }
 
@@ -63,7 +81,8 @@ function withDiary<T>(dbPath: string, fn: (service: DiaryService) => Promise<T>)
 async function rendererDir(): Promise<string> {
   const here = path.dirname(path.resolve(process.argv[1] ?? '.'));
   const candidates = [path.join(here, '..', 'renderer'), path.join(here, '..', 'dist', 'renderer')];
-  const found = candidates.find((dir) => fs.existsSync(path.join(dir, 'index.html')));
+  // A build has assets/; in a checkout main/../renderer is the Vite source folder, whose index.html is not servable.
+  const found = candidates.find((dir) => fs.existsSync(path.join(dir, 'index.html')) && fs.existsSync(path.join(dir, 'assets')));
   if (found) return found;
   const root = path.join(here, '..');
   if (!fs.existsSync(path.join(root, 'vite.config.ts'))) {
@@ -79,7 +98,7 @@ async function serve(dbPath: string, portText: string | undefined): Promise<void
   const port = portText === undefined ? 0 : Number(portText);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
   const dir = await rendererDir();
-  const service = openDiary({ dbPath, onInternalError: (err) => process.stderr.write(`internal error: ${String(err)}\n`) });
+  const service = openDiary({ dbPath, onInternalError: reportInternal });
   let server;
   try {
     server = await startHttpServer({ dispatch: service.dispatch, rendererDir: dir, port });
@@ -127,12 +146,38 @@ async function run(argv: string[]): Promise<void> {
     case 'export': {
       if (positionals.length > 1) throw new UsageError('expects at most one FILE');
       const format = values.format ?? 'json';
-      if (format !== 'json') throw new UsageError(`--format must be json (got "${format}")`);
-      const text = await withDiary(dbPath, async (s) => s.exportDiaryJson());
+      if (format !== 'json' && format !== 'ics') throw new UsageError(`--format must be json or ics (got "${format}")`);
+      const text = await withDiary(dbPath, async (s) =>
+        format === 'ics' ? toICalendar(unresolvedQuestions(s.store), { now: s.now() }) : s.exportDiaryJson(),
+      );
       if (positionals[0]) {
         fs.writeFileSync(positionals[0], text);
         process.stderr.write(`Wrote ${positionals[0]}.\n`);
       } else process.stdout.write(text);
+      return;
+    }
+    case 'score': {
+      if (positionals.length) throw new UsageError('takes no FILE; filter with --tag, --from and --to');
+      const request = { tag: values.tag, from: values.from, to: values.to };
+      const report = await withDiary(dbPath, async (s) => s.diary.scoreReport(parseRequest('score', request)));
+      if (values.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      else {
+        const note = [values.tag && `tag ${values.tag}`, values.from && `from ${values.from}`, values.to && `to ${values.to}`].filter(Boolean).join(', ');
+        process.stdout.write(formatScoreTable(report, note));
+      }
+      return;
+    }
+    case 'due': {
+      if (positionals.length) throw new UsageError('takes no FILE; give the instant with --at');
+      const list = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'due', values.at === undefined ? {} : { at: values.at }))) as DueList;
+      if (values.json) {
+        const out = { at: list.at, nudges: list.nudges.map((n) => ({ id: n.id, title: n.title, kind: n.kind, due_at: n.due_at })) };
+        process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
+      } else if (list.nudges.length === 0) process.stdout.write(`Nothing due at ${list.at}.\n`);
+      else {
+        const label = { checkin: 'check-in', closing_soon: 'closing soon', window_closed: 'to resolve', overdue: 'overdue' } as const;
+        for (const n of list.nudges) process.stdout.write(`${label[n.kind].padEnd(13)} since ${n.due_at}  ${n.title}\n`);
+      }
       return;
     }
     case 'demo': {

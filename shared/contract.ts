@@ -5,12 +5,10 @@
  * these schemas before the service runs, so a bad request changes nothing.
  */
 import { z } from 'zod';
-import type {
-  Question,
-  QuestionSummary,
-  Settings,
-} from './domain';
-import { OUTCOMES, QUESTION_KINDS, QUESTION_STATUSES } from './domain';
+import type { DueNudge, Question, QuestionSummary, Settings } from './domain';
+import { NUDGE_KINDS, OUTCOMES, QUESTION_KINDS, QUESTION_STATUSES } from './domain';
+import type { ScorecardDetail, ScoreReport } from './scoring/types';
+import { parseRangeBound } from './time';
 import * as v from './validation';
 
 const id = z.string({ error: 'must be an id' }).min(1, { message: 'must not be empty' }).max(200);
@@ -111,6 +109,40 @@ export const settingsPatch = z
   })
   .strict();
 
+const rangeBound = (end: 'from' | 'to') =>
+  z.string({ error: 'must be a date (YYYY-MM-DD) or an ISO 8601 date-time' }).refine((t) => parseRangeBound(t, end) !== null, {
+    message: 'must be a date (YYYY-MM-DD, the whole day in UTC) or an ISO 8601 date-time with an offset',
+  });
+
+export const scoreRequest = z
+  .object({
+    tag: v.tag.optional(),
+    from: rangeBound('from').optional(),
+    to: rangeBound('to').optional(),
+    /** "What if" costs applied to every question in the filter, overriding their own. */
+    costs: v.costs.optional(),
+  })
+  .refine((r) => r.from === undefined || r.to === undefined || parseRangeBound(r.from, 'from')! <= parseRangeBound(r.to, 'to')!, {
+    message: 'must not be before from',
+    path: ['to'],
+  });
+
+export const SNOOZE_PRESETS = ['hour', 'tomorrow_morning', 'next_week'] as const;
+
+export const dueRequest = z.object({ at: v.instant.optional() });
+
+export const snoozeRequest = z
+  .object({
+    question_id: id,
+    kind: z.enum(NUDGE_KINDS as [string, ...string[]], { error: `must be one of ${NUDGE_KINDS.join(', ')}` }),
+    preset: z.enum(SNOOZE_PRESETS, { error: `must be one of ${SNOOZE_PRESETS.join(', ')}` }).optional(),
+    until: v.instant.optional(),
+  })
+  .refine((r) => (r.preset === undefined) !== (r.until === undefined), {
+    message: 'give either a preset or an until time, not both',
+    path: ['preset'],
+  });
+
 const empty = z.object({}).strict();
 const byId = z.object({ id });
 
@@ -153,6 +185,9 @@ export const operations = {
   importDiary: z.object({ diary: z.unknown() }),
   exportDiary: empty,
   loadDemo: empty,
+  score: scoreRequest,
+  due: dueRequest,
+  snooze: snoozeRequest,
 } as const;
 
 export type OperationName = keyof typeof operations;
@@ -176,6 +211,20 @@ export interface Responses {
   importDiary: { added: number };
   exportDiary: unknown;
   loadDemo: { added: number };
+  score: Scorecard;
+  due: DueList;
+  snooze: { question_id: string; kind: string; until: string };
+}
+
+export interface DueList {
+  at: string;
+  nudges: DueNudge[];
+}
+
+/** The scorecard: the `score --json` report plus what the Scorecard screen draws. */
+export interface Scorecard {
+  report: ScoreReport;
+  detail: ScorecardDetail;
 }
 
 export type Request<K extends OperationName> = z.input<(typeof operations)[K]>;

@@ -14,6 +14,10 @@ export const OUTCOMES: readonly Outcome[] = ['yes', 'no', 'void'];
 export type QuestionStatus = 'open' | 'closing' | 'awaiting' | 'resolved' | 'void';
 export const QUESTION_STATUSES: readonly QuestionStatus[] = ['open', 'closing', 'awaiting', 'resolved', 'void'];
 
+/** Reminders Forelog gives about an unresolved question. */
+export type NudgeKind = 'checkin' | 'closing_soon' | 'window_closed' | 'overdue';
+export const NUDGE_KINDS: readonly NudgeKind[] = ['checkin', 'closing_soon', 'window_closed', 'overdue'];
+
 /** One perspective estimate recorded with a revision (outside view, inside view, …). */
 export interface Lens {
   name: string;
@@ -88,6 +92,22 @@ export interface QuestionSummary {
   forecast_count: number;
   status: QuestionStatus;
   outcome: Outcome | null;
+  /** Event-by-deadline forecast left well above its glide path for longer than its check-in cadence. */
+  stale: boolean;
+}
+
+/** A nudge due now, with what the Desk shows beside it. */
+export interface DueNudge {
+  /** The question's id. */
+  id: string;
+  title: string;
+  kind: NudgeKind;
+  due_at: string;
+  closes_at: string;
+  time_zone: string;
+  last_p: number | null;
+  last_forecast_at: string | null;
+  stale: boolean;
 }
 
 export interface QuietHours {

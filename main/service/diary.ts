@@ -16,11 +16,14 @@ import {
   type QuestionSummary,
   type Settings,
 } from '../../shared/domain';
-import { parseInstant, toIso } from '../../shared/time';
+import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions } from '../../shared/scoring';
+import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
 import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
+import { dueAt, snoozeUntil } from './nudges';
+import { loadScoringQuestions } from './scoring-source';
 
 export interface DiaryContext {
   store: StoreHandles;
@@ -50,6 +53,25 @@ export function createDiary(ctx: DiaryContext) {
     const bundle = qs.loadBundles(read, [id])[0];
     if (!bundle) throw notFound('question', id);
     return qs.toQuestion(bundle);
+  }
+
+  /** The stale flag (glide path) for an unresolved question's latest forecast. */
+  function stale(
+    q: { kind: QuestionKind; opened_at: number; closes_at: number; checkin_days: number | null },
+    last: { p: number; at: number } | null,
+    s: Settings,
+    t: number,
+  ): boolean {
+    if (!last) return false;
+    return isStale({
+      kind: q.kind,
+      p: last.p,
+      lastRevisedAt: last.at,
+      openedAt: q.opened_at,
+      closesAt: q.closes_at,
+      now: t,
+      checkinDays: q.checkin_days ?? s.default_checkin_days,
+    });
   }
 
   function requireQuestionRow(id: string): qs.QuestionRow {
@@ -130,7 +152,7 @@ export function createDiary(ctx: DiaryContext) {
     }
     const rows = read
       .prepare(
-        `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, r.outcome,
+        `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome,
            (SELECT json_group_array(tag) FROM (SELECT tag FROM question_tags WHERE question_id = q.id ORDER BY position)) AS tags,
            (SELECT p FROM forecasts f WHERE f.question_id = q.id ORDER BY f.at DESC, f.seq DESC LIMIT 1) AS last_p,
            (SELECT at FROM forecasts f WHERE f.question_id = q.id ORDER BY f.at DESC, f.seq DESC LIMIT 1) AS last_at,
@@ -147,6 +169,7 @@ export function createDiary(ctx: DiaryContext) {
       closes_at: number;
       time_zone: string;
       base_rate: number | null;
+      checkin_days: number | null;
       outcome: Outcome | null;
       tags: string;
       last_p: number | null;
@@ -171,6 +194,7 @@ export function createDiary(ctx: DiaryContext) {
         forecast_count: r.forecast_count,
         status,
         outcome: r.outcome,
+        stale: !r.outcome && stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null, s, t),
       });
     }
     return { questions, tags: qs.allTagCounts(read), total: qs.questionCount(read) };
@@ -227,6 +251,23 @@ export function createDiary(ctx: DiaryContext) {
   function exportDiary(): Record<string, unknown> {
     const questions = qs.loadBundles(read).map(qs.toQuestion);
     return toDiaryFile(settings(), questions);
+  }
+
+  function scoreOptions(req: ValidRequest<'score'>): ScoreOptions {
+    const s = settings();
+    return {
+      tag: req.tag,
+      from: req.from !== undefined ? parseRangeBound(req.from, 'from')! : undefined,
+      to: req.to !== undefined ? parseRangeBound(req.to, 'to')! : undefined,
+      default_costs: { false_alarm: s.default_false_alarm_cost, miss: s.default_miss_cost },
+    };
+  }
+
+  /** The questions as the engine sees them; "what if" costs replace each question's own. */
+  function scoringInput(req: ValidRequest<'score'>) {
+    const questions = loadScoringQuestions(read);
+    if (req.costs) for (const q of questions) q.costs = { false_alarm: req.costs.false_alarm, miss: req.costs.miss };
+    return questions;
   }
 
   const handlers: Handlers = {
@@ -411,9 +452,57 @@ export function createDiary(ctx: DiaryContext) {
       }
       return importParsed(ctx.demo(now()));
     },
+
+    due: (req) => {
+      const s = settings();
+      const at = req.at !== undefined ? ms(req.at) : now();
+      const { questions, nudges } = dueAt(store, s, at);
+      const byId = new Map(questions.map((q) => [q.id, q]));
+      return {
+        at: toIso(at),
+        nudges: nudges.map((n) => {
+          const q = byId.get(n.question_id)!;
+          const last = q.forecasts.length ? q.forecasts[q.forecasts.length - 1]! : null;
+          return {
+            id: q.id,
+            title: q.title,
+            kind: n.kind,
+            due_at: toIso(n.due_at),
+            closes_at: q.closes_at,
+            time_zone: q.time_zone,
+            last_p: last?.p ?? null,
+            last_forecast_at: last?.at ?? null,
+            stale: stale(
+              { kind: q.kind, opened_at: ms(q.opened_at), closes_at: ms(q.closes_at), checkin_days: q.checkin_days },
+              last ? { p: last.p, at: ms(last.at) } : null,
+              s,
+              at,
+            ),
+          };
+        }),
+      };
+    },
+
+    snooze: (req) => {
+      const t = now();
+      const until = req.until !== undefined ? ms(req.until) : snoozeUntil(req.preset!, t, settings().time_zone);
+      if (until <= t) throw invalid('until', 'must be in the future');
+      write.transaction(() => {
+        const row = requireQuestionRow(req.question_id);
+        if (qs.loadBundles(write, [row.id])[0]?.resolution) throw invalid('question_id', 'this question is resolved; it has no nudges to snooze');
+        nudgeStore.upsertSnooze(write, { question_id: req.question_id, kind: req.kind as nudgeStore.StoredNudgeKind, until });
+      })();
+      return { question_id: req.question_id, kind: req.kind, until: toIso(until) };
+    },
+
+    score: (req) => {
+      const questions = scoringInput(req);
+      const options = scoreOptions(req);
+      return { report: computeScoreReport(questions, options), detail: computeScorecardDetail(questions, options) };
+    },
   };
 
-  return { handlers, settings, getQuestion, exportDiary };
+  return { handlers, settings, getQuestion, exportDiary, importParsed, scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)) };
 }
 
 export type Diary = ReturnType<typeof createDiary>;

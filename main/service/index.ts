@@ -6,7 +6,10 @@ import { openStore, type StoreHandles } from '../store/open';
 import { backupTo } from './backup';
 import { buildDemoDiary } from './demo';
 import { createDiary, type Diary } from './diary';
+import { ApiError } from '../../shared/contract';
 import { createDispatch, type Dispatch } from './dispatch';
+import { createDiaryScheduler, type Notifier } from './nudges';
+import type { Scheduler } from '../nudges/scheduler';
 
 export interface OpenOptions {
   dbPath: string;
@@ -22,6 +25,10 @@ export interface DiaryService {
   location: string;
   now: () => number;
   exportDiaryJson(): string;
+  /** Adds a diary file's text (JSON v1) through the same validated path as every import. */
+  importDiaryJson(text: string): { added: number };
+  /** The nudge scheduler over this diary, delivering through `notifier`. */
+  createScheduler(notifier: Notifier, onDueCountChanged?: (count: number) => void): Scheduler;
   backupTo(file: string, onProgress?: (percent: number) => void): Promise<void>;
   close(): void;
 }
@@ -38,6 +45,16 @@ export function openDiary(options: OpenOptions): DiaryService {
     location: store.path,
     now,
     exportDiaryJson: () => `${JSON.stringify(diary.exportDiary(), null, 2)}\n`,
+    importDiaryJson: (text) => {
+      let parsed: unknown;
+      try {
+        parsed = JSON.parse(text);
+      } catch (err) {
+        throw new ApiError('invalid', `The file is not valid JSON (${(err as Error).message}); nothing was imported.`);
+      }
+      return diary.importParsed(parsed);
+    },
+    createScheduler: (notifier, onDueCountChanged) => createDiaryScheduler(store, now, diary.settings, notifier, onDueCountChanged),
     backupTo: (file, onProgress) => backupTo(store, file, onProgress),
     close: () => store.close(),
   };

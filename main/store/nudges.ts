@@ -1,7 +1,8 @@
 /** What the nudge scheduler has delivered, and what the user has snoozed. */
+import type { NudgeKind } from '../../shared/domain';
 import type { Db } from './open';
 
-export type StoredNudgeKind = 'checkin' | 'closing_soon' | 'window_closed' | 'overdue';
+export type StoredNudgeKind = NudgeKind;
 
 export interface SnoozeRow {
   question_id: string;

@@ -5,6 +5,7 @@
  */
 import type { Costs, Forecast, Lens, Outcome, Question, QuestionKind, ReferenceForecast } from '../../shared/domain';
 import { toIso } from '../../shared/time';
+import type { Statement } from 'better-sqlite3';
 import type { Db } from './open';
 
 export interface QuestionRow {
@@ -67,13 +68,24 @@ export interface NewForecast {
   lenses: Lens[];
 }
 
+const statements = new WeakMap<Db, Map<string, Statement>>();
+
+/** Prepared statements are cached per handle: an import of many thousand rows prepares each once. */
+function stmt(db: Db, sql: string): Statement {
+  let cache = statements.get(db);
+  if (!cache) statements.set(db, (cache = new Map()));
+  let s = cache.get(sql);
+  if (!s) cache.set(sql, (s = db.prepare(sql)));
+  return s;
+}
+
 const QUESTION_COLUMNS =
   'id, title, rule, kind, opened_at, closes_at, time_zone, base_rate, base_rate_note, false_alarm_cost, miss_cost, checkin_days, created_at, updated_at';
 
 // ---- writes -------------------------------------------------------------------------
 
 export function insertQuestion(db: Db, row: QuestionRow, tags: string[]): void {
-  db.prepare(
+  stmt(db, 
     `INSERT INTO questions (${QUESTION_COLUMNS}) VALUES (@id, @title, @rule, @kind, @opened_at, @closes_at, @time_zone,
       @base_rate, @base_rate_note, @false_alarm_cost, @miss_cost, @checkin_days, @created_at, @updated_at)`,
   ).run(row);
@@ -81,7 +93,7 @@ export function insertQuestion(db: Db, row: QuestionRow, tags: string[]): void {
 }
 
 export function updateQuestionRow(db: Db, row: QuestionRow): void {
-  db.prepare(
+  stmt(db, 
     `UPDATE questions SET title = @title, rule = @rule, kind = @kind, opened_at = @opened_at, closes_at = @closes_at,
       time_zone = @time_zone, base_rate = @base_rate, base_rate_note = @base_rate_note,
       false_alarm_cost = @false_alarm_cost, miss_cost = @miss_cost, checkin_days = @checkin_days, updated_at = @updated_at
@@ -90,48 +102,52 @@ export function updateQuestionRow(db: Db, row: QuestionRow): void {
 }
 
 export function touchQuestion(db: Db, id: string, at: number): void {
-  db.prepare('UPDATE questions SET updated_at = ? WHERE id = ?').run(at, id);
+  stmt(db, 'UPDATE questions SET updated_at = ? WHERE id = ?').run(at, id);
 }
 
 export function replaceTags(db: Db, questionId: string, tags: string[]): void {
-  db.prepare('DELETE FROM question_tags WHERE question_id = ?').run(questionId);
-  const insert = db.prepare('INSERT INTO question_tags (question_id, tag, position) VALUES (?, ?, ?)');
+  stmt(db, 'DELETE FROM question_tags WHERE question_id = ?').run(questionId);
+  const insert = stmt(db, 'INSERT INTO question_tags (question_id, tag, position) VALUES (?, ?, ?)');
   tags.forEach((tag, i) => insert.run(questionId, tag, i));
 }
 
 export function deleteQuestionRow(db: Db, id: string): boolean {
-  return db.prepare('DELETE FROM questions WHERE id = ?').run(id).changes > 0;
+  return stmt(db, 'DELETE FROM questions WHERE id = ?').run(id).changes > 0;
 }
 
 export function insertForecast(db: Db, f: NewForecast): void {
-  db.prepare('INSERT INTO forecasts (id, question_id, at, p, note) VALUES (@id, @question_id, @at, @p, @note)').run(f);
-  replaceLenses(db, f.id, f.lenses);
+  stmt(db, 'INSERT INTO forecasts (id, question_id, at, p, note) VALUES (@id, @question_id, @at, @p, @note)').run(f);
+  insertLenses(db, f.id, f.lenses);
 }
 
 export function updateForecastRow(db: Db, f: { id: string; at: number; p: number; note: string }): void {
-  db.prepare('UPDATE forecasts SET at = @at, p = @p, note = @note WHERE id = @id').run(f);
+  stmt(db, 'UPDATE forecasts SET at = @at, p = @p, note = @note WHERE id = @id').run(f);
 }
 
 export function replaceLenses(db: Db, forecastId: string, lenses: Lens[]): void {
-  db.prepare('DELETE FROM forecast_lenses WHERE forecast_id = ?').run(forecastId);
-  const insert = db.prepare('INSERT INTO forecast_lenses (forecast_id, position, name, p, weight) VALUES (?, ?, ?, ?, ?)');
+  stmt(db, 'DELETE FROM forecast_lenses WHERE forecast_id = ?').run(forecastId);
+  insertLenses(db, forecastId, lenses);
+}
+
+function insertLenses(db: Db, forecastId: string, lenses: Lens[]): void {
+  const insert = stmt(db, 'INSERT INTO forecast_lenses (forecast_id, position, name, p, weight) VALUES (?, ?, ?, ?, ?)');
   lenses.forEach((l, i) => insert.run(forecastId, i, l.name, l.p, l.weight));
 }
 
 export function deleteForecastRow(db: Db, id: string): boolean {
-  return db.prepare('DELETE FROM forecasts WHERE id = ?').run(id).changes > 0;
+  return stmt(db, 'DELETE FROM forecasts WHERE id = ?').run(id).changes > 0;
 }
 
 export function insertReference(db: Db, r: Omit<ReferenceRow, 'seq'>): void {
-  db.prepare('INSERT INTO reference_forecasts (id, question_id, at, p, source) VALUES (@id, @question_id, @at, @p, @source)').run(r);
+  stmt(db, 'INSERT INTO reference_forecasts (id, question_id, at, p, source) VALUES (@id, @question_id, @at, @p, @source)').run(r);
 }
 
 export function deleteReferenceRow(db: Db, id: string): boolean {
-  return db.prepare('DELETE FROM reference_forecasts WHERE id = ?').run(id).changes > 0;
+  return stmt(db, 'DELETE FROM reference_forecasts WHERE id = ?').run(id).changes > 0;
 }
 
 export function upsertResolution(db: Db, r: ResolutionRow): void {
-  db.prepare(
+  stmt(db, 
     `INSERT INTO resolutions (question_id, outcome, at, note, recorded_at) VALUES (@question_id, @outcome, @at, @note, @recorded_at)
      ON CONFLICT (question_id) DO UPDATE SET outcome = excluded.outcome, at = excluded.at, note = excluded.note,
        recorded_at = excluded.recorded_at`,
@@ -139,31 +155,31 @@ export function upsertResolution(db: Db, r: ResolutionRow): void {
 }
 
 export function deleteResolution(db: Db, questionId: string): void {
-  db.prepare('DELETE FROM resolutions WHERE question_id = ?').run(questionId);
+  stmt(db, 'DELETE FROM resolutions WHERE question_id = ?').run(questionId);
 }
 
 // ---- reads --------------------------------------------------------------------------
 
 export function questionRow(db: Db, id: string): QuestionRow | undefined {
-  return db.prepare(`SELECT ${QUESTION_COLUMNS} FROM questions WHERE id = ?`).get(id) as QuestionRow | undefined;
+  return stmt(db, `SELECT ${QUESTION_COLUMNS} FROM questions WHERE id = ?`).get(id) as QuestionRow | undefined;
 }
 
 export function forecastRow(db: Db, id: string): ForecastRow | undefined {
-  return db.prepare('SELECT seq, id, question_id, at, p, note FROM forecasts WHERE id = ?').get(id) as ForecastRow | undefined;
+  return stmt(db, 'SELECT seq, id, question_id, at, p, note FROM forecasts WHERE id = ?').get(id) as ForecastRow | undefined;
 }
 
 export function referenceRow(db: Db, id: string): ReferenceRow | undefined {
-  return db.prepare('SELECT seq, id, question_id, at, p, source FROM reference_forecasts WHERE id = ?').get(id) as
+  return stmt(db, 'SELECT seq, id, question_id, at, p, source FROM reference_forecasts WHERE id = ?').get(id) as
     | ReferenceRow
     | undefined;
 }
 
 export function questionCount(db: Db): number {
-  return (db.prepare('SELECT count(*) AS n FROM questions').get() as { n: number }).n;
+  return (stmt(db, 'SELECT count(*) AS n FROM questions').get() as { n: number }).n;
 }
 
 export function allTagCounts(db: Db): { tag: string; count: number }[] {
-  return db.prepare('SELECT tag, count(*) AS count FROM question_tags GROUP BY tag ORDER BY tag').all() as {
+  return stmt(db, 'SELECT tag, count(*) AS count FROM question_tags GROUP BY tag ORDER BY tag').all() as {
     tag: string;
     count: number;
   }[];
@@ -187,12 +203,12 @@ export function loadBundles(db: Db, ids?: string[]): QuestionBundle[] {
   const filter = ids ? `WHERE question_id IN (SELECT value FROM json_each(?))` : '';
   const qFilter = ids ? `WHERE id IN (SELECT value FROM json_each(?))` : '';
   const args = ids ? [JSON.stringify(ids)] : [];
-  const rows = db.prepare(`SELECT ${QUESTION_COLUMNS} FROM questions ${qFilter} ORDER BY closes_at, id`).all(...args) as QuestionRow[];
+  const rows = stmt(db, `SELECT ${QUESTION_COLUMNS} FROM questions ${qFilter} ORDER BY closes_at, id`).all(...args) as QuestionRow[];
   const bundles = new Map<string, QuestionBundle>();
   for (const row of rows) {
     bundles.set(row.id, { row, tags: [], forecasts: [], lenses: new Map(), references: [], resolution: null });
   }
-  for (const t of db.prepare(`SELECT question_id, tag FROM question_tags ${filter} ORDER BY question_id, position`).all(...args) as {
+  for (const t of stmt(db, `SELECT question_id, tag FROM question_tags ${filter} ORDER BY question_id, position`).all(...args) as {
     question_id: string;
     tag: string;
   }[]) {
@@ -208,7 +224,7 @@ export function loadBundles(db: Db, ids?: string[]): QuestionBundle[] {
   const lensSql = `SELECT l.forecast_id, l.position, l.name, l.p, l.weight FROM forecast_lenses l
     ${ids ? 'JOIN forecasts f ON f.id = l.forecast_id WHERE f.question_id IN (SELECT value FROM json_each(?))' : ''}
     ORDER BY l.forecast_id, l.position`;
-  for (const l of db.prepare(lensSql).all(...args) as LensRow[]) {
+  for (const l of stmt(db, lensSql).all(...args) as LensRow[]) {
     const b = byForecast.get(l.forecast_id);
     if (!b) continue;
     const list = b.lenses.get(l.forecast_id) ?? [];
@@ -220,7 +236,7 @@ export function loadBundles(db: Db, ids?: string[]): QuestionBundle[] {
     .all(...args) as ReferenceRow[]) {
     bundles.get(r.question_id)?.references.push(r);
   }
-  for (const r of db.prepare(`SELECT question_id, outcome, at, note, recorded_at FROM resolutions ${filter}`).all(...args) as ResolutionRow[]) {
+  for (const r of stmt(db, `SELECT question_id, outcome, at, note, recorded_at FROM resolutions ${filter}`).all(...args) as ResolutionRow[]) {
     const b = bundles.get(r.question_id);
     if (b) b.resolution = r;
   }

@@ -1,0 +1,62 @@
+/**
+ * The nudge planner and scheduler (main/nudges) wired to the diary file: which questions
+ * are unresolved, what is snoozed, what was delivered.
+ */
+import type { Question, Settings } from '../../shared/domain';
+import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../shared/time';
+import { planNudges, type Nudge, type NudgeKind, type Snooze } from '../nudges/plan';
+import { createScheduler, type Scheduler, type SchedulerPorts } from '../nudges/scheduler';
+import * as nudgeStore from '../store/nudges';
+import type { StoreHandles } from '../store/open';
+import * as qs from '../store/questions';
+
+export type Notifier = SchedulerPorts['notifier'];
+
+/** Every unresolved question, whole (the planner needs revisions for check-ins). */
+export function unresolvedQuestions(store: StoreHandles): Question[] {
+  const ids = (store.read.prepare('SELECT id FROM questions WHERE id NOT IN (SELECT question_id FROM resolutions)').raw().all() as [string][]).map(
+    ([id]) => id,
+  );
+  return ids.length ? qs.loadBundles(store.read, ids).map(qs.toQuestion) : [];
+}
+
+export function snoozes(store: StoreHandles): Snooze[] {
+  return nudgeStore.allSnoozes(store.read);
+}
+
+export function dueAt(store: StoreHandles, settings: Settings, at: number): { questions: Question[]; nudges: Nudge[] } {
+  const questions = unresolvedQuestions(store);
+  return { questions, nudges: planNudges(questions, settings, snoozes(store), at) };
+}
+
+export type SnoozePreset = 'hour' | 'tomorrow_morning' | 'next_week';
+
+/**
+ * When a snooze preset runs out: an hour from now; 09:00 tomorrow; 09:00 seven days on —
+ * mornings in the diary's time zone, because that is when the user starts their day.
+ */
+export function snoozeUntil(preset: SnoozePreset, now: number, timeZone: string): number {
+  if (preset === 'hour') return now + 3_600_000;
+  const today = wallTimeAt(now, timeZone);
+  const day = addCalendarDays({ ...today, hour: 9, minute: 0, second: 0 }, preset === 'tomorrow_morning' ? 1 : 7);
+  return wallTimeToInstant(day, timeZone);
+}
+
+export function createDiaryScheduler(
+  store: StoreHandles,
+  now: () => number,
+  settings: () => Settings,
+  notifier: Notifier,
+  onDueCountChanged?: (count: number) => void,
+): Scheduler {
+  return createScheduler({
+    clock: { now },
+    source: { questions: () => unresolvedQuestions(store), settings, snoozes: () => snoozes(store) },
+    log: {
+      wasDelivered: (key) => nudgeStore.wasDelivered(store.write, key),
+      record: (key, questionId, kind: NudgeKind, at) => nudgeStore.recordDelivered(store.write, key, questionId, kind, at),
+    },
+    notifier,
+    onDueCountChanged,
+  });
+}

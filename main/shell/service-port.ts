@@ -1,0 +1,39 @@
+/**
+ * What the shell needs from the diary service (main/service). Declared here, as a port, so
+ * the shell and its tests depend on this shape only; app.ts checks the real `openDiary`
+ * against it when it hands it to `startShell`.
+ */
+import type { Envelope } from '../../shared/bridge';
+
+/** One notification the scheduler wants shown; `question_id` null means a summary (open the Desk). */
+export interface NudgeNotice {
+  title: string;
+  body: string;
+  question_id: string | null;
+}
+
+export interface NudgeNotifier {
+  notify(notice: NudgeNotice): void;
+}
+
+export interface NudgeScheduler {
+  runOnce(reason: 'tick' | 'start' | 'resume'): unknown;
+  /** Starts the minute tick and runs once straight away (reason 'start'). */
+  start(): void;
+  stop(): void;
+}
+
+export interface DiaryService {
+  /** Validates `request` against the contract and runs the operation; never throws. */
+  dispatch(operation: string, request: unknown): Promise<Envelope>;
+  createScheduler(notifier: NudgeNotifier, onDueCountChanged?: (count: number) => void): NudgeScheduler;
+  exportDiaryJson(): string;
+  /** Adds a whole diary file (all or nothing); throws an error saying what was wrong. */
+  importDiaryJson(text: string): { added: number };
+  backupTo(file: string): Promise<void>;
+  close(): void;
+  /** Where the diary file lives, for the about box. */
+  location: string;
+}
+
+export type OpenDiary = (options: { dbPath: string; now?: () => number }) => DiaryService;

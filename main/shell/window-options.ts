@@ -1,0 +1,39 @@
+/**
+ * The main window's construction options. The webPreferences follow Electron's security
+ * checklist (electronjs.org/docs/latest/tutorial/security): the page gets no Node.js,
+ * runs in Chromium's sandbox, and sees the preload's API only through an isolated world.
+ */
+export interface MainWindowSettings {
+  preload: string;
+  icon: string;
+  /** False in the packaged app: nobody should be walked into pasting code into a console. */
+  devTools: boolean;
+}
+
+export function mainWindowOptions(settings: MainWindowSettings) {
+  return {
+    title: 'Forelog',
+    width: 1200,
+    height: 820,
+    minWidth: 720,
+    minHeight: 520,
+    // Shown on 'ready-to-show', so the window never flashes an empty frame.
+    show: false,
+    icon: settings.icon,
+    webPreferences: {
+      preload: settings.preload,
+      contextIsolation: true,
+      sandbox: true,
+      nodeIntegration: false,
+      nodeIntegrationInWorker: false,
+      nodeIntegrationInSubFrames: false,
+      webSecurity: true,
+      allowRunningInsecureContent: false,
+      webviewTag: false,
+      // Dropping a file on the window must not replace the app with that file.
+      navigateOnDragDrop: false,
+      safeDialogs: true,
+      devTools: settings.devTools,
+    },
+  };
+}

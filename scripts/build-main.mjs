@@ -1,0 +1,102 @@
+/**
+ * Bundles the main-process programs with esbuild into CommonJS files under dist/main:
+ *   main/app.ts     → dist/main/app.cjs      (Electron main process; package.json "main")
+ *   main/preload.ts → dist/main/preload.cjs  (sandboxed preload: may require 'electron' only)
+ *   main/cli.ts     → dist/main/cli.cjs      (the `forelog` command; package.json "bin")
+ * and copies the window and tray icons from build/ to dist/main/assets.
+ *
+ * Usage: node scripts/build-main.mjs [app] [preload] [cli]   (no names: all three)
+ *
+ * CommonJS because Electron loads a sandboxed preload only as a script, and one format
+ * for all three keeps them alike; the .cjs extension overrides the package's "type": "module".
+ * Native and runtime-provided packages stay outside the bundle and are required at run
+ * time; 'vite' is only reached by `forelog serve` in a source checkout.
+ */
+import { build } from 'esbuild';
+import { chmod, copyFile, mkdir, readFile } from 'node:fs/promises';
+import { fileURLToPath } from 'node:url';
+
+const root = fileURLToPath(new URL('../', import.meta.url));
+const EXTERNAL = ['electron', 'better-sqlite3', 'node-cron', 'vite'];
+
+/**
+ * `import.meta` has no meaning in CommonJS (esbuild would leave an empty object), so in
+ * the Node bundles it is rebuilt from the bundle's own file. Paths derived from it point
+ * into dist/main, not the source folder: read nothing relative to a module at run time.
+ */
+const IMPORT_META_BANNER = '"use strict";\nconst __importMetaUrl = require("node:url").pathToFileURL(__filename).href;';
+const IMPORT_META_DEFINE = {
+  'import.meta.url': '__importMetaUrl',
+  'import.meta.dirname': '__dirname',
+  'import.meta.filename': '__filename',
+};
+
+const TARGETS = {
+  app: { entry: 'main/app.ts', outfile: 'dist/main/app.cjs', node: true },
+  // The sandboxed preload cannot require node: modules, so it gets no import.meta shim
+  // and may import nothing but 'electron'.
+  preload: { entry: 'main/preload.ts', outfile: 'dist/main/preload.cjs', node: false, onlyExternals: ['electron'] },
+  // The command line runs under plain Node, where require('electron') is not the API.
+  cli: { entry: 'main/cli.ts', outfile: 'dist/main/cli.cjs', node: true, forbiddenExternals: ['electron'], executable: true },
+};
+
+const ASSETS = ['icon.png', 'tray.png', 'tray@2x.png'];
+
+function fail(message) {
+  console.error(`build-main: ${message}`);
+  process.exit(1);
+}
+
+const requested = process.argv.slice(2);
+for (const name of requested) {
+  if (!(name in TARGETS)) fail(`unknown target "${name}"; choose from ${Object.keys(TARGETS).join(', ')}.`);
+}
+const names = requested.length > 0 ? requested : Object.keys(TARGETS);
+
+for (const name of names) {
+  const target = TARGETS[name];
+  const source = await readFile(root + target.entry, 'utf8').catch(() =>
+    fail(`${target.entry} does not exist; it is needed to build ${target.outfile}.`),
+  );
+  let banner = target.node ? IMPORT_META_BANNER : '';
+  // esbuild keeps an entry's own #! line; add one only if the source has none.
+  if (target.executable && !source.startsWith('#!')) banner = `#!/usr/bin/env node\n${banner}`;
+
+  const result = await build({
+    absWorkingDir: root,
+    entryPoints: [target.entry],
+    outfile: target.outfile,
+    bundle: true,
+    platform: 'node',
+    target: 'node20',
+    format: 'cjs',
+    external: EXTERNAL,
+    define: target.node ? IMPORT_META_DEFINE : {},
+    banner: banner ? { js: banner } : {},
+    metafile: true,
+    logLevel: 'warning',
+  }).catch(() => fail(`bundling ${target.entry} failed (esbuild's messages are above).`));
+
+  if (result.warnings.length > 0) fail(`bundling ${target.entry} gave warnings (above); fix them so the bundle behaves like the source.`);
+
+  const output = result.metafile.outputs[target.outfile];
+  const externals = [...new Set(output.imports.filter((i) => i.external).map((i) => i.path))].sort();
+  const notAllowed = target.onlyExternals ? externals.filter((e) => !target.onlyExternals.includes(e)) : [];
+  const forbidden = target.forbiddenExternals ? externals.filter((e) => target.forbiddenExternals.includes(e)) : [];
+  if (notAllowed.length > 0 || forbidden.length > 0) {
+    fail(`${target.outfile} would require ${[...notAllowed, ...forbidden].join(', ')} at run time, which cannot work there; remove that import from ${target.entry}.`);
+  }
+  if (target.executable) await chmod(root + target.outfile, 0o755);
+  const size = `${(output.bytes / 1024).toFixed(1)} kB`;
+  console.log(`built ${target.outfile}  ${size}  requires at run time: ${externals.join(', ') || 'nothing'}`);
+}
+
+if (names.includes('app')) {
+  await mkdir(root + 'dist/main/assets', { recursive: true });
+  for (const asset of ASSETS) {
+    await copyFile(root + 'build/' + asset, root + 'dist/main/assets/' + asset).catch(() =>
+      fail(`build/${asset} is missing; regenerate the icons with "node build/make-icons.mjs".`),
+    );
+  }
+  console.log(`copied ${ASSETS.map((a) => `build/${a}`).join(', ')} → dist/main/assets/`);
+}

@@ -1,0 +1,226 @@
+/**
+ * Nudge planning on a fixed clock. DST transition instants below are those of the IANA
+ * tz database as listed by `zdump -v` (e.g. Europe/London 2025-03-30 01:00Z GMT→BST);
+ * the gap/repeat rules are RFC 5545 §3.3.5; calendar arithmetic is the Gregorian
+ * calendar's (2028 is a leap year: divisible by 4, not by 100).
+ */
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { defaultSettings, type Forecast, type Question, type Settings } from '../../shared/domain';
+import { addCalendarDays } from '../../shared/time';
+import { checkinAt, planNudges, type Nudge, type Snooze } from '../../main/nudges/plan';
+
+const ms = (iso: string): number => Date.parse(iso);
+
+function forecast(at: string, seq: number, p = 0.5): Forecast {
+  return { id: `f${seq}`, at, p, note: '', lenses: [], seq };
+}
+
+function question(over: Partial<Question> & { id: string }): Question {
+  return {
+    title: `Question ${over.id}`,
+    rule: 'Resolves Yes if it happens.',
+    kind: 'event_by_deadline',
+    tags: [],
+    opened_at: '2025-01-06T09:00:00.000Z',
+    closes_at: '2030-01-01T00:00:00.000Z',
+    time_zone: 'UTC',
+    base_rate: null,
+    base_rate_note: '',
+    costs: null,
+    checkin_days: null,
+    forecasts: [],
+    references: [],
+    resolution: null,
+    created_at: '2025-01-06T09:00:00.000Z',
+    updated_at: '2025-01-06T09:00:00.000Z',
+    ...over,
+  };
+}
+
+function settings(over: Partial<Settings> = {}): Settings {
+  return { ...defaultSettings('UTC'), ...over };
+}
+
+const summary = (nudges: Nudge[]) => nudges.map((n) => `${n.question_id}:${n.kind}@${new Date(n.due_at).toISOString()}`);
+
+/** The check-in instant for a question last revised at `revisedAt` in `zone` with a cadence of `days`. */
+function checkinFrom(revisedAt: string, days: number, zone: string): string {
+  const q = question({ id: 'q', time_zone: zone, checkin_days: days, forecasts: [forecast(revisedAt, 1)] });
+  const at = checkinAt(q, settings());
+  assert.ok(at !== null);
+  return new Date(at).toISOString();
+}
+
+test('addCalendarDays follows the Gregorian calendar across month ends and leap days', () => {
+  const wall = (y: number, m: number, d: number) => ({ year: y, month: m, day: d, hour: 9, minute: 0, second: 0 });
+  // Gregorian calendar: 2028 is a leap year, 2027 and 2100 are not.
+  assert.deepEqual(addCalendarDays(wall(2028, 2, 28), 1), wall(2028, 2, 29));
+  assert.deepEqual(addCalendarDays(wall(2028, 2, 29), 1), wall(2028, 3, 1));
+  assert.deepEqual(addCalendarDays(wall(2027, 2, 28), 1), wall(2027, 3, 1));
+  assert.deepEqual(addCalendarDays(wall(2100, 2, 28), 1), wall(2100, 3, 1));
+  assert.deepEqual(addCalendarDays(wall(2028, 1, 29), 31), wall(2028, 2, 29));
+  assert.deepEqual(addCalendarDays(wall(2028, 2, 29), 365), wall(2029, 2, 28));
+  assert.deepEqual(addCalendarDays(wall(2028, 3, 1), -1), wall(2028, 2, 29));
+  assert.deepEqual(addCalendarDays(wall(2025, 12, 31), 1), wall(2026, 1, 1));
+});
+
+test('RFC 5545 §3.3.5 examples, America/New_York: repeated 01:30 is the first, skipped 02:30 reads with the offset before', () => {
+  // RFC 5545 §3.3.5: 2007-11-04 01:30 New York → 05:30Z (EDT, first occurrence; the second would be 06:30Z).
+  assert.equal(checkinFrom('2007-11-03T05:30:00.000Z', 1, 'America/New_York'), '2007-11-04T05:30:00.000Z');
+  // RFC 5545 §3.3.5: 2007-03-11 02:30 New York (in the gap) → 07:30Z, i.e. 03:30 EDT.
+  assert.equal(checkinFrom('2007-03-10T07:30:00.000Z', 1, 'America/New_York'), '2007-03-11T07:30:00.000Z');
+});
+
+test('weekly check-in keeps the wall-clock time across DST in New York, London and Sydney', () => {
+  // tzdata: New York EST→EDT 2025-03-09 07:00Z; 09:00 EST = 14:00Z, 09:00 EDT = 13:00Z (derived: 167 h apart).
+  assert.equal(checkinFrom('2025-03-03T14:00:00.000Z', 7, 'America/New_York'), '2025-03-10T13:00:00.000Z');
+  // tzdata: New York EDT→EST 2025-11-02 06:00Z; 09:00 EDT = 13:00Z → 09:00 EST = 14:00Z (169 h).
+  assert.equal(checkinFrom('2025-10-27T13:00:00.000Z', 7, 'America/New_York'), '2025-11-03T14:00:00.000Z');
+  // tzdata: London BST→GMT 2025-10-26 01:00Z; 09:00 BST = 08:00Z → 09:00 GMT = 09:00Z.
+  assert.equal(checkinFrom('2025-10-20T08:00:00.000Z', 7, 'Europe/London'), '2025-10-27T09:00:00.000Z');
+  // tzdata: London GMT→BST 2025-03-30 01:00Z; 09:00 GMT = 09:00Z → 09:00 BST = 08:00Z.
+  assert.equal(checkinFrom('2025-03-24T09:00:00.000Z', 7, 'Europe/London'), '2025-03-31T08:00:00.000Z');
+  // tzdata: Sydney AEST→AEDT 2025-10-04 16:00Z; 09:00 AEST (+10) = 23:00Z → 09:00 AEDT (+11) = 22:00Z.
+  assert.equal(checkinFrom('2025-09-28T23:00:00.000Z', 7, 'Australia/Sydney'), '2025-10-05T22:00:00.000Z');
+  // tzdata: Sydney AEDT→AEST 2025-04-05 16:00Z; 04-01 09:00 AEDT = 03-31 22:00Z → 04-08 09:00 AEST = 04-07 23:00Z.
+  assert.equal(checkinFrom('2025-03-31T22:00:00.000Z', 7, 'Australia/Sydney'), '2025-04-07T23:00:00.000Z');
+});
+
+test('check-ins landing in a gap or a repeated hour follow RFC 5545 §3.3.5 in London and Sydney', () => {
+  // London 2025-03-30 01:00–02:00 is skipped; 01:30 reads with GMT (the offset before) → 01:30Z = 02:30 BST.
+  assert.equal(checkinFrom('2025-03-29T01:30:00.000Z', 1, 'Europe/London'), '2025-03-30T01:30:00.000Z');
+  // London 2025-10-26 01:00–02:00 happens twice: 01:30 BST (00:30Z) first, 01:30 GMT (01:30Z) second.
+  assert.equal(checkinFrom('2025-10-25T00:30:00.000Z', 1, 'Europe/London'), '2025-10-26T00:30:00.000Z');
+  // Sydney 2025-10-05 02:00–03:00 is skipped; 02:30 reads with AEST (+10) → 16:30Z = 03:30 AEDT.
+  assert.equal(checkinFrom('2025-10-03T16:30:00.000Z', 1, 'Australia/Sydney'), '2025-10-04T16:30:00.000Z');
+  // Sydney 2025-04-06 02:00–03:00 happens twice: 02:30 AEDT (15:30Z) first, 02:30 AEST (16:30Z) second.
+  assert.equal(checkinFrom('2025-04-04T15:30:00.000Z', 1, 'Australia/Sydney'), '2025-04-05T15:30:00.000Z');
+});
+
+test('check-ins count calendar days through a leap day', () => {
+  // Gregorian calendar; London is on GMT (UTC+0) in January–March before the last Sunday.
+  assert.equal(checkinFrom('2028-02-28T09:00:00.000Z', 1, 'Europe/London'), '2028-02-29T09:00:00.000Z');
+  assert.equal(checkinFrom('2028-01-29T09:00:00.000Z', 31, 'Europe/London'), '2028-02-29T09:00:00.000Z');
+  assert.equal(checkinFrom('2028-02-29T09:00:00.000Z', 1, 'Europe/London'), '2028-03-01T09:00:00.000Z');
+  assert.equal(checkinFrom('2027-02-28T09:00:00.000Z', 1, 'Europe/London'), '2027-03-01T09:00:00.000Z');
+  // 2028-02-22 + 7 = 2028-02-29 (leap day), 09:00 New York EST = 14:00Z.
+  assert.equal(checkinFrom('2028-02-22T14:00:00.000Z', 7, 'America/New_York'), '2028-02-29T14:00:00.000Z');
+});
+
+test('a check-in comes due at its instant, not a millisecond before, and stays due until a revision', () => {
+  // Opened 2025-03-03 09:00 EST (14:00Z), default cadence 7 → 2025-03-10 09:00 EDT = 13:00Z (tzdata as above).
+  const q = question({ id: 'ny', time_zone: 'America/New_York', opened_at: '2025-03-03T14:00:00.000Z' });
+  const s = settings();
+  assert.deepEqual(planNudges([q], s, [], ms('2025-03-10T12:59:59.999Z')), []);
+  assert.deepEqual(summary(planNudges([q], s, [], ms('2025-03-10T13:00:00.000Z'))), ['ny:checkin@2025-03-10T13:00:00.000Z']);
+  assert.deepEqual(summary(planNudges([q], s, [], ms('2025-05-01T00:00:00.000Z'))), ['ny:checkin@2025-03-10T13:00:00.000Z']);
+  // A revision moves the anchor: the next one is 7 calendar days after it, not after the opening.
+  const revised = { ...q, forecasts: [forecast('2025-03-12T15:30:00.000Z', 2)] };
+  assert.deepEqual(planNudges([revised], s, [], ms('2025-03-12T15:31:00.000Z')), []);
+  assert.deepEqual(planNudges([revised], s, [], ms('2025-03-19T15:29:59.999Z')), []);
+  assert.deepEqual(summary(planNudges([revised], s, [], ms('2025-03-19T15:30:00.000Z'))), ['ny:checkin@2025-03-19T15:30:00.000Z']);
+});
+
+test('the latest revision anchors the check-in whatever order the history is listed in', () => {
+  const q = question({
+    id: 'q',
+    checkin_days: 3,
+    forecasts: [forecast('2025-01-10T10:00:00.000Z', 2), forecast('2025-01-07T08:00:00.000Z', 1)],
+  });
+  assert.equal(checkinAt(q, settings()), ms('2025-01-13T10:00:00.000Z'));
+});
+
+test('cadence: the question overrides the default, 0 means never, null falls back to the diary default', () => {
+  const now = ms('2025-02-01T00:00:00.000Z');
+  assert.deepEqual(planNudges([question({ id: 'off', checkin_days: 0 })], settings(), [], now), []);
+  assert.deepEqual(planNudges([question({ id: 'dflt' })], settings({ default_checkin_days: 0 }), [], now), []);
+  // Opened 2025-01-06 09:00Z: default 7 → 01-13, own 30 → 02-05 (not yet due at 02-01).
+  assert.deepEqual(summary(planNudges([question({ id: 'dflt' })], settings(), [], now)), ['dflt:checkin@2025-01-13T09:00:00.000Z']);
+  assert.deepEqual(planNudges([question({ id: 'own', checkin_days: 30 })], settings(), [], now), []);
+});
+
+test('no check-in at or after the close, and none once the window has closed', () => {
+  const s = settings({ closing_soon_hours: 0 });
+  // Opened 01-06 09:00Z, cadence 7 → 01-13 09:00Z, which is exactly the close: never planned.
+  const q = question({ id: 'q', closes_at: '2025-01-13T09:00:00.000Z' });
+  for (const at of ['2025-01-13T08:59:59.999Z', '2025-01-13T09:00:00.000Z']) {
+    assert.ok(!planNudges([q], s, [], ms(at)).some((n) => n.kind === 'checkin'), at);
+  }
+  // Cadence 2 → due 01-08; shown until the close, then the window-closed prompt replaces it.
+  const due = { ...q, checkin_days: 2 };
+  assert.deepEqual(summary(planNudges([due], s, [], ms('2025-01-13T08:59:59.999Z'))), ['q:checkin@2025-01-08T09:00:00.000Z']);
+  assert.deepEqual(summary(planNudges([due], s, [], ms('2025-01-13T09:00:00.000Z'))), ['q:window_closed@2025-01-13T09:00:00.000Z']);
+});
+
+test('closing soon, window closed and overdue follow the settings, with overdue days on the calendar', () => {
+  // Europe/London close 2025-03-28 12:00 GMT; 3 calendar days later is 2025-03-31 12:00 BST = 11:00Z
+  // (tzdata: BST from 2025-03-30 01:00Z), i.e. 71 hours later, derived from the rules above.
+  const q = question({ id: 'ldn', time_zone: 'Europe/London', checkin_days: 0, closes_at: '2025-03-28T12:00:00.000Z' });
+  const s = settings();
+  const at = (iso: string) => summary(planNudges([q], s, [], ms(iso)));
+  assert.deepEqual(at('2025-03-27T11:59:59.999Z'), []);
+  assert.deepEqual(at('2025-03-27T12:00:00.000Z'), ['ldn:closing_soon@2025-03-27T12:00:00.000Z']);
+  assert.deepEqual(at('2025-03-28T11:59:59.999Z'), ['ldn:closing_soon@2025-03-27T12:00:00.000Z']);
+  assert.deepEqual(at('2025-03-28T12:00:00.000Z'), ['ldn:window_closed@2025-03-28T12:00:00.000Z']);
+  assert.deepEqual(at('2025-03-31T10:59:59.999Z'), ['ldn:window_closed@2025-03-28T12:00:00.000Z']);
+  assert.deepEqual(at('2025-03-31T11:00:00.000Z'), ['ldn:overdue@2025-03-31T11:00:00.000Z']);
+  assert.deepEqual(at('2026-01-01T00:00:00.000Z'), ['ldn:overdue@2025-03-31T11:00:00.000Z']);
+
+  const other = settings({ closing_soon_hours: 48, overdue_after_days: 0 });
+  assert.deepEqual(summary(planNudges([q], other, [], ms('2025-03-26T12:00:00.000Z'))), ['ldn:closing_soon@2025-03-26T12:00:00.000Z']);
+  assert.deepEqual(summary(planNudges([q], other, [], ms('2025-03-28T12:00:00.000Z'))), ['ldn:overdue@2025-03-28T12:00:00.000Z']);
+});
+
+test('a check-in and the closing-soon warning can be due together', () => {
+  const q = question({ id: 'q', checkin_days: 7, closes_at: '2025-01-14T00:00:00.000Z' });
+  // Closing soon from 01-13 00:00Z (close − 24 h), check-in from 01-13 09:00Z: earliest first.
+  assert.deepEqual(summary(planNudges([q], settings(), [], ms('2025-01-13T12:00:00.000Z'))), [
+    'q:closing_soon@2025-01-13T00:00:00.000Z',
+    'q:checkin@2025-01-13T09:00:00.000Z',
+  ]);
+});
+
+test('a snooze hides its own nudge until `until`, and nothing else', () => {
+  const q = question({ id: 'q', checkin_days: 7 });
+  const other = question({ id: 'other', checkin_days: 7 });
+  const until = ms('2025-01-20T08:00:00.000Z');
+  const snoozes: Snooze[] = [{ question_id: 'q', kind: 'checkin', until }];
+  const ids = (now: number) => summary(planNudges([q, other], settings(), snoozes, now));
+  assert.deepEqual(ids(until - 1), ['other:checkin@2025-01-13T09:00:00.000Z']);
+  // Back at `until`, with its original due instant.
+  assert.deepEqual(ids(until), ['other:checkin@2025-01-13T09:00:00.000Z', 'q:checkin@2025-01-13T09:00:00.000Z']);
+  // A snooze of another kind does not hide the check-in.
+  const wrongKind: Snooze[] = [{ question_id: 'q', kind: 'overdue', until }];
+  assert.equal(planNudges([q], settings(), wrongKind, until - 1).length, 1);
+});
+
+test('resolved and void questions get no nudges at all', () => {
+  const base = question({ id: 'q', checkin_days: 1, closes_at: '2025-01-10T00:00:00.000Z' });
+  const now = ms('2025-03-01T00:00:00.000Z');
+  assert.equal(planNudges([base], settings(), [], now).length, 1); // overdue while unresolved
+  for (const outcome of ['yes', 'no', 'void'] as const) {
+    const resolved = { ...base, resolution: { outcome, at: '2025-01-11T00:00:00.000Z', note: '' } };
+    assert.deepEqual(planNudges([resolved], settings(), [], now), [], outcome);
+  }
+});
+
+test('nudges are sorted by due instant, then title', () => {
+  const s = settings({ closing_soon_hours: 0 });
+  const close = '2025-01-10T00:00:00.000Z';
+  const qs = [
+    question({ id: '1', title: 'Zeta', checkin_days: 0, closes_at: close }),
+    question({ id: '2', title: 'alpha', checkin_days: 0, closes_at: close }),
+    question({ id: '3', title: 'Mid', checkin_days: 0, closes_at: '2025-01-09T00:00:00.000Z' }),
+  ];
+  const order = planNudges(qs, s, [], ms('2025-01-10T01:00:00.000Z')).map((n) => n.title);
+  assert.deepEqual(order, ['Mid', 'alpha', 'Zeta']);
+});
+
+test("a question without a usable zone is placed in the diary's zone", () => {
+  // Opened 2025-03-03 09:00 EST; in New York (the diary zone) a week later is 09:00 EDT = 13:00Z (tzdata).
+  const q = question({ id: 'q', time_zone: '', opened_at: '2025-03-03T14:00:00.000Z' });
+  assert.equal(checkinAt(q, settings({ time_zone: 'America/New_York' })), ms('2025-03-10T13:00:00.000Z'));
+  // In UTC it would be exactly 7 × 24 h later.
+  assert.equal(checkinAt(q, settings({ time_zone: 'UTC' })), ms('2025-03-10T14:00:00.000Z'));
+});
