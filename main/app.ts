@@ -9,6 +9,7 @@
  * import startShell with a fake 'electron' module (test/shell/register-fake-electron.mjs)
  * and pass their own openDiary.
  */
+import fs from 'node:fs';
 import path from 'node:path';
 import {
   app,
@@ -123,7 +124,9 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
   let diary: DiaryService;
   try {
     const dbPath = dbPathFromArgs(deps.argv, deps.cwd) ?? path.join(app.getPath('userData'), DIARY_FILE_NAME);
-    diary = deps.openDiary({ dbPath });
+    // From a checkout, `npm start` builds SQLite for Electron beside the Node build (scripts/electron-native.mjs);
+    // a packaged app has it rebuilt in place by electron-builder.
+    diary = deps.openDiary({ dbPath, nativeBinding: fs.existsSync(locations.nativeSqlite) ? locations.nativeSqlite : undefined });
   } catch (error) {
     dialog.showErrorBox(
       'Forelog could not open its diary',

@@ -16,6 +16,8 @@ export interface OpenOptions {
   now?: () => number;
   timeZone?: string;
   onInternalError?: (err: unknown) => void;
+  /** Path of better-sqlite3's native module when it is not the default (Electron's own build). */
+  nativeBinding?: string;
 }
 
 export interface DiaryService {
@@ -35,7 +37,7 @@ export interface DiaryService {
 
 export function openDiary(options: OpenOptions): DiaryService {
   const now = options.now ?? Date.now;
-  const store = openStore(options.dbPath);
+  const store = openStore(options.dbPath, { nativeBinding: options.nativeBinding });
   const diary = createDiary({ store, now, systemTimeZone: options.timeZone ?? systemTimeZone(), demo: buildDemoDiary });
   const dispatch = createDispatch(diary.handlers, options.onInternalError);
   return {

@@ -20,6 +20,8 @@ export interface ShellLocations {
   preload: string;
   windowIcon: string;
   trayIcon: string;
+  /** SQLite's native module built for Electron by scripts/electron-native.mjs (absent in packaged apps). */
+  nativeSqlite: string;
 }
 
 /** scripts/build-main.mjs writes dist/main/*.cjs and copies the icons to dist/main/assets. */
@@ -31,6 +33,7 @@ export function shellLocations(appPath: string): ShellLocations {
     preload: path.join(appPath, 'dist', 'main', 'preload.cjs'),
     windowIcon: path.join(appPath, 'dist', 'main', 'assets', 'icon.png'),
     trayIcon: path.join(appPath, 'dist', 'main', 'assets', 'tray.png'),
+    nativeSqlite: path.join(appPath, 'dist', 'native', 'better_sqlite3.node'),
   };
 }
 

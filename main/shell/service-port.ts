@@ -36,4 +36,4 @@ export interface DiaryService {
   location: string;
 }
 
-export type OpenDiary = (options: { dbPath: string; now?: () => number }) => DiaryService;
+export type OpenDiary = (options: { dbPath: string; now?: () => number; nativeBinding?: string }) => DiaryService;

@@ -48,10 +48,11 @@ export function migrate(db: Db, migrations: readonly Migration[] = MIGRATIONS): 
   return db.pragma('user_version', { simple: true }) as number;
 }
 
-export function openStore(file: string): StoreHandles {
+export function openStore(file: string, options: { nativeBinding?: string } = {}): StoreHandles {
   const resolved = path.resolve(file);
   fs.mkdirSync(path.dirname(resolved), { recursive: true });
-  const write = new Database(resolved);
+  const native = options.nativeBinding ? { nativeBinding: options.nativeBinding } : {};
+  const write = new Database(resolved, native);
   try {
     // Refuse before touching anything: a newer file is left exactly as it was.
     const version = write.pragma('user_version', { simple: true }) as number;
@@ -64,7 +65,7 @@ export function openStore(file: string): StoreHandles {
     write.close();
     throw err;
   }
-  const read = new Database(resolved, { readonly: true, fileMustExist: true });
+  const read = new Database(resolved, { ...native, readonly: true, fileMustExist: true });
   configure(read);
   return {
     write,
