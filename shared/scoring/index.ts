@@ -1,0 +1,45 @@
+/**
+ * The scoring engine: pure functions, no I/O, no dependencies. SCORING.md is the
+ * normative definition of every figure; each function cites its source.
+ */
+export type * from './types';
+export { computeScoreReport } from './report';
+export { computeScorecardDetail } from './detail';
+export { prepareScoredSet, windowEnd, type ScoredSet } from './counting';
+export {
+  LOG_CLIP_HIGH,
+  LOG_CLIP_LOW,
+  brierScore,
+  clipProbability,
+  logScore,
+  shareCertain,
+  sharpness,
+  timeAveragedSquaredError,
+} from './accuracy';
+export {
+  SCORECARD_BIN_EDGES,
+  binIndex,
+  brierDecomposition,
+  calibrationBins,
+  type BrierDecomposition,
+  type CalibrationBin,
+} from './calibration';
+export { MIN_CALIBRATION_N, calibrationFit } from './logistic';
+export { rocAuc, rocCurve } from './discrimination';
+export { skillScore } from './skill';
+export {
+  VALUE_CURVE_ALPHAS,
+  costLossDecisions,
+  costLossThreshold,
+  falseAlarmRate,
+  hitRate,
+  peirceSkillScore,
+  relativeValue,
+  valueCurve,
+  type ContingencyTable,
+  type CostLossCase,
+} from './decisions';
+export { Z95, normalMeanInterval, wilsonInterval } from './intervals';
+// Forecasting helpers (rule of succession, Jeffreys, hazard, glide path, pooling) live
+// in their own module; re-exported so callers have one entry point.
+export * from './helpers';
