@@ -10,6 +10,7 @@ import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
 import { toICalendar } from './service/calendar';
+import { csvToDiary, diaryToCsv } from './service/csv';
 import { unresolvedQuestions } from './service/nudges';
 import { callOrThrow } from './service/dispatch';
 import { openDiary, type DiaryService } from './service/index';
@@ -19,12 +20,14 @@ const USAGE = `Usage: forelog <command> [--db PATH]
 
 Commands:
   serve [--port N]            the full app in a browser, on 127.0.0.1 only
-  import FILE                 add a diary file (JSON v1) to the diary
+  import FILE [--format json|csv]
+                              add a diary file (JSON v1, or CSV as in docs/csv-format.md;
+                              chosen by --format or the .csv extension)
   score [--tag T] [--from D] [--to D] [--json]
                               the scorecard (JSON as documented with --json)
-  export [FILE] [--format json|ics]
-                              write the diary file (to stdout without FILE);
-                              ics: every open question's close as a calendar event
+  export [FILE] [--format json|csv|ics]
+                              write the diary file (to stdout without FILE); csv: one
+                              row per revision; ics: every open question's close as an event
   due [--at TIME] [--json]    the nudges due at that instant (default now)
   demo                        fill an empty diary with the invented example
   backup FILE                 online copy of the diary database
@@ -132,12 +135,18 @@ async function run(argv: string[]): Promise<void> {
       return serve(dbPath, values.port);
     case 'import': {
       const file = one(positionals, 'FILE to import');
+      const format = values.format ?? (/\.csv$/i.test(file) ? 'csv' : 'json');
+      if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
+      if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
       const text = fs.readFileSync(file, 'utf8');
       let diary: unknown;
-      try {
-        diary = JSON.parse(text);
-      } catch (err) {
-        throw new Error(`${file} is not valid JSON (${(err as Error).message}); nothing was imported`);
+      if (format === 'csv') diary = csvToDiary(text);
+      else {
+        try {
+          diary = JSON.parse(text);
+        } catch (err) {
+          throw new Error(`${file} is not valid JSON (${(err as Error).message}); nothing was imported`);
+        }
       }
       const result = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'importDiary', { diary }))) as { added: number };
       process.stdout.write(`Imported ${result.added} question${result.added === 1 ? '' : 's'} into ${path.resolve(dbPath)}.\n`);
@@ -146,10 +155,12 @@ async function run(argv: string[]): Promise<void> {
     case 'export': {
       if (positionals.length > 1) throw new UsageError('expects at most one FILE');
       const format = values.format ?? 'json';
-      if (format !== 'json' && format !== 'ics') throw new UsageError(`--format must be json or ics (got "${format}")`);
-      const text = await withDiary(dbPath, async (s) =>
-        format === 'ics' ? toICalendar(unresolvedQuestions(s.store), { now: s.now() }) : s.exportDiaryJson(),
-      );
+      if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
+      const text = await withDiary(dbPath, async (s) => {
+        if (format === 'ics') return toICalendar(unresolvedQuestions(s.store), { now: s.now(), alarmHours: s.diary.settings().closing_soon_hours });
+        if (format === 'csv') return diaryToCsv(s.diary.exportDiary());
+        return s.exportDiaryJson();
+      });
       if (positionals[0]) {
         fs.writeFileSync(positionals[0], text);
         process.stderr.write(`Wrote ${positionals[0]}.\n`);

@@ -1,0 +1,360 @@
+/**
+ * The diary as CSV (docs/csv-format.md): export → CSV → import gives back the same diary,
+ * quoting follows RFC 4180 §2 (checked against an independent reader, Python's csv module),
+ * and a bad file is refused whole with the row and column a spreadsheet shows.
+ */
+import assert from 'node:assert/strict';
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { test } from 'node:test';
+import { ApiError } from '../../shared/contract';
+import { buildDemoDiary } from '../../main/service/demo';
+import { CSV_COLUMNS, CsvError, csvToDiary, diaryToCsv, type CsvColumn } from '../../main/service/csv';
+import { openTestDiary, type TestDiary } from '../support/temp-diary';
+
+/** A note using everything RFC 4180 §2 rules 6–7 say must be quoted, plus non-ASCII text. */
+const TRICKY_NOTE = 'Client said "maybe, later", then:\nline two\r\nline three — Zürich ≥ ½ 日本 🙂';
+
+/** Cells of one row, every field quoted with inner quotes doubled (RFC 4180 §2 rules 5 and 7). */
+function line(cells: string[]): string {
+  return cells.map((c) => `"${c.replaceAll('"', '""')}"`).join(',');
+}
+
+/** A full-width row: the given columns filled, the rest empty. */
+function row(values: Partial<Record<CsvColumn, string>>): string {
+  return line(CSV_COLUMNS.map((c) => values[c] ?? ''));
+}
+
+const HEADER = CSV_COLUMNS.join(',');
+const Q1 = { question_id: 'q1', title: 'Northgate renews', closes_at: '2026-09-30T16:00:00.000Z' };
+const Q2 = { question_id: 'q2', title: 'Harbour office opens', closes_at: '2026-10-31T17:00:00.000Z' };
+const F1 = { forecast_at: '2026-06-01T09:00:00.000Z', p: '0.4' };
+
+function csvText(...rows: string[]): string {
+  return [HEADER, ...rows].join('\r\n') + '\r\n';
+}
+
+/** Asserts that reading `text` fails with exactly this message (and its row and column). */
+function refuses(text: string, message: string | RegExp, rowNumber: number | null, column: string | null): void {
+  assert.throws(
+    () => csvToDiary(text),
+    (err: unknown) => {
+      assert.ok(err instanceof CsvError, `a CsvError, got ${String(err)}`);
+      if (typeof message === 'string') assert.equal(err.message, message);
+      else assert.match(err.message, message);
+      assert.equal(err.row, rowNumber);
+      assert.equal(err.column, column);
+      return true;
+    },
+  );
+}
+
+/** Rows as Python's csv module (an independent RFC 4180 reader) reads them. */
+function pythonRows(text: string): string[][] {
+  const script = 'import csv, io, json, sys\nprint(json.dumps(list(csv.reader(io.StringIO(sys.stdin.buffer.read().decode("utf-8"), newline="")))))';
+  const r = spawnSync('/usr/bin/python3', ['-c', script], { input: Buffer.from(text, 'utf8'), encoding: 'utf8' });
+  assert.equal(r.status, 0, r.stderr);
+  return JSON.parse(r.stdout) as string[][];
+}
+
+/** The example diary plus the shapes it lacks: a question with no revisions, one with only a reference, tricky text and numbers. */
+async function fullDiary(): Promise<TestDiary> {
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: buildDemoDiary(d.clock.now) });
+  await d.call('createQuestion', { title: 'Bare question, no revisions yet', closes_at: '2026-09-30T17:00:00+01:00', tags: [] });
+  const refOnly = await d.call('createQuestion', { title: 'Only the client has a view', closes_at: '2026-10-30T17:00:00Z' });
+  await d.call('addReference', { question_id: refOnly.id, p: 0.6, source: 'client\'s "gut", not ours' });
+  const tricky = await d.call('createQuestion', {
+    title: 'Tender, "phase 3", won — Zürich office',
+    rule: 'Yes if the award letter arrives,\nsigned.',
+    closes_at: '2026-12-01T12:00:00Z',
+    tags: ['client:zurich', 'tenders'],
+    base_rate: 0.1 + 0.2,
+    base_rate_note: '1 in 10\rper the tender log',
+    costs: { false_alarm: 1.5, miss: 4 },
+    checkin_days: 0,
+    first_forecast: { p: 0.123456789012345, note: TRICKY_NOTE },
+  });
+  d.clock.now += 3_600_000;
+  await d.call('addForecast', {
+    question_id: tricky.id,
+    p: 1e-7,
+    note: 'no comma or quote\nonly a line break',
+    lenses: [
+      { name: 'outside view, "base"', p: 0.3, weight: 2 },
+      { name: 'inside view', p: 1 / 3, weight: 0 },
+    ],
+  });
+  await d.call('resolveQuestion', { id: tricky.id, outcome: 'void', note: 'Tender withdrawn, "for now"' });
+  return d;
+}
+
+test('export → CSV → import into a fresh diary → export gives identical questions (example diary and edge shapes)', async () => {
+  const d = await fullDiary();
+  const first = (await d.call('exportDiary', {})) as { questions: { forecasts: unknown[]; references: unknown[] }[] };
+  const csv = diaryToCsv(first);
+
+  // One header row, then one row per revision and per reference, or one row for a question with neither (docs/csv-format.md).
+  const expectedRows = 1 + first.questions.reduce((n, q) => n + Math.max(1, q.forecasts.length + q.references.length), 0);
+  assert.equal(pythonRows(csv).length, expectedRows);
+  assert.ok(csv.startsWith(`${HEADER}\r\n`), 'the header row comes first, in the documented order');
+  assert.ok(csv.endsWith('\r\n'), 'RFC 4180 §2 rule 1: each record ends in CRLF');
+  // Full precision, derived from String(number): these read back to the same double.
+  assert.ok(csv.includes(',0.123456789012345,'));
+  assert.ok(csv.includes(',1e-7,'));
+  assert.ok(csv.includes(',0.30000000000000004,'));
+
+  const d2 = openTestDiary();
+  const added = await d2.call('importDiary', { diary: csvToDiary(csv) });
+  assert.equal(added.added, first.questions.length);
+  const second = (await d2.call('exportDiary', {})) as { questions: unknown[] };
+  assert.equal(JSON.stringify(second.questions, null, 2), JSON.stringify(first.questions, null, 2));
+  assert.equal(diaryToCsv(second), csv, 'the CSV export is stable across the round trip');
+});
+
+test('exported quoting reads back exactly with an independent RFC 4180 reader (Python csv)', async () => {
+  const d = await fullDiary();
+  const exported = (await d.call('exportDiary', {})) as Record<string, unknown>;
+  const rows = pythonRows(diaryToCsv(exported));
+  assert.deepEqual(rows[0], [...CSV_COLUMNS]);
+  const col = (name: CsvColumn) => CSV_COLUMNS.indexOf(name);
+  const tricky = rows.filter((r) => r[col('title')] === 'Tender, "phase 3", won — Zürich office');
+  assert.equal(tricky.length, 2, 'one row per revision');
+  const [firstRev, secondRev] = tricky as [string[], string[]];
+  assert.equal(firstRev[col('note')], TRICKY_NOTE);
+  assert.equal(firstRev[col('rule')], 'Yes if the award letter arrives,\nsigned.');
+  assert.equal(firstRev[col('tags')], 'client:zurich tenders');
+  assert.equal(firstRev[col('p')], '0.123456789012345');
+  assert.equal(firstRev[col('lenses')], '');
+  assert.equal(firstRev[col('checkin_days')], '0');
+  // A bare LF or CR must be quoted too (RFC 4180 §2 rule 6), even with no comma or quote beside it.
+  assert.equal(firstRev[col('base_rate_note')], '1 in 10\rper the tender log');
+  assert.equal(secondRev[col('note')], 'no comma or quote\nonly a line break');
+  assert.equal(firstRev[col('false_alarm_cost')], '1.5');
+  assert.equal(firstRev[col('outcome')], 'void');
+  assert.equal(firstRev[col('resolution_note')], 'Tender withdrawn, "for now"');
+  assert.deepEqual(JSON.parse(secondRev[col('lenses')]!), [
+    { name: 'outside view, "base"', p: 0.3, weight: 2 },
+    { name: 'inside view', p: 1 / 3, weight: 0 },
+  ]);
+  const refRow = rows.find((r) => r[col('title')] === 'Only the client has a view')!;
+  assert.deepEqual([refRow[col('forecast_at')], refRow[col('p')], refRow[col('reference_p')], refRow[col('reference_source')]], ['', '', '0.6', 'client\'s "gut", not ours']);
+  const bare = rows.filter((r) => r[col('title')] === 'Bare question, no revisions yet');
+  assert.equal(bare.length, 1);
+  assert.equal(bare[0]![col('forecast_at')]! + bare[0]![col('reference_at')]!, '');
+});
+
+test('a hand-written CSV with a BOM, LF line ends, reordered columns and tricky quoting is read exactly', () => {
+  // RFC 4180 §2 rule 6 (line breaks, quotes and commas inside quoted fields) and rule 7
+  // (a quote inside a quoted field is doubled), e.g. "b""bb" reads as b"bb.
+  const text =
+    '\ufeffnote,p,forecast_at,title,closes_at,tags,question_id,reference_at,reference_p,reference_source\n' +
+    '"Client said ""maybe, later"", then:\nline two\r\nline three — Zürich ≥ ½ 日本 🙂",0.25,2026-06-01T09:00:00Z,"Tender, ""phase 3"", won",2026-12-01T12:00:00+01:00,client:zurich tenders,t-1,,,\n' +
+    '\n' +
+    '"b""bb",.5,2026-06-02T09:00:00Z,"Tender, ""phase 3"", won",2026-12-01T12:00:00+01:00,client:zurich tenders,t-1,,,\n' +
+    ',,,"Tender, ""phase 3"", won",2026-12-01T12:00:00+01:00,client:zurich tenders,t-1,2026-06-03T10:00:00Z,7.5e-1,"Ölberg & Co, Zürich"\n' +
+    '\n';
+  assert.deepEqual(csvToDiary(text), {
+    format: 'forelog-diary',
+    version: 1,
+    questions: [
+      {
+        id: 't-1',
+        title: 'Tender, "phase 3", won',
+        rule: '',
+        tags: ['client:zurich', 'tenders'],
+        closes_at: '2026-12-01T12:00:00+01:00',
+        forecasts: [
+          { at: '2026-06-01T09:00:00Z', p: 0.25, note: TRICKY_NOTE },
+          { at: '2026-06-02T09:00:00Z', p: 0.5, note: 'b"bb' },
+        ],
+        references: [{ at: '2026-06-03T10:00:00Z', p: 0.75, source: 'Ölberg & Co, Zürich' }],
+        resolution: null,
+      },
+    ],
+  });
+});
+
+test('the example in docs/csv-format.md imports as documented', async () => {
+  const doc = fs.readFileSync(path.join(import.meta.dirname, '..', '..', 'docs', 'csv-format.md'), 'utf8');
+  const example = /```csv\n([\s\S]*?)```/.exec(doc)![1]!;
+  const file = csvToDiary(example);
+  assert.equal(file.questions.length, 1);
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: file });
+  const q = await d.call('getQuestion', { id: 'q1' });
+  assert.deepEqual(
+    q.forecasts.map((f: { p: number; note: string; lenses: unknown[] }) => [f.p, f.note, f.lenses.length]),
+    [
+      [0.4, 'Sponsor keen, procurement "not yet"', 0],
+      [0.55, 'Budget approved.\nLegal still reviewing.', 1],
+    ],
+  );
+  assert.deepEqual(q.references.map((r: { p: number; source: string }) => [r.p, r.source]), [[0.6, "client's view"]]);
+  assert.deepEqual(q.costs, { false_alarm: 1, miss: 4 });
+  assert.equal(q.resolution.outcome, 'yes');
+});
+
+test('CRLF and LF line ends read the same; a quoted line break is kept exactly as written', () => {
+  const rows = [line(['title', 'closes_at', 'forecast_at', 'p', 'note']), line(['Q', '2026-09-30T16:00:00Z', '2026-06-01T09:00:00Z', '0.4', 'a\r\nb\nc'])];
+  const crlf = csvToDiary(rows.join('\r\n'));
+  const lf = csvToDiary(rows.join('\n') + '\n');
+  assert.deepEqual(crlf, lf);
+  assert.equal((crlf.questions[0]!.forecasts as { note: string }[])[0]!.note, 'a\r\nb\nc');
+});
+
+test('rows without a question_id are grouped by title, and each group gets a new id on import', async () => {
+  const text = csvText(
+    row({ title: 'Pilot extended', closes_at: '2026-09-30T16:00:00Z', ...F1 }),
+    row({ title: 'Pilot extended', closes_at: '2026-09-30T16:00:00Z', forecast_at: '2026-06-02T09:00:00Z', p: '0.45' }),
+    row({ title: 'Second pilot', closes_at: '2026-10-30T16:00:00Z' }),
+  );
+  const file = csvToDiary(text);
+  assert.equal(file.questions.length, 2);
+  assert.equal('id' in file.questions[0]!, false);
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: file });
+  const list = await d.call('listQuestions', {});
+  assert.deepEqual(
+    list.questions.map((q: { title: string; forecast_count: number }) => [q.title, q.forecast_count]),
+    [
+      ['Pilot extended', 2],
+      ['Second pilot', 0],
+    ],
+  );
+});
+
+test('resolution, costs, base rate and lenses are read from their columns', () => {
+  const file = csvToDiary(
+    csvText(
+      row({
+        ...Q1,
+        kind: 'State_At_Deadline',
+        opened_at: '2026-05-01T09:00:00Z',
+        time_zone: 'Europe/London',
+        base_rate: '0.3',
+        base_rate_note: '6 of 20',
+        false_alarm_cost: '1',
+        miss_cost: '4',
+        checkin_days: '14',
+        ...F1,
+        lenses: '[{"name":"outside view","p":0.3}]',
+        outcome: 'Yes',
+        resolved_at: '2026-09-29T12:00:00Z',
+        resolution_note: 'signed',
+      }),
+    ),
+  );
+  assert.deepEqual(file.questions[0], {
+    id: 'q1',
+    title: 'Northgate renews',
+    rule: '',
+    kind: 'state_at_deadline',
+    tags: [],
+    opened_at: '2026-05-01T09:00:00Z',
+    closes_at: '2026-09-30T16:00:00.000Z',
+    time_zone: 'Europe/London',
+    base_rate: 0.3,
+    base_rate_note: '6 of 20',
+    costs: { false_alarm: 1, miss: 4 },
+    checkin_days: 14,
+    // The lens weight defaults to 1, as in the JSON file.
+    forecasts: [{ at: '2026-06-01T09:00:00.000Z', p: 0.4, note: '', lenses: [{ name: 'outside view', p: 0.3, weight: 1 }] }],
+    references: [],
+    resolution: { outcome: 'yes', at: '2026-09-29T12:00:00Z', note: 'signed' },
+  });
+});
+
+test('a bad row in the middle rejects the whole file, naming its row and column; the diary is unchanged', async () => {
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: buildDemoDiary(d.clock.now) });
+  const before = d.service.exportDiaryJson();
+  const text = csvText(
+    row({ ...Q1, ...F1 }),
+    row({ ...Q1, forecast_at: '2026-06-02T09:00:00.000Z', p: '0.5' }),
+    row({ ...Q1, forecast_at: '2026-06-03T09:00:00.000Z', p: '1.5' }),
+    row({ ...Q2, ...F1 }),
+  );
+  refuses(text, 'Row 4, column p: must be a probability between 0 and 1. Nothing was imported.', 4, 'p');
+  assert.equal(d.service.exportDiaryJson(), before);
+});
+
+test('a CSV whose later question is already in the diary adds none of its questions', async () => {
+  // All-or-nothing (INTERFACES.md §1): the first question is valid and new, the second's id exists.
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: csvToDiary(csvText(row({ ...Q2, ...F1 }))) });
+  const before = d.service.exportDiaryJson();
+  const again = csvToDiary(csvText(row({ ...Q1, ...F1 }), row({ ...Q2, ...F1 })));
+  await assert.rejects(d.call('importDiary', { diary: again }), (err: unknown) => err instanceof ApiError && err.code === 'conflict');
+  assert.equal(d.service.exportDiaryJson(), before);
+});
+
+test('header problems name the column', () => {
+  refuses('', /^The CSV file has no header row/, 1, null);
+  refuses('title,closes_at,probability\r\nQ,2026-09-30T16:00:00Z,0.4\r\n', /^Row 1 \(the header\): unknown column "probability"\. The columns are: question_id, title, /, 1, 'probability');
+  refuses('title;closes_at\r\n', /semicolons or tabs between fields; save it as comma-separated CSV\. Nothing was imported\.$/, 1, 'title;closes_at');
+  refuses('title,closes_at,p,P\r\n', 'Row 1 (the header): column "p" appears twice; keep one of them. Nothing was imported.', 1, 'p');
+  refuses('title,forecast_at,p\r\n', 'Row 1 (the header): the required column "closes_at" is missing; add it. Nothing was imported.', 1, 'closes_at');
+  assert.deepEqual(csvToDiary(`${HEADER}\r\n`).questions, [], 'a header alone is an empty diary');
+});
+
+test('malformed CSV is refused with the row and the line where csv-parse stopped', () => {
+  // The quote opened in row 3 (line 3) is never closed; the text has 4 lines.
+  refuses(
+    'title,closes_at\n"Q one",2026-09-30T16:00:00Z\n"Q two,2026-09-30T16:00:00Z\nQ three,2026-09-30T16:00:00Z\n',
+    'The file is not valid CSV: a quoted field in row 3 is never closed (the file ends at line 4 still inside the quotes). Add the missing closing double quote and import it again. Nothing was imported.',
+    3,
+    null,
+  );
+  refuses('title,closes_at\n"Q "one",2026-09-30T16:00:00Z\n', /^The file is not valid CSV at row 2, line 2: Invalid Closing Quote/, 2, null);
+  refuses(`${HEADER}\r\n"Q",2026-09-30T16:00:00Z\r\n`, `Row 2 has 2 fields but the header names ${CSV_COLUMNS.length} columns; check for a missing or extra comma, or an unquoted comma inside a field. Nothing was imported.`, 2, null);
+});
+
+test('each cell is checked with the diary file rules, and the message names row and column', () => {
+  const cases: [Partial<Record<CsvColumn, string>>, string | RegExp, CsvColumn][] = [
+    [{ ...Q1, title: '  ' }, 'must not be empty', 'title'],
+    [{ ...Q1, closes_at: '30/09/2026' }, 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00', 'closes_at'],
+    [{ ...Q1, ...F1, p: '0,4' }, '"0,4" is not a number; write it with a decimal point and nothing else, e.g. 0.35', 'p'],
+    [{ ...Q1, ...F1, p: '40%' }, '"40%" is not a number; write it with a decimal point and nothing else, e.g. 0.35', 'p'],
+    [{ ...Q1, tags: 'renewals Client:North' }, '[1]: is not a valid tag: a tag is 1–64 lower-case letters, digits or - _ : . / starting with a letter or digit (e.g. client:northgate)', 'tags'],
+    [{ ...Q1, kind: 'sometime' }, 'must be event_by_deadline or state_at_deadline', 'kind'],
+    [{ ...Q1, time_zone: 'Mars/Olympus' }, 'is not a time zone this system knows (use an IANA name such as Europe/London)', 'time_zone'],
+    [{ ...Q1, checkin_days: '2.5' }, 'must be a whole number of days', 'checkin_days'],
+    [{ ...Q1, false_alarm_cost: '1' }, 'is empty but the other cost is given; give both costs or neither (neither uses the diary defaults)', 'miss_cost'],
+    [{ ...Q1, outcome: 'maybe', resolved_at: '2026-09-29T12:00:00Z' }, 'must be yes, no or void', 'outcome'],
+    [{ ...Q1, outcome: 'yes' }, 'is empty, but outcome is set; give the time the question was resolved', 'resolved_at'],
+    [{ ...Q1, resolution_note: 'done' }, 'is given but outcome is empty; give the outcome (yes, no or void) or clear the note', 'resolution_note'],
+    [{ ...Q1, forecast_at: F1.forecast_at }, 'is empty, but a revision needs both its time (forecast_at) and its probability (p)', 'p'],
+    [{ ...Q1, note: 'orphan note' }, 'belongs to a revision, but forecast_at and p are empty on this row; fill them in or clear this cell', 'note'],
+    [{ ...Q1, ...F1, lenses: '[{name: "outside"}]' }, /^is not valid JSON \(.+\); write a list such as/, 'lenses'],
+    [{ ...Q1, ...F1, lenses: '[{"name":"outside view","p":1.2,"weight":1}]' }, '[0].p: must be a probability between 0 and 1', 'lenses'],
+    [{ ...Q1, ...F1, reference_at: F1.forecast_at, reference_p: '0.5', reference_source: 'client' }, /^a row holds either a revision \(forecast_at, p\) or a reference forecast/, 'reference_at'],
+    [{ ...Q1, reference_at: F1.forecast_at, reference_p: '0.5' }, 'is empty, but a reference forecast needs its time, probability and source', 'reference_source'],
+  ];
+  for (const [values, reason, column] of cases) {
+    const expected = typeof reason === 'string' ? `Row 3, column ${column}: ${reason}. Nothing was imported.` : new RegExp(`^Row 3, column ${column}: ${reason.source.slice(1)}`);
+    refuses(csvText(row({ ...Q2, ...F1 }), row(values)), expected, 3, column);
+  }
+});
+
+test("a question's rows must agree: the error names both rows and the column", () => {
+  refuses(
+    csvText(row({ ...Q2, ...F1 }), row({ ...Q1, ...F1 }), row({ ...Q2, ...F1 }), row({ ...Q1, base_rate: '0.3', forecast_at: '2026-06-02T09:00:00Z', p: '0.5' })),
+    'Row 5, column base_rate: differs from row 3, which belongs to the same question (question_id "q1"); a question\'s columns must hold the same value on each of its rows. Nothing was imported.',
+    5,
+    'base_rate',
+  );
+  // Values are compared as read, so 0.30 and .3 agree.
+  const same = csvToDiary(csvText(row({ ...Q1, base_rate: '0.30', ...F1 }), row({ ...Q1, base_rate: '.3', forecast_at: '2026-06-02T09:00:00Z', p: '0.5' })));
+  assert.equal(same.questions.length, 1);
+});
+
+test("a problem spanning a question's fields is reported at the question's first row", () => {
+  refuses(
+    csvText(row({ ...Q2, ...F1 }), row({ ...Q1, opened_at: '2026-10-01T00:00:00Z', ...F1 }), row({ ...Q1, opened_at: '2026-10-01T00:00:00Z', forecast_at: '2026-06-02T09:00:00Z', p: '0.5' })),
+    'Row 3, column closes_at: must be after the opening time (opened_at). Nothing was imported.',
+    3,
+    'closes_at',
+  );
+});
