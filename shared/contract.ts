@@ -127,6 +127,23 @@ export const scoreRequest = z
     path: ['to'],
   });
 
+export const hindsightRequest = z.object({
+  tag: v.tag.optional(),
+  from: rangeBound('from').optional(),
+  to: rangeBound('to').optional(),
+  /** A call is confident when its final forecast is at least this far towards one side. */
+  threshold: z
+    .number({ error: 'must be a number' })
+    .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
+    .default(0.8),
+  include_hits: z.boolean({ error: 'must be true or false' }).default(false),
+});
+
+export const briefingRequest = z.object({
+  tag: v.tag.optional(),
+  threshold: hindsightRequest.shape.threshold,
+});
+
 export const SNOOZE_PRESETS = ['hour', 'tomorrow_morning', 'next_week'] as const;
 
 export const dueRequest = z.object({ at: v.instant.optional() });
@@ -188,6 +205,8 @@ export const operations = {
   score: scoreRequest,
   due: dueRequest,
   snooze: snoozeRequest,
+  hindsight: hindsightRequest,
+  briefing: briefingRequest,
 } as const;
 
 export type OperationName = keyof typeof operations;
@@ -214,6 +233,33 @@ export interface Responses {
   score: Scorecard;
   due: DueList;
   snooze: { question_id: string; kind: string; until: string };
+  hindsight: Hindsight;
+  briefing: { html: string; title: string };
+}
+
+/** A scored question whose final forecast was confident, with what was written at the time. */
+export interface HindsightEntry {
+  id: string;
+  title: string;
+  rule: string;
+  tags: string[];
+  /** 'miss': confident and wrong; 'hit': confident and right. */
+  verdict: 'miss' | 'hit';
+  outcome: 'yes' | 'no';
+  final_p: number;
+  /** Window end T (ISO). */
+  window_end: string;
+  base_rate: number | null;
+  resolution: { at: string; note: string };
+  /** Every revision, oldest first; `counted` is false for ones after the window end. */
+  forecasts: { at: string; p: number; note: string; counted: boolean }[];
+}
+
+export interface Hindsight {
+  threshold: number;
+  entries: HindsightEntry[];
+  /** The same filter's scorecard, for the calibration summary beside the entries. */
+  report: ScoreReport;
 }
 
 export interface DueList {
@@ -225,6 +271,16 @@ export interface DueList {
 export interface Scorecard {
   report: ScoreReport;
   detail: ScorecardDetail;
+  /** Days the user's calls got to the right side of 50% before the reference's, per tag. */
+  leads: ReferenceLeadSummary[];
+}
+
+export interface ReferenceLeadSummary {
+  /** null: every question in the filter. */
+  tag: string | null;
+  /** Questions where both sides reached the right side and stayed there. */
+  n: number;
+  mean_days: number | null;
 }
 
 export type Request<K extends OperationName> = z.input<(typeof operations)[K]>;

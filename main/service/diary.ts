@@ -22,7 +22,9 @@ import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
 import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
+import { confidentCalls, referenceLeads } from './hindsight';
 import { dueAt, snoozeUntil } from './nudges';
+import { briefingTitle, renderBriefing } from './briefing';
 import { loadScoringQuestions } from './scoring-source';
 
 export interface DiaryContext {
@@ -253,7 +255,7 @@ export function createDiary(ctx: DiaryContext) {
     return toDiaryFile(settings(), questions);
   }
 
-  function scoreOptions(req: ValidRequest<'score'>): ScoreOptions {
+  function scoreOptions(req: { tag?: string; from?: string; to?: string }): ScoreOptions {
     const s = settings();
     return {
       tag: req.tag,
@@ -264,7 +266,7 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   /** The questions as the engine sees them; "what if" costs replace each question's own. */
-  function scoringInput(req: ValidRequest<'score'>) {
+  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }) {
     const questions = loadScoringQuestions(read);
     if (req.costs) for (const q of questions) q.costs = { false_alarm: req.costs.false_alarm, miss: req.costs.miss };
     return questions;
@@ -498,7 +500,38 @@ export function createDiary(ctx: DiaryContext) {
     score: (req) => {
       const questions = scoringInput(req);
       const options = scoreOptions(req);
-      return { report: computeScoreReport(questions, options), detail: computeScorecardDetail(questions, options) };
+      return {
+        report: computeScoreReport(questions, options),
+        detail: computeScorecardDetail(questions, options),
+        leads: referenceLeads(questions, options),
+      };
+    },
+
+    hindsight: (req) => {
+      const questions = scoringInput({});
+      const options = scoreOptions(req);
+      const details = (ids: string[]) => qs.loadBundles(read, ids).map(qs.toQuestion);
+      return {
+        threshold: req.threshold,
+        entries: confidentCalls(questions, options, req.threshold, req.include_hits, details),
+        report: computeScoreReport(questions, options),
+      };
+    },
+
+    briefing: (req) => {
+      const s = settings();
+      const questions = scoringInput({});
+      const options = scoreOptions({ tag: req.tag });
+      const all = qs.loadBundles(read).map(qs.toQuestion);
+      const html = renderBriefing({
+        tag: req.tag ?? null,
+        generated_at: now(),
+        time_zone: s.time_zone,
+        report: computeScoreReport(questions, options),
+        questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
+        threshold: req.threshold,
+      });
+      return { html, title: briefingTitle(req.tag ?? null) };
     },
   };
 

@@ -4,6 +4,7 @@
  */
 export type * from './types';
 export { computeScoreReport } from './report';
+export { CONFIDENT_THRESHOLD, confidentVerdict } from './confidence';
 export { computeScorecardDetail } from './detail';
 export { prepareScoredSet, windowEnd, type ScoredSet } from './counting';
 export {

@@ -5,6 +5,7 @@
 import { brierScore, logScore, shareCertain, sharpness } from './accuracy';
 import { SCORECARD_BIN_EDGES, brierDecomposition, calibrationBins } from './calibration';
 import { prepareScoredSet, type ScoredSet } from './counting';
+import { CONFIDENT_THRESHOLD, confidentVerdict } from './confidence';
 import { costLossDecisions, valueCurve, type CostLossCase } from './decisions';
 import { rocAuc } from './discrimination';
 import { wilsonInterval } from './intervals';
@@ -13,8 +14,6 @@ import { skillScore } from './skill';
 import type { ConfidentMiss, ScoreOptions, ScoreReport, ScoringQuestion, SkillScores } from './types';
 
 /** INTERFACES.md §2: a final forecast ≥ 80 % on a No, or ≤ 20 % on a Yes, is a confident miss. */
-const CONFIDENT_NO = 0.8;
-const CONFIDENT_YES = 0.2;
 
 function mean(xs: ArrayLike<number>): number {
   let s = 0;
@@ -67,8 +66,7 @@ function confidentMisses(set: ScoredSet): ConfidentMiss[] {
   for (let i = 0; i < set.n; i++) {
     const p = set.p[i]!;
     const yes = set.o[i] === 1;
-    // Compared with p itself, not |p − o|, so that 0.2 and 0.8 are in by their typed value.
-    if (yes ? p <= CONFIDENT_YES : p >= CONFIDENT_NO) {
+    if (confidentVerdict(p, set.o[i]!, CONFIDENT_THRESHOLD) === 'miss') {
       const q = set.questions[i]!;
       misses.push({ id: q.id, title: q.title, p, outcome: yes ? 'yes' : 'no' });
     }

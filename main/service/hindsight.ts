@@ -1,0 +1,77 @@
+/**
+ * Hindsight: confident calls with the notes written at the time, and how far ahead of the
+ * reference forecasts the user's calls settled on the right side. The scoring rules (which
+ * forecasts count, the final forecast, the window end) come from shared/scoring, once.
+ */
+import type { HindsightEntry, ReferenceLeadSummary } from '../../shared/contract';
+import type { Question } from '../../shared/domain';
+import { confidentVerdict, prepareScoredSet, referenceLead, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
+import { toIso } from '../../shared/time';
+
+export function confidentCalls(
+  scoring: ScoringQuestion[],
+  options: ScoreOptions,
+  threshold: number,
+  includeHits: boolean,
+  details: (ids: string[]) => Question[],
+): HindsightEntry[] {
+  const set = prepareScoredSet(scoring, options);
+  const picked: { i: number; verdict: 'miss' | 'hit' }[] = [];
+  for (let i = 0; i < set.n; i++) {
+    const verdict = confidentVerdict(set.p[i]!, set.o[i]!, threshold);
+    if (verdict === null || (verdict === 'hit' && !includeHits)) continue;
+    picked.push({ i, verdict });
+  }
+  const byId = new Map(details(picked.map(({ i }) => set.questions[i]!.id)).map((q) => [q.id, q]));
+  const entries = picked.map(({ i, verdict }): HindsightEntry => {
+    const q = byId.get(set.questions[i]!.id)!;
+    const T = set.T[i]!;
+    return {
+      id: q.id,
+      title: q.title,
+      rule: q.rule,
+      tags: q.tags,
+      verdict,
+      outcome: set.o[i] === 1 ? 'yes' : 'no',
+      final_p: set.p[i]!,
+      window_end: toIso(T),
+      base_rate: q.base_rate,
+      resolution: { at: q.resolution!.at, note: q.resolution!.note },
+      forecasts: q.forecasts.map((f) => ({ at: f.at, p: f.p, note: f.note, counted: Date.parse(f.at) <= T })),
+    };
+  });
+  // Misses first, the most confident (worst) first; then hits, most confident first.
+  const distance = (e: HindsightEntry) => Math.abs(e.final_p - (e.outcome === 'yes' ? 1 : 0));
+  return entries.sort((a, b) =>
+    a.verdict !== b.verdict ? (a.verdict === 'miss' ? -1 : 1) : a.verdict === 'miss' ? distance(b) - distance(a) : distance(a) - distance(b),
+  );
+}
+
+/**
+ * Mean lead in days over the filter and per tag: for each scored question with reference
+ * forecasts, when the user's standing forecast reached and stayed on the right side of 50%
+ * versus when the reference did (positive: the user was earlier).
+ */
+export function referenceLeads(scoring: ScoringQuestion[], options: ScoreOptions): ReferenceLeadSummary[] {
+  const set = prepareScoredSet(scoring, options);
+  const all: number[] = [];
+  const byTag = new Map<string, number[]>();
+  for (let i = 0; i < set.n; i++) {
+    const q = set.questions[i]!;
+    if (!q.references.length) continue;
+    const lead = referenceLead(q.forecasts, q.references, set.o[i] === 1 ? 'yes' : 'no', set.T[i]!);
+    if (lead.lead_days === null) continue;
+    all.push(lead.lead_days);
+    for (const tag of q.tags) {
+      const list = byTag.get(tag) ?? [];
+      list.push(lead.lead_days);
+      byTag.set(tag, list);
+    }
+  }
+  const summary = (tag: string | null, xs: number[]): ReferenceLeadSummary => ({
+    tag,
+    n: xs.length,
+    mean_days: xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null,
+  });
+  return [summary(null, all), ...[...byTag.entries()].sort(([a], [b]) => a.localeCompare(b)).map(([t, xs]) => summary(t, xs))];
+}
