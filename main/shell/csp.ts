@@ -8,16 +8,21 @@
  * - styles only from our own files, without 'unsafe-inline': React and Chart.js set styles
  *   through the CSSOM (`element.style.x = …`), which CSP does not govern, so nothing needs
  *   inline styles (test/shell/csp-browser.test.ts checks this in Chromium);
+ * - one more style by its hash: the printable briefing's own <style>, so the Hindsight
+ *   screen can show it in a sandboxed srcdoc frame (which inherits this policy);
  * - images from our files and data: URLs (Chart.js exports charts as data: PNGs);
  * - no plugins, no <base>, no framing by other pages, no form submissions anywhere.
  *
- * The renderer's build also declares a <meta> policy; when both apply, the browser
- * enforces both, so neither can loosen the other.
+ * This is the one definition: browser mode sends it as a header (main/transport/http.ts)
+ * and the renderer's build declares it in a <meta> (vite.config.ts); when a header and a
+ * <meta> both apply, the browser enforces both, so neither can loosen the other.
  */
+import { BRIEFING_STYLE_HASH } from '../service/briefing';
+
 export const CONTENT_SECURITY_POLICY = [
   "default-src 'self'",
   "script-src 'self'",
-  "style-src 'self'",
+  `style-src 'self' ${BRIEFING_STYLE_HASH}`,
   "img-src 'self' data:",
   "connect-src 'self'",
   "object-src 'none'",

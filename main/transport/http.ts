@@ -12,6 +12,7 @@ import path from 'node:path';
 import { API_PREFIX, type Envelope } from '../../shared/bridge';
 import type { ApiErrorCode } from '../../shared/contract';
 import type { Dispatch } from '../service/dispatch';
+import { CONTENT_SECURITY_POLICY } from '../shell/csp';
 
 export interface HttpServerOptions {
   dispatch: Dispatch;
@@ -44,8 +45,6 @@ const CONTENT_TYPES: Record<string, string> = {
   '.map': 'application/json; charset=utf-8',
 };
 
-export const CONTENT_SECURITY_POLICY =
-  "default-src 'self'; script-src 'self'; style-src 'self'; img-src 'self' data:; connect-src 'self'; object-src 'none'; base-uri 'none'; frame-ancestors 'none'; form-action 'none'";
 
 function sendJson(res: http.ServerResponse, status: number, body: unknown): void {
   const text = JSON.stringify(body);

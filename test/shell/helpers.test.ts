@@ -3,6 +3,7 @@
  * (header syntax, directive names), WHATWG URL Standard (parsing, file: URLs), Node's
  * url.pathToFileURL, Electron docs (Notification 'click'/'close'/'failed').
  */
+import { BRIEFING_STYLE_HASH } from '../../main/service/briefing';
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { mkdtemp, readdir, writeFile } from 'node:fs/promises';
@@ -30,7 +31,9 @@ test('CSP: scripts and styles only from our files, nothing inline, no eval, no p
   const d = directives(CONTENT_SECURITY_POLICY);
   assert.deepEqual(d.get('default-src'), ["'self'"]);
   assert.deepEqual(d.get('script-src'), ["'self'"]);
-  assert.deepEqual(d.get('style-src'), ["'self'"]);
+  // Styles: our files, plus the printable briefing's one <style> admitted by its hash.
+  assert.deepEqual(d.get('style-src'), ["'self'", BRIEFING_STYLE_HASH]);
+  assert.match(BRIEFING_STYLE_HASH, /^'sha256-[A-Za-z0-9+/]{43}='$/);
   assert.deepEqual(d.get('img-src'), ["'self'", 'data:']);
   assert.deepEqual(d.get('connect-src'), ["'self'"]);
   assert.deepEqual(d.get('object-src'), ["'none'"]);
