@@ -1,0 +1,91 @@
+/**
+ * The window: navigation bar, the screen the address names, and the window-wide services
+ * (notifications, diary facts, quick add). The desktop shell can ask it to show a question.
+ */
+import { useEffect, useRef } from 'react';
+import { EmptyState } from './components/EmptyState';
+import { ToastProvider } from './components/Toast';
+import { DiaryInfoProvider } from './diaryInfo';
+import { useDocumentTitle } from './hooks';
+import { hrefTo, navigate, questionPath, useRoute } from './routing';
+import { HOME_PATH, matchScreen, navEntryFor, screens } from './screens/registry';
+import { QuickAddProvider } from './screens/questions/quickAdd';
+
+export function App() {
+  useEffect(() => {
+    const bridge = window.forelog;
+    if (!bridge) return;
+    return bridge.onOpenQuestion((id) => navigate(questionPath(id)));
+  }, []);
+
+  return (
+    <ToastProvider>
+      <DiaryInfoProvider>
+        <QuickAddProvider>
+          <Shell />
+        </QuickAddProvider>
+      </DiaryInfoProvider>
+    </ToastProvider>
+  );
+}
+
+function Shell() {
+  const route = useRoute();
+  const path = route.path || HOME_PATH;
+  const match = matchScreen(path);
+  const current = navEntryFor(path);
+  const mainRef = useRef<HTMLElement>(null);
+  const firstPath = useRef(path);
+
+  // After moving to another screen, start keyboard and screen-reader users at its content.
+  useEffect(() => {
+    if (path === firstPath.current) return;
+    firstPath.current = '';
+    mainRef.current?.focus({ preventScroll: true });
+    window.scrollTo(0, 0);
+  }, [path]);
+
+  return (
+    <>
+      <a className="skip-link" href="#main" onClick={(event) => {
+        event.preventDefault();
+        mainRef.current?.focus();
+      }}>
+        Skip to content
+      </a>
+      <header className="app-bar">
+        <a className="app-bar__brand" href={hrefTo(HOME_PATH)} aria-label="Forelog, home">
+          <span className="app-bar__mark" aria-hidden="true" />
+          Forelog
+        </a>
+        <nav aria-label="Main" className="app-bar__nav">
+          <ul>
+            {screens
+              .filter((s) => s.navLabel)
+              .map((s) => (
+                <li key={s.name}>
+                  <a href={hrefTo(s.path)} className="app-bar__link" aria-current={current?.name === s.name ? 'page' : undefined}>
+                    {s.navLabel}
+                  </a>
+                </li>
+              ))}
+          </ul>
+        </nav>
+      </header>
+      <main id="main" ref={mainRef} tabIndex={-1} className="app-main">
+        {match ? <match.screen.component key={match.screen.name} params={match.params} /> : <NotFound />}
+      </main>
+    </>
+  );
+}
+
+function NotFound() {
+  useDocumentTitle('Not found');
+  return (
+    <div className="screen">
+      <EmptyState title="Nothing lives at this address" actions={<a href={hrefTo(HOME_PATH)}>Go to Questions</a>}>
+        <p>The link may be from an older version of Forelog.</p>
+      </EmptyState>
+    </div>
+  );
+}

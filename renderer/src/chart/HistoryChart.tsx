@@ -1,0 +1,197 @@
+/**
+ * The probability history of one question as a step chart: the user's own forecasts, each
+ * reference source, the base rate (dashed) and the close (dashed vertical line). The figure
+ * carries the plotted data as JSON in `data-points`, and the tables beside it list the same
+ * points for anyone who cannot read the canvas.
+ */
+import { useEffect, useMemo, useRef } from 'react';
+import {
+  Chart,
+  Legend,
+  LinearScale,
+  LineController,
+  LineElement,
+  PointElement,
+  Tooltip,
+  type ChartDataset,
+  type TooltipItem,
+} from 'chart.js';
+import type { Question } from '../../../shared/domain';
+import { OUTCOME_LABELS } from '../components/StatusPill';
+import { formatInstant } from '../dates';
+import { useColorScheme } from '../hooks';
+import { formatPercent } from '../percent';
+import { verticalMarkers, type VerticalMarker } from './markers';
+import { chartSeries, historyData, timeTicks, type HistoryData, type XY } from './series';
+
+Chart.register(LineController, LineElement, PointElement, LinearScale, Tooltip, Legend);
+
+interface Palette {
+  own: string;
+  reference: string;
+  baseRate: string;
+  close: string;
+  resolved: string;
+  grid: string;
+  text: string;
+  surface: string;
+  font: string;
+}
+
+function palette(): Palette {
+  const style = getComputedStyle(document.documentElement);
+  const v = (name: string) => style.getPropertyValue(name).trim();
+  return {
+    own: v('--chart-own'),
+    reference: v('--chart-reference'),
+    baseRate: v('--chart-base-rate'),
+    close: v('--chart-close'),
+    resolved: v('--color-success'),
+    grid: v('--chart-grid'),
+    text: v('--chart-text'),
+    surface: v('--color-surface'),
+    font: style.getPropertyValue('--font-sans').trim() || 'system-ui',
+  };
+}
+
+/** A few words for screen readers, pointing to the tables for the full detail. */
+function describe(data: HistoryData): string {
+  const parts: string[] = [];
+  const first = data.own[0];
+  const last = data.own[data.own.length - 1];
+  if (first && last) {
+    parts.push(
+      data.own.length === 1
+        ? `One forecast of ${formatPercent(first.p)}.`
+        : `Your forecast went from ${formatPercent(first.p)} to ${formatPercent(last.p)} over ${data.own.length} forecasts.`,
+    );
+  } else {
+    parts.push('No forecasts yet.');
+  }
+  if (data.reference.length) parts.push(`${data.reference.length} reference forecast${data.reference.length === 1 ? '' : 's'}.`);
+  if (data.base_rate !== null) parts.push(`Base rate ${formatPercent(data.base_rate)}.`);
+  parts.push('The tables below list every point.');
+  return `Probability history step chart. ${parts.join(' ')}`;
+}
+
+const REFERENCE_DASHES: number[][] = [[], [2, 3], [8, 3, 2, 3]];
+
+export function HistoryChart({ question }: { question: Question }) {
+  const scheme = useColorScheme();
+  const canvasRef = useRef<HTMLCanvasElement>(null);
+  const data = useMemo(() => historyData(question), [question]);
+  const zone = question.time_zone;
+
+  useEffect(() => {
+    const canvas = canvasRef.current;
+    if (!canvas) return;
+    const colors = palette();
+    const series = chartSeries(data, Date.now());
+    const ticks = timeTicks(series.xMin, series.xMax, zone);
+    const tickFormat = new Intl.DateTimeFormat(undefined, {
+      timeZone: zone,
+      day: 'numeric',
+      month: 'short',
+      ...(ticks.unit === 'hour' ? { hour: '2-digit', minute: '2-digit' } : {}),
+      ...(series.xMax - series.xMin > 300 * 86_400_000 ? { year: 'numeric' } : {}),
+    });
+    const pointRadius = (points: XY[], size: number) => points.map((p) => (p.hold ? 0 : size));
+
+    const datasets: ChartDataset<'line', XY[]>[] = [
+      {
+        label: 'Your forecasts',
+        data: series.own,
+        stepped: 'before',
+        borderColor: colors.own,
+        backgroundColor: colors.own,
+        borderWidth: 2.5,
+        pointRadius: pointRadius(series.own, 4),
+        pointHoverRadius: 6,
+      },
+      ...series.references.map((r, i) => ({
+        label: `Reference: ${r.source}`,
+        data: r.points,
+        stepped: 'before' as const,
+        borderColor: colors.reference,
+        backgroundColor: colors.reference,
+        borderWidth: 2,
+        borderDash: REFERENCE_DASHES[i % REFERENCE_DASHES.length] ?? [],
+        pointStyle: 'rectRot' as const,
+        pointRadius: pointRadius(r.points, 5),
+        pointHoverRadius: 7,
+      })),
+    ];
+    if (series.baseRate.length) {
+      datasets.push({
+        label: 'Base rate',
+        data: series.baseRate,
+        borderColor: colors.baseRate,
+        backgroundColor: colors.baseRate,
+        borderWidth: 1.5,
+        borderDash: [6, 5],
+        pointRadius: 0,
+        pointHoverRadius: 0,
+      });
+    }
+
+    const markers: VerticalMarker[] = [{ at: series.closeMs, label: 'Close', color: colors.close }];
+    if (series.resolvedMs !== null && data.resolution) {
+      markers.push({ at: series.resolvedMs, label: `Resolved ${OUTCOME_LABELS[data.resolution.outcome]}`, color: colors.resolved });
+    }
+
+    const chart = new Chart<'line', XY[]>(canvas, {
+      type: 'line',
+      data: { datasets },
+      options: {
+        animation: false,
+        responsive: true,
+        maintainAspectRatio: false,
+        interaction: { mode: 'nearest', intersect: false, axis: 'x' },
+        font: { family: colors.font },
+        scales: {
+          x: {
+            type: 'linear',
+            min: series.xMin,
+            max: series.xMax,
+            afterBuildTicks: (axis) => {
+              axis.ticks = ticks.values.map((value) => ({ value }));
+            },
+            ticks: { color: colors.text, callback: (value) => tickFormat.format(Number(value)), maxRotation: 0, autoSkip: true },
+            grid: { color: colors.grid },
+            border: { color: colors.grid },
+          },
+          y: {
+            type: 'linear',
+            min: 0,
+            max: 1,
+            ticks: { color: colors.text, stepSize: 0.25, callback: (value) => `${Math.round(Number(value) * 100)}%` },
+            grid: { color: colors.grid },
+            border: { color: colors.grid },
+            title: { display: true, text: 'Probability', color: colors.text },
+          },
+        },
+        plugins: {
+          legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },
+          tooltip: {
+            filter: (item: TooltipItem<'line'>) => !(item.raw as XY).hold && item.dataset.label !== 'Base rate',
+            callbacks: {
+              title: (items) => (items[0] ? formatInstant(new Date(items[0].parsed.x ?? 0).toISOString(), zone) : ''),
+              label: (item) => `${item.dataset.label ?? ''}: ${formatPercent(item.parsed.y)}`,
+            },
+          },
+        },
+      },
+      plugins: [verticalMarkers(markers, colors.font, colors.surface)],
+    });
+    return () => chart.destroy();
+  }, [data, scheme, zone]);
+
+  return (
+    <figure className="history-chart" data-testid="history-chart" data-points={JSON.stringify(data)}>
+      <figcaption className="history-chart__caption">Probability history</figcaption>
+      <div className="history-chart__canvas">
+        <canvas ref={canvasRef} role="img" aria-label={describe(data)} />
+      </div>
+    </figure>
+  );
+}

@@ -1,0 +1,180 @@
+/**
+ * Every field of a question. Only fields the user actually changed are sent, so an edit to
+ * the title cannot shift a stored time by rounding it to the minute.
+ */
+import { useMemo, useState, type FormEvent } from 'react';
+import type { Costs, Question, QuestionKind } from '../../../../shared/domain';
+import { api } from '../../api/client';
+import { Button } from '../../components/Button';
+import { DateTimeField } from '../../components/DateTimeField';
+import { Dialog } from '../../components/Dialog';
+import { ErrorBanner } from '../../components/ErrorBanner';
+import { NumberField } from '../../components/NumberField';
+import { ProbabilityInput } from '../../components/ProbabilityInput';
+import { Select } from '../../components/Select';
+import { TagInput } from '../../components/TagInput';
+import { TextArea } from '../../components/TextArea';
+import { TextField } from '../../components/TextField';
+import { isoToLocal, localToIso, timeZoneNames } from '../../dates';
+import { useForm } from '../../forms';
+import { percentText, percentToProbability } from '../../percent';
+import { KIND_OPTIONS, kindHint } from './labels';
+
+interface Props {
+  question: Question;
+  open: boolean;
+  onClose: () => void;
+  onSaved: (message: string) => void;
+}
+
+type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
+
+const FIELDS = [
+  'title', 'rule', 'kind', 'tags', 'opened_at', 'closes_at', 'time_zone', 'base_rate', 'base_rate_note',
+  'costs.false_alarm', 'costs.miss', 'checkin_days',
+];
+
+export function EditDialog({ question, open, onClose, onSaved }: Props) {
+  return (
+    <Dialog open={open} onClose={onClose} title="Edit question" size="lg">
+      <EditForm question={question} onClose={onClose} onSaved={onSaved} />
+    </Dialog>
+  );
+}
+
+function numberOrBlank(text: string): number | null | 'invalid' {
+  if (text.trim() === '') return null;
+  const n = Number(text);
+  return Number.isFinite(n) ? n : 'invalid';
+}
+
+function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
+  const form = useForm();
+  const initialOpened = isoToLocal(q.opened_at, q.time_zone);
+  const initialCloses = isoToLocal(q.closes_at, q.time_zone);
+  const [title, setTitle] = useState(q.title);
+  const [rule, setRule] = useState(q.rule);
+  const [kind, setKind] = useState<QuestionKind>(q.kind);
+  const [tags, setTags] = useState<string[]>(q.tags);
+  const [timeZone, setTimeZone] = useState(q.time_zone);
+  const [openedLocal, setOpenedLocal] = useState(initialOpened);
+  const [closesLocal, setClosesLocal] = useState(initialCloses);
+  const [baseRate, setBaseRate] = useState(percentText(q.base_rate));
+  const [baseRateNote, setBaseRateNote] = useState(q.base_rate_note);
+  const [falseAlarm, setFalseAlarm] = useState(q.costs ? String(q.costs.false_alarm) : '');
+  const [miss, setMiss] = useState(q.costs ? String(q.costs.miss) : '');
+  const [checkin, setCheckin] = useState(q.checkin_days === null ? '' : String(q.checkin_days));
+  const zones = useMemo(() => timeZoneNames(q.time_zone).map((zone) => ({ value: zone, label: zone.replaceAll('_', ' ') })), [q.time_zone]);
+
+  async function onSubmit(event: FormEvent) {
+    event.preventDefault();
+    const found: Record<string, string> = {};
+    const changes: Changes = {};
+    if (title !== q.title) changes.title = title;
+    if (rule !== q.rule) changes.rule = rule;
+    if (kind !== q.kind) changes.kind = kind;
+    if (tags.join('\n') !== q.tags.join('\n')) changes.tags = tags;
+    if (baseRateNote !== q.base_rate_note) changes.base_rate_note = baseRateNote;
+
+    // A new zone re-reads both times on the new zone's clocks: "17:00" keeps meaning 17:00 there.
+    const zoneChanged = timeZone !== q.time_zone;
+    if (zoneChanged) changes.time_zone = timeZone;
+    if (zoneChanged || openedLocal !== initialOpened) {
+      const iso = localToIso(openedLocal, timeZone);
+      if (iso) changes.opened_at = iso;
+      else found.opened_at = 'enter when the question opened';
+    }
+    if (zoneChanged || closesLocal !== initialCloses) {
+      const iso = localToIso(closesLocal, timeZone);
+      if (iso) changes.closes_at = iso;
+      else found.closes_at = 'enter when the window closes';
+    }
+
+    const base = percentToProbability(baseRate);
+    if (!base.ok) found.base_rate = base.error;
+    else if (base.value !== q.base_rate) changes.base_rate = base.value;
+
+    const fa = numberOrBlank(falseAlarm);
+    const mi = numberOrBlank(miss);
+    if (fa === 'invalid') found['costs.false_alarm'] = 'must be a number, e.g. 1';
+    if (mi === 'invalid') found['costs.miss'] = 'must be a number, e.g. 4';
+    if (fa !== 'invalid' && mi !== 'invalid') {
+      if ((fa === null) !== (mi === null)) {
+        found[fa === null ? 'costs.false_alarm' : 'costs.miss'] = 'give both costs, or leave both empty to use the diary’s defaults';
+      } else {
+        const costs: Costs | null = fa === null || mi === null ? null : { false_alarm: fa, miss: mi };
+        if (JSON.stringify(costs) !== JSON.stringify(q.costs)) changes.costs = costs;
+      }
+    }
+
+    const days = numberOrBlank(checkin);
+    if (days === 'invalid') found.checkin_days = 'must be a whole number of days';
+    else if (days !== q.checkin_days) changes.checkin_days = days;
+
+    if (Object.keys(found).length) return void form.reject(found);
+    if (Object.keys(changes).length === 0) {
+      onClose();
+      return;
+    }
+    const ok = await form.submit(
+      async () => {
+        await api.updateQuestion({ id: q.id, changes });
+      },
+      { fields: FIELDS, prefix: 'changes', aliases: { costs: 'costs.false_alarm' } },
+    );
+    if (ok) onSaved('Question saved.');
+  }
+
+  return (
+    <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="Edit question">
+      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+      <TextField label="Question" value={title} onChange={setTitle} required data-autofocus error={form.error('title')} />
+      <TextArea label="Resolution rule" value={rule} onChange={setRule} rows={3} error={form.error('rule')} />
+      <div className="form__row">
+        <Select label="Kind" value={kind} options={KIND_OPTIONS} onChange={(v) => setKind(v as QuestionKind)} hint={kindHint(kind)} error={form.error('kind')} />
+        <Select
+          label="Time zone"
+          value={timeZone}
+          options={zones}
+          onChange={setTimeZone}
+          hint="The times below are read on this zone’s clocks."
+          error={form.error('time_zone')}
+        />
+      </div>
+      <div className="form__row">
+        <DateTimeField label="Opened" local={openedLocal} onLocalChange={setOpenedLocal} timeZone={timeZone} required error={form.error('opened_at')} />
+        <DateTimeField label="Closes" local={closesLocal} onLocalChange={setClosesLocal} timeZone={timeZone} required error={form.error('closes_at')} />
+      </div>
+      <div className="form__row">
+        <ProbabilityInput label="Base rate" value={baseRate} onChange={setBaseRate} error={form.error('base_rate')} />
+        <TextField label="Reference class" value={baseRateNote} onChange={setBaseRateNote} error={form.error('base_rate_note')} />
+      </div>
+      <TagInput label="Tags" tags={tags} onChange={setTags} error={form.error('tags')} />
+      <fieldset className="form__group">
+        <legend>Costs of being wrong</legend>
+        <p className="field__hint">How much worse a miss is than a false alarm sets the probability at which acting pays. Leave both empty to use the diary’s defaults.</p>
+        <div className="form__row">
+          <NumberField label="Cost of a false alarm" value={falseAlarm} onChange={setFalseAlarm} min={0} step="any" error={form.error('costs.false_alarm')} />
+          <NumberField label="Cost of a miss" value={miss} onChange={setMiss} min={0} step="any" error={form.error('costs.miss')} />
+        </div>
+      </fieldset>
+      <NumberField
+        label="Check in every"
+        value={checkin}
+        onChange={setCheckin}
+        suffix="days"
+        min={0}
+        max={365}
+        step={1}
+        hint="Empty: the diary’s default. 0: no check-in nudges."
+        error={form.error('checkin_days')}
+      />
+      <div className="form__actions">
+        <Button onClick={onClose}>Cancel</Button>
+        <Button type="submit" variant="primary" busy={form.busy}>
+          Save changes
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,75 @@
+/** A new revision of the user's own probability, with the reason for the change. */
+import { useState, type FormEvent } from 'react';
+import type { Question } from '../../../../shared/domain';
+import { api } from '../../api/client';
+import { Button } from '../../components/Button';
+import { DateTimeField } from '../../components/DateTimeField';
+import { Dialog } from '../../components/Dialog';
+import { ErrorBanner } from '../../components/ErrorBanner';
+import { ProbabilityInput } from '../../components/ProbabilityInput';
+import { TextArea } from '../../components/TextArea';
+import { localToIso } from '../../dates';
+import { useForm } from '../../forms';
+import { percentText, percentToProbability } from '../../percent';
+import { lastForecast } from './questionFacts';
+
+interface Props {
+  question: Question;
+  open: boolean;
+  onClose: () => void;
+  onSaved: (message: string) => void;
+}
+
+export function ReviseDialog({ question, open, onClose, onSaved }: Props) {
+  return (
+    <Dialog open={open} onClose={onClose} title="Revise your forecast" description={question.title}>
+      <ReviseForm question={question} onClose={onClose} onSaved={onSaved} />
+    </Dialog>
+  );
+}
+
+function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+  const form = useForm();
+  const [p, setP] = useState(percentText(lastForecast(question)?.p));
+  const [note, setNote] = useState('');
+  const [atLocal, setAtLocal] = useState('');
+
+  async function onSubmit(event: FormEvent) {
+    event.preventDefault();
+    const parsed = percentToProbability(p);
+    const at = atLocal ? localToIso(atLocal, question.time_zone) : null;
+    if (!parsed.ok) return void form.reject({ p: parsed.error });
+    if (parsed.value === null) return void form.reject({ p: 'enter your probability in percent, e.g. 35' });
+    if (atLocal && !at) return void form.reject({ at: 'enter a complete date and time, or leave it empty for now' });
+    const value = parsed.value;
+    const ok = await form.submit(
+      async () => {
+        await api.addForecast({ question_id: question.id, p: value, note, ...(at ? { at } : {}) });
+      },
+      { fields: ['p', 'note', 'at'] },
+    );
+    if (ok) onSaved(`Revised to ${p.trim()}%.`);
+  }
+
+  return (
+    <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="Revise your forecast">
+      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+      <ProbabilityInput label="Your probability" value={p} onChange={setP} required autoFocus error={form.error('p')} />
+      <TextArea label="What changed" value={note} onChange={setNote} hint="The evidence behind the new number, in a line or two." error={form.error('note')} />
+      <DateTimeField
+        label="As of"
+        local={atLocal}
+        onLocalChange={setAtLocal}
+        timeZone={question.time_zone}
+        hint="Leave empty for now; set it to back-date a call you made earlier."
+        error={form.error('at')}
+      />
+      <div className="form__actions">
+        <Button onClick={onClose}>Cancel</Button>
+        <Button type="submit" variant="primary" busy={form.busy}>
+          Save revision
+        </Button>
+      </div>
+    </form>
+  );
+}
