@@ -39,6 +39,9 @@ import type { DiaryService, OpenDiary } from './shell/service-port';
 import { mainWindowOptions } from './shell/window-options';
 import { registerIpc } from './transport/ipc';
 
+/** How often the running app checks whether today's automatic backup exists. */
+const BACKUP_CHECK_MS = 3 * 3_600_000;
+
 export interface ShellDeps {
   openDiary: OpenDiary;
   /** The process arguments; `--db PATH` picks another diary file. */
@@ -242,6 +245,15 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
   });
   // start() runs once straight away (reason 'start'), which catches up what fell due while closed.
   scheduler.start();
+
+  // Automatic rolling backups: one a day while the app runs, the newest seven kept.
+  const backupsDir = path.join(app.getPath('userData'), 'backups');
+  const backUp = () => {
+    diary.rollingBackup(backupsDir).catch((error: unknown) => console.error(`Forelog: the daily backup failed: ${reason(error)}`));
+  };
+  backUp();
+  const backupTimer = setInterval(backUp, BACKUP_CHECK_MS);
+  backupTimer.unref();
   powerMonitor.on('resume', () => {
     scheduler.runOnce('resume');
   });
@@ -251,6 +263,7 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
     if (shutDown) return;
     shutDown = true;
     scheduler.stop();
+    clearInterval(backupTimer);
     tray?.destroy();
     tray = null;
     diary.close();

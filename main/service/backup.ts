@@ -18,6 +18,14 @@ export async function backupTo(store: StoreHandles, file: string, onProgress?: (
       return 256;
     },
   });
+  // A copy is one self-contained file: out of WAL mode, so opening it later (even
+  // read-only) leaves no -wal/-shm files beside it.
+  const copy = new Database(target);
+  try {
+    copy.pragma('journal_mode = DELETE');
+  } finally {
+    copy.close();
+  }
 }
 
 /** Checks that `file` is a Forelog diary this version can open; returns its question count. */
@@ -76,4 +84,40 @@ export async function restoreFrom(backupFile: string, dbPath: string, stamp: num
   // Opening migrates an older copy forward and checks it once more.
   openStore(target).close();
   return { questions, safetyCopy };
+}
+
+export const ROLLING_BACKUP_PREFIX = 'forelog-';
+
+/**
+ * Automatic rolling backups: at most one a day into `dir` (named by the UTC time), keeping
+ * the `keep` newest. Returns the new copy's path, or null when today's already exists.
+ * The desktop app calls it at start and once a day, so a damaged or mistaken diary can
+ * be put back from yesterday's copy with `forelog restore`.
+ */
+export async function rollingBackup(
+  store: StoreHandles,
+  dir: string,
+  now: number,
+  keep = 7,
+): Promise<{ created: string | null; removed: string[] }> {
+  if (!Number.isInteger(keep) || keep < 1) throw new RangeError(`keep must be a whole number of copies, at least 1 (got ${keep}).`);
+  fs.mkdirSync(dir, { recursive: true });
+  const day = new Date(now).toISOString().slice(0, 10);
+  const existing = () =>
+    fs
+      .readdirSync(dir)
+      .filter((name) => name.startsWith(ROLLING_BACKUP_PREFIX) && name.endsWith('.sqlite'))
+      .sort();
+  let created: string | null = null;
+  if (!existing().some((name) => name.startsWith(`${ROLLING_BACKUP_PREFIX}${day}`))) {
+    created = path.join(dir, `${ROLLING_BACKUP_PREFIX}${new Date(now).toISOString().replace(/[:.]/g, '-')}.sqlite`);
+    // Written under a temporary name first, so a copy cut short never looks complete.
+    const partial = `${created}.partial`;
+    await backupTo(store, partial);
+    fs.renameSync(partial, created);
+  }
+  const all = existing();
+  const removed = all.slice(0, Math.max(0, all.length - keep)).map((name) => path.join(dir, name));
+  for (const file of removed) for (const suffix of ['', '-wal', '-shm']) fs.rmSync(file + suffix, { force: true });
+  return { created, removed };
 }

@@ -3,7 +3,7 @@
  */
 import { systemTimeZone } from '../../shared/time';
 import { openStore, type StoreHandles } from '../store/open';
-import { backupTo } from './backup';
+import { backupTo, rollingBackup } from './backup';
 import { buildDemoDiary } from './demo';
 import { createDiary, type Diary } from './diary';
 import { ApiError } from '../../shared/contract';
@@ -32,6 +32,8 @@ export interface DiaryService {
   /** The nudge scheduler over this diary, delivering through `notifier`. */
   createScheduler(notifier: Notifier, onDueCountChanged?: (count: number) => void): Scheduler;
   backupTo(file: string, onProgress?: (percent: number) => void): Promise<void>;
+  /** Today's automatic copy into `dir` if there is none yet; keeps the newest seven. */
+  rollingBackup(dir: string): Promise<{ created: string | null; removed: string[] }>;
   close(): void;
 }
 
@@ -58,6 +60,7 @@ export function openDiary(options: OpenOptions): DiaryService {
     },
     createScheduler: (notifier, onDueCountChanged) => createDiaryScheduler(store, now, diary.settings, notifier, onDueCountChanged),
     backupTo: (file, onProgress) => backupTo(store, file, onProgress),
+    rollingBackup: (dir) => rollingBackup(store, dir, now()),
     close: () => store.close(),
   };
 }

@@ -31,6 +31,8 @@ export interface DiaryService {
   /** Adds a whole diary file (all or nothing); throws an error saying what was wrong. */
   importDiaryJson(text: string): { added: number };
   backupTo(file: string): Promise<void>;
+  /** Today's automatic copy into `dir` if there is none yet; keeps the newest seven. */
+  rollingBackup(dir: string): Promise<unknown>;
   close(): void;
   /** Where the diary file lives, for the about box. */
   location: string;

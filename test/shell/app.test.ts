@@ -30,6 +30,7 @@ function fakeDiary() {
     closes: 0,
     imported: [] as string[],
     backups: [] as string[],
+    rollingBackups: [] as string[],
     notifier: null as NudgeNotifier | null,
     onDueCountChanged: undefined as ((count: number) => void) | undefined,
   };
@@ -58,6 +59,9 @@ function fakeDiary() {
     },
     async backupTo(file) {
       record.backups.push(file);
+    },
+    async rollingBackup(dir) {
+      record.rollingBackups.push(dir);
     },
     close() {
       record.closes += 1;
@@ -328,6 +332,12 @@ test('nudges start with the app, and a system resume runs them again', async () 
   assert.equal(record.starts, 1);
   powerMonitor.emit('resume');
   assert.deepEqual(record.runs, ['resume']);
+});
+
+test('the app makes its automatic daily backup into the user-data folder at start', async () => {
+  const { record } = await start();
+  assert.equal(record.rollingBackups.length, 1);
+  assert.match(record.rollingBackups[0]!, /[\\/]backups$/);
 });
 
 test('closing the window hides it; quitting stops nudges and closes the diary once', async () => {

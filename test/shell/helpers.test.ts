@@ -155,6 +155,7 @@ const unusedDiary = (overrides: Partial<DiaryService>): DiaryService => ({
   exportDiaryJson: () => '{}',
   importDiaryJson: () => ({ added: 0 }),
   backupTo: async () => undefined,
+  rollingBackup: async () => undefined,
   close: () => undefined,
   location: ':memory:',
   ...overrides,
