@@ -34,6 +34,7 @@ import { APP_NAME, DIARY_FILE_NAME } from './paths';
 import { APP_ID, dbPathFromArgs, shellLocations } from './shell/locations';
 import { applicationMenuTemplate, ROUTES, trayMenuTemplate, trayTooltip, type Route } from './shell/menu';
 import { externalLinkTarget, isAppDocument } from './shell/navigation';
+import { briefingPdfSaver } from './shell/briefing-pdf';
 import { createNotifier } from './shell/notifier';
 import type { DiaryService, OpenDiary } from './shell/service-port';
 import { mainWindowOptions } from './shell/window-options';
@@ -88,6 +89,23 @@ function electronDialogs(window: () => BrowserWindow | null): FileDialogs {
       dialog.showErrorBox(title, message);
     },
   };
+}
+
+/**
+ * Prints a self-contained HTML page (the briefing) to an A4 PDF in a hidden window that
+ * runs no scripts and has no preload, so the page can reach nothing.
+ */
+async function renderHtmlToPdf(html: string): Promise<Uint8Array> {
+  const printer = new BrowserWindow({
+    show: false,
+    webPreferences: { sandbox: true, contextIsolation: true, nodeIntegration: false, javascript: false },
+  });
+  try {
+    await printer.loadURL(`data:text/html;charset=utf-8,${encodeURIComponent(html)}`);
+    return await printer.webContents.printToPDF({ pageSize: 'A4', printBackground: true });
+  } finally {
+    printer.destroy();
+  }
 }
 
 /**
@@ -151,6 +169,13 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
     ipcMain,
     (operation, request) => diary.dispatch(operation, request),
     (frameUrl) => isAppDocument(frameUrl, locations.indexUrl),
+    briefingPdfSaver({
+      dispatch: (operation, request) => diary.dispatch(operation, request),
+      chooseSavePath: (defaultName) =>
+        electronDialogs(() => win).chooseSavePath({ title: 'Save briefing as PDF', defaultName, extension: 'pdf', kind: 'PDF document' }),
+      renderPdf: (html) => renderHtmlToPdf(html),
+      today: () => new Date(),
+    }),
   );
 
   const openOutside = (url: string) => {

@@ -5,7 +5,7 @@
  * event object is never handed to the page, only the question id it carries.
  */
 import { contextBridge, ipcRenderer, type IpcRendererEvent } from 'electron';
-import { IPC_CALL_CHANNEL, IPC_OPEN_QUESTION_CHANNEL, type Envelope, type ForelogBridge } from '../shared/bridge';
+import { IPC_BRIEFING_PDF_CHANNEL, IPC_CALL_CHANNEL, IPC_OPEN_QUESTION_CHANNEL, type Envelope, type ForelogBridge } from '../shared/bridge';
 
 const bridge: ForelogBridge = {
   call(operation, request): Promise<Envelope> {
@@ -19,6 +19,9 @@ const bridge: ForelogBridge = {
     return () => {
       ipcRenderer.removeListener(IPC_OPEN_QUESTION_CHANNEL, relay);
     };
+  },
+  saveBriefingPdf(request) {
+    return ipcRenderer.invoke(IPC_BRIEFING_PDF_CHANNEL, request);
   },
 };
 

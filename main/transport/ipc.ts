@@ -6,7 +6,7 @@
  * because Electron's IPC would keep only an error's message.
  */
 import type { IpcMain, IpcMainInvokeEvent } from 'electron';
-import { IPC_CALL_CHANNEL, type Envelope } from '../../shared/bridge';
+import { IPC_BRIEFING_PDF_CHANNEL, IPC_CALL_CHANNEL, type Envelope } from '../../shared/bridge';
 import { isOperationName, type OperationName } from '../../shared/contract';
 
 export type Dispatch = (operation: OperationName, request: unknown) => Promise<Envelope>;
@@ -26,7 +26,15 @@ export function registerIpc(
   ipcMain: Pick<IpcMain, 'handle'>,
   dispatch: Dispatch,
   isTrustedSender: (frameUrl: string) => boolean,
+  saveBriefingPdf?: (request: unknown) => Promise<Envelope>,
 ): void {
+  if (saveBriefingPdf) {
+    ipcMain.handle(IPC_BRIEFING_PDF_CHANNEL, async (event: IpcMainInvokeEvent, request: unknown): Promise<Envelope> => {
+      const frameUrl = event.senderFrame?.url;
+      if (frameUrl === undefined || !isTrustedSender(frameUrl)) return failure('invalid', UNTRUSTED_SENDER_MESSAGE);
+      return saveBriefingPdf(request);
+    });
+  }
   ipcMain.handle(IPC_CALL_CHANNEL, async (event: IpcMainInvokeEvent, operation: unknown, request: unknown): Promise<Envelope> => {
     const frameUrl = event.senderFrame?.url;
     if (frameUrl === undefined || !isTrustedSender(frameUrl)) return failure('invalid', UNTRUSTED_SENDER_MESSAGE);

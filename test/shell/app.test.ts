@@ -16,7 +16,7 @@ import { startShell } from '../../main/app';
 import type { DiaryService, NudgeNotifier } from '../../main/shell/service-port';
 import { APP_ID } from '../../main/shell/locations';
 import { CONTENT_SECURITY_POLICY } from '../../main/shell/csp';
-import { IPC_CALL_CHANNEL, IPC_OPEN_QUESTION_CHANNEL, type Envelope } from '../../shared/bridge';
+import { IPC_BRIEFING_PDF_CHANNEL, IPC_CALL_CHANNEL, IPC_OPEN_QUESTION_CHANNEL, type Envelope } from '../../shared/bridge';
 
 const APP_PATH = '/opt/forelog-test/app';
 const INDEX_HTML = path.join(APP_PATH, 'dist', 'renderer', 'index.html');
@@ -218,7 +218,7 @@ test('window.open is always denied; an https target opens in the system browser 
 
 test('IPC: one handler, our page reaches dispatch, other senders and unknown operations are refused', async () => {
   const { record } = await start();
-  assert.deepEqual([...fake.handlers.keys()], [IPC_CALL_CHANNEL]);
+  assert.deepEqual([...fake.handlers.keys()].sort(), [IPC_BRIEFING_PDF_CHANNEL, IPC_CALL_CHANNEL]);
   const handler = fake.handlers.get(IPC_CALL_CHANNEL)! as (e: unknown, op: unknown, req: unknown) => Promise<Envelope>;
 
   const ok = await handler({ senderFrame: { url: `file://${INDEX_HTML}#/questions` } }, 'listQuestions', { tag: 'renewals' });
@@ -231,6 +231,12 @@ test('IPC: one handler, our page reaches dispatch, other senders and unknown ope
   assert.ok(!unknown.ok && unknown.error.code === 'invalid');
 
   assert.deepEqual(record.dispatched, [{ operation: 'listQuestions', request: { tag: 'renewals' } }]);
+
+  // The PDF channel checks the sender the same way before anything runs.
+  const pdf = fake.handlers.get(IPC_BRIEFING_PDF_CHANNEL)! as (e: unknown, req: unknown) => Promise<Envelope>;
+  const refused = await pdf({ senderFrame: { url: 'https://example.invalid/' } }, { tag: 'renewals' });
+  assert.ok(!refused.ok && /did not come from Forelog's own window/.test(refused.error.message));
+  assert.equal(record.dispatched.length, 1);
 });
 
 test('single instance: without the lock the app quits at once; with it, a second launch focuses the window', async () => {

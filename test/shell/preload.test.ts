@@ -9,19 +9,27 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { fake, ipcRenderer } from './fake-electron';
 import '../../main/preload';
-import { IPC_CALL_CHANNEL, IPC_OPEN_QUESTION_CHANNEL, type ForelogBridge } from '../../shared/bridge';
+import { IPC_BRIEFING_PDF_CHANNEL, IPC_CALL_CHANNEL, IPC_OPEN_QUESTION_CHANNEL, type ForelogBridge } from '../../shared/bridge';
 
 function exposedBridge(): ForelogBridge {
   assert.equal(fake.exposed.length, 1);
   return fake.exposed[0]!.api as ForelogBridge;
 }
 
-test('exposes one key, forelog, with only call and onOpenQuestion', () => {
+test('exposes one key, forelog, with only call, onOpenQuestion and saveBriefingPdf', () => {
   assert.deepEqual(
     fake.exposed.map((e) => e.key),
     ['forelog'],
   );
-  assert.deepEqual(Object.keys(exposedBridge()).sort(), ['call', 'onOpenQuestion']);
+  assert.deepEqual(Object.keys(exposedBridge()).sort(), ['call', 'onOpenQuestion', 'saveBriefingPdf']);
+});
+
+test('saveBriefingPdf(req) is ipcRenderer.invoke on its own channel with the request only', async () => {
+  fake.invocations.length = 0;
+  fake.invokeResult = { ok: true, value: { file: '/home/tester/briefing.pdf' } };
+  const answer = await exposedBridge().saveBriefingPdf!({ tag: 'renewals' });
+  assert.deepEqual(fake.invocations, [{ channel: IPC_BRIEFING_PDF_CHANNEL, args: [{ tag: 'renewals' }] }]);
+  assert.deepEqual(answer, fake.invokeResult);
 });
 
 test('call(op, req) is ipcRenderer.invoke on the call channel with op and req, and returns its answer', async () => {
