@@ -6,7 +6,7 @@
  */
 import { z } from 'zod';
 import type { DueNudge, Question, QuestionSummary, Settings } from './domain';
-import { NUDGE_KINDS, OUTCOMES, QUESTION_KINDS, QUESTION_STATUSES } from './domain';
+import { NUDGE_KINDS, OUTCOMES, QUESTION_STATUSES } from './domain';
 import type { ScorecardDetail, ScoreReport } from './scoring/types';
 import { parseRangeBound } from './time';
 import * as v from './validation';
@@ -20,27 +20,11 @@ const firstForecast = z.object({
   lenses: v.lenses.optional(),
 });
 
-/** Fields of a question the user writes; shared by create and edit. */
-const questionFields = {
-  title: v.title,
-  rule: v.note.optional(),
-  kind: z.enum(QUESTION_KINDS as [string, ...string[]], { error: 'must be event_by_deadline or state_at_deadline' }).optional(),
-  tags: v.tags.optional(),
-  opened_at: v.instant.optional(),
-  closes_at: v.instant,
-  time_zone: v.timeZone.optional(),
-  base_rate: v.probability.nullable().optional(),
-  base_rate_note: v.note.optional(),
-  costs: v.costs.nullable().optional(),
-  checkin_days: v.checkinDays.nullable().optional(),
-};
+const { questionFields } = v;
 
 export const createQuestionRequest = z
   .object({ ...questionFields, first_forecast: firstForecast.optional() })
-  .refine((q) => q.opened_at === undefined || Date.parse(q.closes_at) > Date.parse(q.opened_at), {
-    message: 'must be after the opening time (opened_at)',
-    path: ['closes_at'],
-  });
+  .refine(...v.closesAfterOpens);
 
 export const updateQuestionRequest = z.object({
   id,

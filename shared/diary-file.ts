@@ -4,7 +4,7 @@
  * or throws naming the first bad record's index, the field and the reason.
  */
 import { z } from 'zod';
-import { QUESTION_KINDS, OUTCOMES, type Question, type Settings } from './domain';
+import { OUTCOMES, type Question, type Settings } from './domain';
 import * as v from './validation';
 
 export const DIARY_FORMAT = 'forelog-diary';
@@ -32,25 +32,12 @@ const fileResolution = z.object({
 export const fileQuestion = z
   .object({
     id: z.string({ error: 'must be text' }).min(1, { message: 'must not be empty' }).max(200).optional(),
-    title: v.title,
-    rule: v.note.optional(),
-    kind: z.enum(QUESTION_KINDS as [string, ...string[]], { error: 'must be event_by_deadline or state_at_deadline' }).optional(),
-    tags: v.tags.optional(),
-    opened_at: v.instant.optional(),
-    closes_at: v.instant,
-    time_zone: v.timeZone.optional(),
-    base_rate: v.probability.nullable().optional(),
-    base_rate_note: v.note.optional(),
-    costs: v.costs.nullable().optional(),
-    checkin_days: v.checkinDays.nullable().optional(),
+    ...v.questionFields,
     forecasts: z.array(fileForecast, { error: 'must be a list of forecasts' }),
     references: z.array(fileReference, { error: 'must be a list of reference forecasts' }).optional(),
     resolution: fileResolution.nullable().optional(),
   })
-  .refine((q) => q.opened_at === undefined || Date.parse(q.closes_at) > Date.parse(q.opened_at), {
-    message: 'must be after the opening time (opened_at)',
-    path: ['closes_at'],
-  });
+  .refine(...v.closesAfterOpens);
 
 export type FileQuestion = z.output<typeof fileQuestion>;
 

@@ -66,6 +66,32 @@ export const lenses = z
     message: 'at least one lens needs a weight above 0',
   });
 
+export const kind = z.enum(['event_by_deadline', 'state_at_deadline'], { error: 'must be event_by_deadline or state_at_deadline' });
+
+/** The fields of a question a user writes: the same in the API and in the diary file. */
+export const questionFields = {
+  title,
+  rule: note.optional(),
+  kind: kind.optional(),
+  tags: tags.optional(),
+  opened_at: instant.optional(),
+  closes_at: instant,
+  time_zone: timeZone.optional(),
+  base_rate: probability.nullable().optional(),
+  base_rate_note: note.optional(),
+  costs: costs.nullable().optional(),
+  checkin_days: checkinDays.nullable().optional(),
+};
+
+/** The window must close after it opens (checked when both are given). */
+export const closesAfterOpens: [
+  (q: { opened_at?: string; closes_at: string }) => boolean,
+  { message: string; path: PropertyKey[] },
+] = [
+  (q) => q.opened_at === undefined || Date.parse(q.closes_at) > Date.parse(q.opened_at),
+  { message: 'must be after the opening time (opened_at)', path: ['closes_at'] },
+];
+
 export const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { message: 'must be a time of day HH:MM (24-hour)' });
 
 /** Turns a zod error into one line per problem: `field.path: reason`. */
