@@ -4,7 +4,7 @@
  */
 import { defineConfig, type Plugin } from 'vite';
 import react from '@vitejs/plugin-react';
-import { CONTENT_SECURITY_POLICY } from './main/shell/csp';
+import { CONTENT_SECURITY_POLICY } from './main/shell/csp.ts';
 
 // The policy the built page declares for itself: the same one the shell and browser mode
 // send as a header (one definition, main/shell/csp.ts). `frame-ancestors` is ignored in a

@@ -96,9 +96,12 @@ export function createScheduler(ports: SchedulerPorts): Scheduler {
     const snoozes = ports.source.snoozes();
     const nudges = planNudges(questions, settings, snoozes, now);
 
-    if (nudges.length !== lastDueCount) {
-      lastDueCount = nudges.length;
-      ports.onDueCountChanged?.(nudges.length);
+    // The count the tray and dock show is of questions needing attention, as on the Desk:
+    // a question closing soon with a check-in due is one thing to do, not two.
+    const dueQuestions = new Set(nudges.map((n) => n.question_id)).size;
+    if (dueQuestions !== lastDueCount) {
+      lastDueCount = dueQuestions;
+      ports.onDueCountChanged?.(dueQuestions);
     }
 
     const cause = batchCause(reason, now);

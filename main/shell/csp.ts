@@ -17,7 +17,7 @@
  * and the renderer's build declares it in a <meta> (vite.config.ts); when a header and a
  * <meta> both apply, the browser enforces both, so neither can loosen the other.
  */
-import { BRIEFING_STYLE_HASH } from '../service/briefing';
+import { BRIEFING_STYLE_HASH } from '../service/briefing-style.ts';
 
 export const CONTENT_SECURITY_POLICY = [
   "default-src 'self'",

@@ -11,6 +11,7 @@ export const ROUTES = {
   newQuestion: '/questions?new=1',
   scorecard: '/scorecard',
   hindsight: '/hindsight',
+  settings: '/settings',
 } as const;
 
 export type Route = (typeof ROUTES)[keyof typeof ROUTES];
@@ -71,6 +72,7 @@ export function applicationMenuTemplate(actions: MenuActions, platform: MenuPlat
     { label: 'Questions', accelerator: 'CmdOrCtrl+2', click: () => actions.go(ROUTES.questions) },
     { label: 'Scorecard', accelerator: 'CmdOrCtrl+3', click: () => actions.go(ROUTES.scorecard) },
     { label: 'Hindsight', accelerator: 'CmdOrCtrl+4', click: () => actions.go(ROUTES.hindsight) },
+    { label: 'Settings', accelerator: 'CmdOrCtrl+,', click: () => actions.go(ROUTES.settings) },
     separator,
     { role: 'resetZoom' },
     { role: 'zoomIn' },

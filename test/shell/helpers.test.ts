@@ -3,7 +3,7 @@
  * (header syntax, directive names), WHATWG URL Standard (parsing, file: URLs), Node's
  * url.pathToFileURL, Electron docs (Notification 'click'/'close'/'failed').
  */
-import { BRIEFING_STYLE_HASH } from '../../main/service/briefing';
+import { BRIEFING_STYLE_HASH } from '../../main/service/briefing-style';
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { mkdtemp, readdir, writeFile } from 'node:fs/promises';

@@ -363,6 +363,17 @@ test('the due count is reported on the first run and on every change only', () =
   assert.deepEqual(t.h.counts, [0, 1, 0]);
 });
 
+test('the due count counts questions, as the Desk does: a check-in and closing soon on one question is 1', () => {
+  const t = harness({
+    now: '2025-06-09T09:30:00.000Z',
+    settings: { ...defaultSettings('UTC'), closing_soon_hours: 24 },
+    questions: [question({ id: 'q', checkin_days: 7, closes_at: '2025-06-10T08:00:00.000Z' })],
+  });
+  const result = t.scheduler.runOnce('start');
+  assert.equal(result.due, 2, 'two reminders are due');
+  assert.deepEqual(t.h.counts, [1], 'one question needs attention');
+});
+
 test('single-nudge wording for every kind, and summary wording', () => {
   const close = ms('2025-03-26T17:00:00.000Z');
   const nudge = (kind: NudgeKind) => ({ question_id: 'q', title: 'Northgate phase 2', kind, due_at: close });

@@ -4,6 +4,7 @@
  */
 import { createContext, useCallback, useContext, useEffect, useMemo, useState, type ReactNode } from 'react';
 import { IS_MAC, isTypingTarget } from '../../hooks';
+import { navigate, useRoute } from '../../routing';
 import { QuickAddDialog } from './QuickAddDialog';
 
 interface QuickAddApi {
@@ -34,6 +35,16 @@ export function QuickAddProvider({ children }: { children: ReactNode }) {
     window.addEventListener('keydown', onKeyDown);
     return () => window.removeEventListener('keydown', onKeyDown);
   }, []);
+
+  // The desktop menu's "New question…" (Ctrl/Cmd+N) arrives as the address #/questions?new=1:
+  // open the form and take the flag off the address, so Back does not reopen it.
+  const route = useRoute();
+  const askedForNew = route.query.get('new') === '1';
+  useEffect(() => {
+    if (!askedForNew) return;
+    setOpen(true);
+    navigate(route.path);
+  }, [askedForNew, route.path]);
 
   const api = useMemo(() => ({ open }), [open]);
   return (
