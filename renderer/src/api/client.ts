@@ -68,3 +68,20 @@ function buildApi(): Api {
 }
 
 export const api: Api = buildApi();
+
+/**
+ * Desktop-only: save the briefing for a tag as a PDF (the shell asks where). Null in browser
+ * mode, where the page prints through the browser's own dialog instead. Resolves the saved
+ * file's path, or null when the user cancelled.
+ */
+export const saveBriefingPdf: ((request: { tag?: string; threshold?: number }) => Promise<string | null>) | null = window.forelog
+  ?.saveBriefingPdf
+  ? async (request) => {
+      const envelope = await window.forelog!.saveBriefingPdf!(request);
+      if (!envelope.ok) {
+        const { code, message, fields } = envelope.error;
+        throw new RequestError(code, message, fields ?? [], 'briefing');
+      }
+      return envelope.value?.file ?? null;
+    }
+  : null;

@@ -4,9 +4,12 @@
  * navigation bar (none for pages reached from another screen) and its component.
  */
 import type { ComponentType } from 'react';
+import { DeskScreen } from './desk/DeskScreen';
+import { HindsightScreen } from './hindsight/HindsightScreen';
 import { QuestionScreen } from './question/QuestionScreen';
 import { QuestionsScreen } from './questions/QuestionsScreen';
 import { ScorecardScreen } from './scorecard/ScorecardScreen';
+import { SettingsScreen } from './settings/SettingsScreen';
 
 export interface ScreenProps {
   params: Readonly<Record<string, string>>;
@@ -21,13 +24,16 @@ export interface ScreenEntry {
 }
 
 export const screens: readonly ScreenEntry[] = [
+  { name: 'desk', path: 'desk', navLabel: 'Desk', component: DeskScreen },
   { name: 'questions', path: 'questions', navLabel: 'Questions', component: QuestionsScreen },
   { name: 'question', path: 'questions/:id', component: QuestionScreen },
   { name: 'scorecard', path: 'scorecard', navLabel: 'Scorecard', component: ScorecardScreen },
+  { name: 'hindsight', path: 'hindsight', navLabel: 'Hindsight', component: HindsightScreen },
+  { name: 'settings', path: 'settings', navLabel: 'Settings', component: SettingsScreen },
 ];
 
 /** Where an empty address ("#/" or none) goes. */
-export const HOME_PATH = 'questions';
+export const HOME_PATH = 'desk';
 
 export interface ScreenMatch {
   screen: ScreenEntry;

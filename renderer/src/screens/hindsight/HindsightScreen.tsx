@@ -1,0 +1,196 @@
+/**
+ * Hindsight: before a new engagement, the calls the user was confident about that went the
+ * other way (and, on request, the ones that went their way), each with the notes written at
+ * the time; beside them the same selection's calibration; and a printable briefing.
+ *
+ * The root carries `data-hindsight-ready`: "true" once the answer for the current choices is
+ * on screen, "false" while one is on its way. Tests wait on it rather than on timing.
+ */
+import { useCallback, useMemo, useRef, useState } from 'react';
+import type { Hindsight, HindsightEntry, Request } from '../../../../shared/contract';
+import { api } from '../../api/client';
+import { describeError } from '../../api/errors';
+import { useLoad } from '../../api/useLoad';
+import { Button } from '../../components/Button';
+import { EmptyState } from '../../components/EmptyState';
+import { ErrorBanner } from '../../components/ErrorBanner';
+import { useDefaultTimeZone } from '../../diaryInfo';
+import { useDebounced, useDocumentTitle } from '../../hooks';
+import { hrefTo } from '../../routing';
+import { BriefingPreview } from './BriefingPreview';
+import { CalibrationSummary } from './CalibrationSummary';
+import { EntryCard } from './EntryCard';
+import { HindsightFilters } from './HindsightFilters';
+import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, type HindsightSelection } from './selection';
+import { confidentMeaning, plural, wholePercent } from './wording';
+import './hindsight.css';
+
+/** Dragging the slider or typing a date asks once it settles, not at every step. */
+const SETTLE_MS = 150;
+
+interface Asked {
+  key: string;
+  request: Request<'hindsight'>;
+  selection: HindsightSelection;
+}
+
+function asked(selection: HindsightSelection, request: Request<'hindsight'> | null): Asked | null {
+  return request ? { key: JSON.stringify(request), request, selection } : null;
+}
+
+export function HindsightScreen() {
+  useDocumentTitle('Hindsight');
+  const timeZone = useDefaultTimeZone();
+  const [selection, setSelection] = useState<HindsightSelection>(INITIAL_SELECTION);
+  const built = useMemo(() => buildSelection(selection, timeZone), [selection, timeZone]);
+  const wanted = useMemo(() => asked(selection, built.request), [selection, built.request]);
+
+  // The last usable choices: while a field is half-typed the screen keeps showing them.
+  const [active, setActive] = useState<Asked>(() => asked(INITIAL_SELECTION, buildSelection(INITIAL_SELECTION, timeZone).request)!);
+  if (wanted && wanted.key !== active.key) setActive(wanted);
+  const settled = useDebounced(active, SETTLE_MS);
+
+  const loaded = useLoad(() => api.hindsight(settled.request).then((hindsight) => ({ key: settled.key, hindsight })), [settled.key]);
+  const list = useLoad(() => api.listQuestions({}), []);
+  // How many times the briefing was asked for: each ask brings the open preview into view.
+  const [briefingAsks, setBriefingAsks] = useState(0);
+  const briefingButton = useRef<HTMLButtonElement>(null);
+  const closeBriefing = useCallback(() => {
+    setBriefingAsks(0);
+    briefingButton.current?.focus();
+  }, []);
+
+  const change = useCallback((changes: Partial<HindsightSelection>) => setSelection((s) => ({ ...s, ...changes })), []);
+  const current = loaded.data && loaded.data.key === active.key && !loaded.loading;
+  const tag = settled.request.tag ?? '';
+  const threshold = settled.request.threshold ?? DEFAULT_THRESHOLD_PERCENT / 100;
+
+  return (
+    <div className="screen hindsight" data-hindsight-ready={current ? 'true' : 'false'} aria-busy={loaded.loading || undefined}>
+      <header className="screen__header hs-header">
+        <div className="hs-header__text">
+          <h1>Hindsight</h1>
+          <p className="hs-lede">Calls you were confident about that went the other way, with what you wrote at the time.</p>
+        </div>
+        <Button ref={briefingButton} variant="primary" onClick={() => setBriefingAsks((n) => n + 1)}>
+          {tag ? 'Briefing for this tag' : 'Briefing for the whole diary'}
+        </Button>
+      </header>
+      <p className="hs-caution" data-testid="caution">
+        Scores describe past calls, not future ones. Small samples mislead: every count here shows its n.
+      </p>
+      <HindsightFilters selection={selection} tags={list.data?.tags ?? []} problems={built.problems} timeZone={timeZone} onChange={change} />
+      {briefingAsks > 0 ? <BriefingPreview tag={tag} threshold={threshold} focusSignal={briefingAsks} onClose={closeBriefing} /> : null}
+      {loaded.error ? <ErrorBanner message={describeError(loaded.error)} onRetry={loaded.reload} /> : null}
+      {loaded.data ? (
+        <HindsightBody hindsight={loaded.data.hindsight} selection={settled.selection} timeZone={timeZone} />
+      ) : loaded.error ? null : (
+        <p className="muted" role="status">
+          Looking back over your resolved questions…
+        </p>
+      )}
+    </div>
+  );
+}
+
+function describeSelection(selection: HindsightSelection): string {
+  const range =
+    selection.from && selection.to
+      ? `, windows ending ${selection.from} to ${selection.to}`
+      : selection.from
+        ? `, windows ending on or after ${selection.from}`
+        : selection.to
+          ? `, windows ending on or before ${selection.to}`
+          : '';
+  return `${selection.tag ? `Tag ${selection.tag}` : 'All tags'}${range}`;
+}
+
+interface BodyProps {
+  hindsight: Hindsight;
+  selection: HindsightSelection;
+  timeZone: string;
+}
+
+function HindsightBody({ hindsight, selection, timeZone }: BodyProps) {
+  const { report, threshold, entries } = hindsight;
+  const filtered = selection.tag !== '' || selection.from !== '' || selection.to !== '';
+  if (report.scored === 0) {
+    return (
+      <EmptyState title={filtered ? 'Nothing scored in this selection' : 'Nothing scored yet'} actions={<a href={hrefTo('questions')}>Go to Questions</a>}>
+        <p data-testid="nothing-scored">
+          n = 0 scored questions{filtered ? ` (${describeSelection(selection)})` : ''}. Hindsight needs resolved questions with a forecast made
+          before their window closed.
+        </p>
+        <p>
+          Here: {report.open} open, {report.unscored} resolved without a forecast before the window ended, {report.void} void.
+        </p>
+      </EmptyState>
+    );
+  }
+  const misses = entries.filter((e) => e.verdict === 'miss');
+  const hits = entries.filter((e) => e.verdict === 'hit');
+  const at = wholePercent(threshold);
+  return (
+    <div className="hs-layout">
+      <div className="hs-list">
+        <p className="hs-count" data-testid="hindsight-count">
+          <strong>{plural(misses.length, 'confident miss', 'confident misses')}</strong>
+          {selection.includeHits ? (
+            <>
+              {' '}
+              and <strong>{plural(hits.length, 'confident hit', 'confident hits')}</strong>
+            </>
+          ) : null}{' '}
+          among n = {report.scored} scored questions. Confident at {at}: a {confidentMeaning(threshold)}.
+        </p>
+        <EntrySection
+          id="hs-misses"
+          title="Confident misses"
+          entries={misses}
+          threshold={threshold}
+          timeZone={timeZone}
+          empty={`No confident misses at ${at} in this selection — that is good news, or a small sample: n = ${report.scored}.`}
+        />
+        {selection.includeHits ? (
+          <EntrySection
+            id="hs-hits"
+            title="Confident hits"
+            entries={hits}
+            threshold={threshold}
+            timeZone={timeZone}
+            empty={`No confident hits at ${at} in this selection (n = ${report.scored}).`}
+          />
+        ) : null}
+      </div>
+      <aside className="hs-aside">
+        <CalibrationSummary report={report} subject={describeSelection(selection)} />
+      </aside>
+    </div>
+  );
+}
+
+interface EntrySectionProps {
+  id: string;
+  title: string;
+  entries: HindsightEntry[];
+  threshold: number;
+  timeZone: string;
+  empty: string;
+}
+
+function EntrySection({ id, title, entries, threshold, timeZone, empty }: EntrySectionProps) {
+  return (
+    <section className="hs-section" aria-labelledby={id} data-testid={id}>
+      <h2 id={id} className="hs-section__title">
+        {title} <span className="hs-section__n">({entries.length})</span>
+      </h2>
+      {entries.length ? (
+        entries.map((entry) => <EntryCard key={entry.id} entry={entry} threshold={threshold} timeZone={timeZone} />)
+      ) : (
+        <p className="hs-empty" data-testid="hindsight-empty">
+          {empty}
+        </p>
+      )}
+    </section>
+  );
+}

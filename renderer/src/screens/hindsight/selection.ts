@@ -1,0 +1,96 @@
+/**
+ * What the Hindsight screen is asked to show, and the `hindsight` request it becomes. The
+ * threshold is typed in percent (50–99); dates are whole days on the diary's clocks (the user
+ * thinks "windows that ended in March", not "in March UTC"), so each bound is sent as the
+ * instant that day starts or ends in the diary's time zone.
+ */
+import type { Request } from '../../../../shared/contract';
+import { addCalendarDays, parseLocalDateTime, toIso, wallTimeToInstant } from '../../../../shared/time';
+
+export interface HindsightSelection {
+  /** '' means every tag. */
+  tag: string;
+  /** "Confident at", in percent as typed. */
+  threshold: string;
+  /** "YYYY-MM-DD" or ''. */
+  from: string;
+  /** "YYYY-MM-DD" or ''. */
+  to: string;
+  includeHits: boolean;
+}
+
+/** 80 %: INTERFACES.md's confident-miss rule, the one the scorecard's own list uses. */
+export const DEFAULT_THRESHOLD_PERCENT = 80;
+export const MIN_THRESHOLD_PERCENT = 50;
+export const MAX_THRESHOLD_PERCENT = 99;
+
+export const INITIAL_SELECTION: HindsightSelection = {
+  tag: '',
+  threshold: String(DEFAULT_THRESHOLD_PERCENT),
+  from: '',
+  to: '',
+  includeHits: false,
+};
+
+export interface SelectionProblems {
+  threshold?: string;
+  from?: string;
+  to?: string;
+}
+
+export interface BuiltSelection {
+  /** null while any field is unusable; the screen keeps showing the last good answer. */
+  request: Request<'hindsight'> | null;
+  problems: SelectionProblems;
+}
+
+/** The first instant of `date` (start) or its last millisecond (end) on `timeZone`'s clocks. */
+function dayBound(date: string, timeZone: string, end: 'start' | 'end'): number | null {
+  const wall = parseLocalDateTime(`${date}T00:00`);
+  if (!wall) return null;
+  if (end === 'start') return wallTimeToInstant(wall, timeZone);
+  return wallTimeToInstant(addCalendarDays(wall, 1), timeZone) - 1;
+}
+
+/** Percent text → threshold as a probability, or the reason it cannot be one. */
+export function parseThreshold(text: string): { value: number } | { problem: string } {
+  const trimmed = text.trim();
+  const n = Number(trimmed);
+  if (trimmed === '' || !Number.isFinite(n)) return { problem: `must be a percentage from ${MIN_THRESHOLD_PERCENT} to ${MAX_THRESHOLD_PERCENT}` };
+  if (n < MIN_THRESHOLD_PERCENT || n > MAX_THRESHOLD_PERCENT) {
+    return { problem: `must be from ${MIN_THRESHOLD_PERCENT}% to ${MAX_THRESHOLD_PERCENT}%` };
+  }
+  // 85 / 100 is 0.85 exactly as typed; rounding removes binary noise such as 0.5700000000000001.
+  return { value: Number((n / 100).toPrecision(12)) };
+}
+
+export function buildSelection(selection: HindsightSelection, timeZone: string): BuiltSelection {
+  const problems: SelectionProblems = {};
+  const threshold = parseThreshold(selection.threshold);
+  if ('problem' in threshold) problems.threshold = threshold.problem;
+  const from = selection.from ? dayBound(selection.from, timeZone, 'start') : null;
+  const to = selection.to ? dayBound(selection.to, timeZone, 'end') : null;
+  if (selection.from && from === null) problems.from = 'must be a date';
+  if (selection.to && to === null) problems.to = 'must be a date';
+  if (from !== null && to !== null && to < from) problems.to = 'must not be before From';
+  if (Object.keys(problems).length > 0 || 'problem' in threshold) return { request: null, problems };
+  return {
+    request: {
+      ...(selection.tag ? { tag: selection.tag } : {}),
+      ...(from !== null ? { from: toIso(from) } : {}),
+      ...(to !== null ? { to: toIso(to) } : {}),
+      threshold: threshold.value,
+      include_hits: selection.includeHits,
+    },
+    problems,
+  };
+}
+
+/** A file name that is safe on every desktop system: "client:northgate" → "client-northgate". */
+export function briefingFileName(tag: string): string {
+  const slug = tag
+    .normalize('NFKD')
+    .replace(/[^A-Za-z0-9._-]+/g, '-')
+    .replace(/^[-.]+|[-.]+$/g, '');
+  return `forelog-briefing-${slug || 'whole-diary'}.html`;
+}

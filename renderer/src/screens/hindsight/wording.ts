@@ -1,0 +1,62 @@
+/**
+ * How the Hindsight screen puts figures into words: one place, so an entry, the calibration
+ * summary and the empty states never write the same number two ways.
+ */
+import type { CalibrationFit } from '../../../../shared/scoring/types';
+
+/** e.g. 0.85 → "85%", 0.333 → "33%"; a value strictly inside (0, 1) never reads as 0% or 100%. */
+export function wholePercent(p: number): string {
+  const r = Math.round(Number((p * 100).toFixed(9)));
+  if (r === 0 && p > 0) return '<1%';
+  if (r === 100 && p < 1) return '>99%';
+  return `${r}%`;
+}
+
+/** e.g. 0.2026 → "0.203": Brier scores differ in the third decimal. */
+export function score3(x: number | null): string {
+  if (x === null || !Number.isFinite(x)) return '—';
+  const fixed = x.toFixed(3);
+  if (fixed === '-0.000') return '0.000';
+  return fixed.startsWith('-') ? `−${fixed.slice(1)}` : fixed;
+}
+
+/** e.g. (0.21, 0.94) → "21–94%". */
+export function percentInterval(low: number, high: number): string {
+  return `${Math.round(low * 100)}–${Math.round(high * 100)}%`;
+}
+
+export function plural(n: number, one: string, many: string): string {
+  return `${n} ${n === 1 ? one : many}`;
+}
+
+/** "You said 85%; it did not happen." — the final forecast against the outcome. */
+export function verdictSentence(finalP: number, outcome: 'yes' | 'no'): string {
+  return `You said ${wholePercent(finalP)}; ${outcome === 'yes' ? 'it happened' : 'it did not happen'}.`;
+}
+
+/** What "confident" means at a threshold: "final forecast 80% or more, or 20% or less". */
+export function confidentMeaning(threshold: number): string {
+  return `final forecast ${wholePercent(threshold)} or more, or ${wholePercent(Number((1 - threshold).toFixed(12)))} or less`;
+}
+
+/** The stated probability the calibration reading translates ("your 90% behaves like …", PRODUCT.md). */
+export const READING_P = 0.9;
+
+/**
+ * The recalibrated value of a stated p, σ(a + b · logit(p)) with p clipped to [0.001, 0.999]
+ * (SCORING.md, "Calibration intercept and slope"; Cox 1958).
+ */
+export function recalibrate(p: number, intercept: number, slope: number): number {
+  const clipped = Math.min(0.999, Math.max(0.001, p));
+  const z = intercept + slope * Math.log(clipped / (1 - clipped));
+  return 1 / (1 + Math.exp(-z));
+}
+
+/** The calibration slope in words, or why it is missing. */
+export function slopeReading(fit: CalibrationFit): string {
+  if (fit.slope === null || fit.intercept === null) return `Calibration slope not reported: ${fit.reason ?? 'no fit for this selection'}.`;
+  const direction =
+    fit.slope < 1 ? 'below 1: calls were too extreme' : fit.slope > 1 ? 'above 1: calls were too timid' : '1: neither too extreme nor too timid';
+  const behaved = recalibrate(READING_P, fit.intercept, fit.slope);
+  return `Calibration slope ${fit.slope.toFixed(2)} (${direction}); a stated ${wholePercent(READING_P)} behaved like ${wholePercent(behaved)}.`;
+}
