@@ -6,9 +6,10 @@ import { useEffect, useRef } from 'react';
 import { EmptyState } from './components/EmptyState';
 import { ToastProvider } from './components/Toast';
 import { DiaryInfoProvider } from './diaryInfo';
-import { useDocumentTitle } from './hooks';
+import { useDocumentTitle, useTitleCount } from './hooks';
 import { hrefTo, navigate, questionPath, useRoute } from './routing';
 import { HOME_PATH, matchScreen, navEntryFor, screens } from './screens/registry';
+import { useDueCount } from './screens/desk/useDueCount';
 import { QuickAddProvider } from './screens/questions/quickAdd';
 
 export function App() {
@@ -36,6 +37,8 @@ function Shell() {
   const current = navEntryFor(path);
   const mainRef = useRef<HTMLElement>(null);
   const firstPath = useRef(path);
+  const dueCount = useDueCount() ?? 0;
+  useTitleCount(dueCount);
 
   // After moving to another screen, start keyboard and screen-reader users at its content.
   useEffect(() => {
@@ -66,6 +69,12 @@ function Shell() {
                 <li key={s.name}>
                   <a href={hrefTo(s.path)} className="app-bar__link" aria-current={current?.name === s.name ? 'page' : undefined}>
                     {s.navLabel}
+                    {s.name === 'desk' && dueCount > 0 ? (
+                      <span className="app-bar__count" data-testid="due-count">
+                        {dueCount}
+                        <span className="visually-hidden"> due</span>
+                      </span>
+                    ) : null}
                   </a>
                 </li>
               ))}
@@ -83,7 +92,7 @@ function NotFound() {
   useDocumentTitle('Not found');
   return (
     <div className="screen">
-      <EmptyState title="Nothing lives at this address" actions={<a href={hrefTo(HOME_PATH)}>Go to Questions</a>}>
+      <EmptyState title="Nothing lives at this address" actions={<a href={hrefTo(HOME_PATH)}>Go to the Desk</a>}>
         <p>The link may be from an older version of Forelog.</p>
       </EmptyState>
     </div>

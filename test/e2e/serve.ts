@@ -95,8 +95,17 @@ export interface AppPage {
   close: () => Promise<void>;
 }
 
-/** A new browser context on the served app, collecting anything the page complains about. */
-export async function openApp(browser: Browser, server: DiaryServer, options: BrowserContextOptions = {}): Promise<AppPage> {
+/**
+ * A new browser context on the served app at the screen `startAt` names ("questions", "desk",
+ * "" for the home screen), collecting anything the page complains about. Most specs work on the
+ * Questions screen, so it is the default.
+ */
+export async function openApp(
+  browser: Browser,
+  server: DiaryServer,
+  options: BrowserContextOptions = {},
+  startAt = 'questions',
+): Promise<AppPage> {
   const context = await browser.newContext(options);
   const page = await context.newPage();
   const problems: string[] = [];
@@ -107,7 +116,7 @@ export async function openApp(browser: Browser, server: DiaryServer, options: Br
     if (message.type() === 'error' && !fromApi) problems.push(`console: ${message.text()}`);
   });
   page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
-  await page.goto(server.url);
+  await page.goto(startAt ? `${server.url}#/${startAt}` : server.url);
   await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
   return { page, problems, close: () => context.close() };
 }

@@ -1,0 +1,338 @@
+/**
+ * One question on the Desk: why it is due, the last number, and the one-click answers —
+ * an outcome for a closed question, a revision for an open one, a snooze for either.
+ * Panels (note, revision, snooze choices) open in place; Escape closes them.
+ */
+import { useEffect, useId, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
+import type { Outcome } from '../../../../shared/domain';
+import { api } from '../../api/client';
+import { describeError } from '../../api/errors';
+import { Badge } from '../../components/Badge';
+import { Button } from '../../components/Button';
+import { ErrorBanner } from '../../components/ErrorBanner';
+import { ProbabilityInput } from '../../components/ProbabilityInput';
+import { OUTCOME_LABELS } from '../../components/StatusPill';
+import { TextArea } from '../../components/TextArea';
+import { TextField } from '../../components/TextField';
+import { useForm } from '../../forms';
+import { formatPercent, percentText, percentToProbability } from '../../percent';
+import { hrefTo, questionPath } from '../../routing';
+import { dueKinds, type DeskItem } from './items';
+import { ago, checkinPhrase, closedPhrase, closingPhrase, dayWord, clockTime, overduePhrase } from './wording';
+
+const STALE_EXPLANATION = 'well above its glide path and not revised for longer than its check-in cadence';
+
+/** What an action did, for the toast; `href` links to the question. */
+export interface Done {
+  message: string;
+  href: string;
+}
+
+interface Props {
+  item: DeskItem;
+  /** The instant the due list was computed for (epoch ms). */
+  now: number;
+  /** The diary's zone: snoozes run out on its mornings. */
+  diaryTimeZone: string;
+  onDone: (item: DeskItem, done: Done) => void;
+  onFailed: (message: string) => void;
+}
+
+type Panel = 'none' | 'note' | 'revise' | 'snooze';
+
+export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Props) {
+  const titleId = useId();
+  const [panel, setPanel] = useState<Panel>('none');
+  const [busy, setBusy] = useState(false);
+  const [note, setNote] = useState('');
+  const href = hrefTo(questionPath(item.id));
+  const toResolve = item.group === 'resolve';
+
+  // After an action the item stays disabled until the Desk's next answer replaces it (it
+  // leaves, moves, or stays with new facts), so a second click cannot repeat the action.
+  useEffect(() => setBusy(false), [item]);
+
+  function finish(message: string) {
+    setBusy(true);
+    setPanel('none');
+    onDone(item, { message, href });
+  }
+
+  async function run(action: () => Promise<string>): Promise<void> {
+    setBusy(true);
+    let message: string;
+    try {
+      message = await action();
+    } catch (error) {
+      setBusy(false);
+      onFailed(describeError(error));
+      return;
+    }
+    finish(message);
+  }
+
+  /** Escape closes an open panel and gives focus back to the button that opened it. */
+  function closePanelOnEscape(event: KeyboardEvent<HTMLLIElement>) {
+    if (event.key !== 'Escape' || panel === 'none') return;
+    event.stopPropagation();
+    event.currentTarget.querySelector<HTMLElement>('[aria-expanded="true"]')?.focus();
+    setPanel('none');
+  }
+
+  return (
+    <li className="desk-item" data-testid="desk-item" data-desk-item={item.id} data-group={item.group} aria-labelledby={titleId} onKeyDown={closePanelOnEscape}>
+      <div className="desk-item__head">
+        <h3 className="desk-item__title" id={titleId}>
+          <a href={href}>{item.title}</a>
+        </h3>
+        <Facts item={item} now={now} />
+      </div>
+      <div className="desk-item__actions">
+        {toResolve ? (
+          <ResolveButtons
+            item={item}
+            note={note}
+            busy={busy}
+            noteOpen={panel === 'note'}
+            noteId={`${titleId}-note`}
+            onToggleNote={() => setPanel(panel === 'note' ? 'none' : 'note')}
+            run={run}
+          />
+        ) : (
+          <DisclosureButton label="Revise" open={panel === 'revise'} variant="primary" disabled={busy} onToggle={() => setPanel(panel === 'revise' ? 'none' : 'revise')} controls={`${titleId}-revise`} />
+        )}
+        <DisclosureButton label="Snooze" open={panel === 'snooze'} disabled={busy} onToggle={() => setPanel(panel === 'snooze' ? 'none' : 'snooze')} controls={`${titleId}-snooze`} />
+      </div>
+      {panel === 'note' ? (
+        <div id={`${titleId}-note`} className="desk-item__panel">
+          <NoteField note={note} onChange={setNote} />
+        </div>
+      ) : null}
+      {panel === 'revise' ? (
+        <div id={`${titleId}-revise`} className="desk-item__panel">
+          <ReviseForm item={item} onCancel={() => setPanel('none')} onSaved={finish} />
+        </div>
+      ) : null}
+      {panel === 'snooze' ? (
+        <div id={`${titleId}-snooze`} className="desk-item__panel">
+          <SnoozeChoices item={item} diaryTimeZone={diaryTimeZone} busy={busy} run={run} />
+        </div>
+      ) : null}
+    </li>
+  );
+}
+
+/** Why it is due, the last number, and the stale flag. */
+function Facts({ item, now }: { item: DeskItem; now: number }) {
+  const close = Date.parse(item.closes_at);
+  const zone = item.time_zone;
+  const lines: string[] = [];
+  if (item.due.overdue || item.due.window_closed) lines.push(closedPhrase(close, now, zone));
+  if (item.due.closing_soon) lines.push(closingPhrase(close, now, zone));
+  if (item.due.checkin) lines.push(checkinPhrase(Date.parse(item.due.checkin), now, zone));
+  const last = item.last_forecast_at ? Date.parse(item.last_forecast_at) : null;
+  return (
+    <div className="desk-item__facts">
+      {item.due.overdue ? (
+        <Badge tone="danger">{overduePhrase(Date.parse(item.due.overdue), now)}</Badge>
+      ) : null}
+      {lines.map((line, i) => (
+        <p key={i} className="desk-item__why">
+          {line}
+        </p>
+      ))}
+      <p className="desk-item__last">
+        {item.last_p === null || last === null ? (
+          'No forecast yet'
+        ) : (
+          <>
+            Last forecast <strong className="desk-item__p">{formatPercent(item.last_p)}</strong>,{' '}
+            <time dateTime={item.last_forecast_at ?? undefined} title={`${dayWord(last, now, zone)} ${clockTime(last, zone)}`}>
+              {ago(last, now)}
+            </time>
+          </>
+        )}
+      </p>
+      {item.stale ? (
+        <p className="desk-item__stale">
+          <Badge tone="amber">Stale</Badge> <span>Its forecast is {STALE_EXPLANATION}.</span>
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+function DisclosureButton({
+  label,
+  open,
+  onToggle,
+  controls,
+  disabled,
+  variant = 'secondary',
+}: {
+  label: string;
+  open: boolean;
+  onToggle: () => void;
+  controls: string;
+  disabled: boolean;
+  variant?: 'primary' | 'secondary';
+}) {
+  return (
+    <Button size="sm" variant={open ? 'secondary' : variant} aria-expanded={open} aria-controls={open ? controls : undefined} disabled={disabled} onClick={onToggle}>
+      {label}
+      <span className={`desk-item__chevron ${open ? 'desk-item__chevron--open' : ''}`} aria-hidden="true" />
+    </Button>
+  );
+}
+
+const OUTCOME_HINTS: Record<Outcome, string> = {
+  yes: 'It happened: resolve Yes',
+  no: 'It did not happen: resolve No',
+  void: 'It cannot be resolved fairly: Void questions are never scored',
+};
+
+function ResolveButtons({
+  item,
+  note,
+  busy,
+  noteOpen,
+  noteId,
+  onToggleNote,
+  run,
+}: {
+  item: DeskItem;
+  note: string;
+  busy: boolean;
+  noteOpen: boolean;
+  noteId: string;
+  onToggleNote: () => void;
+  run: (action: () => Promise<string>) => Promise<void>;
+}) {
+  const groupId = useId();
+
+  function resolve(outcome: Outcome) {
+    void run(async () => {
+      await api.resolveQuestion({ id: item.id, outcome, ...(note.trim() ? { note: note.trim() } : {}) });
+      return `Resolved “${item.title}”: ${OUTCOME_LABELS[outcome]}${note.trim() ? ', with your note' : ''}.`;
+    });
+  }
+
+  return (
+    <>
+      <div className="desk-item__outcomes" role="group" aria-labelledby={`${groupId}-label`}>
+        <span className="desk-item__label" id={`${groupId}-label`}>
+          Resolve
+        </span>
+        {(['yes', 'no', 'void'] as const).map((outcome) => (
+          <Button key={outcome} size="sm" variant={outcome === 'void' ? 'secondary' : 'primary'} title={OUTCOME_HINTS[outcome]} disabled={busy} onClick={() => resolve(outcome)}>
+            {OUTCOME_LABELS[outcome]}
+          </Button>
+        ))}
+      </div>
+      <Button size="sm" variant="ghost" aria-expanded={noteOpen} aria-controls={noteOpen ? noteId : undefined} disabled={busy} onClick={onToggleNote}>
+        {noteOpen ? 'Hide note' : note.trim() ? 'Edit note' : 'Add a note'}
+      </Button>
+    </>
+  );
+}
+
+/** The note saved with whichever outcome is clicked; it keeps its text while hidden. */
+function NoteField({ note, onChange }: { note: string; onChange: (note: string) => void }) {
+  const ref = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    ref.current?.querySelector('textarea')?.focus();
+  }, []);
+  return (
+    <div ref={ref}>
+      <TextArea label="Resolution note" value={note} onChange={onChange} rows={2} hint="Saved with the outcome you click next: what happened, and where you can check it." />
+    </div>
+  );
+}
+
+function ReviseForm({ item, onCancel, onSaved }: { item: DeskItem; onCancel: () => void; onSaved: (message: string) => void }) {
+  const form = useForm();
+  const [p, setP] = useState(percentText(item.last_p));
+  const [note, setNote] = useState('');
+
+  useEffect(() => {
+    form.formRef.current?.querySelector<HTMLInputElement>('input[type="number"]')?.focus();
+  }, [form.formRef]);
+
+  async function onSubmit(event: FormEvent) {
+    event.preventDefault();
+    const parsed = percentToProbability(p);
+    if (!parsed.ok) return void form.reject({ p: parsed.error });
+    if (parsed.value === null) return void form.reject({ p: 'enter your probability in percent, e.g. 35' });
+    const value = parsed.value;
+    const unchanged = item.last_p !== null && value === item.last_p;
+    const ok = await form.submit(
+      async () => {
+        await api.addForecast({ question_id: item.id, p: value, ...(note.trim() ? { note: note.trim() } : {}) });
+      },
+      { fields: ['p', 'note'] },
+    );
+    if (ok) onSaved(unchanged ? `Kept “${item.title}” at ${formatPercent(value)}; check-in done.` : `Revised “${item.title}” to ${formatPercent(value)}.`);
+  }
+
+  return (
+    <form ref={form.formRef} className="desk-revise" noValidate onSubmit={onSubmit} aria-label={`Revise “${item.title}”`}>
+      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+      <ProbabilityInput label="New probability" value={p} onChange={setP} required error={form.error('p')} hint={item.last_p === null ? undefined : `Was ${formatPercent(item.last_p)}; saving the same number confirms it.`} />
+      <TextField label="What changed" value={note} onChange={setNote} placeholder="Optional: the evidence behind the number" error={form.error('note')} />
+      <div className="desk-revise__actions">
+        <Button onClick={onCancel}>Cancel</Button>
+        <Button type="submit" variant="primary" busy={form.busy}>
+          Save revision
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+const SNOOZE_CHOICES = [
+  { preset: 'hour', label: 'In 1 hour' },
+  { preset: 'tomorrow_morning', label: 'Tomorrow morning' },
+  { preset: 'next_week', label: 'Next week' },
+] as const;
+
+function SnoozeChoices({
+  item,
+  diaryTimeZone,
+  busy,
+  run,
+}: {
+  item: DeskItem;
+  diaryTimeZone: string;
+  busy: boolean;
+  run: (action: () => Promise<string>) => Promise<void>;
+}) {
+  const groupId = useId();
+  const ref = useRef<HTMLDivElement>(null);
+
+  useEffect(() => {
+    ref.current?.querySelector('button')?.focus();
+  }, []);
+
+  function snooze(preset: (typeof SNOOZE_CHOICES)[number]['preset']) {
+    void run(async () => {
+      // Every kind due for the question, so the whole item leaves the Desk until then.
+      const answers = await Promise.all(dueKinds(item).map((kind) => api.snooze({ question_id: item.id, kind, preset })));
+      const until = Math.max(...answers.map((a) => Date.parse(a.until)));
+      const when = `${dayWord(until, Date.now(), diaryTimeZone)} ${clockTime(until, diaryTimeZone)}`;
+      return `Snoozed “${item.title}” until ${when}.`;
+    });
+  }
+
+  return (
+    <div ref={ref} className="desk-snooze" role="group" aria-labelledby={`${groupId}-label`}>
+      <span className="desk-item__label" id={`${groupId}-label`}>
+        Snooze until
+      </span>
+      {SNOOZE_CHOICES.map((choice) => (
+        <Button key={choice.preset} size="sm" disabled={busy} onClick={() => snooze(choice.preset)}>
+          {choice.label}
+        </Button>
+      ))}
+    </div>
+  );
+}

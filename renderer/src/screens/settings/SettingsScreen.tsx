@@ -1,0 +1,266 @@
+/**
+ * Settings: when nudges come (check-in cadence, closing-soon warning, overdue line, quiet
+ * hours), the diary's time zone, the default costs of a false alarm and a miss with the
+ * action threshold they imply, and where the diary file lives.
+ */
+import { useId, useMemo, useState, type FormEvent } from 'react';
+import type { Settings } from '../../../../shared/domain';
+import { costLossThreshold } from '../../../../shared/scoring/decisions';
+import { api } from '../../api/client';
+import { diaryChanged } from '../../api/changes';
+import { describeError } from '../../api/errors';
+import { useLoad } from '../../api/useLoad';
+import { Button } from '../../components/Button';
+import { ErrorBanner } from '../../components/ErrorBanner';
+import { NumberField } from '../../components/NumberField';
+import { Select } from '../../components/Select';
+import { TextField } from '../../components/TextField';
+import { useToast } from '../../components/Toast';
+import { timeZoneNames } from '../../dates';
+import { useDiaryInfo } from '../../diaryInfo';
+import { useDocumentTitle } from '../../hooks';
+import { useForm } from '../../forms';
+import { formatPercent } from '../../percent';
+import { draftFrom, numberIn, patchFrom, sameDraft, type SettingsDraft } from './draft';
+import './settings.css';
+
+export function SettingsScreen() {
+  useDocumentTitle('Settings');
+  const settings = useLoad(() => api.getSettings({}), []);
+  return (
+    <div className="screen settings">
+      <header className="screen__header">
+        <h1>Settings</h1>
+      </header>
+      {settings.error && !settings.data ? <ErrorBanner message={describeError(settings.error)} onRetry={settings.reload} /> : null}
+      {/* Mounted once with the first answer: later reloads must not overwrite what is being typed. */}
+      <DiaryFile />
+      {settings.data ? <SettingsForm initial={settings.data} /> : null}
+    </div>
+  );
+}
+
+function SettingsForm({ initial }: { initial: Settings }) {
+  const form = useForm();
+  const toast = useToast();
+  const [saved, setSaved] = useState(() => draftFrom(initial));
+  const [draft, setDraft] = useState(saved);
+  const dirty = !sameDraft(draft, saved);
+  const set = <K extends keyof SettingsDraft>(key: K) => (value: SettingsDraft[K]) => setDraft((d) => ({ ...d, [key]: value }));
+
+  async function onSubmit(event: FormEvent) {
+    event.preventDefault();
+    const built = patchFrom(draft);
+    if (!built.ok) return void form.reject(built.errors);
+    let answer: Settings | undefined;
+    const ok = await form.submit(
+      async () => {
+        answer = await api.updateSettings(built.patch);
+      },
+      { fields: SETTINGS_FIELDS },
+    );
+    if (ok && answer) {
+      const next = draftFrom(answer);
+      setSaved(next);
+      setDraft(next);
+      toast.show({ message: 'Settings saved. Nudges and the Desk follow them from now on.' });
+      diaryChanged();
+    }
+  }
+
+  return (
+    <form ref={form.formRef} className="settings__form" noValidate onSubmit={onSubmit} aria-label="Settings">
+      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+      <NudgeSection draft={draft} set={set} error={form.error} />
+      <TimeZoneSection value={draft.timeZone} onChange={set('timeZone')} error={form.error('time_zone')} />
+      <CostSection draft={draft} set={set} error={form.error} />
+      <div className="settings__actions">
+        <p className="settings__status" aria-live="polite">
+          {dirty ? 'You have unsaved changes.' : ''}
+        </p>
+        <Button disabled={!dirty || form.busy} onClick={() => setDraft(saved)}>
+          Discard changes
+        </Button>
+        <Button type="submit" variant="primary" busy={form.busy}>
+          Save settings
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+const SETTINGS_FIELDS = [
+  'default_checkin_days',
+  'closing_soon_hours',
+  'overdue_after_days',
+  'quiet_hours.start',
+  'quiet_hours.end',
+  'time_zone',
+  'default_false_alarm_cost',
+  'default_miss_cost',
+] as const;
+
+type Setter = <K extends keyof SettingsDraft>(key: K) => (value: SettingsDraft[K]) => void;
+
+interface SectionProps {
+  draft: SettingsDraft;
+  set: Setter;
+  error: (field: string) => string | undefined;
+}
+
+function NudgeSection({ draft, set, error }: SectionProps) {
+  const quietId = useId();
+  return (
+    <section className="card settings__section" aria-labelledby="settings-nudges">
+      <h2 id="settings-nudges" className="card__title">
+        Nudges
+      </h2>
+      <p className="settings__intro">When Forelog reminds you about a question. Each question can set its own check-in cadence; these are the defaults.</p>
+      <div className="form__row">
+        <NumberField
+          label="Check in every"
+          suffix="days"
+          min={0}
+          step={1}
+          value={draft.checkinDays}
+          onChange={set('checkinDays')}
+          hint="0 means no check-ins."
+          error={error('default_checkin_days')}
+        />
+        <NumberField
+          label="Closing-soon warning"
+          suffix="hours"
+          min={1}
+          step={1}
+          value={draft.closingSoonHours}
+          onChange={set('closingSoonHours')}
+          hint="How long before a window closes to warn you."
+          error={error('closing_soon_hours')}
+        />
+        <NumberField
+          label="Overdue after"
+          suffix="days"
+          min={0}
+          step={1}
+          value={draft.overdueAfterDays}
+          onChange={set('overdueAfterDays')}
+          hint="Days after the close before an unresolved question is overdue."
+          error={error('overdue_after_days')}
+        />
+      </div>
+      <fieldset className="form__group settings__quiet">
+        <legend>Quiet hours</legend>
+        <label className="settings__check" htmlFor={quietId}>
+          <input id={quietId} type="checkbox" checked={draft.quietOn} onChange={(event) => set('quietOn')(event.target.checked)} />
+          Hold desktop notifications during quiet hours
+        </label>
+        <p className="field__hint">Nudges that fall due meanwhile wait and go out when quiet hours end. Times are on the diary’s clock (below).</p>
+        {draft.quietOn ? (
+          <div className="settings__quiet-times">
+            <TimeOfDayField label="Quiet from" value={draft.quietStart} onChange={set('quietStart')} error={error('quiet_hours.start')} />
+            <TimeOfDayField label="Quiet until" value={draft.quietEnd} onChange={set('quietEnd')} error={error('quiet_hours.end')} />
+          </div>
+        ) : null}
+      </fieldset>
+    </section>
+  );
+}
+
+/**
+ * A time of day typed as 24-hour HH:MM, the form the diary stores: a browser's time picker
+ * would show 10:30 PM on some systems while the Desk and nudges speak of 22:30.
+ */
+function TimeOfDayField({ label, value, onChange, error }: { label: string; value: string; onChange: (value: string) => void; error: string | undefined }) {
+  return (
+    <TextField
+      label={label}
+      value={value}
+      onChange={onChange}
+      error={error}
+      hint="24-hour, HH:MM"
+      inputMode="numeric"
+      autoComplete="off"
+      maxLength={5}
+      placeholder="22:00"
+      className="settings__time"
+    />
+  );
+}
+
+function TimeZoneSection({ value, onChange, error }: { value: string; onChange: (zone: string) => void; error: string | undefined }) {
+  const listed = typeof Intl.supportedValuesOf === 'function';
+  const options = useMemo(() => (listed ? timeZoneNames(value).map((zone) => ({ value: zone, label: zone.replaceAll('_', ' ') })) : []), [listed, value]);
+  const hint = 'Quiet hours, snooze mornings and overdue days follow this clock; new questions start in it.';
+  return (
+    <section className="card settings__section" aria-labelledby="settings-zone">
+      <h2 id="settings-zone" className="card__title">
+        Time zone
+      </h2>
+      {listed ? (
+        <Select label="Diary time zone" value={value} options={options} onChange={onChange} hint={hint} error={error} className="settings__zone" />
+      ) : (
+        <TextField label="Diary time zone" value={value} onChange={onChange} hint={`An IANA name such as Europe/London. ${hint}`} error={error} className="settings__zone" />
+      )}
+    </section>
+  );
+}
+
+function CostSection({ draft, set, error }: SectionProps) {
+  const falseAlarmId = useId();
+  const missId = useId();
+  const falseAlarm = numberIn(draft.falseAlarmCost);
+  const miss = numberIn(draft.missCost);
+  const usable = falseAlarm !== null && miss !== null && falseAlarm > 0 && miss > 0;
+  return (
+    <section className="card settings__section" aria-labelledby="settings-costs">
+      <h2 id="settings-costs" className="card__title">
+        Costs of being wrong
+      </h2>
+      <p className="settings__intro">
+        What a false alarm (acting when it does not happen) and a miss (not acting when it does) cost you, in any unit — only their ratio matters. The Scorecard uses them for questions without their own costs.
+      </p>
+      <div className="settings__costs">
+        <NumberField
+          id={falseAlarmId}
+          label="False alarm costs"
+          min={0}
+          step="any"
+          value={draft.falseAlarmCost}
+          onChange={set('falseAlarmCost')}
+          error={error('default_false_alarm_cost')}
+        />
+        <NumberField id={missId} label="Miss costs" min={0} step="any" value={draft.missCost} onChange={set('missCost')} error={error('default_miss_cost')} />
+      </div>
+      <output className="settings__threshold" htmlFor={`${falseAlarmId} ${missId}`} data-testid="action-threshold">
+        {usable ? (
+          <>
+            Act when your probability is above <strong>{formatPercent(costLossThreshold(falseAlarm, miss))}</strong>
+            <span className="muted"> — the action threshold α = false alarm ÷ (false alarm + miss).</span>
+          </>
+        ) : (
+          'Enter two costs above 0 to see the probability above which acting pays.'
+        )}
+      </output>
+    </section>
+  );
+}
+
+function DiaryFile() {
+  const info = useDiaryInfo();
+  return (
+    <section className="card settings__section" aria-labelledby="settings-diary">
+      <h2 id="settings-diary" className="card__title">
+        Diary
+      </h2>
+      {info.error && !info.data ? <ErrorBanner message={describeError(info.error)} onRetry={info.reload} /> : null}
+      {info.data ? (
+        <dl className="facts">
+          <dt>Diary file</dt>
+          <dd data-testid="diary-location">{info.data.location ? <code className="settings__path">{info.data.location}</code> : 'Not kept in a file (a temporary diary).'}</dd>
+          <dt>Questions</dt>
+          <dd>{info.data.question_count}</dd>
+        </dl>
+      ) : null}
+    </section>
+  );
+}
