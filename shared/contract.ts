@@ -171,6 +171,7 @@ export const operations = {
   diaryInfo: empty,
   listQuestions: listRequest,
   getQuestion: byId,
+  listTags: empty,
   createQuestion: createQuestionRequest,
   updateQuestion: updateQuestionRequest,
   deleteQuestion: byId,
@@ -199,6 +200,7 @@ export interface Responses {
   diaryInfo: DiaryInfo;
   listQuestions: QuestionList;
   getQuestion: Question;
+  listTags: { tags: TagCount[] };
   createQuestion: Question;
   updateQuestion: Question;
   deleteQuestion: { deleted: string };
@@ -254,7 +256,8 @@ export interface DueList {
 /** The scorecard: the `score --json` report plus what the Scorecard screen draws. */
 export interface Scorecard {
   report: ScoreReport;
-  detail: ScorecardDetail;
+  /** What the charts need; the per-question rows stay on the server (the briefing uses them). */
+  detail: Omit<ScorecardDetail, 'per_question'>;
   /** Days the user's calls got to the right side of 50% before the reference's, per tag. */
   leads: ReferenceLeadSummary[];
 }

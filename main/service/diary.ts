@@ -16,7 +16,7 @@ import {
   type QuestionSummary,
   type Settings,
 } from '../../shared/domain';
-import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions } from '../../shared/scoring';
+import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
@@ -265,11 +265,18 @@ export function createDiary(ctx: DiaryContext) {
     };
   }
 
+  // The engine's input is re-read only when the diary changed: SQLite's data_version on the
+  // read handle moves whenever any other connection (our write handle, or another process)
+  // commits. A filter change on the Scorecard then costs the engine's time alone.
+  let scoringCache: { version: number; questions: ScoringQuestion[] } | null = null;
+
   /** The questions as the engine sees them; "what if" costs replace each question's own. */
-  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }) {
-    const questions = loadScoringQuestions(read);
-    if (req.costs) for (const q of questions) q.costs = { false_alarm: req.costs.false_alarm, miss: req.costs.miss };
-    return questions;
+  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {
+    const version = read.pragma('data_version', { simple: true }) as number;
+    if (scoringCache?.version !== version) scoringCache = { version, questions: loadScoringQuestions(read) };
+    const { questions } = scoringCache;
+    const costs = req.costs;
+    return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
   }
 
   const handlers: Handlers = {
@@ -278,6 +285,8 @@ export function createDiary(ctx: DiaryContext) {
     listQuestions,
 
     getQuestion: (req) => getQuestion(req.id),
+
+    listTags: () => ({ tags: qs.allTagCounts(read) }),
 
     createQuestion: (req) => {
       const stamp = now();
@@ -500,11 +509,8 @@ export function createDiary(ctx: DiaryContext) {
     score: (req) => {
       const questions = scoringInput(req);
       const options = scoreOptions(req);
-      return {
-        report: computeScoreReport(questions, options),
-        detail: computeScorecardDetail(questions, options),
-        leads: referenceLeads(questions, options),
-      };
+      const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
+      return { report: computeScoreReport(questions, options), detail, leads: referenceLeads(questions, options) };
     },
 
     hindsight: (req) => {

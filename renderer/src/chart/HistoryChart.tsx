@@ -23,6 +23,7 @@ import { useColorScheme } from '../hooks';
 import { formatPercent } from '../percent';
 import { verticalMarkers, type VerticalMarker } from './markers';
 import { chartSeries, historyData, timeTicks, type HistoryData, type XY } from './series';
+import '../tools/tools.css';
 
 Chart.register(LineController, LineElement, PointElement, LinearScale, Tooltip, Legend);
 
@@ -70,6 +71,8 @@ function describe(data: HistoryData): string {
   }
   if (data.reference.length) parts.push(`${data.reference.length} reference forecast${data.reference.length === 1 ? '' : 's'}.`);
   if (data.base_rate !== null) parts.push(`Base rate ${formatPercent(data.base_rate)}.`);
+  const glideFrom = data.glide[0];
+  if (glideFrom) parts.push(`Glide path from ${formatPercent(glideFrom.p)} down to 0% at the close.`);
   parts.push('The tables below list every point.');
   return `Probability history step chart. ${parts.join(' ')}`;
 }
@@ -121,6 +124,21 @@ export function HistoryChart({ question }: { question: Question }) {
         pointHoverRadius: 7,
       })),
     ];
+    if (series.glide.length) {
+      datasets.push({
+        label: 'Glide path',
+        data: series.glide,
+        borderColor: colors.own,
+        backgroundColor: colors.own,
+        borderWidth: 1.5,
+        borderDash: [2, 4],
+        // A dotted line in the legend too, so it is not read as a second set of forecasts.
+        pointStyle: 'line',
+        pointRadius: 0,
+        pointHoverRadius: 0,
+        tension: 0,
+      });
+    }
     if (series.baseRate.length) {
       datasets.push({
         label: 'Base rate',
@@ -188,7 +206,15 @@ export function HistoryChart({ question }: { question: Question }) {
 
   return (
     <figure className="history-chart" data-testid="history-chart" data-points={JSON.stringify(data)}>
-      <figcaption className="history-chart__caption">Probability history</figcaption>
+      <figcaption className="history-chart__caption">
+        Probability history
+        {data.glide.length ? (
+          <span className="history-chart__note">
+            {' '}
+            · dotted: the glide path, where your latest forecast drifts by the close if nothing happens (constant hazard)
+          </span>
+        ) : null}
+      </figcaption>
       <div className="history-chart__canvas">
         <canvas ref={canvasRef} role="img" aria-label={describe(data)} />
       </div>

@@ -4,6 +4,7 @@
  */
 import type { Outcome, Question } from '../../../shared/domain';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../../shared/time';
+import { glideSeries } from '../tools/glide';
 
 export interface OwnPoint {
   at: string;
@@ -24,6 +25,8 @@ export interface HistoryData {
   opened_at: string;
   closes_at: string;
   resolution: { outcome: Outcome; at: string } | null;
+  /** Glide path of the latest forecast to the close; empty unless the question has one. */
+  glide: OwnPoint[];
 }
 
 export function historyData(question: Question): HistoryData {
@@ -40,6 +43,7 @@ export function historyData(question: Question): HistoryData {
     opened_at: question.opened_at,
     closes_at: question.closes_at,
     resolution: question.resolution ? { outcome: question.resolution.outcome, at: question.resolution.at } : null,
+    glide: glideSeries(question),
   };
 }
 
@@ -54,6 +58,7 @@ export interface ChartSeries {
   own: XY[];
   references: { source: string; points: XY[] }[];
   baseRate: XY[];
+  glide: XY[];
   xMin: number;
   xMax: number;
   closeMs: number;
@@ -96,7 +101,8 @@ export function chartSeries(data: HistoryData, nowMs: number): ChartSeries {
     { x: xMin, y: data.base_rate },
     { x: xMax, y: data.base_rate },
   ];
-  return { own, references, baseRate, xMin, xMax, closeMs, resolvedMs };
+  const glide = data.glide.map((g) => ({ x: Date.parse(g.at), y: g.p }));
+  return { own, references, baseRate, glide, xMin, xMax, closeMs, resolvedMs };
 }
 
 const DAY_STEPS = [1, 2, 3, 7, 14, 28, 56, 91, 182, 364, 728];

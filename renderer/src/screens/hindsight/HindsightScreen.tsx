@@ -51,7 +51,7 @@ export function HindsightScreen() {
   const settled = useDebounced(active, SETTLE_MS);
 
   const loaded = useLoad(() => api.hindsight(settled.request).then((hindsight) => ({ key: settled.key, hindsight })), [settled.key]);
-  const list = useLoad(() => api.listQuestions({}), []);
+  const list = useLoad(() => api.listTags({}), []);
   // How many times the briefing was asked for: each ask brings the open preview into view.
   const [briefingAsks, setBriefingAsks] = useState(0);
   const briefingButton = useRef<HTMLButtonElement>(null);

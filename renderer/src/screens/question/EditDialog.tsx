@@ -18,6 +18,7 @@ import { TextField } from '../../components/TextField';
 import { isoToLocal, localToIso, timeZoneNames } from '../../dates';
 import { useForm } from '../../forms';
 import { percentText, percentToProbability } from '../../percent';
+import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from './labels';
 
 interface Props {
@@ -46,6 +47,13 @@ function numberOrBlank(text: string): number | null | 'invalid' {
   if (text.trim() === '') return null;
   const n = Number(text);
   return Number.isFinite(n) ? n : 'invalid';
+}
+
+/** The window being edited, in days, for the base-rate helper; null while a time is incomplete. */
+function windowDays(openedLocal: string, closesLocal: string, timeZone: string): number | null {
+  const opened = localToIso(openedLocal, timeZone);
+  const closes = localToIso(closesLocal, timeZone);
+  return opened && closes ? (Date.parse(closes) - Date.parse(opened)) / 86_400_000 : null;
 }
 
 function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
@@ -149,6 +157,13 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
         <ProbabilityInput label="Base rate" value={baseRate} onChange={setBaseRate} error={form.error('base_rate')} />
         <TextField label="Reference class" value={baseRateNote} onChange={setBaseRateNote} error={form.error('base_rate_note')} />
       </div>
+      <BaseRateHelper
+        windowDays={windowDays(openedLocal, closesLocal, timeZone)}
+        onUse={(rate, note) => {
+          setBaseRate(rate);
+          setBaseRateNote(note);
+        }}
+      />
       <TagInput label="Tags" tags={tags} onChange={setTags} error={form.error('tags')} />
       <fieldset className="form__group">
         <legend>Costs of being wrong</legend>

@@ -52,8 +52,9 @@ export function HistoryTables({ question, onDeleteForecast, onDeleteReference }:
                     {f.note ? <span className="note">{f.note}</span> : <span className="muted">—</span>}
                     {f.lenses.length > 0 ? (
                       <ul className="lenses" aria-label="Lenses">
-                        {f.lenses.map((l) => (
-                          <li key={l.name}>
+                        {f.lenses.map((l, i) => (
+                          // Lens names need not be unique, so the position keys the row.
+                          <li key={i}>
                             {l.name}: {formatPercent(l.p)}
                             {l.weight !== 1 ? <span className="muted"> ×{l.weight}</span> : null}
                           </li>

@@ -21,6 +21,8 @@ import { formatInstant } from '../../dates';
 import { useDocumentTitle } from '../../hooks';
 import { formatPercent } from '../../percent';
 import { hrefTo, navigate } from '../../routing';
+import { ReferenceLeadNote } from '../../tools/ReferenceLeadNote';
+import { StaleNotice } from '../../tools/StaleNotice';
 import type { ScreenProps } from '../registry';
 import { EditDialog } from './EditDialog';
 import { HistoryTables } from './HistoryTables';
@@ -144,6 +146,8 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
         </section>
       ) : null}
 
+      <StaleNotice question={q} settings={settings} onRevise={() => setDialog('revise')} />
+
       <section className="figures" aria-label="Key figures">
         <Figure label="Your forecast" value={formatPercent(last?.p)} detail={last ? `since ${formatInstant(last.at, zone, false)}` : 'none yet'} tone="ink" />
         <Figure label="Base rate" value={formatPercent(q.base_rate)} detail={q.base_rate_note || (q.base_rate === null ? 'not stated' : '')} />
@@ -154,6 +158,8 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
           tone="amber"
         />
       </section>
+
+      <ReferenceLeadNote question={q} />
 
       <section className="card" aria-labelledby="definition-heading">
         <h2 id="definition-heading" className="card__title">

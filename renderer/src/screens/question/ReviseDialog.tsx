@@ -1,4 +1,8 @@
-/** A new revision of the user's own probability, with the reason for the change. */
+/**
+ * A new revision of the user's own probability, with the reason for the change, optional
+ * lenses (perspective estimates pooled into a suggestion) and a reminder of what the stated
+ * number has meant in the user's resolved record.
+ */
 import { useState, type FormEvent } from 'react';
 import type { Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
@@ -11,6 +15,9 @@ import { TextArea } from '../../components/TextArea';
 import { localToIso } from '../../dates';
 import { useForm } from '../../forms';
 import { percentText, percentToProbability } from '../../percent';
+import { LensesEditor } from '../../tools/LensesEditor';
+import { checkLenses, type LensDraft } from '../../tools/lenses';
+import { RecalibrationHint } from '../../tools/RecalibrationHint';
 import { lastForecast } from './questionFacts';
 
 interface Props {
@@ -33,6 +40,9 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
   const [p, setP] = useState(percentText(lastForecast(question)?.p));
   const [note, setNote] = useState('');
   const [atLocal, setAtLocal] = useState('');
+  const [lenses, setLenses] = useState<LensDraft[]>([]);
+  const [extremize, setExtremize] = useState('1');
+  const stated = percentToProbability(p);
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
@@ -41,10 +51,18 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
     if (!parsed.ok) return void form.reject({ p: parsed.error });
     if (parsed.value === null) return void form.reject({ p: 'enter your probability in percent, e.g. 35' });
     if (atLocal && !at) return void form.reject({ at: 'enter a complete date and time, or leave it empty for now' });
+    const checked = checkLenses(lenses);
+    if (Object.keys(checked.errors).length) return void form.reject(checked.errors);
     const value = parsed.value;
     const ok = await form.submit(
       async () => {
-        await api.addForecast({ question_id: question.id, p: value, note, ...(at ? { at } : {}) });
+        await api.addForecast({
+          question_id: question.id,
+          p: value,
+          note,
+          ...(at ? { at } : {}),
+          ...(checked.lenses.length ? { lenses: checked.lenses } : {}),
+        });
       },
       { fields: ['p', 'note', 'at'] },
     );
@@ -55,6 +73,15 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
     <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="Revise your forecast">
       {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
       <ProbabilityInput label="Your probability" value={p} onChange={setP} required autoFocus error={form.error('p')} />
+      <RecalibrationHint p={stated.ok ? stated.value : null} />
+      <LensesEditor
+        lenses={lenses}
+        onLensesChange={setLenses}
+        extremize={extremize}
+        onExtremizeChange={setExtremize}
+        onUseSuggestion={setP}
+        error={form.error}
+      />
       <TextArea label="What changed" value={note} onChange={setNote} hint="The evidence behind the new number, in a line or two." error={form.error('note')} />
       <DateTimeField
         label="As of"

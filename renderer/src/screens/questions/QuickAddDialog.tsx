@@ -21,6 +21,7 @@ import { useDefaultTimeZone } from '../../diaryInfo';
 import { useForm } from '../../forms';
 import { percentToProbability } from '../../percent';
 import { hrefTo, questionPath } from '../../routing';
+import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from '../question/labels';
 
 const FIELDS = ['title', 'rule', 'kind', 'closes_at', 'time_zone', 'base_rate', 'base_rate_note', 'first_forecast.p', 'first_forecast.note', 'tags'];
@@ -31,6 +32,12 @@ export function QuickAddDialog({ open, onClose }: { open: boolean; onClose: () =
       <QuickAddForm onDone={onClose} />
     </Dialog>
   );
+}
+
+/** Days from now to the close being typed, for the base-rate helper; null until it is complete. */
+function windowDays(closesLocal: string, timeZone: string): number | null {
+  const closes = localToIso(closesLocal, timeZone);
+  return closes ? (Date.parse(closes) - Date.now()) / 86_400_000 : null;
 }
 
 function QuickAddForm({ onDone }: { onDone: () => void }) {
@@ -135,6 +142,13 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
           error={form.error('base_rate_note')}
         />
       </div>
+      <BaseRateHelper
+        windowDays={windowDays(closesLocal, timeZone)}
+        onUse={(rate, note) => {
+          setBaseRate(rate);
+          setBaseRateNote(note);
+        }}
+      />
       <div className="form__row">
         <ProbabilityInput
           label="Your probability"

@@ -1,0 +1,185 @@
+/**
+ * The calibration diagram: each probability bin's mean forecast against how often its
+ * questions came true, with the Wilson 95% interval as a vertical bar, the point's size
+ * growing with the number of questions in the bin, and the diagonal where the two agree.
+ */
+import { memo, useRef } from 'react';
+import type { Chart, ChartConfiguration, Plugin } from 'chart.js';
+import type { ReportBin } from '../../../../shared/scoring/types';
+import { ChartFigure } from './ChartFigure';
+import { BASE_OPTIONS, axisStyle, useChart, type Palette } from './chartKit';
+import { binLabel, pct, pctInterval, questions } from './format';
+
+/** The bins the interval bars are drawn for; the plugin reads whatever the chart shows now. */
+interface Holder {
+  bins: readonly ReportBin[];
+}
+
+/** Our own small plugin: the Wilson interval of each bin as a capped vertical bar behind its point. */
+function wilsonBars(holder: Holder, color: () => string): Plugin<'scatter'> {
+  return {
+    id: 'forelogWilsonBars',
+    beforeDatasetsDraw(chart: Chart<'scatter'>) {
+      const { ctx, scales } = chart;
+      const x = scales.x;
+      const y = scales.y;
+      if (!x || !y) return;
+      ctx.save();
+      ctx.strokeStyle = color();
+      ctx.lineWidth = 1.5;
+      for (const bin of holder.bins) {
+        const px = x.getPixelForValue(bin.mean_p);
+        const top = y.getPixelForValue(bin.wilson_high);
+        const bottom = y.getPixelForValue(bin.wilson_low);
+        ctx.beginPath();
+        ctx.moveTo(px, top);
+        ctx.lineTo(px, bottom);
+        ctx.moveTo(px - 5, top);
+        ctx.lineTo(px + 5, top);
+        ctx.moveTo(px - 5, bottom);
+        ctx.lineTo(px + 5, bottom);
+        ctx.stroke();
+      }
+      ctx.restore();
+    },
+  };
+}
+
+/** Radius 4 px for the smallest bin up to 12 px for the largest, by area. */
+function radii(bins: readonly ReportBin[]): number[] {
+  const most = Math.max(1, ...bins.map((b) => b.n));
+  return bins.map((b) => 4 + 8 * Math.sqrt(b.n / most));
+}
+
+function describe(bins: readonly ReportBin[]): string {
+  if (bins.length === 0) return 'Calibration diagram: no scored questions.';
+  const parts = bins.map((b) => `${binLabel(b.index)} bin: came true ${pct(b.observed)} of ${questions(b.n)}`);
+  return `Calibration diagram, forecast against how often it came true. ${parts.join('; ')}. The table below has the intervals.`;
+}
+
+export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins: ReportBin[] }) {
+  const canvasRef = useRef<HTMLCanvasElement>(null);
+  const holder = useRef<Holder>({ bins }).current;
+
+  useChart<'scatter', ReportBin[]>(
+    canvasRef,
+    (colors: Palette): ChartConfiguration<'scatter'> => ({
+      type: 'scatter',
+      data: {
+        datasets: [
+          {
+            label: 'Perfect calibration',
+            data: [
+              { x: 0, y: 0 },
+              { x: 1, y: 1 },
+            ],
+            showLine: true,
+            borderColor: colors.baseRate,
+            borderDash: [6, 5],
+            borderWidth: 1.5,
+            pointRadius: 0,
+            pointHoverRadius: 0,
+          },
+          {
+            label: 'Your forecasts, by bin (bar: 95% interval)',
+            data: [],
+            backgroundColor: colors.own,
+            borderColor: colors.surface,
+            borderWidth: 1.5,
+            // Bins at 0% or 100% sit on the frame; draw the whole dot rather than half of it.
+            clip: false,
+          },
+        ],
+      },
+      options: {
+        ...BASE_OPTIONS,
+        font: { family: colors.font },
+        layout: { padding: { top: 14, right: 14 } },
+        scales: {
+          x: {
+            type: 'linear',
+            min: 0,
+            max: 1,
+            ...axisStyle(colors, 'Forecast (mean of the bin)'),
+            ticks: { color: colors.text, stepSize: 0.1, callback: (v) => pct(Number(v)) },
+          },
+          y: {
+            type: 'linear',
+            min: 0,
+            max: 1,
+            ...axisStyle(colors, 'Share that came true'),
+            ticks: { color: colors.text, stepSize: 0.25, callback: (v) => pct(Number(v)) },
+          },
+        },
+        plugins: {
+          legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },
+          tooltip: {
+            filter: (item) => item.datasetIndex === 1,
+            callbacks: {
+              title: (items) => {
+                const bin = holder.bins[items[0]?.dataIndex ?? -1];
+                return bin ? `${binLabel(bin.index)} bin (${questions(bin.n)})` : '';
+              },
+              label: (item) => {
+                const bin = holder.bins[item.dataIndex];
+                return bin
+                  ? `Mean forecast ${pct(bin.mean_p)}, came true ${pct(bin.observed)} (95% interval ${pctInterval(bin.wilson_low, bin.wilson_high)})`
+                  : '';
+              },
+            },
+          },
+        },
+      },
+      plugins: [wilsonBars(holder, () => colors.text)],
+    }),
+    (chart, data) => {
+      holder.bins = data;
+      const dataset = chart.data.datasets[1]!;
+      dataset.data = data.map((b) => ({ x: b.mean_p, y: b.observed }));
+      const r = radii(data);
+      dataset.pointRadius = r;
+      dataset.pointHoverRadius = r.map((v) => v + 2);
+    },
+    bins,
+  );
+
+  return (
+    <ChartFigure
+      testId="calibration-chart"
+      canvasRef={canvasRef}
+      points={bins}
+      description={describe(bins)}
+      caption={
+        <>
+          Calibration diagram: each dot is a 10-point probability bin; bars are 95% Wilson intervals; bigger dots hold more
+          questions. Dots on the dashed diagonal came true exactly as often as stated.
+        </>
+      }
+      table={
+        <table>
+          <caption className="visually-hidden">Calibration by bin</caption>
+          <thead>
+            <tr>
+              <th scope="col">Bin</th>
+              <th scope="col" className="num">n</th>
+              <th scope="col" className="num">Mean forecast</th>
+              <th scope="col" className="num">Came true</th>
+              <th scope="col" className="num">95% interval (Wilson)</th>
+            </tr>
+          </thead>
+          <tbody>
+            {bins.map((b) => (
+              <tr key={b.index}>
+                <th scope="row">{binLabel(b.index)}</th>
+                <td className="num">{b.n}</td>
+                <td className="num">{pct(b.mean_p)}</td>
+                <td className="num">{pct(b.observed)}</td>
+                <td className="num">{pctInterval(b.wilson_low, b.wilson_high)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      }
+    />
+  );
+});

@@ -1,0 +1,82 @@
+/**
+ * What the Scorecard is filtered by, and the `score` request it becomes. Dates are whole days
+ * on the diary's clocks (the user thinks "from 1 March", not "from 1 March UTC"), so each
+ * bound is sent as the exact instant that day starts or ends in the diary's time zone.
+ */
+import type { Request } from '../../../../shared/contract';
+import { addCalendarDays, parseLocalDateTime, toIso, wallTimeToInstant } from '../../../../shared/time';
+
+export interface ScorecardFilter {
+  /** '' means every tag. */
+  tag: string;
+  /** "YYYY-MM-DD" or ''. */
+  from: string;
+  /** "YYYY-MM-DD" or ''. */
+  to: string;
+  /** What-if costs as typed ('' when not in use). */
+  whatIfFalseAlarm: string;
+  whatIfMiss: string;
+}
+
+export const EMPTY_FILTER: ScorecardFilter = { tag: '', from: '', to: '', whatIfFalseAlarm: '', whatIfMiss: '' };
+
+export interface FilterProblems {
+  from?: string;
+  to?: string;
+  whatIfFalseAlarm?: string;
+  whatIfMiss?: string;
+}
+
+export interface BuiltRequest {
+  /** null while any field is unusable; the screen keeps showing the last good answer. */
+  request: Request<'score'> | null;
+  problems: FilterProblems;
+  /** The what-if costs in force, or null when each question's own costs apply. */
+  whatIf: { false_alarm: number; miss: number } | null;
+}
+
+/** The first instant of `date` (start) or the last millisecond of it (end) on `timeZone`'s clocks. */
+function dayBound(date: string, timeZone: string, end: 'start' | 'end'): number | null {
+  const wall = parseLocalDateTime(`${date}T00:00`);
+  if (!wall) return null;
+  if (end === 'start') return wallTimeToInstant(wall, timeZone);
+  return wallTimeToInstant(addCalendarDays(wall, 1), timeZone) - 1;
+}
+
+function parseCost(text: string): { value: number | null; problem?: string } {
+  const trimmed = text.trim();
+  if (trimmed === '') return { value: null };
+  const n = Number(trimmed);
+  if (!Number.isFinite(n) || n <= 0) return { value: null, problem: 'must be a cost greater than 0' };
+  return { value: n };
+}
+
+export function buildRequest(filter: ScorecardFilter, timeZone: string): BuiltRequest {
+  const problems: FilterProblems = {};
+  const from = filter.from ? dayBound(filter.from, timeZone, 'start') : null;
+  const to = filter.to ? dayBound(filter.to, timeZone, 'end') : null;
+  if (filter.from && from === null) problems.from = 'must be a date';
+  if (filter.to && to === null) problems.to = 'must be a date';
+  if (from !== null && to !== null && to < from) problems.to = 'must not be before From';
+
+  const fa = parseCost(filter.whatIfFalseAlarm);
+  const miss = parseCost(filter.whatIfMiss);
+  if (fa.problem) problems.whatIfFalseAlarm = fa.problem;
+  if (miss.problem) problems.whatIfMiss = miss.problem;
+  // One cost without the other says nothing about their ratio.
+  if (fa.value !== null && miss.value === null && !miss.problem) problems.whatIfMiss = 'give both costs, or clear both';
+  if (miss.value !== null && fa.value === null && !fa.problem) problems.whatIfFalseAlarm = 'give both costs, or clear both';
+  const whatIf = fa.value !== null && miss.value !== null ? { false_alarm: fa.value, miss: miss.value } : null;
+
+  if (Object.keys(problems).length > 0) return { request: null, problems, whatIf: null };
+  return {
+    request: {
+      ...(filter.tag ? { tag: filter.tag } : {}),
+      ...(from !== null ? { from: toIso(from) } : {}),
+      ...(to !== null ? { to: toIso(to) } : {}),
+      ...(whatIf ? { costs: whatIf } : {}),
+    },
+    problems,
+    whatIf,
+  };
+}

@@ -1,0 +1,67 @@
+/**
+ * Numbers on the Scorecard as people read them: scores to three decimals, rates as whole
+ * percents, intervals as "21–94%". One place, so the headline, the tables and the chart
+ * tooltips never disagree about how a figure is written.
+ */
+
+/** The typographic minus, so negative skill scores read as numbers and not as hyphens. */
+function signed(text: string): string {
+  return text.startsWith('-') ? `−${text.slice(1)}` : text;
+}
+
+/** e.g. 0.2026 → "0.203"; null → "—". Scores are small numbers where the third decimal matters. */
+export function score3(x: number | null | undefined): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—';
+  // Rounding −0.0004 to three decimals would show "−0.000".
+  const fixed = x.toFixed(3);
+  return signed(fixed === '-0.000' ? '0.000' : fixed);
+}
+
+/** Two decimals, for the short form in a sentence ("Brier 0.20 over 22 questions"). */
+export function score2(x: number | null | undefined): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—';
+  const fixed = x.toFixed(2);
+  return signed(fixed === '-0.00' ? '0.00' : fixed);
+}
+
+/** e.g. 0.667 → "67%"; null → "—". */
+export function pct(x: number | null | undefined): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—';
+  return signed(`${Math.round(x * 100)}%`);
+}
+
+/** e.g. [0.21, 0.94] → "21–94%". */
+export function pctInterval(low: number, high: number): string {
+  return `${signed(String(Math.round(low * 100)))}–${signed(String(Math.round(high * 100)))}%`;
+}
+
+/** e.g. [0.099, 0.306] → "0.099–0.306". */
+export function scoreInterval(iv: readonly [number, number]): string {
+  return `${score3(iv[0])}–${score3(iv[1])}`;
+}
+
+/** "1 question" / "22 questions". */
+export function questions(n: number): string {
+  return `${n} question${n === 1 ? '' : 's'}`;
+}
+
+/** A cost in the user's own units: whole numbers as such, otherwise up to two decimals. */
+export function cost(x: number): string {
+  return Number.isInteger(x) ? String(x) : String(Number(x.toFixed(2)));
+}
+
+/** A probability bin (index 0–10) by its centre: "90%". */
+export function binLabel(index: number): string {
+  return `${index * 10}%`;
+}
+
+/** e.g. 3.99 → "4.0 days", 1 → "1.0 day". */
+export function days(x: number): string {
+  const rounded = Math.abs(x).toFixed(1);
+  return `${rounded} day${rounded === '1.0' ? '' : 's'}`;
+}
+
+/** An axis tick: up to two decimals, no trailing zeros ("0.25", "−0.5", "1"). */
+export function tick(value: number | string): string {
+  return signed(String(Number(Number(value).toFixed(2))));
+}
