@@ -419,7 +419,7 @@ const ROWS: Row[] = [
     forecasts: [
       [-80, 0.35, 'Go-live finally happened; 212 open incidents at day ten.'],
       [-50, 0.45, 'Down to 120 and falling by about fifteen a week.'],
-      [-20, 0.55, 'At 74 with three weeks to go. The trend says yes; the last tickets are always the stubborn ones.'],
+      [-20, 0.55, 'At 74 with three weeks to go. The trend says yes; the last tickets are always the slowest to close.'],
     ],
     refs: [[-30, 0.6, 'steering committee']],
   },

@@ -5,7 +5,7 @@
  * instant that day starts or ends in the diary's time zone.
  */
 import type { Request } from '../../../../shared/contract';
-import { addCalendarDays, parseLocalDateTime, toIso, wallTimeToInstant } from '../../../../shared/time';
+import { dayRange } from '../../dates';
 
 export interface HindsightSelection {
   /** '' means every tag. */
@@ -44,14 +44,6 @@ export interface BuiltSelection {
   problems: SelectionProblems;
 }
 
-/** The first instant of `date` (start) or its last millisecond (end) on `timeZone`'s clocks. */
-function dayBound(date: string, timeZone: string, end: 'start' | 'end'): number | null {
-  const wall = parseLocalDateTime(`${date}T00:00`);
-  if (!wall) return null;
-  if (end === 'start') return wallTimeToInstant(wall, timeZone);
-  return wallTimeToInstant(addCalendarDays(wall, 1), timeZone) - 1;
-}
-
 /** Percent text → threshold as a probability, or the reason it cannot be one. */
 export function parseThreshold(text: string): { value: number } | { problem: string } {
   const trimmed = text.trim();
@@ -65,20 +57,16 @@ export function parseThreshold(text: string): { value: number } | { problem: str
 }
 
 export function buildSelection(selection: HindsightSelection, timeZone: string): BuiltSelection {
-  const problems: SelectionProblems = {};
+  const { from, to, problems: rangeProblems } = dayRange(selection.from, selection.to, timeZone);
+  const problems: SelectionProblems = { ...rangeProblems };
   const threshold = parseThreshold(selection.threshold);
   if ('problem' in threshold) problems.threshold = threshold.problem;
-  const from = selection.from ? dayBound(selection.from, timeZone, 'start') : null;
-  const to = selection.to ? dayBound(selection.to, timeZone, 'end') : null;
-  if (selection.from && from === null) problems.from = 'must be a date';
-  if (selection.to && to === null) problems.to = 'must be a date';
-  if (from !== null && to !== null && to < from) problems.to = 'must not be before From';
   if (Object.keys(problems).length > 0 || 'problem' in threshold) return { request: null, problems };
   return {
     request: {
       ...(selection.tag ? { tag: selection.tag } : {}),
-      ...(from !== null ? { from: toIso(from) } : {}),
-      ...(to !== null ? { to: toIso(to) } : {}),
+      ...(from !== undefined ? { from } : {}),
+      ...(to !== undefined ? { to } : {}),
       threshold: threshold.value,
       include_hits: selection.includeHits,
     },

@@ -4,7 +4,7 @@
  * bound is sent as the exact instant that day starts or ends in the diary's time zone.
  */
 import type { Request } from '../../../../shared/contract';
-import { addCalendarDays, parseLocalDateTime, toIso, wallTimeToInstant } from '../../../../shared/time';
+import { dayRange } from '../../dates';
 
 export interface ScorecardFilter {
   /** '' means every tag. */
@@ -35,14 +35,6 @@ export interface BuiltRequest {
   whatIf: { false_alarm: number; miss: number } | null;
 }
 
-/** The first instant of `date` (start) or the last millisecond of it (end) on `timeZone`'s clocks. */
-function dayBound(date: string, timeZone: string, end: 'start' | 'end'): number | null {
-  const wall = parseLocalDateTime(`${date}T00:00`);
-  if (!wall) return null;
-  if (end === 'start') return wallTimeToInstant(wall, timeZone);
-  return wallTimeToInstant(addCalendarDays(wall, 1), timeZone) - 1;
-}
-
 function parseCost(text: string): { value: number | null; problem?: string } {
   const trimmed = text.trim();
   if (trimmed === '') return { value: null };
@@ -52,12 +44,8 @@ function parseCost(text: string): { value: number | null; problem?: string } {
 }
 
 export function buildRequest(filter: ScorecardFilter, timeZone: string): BuiltRequest {
-  const problems: FilterProblems = {};
-  const from = filter.from ? dayBound(filter.from, timeZone, 'start') : null;
-  const to = filter.to ? dayBound(filter.to, timeZone, 'end') : null;
-  if (filter.from && from === null) problems.from = 'must be a date';
-  if (filter.to && to === null) problems.to = 'must be a date';
-  if (from !== null && to !== null && to < from) problems.to = 'must not be before From';
+  const { from, to, problems: rangeProblems } = dayRange(filter.from, filter.to, timeZone);
+  const problems: FilterProblems = { ...rangeProblems };
 
   const fa = parseCost(filter.whatIfFalseAlarm);
   const miss = parseCost(filter.whatIfMiss);
@@ -72,8 +60,8 @@ export function buildRequest(filter: ScorecardFilter, timeZone: string): BuiltRe
   return {
     request: {
       ...(filter.tag ? { tag: filter.tag } : {}),
-      ...(from !== null ? { from: toIso(from) } : {}),
-      ...(to !== null ? { to: toIso(to) } : {}),
+      ...(from !== undefined ? { from } : {}),
+      ...(to !== undefined ? { to } : {}),
       ...(whatIf ? { costs: whatIf } : {}),
     },
     problems,
