@@ -5,13 +5,10 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
-import { ApiError, parseRequest, type DueList } from '../shared/contract';
+import { ApiError, parseRequest, type DueList, type ExportedText } from '../shared/contract';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
-import { toICalendar } from './service/calendar';
-import { csvToDiary, diaryToCsv } from './service/csv';
-import { unresolvedQuestions } from './service/nudges';
 import { callOrThrow } from './service/dispatch';
 import { openDiary, type DiaryService } from './service/index';
 import { startHttpServer } from './transport/http';
@@ -139,16 +136,7 @@ async function run(argv: string[]): Promise<void> {
       if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
       if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
       const text = fs.readFileSync(file, 'utf8');
-      let diary: unknown;
-      if (format === 'csv') diary = csvToDiary(text);
-      else {
-        try {
-          diary = JSON.parse(text);
-        } catch (err) {
-          throw new Error(`${file} is not valid JSON (${(err as Error).message}); nothing was imported`);
-        }
-      }
-      const result = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'importDiary', { diary }))) as { added: number };
+      const result = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'importText', { format, text }))) as { added: number };
       process.stdout.write(`Imported ${result.added} question${result.added === 1 ? '' : 's'} into ${path.resolve(dbPath)}.\n`);
       return;
     }
@@ -156,11 +144,7 @@ async function run(argv: string[]): Promise<void> {
       if (positionals.length > 1) throw new UsageError('expects at most one FILE');
       const format = values.format ?? 'json';
       if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
-      const text = await withDiary(dbPath, async (s) => {
-        if (format === 'ics') return toICalendar(unresolvedQuestions(s.store), { now: s.now(), alarmHours: s.diary.settings().closing_soon_hours });
-        if (format === 'csv') return diaryToCsv(s.diary.exportDiary());
-        return s.exportDiaryJson();
-      });
+      const { text } = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'exportText', { format }))) as ExportedText;
       if (positionals[0]) {
         fs.writeFileSync(positionals[0], text);
         process.stderr.write(`Wrote ${positionals[0]}.\n`);

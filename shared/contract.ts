@@ -144,6 +144,18 @@ export const snoozeRequest = z
     path: ['preset'],
   });
 
+export const EXPORT_FORMATS = ['json', 'csv', 'ics'] as const;
+export const IMPORT_FORMATS = ['json', 'csv'] as const;
+
+export const exportTextRequest = z.object({
+  format: z.enum(EXPORT_FORMATS, { error: 'must be json, csv or ics' }),
+});
+
+export const importTextRequest = z.object({
+  format: z.enum(IMPORT_FORMATS, { error: 'must be json or csv' }),
+  text: z.string({ error: 'must be the file’s text' }).max(64 * 1_048_576, { message: 'is larger than 64 MB' }),
+});
+
 const empty = z.object({}).strict();
 const byId = z.object({ id });
 
@@ -157,6 +169,13 @@ export interface QuestionList {
   tags: TagCount[];
   /** Number of questions in the whole diary, before filters. */
   total: number;
+}
+
+/** A whole-diary export as text, ready to save: JSON v1, CSV (one row per revision) or iCalendar. */
+export interface ExportedText {
+  text: string;
+  file_name: string;
+  media_type: string;
 }
 
 export interface DiaryInfo {
@@ -186,6 +205,8 @@ export const operations = {
   updateSettings: settingsPatch,
   importDiary: z.object({ diary: z.unknown() }),
   exportDiary: empty,
+  importText: importTextRequest,
+  exportText: exportTextRequest,
   loadDemo: empty,
   score: scoreRequest,
   due: dueRequest,
@@ -215,6 +236,8 @@ export interface Responses {
   updateSettings: Settings;
   importDiary: { added: number };
   exportDiary: unknown;
+  importText: { added: number };
+  exportText: ExportedText;
   loadDemo: { added: number };
   score: Scorecard;
   due: DueList;

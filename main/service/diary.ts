@@ -4,7 +4,8 @@
  * need the diary's state (does the question exist, is the close still after the opening).
  */
 import { randomUUID } from 'node:crypto';
-import type { Handlers, QuestionList, ValidRequest } from '../../shared/contract';
+import type { ExportedText, Handlers, QuestionList, ValidRequest } from '../../shared/contract';
+import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
 import { parseDiaryFile, toDiaryFile, DiaryFileError, type FileQuestion } from '../../shared/diary-file';
 import {
@@ -23,7 +24,9 @@ import * as nudgeStore from '../store/nudges';
 import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
 import { confidentCalls, referenceLeads } from './hindsight';
-import { dueAt, snoozeUntil } from './nudges';
+import { toICalendar } from './calendar';
+import { CsvError, csvToDiary, diaryToCsv } from './csv';
+import { dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
 import { loadScoringQuestions } from './scoring-source';
 
@@ -44,6 +47,9 @@ function notFound(what: string, id: string): ApiError {
 function invalid(field: string, reason: string): ApiError {
   return new ApiError('invalid', `The request was not accepted: ${field}: ${reason}. Nothing was changed.`, [`${field}: ${reason}`]);
 }
+
+type ExportFormat = (typeof EXPORT_FORMATS)[number];
+type ImportFormat = (typeof IMPORT_FORMATS)[number];
 
 export function createDiary(ctx: DiaryContext) {
   const { store, now } = ctx;
@@ -145,12 +151,15 @@ export function createDiary(ctx: DiaryContext) {
     }
     const text = req.text?.trim();
     if (text) {
-      // Search title, rule and tags; LIKE's own wildcards in the text are taken literally.
+      // Search title, rule, tags and the notes written with revisions; LIKE's own wildcards
+      // in the text are taken literally.
       const like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
       where.push(
-        `(lower(q.title) LIKE ? ESCAPE '\\' OR lower(q.rule) LIKE ? ESCAPE '\\' OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE ? ESCAPE '\\'))`,
+        `(lower(q.title) LIKE ? ESCAPE '\\' OR lower(q.rule) LIKE ? ESCAPE '\\'
+          OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE ? ESCAPE '\\')
+          OR q.id IN (SELECT question_id FROM forecasts WHERE lower(note) LIKE ? ESCAPE '\\'))`,
       );
-      args.push(like, like, like);
+      args.push(like, like, like, like);
     }
     const rows = read
       .prepare(
@@ -277,6 +286,36 @@ export function createDiary(ctx: DiaryContext) {
     const { questions } = scoringCache;
     const costs = req.costs;
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
+  }
+
+  function exportText(format: ExportFormat): ExportedText {
+    const day = toIso(now()).slice(0, 10);
+    if (format === 'csv') return { text: diaryToCsv(exportDiary()), file_name: `forelog-diary-${day}.csv`, media_type: 'text/csv' };
+    if (format === 'ics') {
+      const text = toICalendar(unresolvedQuestions(store), { now: now(), alarmHours: settings().closing_soon_hours });
+      return { text, file_name: `forelog-closes-${day}.ics`, media_type: 'text/calendar' };
+    }
+    return { text: `${JSON.stringify(exportDiary(), null, 2)}\n`, file_name: `forelog-diary-${day}.json`, media_type: 'application/json' };
+  }
+
+  function importText(format: ImportFormat, text: string): { added: number } {
+    if (format === 'csv') {
+      let diary: unknown;
+      try {
+        diary = csvToDiary(text);
+      } catch (err) {
+        if (err instanceof CsvError) throw new ApiError('invalid', err.message, err.column ? [`${err.column}: ${err.message}`] : []);
+        throw err;
+      }
+      return importParsed(diary);
+    }
+    let parsed: unknown;
+    try {
+      parsed = JSON.parse(text);
+    } catch (err) {
+      throw new ApiError('invalid', `The file is not valid JSON (${(err as Error).message}); nothing was imported. Is it a Forelog diary file?`);
+    }
+    return importParsed(parsed);
   }
 
   const handlers: Handlers = {
@@ -454,6 +493,10 @@ export function createDiary(ctx: DiaryContext) {
 
     exportDiary: () => exportDiary(),
 
+    exportText: (req) => exportText(req.format),
+
+    importText: (req) => importText(req.format, req.text),
+
     loadDemo: () => {
       if (qs.questionCount(read) > 0) {
         throw new ApiError(
@@ -541,7 +584,7 @@ export function createDiary(ctx: DiaryContext) {
     },
   };
 
-  return { handlers, settings, getQuestion, exportDiary, importParsed, scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)) };
+  return { handlers, settings, getQuestion, exportDiary, exportText, importText, scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)) };
 }
 
 export type Diary = ReturnType<typeof createDiary>;

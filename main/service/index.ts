@@ -6,7 +6,6 @@ import { openStore, type StoreHandles } from '../store/open';
 import { backupTo, rollingBackup } from './backup';
 import { buildDemoDiary } from './demo';
 import { createDiary, type Diary } from './diary';
-import { ApiError } from '../../shared/contract';
 import { createDispatch, type Dispatch } from './dispatch';
 import { createDiaryScheduler, type Notifier } from './nudges';
 import type { Scheduler } from '../nudges/scheduler';
@@ -48,16 +47,8 @@ export function openDiary(options: OpenOptions): DiaryService {
     store,
     location: store.path,
     now,
-    exportDiaryJson: () => `${JSON.stringify(diary.exportDiary(), null, 2)}\n`,
-    importDiaryJson: (text) => {
-      let parsed: unknown;
-      try {
-        parsed = JSON.parse(text);
-      } catch (err) {
-        throw new ApiError('invalid', `The file is not valid JSON (${(err as Error).message}); nothing was imported.`);
-      }
-      return diary.importParsed(parsed);
-    },
+    exportDiaryJson: () => diary.exportText('json').text,
+    importDiaryJson: (text) => diary.importText('json', text),
     createScheduler: (notifier, onDueCountChanged) => createDiaryScheduler(store, now, diary.settings, notifier, onDueCountChanged),
     backupTo: (file, onProgress) => backupTo(store, file, onProgress),
     rollingBackup: (dir) => rollingBackup(store, dir, now()),

@@ -76,6 +76,29 @@ test('export → import → export is identical', () => {
   assert.ok(parsed.questions.length >= 24);
 });
 
+test('export --format csv and ics: one row per revision; one calendar event per open question', () => {
+  const db = path.join(tempDir(), 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const diary = JSON.parse(forelog('export', '--db', db).stdout);
+  const revisions = diary.questions.reduce((n: number, q: { forecasts: unknown[]; references: unknown[] }) => n + q.forecasts.length + q.references.length, 0);
+  const csv = forelog('export', '--format', 'csv', '--db', db);
+  assert.equal(csv.status, 0, csv.stderr);
+  assert.ok(csv.stdout.startsWith('question_id,title,rule,kind,tags,'));
+  // RFC 4180: records end in CRLF; quoted fields may hold line breaks, so count records by parsing.
+  const ics = forelog('export', '--format', 'ics', '--db', db);
+  assert.equal(ics.status, 0, ics.stderr);
+  const open = diary.questions.filter((q: { resolution: unknown }) => !q.resolution).length;
+  assert.equal(ics.stdout.match(/^BEGIN:VEVENT\r$/gm)?.length, open);
+  assert.match(ics.stdout, /^BEGIN:VCALENDAR\r\nVERSION:2\.0\r\n/);
+  assert.ok(revisions > 0);
+  const back = path.join(tempDir(), 'back.sqlite');
+  const file = path.join(tempDir(), 'diary.csv');
+  fs.writeFileSync(file, csv.stdout);
+  const imported = forelog('import', file, '--db', back);
+  assert.equal(imported.status, 0, imported.stderr);
+  assert.match(imported.stdout, new RegExp(`Imported ${diary.questions.length} questions`));
+});
+
 test('demo fills only an empty diary', () => {
   const db = path.join(tempDir(), 'd.sqlite');
   const r = forelog('demo', '--db', db);

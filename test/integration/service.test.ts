@@ -122,6 +122,8 @@ test('list filters by status, tag and text', async () => {
   assert.deepEqual(await ids({ status: 'void' }), [v.id]);
   assert.deepEqual(await ids({ tag: 'pilots' }), [b.id]);
   assert.deepEqual(await ids({ text: 'PILOT' }), [b.id]);
+  await d.call('addForecast', { question_id: c.id, p: 0.2, note: 'The Harbour hearing slipped again' });
+  assert.deepEqual(await ids({ text: 'harbour hearing' }), [c.id], 'notes written with revisions are searched too');
   assert.deepEqual(await ids({ text: '100%' }), []);
   d.clock.now = Date.parse('2026-11-30T12:00:00Z');
   assert.deepEqual(await ids({ status: 'closing' }), [b.id]);
@@ -157,6 +159,27 @@ test('settings default, update with validation, and persist', async () => {
   await rejects(d.call('updateSettings', { quiet_hours: { start: '25:00', end: '07:00' } }), 'invalid', /quiet_hours\.start/);
   await rejects(d.call('updateSettings', { closing_soon_hours: 0 }), 'invalid', /closing_soon_hours/);
   await rejects(d.call('updateSettings', { bogus: 1 } as never), 'invalid', /bogus|Unrecognized/i);
+});
+
+test('the scorecard follows every change at once (its cached input is dropped on each write)', async () => {
+  const d = openTestDiary();
+  const a = await d.call('createQuestion', { ...base, title: 'A', first_forecast: { p: 0.9 } });
+  const b = await d.call('createQuestion', { ...base, title: 'B', first_forecast: { p: 0.2 } });
+  await d.call('resolveQuestion', { id: a.id, outcome: 'yes' });
+  let { report } = await d.call('score', {});
+  assert.equal(report.scored, 1);
+  assert.ok(Math.abs(report.brier - 0.01) < 1e-12, 'Brier of 0.9 on a Yes');
+  await d.call('resolveQuestion', { id: b.id, outcome: 'yes' });
+  ({ report } = await d.call('score', {}));
+  assert.equal(report.scored, 2);
+  assert.ok(Math.abs(report.brier - (0.01 + 0.64) / 2) < 1e-12);
+  await d.call('updateForecast', { id: a.forecasts[0].id, p: 0.5 });
+  ({ report } = await d.call('score', {}));
+  assert.ok(Math.abs(report.brier - (0.25 + 0.64) / 2) < 1e-12, 'an edited revision is seen');
+  const whatIf = await d.call('score', { costs: { false_alarm: 1, miss: 9 } });
+  assert.equal(whatIf.report.decisions.hits, 2, 'what-if costs: act above 10%');
+  ({ report } = await d.call('score', {}));
+  assert.equal(report.decisions.hits, 0, 'what-if costs do not leak into the next answer (act above 50%)');
 });
 
 test('unknown operations are refused', async () => {
