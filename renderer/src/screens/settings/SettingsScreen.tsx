@@ -1,7 +1,7 @@
 /**
  * Settings: when nudges come (check-in cadence, closing-soon warning, overdue line, quiet
  * hours), the diary's time zone, the default costs of a false alarm and a miss with the
- * action threshold they imply, and where the diary file lives.
+ * action threshold they imply, where the diary file lives, and the diary's files in and out.
  */
 import { useId, useMemo, useState, type FormEvent } from 'react';
 import type { Settings } from '../../../../shared/domain';
@@ -21,6 +21,7 @@ import { useDiaryInfo } from '../../diaryInfo';
 import { useDocumentTitle } from '../../hooks';
 import { useForm } from '../../forms';
 import { formatPercent } from '../../percent';
+import { DataSection } from './DataSection';
 import { draftFrom, numberIn, patchFrom, sameDraft, type SettingsDraft } from './draft';
 import './settings.css';
 
@@ -36,6 +37,7 @@ export function SettingsScreen() {
       {/* Mounted once with the first answer: later reloads must not overwrite what is being typed. */}
       <DiaryFile />
       {settings.data ? <SettingsForm initial={settings.data} /> : null}
+      <DataSection />
     </div>
   );
 }

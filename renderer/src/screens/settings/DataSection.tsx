@@ -1,0 +1,113 @@
+/**
+ * Your data: the whole diary out as a file (JSON v1, CSV one row per revision, or the open
+ * questions' closes as an iCalendar file) and a diary file in (JSON or CSV, all or nothing).
+ * The same in the desktop app and in browser mode: the files go through the API as text.
+ */
+import { useId, useRef, useState, type ChangeEvent } from 'react';
+import type { EXPORT_FORMATS } from '../../../../shared/contract';
+import { api } from '../../api/client';
+import { diaryChanged } from '../../api/changes';
+import { describeError } from '../../api/errors';
+import { Button } from '../../components/Button';
+import { ErrorBanner } from '../../components/ErrorBanner';
+import { useToast } from '../../components/Toast';
+
+type ExportFormat = (typeof EXPORT_FORMATS)[number];
+
+const EXPORTS: { format: ExportFormat; label: string; note: string }[] = [
+  { format: 'json', label: 'Diary file (JSON)', note: 'everything, in Forelog’s documented format; import it anywhere' },
+  { format: 'csv', label: 'Spreadsheet (CSV)', note: 'one row per revision' },
+  { format: 'ics', label: 'Calendar (.ics)', note: 'every open question’s close as an event with a reminder' },
+];
+
+/** How long a download's object URL is kept: the browser reads it after the click returns. */
+const REVOKE_AFTER_MS = 60_000;
+
+function saveAs(text: string, fileName: string, mediaType: string): void {
+  const url = URL.createObjectURL(new Blob([text], { type: `${mediaType};charset=utf-8` }));
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = fileName;
+  link.hidden = true;
+  document.body.append(link);
+  link.click();
+  link.remove();
+  window.setTimeout(() => URL.revokeObjectURL(url), REVOKE_AFTER_MS);
+}
+
+export function DataSection() {
+  const toast = useToast();
+  const inputId = useId();
+  const input = useRef<HTMLInputElement>(null);
+  const [busy, setBusy] = useState<string | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
+
+  async function exportAs(format: ExportFormat) {
+    setBusy(format);
+    setProblem(null);
+    try {
+      const file = await api.exportText({ format });
+      saveAs(file.text, file.file_name, file.media_type);
+      toast.show({ message: `Exported ${file.file_name}.` });
+    } catch (error) {
+      setProblem(describeError(error));
+    } finally {
+      setBusy(null);
+    }
+  }
+
+  async function importFile(event: ChangeEvent<HTMLInputElement>) {
+    const file = event.target.files?.[0];
+    event.target.value = '';
+    if (!file) return;
+    setBusy('import');
+    setProblem(null);
+    try {
+      const format = /\.csv$/i.test(file.name) ? 'csv' : 'json';
+      const { added } = await api.importText({ format, text: await file.text() });
+      toast.show({ message: `Imported ${added} question${added === 1 ? '' : 's'} from ${file.name}.` });
+      diaryChanged();
+    } catch (error) {
+      setProblem(`${file.name}: ${describeError(error)}`);
+    } finally {
+      setBusy(null);
+    }
+  }
+
+  return (
+    <section className="card settings__section" aria-labelledby="settings-data">
+      <h2 id="settings-data" className="card__title">
+        Your data
+      </h2>
+      {problem ? <ErrorBanner message={problem} /> : null}
+      <ul className="settings__exports">
+        {EXPORTS.map((e) => (
+          <li key={e.format}>
+            <Button onClick={() => void exportAs(e.format)} busy={busy === e.format} disabled={busy !== null}>
+              Export {e.label}
+            </Button>
+            <span className="muted"> {e.note}</span>
+          </li>
+        ))}
+      </ul>
+      <p>
+        <label htmlFor={inputId} className="settings__import-label">
+          Import a diary file (JSON or CSV)
+        </label>{' '}
+        <input
+          id={inputId}
+          ref={input}
+          type="file"
+          accept=".json,.csv,application/json,text/csv"
+          onChange={(event) => void importFile(event)}
+          disabled={busy !== null}
+        />
+      </p>
+      <p className="muted">
+        Imports add questions and never change the ones you have; a file with one bad record is refused whole and says which.
+        The desktop app also keeps a copy of the diary every day (the newest seven), and <code>forelog backup FILE</code> makes one
+        on demand.
+      </p>
+    </section>
+  );
+}
