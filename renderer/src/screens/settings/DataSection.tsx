@@ -15,9 +15,9 @@ import { useToast } from '../../components/Toast';
 type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
 const EXPORTS: { format: ExportFormat; label: string; note: string }[] = [
-  { format: 'json', label: 'Diary file (JSON)', note: 'everything, in Forelog’s documented format; import it anywhere' },
-  { format: 'csv', label: 'Spreadsheet (CSV)', note: 'one row per revision' },
-  { format: 'ics', label: 'Calendar (.ics)', note: 'every open question’s close as an event with a reminder' },
+  { format: 'json', label: 'diary file (JSON)', note: 'everything, in Forelog’s documented format; import it anywhere' },
+  { format: 'csv', label: 'spreadsheet (CSV)', note: 'one row per revision' },
+  { format: 'ics', label: 'calendar (.ics)', note: 'every open question’s close as an event with a reminder' },
 ];
 
 /** How long a download's object URL is kept: the browser reads it after the click returns. */
