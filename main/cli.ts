@@ -77,18 +77,34 @@ function withDiary<T>(dbPath: string, fn: (service: DiaryService) => Promise<T>)
   return fn(service).finally(() => service.close());
 }
 
-/** Finds the built renderer next to this program, building it first in a source checkout. */
+/** Newest modification time of any file under `dir` (0 when it does not exist). */
+function newestChange(dir: string): number {
+  if (!fs.existsSync(dir)) return 0;
+  let newest = 0;
+  for (const entry of fs.readdirSync(dir, { withFileTypes: true, recursive: true })) {
+    if (entry.isFile()) newest = Math.max(newest, fs.statSync(path.join(entry.parentPath, entry.name)).mtimeMs);
+  }
+  return newest;
+}
+
+/**
+ * Finds the built renderer next to this program. In a source checkout it is built first
+ * when missing or older than the sources, so `npm run forelog -- serve` always shows the
+ * screens as the code stands.
+ */
 async function rendererDir(): Promise<string> {
-  const here = path.dirname(path.resolve(process.argv[1] ?? '.'));
+  // A global install runs through a symlink; the files sit beside its target.
+  const here = path.dirname(fs.realpathSync(path.resolve(process.argv[1] ?? '.')));
+  const root = path.join(here, '..');
+  const checkout = fs.existsSync(path.join(root, 'vite.config.ts'));
   const candidates = [path.join(here, '..', 'renderer'), path.join(here, '..', 'dist', 'renderer')];
   // A build has assets/; in a checkout main/../renderer is the Vite source folder, whose index.html is not servable.
   const found = candidates.find((dir) => fs.existsSync(path.join(dir, 'index.html')) && fs.existsSync(path.join(dir, 'assets')));
-  if (found) return found;
-  const root = path.join(here, '..');
-  if (!fs.existsSync(path.join(root, 'vite.config.ts'))) {
-    throw new Error('The app screens are missing from this installation; reinstall Forelog.');
-  }
-  process.stderr.write('Building the app screens (first run in this checkout)…\n');
+  if (found && !checkout) return found;
+  if (!checkout) throw new Error('The app screens are missing from this installation; reinstall Forelog.');
+  const built = found ? fs.statSync(path.join(found, 'index.html')).mtimeMs : 0;
+  if (found && built >= Math.max(newestChange(path.join(root, 'renderer')), newestChange(path.join(root, 'shared')))) return found;
+  process.stderr.write(`Building the app screens (${found ? 'the sources changed since the last build' : 'first run in this checkout'})…\n`);
   const vite = await import('vite');
   await vite.build({ root: path.join(root, 'renderer'), configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn' });
   return path.join(root, 'dist', 'renderer');
