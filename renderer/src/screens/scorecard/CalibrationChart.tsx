@@ -7,7 +7,7 @@ import { memo, useRef } from 'react';
 import type { Chart, ChartConfiguration, Plugin } from 'chart.js';
 import type { ReportBin } from '../../../../shared/scoring/types';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, axisStyle, useChart, type Palette } from './chartKit';
+import { BASE_OPTIONS, percentAxis, useChart, type Palette } from './chartKit';
 import { binLabel, pct, pctInterval, questions } from './format';
 
 /** The bins the interval bars are drawn for; the plugin reads whatever the chart shows now. */
@@ -96,20 +96,8 @@ export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins:
         font: { family: colors.font },
         layout: { padding: { top: 14, right: 14 } },
         scales: {
-          x: {
-            type: 'linear',
-            min: 0,
-            max: 1,
-            ...axisStyle(colors, 'Forecast (mean of the bin)'),
-            ticks: { color: colors.text, stepSize: 0.1, callback: (v) => pct(Number(v)) },
-          },
-          y: {
-            type: 'linear',
-            min: 0,
-            max: 1,
-            ...axisStyle(colors, 'Share that came true'),
-            ticks: { color: colors.text, stepSize: 0.25, callback: (v) => pct(Number(v)) },
-          },
+          x: percentAxis(colors, 'Forecast (mean of the bin)', 0.1),
+          y: percentAxis(colors, 'Share that came true', 0.25),
         },
         plugins: {
           legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },

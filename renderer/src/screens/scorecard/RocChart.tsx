@@ -7,7 +7,7 @@ import { memo, useMemo, useRef } from 'react';
 import type { ChartConfiguration } from 'chart.js';
 import type { RocPoint } from '../../../../shared/scoring/types';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, axisStyle, thin, useChart, type Palette } from './chartKit';
+import { BASE_OPTIONS, percentAxis, thin, useChart, type Palette } from './chartKit';
 import { pct, score2 } from './format';
 
 const MAX_POINTS = 200;
@@ -62,20 +62,8 @@ export const RocChart = memo(function RocChart({ roc, auc, yes, no }: RocChartPr
         font: { family: colors.font },
         layout: { padding: { top: 8, right: 10 } },
         scales: {
-          x: {
-            type: 'linear',
-            min: 0,
-            max: 1,
-            ...axisStyle(colors, 'False-alarm rate (No questions above the threshold)'),
-            ticks: { color: colors.text, stepSize: 0.25, callback: (v) => pct(Number(v)) },
-          },
-          y: {
-            type: 'linear',
-            min: 0,
-            max: 1,
-            ...axisStyle(colors, 'Hit rate'),
-            ticks: { color: colors.text, stepSize: 0.25, callback: (v) => pct(Number(v)) },
-          },
+          x: percentAxis(colors, 'False-alarm rate (No questions above the threshold)', 0.25),
+          y: percentAxis(colors, 'Hit rate', 0.25),
         },
         plugins: {
           legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },

@@ -9,7 +9,7 @@ import type { ChartConfiguration } from 'chart.js';
 import type { ValuePoint } from '../../../../shared/scoring/types';
 import { verticalMarkers, type VerticalMarker } from '../../chart/markers';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, axisStyle, useChart, type Palette } from './chartKit';
+import { BASE_OPTIONS, axisStyle, percentAxis, useChart, type Palette } from './chartKit';
 import { pct, score2, tick } from './format';
 
 /** Values below this are drawn at the bottom edge (they run to −∞ near the ends); the table has them all. */
@@ -51,13 +51,7 @@ export const ValueCurve = memo(function ValueCurve({ curve, alpha }: { curve: Va
         font: { family: colors.font },
         interaction: { mode: 'nearest', intersect: false, axis: 'x' },
         scales: {
-          x: {
-            type: 'linear',
-            min: 0,
-            max: 1,
-            ...axisStyle(colors, 'Cost ratio α = false-alarm cost / (false-alarm cost + miss cost)'),
-            ticks: { color: colors.text, stepSize: 0.1, callback: (v) => pct(Number(v)) },
-          },
+          x: percentAxis(colors, 'Cost ratio α = false-alarm cost / (false-alarm cost + miss cost)', 0.1),
           y: {
             type: 'linear',
             max: 1,

@@ -22,6 +22,7 @@ import {
   type ChartType,
 } from 'chart.js';
 import { useColorScheme } from '../../hooks';
+import { pct } from './format';
 
 Chart.register(BarController, BarElement, CategoryScale, LinearScale, LineController, LineElement, PointElement, ScatterController, Tooltip, Legend);
 
@@ -61,6 +62,18 @@ export function axisStyle(colors: Palette, title?: string) {
     grid: { color: colors.grid },
     border: { color: colors.grid },
     ...(title ? { title: { display: true, text: title, color: colors.text } } : {}),
+  };
+}
+
+/** A linear 0–100 % axis (probabilities, rates, cost ratios) with percent tick labels. */
+export function percentAxis(colors: Palette, title: string, stepSize: number) {
+  const style = axisStyle(colors, title);
+  return {
+    type: 'linear' as const,
+    min: 0,
+    max: 1,
+    ...style,
+    ticks: { ...style.ticks, stepSize, callback: (value: string | number) => pct(Number(value)) },
   };
 }
 
