@@ -203,27 +203,15 @@ function readHeader(header: string[] | undefined): Map<CsvColumn, number> {
   return positions;
 }
 
-/** The columns a question's rows must agree on, in the order they are checked. */
-const QUESTION_COLUMNS = [
-  'question_id',
-  'title',
-  'rule',
-  'kind',
-  'tags',
-  'opened_at',
-  'closes_at',
-  'time_zone',
-  'base_rate',
-  'base_rate_note',
-  'false_alarm_cost',
-  'miss_cost',
-  'checkin_days',
-  'outcome',
-  'resolved_at',
-  'resolution_note',
-] as const satisfies readonly CsvColumn[];
+/** The columns that describe a revision or a reference forecast, not the question. */
+const POINT_COLUMNS = ['forecast_at', 'p', 'note', 'lenses', 'reference_at', 'reference_p', 'reference_source'] as const satisfies readonly CsvColumn[];
+type QuestionColumn = Exclude<CsvColumn, (typeof POINT_COLUMNS)[number]>;
 
-type QuestionColumn = (typeof QUESTION_COLUMNS)[number];
+/** The columns a question's rows must agree on: every other one, in export order. */
+const QUESTION_COLUMNS: readonly QuestionColumn[] = CSV_COLUMNS.filter(
+  (c): c is QuestionColumn => !(POINT_COLUMNS as readonly CsvColumn[]).includes(c),
+);
+
 
 interface CsvRow {
   row: number;

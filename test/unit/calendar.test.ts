@@ -6,33 +6,13 @@
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import ICAL from 'ical.js';
-import type { Forecast, Question } from '../../shared/domain';
+import type { Question } from '../../shared/domain';
+import { forecast, question as baseQuestion } from '../support/builders';
 import { escapeText, foldLine, icalUtc, toICalendar } from '../../main/service/calendar';
 
-function forecast(at: string, seq: number, p: number): Forecast {
-  return { id: `f${seq}`, at, p, note: '', lenses: [], seq };
-}
-
+/** The calendar tests' question: closes 2025-03-31 17:00 London time. */
 function question(over: Partial<Question> & { id: string }): Question {
-  return {
-    title: `Question ${over.id}`,
-    rule: 'Resolves Yes if it happens.',
-    kind: 'event_by_deadline',
-    tags: [],
-    opened_at: '2025-01-06T09:00:00.000Z',
-    closes_at: '2025-03-31T16:00:00.000Z',
-    time_zone: 'Europe/London',
-    base_rate: null,
-    base_rate_note: '',
-    costs: null,
-    checkin_days: null,
-    forecasts: [],
-    references: [],
-    resolution: null,
-    created_at: '2025-01-06T09:00:00.000Z',
-    updated_at: '2025-02-01T10:00:00.000Z',
-    ...over,
-  };
+  return baseQuestion({ closes_at: '2025-03-31T16:00:00.000Z', time_zone: 'Europe/London', updated_at: '2025-02-01T10:00:00.000Z', ...over });
 }
 
 const NOW = Date.parse('2025-03-01T12:34:56.789Z');

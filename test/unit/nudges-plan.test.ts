@@ -6,37 +6,13 @@
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { defaultSettings, type Forecast, type Question, type Settings } from '../../shared/domain';
+import { defaultSettings, type Settings } from '../../shared/domain';
 import { addCalendarDays } from '../../shared/time';
+import { forecast, question } from '../support/builders';
 import { checkinAt, planNudges, type Nudge, type Snooze } from '../../main/nudges/plan';
 
 const ms = (iso: string): number => Date.parse(iso);
 
-function forecast(at: string, seq: number, p = 0.5): Forecast {
-  return { id: `f${seq}`, at, p, note: '', lenses: [], seq };
-}
-
-function question(over: Partial<Question> & { id: string }): Question {
-  return {
-    title: `Question ${over.id}`,
-    rule: 'Resolves Yes if it happens.',
-    kind: 'event_by_deadline',
-    tags: [],
-    opened_at: '2025-01-06T09:00:00.000Z',
-    closes_at: '2030-01-01T00:00:00.000Z',
-    time_zone: 'UTC',
-    base_rate: null,
-    base_rate_note: '',
-    costs: null,
-    checkin_days: null,
-    forecasts: [],
-    references: [],
-    resolution: null,
-    created_at: '2025-01-06T09:00:00.000Z',
-    updated_at: '2025-01-06T09:00:00.000Z',
-    ...over,
-  };
-}
 
 function settings(over: Partial<Settings> = {}): Settings {
   return { ...defaultSettings('UTC'), ...over };

@@ -7,7 +7,8 @@
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import cron from 'node-cron';
-import { defaultSettings, type Forecast, type Question, type Settings } from '../../shared/domain';
+import { defaultSettings, type Question, type Settings } from '../../shared/domain';
+import { forecast, question } from '../support/builders';
 import { createScheduler, type CronModule, type SchedulerPorts } from '../../main/nudges/scheduler';
 import { inQuietHours, parseClockTime } from '../../main/nudges/quiet';
 import { nudgeMessage, summaryMessage } from '../../main/nudges/messages';
@@ -16,32 +17,6 @@ import type { NudgeKind, Snooze } from '../../main/nudges/plan';
 const MINUTE = 60_000;
 const ms = (iso: string): number => Date.parse(iso);
 const iso = (t: number): string => new Date(t).toISOString();
-
-function forecast(at: string, seq: number): Forecast {
-  return { id: `f${seq}`, at, p: 0.5, note: '', lenses: [], seq };
-}
-
-function question(over: Partial<Question> & { id: string }): Question {
-  return {
-    title: `Question ${over.id}`,
-    rule: 'Resolves Yes if it happens.',
-    kind: 'event_by_deadline',
-    tags: [],
-    opened_at: '2025-01-06T09:00:00.000Z',
-    closes_at: '2030-01-01T00:00:00.000Z',
-    time_zone: 'UTC',
-    base_rate: null,
-    base_rate_note: '',
-    costs: null,
-    checkin_days: null,
-    forecasts: [],
-    references: [],
-    resolution: null,
-    created_at: '2025-01-06T09:00:00.000Z',
-    updated_at: '2025-01-06T09:00:00.000Z',
-    ...over,
-  };
-}
 
 interface Sent {
   at: string;

@@ -4,8 +4,7 @@
  */
 import type { TagCount } from '../../../../shared/contract';
 import { Button } from '../../components/Button';
-import { Select } from '../../components/Select';
-import { TextField } from '../../components/TextField';
+import { TagFilter, WindowEndRange } from '../../components/FilterFields';
 import { INITIAL_SELECTION, parseThreshold, type HindsightSelection, type SelectionProblems } from './selection';
 import { ThresholdField } from './ThresholdField';
 import { confidentMeaning } from './wording';
@@ -19,10 +18,6 @@ export interface HindsightFiltersProps {
 }
 
 export function HindsightFilters({ selection, tags, problems, timeZone, onChange }: HindsightFiltersProps) {
-  const options = [{ value: '', label: 'All tags' }, ...tags.map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` }))];
-  // A chosen tag stays selectable while the tag list reloads or after its last question went.
-  if (selection.tag && !options.some((o) => o.value === selection.tag)) options.push({ value: selection.tag, label: selection.tag });
-  const zone = timeZone.replaceAll('_', ' ');
   const threshold = parseThreshold(selection.threshold);
   const thresholdHint = 'value' in threshold ? `Counts a ${confidentMeaning(threshold.value)}` : 'A final forecast this far towards either side';
   const changed =
@@ -33,24 +28,9 @@ export function HindsightFilters({ selection, tags, problems, timeZone, onChange
     selection.includeHits !== INITIAL_SELECTION.includeHits;
   return (
     <div role="search" aria-label="Choose which calls to review" className="hs-filters">
-      <Select label="Tag" value={selection.tag} options={options} onChange={(tag) => onChange({ tag })} />
+      <TagFilter value={selection.tag} tags={tags} onChange={(tag) => onChange({ tag })} />
       <ThresholdField value={selection.threshold} onChange={(value) => onChange({ threshold: value })} hint={thresholdHint} error={problems.threshold} />
-      <TextField
-        label="From"
-        type="date"
-        value={selection.from}
-        onChange={(from) => onChange({ from })}
-        hint={`Window ended on or after this day (${zone})`}
-        error={problems.from}
-      />
-      <TextField
-        label="To"
-        type="date"
-        value={selection.to}
-        onChange={(to) => onChange({ to })}
-        hint={`Window ended on or before this day (${zone})`}
-        error={problems.to}
-      />
+      <WindowEndRange from={selection.from} to={selection.to} timeZone={timeZone} problems={problems} onChange={onChange} />
       <div className="hs-filters__end">
         <label className="hs-toggle">
           <input type="checkbox" checked={selection.includeHits} onChange={(event) => onChange({ includeHits: event.target.checked })} />
