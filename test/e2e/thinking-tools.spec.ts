@@ -127,7 +127,8 @@ test.describe('what the tools do', () => {
     await dialog.getByRole('button', { name: 'Save question' }).click();
     await expect(dialog).toBeHidden();
     await page.getByRole('link', { name: TITLE }).click();
-    expect((await chartData(page)).base_rate).toBe(0.8);
+    // The page reloads the question after the save: wait for the redrawn chart.
+    await expect.poll(async () => (await chartData(page)).base_rate).toBe(0.8);
     await expect(page.locator('.facts')).toContainText('3 of 3 comparable cases; rule of succession, 95% interval 46–100%');
   });
 
@@ -147,7 +148,7 @@ test.describe('what the tools do', () => {
     await dialog.getByRole('button', { name: 'Save changes' }).click();
     await expect(dialog).toBeHidden();
     // The form fills the figure it showed (one decimal), so the diary keeps 36.4%.
-    expect((await chartData(page)).base_rate).toBe(0.364);
+    await expect.poll(async () => (await chartData(page)).base_rate).toBe(0.364);
     await expect(page.locator('.facts')).toContainText('7 of 20 comparable renewals slipped; rule of succession, 95% interval 17–57%');
   });
 
