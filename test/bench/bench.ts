@@ -17,55 +17,12 @@ import readline from 'node:readline';
 import { openDiary } from '../../main/service/index';
 import { loadScoringQuestions } from '../../main/service/scoring-source';
 import { computeScoreReport } from '../../shared/scoring';
+import { BENCH_TAGS, buildDiaryFile } from './make-diary';
 
 const ROOT = path.resolve(import.meta.dirname, '..', '..');
 const QUESTIONS = 10_000;
 const REVISIONS = 200_000;
-const DAY = 86_400_000;
-const TAGS = ['client:norrowby', 'client:wendlebrook', 'renewals', 'procurement', 'regulation', 'delivery', 'hiring', 'pricing'];
-
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-function buildDiaryFile(): object {
-  const rand = mulberry32(20261201);
-  const start = Date.UTC(2021, 0, 4);
-  const questions = [];
-  const perQuestion = REVISIONS / QUESTIONS;
-  for (let i = 0; i < QUESTIONS; i++) {
-    const opened = start + Math.floor(rand() * 1500) * DAY;
-    const closes = opened + (14 + Math.floor(rand() * 160)) * DAY;
-    const truth = rand();
-    const forecasts = [];
-    for (let j = 0; j < perQuestion; j++) {
-      const at = opened + Math.floor(((j + rand()) / perQuestion) * (closes - opened));
-      forecasts.push({ at: new Date(at).toISOString(), p: Math.round(Math.min(1, Math.max(0, truth + (rand() - 0.5) * 0.5)) * 100) / 100, note: '' });
-    }
-    const roll = rand();
-    questions.push({
-      id: `bench-${i}`,
-      title: `Synthetic question ${i}`,
-      kind: roll < 0.7 ? 'event_by_deadline' : 'state_at_deadline',
-      tags: [TAGS[i % TAGS.length]!, TAGS[(i * 7 + 3) % TAGS.length]!].filter((t, k, a) => a.indexOf(t) === k),
-      opened_at: new Date(opened).toISOString(),
-      closes_at: new Date(closes).toISOString(),
-      time_zone: 'Europe/London',
-      base_rate: Math.round(rand() * 100) / 100,
-      forecasts,
-      references: i % 5 === 0 ? [{ at: new Date(opened + DAY).toISOString(), p: 0.5, source: 'sector survey' }] : [],
-      resolution: roll < 0.9 ? { outcome: rand() < truth ? 'yes' : 'no', at: new Date(closes).toISOString(), note: '' } : null,
-    });
-  }
-  return { format: 'forelog-diary', version: 1, questions };
-}
+const TAGS = BENCH_TAGS;
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 const ms = (x: number) => `${x.toFixed(0)} ms`;
@@ -122,7 +79,7 @@ async function main(): Promise<void> {
   try {
     process.stderr.write(`Generating ${QUESTIONS.toLocaleString('en')} questions with ${REVISIONS.toLocaleString('en')} revisions…\n`);
     const file = path.join(dir, 'bench.json');
-    fs.writeFileSync(file, JSON.stringify(buildDiaryFile()));
+    fs.writeFileSync(file, JSON.stringify(buildDiaryFile(QUESTIONS, REVISIONS / QUESTIONS)));
     const dbPath = path.join(dir, 'bench.sqlite');
     process.stderr.write('Importing…\n');
     const importMs = cli(['import', file, '--db', dbPath]);
