@@ -14,8 +14,10 @@ export const APP_INDEX_URL = `${APP_SCHEME}://${APP_HOST}/index.html`;
 /**
  * For protocol.registerSchemesAsPrivileged. `standard`: relative URLs resolve (the build's
  * `./assets/…`) and the page gets a real origin, so `'self'` in the CSP means this scheme
- * and host. `secure`: a secure context, like https. Nothing more: no fetch API, CORS,
- * service workers or CSP bypass, since the page reaches the diary through the preload.
+ * and host. `secure`: a secure context, like https. Nothing more: no fetch API, service
+ * workers or CSP bypass, since the page reaches the diary through the preload; and no
+ * `corsEnabled`, which would let other origins read our files (the page's own module
+ * script and stylesheet are same-origin, which needs no CORS).
  */
 export const APP_SCHEME_PRIVILEGES = { standard: true, secure: true } as const;
 

@@ -7,6 +7,10 @@
  * "Verify WebView options before creation", "Handle session permission requests from
  * remote content".
  *
+ * Subframes are left to the Content-Security-Policy (frames only from our origin, through
+ * default-src 'self'); the Hindsight screen's briefing preview is such a frame (about:srcdoc,
+ * without scripts), so blocking subframe navigation here would break it.
+ *
  * Plain functions over the event fields Electron passes, so they are tested without it.
  */
 import { isAppOrigin } from './app-origin';
