@@ -230,7 +230,7 @@ test('every response gets our Content-Security-Policy header, replacing any othe
   assert.ok(fake.headersListener, 'a header hook is installed');
   let answer: { responseHeaders?: Record<string, string[] | string> } | undefined;
   fake.headersListener!(
-    { url: `file://${INDEX_HTML}`, responseHeaders: { 'content-type': ['text/html'], 'content-security-policy': ["default-src *"] } },
+    { url: 'https://example.org/any-other-response', responseHeaders: { 'content-type': ['text/html'], 'content-security-policy': ["default-src *"] } },
     (response: typeof answer) => {
       answer = response;
     },
@@ -246,7 +246,7 @@ test('permission requests are denied and permission checks answer no', async () 
   fake.permissionRequestHandler!({}, 'media', (granted: boolean) => answers.push(granted), {});
   fake.permissionRequestHandler!({}, 'notifications', (granted: boolean) => answers.push(granted), {});
   assert.deepEqual(answers, [false, false]);
-  assert.equal(fake.permissionCheckHandler!({}, 'geolocation', 'file://', {}), false);
+  assert.equal(fake.permissionCheckHandler!({}, 'geolocation', 'forelog-app://app', {}), false);
 });
 
 test('navigation away from our origin is prevented; only https links go to the system browser', async () => {
