@@ -1,6 +1,7 @@
 /**
  * Builds the renderer into dist/renderer. `base: './'` makes every asset URL relative, so the
- * same build loads from file:// in the desktop app and from http://127.0.0.1 in browser mode.
+ * same build loads from forelog-app://app/ in the desktop app (main/shell/app-protocol.ts)
+ * and from http://127.0.0.1 in browser mode.
  */
 import { defineConfig, type Plugin } from 'vite';
 import react from '@vitejs/plugin-react';

@@ -20,24 +20,28 @@ import {
   nativeImage,
   Notification,
   powerMonitor,
+  protocol,
   session,
   shell,
   Tray,
   type MessageBoxOptions,
   type OpenDialogOptions,
   type SaveDialogOptions,
+  type WebContents,
 } from 'electron';
 import { IPC_OPEN_QUESTION_CHANNEL } from '../shared/bridge';
+import { APP_SCHEME, APP_SCHEME_PRIVILEGES, appPageUrl, isAppDocument } from './shell/app-origin';
+import { rendererProtocolHandler } from './shell/app-protocol';
 import { withContentSecurityPolicy } from './shell/csp';
 import { diaryFileActions, type FileDialogs } from './shell/diary-files';
 import { APP_NAME, DIARY_FILE_NAME } from './paths';
 import { APP_ID, dbPathFromArgs, shellLocations } from './shell/locations';
 import { applicationMenuTemplate, ROUTES, trayMenuTemplate, trayTooltip, type Route } from './shell/menu';
-import { externalLinkTarget, isAppDocument } from './shell/navigation';
 import { briefingPdfSaver } from './shell/briefing-pdf';
 import { createNotifier } from './shell/notifier';
 import type { DiaryService, OpenDiary } from './shell/service-port';
-import { mainWindowOptions } from './shell/window-options';
+import { webContentsGuard, type WebContentsGuard } from './shell/web-contents-guard';
+import { mainWindowOptions, printWindowOptions } from './shell/window-options';
 import { registerIpc } from './transport/ipc';
 
 /** How often the running app checks whether today's automatic backup exists. */
@@ -96,10 +100,7 @@ function electronDialogs(window: () => BrowserWindow | null): FileDialogs {
  * runs no scripts and has no preload, so the page can reach nothing.
  */
 async function renderHtmlToPdf(html: string): Promise<Uint8Array> {
-  const printer = new BrowserWindow({
-    show: false,
-    webPreferences: { sandbox: true, contextIsolation: true, nodeIntegration: false, javascript: false },
-  });
+  const printer = new BrowserWindow(printWindowOptions());
   try {
     await printer.loadURL(`data:text/html;charset=utf-8,${encodeURIComponent(html)}`);
     return await printer.webContents.printToPDF({ pageSize: 'A4', printBackground: true });
@@ -108,12 +109,36 @@ async function renderHtmlToPdf(html: string): Promise<Uint8Array> {
   }
 }
 
+/** Puts the app-wide rules (web-contents-guard.ts) on one web contents. */
+function guardWebContents(contents: WebContents, guard: WebContentsGuard): void {
+  contents.on('will-navigate', (event) => guard.willNavigate(event));
+  contents.on('will-redirect', (event) => guard.willRedirect(event));
+  contents.on('will-attach-webview', (event) => guard.willAttachWebview(event));
+  contents.setWindowOpenHandler((details) => guard.windowOpen(details));
+  // All of today's windows share the default session, where setting the same handlers again
+  // changes nothing; a window given its own session later is covered as well.
+  contents.session.setPermissionRequestHandler((source, permission, callback) => guard.permissionRequest(source, permission, callback));
+  contents.session.setPermissionCheckHandler(() => guard.permissionCheck());
+}
+
 /**
  * Starts the desktop app. Resolves true once the window, menu, tray and nudges are up;
  * false when another Forelog already runs (it is focused instead) or the diary could not
  * be opened (the user is told why, and the app quits).
  */
 export async function startShell(deps: ShellDeps): Promise<boolean> {
+  // These three must happen before the app is ready (Electron refuses them afterwards):
+  // every renderer in Chromium's sandbox, whatever a window's options say; our scheme's
+  // privileges; and the guard, in place before the first web contents exists.
+  app.enableSandbox();
+  protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: APP_SCHEME_PRIVILEGES }]);
+  const guard = webContentsGuard((url) => {
+    shell.openExternal(url).catch((error: unknown) => {
+      dialog.showErrorBox('Could not open the link', `${reason(error)}\nCopy the address into your browser instead: ${url}`);
+    });
+  });
+  app.on('web-contents-created', (_event, contents) => guardWebContents(contents, guard));
+
   // A fixed folder name, so the packaged app, `electron .` and the command line (paths.ts)
   // share one diary; set before the lock, which lives in this folder.
   app.setPath('userData', path.join(app.getPath('appData'), APP_NAME));
@@ -142,6 +167,7 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
   await app.whenReady();
 
   const locations = shellLocations(app.getAppPath());
+  protocol.handle(APP_SCHEME, rendererProtocolHandler(locations.rendererDir));
   let diary: DiaryService;
   try {
     const dbPath = dbPathFromArgs(deps.argv, deps.cwd) ?? path.join(app.getPath('userData'), DIARY_FILE_NAME);
@@ -157,18 +183,16 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
     return false;
   }
 
-  const webSession = session.defaultSession;
-  webSession.webRequest.onHeadersReceived((details, callback) => {
+  // Our scheme's answers carry the policy already; this puts it on any other response a page
+  // of this session might receive, so no response arrives without it.
+  session.defaultSession.webRequest.onHeadersReceived((details, callback) => {
     callback({ responseHeaders: withContentSecurityPolicy(details.responseHeaders) });
   });
-  // The diary needs no camera, location, notifications-from-the-page or anything else.
-  webSession.setPermissionRequestHandler((_contents, _permission, callback) => callback(false));
-  webSession.setPermissionCheckHandler(() => false);
 
   registerIpc(
     ipcMain,
     (operation, request) => diary.dispatch(operation, request),
-    (frameUrl) => isAppDocument(frameUrl, locations.indexUrl),
+    (frameUrl) => isAppDocument(frameUrl),
     briefingPdfSaver({
       dispatch: (operation, request) => diary.dispatch(operation, request),
       chooseSavePath: (defaultName) =>
@@ -178,27 +202,10 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
     }),
   );
 
-  const openOutside = (url: string) => {
-    const target = externalLinkTarget(url);
-    if (target === null) return;
-    shell.openExternal(target).catch((error: unknown) => {
-      dialog.showErrorBox('Could not open the link', `${reason(error)}\nCopy the address into your browser instead: ${target}`);
-    });
-  };
-
   const window = new BrowserWindow(
     mainWindowOptions({ preload: locations.preload, icon: locations.windowIcon, devTools: !app.isPackaged }),
   );
   win = window;
-  window.webContents.on('will-navigate', (event) => {
-    if (event.isSameDocument || isAppDocument(event.url, locations.indexUrl)) return;
-    event.preventDefault();
-    openOutside(event.url);
-  });
-  window.webContents.setWindowOpenHandler(({ url }) => {
-    openOutside(url);
-    return { action: 'deny' };
-  });
   window.on('close', (event) => {
     // Closing the window keeps Forelog running (tray, dock) so nudges still arrive; Quit ends it.
     if (quitting) return;
@@ -208,14 +215,21 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
   window.once('ready-to-show', () => window.show());
 
   const show = (route?: Route) => {
-    const load = route === undefined ? window.loadFile(locations.indexHtml) : window.loadFile(locations.indexHtml, { hash: route });
-    load.catch((error: unknown) => {
-      // A load cut short by the next one (two menu clicks in a row) is not a failure.
-      if ((error as { code?: unknown }).code === 'ERR_ABORTED') return;
+    const cannotShow = (detail: string) =>
       dialog.showErrorBox(
         'Forelog could not show its screens',
-        `${reason(error)}\nThe file ${locations.indexHtml} is missing or unreadable. Reinstall Forelog, or run "npm run build" in a checkout.`,
+        `${detail}\nThe file ${locations.indexHtml} is missing or unreadable. Reinstall Forelog, or run "npm run build" in a checkout.`,
       );
+    // Our scheme would answer a missing page with a 404 text, which is no load failure;
+    // checking first keeps the message that says what to do.
+    if (!fs.existsSync(locations.indexHtml)) {
+      cannotShow("Forelog's screens are not where they should be.");
+      return;
+    }
+    window.loadURL(appPageUrl(route)).catch((error: unknown) => {
+      // A load cut short by the next one (two menu clicks in a row) is not a failure.
+      if ((error as { code?: unknown }).code === 'ERR_ABORTED') return;
+      cannotShow(reason(error));
     });
   };
   const go = (route: Route) => {

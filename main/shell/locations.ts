@@ -5,7 +5,6 @@
  * source under tsx in tests.
  */
 import path from 'node:path';
-import { pathToFileURL } from 'node:url';
 
 /**
  * The application id: Windows needs it (setAppUserModelId) for notifications to show and
@@ -14,9 +13,9 @@ import { pathToFileURL } from 'node:url';
 export const APP_ID = 'app.forelog.desktop';
 
 export interface ShellLocations {
+  /** The built renderer, served to the window by app-protocol.ts and nothing beyond it. */
+  rendererDir: string;
   indexHtml: string;
-  /** The file: URL Chromium reports for the page, to recognise our own window. */
-  indexUrl: string;
   preload: string;
   windowIcon: string;
   trayIcon: string;
@@ -26,10 +25,10 @@ export interface ShellLocations {
 
 /** scripts/build-main.mjs writes dist/main/*.cjs and copies the icons to dist/main/assets. */
 export function shellLocations(appPath: string): ShellLocations {
-  const indexHtml = path.join(appPath, 'dist', 'renderer', 'index.html');
+  const rendererDir = path.join(appPath, 'dist', 'renderer');
   return {
-    indexHtml,
-    indexUrl: pathToFileURL(indexHtml).href,
+    rendererDir,
+    indexHtml: path.join(rendererDir, 'index.html'),
     preload: path.join(appPath, 'dist', 'main', 'preload.cjs'),
     windowIcon: path.join(appPath, 'dist', 'main', 'assets', 'icon.png'),
     trayIcon: path.join(appPath, 'dist', 'main', 'assets', 'tray.png'),

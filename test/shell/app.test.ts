@@ -1,25 +1,36 @@
 /**
  * The Electron shell's wiring, driven through the fake electron module. What is expected
  * comes from the Electron security checklist (electronjs.org/docs/latest/tutorial/security:
- * context isolation, sandbox, no Node integration, CSP, navigation limits, window.open
- * denied, permission requests denied, IPC sender validation), Electron's API docs
- * (app.requestSingleInstanceLock / 'second-instance', Notification 'click',
- * Tray.setToolTip, app.setBadgeCount) and the product brief (menu routes, tray wording).
+ * context isolation, sandbox for every renderer, no Node integration, CSP, a custom protocol
+ * instead of file://, navigation limits on every web contents, window.open denied,
+ * permission requests denied, IPC sender validation), Electron's API docs (app.enableSandbox
+ * and protocol.registerSchemesAsPrivileged before ready, protocol.handle after;
+ * app 'web-contents-created'; app.requestSingleInstanceLock / 'second-instance',
+ * Notification 'click', Tray.setToolTip, app.setBadgeCount) and the product brief (menu
+ * routes, tray wording).
  */
 import { beforeEach, test } from 'node:test';
 import assert from 'node:assert/strict';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { mkdtemp, readFile, readdir, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { app, fake, fakeEvent, powerMonitor, type FakeMenuItem } from './fake-electron';
+import { app, BrowserWindow, fake, fakeEvent, powerMonitor, type FakeBrowserWindow, type FakeMenuItem } from './fake-electron';
 import { startShell } from '../../main/app';
 import type { DiaryService, NudgeNotifier } from '../../main/shell/service-port';
 import { APP_ID } from '../../main/shell/locations';
 import { CONTENT_SECURITY_POLICY } from '../../main/shell/csp';
+import { APP_INDEX_URL } from '../../main/shell/app-origin';
 import { IPC_BRIEFING_PDF_CHANNEL, IPC_CALL_CHANNEL, IPC_OPEN_QUESTION_CHANNEL, type Envelope } from '../../shared/bridge';
 
-const APP_PATH = '/opt/forelog-test/app';
-const INDEX_HTML = path.join(APP_PATH, 'dist', 'renderer', 'index.html');
+/** An installed app's folder: the built page and one asset, and a file beside them that must stay private. */
+const APP_PATH = mkdtempSync(path.join(tmpdir(), 'forelog-app-'));
+const RENDERER_DIR = path.join(APP_PATH, 'dist', 'renderer');
+const INDEX_HTML = path.join(RENDERER_DIR, 'index.html');
+mkdirSync(path.join(RENDERER_DIR, 'assets'), { recursive: true });
+writeFileSync(INDEX_HTML, '<!doctype html><title>Forelog</title>');
+writeFileSync(path.join(RENDERER_DIR, 'assets', 'index.js'), 'void 0;');
+writeFileSync(path.join(APP_PATH, 'package.json'), '{"name":"forelog"}');
 
 function fakeDiary() {
   const record = {
@@ -109,21 +120,38 @@ async function until(done: () => boolean): Promise<void> {
   assert.ok(done(), 'the expected effect happened');
 }
 
-beforeEach(() => fake.reset());
+beforeEach(() => {
+  fake.reset();
+  fake.appPath = APP_PATH;
+});
 
-test('the window gets the security webPreferences and our preload, and loads the built page', async () => {
+/** The web-preferences every window must have (Electron security checklist items 2–4 and 6). */
+function assertLockedDown(window: FakeBrowserWindow, label: string): void {
+  const prefs = window.options.webPreferences;
+  assert.equal(prefs.sandbox, true, `${label}: sandbox`);
+  assert.equal(prefs.contextIsolation, true, `${label}: contextIsolation`);
+  assert.equal(prefs.nodeIntegration, false, `${label}: nodeIntegration`);
+  assert.equal(prefs.webSecurity, true, `${label}: webSecurity`);
+  assert.equal(prefs.webviewTag, false, `${label}: webviewTag`);
+  assert.equal(prefs.allowRunningInsecureContent, false, `${label}: allowRunningInsecureContent`);
+}
+
+/** Emits a navigation event on a web contents as Electron does; true when the handler prevented it. */
+function navigate(window: FakeBrowserWindow, event: 'will-navigate' | 'will-redirect', url: string): boolean {
+  const details = fakeEvent({ url, isSameDocument: false, isMainFrame: true });
+  window.webContents.emit(event, details, url);
+  return details.defaultPrevented;
+}
+
+test('the window gets the security webPreferences and our preload, and loads the page from our scheme', async () => {
   const { started, win } = await start();
   assert.equal(started, true);
   assert.equal(fake.windows.length, 1);
+  assertLockedDown(win!, 'main window');
   const prefs = win!.options.webPreferences;
-  assert.equal(prefs.contextIsolation, true);
-  assert.equal(prefs.sandbox, true);
-  assert.equal(prefs.nodeIntegration, false);
-  assert.equal(prefs.webSecurity, true);
-  assert.equal(prefs.webviewTag, false);
   assert.equal(prefs.preload, path.join(APP_PATH, 'dist', 'main', 'preload.cjs'));
   assert.equal(prefs.devTools, true, 'a development run keeps the developer tools');
-  assert.deepEqual(win!.loads, [{ file: INDEX_HTML, options: undefined }]);
+  assert.deepEqual(win!.loads, ['forelog-app://app/index.html']);
   // Shown only when ready, so no blank frame flashes first.
   assert.equal(win!.visible, false);
   win!.emit('ready-to-show');
@@ -168,12 +196,41 @@ test('a packaged build has no developer tools in the window or the menu', async 
   assert.ok(!roles.includes('toggleDevTools') && !roles.includes('reload'));
 });
 
+test('the sandbox, our scheme and the guard are set up before the app is ready; the scheme is served after', async () => {
+  await start();
+  assert.deepEqual(fake.timeline, ['enableSandbox', 'registerSchemesAsPrivileged', 'ready', 'protocol.handle forelog-app']);
+  assert.deepEqual(fake.privilegedSchemes, [{ scheme: 'forelog-app', privileges: { standard: true, secure: true } }]);
+  assert.equal(app.listenerCount('web-contents-created'), 1);
+});
+
+test('a second instance also enables the sandbox before it quits', async () => {
+  fake.singleInstanceLock = false;
+  await start();
+  assert.deepEqual(fake.timeline, ['enableSandbox', 'registerSchemesAsPrivileged']);
+});
+
+test('our scheme serves the built page with the policy, and nothing outside dist/renderer', async () => {
+  await start();
+  const serve = fake.protocolHandlers.get('forelog-app')!;
+  const page = await serve(new Request(APP_INDEX_URL));
+  assert.equal(page.status, 200);
+  assert.equal(await page.text(), '<!doctype html><title>Forelog</title>');
+  assert.equal(page.headers.get('content-security-policy'), CONTENT_SECURITY_POLICY);
+  assert.equal((await serve(new Request('forelog-app://app/assets/index.js'))).headers.get('content-type'), 'text/javascript; charset=utf-8');
+  for (const url of ['forelog-app://app/..%2f..%2fpackage.json', 'forelog-app://app/%2F' + encodeURIComponent(path.join(APP_PATH, 'package.json').slice(1))]) {
+    const refused = await serve(new Request(url));
+    assert.equal(refused.status, 403, url);
+    assert.equal(refused.headers.get('content-security-policy'), CONTENT_SECURITY_POLICY, url);
+  }
+  assert.equal((await serve(new Request('forelog-app://app/nothing-here.js'))).status, 404);
+});
+
 test('every response gets our Content-Security-Policy header, replacing any other', async () => {
   await start();
   assert.ok(fake.headersListener, 'a header hook is installed');
   let answer: { responseHeaders?: Record<string, string[] | string> } | undefined;
   fake.headersListener!(
-    { url: `file://${INDEX_HTML}`, responseHeaders: { 'content-type': ['text/html'], 'content-security-policy': ["default-src *"] } },
+    { url: 'https://example.org/any-other-response', responseHeaders: { 'content-type': ['text/html'], 'content-security-policy': ["default-src *"] } },
     (response: typeof answer) => {
       answer = response;
     },
@@ -189,26 +246,51 @@ test('permission requests are denied and permission checks answer no', async () 
   fake.permissionRequestHandler!({}, 'media', (granted: boolean) => answers.push(granted), {});
   fake.permissionRequestHandler!({}, 'notifications', (granted: boolean) => answers.push(granted), {});
   assert.deepEqual(answers, [false, false]);
-  assert.equal(fake.permissionCheckHandler!({}, 'geolocation', 'file://', {}), false);
+  assert.equal(fake.permissionCheckHandler!({}, 'geolocation', 'forelog-app://app', {}), false);
 });
 
-test('navigation away from our page is prevented; only https links go to the system browser', async () => {
+test('navigation away from our origin is prevented; only https links go to the system browser', async () => {
   const { win } = await start();
-  const navigate = (url: string) => {
-    const event = fakeEvent({ url, isSameDocument: false, isMainFrame: true });
-    win!.webContents.emit('will-navigate', event, url);
-    return event.defaultPrevented;
-  };
-  assert.equal(navigate('https://example.org/report'), true);
-  assert.equal(navigate('http://example.org/'), true);
-  assert.equal(navigate('file:///etc/passwd'), true);
-  assert.equal(navigate('javascript:alert(1)'), true);
-  assert.equal(navigate(`file://${INDEX_HTML}#/scorecard`), false, 'our own page may reload');
+  assert.equal(navigate(win!, 'will-navigate', 'https://example.org/report'), true);
+  assert.equal(navigate(win!, 'will-navigate', 'http://example.org/'), true);
+  assert.equal(navigate(win!, 'will-navigate', 'file:///etc/passwd'), true);
+  assert.equal(navigate(win!, 'will-navigate', `file://${INDEX_HTML}`), true, 'not even our own files over file://');
+  assert.equal(navigate(win!, 'will-navigate', 'javascript:alert(1)'), true);
+  assert.equal(navigate(win!, 'will-navigate', `${APP_INDEX_URL}#/scorecard`), false, 'our own page may reload');
+  assert.equal(navigate(win!, 'will-redirect', 'https://example.org/elsewhere'), true);
   assert.deepEqual(fake.openedExternally, ['https://example.org/report']);
+});
+
+test('a web contents created after start (the hidden PDF window, any later one) gets the same guard', async () => {
+  const dir = await mkdtemp(path.join(tmpdir(), 'forelog-shell-'));
+  await start();
+  fake.savePath = path.join(dir, 'briefing.pdf');
+  const savePdf = fake.handlers.get(IPC_BRIEFING_PDF_CHANNEL)! as (e: unknown, req: unknown) => Promise<Envelope>;
+  const saved = await savePdf({ senderFrame: { url: APP_INDEX_URL } }, { tag: 'renewals' });
+  assert.deepEqual(saved, { ok: true, value: { file: fake.savePath } });
+  assert.equal(fake.windows.length, 2);
+  const printer = fake.windows[1]!;
+  assertLockedDown(printer, 'PDF window');
+  assert.equal(printer.options.webPreferences.javascript, false);
+  assert.equal(printer.options.webPreferences.preload, undefined);
+  assert.match(printer.loads[0]!, /^data:text\/html/);
+  assert.equal(printer.isDestroyed(), true);
+
+  const later = new BrowserWindow({ webPreferences: {} });
+  for (const contents of [printer, later]) {
+    assert.equal(navigate(contents, 'will-navigate', 'https://example.org/phish'), true);
+    assert.equal(navigate(contents, 'will-redirect', 'http://example.org/'), true);
+    assert.deepEqual(contents.webContents.windowOpenHandler!({ url: 'https://example.org/popup' }), { action: 'deny' });
+    const webview = fakeEvent({});
+    contents.webContents.emit('will-attach-webview', webview, {}, { src: 'https://example.org/' });
+    assert.equal(webview.defaultPrevented, true);
+  }
+  assert.deepEqual(fake.openedExternally, ['https://example.org/phish', 'https://example.org/popup', 'https://example.org/phish', 'https://example.org/popup']);
 });
 
 test('window.open is always denied; an https target opens in the system browser instead', async () => {
   const { win } = await start();
+  assert.deepEqual(win!.webContents.windowOpenHandler!({ url: APP_INDEX_URL }), { action: 'deny' });
   const handler = win!.webContents.windowOpenHandler!;
   assert.deepEqual(handler({ url: 'https://example.org/a' }), { action: 'deny' });
   assert.deepEqual(handler({ url: 'file:///tmp/x.html' }), { action: 'deny' });
@@ -221,13 +303,15 @@ test('IPC: one handler, our page reaches dispatch, other senders and unknown ope
   assert.deepEqual([...fake.handlers.keys()].sort(), [IPC_BRIEFING_PDF_CHANNEL, IPC_CALL_CHANNEL]);
   const handler = fake.handlers.get(IPC_CALL_CHANNEL)! as (e: unknown, op: unknown, req: unknown) => Promise<Envelope>;
 
-  const ok = await handler({ senderFrame: { url: `file://${INDEX_HTML}#/questions` } }, 'listQuestions', { tag: 'renewals' });
+  const ok = await handler({ senderFrame: { url: `${APP_INDEX_URL}#/questions` } }, 'listQuestions', { tag: 'renewals' });
   assert.deepEqual(ok, { ok: true, value: { operation: 'listQuestions' } });
 
-  const stranger = await handler({ senderFrame: { url: `file://${INDEX_HTML}.evil/index.html` } }, 'deleteQuestion', { id: 'q1' });
-  assert.ok(!stranger.ok && /did not come from Forelog's own window/.test(stranger.error.message));
+  for (const url of [`${APP_INDEX_URL}.evil/index.html`, `file://${INDEX_HTML}`, 'about:srcdoc']) {
+    const stranger = await handler({ senderFrame: { url } }, 'deleteQuestion', { id: 'q1' });
+    assert.ok(!stranger.ok && /did not come from Forelog's own window/.test(stranger.error.message), url);
+  }
 
-  const unknown = await handler({ senderFrame: { url: `file://${INDEX_HTML}` } }, 'formatDisk', {});
+  const unknown = await handler({ senderFrame: { url: APP_INDEX_URL } }, 'formatDisk', {});
   assert.ok(!unknown.ok && unknown.error.code === 'invalid');
 
   assert.deepEqual(record.dispatched, [{ operation: 'listQuestions', request: { tag: 'renewals' } }]);
@@ -270,11 +354,11 @@ test('menu: accelerators for new question, the four screens and quit, and the ro
     const item = menuItem(template, 'View', label);
     assert.equal(item.accelerator, accelerator);
     item.click!();
-    assert.deepEqual(win!.loads.at(-1), { file: INDEX_HTML, options: { hash } });
+    assert.equal(win!.loads.at(-1), `forelog-app://app/index.html#${hash}`);
   }
   win!.calls.length = 0;
   menuItem(template, 'File', 'New question…').click!();
-  assert.deepEqual(win!.loads.at(-1), { file: INDEX_HTML, options: { hash: '/questions?new=1' } });
+  assert.equal(win!.loads.at(-1), 'forelog-app://app/index.html#/questions?new=1');
   assert.deepEqual(win!.calls, ['show', 'focus'], 'the window comes forward for the new question');
   assert.ok(template.some((item) => item.role === 'editMenu'), 'Edit roles make copy/paste work');
   menuItem(template, 'File', 'Quit').click!();
@@ -314,7 +398,7 @@ test('clicking a summary notification (no question) opens the Desk', async () =>
   record.notifier!.notify({ title: '3 nudges', body: '3 nudges while you were away', question_id: null });
   fake.notifications[0]!.emit('click', fakeEvent({}));
   assert.deepEqual(win!.webContents.sent, []);
-  assert.deepEqual(win!.loads.at(-1), { file: INDEX_HTML, options: { hash: '/' } });
+  assert.equal(win!.loads.at(-1), 'forelog-app://app/index.html#/');
 });
 
 test('the due count shows in the tray tooltip and the app badge', async () => {
@@ -402,14 +486,23 @@ test('File > Back up asks for a file and has the service write the copy; Cancel 
   assert.match(fake.fileDialogs[1]!.defaultPath!, /forelog-backup-\d{4}-\d{2}-\d{2}\.sqlite$/);
 });
 
+test('missing screens are reported with what to do, and nothing is loaded', async () => {
+  fake.appPath = await mkdtemp(path.join(tmpdir(), 'forelog-empty-app-'));
+  const { win } = await start();
+  assert.equal(fake.errorBoxes[0]!.title, 'Forelog could not show its screens');
+  assert.match(fake.errorBoxes[0]!.content, /dist[\\/]renderer[\\/]index\.html[\s\S]*npm run build/);
+  assert.deepEqual(win!.loads, []);
+});
+
 test('a failed page load is reported with what to do, but a load cut short by the next is not', async () => {
-  fake.loadFileError = Object.assign(new Error('ERR_FILE_NOT_FOUND (-6) loading file'), { code: 'ERR_FILE_NOT_FOUND' });
+  fake.loadError = Object.assign(new Error('ERR_FAILED (-2) loading forelog-app://app/index.html'), { code: 'ERR_FAILED' });
   await start();
   await until(() => fake.errorBoxes.length === 1);
   assert.match(fake.errorBoxes[0]!.content, /npm run build/);
 
   fake.reset();
-  fake.loadFileError = Object.assign(new Error('ERR_ABORTED (-3) loading file'), { code: 'ERR_ABORTED' });
+  fake.appPath = APP_PATH;
+  fake.loadError = Object.assign(new Error('ERR_ABORTED (-3) loading forelog-app://app/index.html'), { code: 'ERR_ABORTED' });
   await start();
   await new Promise((resolve) => setTimeout(resolve, 20));
   assert.deepEqual(fake.errorBoxes, []);

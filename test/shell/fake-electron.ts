@@ -2,8 +2,13 @@
  * A small stand-in for the `electron` module, for tests under plain Node (the Electron
  * runtime cannot be installed here). It implements just what the shell calls and records
  * it in `fake`, so tests can assert on options, registrations and messages, and trigger
- * events (app, window, notification, tray, power) themselves.
+ * events (app, window, web contents, notification, tray, power) themselves.
  * register-fake-electron.mjs maps the bare specifier 'electron' to this file.
+ *
+ * Where Electron has an ordering rule, the fake enforces it the same way (Electron's API
+ * docs): app.enableSandbox and protocol.registerSchemesAsPrivileged throw once the app is
+ * ready, protocol.handle throws before; every new window's web contents is announced with
+ * app 'web-contents-created'. `fake.timeline` records the order these happened in.
  */
 import { EventEmitter } from 'node:events';
 
@@ -25,6 +30,12 @@ export class FakeWebContents extends EventEmitter {
   readonly sent: { channel: string; args: unknown[] }[] = [];
   windowOpenHandler: ((details: { url: string }) => { action: string }) | null = null;
   reloads = 0;
+  /** Every window uses the default session, as in the app. */
+  readonly session = session.defaultSession;
+  printToPDF(options: Record<string, unknown>): Promise<Buffer> {
+    fake.printedToPdf.push(options);
+    return Promise.resolve(Buffer.from('%PDF-1.7 fake'));
+  }
   send(channel: string, ...args: unknown[]): void {
     this.sent.push({ channel, args });
   }
@@ -38,20 +49,25 @@ export class FakeWebContents extends EventEmitter {
 
 export class FakeBrowserWindow extends EventEmitter {
   readonly webContents = new FakeWebContents();
-  readonly loads: { file: string; options: { hash?: string } | undefined }[] = [];
+  readonly loads: string[] = [];
   readonly calls: string[] = [];
   visible = false;
   minimized = false;
+  destroyed = false;
   constructor(readonly options: Record<string, any>) {
     super();
     fake.windows.push(this);
+    app.emit('web-contents-created', fakeEvent({}), this.webContents);
   }
-  loadFile(file: string, options?: { hash?: string }): Promise<void> {
-    this.loads.push({ file, options });
-    return fake.loadFileError === null ? Promise.resolve() : Promise.reject(fake.loadFileError);
+  loadURL(url: string): Promise<void> {
+    this.loads.push(url);
+    return fake.loadError === null ? Promise.resolve() : Promise.reject(fake.loadError);
   }
   isDestroyed(): boolean {
-    return false;
+    return this.destroyed;
+  }
+  destroy(): void {
+    this.destroyed = true;
   }
   isMinimized(): boolean {
     return this.minimized;
@@ -125,7 +141,19 @@ export interface FileDialogOptions {
   filters?: { name: string; extensions: string[] }[];
 }
 
+export interface FakeCustomScheme {
+  scheme: string;
+  privileges?: Record<string, boolean>;
+}
+
+type ProtocolHandler = (request: Request) => Response | Promise<Response>;
+
 interface FakeState {
+  ready: boolean;
+  /** 'enableSandbox', 'registerSchemesAsPrivileged', 'ready', 'protocol.handle <scheme>' in the order they happened. */
+  timeline: string[];
+  privilegedSchemes: FakeCustomScheme[] | null;
+  protocolHandlers: Map<string, ProtocolHandler>;
   singleInstanceLock: boolean;
   isPackaged: boolean;
   appPath: string;
@@ -135,7 +163,9 @@ interface FakeState {
   appUserModelIds: string[];
   badgeCounts: number[];
   windows: FakeBrowserWindow[];
-  loadFileError: (Error & { code?: string }) | null;
+  /** What the next loadURL rejects with, or null for success. */
+  loadError: (Error & { code?: string }) | null;
+  printedToPdf: Record<string, unknown>[];
   handlers: Map<string, Handler>;
   applicationMenu: FakeMenu | null;
   trays: FakeTray[];
@@ -159,6 +189,10 @@ interface FakeState {
 
 function initialState(): Omit<FakeState, 'reset'> {
   return {
+    ready: false,
+    timeline: [],
+    privilegedSchemes: null,
+    protocolHandlers: new Map(),
     singleInstanceLock: true,
     isPackaged: false,
     appPath: '/opt/forelog-test/app',
@@ -168,7 +202,8 @@ function initialState(): Omit<FakeState, 'reset'> {
     appUserModelIds: [],
     badgeCounts: [],
     windows: [],
-    loadFileError: null,
+    loadError: null,
+    printedToPdf: [],
     handlers: new Map(),
     applicationMenu: null,
     trays: [],
@@ -224,7 +259,15 @@ class FakeApp extends EventEmitter {
     return fake.singleInstanceLock;
   }
   whenReady(): Promise<void> {
-    return Promise.resolve();
+    return Promise.resolve().then(() => {
+      if (fake.ready) return;
+      fake.ready = true;
+      fake.timeline.push('ready');
+    });
+  }
+  enableSandbox(): void {
+    if (fake.ready) throw new Error('app.enableSandbox() can only be called before app is ready');
+    fake.timeline.push('enableSandbox');
   }
   quit(): void {
     fake.quitCalls += 1;
@@ -263,6 +306,21 @@ export const Menu = {
 export const nativeImage = {
   createFromPath(path: string): { path: string } {
     return { path };
+  },
+};
+
+export const protocol = {
+  registerSchemesAsPrivileged(schemes: FakeCustomScheme[]): void {
+    if (fake.ready) throw new Error('protocol.registerSchemesAsPrivileged should be called before app is ready');
+    if (fake.privilegedSchemes !== null) throw new Error('fake electron: registerSchemesAsPrivileged can be called only once');
+    fake.privilegedSchemes = schemes;
+    fake.timeline.push('registerSchemesAsPrivileged');
+  },
+  handle(scheme: string, handler: ProtocolHandler): void {
+    if (!fake.ready) throw new Error('fake electron: protocol.handle can only be used after the app is ready');
+    if (fake.protocolHandlers.has(scheme)) throw new Error(`fake electron: the scheme ${scheme} is already handled`);
+    fake.protocolHandlers.set(scheme, handler);
+    fake.timeline.push(`protocol.handle ${scheme}`);
   },
 };
 

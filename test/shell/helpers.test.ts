@@ -1,7 +1,7 @@
 /**
  * The shell's pure helpers (main/shell/*). Sources beside each group: W3C CSP Level 3
- * (header syntax, directive names), WHATWG URL Standard (parsing, file: URLs), Node's
- * url.pathToFileURL, Electron docs (Notification 'click'/'close'/'failed').
+ * (header syntax, directive names), Electron docs (Notification 'click'/'close'/'failed').
+ * The app's origin, its protocol and the web-contents guard have their own test files.
  */
 import { BRIEFING_STYLE_HASH } from '../../main/service/briefing-style';
 import { test } from 'node:test';
@@ -9,11 +9,9 @@ import assert from 'node:assert/strict';
 import { mkdtemp, readdir, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { CONTENT_SECURITY_POLICY, withContentSecurityPolicy } from '../../main/shell/csp';
 import { diaryFileActions, localDateStamp, type FileDialogs } from '../../main/shell/diary-files';
 import { dbPathFromArgs, shellLocations } from '../../main/shell/locations';
-import { externalLinkTarget, isAppDocument } from '../../main/shell/navigation';
 import { createNotifier, type NotificationLike } from '../../main/shell/notifier';
 import type { DiaryService } from '../../main/shell/service-port';
 
@@ -50,34 +48,10 @@ test('CSP header: replaces any spelling of an existing policy header and keeps t
   assert.deepEqual(withContentSecurityPolicy(undefined), { 'Content-Security-Policy': [CONTENT_SECURITY_POLICY] });
 });
 
-test('isAppDocument: our page with any hash or query, nothing that merely starts like it', () => {
-  const dir = path.join(tmpdir(), 'Forelog Test', 'dist', 'renderer');
-  const index = pathToFileURL(path.join(dir, 'index.html')).href;
-  assert.equal(isAppDocument(index, index), true);
-  assert.equal(isAppDocument(`${index}#/questions?new=1`, index), true);
-  assert.equal(isAppDocument(`${index}?token=x`, index), true);
-  // Chromium and Node may percent-encode differently; the URL parser keeps %46 as is
-  // (WHATWG URL, path percent-encode set), so only comparing decoded paths matches it.
-  assert.equal(isAppDocument(index.replace('Forelog', '%46orelog'), index), true);
-  assert.equal(isAppDocument(index.replace('Forelog', '%46orelog').replace('index', 'other'), index), false);
-  assert.equal(isAppDocument(`${index}.evil`, index), false);
-  assert.equal(isAppDocument(pathToFileURL(path.join(dir, 'other.html')).href, index), false);
-  assert.equal(isAppDocument(index.replace('file:', 'https:'), index), false);
-  assert.equal(isAppDocument('not a url', index), false);
-  assert.equal(isAppDocument(index.replace('index.html', '%E0%A4%A.html'), index), false);
-});
-
-test('externalLinkTarget: https only', () => {
-  assert.equal(externalLinkTarget('https://example.org/a?b=c'), 'https://example.org/a?b=c');
-  for (const url of ['http://example.org/', 'file:///etc/passwd', 'javascript:alert(1)', 'mailto:a@b.c', 'smb://host/share', '::']) {
-    assert.equal(externalLinkTarget(url), null, url);
-  }
-});
-
 test('shellLocations: everything the window needs sits under the app path', () => {
   const at = shellLocations('/opt/Forelog/resources/app.asar');
+  assert.equal(at.rendererDir, '/opt/Forelog/resources/app.asar/dist/renderer');
   assert.equal(at.indexHtml, '/opt/Forelog/resources/app.asar/dist/renderer/index.html');
-  assert.equal(at.indexUrl, 'file:///opt/Forelog/resources/app.asar/dist/renderer/index.html');
   assert.equal(at.preload, '/opt/Forelog/resources/app.asar/dist/main/preload.cjs');
   assert.equal(at.trayIcon, '/opt/Forelog/resources/app.asar/dist/main/assets/tray.png');
 });

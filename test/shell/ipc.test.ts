@@ -8,8 +8,9 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { registerIpc, UNTRUSTED_SENDER_MESSAGE, type Dispatch } from '../../main/transport/ipc';
 import { IPC_CALL_CHANNEL, type Envelope } from '../../shared/bridge';
+import { APP_INDEX_URL, isAppDocument } from '../../main/shell/app-origin';
 
-const OUR_PAGE = 'file:///opt/forelog/resources/app.asar/dist/renderer/index.html';
+const OUR_PAGE = APP_INDEX_URL;
 
 // The event is a stand-in for IpcMainInvokeEvent; only senderFrame is read.
 type Handler = (event: any, operation: unknown, request: unknown) => Promise<Envelope>;
@@ -29,7 +30,7 @@ function setUp(dispatch?: Dispatch) {
         dispatched.push({ operation, request });
         return { ok: true, value: { answered: operation } };
       }),
-    (url) => url.startsWith(OUR_PAGE),
+    isAppDocument,
   );
   assert.deepEqual([...registered.keys()], [IPC_CALL_CHANNEL]);
   return { handler: registered.get(IPC_CALL_CHANNEL)!, dispatched };
@@ -46,7 +47,7 @@ test('a call from our page reaches dispatch and its envelope comes back unchange
 
 test('a call from any other frame, or from a frame that has gone, is refused before dispatch', async () => {
   const { handler, dispatched } = setUp();
-  for (const sender of [from('https://example.org/'), from('file:///tmp/evil.html'), from(null), {}]) {
+  for (const sender of [from('https://example.org/'), from('file:///tmp/evil.html'), from('forelog-app://app/other.html'), from(null), {}]) {
     const answer = await handler(sender, 'deleteQuestion', { id: 'q1' });
     assert.deepEqual(answer, { ok: false, error: { code: 'invalid', message: UNTRUSTED_SENDER_MESSAGE, fields: [] } });
   }
