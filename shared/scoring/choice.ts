@@ -88,7 +88,8 @@ export function choiceLogScore(p: ArrayLike<number>, j: number): number {
 /** `choiceLogScore` of the vector at `off`, unchecked. */
 export function choiceLogScoreAt(p: ArrayLike<number>, off: number, j: number): number {
   const pj = p[off + j]!;
-  return -Math.log(pj < LOG_CLIP_LOW ? LOG_CLIP_LOW : pj);
+  // 0 − ln, not −ln: a certain, correct forecast scores +0 rather than −0.
+  return 0 - Math.log(pj < LOG_CLIP_LOW ? LOG_CLIP_LOW : pj);
 }
 
 /**

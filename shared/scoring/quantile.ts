@@ -37,8 +37,12 @@ export function quantileScore(q: number, y: number, tau: number): number {
   return quantileScoreUnchecked(q, y, tau);
 }
 
+/**
+ * The same product split by the indicator, so each branch is a non-negative product and
+ * y = q gives +0 rather than −0; bit for bit the formula otherwise.
+ */
 function quantileScoreUnchecked(q: number, y: number, tau: number): number {
-  return 2 * ((y < q ? 1 : 0) - tau) * (q - y);
+  return y < q ? 2 * (1 - tau) * (q - y) : 2 * tau * (y - q);
 }
 
 /**
