@@ -151,7 +151,7 @@ function sortEntries(s: CountingEntries, n: number): void {
  *
  * @returns the number of counting entries (also left in `into.count`)
  */
-export function gatherCounting(
+function gatherCounting(
   entries: readonly { at: number; seq?: number }[],
   end: number,
   into: CountingEntries,
@@ -309,8 +309,8 @@ export function prepareScoredSet(questions: readonly ScoringQuestion[], options:
     scoredQuestions.push(q);
     T[k] = end;
     o[k] = outcome;
-    p[k] = ownP[count - 1]!;
-    p1[k] = ownP[0]!;
+    p[k] = fs[own.final]!.p;
+    p1[k] = fs[own.first]!.p;
     timeAvg[k] = timeAverageUnchecked(own.at, ownP, count, outcome, t1, end);
 
     const rs = q.references;
