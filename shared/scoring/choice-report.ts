@@ -26,44 +26,36 @@ import type {
   ScoringChoiceQuestion,
   TopChoiceSummary,
 } from './types';
-import { assertFinite } from './validate';
-
-function describe(q: ScoringChoiceQuestion, i: number): string {
-  return `question ${i} (${JSON.stringify(q.id)})`;
-}
-
-function fail(q: ScoringChoiceQuestion, i: number, field: string, problem: string): never {
-  throw new RangeError(`${describe(q, i)}: ${field} ${problem}.`);
-}
+import { assertFinite, describeQuestion, failQuestion } from './validate';
 
 /** Checks one choice question's fields; the messages name the question and the field. */
 function validateChoiceQuestion(q: ScoringChoiceQuestion, i: number): void {
-  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describe(q, i)}: closes_at`);
+  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describeQuestion(q, i)}: closes_at`);
   const K = q.option_count;
   const countProblem = optionCountProblem(K);
-  if (countProblem !== null) fail(q, i, 'option_count', countProblem);
-  if (typeof q.ordered !== 'boolean') fail(q, i, 'ordered', `is ${String(q.ordered)}; give true or false`);
+  if (countProblem !== null) failQuestion(q, i, 'option_count', countProblem);
+  if (typeof q.ordered !== 'boolean') failQuestion(q, i, 'ordered', `is ${String(q.ordered)}; give true or false`);
   if (q.option_base_rates !== null) {
     const problem = choiceVectorProblem(q.option_base_rates, K);
-    if (problem !== null) fail(q, i, 'option_base_rates', problem);
+    if (problem !== null) failQuestion(q, i, 'option_base_rates', problem);
   }
   const r = q.resolution;
   if (r !== null) {
     if (r.outcome === 'option') {
       const problem = optionIndexProblem(r.option, K);
-      if (problem !== null) fail(q, i, 'resolution option', problem);
+      if (problem !== null) failQuestion(q, i, 'resolution option', problem);
     } else if (r.outcome !== 'void') {
-      fail(q, i, 'outcome', `is ${JSON.stringify((r as { outcome: unknown }).outcome)}; use "option" or "void"`);
+      failQuestion(q, i, 'outcome', `is ${JSON.stringify((r as { outcome: unknown }).outcome)}; use "option" or "void"`);
     }
-    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describe(q, i)}: resolution time`);
+    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describeQuestion(q, i)}: resolution time`);
   }
   const fs = q.forecasts;
   for (let j = 0; j < fs.length; j++) {
     const f = fs[j]!;
-    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describe(q, i)}: forecast ${j} time`);
-    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describe(q, i)}: forecast ${j} entry order (seq)`);
+    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describeQuestion(q, i)}: forecast ${j} time`);
+    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describeQuestion(q, i)}: forecast ${j} entry order (seq)`);
     const problem = choiceVectorProblem(f.probs, K);
-    if (problem !== null) fail(q, i, `forecast ${j} probs`, problem);
+    if (problem !== null) failQuestion(q, i, `forecast ${j} probs`, problem);
   }
 }
 

@@ -6,7 +6,7 @@
  * `forEachScored`, so the rules live here once.
  */
 import { timeAverageUnchecked } from './accuracy';
-import { assertFinite, assertPositive, assertProbability } from './validate';
+import { assertFinite, assertPositive, assertProbability, describeQuestion } from './validate';
 import type { ScoreFilter, ScoreOptions, ScoringQuestion } from './types';
 
 /**
@@ -230,41 +230,37 @@ function isProbability(p: number): boolean {
   return p >= 0 && p <= 1;
 }
 
-function describe(q: ScoringQuestion, i: number): string {
-  return `question ${i} (${JSON.stringify(q.id)})`;
-}
-
 /**
  * Checks one question's fields. The cheap tests run first and a message is built only
  * for a value that fails, because this runs over every forecast of the diary.
  */
 function validateQuestion(q: ScoringQuestion, i: number): void {
-  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describe(q, i)}: closes_at`);
+  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describeQuestion(q, i)}: closes_at`);
   if (q.resolution !== null) {
     const { outcome, at } = q.resolution;
     if (outcome !== 'yes' && outcome !== 'no' && outcome !== 'void') {
-      throw new RangeError(`${describe(q, i)}: outcome is ${JSON.stringify(outcome)}; use "yes", "no" or "void".`);
+      throw new RangeError(`${describeQuestion(q, i)}: outcome is ${JSON.stringify(outcome)}; use "yes", "no" or "void".`);
     }
-    if (!Number.isFinite(at)) assertFinite(at, `${describe(q, i)}: resolution time`);
+    if (!Number.isFinite(at)) assertFinite(at, `${describeQuestion(q, i)}: resolution time`);
   }
-  if (q.base_rate !== null && !isProbability(q.base_rate)) assertProbability(q.base_rate, `${describe(q, i)}: base rate`);
+  if (q.base_rate !== null && !isProbability(q.base_rate)) assertProbability(q.base_rate, `${describeQuestion(q, i)}: base rate`);
   if (q.costs !== null) {
     const { false_alarm, miss } = q.costs;
-    if (!(false_alarm > 0 && Number.isFinite(false_alarm))) assertPositive(false_alarm, `${describe(q, i)}: false-alarm cost`);
-    if (!(miss > 0 && Number.isFinite(miss))) assertPositive(miss, `${describe(q, i)}: miss cost`);
+    if (!(false_alarm > 0 && Number.isFinite(false_alarm))) assertPositive(false_alarm, `${describeQuestion(q, i)}: false-alarm cost`);
+    if (!(miss > 0 && Number.isFinite(miss))) assertPositive(miss, `${describeQuestion(q, i)}: miss cost`);
   }
   const fs = q.forecasts;
   for (let j = 0; j < fs.length; j++) {
     const f = fs[j]!;
-    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describe(q, i)}: forecast ${j} time`);
-    if (!isProbability(f.p)) assertProbability(f.p, `${describe(q, i)}: forecast ${j}`);
-    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describe(q, i)}: forecast ${j} entry order (seq)`);
+    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describeQuestion(q, i)}: forecast ${j} time`);
+    if (!isProbability(f.p)) assertProbability(f.p, `${describeQuestion(q, i)}: forecast ${j}`);
+    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describeQuestion(q, i)}: forecast ${j} entry order (seq)`);
   }
   const rs = q.references;
   for (let j = 0; j < rs.length; j++) {
     const r = rs[j]!;
-    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describe(q, i)}: reference ${j} time`);
-    if (!isProbability(r.p)) assertProbability(r.p, `${describe(q, i)}: reference ${j}`);
+    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describeQuestion(q, i)}: reference ${j} time`);
+    if (!isProbability(r.p)) assertProbability(r.p, `${describeQuestion(q, i)}: reference ${j}`);
   }
 }
 

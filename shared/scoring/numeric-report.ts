@@ -26,15 +26,7 @@ import type {
   ScoringNumericQuestion,
   Surprise,
 } from './types';
-import { assertFinite } from './validate';
-
-function describe(q: ScoringNumericQuestion, i: number): string {
-  return `question ${i} (${JSON.stringify(q.id)})`;
-}
-
-function fail(q: ScoringNumericQuestion, i: number, field: string, problem: string): never {
-  throw new RangeError(`${describe(q, i)}: ${field} ${problem}.`);
-}
+import { assertFinite, describeQuestion, failQuestion } from './validate';
 
 const byId = (a: { id: string }, b: { id: string }): number => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
 
@@ -50,34 +42,34 @@ function wholeDaysProblem(values: ArrayLike<number>): string | null {
 
 /** Checks one numeric question's fields; the messages name the question and the field. */
 function validateNumericQuestion(q: ScoringNumericQuestion, i: number): void {
-  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describe(q, i)}: closes_at`);
-  if (typeof q.unit !== 'string') fail(q, i, 'unit', `is ${String(q.unit)}; give text (it may be empty)`);
+  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describeQuestion(q, i)}: closes_at`);
+  if (typeof q.unit !== 'string') failQuestion(q, i, 'unit', `is ${String(q.unit)}; give text (it may be empty)`);
   if (q.value_kind !== 'number' && q.value_kind !== 'date') {
-    fail(q, i, 'value_kind', `is ${JSON.stringify(q.value_kind)}; use "number" or "date"`);
+    failQuestion(q, i, 'value_kind', `is ${JSON.stringify(q.value_kind)}; use "number" or "date"`);
   }
   const date = q.value_kind === 'date';
   const levelsProblem = quantileLevelsProblem(q.levels);
-  if (levelsProblem !== null) fail(q, i, 'levels', levelsProblem);
+  if (levelsProblem !== null) failQuestion(q, i, 'levels', levelsProblem);
   const r = q.resolution;
   if (r !== null) {
     if (r.outcome === 'value') {
-      if (!Number.isFinite(r.value)) fail(q, i, 'resolution value', `is ${String(r.value)}; give a finite number`);
+      if (!Number.isFinite(r.value)) failQuestion(q, i, 'resolution value', `is ${String(r.value)}; give a finite number`);
       if (date && !Number.isInteger(r.value)) {
-        fail(q, i, 'resolution value', `is ${r.value}; a date question takes whole days since 1970-01-01`);
+        failQuestion(q, i, 'resolution value', `is ${r.value}; a date question takes whole days since 1970-01-01`);
       }
     } else if (r.outcome !== 'void') {
-      fail(q, i, 'outcome', `is ${JSON.stringify((r as { outcome: unknown }).outcome)}; use "value" or "void"`);
+      failQuestion(q, i, 'outcome', `is ${JSON.stringify((r as { outcome: unknown }).outcome)}; use "value" or "void"`);
     }
-    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describe(q, i)}: resolution time`);
+    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describeQuestion(q, i)}: resolution time`);
   }
   const m = q.levels.length;
   const fs = q.forecasts;
   for (let j = 0; j < fs.length; j++) {
     const f = fs[j]!;
-    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describe(q, i)}: forecast ${j} time`);
-    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describe(q, i)}: forecast ${j} entry order (seq)`);
+    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describeQuestion(q, i)}: forecast ${j} time`);
+    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describeQuestion(q, i)}: forecast ${j} entry order (seq)`);
     const problem = quantilesProblem(f.quantiles, m) ?? (date ? wholeDaysProblem(f.quantiles) : null);
-    if (problem !== null) fail(q, i, `forecast ${j} quantiles`, problem);
+    if (problem !== null) failQuestion(q, i, `forecast ${j} quantiles`, problem);
   }
 }
 
