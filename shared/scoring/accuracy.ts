@@ -18,6 +18,16 @@ export function clipProbability(p: number): number {
 }
 
 /**
+ * Arithmetic mean of per-question figures, summed in order (each scored question has
+ * weight 1, SCORING.md). The caller guarantees at least one value and finite entries.
+ */
+export function mean(xs: ArrayLike<number>): number {
+  let s = 0;
+  for (let i = 0; i < xs.length; i++) s += xs[i]!;
+  return s / xs.length;
+}
+
+/**
  * Brier score, `mean((p − o)²)` (Brier 1950, Monthly Weather Review 78:1–3, in its
  * binary form; same as scikit-learn `brier_score_loss`). 0 is perfect, 0.25 is what
  * always saying 50 % earns.

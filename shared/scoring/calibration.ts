@@ -1,6 +1,8 @@
 /**
  * Calibration bins and the Murphy decomposition of the Brier score.
  */
+import { wilsonInterval } from './intervals';
+import type { ReportBin } from './types';
 import { assertPairs, assertProbability } from './validate';
 
 /**
@@ -86,6 +88,21 @@ export function calibrationBins(
     }
   }
   return bins;
+}
+
+/**
+ * The scorecard's calibration bins as reports list them: the 11 bins of SCORING.md
+ * (non-empty only), each with the Wilson 95 % interval of its observed frequency (Wilson
+ * 1927). Used for yes/no questions and for the options of choice questions alike.
+ *
+ * @param p forecasts in [0, 1], non-empty
+ * @param o outcomes (1 Yes, 0 No), same length
+ */
+export function reportBins(p: ArrayLike<number>, o: ArrayLike<number>): ReportBin[] {
+  return calibrationBins(p, o, SCORECARD_BIN_EDGES).map((b) => {
+    const [wilson_low, wilson_high] = wilsonInterval(b.yes, b.n);
+    return { index: b.index, n: b.n, mean_p: b.mean_p, observed: b.observed, wilson_low, wilson_high };
+  });
 }
 
 export interface BrierDecomposition {

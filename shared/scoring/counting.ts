@@ -1,27 +1,29 @@
 /**
- * Which questions and forecasts count (SCORING.md "Which forecasts count"), and the
- * per-question figures every score is built from, laid out as parallel typed arrays so
- * a diary of thousands of questions is scored without per-forecast allocations.
+ * Which questions and forecasts count (SCORING.md "Which forecasts count"), for every
+ * question type, and the yes/no per-question figures every yes/no score is built from,
+ * laid out as parallel typed arrays so a diary of thousands of questions is scored
+ * without per-forecast allocations. The choice and numeric engines use the same
+ * `forEachScored`, so the rules live here once.
  */
 import { timeAverageUnchecked } from './accuracy';
-import { assertFinite, assertPositive, assertProbability } from './validate';
-import type { ScoreOptions, ScoringQuestion } from './types';
+import { assertFinite, assertPositive, assertProbability, describeQuestion } from './validate';
+import type { ScoreFilter, ScoreOptions, ScoringQuestion } from './types';
 
 /**
  * Window end `T = min(close time, resolution time)` (SCORING.md): an event-by-deadline
  * question that happened early ends when it resolved. An open question's window ends
  * at its close.
  */
-export function windowEnd(q: Pick<ScoringQuestion, 'closes_at' | 'resolution'>): number {
+export function windowEnd(q: Pick<CountableQuestion, 'closes_at' | 'resolution'>): number {
   assertFinite(q.closes_at, 'windowEnd: closes_at');
   if (q.resolution === null) return q.closes_at;
   assertFinite(q.resolution.at, 'windowEnd: resolution time');
   return Math.min(q.closes_at, q.resolution.at);
 }
 
-/** The scored questions and their per-question figures, index-aligned. */
+/** The scored yes/no questions and their per-question figures, index-aligned. */
 export interface ScoredSet {
-  counts: { scored: number; unscored: number; void: number; open: number };
+  counts: QuestionCounts;
   /** Number of scored questions. */
   n: number;
   /** The scored questions, in input order. */
@@ -45,30 +47,63 @@ export interface ScoredSet {
   refRef: Float64Array;
 }
 
-/** Reusable buffers for one question's entries; grown on demand, never shrunk. */
-class Scratch {
+/** What the counting rules read of a question, whatever its type. */
+export interface CountableQuestion {
+  tags: readonly string[];
+  closes_at: number;
+  /** Any outcome but 'void' means resolved and scorable. */
+  resolution: { outcome: string; at: number } | null;
+  forecasts: readonly { at: number; seq: number }[];
+}
+
+export interface QuestionCounts {
+  scored: number;
+  /** Resolved (not void) with no forecast at or before T. */
+  unscored: number;
+  void: number;
+  open: number;
+}
+
+/**
+ * One question's counting entries (time ≤ T), sorted by time, then entry order. `index`
+ * points into the list they came from, so a caller reads any payload (a probability, a
+ * vector, quantiles) without the sort having to move it. Buffers are reused from question
+ * to question, grown on demand, never shrunk.
+ */
+export class CountingEntries {
+  count = 0;
   at = new Float64Array(64);
-  p = new Float64Array(64);
   key = new Float64Array(64);
+  index = new Float64Array(64);
 
   ensure(n: number): void {
     if (n <= this.at.length) return;
     const size = Math.max(n, this.at.length * 2);
     this.at = new Float64Array(size);
-    this.p = new Float64Array(size);
     this.key = new Float64Array(size);
+    this.index = new Float64Array(size);
+  }
+
+  /** The final forecast: the latest counting entry (same time: entered last). */
+  get final(): number {
+    return this.index[this.count - 1]!;
+  }
+
+  /** The first forecast: the earliest counting entry (same time: entered first). */
+  get first(): number {
+    return this.index[0]!;
   }
 }
 
 const INSERTION_SORT_MAX = 64;
 
 /**
- * Sorts the first `n` entries of (at, key, p) by time, then key (entry order), in place.
- * Already sorted input — the usual case, the store returns revisions in order — costs
- * one pass; short unsorted runs use insertion sort, long ones an index sort.
+ * Sorts the first `n` entries of (at, key, index) by time, then key (entry order), in
+ * place. Already sorted input — the usual case, the store returns revisions in order —
+ * costs one pass; short unsorted runs use insertion sort, long ones an index sort.
  */
-function sortEntries(s: Scratch, n: number): void {
-  const { at, key, p } = s;
+function sortEntries(s: CountingEntries, n: number): void {
+  const { at, key, index } = s;
   let sorted = true;
   for (let i = 1; i < n; i++) {
     if (at[i]! < at[i - 1]! || (at[i] === at[i - 1] && key[i]! < key[i - 1]!)) {
@@ -81,17 +116,17 @@ function sortEntries(s: Scratch, n: number): void {
     for (let i = 1; i < n; i++) {
       const a = at[i]!;
       const k = key[i]!;
-      const v = p[i]!;
+      const v = index[i]!;
       let j = i - 1;
       while (j >= 0 && (at[j]! > a || (at[j] === a && key[j]! > k))) {
         at[j + 1] = at[j]!;
         key[j + 1] = key[j]!;
-        p[j + 1] = p[j]!;
+        index[j + 1] = index[j]!;
         j--;
       }
       at[j + 1] = a;
       key[j + 1] = k;
-      p[j + 1] = v;
+      index[j + 1] = v;
     }
     return;
   }
@@ -100,20 +135,99 @@ function sortEntries(s: Scratch, n: number): void {
   );
   const at2 = order.map((i) => at[i]!);
   const key2 = order.map((i) => key[i]!);
-  const p2 = order.map((i) => p[i]!);
+  const index2 = order.map((i) => index[i]!);
   for (let i = 0; i < n; i++) {
     at[i] = at2[i]!;
     key[i] = key2[i]!;
-    p[i] = p2[i]!;
+    index[i] = index2[i]!;
   }
+}
+
+/**
+ * Collects the entries with time ≤ `end` into `into`, sorted (SCORING.md: a forecast
+ * counts only if its time is ≤ T). Same-time entries are ordered by `seq` for the user's
+ * own forecasts, and by list position for entries that have no entry order
+ * (references: the later one in the list stands).
+ *
+ * @returns the number of counting entries (also left in `into.count`)
+ */
+function gatherCounting(
+  entries: readonly { at: number; seq?: number }[],
+  end: number,
+  into: CountingEntries,
+  order: 'seq' | 'position',
+): number {
+  into.ensure(entries.length);
+  let count = 0;
+  for (let j = 0; j < entries.length; j++) {
+    const e = entries[j]!;
+    if (e.at <= end) {
+      into.at[count] = e.at;
+      into.key[count] = order === 'seq' ? e.seq! : j;
+      into.index[count] = j;
+      count++;
+    }
+  }
+  into.count = count;
+  if (count > 1) sortEntries(into, count);
+  return count;
+}
+
+/**
+ * The counting rules of SCORING.md "Which forecasts count", once for every question type:
+ * validates each question (all of them, so a bad record fails whatever the filter),
+ * applies the tag and window-end filters, classifies the rest as open / void / unscored
+ * (resolved with no forecast at or before T) / scored, and hands each scored question to
+ * `onScored` with its window end and its counting forecasts sorted (final last, first
+ * first). Forecasts later than T are never read beyond their time.
+ *
+ * @param questions the diary; forecasts in any order
+ * @param filter tag and inclusive bounds on T (ms)
+ * @param validate throws a RangeError naming the question and field
+ * @param onScored called in input order; `counting` is reused, read it before returning
+ * @throws RangeError for invalid bounds (from > to, non-finite) or an invalid question
+ */
+export function forEachScored<Q extends CountableQuestion>(
+  questions: readonly Q[],
+  filter: ScoreFilter,
+  validate: (q: Q, i: number) => void,
+  onScored: (q: Q, end: number, counting: CountingEntries) => void,
+): QuestionCounts {
+  const from = filter.from ?? -Infinity;
+  const to = filter.to ?? Infinity;
+  if (filter.from !== undefined) assertFinite(filter.from, 'options: from');
+  if (filter.to !== undefined) assertFinite(filter.to, 'options: to');
+  if (from > to) {
+    throw new RangeError(`options: from (${from}) is after to (${to}); give from ≤ to.`);
+  }
+  const counts: QuestionCounts = { scored: 0, unscored: 0, void: 0, open: 0 };
+  const own = new CountingEntries();
+  for (let qi = 0; qi < questions.length; qi++) {
+    const q = questions[qi]!;
+    validate(q, qi);
+    if (filter.tag !== undefined && !q.tags.includes(filter.tag)) continue;
+    const end = windowEnd(q);
+    if (end < from || end > to) continue;
+    if (q.resolution === null) {
+      counts.open++;
+      continue;
+    }
+    if (q.resolution.outcome === 'void') {
+      counts.void++;
+      continue;
+    }
+    if (gatherCounting(q.forecasts, end, own, 'seq') === 0) {
+      counts.unscored++;
+      continue;
+    }
+    counts.scored++;
+    onScored(q, end, own);
+  }
+  return counts;
 }
 
 function isProbability(p: number): boolean {
   return p >= 0 && p <= 1;
-}
-
-function describe(q: ScoringQuestion, i: number): string {
-  return `question ${i} (${JSON.stringify(q.id)})`;
 }
 
 /**
@@ -121,32 +235,32 @@ function describe(q: ScoringQuestion, i: number): string {
  * for a value that fails, because this runs over every forecast of the diary.
  */
 function validateQuestion(q: ScoringQuestion, i: number): void {
-  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describe(q, i)}: closes_at`);
+  if (!Number.isFinite(q.closes_at)) assertFinite(q.closes_at, `${describeQuestion(q, i)}: closes_at`);
   if (q.resolution !== null) {
     const { outcome, at } = q.resolution;
     if (outcome !== 'yes' && outcome !== 'no' && outcome !== 'void') {
-      throw new RangeError(`${describe(q, i)}: outcome is ${JSON.stringify(outcome)}; use "yes", "no" or "void".`);
+      throw new RangeError(`${describeQuestion(q, i)}: outcome is ${JSON.stringify(outcome)}; use "yes", "no" or "void".`);
     }
-    if (!Number.isFinite(at)) assertFinite(at, `${describe(q, i)}: resolution time`);
+    if (!Number.isFinite(at)) assertFinite(at, `${describeQuestion(q, i)}: resolution time`);
   }
-  if (q.base_rate !== null && !isProbability(q.base_rate)) assertProbability(q.base_rate, `${describe(q, i)}: base rate`);
+  if (q.base_rate !== null && !isProbability(q.base_rate)) assertProbability(q.base_rate, `${describeQuestion(q, i)}: base rate`);
   if (q.costs !== null) {
     const { false_alarm, miss } = q.costs;
-    if (!(false_alarm > 0 && Number.isFinite(false_alarm))) assertPositive(false_alarm, `${describe(q, i)}: false-alarm cost`);
-    if (!(miss > 0 && Number.isFinite(miss))) assertPositive(miss, `${describe(q, i)}: miss cost`);
+    if (!(false_alarm > 0 && Number.isFinite(false_alarm))) assertPositive(false_alarm, `${describeQuestion(q, i)}: false-alarm cost`);
+    if (!(miss > 0 && Number.isFinite(miss))) assertPositive(miss, `${describeQuestion(q, i)}: miss cost`);
   }
   const fs = q.forecasts;
   for (let j = 0; j < fs.length; j++) {
     const f = fs[j]!;
-    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describe(q, i)}: forecast ${j} time`);
-    if (!isProbability(f.p)) assertProbability(f.p, `${describe(q, i)}: forecast ${j}`);
-    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describe(q, i)}: forecast ${j} entry order (seq)`);
+    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describeQuestion(q, i)}: forecast ${j} time`);
+    if (!isProbability(f.p)) assertProbability(f.p, `${describeQuestion(q, i)}: forecast ${j}`);
+    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describeQuestion(q, i)}: forecast ${j} entry order (seq)`);
   }
   const rs = q.references;
   for (let j = 0; j < rs.length; j++) {
     const r = rs[j]!;
-    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describe(q, i)}: reference ${j} time`);
-    if (!isProbability(r.p)) assertProbability(r.p, `${describe(q, i)}: reference ${j}`);
+    if (!Number.isFinite(r.at)) assertFinite(r.at, `${describeQuestion(q, i)}: reference ${j} time`);
+    if (!isProbability(r.p)) assertProbability(r.p, `${describeQuestion(q, i)}: reference ${j}`);
   }
 }
 
@@ -164,15 +278,7 @@ function validateQuestion(q: ScoringQuestion, i: number): void {
 export function prepareScoredSet(questions: readonly ScoringQuestion[], options: ScoreOptions): ScoredSet {
   assertPositive(options.default_costs.false_alarm, 'options: default false-alarm cost');
   assertPositive(options.default_costs.miss, 'options: default miss cost');
-  const from = options.from ?? -Infinity;
-  const to = options.to ?? Infinity;
-  if (options.from !== undefined) assertFinite(options.from, 'options: from');
-  if (options.to !== undefined) assertFinite(options.to, 'options: to');
-  if (from > to) {
-    throw new RangeError(`options: from (${from}) is after to (${to}); give from ≤ to.`);
-  }
 
-  const counts = { scored: 0, unscored: 0, void: 0, open: 0 };
   const capacity = questions.length;
   const T = new Float64Array(capacity);
   const p = new Float64Array(capacity);
@@ -182,74 +288,40 @@ export function prepareScoredSet(questions: readonly ScoringQuestion[], options:
   const refOwn = new Float64Array(capacity);
   const refRef = new Float64Array(capacity);
   const scoredQuestions: ScoringQuestion[] = [];
-  const own = new Scratch();
-  const ref = new Scratch();
+  const ref = new CountingEntries();
+  // The sorted entries' probabilities, for the time averages.
+  let ownP = new Float64Array(64);
+  let refP = new Float64Array(64);
 
-  for (let qi = 0; qi < questions.length; qi++) {
-    const q = questions[qi]!;
-    validateQuestion(q, qi);
-    if (options.tag !== undefined && !q.tags.includes(options.tag)) continue;
-    const end = windowEnd(q);
-    if (end < from || end > to) continue;
-    if (q.resolution === null) {
-      counts.open++;
-      continue;
-    }
-    if (q.resolution.outcome === 'void') {
-      counts.void++;
-      continue;
-    }
-
+  const counts = forEachScored(questions, options, validateQuestion, (q, end, own) => {
+    const count = own.count;
     const fs = q.forecasts;
-    own.ensure(fs.length);
-    let count = 0;
-    for (let j = 0; j < fs.length; j++) {
-      const f = fs[j]!;
-      if (f.at <= end) {
-        own.at[count] = f.at;
-        own.p[count] = f.p;
-        own.key[count] = f.seq;
-        count++;
-      }
-    }
-    if (count === 0) {
-      counts.unscored++;
-      continue;
-    }
-    sortEntries(own, count);
+    if (ownP.length < count) ownP = new Float64Array(Math.max(count, ownP.length * 2));
+    for (let i = 0; i < count; i++) ownP[i] = fs[own.index[i]!]!.p;
 
-    const k = counts.scored++;
-    const outcome = q.resolution.outcome === 'yes' ? 1 : 0;
+    const k = scoredQuestions.length;
+    const outcome = q.resolution!.outcome === 'yes' ? 1 : 0;
     const t1 = own.at[0]!;
     scoredQuestions.push(q);
     T[k] = end;
     o[k] = outcome;
-    p[k] = own.p[count - 1]!;
-    p1[k] = own.p[0]!;
-    timeAvg[k] = timeAverageUnchecked(own.at, own.p, count, outcome, t1, end);
+    p[k] = fs[own.final]!.p;
+    p1[k] = fs[own.first]!.p;
+    timeAvg[k] = timeAverageUnchecked(own.at, ownP, count, outcome, t1, end);
 
     const rs = q.references;
-    ref.ensure(rs.length);
-    let rcount = 0;
-    for (let j = 0; j < rs.length; j++) {
-      const r = rs[j]!;
-      if (r.at <= end) {
-        ref.at[rcount] = r.at;
-        ref.p[rcount] = r.p;
-        ref.key[rcount] = j; // same time: the later reference in the list stands
-        rcount++;
-      }
-    }
+    const rcount = gatherCounting(rs, end, ref, 'position');
     if (rcount === 0) {
       refOwn[k] = NaN;
       refRef[k] = NaN;
     } else {
-      sortEntries(ref, rcount);
+      if (refP.length < rcount) refP = new Float64Array(Math.max(rcount, refP.length * 2));
+      for (let i = 0; i < rcount; i++) refP[i] = rs[ref.index[i]!]!.p;
       const s = Math.max(t1, ref.at[0]!);
-      refOwn[k] = timeAverageUnchecked(own.at, own.p, count, outcome, s, end);
-      refRef[k] = timeAverageUnchecked(ref.at, ref.p, rcount, outcome, s, end);
+      refOwn[k] = timeAverageUnchecked(own.at, ownP, count, outcome, s, end);
+      refRef[k] = timeAverageUnchecked(ref.at, refP, rcount, outcome, s, end);
     }
-  }
+  });
 
   const n = counts.scored;
   return {

@@ -6,7 +6,27 @@ export type * from './types';
 export { computeScoreReport } from './report';
 export { CONFIDENT_THRESHOLD, confidentVerdict } from './confidence';
 export { computeScorecardDetail } from './detail';
-export { prepareScoredSet, windowEnd, type ScoredSet } from './counting';
+export {
+  forEachScored,
+  prepareScoredSet,
+  windowEnd,
+  type CountableQuestion,
+  type CountingEntries,
+  type QuestionCounts,
+  type ScoredSet,
+} from './counting';
+export { choiceLogScore, multiCategoryBrier, rankedProbabilityScore, topChoice } from './choice';
+export { computeChoiceDetail, computeChoiceReport, prepareChoiceSet, type ChoiceScoredSet } from './choice-report';
+export {
+  centralIntervals,
+  intervalScore,
+  landedGap,
+  nominalLevel,
+  quantileScore,
+  weightedIntervalScore,
+  type CentralInterval,
+} from './quantile';
+export { computeNumericDetail, computeNumericReport, prepareNumericSet, type NumericScoredSet } from './numeric-report';
 export {
   LOG_CLIP_HIGH,
   LOG_CLIP_LOW,
@@ -22,6 +42,7 @@ export {
   binIndex,
   brierDecomposition,
   calibrationBins,
+  reportBins,
   type BrierDecomposition,
   type CalibrationBin,
 } from './calibration';

@@ -2,24 +2,15 @@
  * The scorecard: every figure of SCORING.md over one filtered diary, in the exact shape
  * of `score --json` (INTERFACES.md §2).
  */
-import { brierScore, logScore, shareCertain, sharpness } from './accuracy';
-import { SCORECARD_BIN_EDGES, brierDecomposition, calibrationBins } from './calibration';
+import { brierScore, logScore, mean, shareCertain, sharpness } from './accuracy';
+import { SCORECARD_BIN_EDGES, brierDecomposition, reportBins } from './calibration';
 import { prepareScoredSet, type ScoredSet } from './counting';
 import { CONFIDENT_THRESHOLD, confidentVerdict } from './confidence';
 import { costLossDecisions, valueCurve, type CostLossCase } from './decisions';
 import { rocAuc } from './discrimination';
-import { wilsonInterval } from './intervals';
 import { calibrationFit } from './logistic';
 import { skillScore } from './skill';
 import type { ConfidentMiss, ScoreOptions, ScoreReport, ScoringQuestion, SkillScores } from './types';
-
-/** INTERFACES.md §2: a final forecast ≥ 80 % on a No, or ≤ 20 % on a Yes, is a confident miss. */
-
-function mean(xs: ArrayLike<number>): number {
-  let s = 0;
-  for (let i = 0; i < xs.length; i++) s += xs[i]!;
-  return s / xs.length;
-}
 
 function skillScores(set: ScoredSet, brier: number, uncertainty: number): SkillScores {
   const { n, p, p1, o, refOwn, refRef, questions } = set;
@@ -61,6 +52,7 @@ function costCases(set: ScoredSet, options: ScoreOptions): CostLossCase[] {
   return cases;
 }
 
+/** INTERFACES.md §2: a final forecast ≥ 80 % on a No, or ≤ 20 % on a Yes, is a confident miss. */
 function confidentMisses(set: ScoredSet): ConfidentMiss[] {
   const misses: ConfidentMiss[] = [];
   for (let i = 0; i < set.n; i++) {
@@ -125,10 +117,7 @@ export function computeScoreReport(questions: readonly ScoringQuestion[], option
   }
   const brier = brierScore(p, o);
   const decomposition = brierDecomposition(p, o, SCORECARD_BIN_EDGES);
-  const bins = calibrationBins(p, o, SCORECARD_BIN_EDGES).map((b) => {
-    const [wilson_low, wilson_high] = wilsonInterval(b.yes, b.n);
-    return { index: b.index, n: b.n, mean_p: b.mean_p, observed: b.observed, wilson_low, wilson_high };
-  });
+  const bins = reportBins(p, o);
   return {
     ...counts,
     brier,

@@ -1,9 +1,11 @@
 /**
  * Input and output shapes of the scoring engine.
  *
- * The service maps store rows into `ScoringQuestion`; times are epoch milliseconds so the
- * engine never parses dates. `ScoreReport` is exactly the `score --json` object of
- * INTERFACES.md §2 (snake_case keys, every key present, `null` for undefined figures).
+ * The service maps store rows into `ScoringQuestion` (yes/no), `ScoringChoiceQuestion`
+ * and `ScoringNumericQuestion`; times are epoch milliseconds so the engine never parses
+ * dates. `ScoreReport` is exactly the `score --json` object of INTERFACES.md §2, and
+ * `ChoiceReport` / `NumericReport` its `choice` and `numeric` members (snake_case keys,
+ * every key present, `null` for undefined figures).
  */
 
 /** One revision of the user's own probability. */
@@ -35,13 +37,17 @@ export interface ScoringQuestion {
   references: ScoringReference[];
 }
 
-export interface ScoreOptions {
+/** Which questions a report covers; the same for every question type. */
+export interface ScoreFilter {
   /** Keep only questions carrying this tag. */
   tag?: string;
   /** Inclusive lower bound on the window end T (ms). */
   from?: number;
   /** Inclusive upper bound on the window end T (ms). */
   to?: number;
+}
+
+export interface ScoreOptions extends ScoreFilter {
   /** Costs for questions that have none of their own. */
   default_costs: { false_alarm: number; miss: number };
 }
@@ -164,4 +170,238 @@ export interface ScorecardDetail {
   log_interval: [number, number] | null;
   /** How many Yes and No questions the AUC compares. */
   auc_n: { yes: number; no: number };
+}
+
+// ---------------------------------------------------------------------------------------
+// Multiple-choice questions (SCORING.md "Multiple-choice questions").
+
+/** One revision of the user's probabilities over a choice question's options. */
+export interface ScoringChoiceForecast {
+  at: number;
+  /** One probability per option, in option order, summing to 1 within 1e-6. */
+  probs: readonly number[] | Float64Array;
+  /** Entry order: with the same `at`, the larger `seq` was entered later. */
+  seq: number;
+}
+
+export interface ScoringChoiceQuestion {
+  id: string;
+  title: string;
+  tags: string[];
+  closes_at: number;
+  /** `option` is the 0-based index of the option that came true. */
+  resolution: { outcome: 'option'; option: number; at: number } | { outcome: 'void'; at: number } | null;
+  /** Number of options K, 2 to 12 (labels are the service's business). */
+  option_count: number;
+  /** Ordered categories (e.g. ranges of a quantity): scored by the RPS as well. */
+  ordered: boolean;
+  /** One stated base rate per option, summing to 1 within 1e-6; null when not stated. */
+  option_base_rates: readonly number[] | Float64Array | null;
+  /** Any order. */
+  forecasts: ScoringChoiceForecast[];
+}
+
+export interface ChoiceSkillScores {
+  vs_uniform: number | null;
+  vs_base_rate: number | null;
+  vs_first: number | null;
+}
+
+export interface TopChoiceSummary {
+  /** Number of scored questions. */
+  n: number;
+  /** Mean of the top choices' final probabilities. */
+  mean_confidence: number | null;
+  /** Share of questions whose top choice came true. */
+  hit_rate: number | null;
+  wilson_low: number | null;
+  wilson_high: number | null;
+}
+
+export interface ChoiceConfidentMiss {
+  id: string;
+  title: string;
+  /** The top choice (0-based). */
+  option: number;
+  /** Its final probability. */
+  p: number;
+  /** The option that came true (0-based). */
+  outcome_option: number;
+}
+
+/** The `choice` member of `score --json` (INTERFACES.md §2). */
+export interface ChoiceReport {
+  scored: number;
+  unscored: number;
+  void: number;
+  open: number;
+  brier: number | null;
+  log_score: number | null;
+  rps: number | null;
+  /** Number of scored ordered questions the RPS averages over. */
+  rps_n: number;
+  skill: ChoiceSkillScores;
+  top_choice: TopChoiceSummary;
+  /** Option calibration: every option of every scored question as a yes/no forecast. */
+  bins: ReportBin[];
+  confident_misses: ChoiceConfidentMiss[];
+}
+
+/** One scored choice question as the Scorecard lists it (not part of the CLI JSON). */
+export interface ChoiceQuestionRow {
+  id: string;
+  title: string;
+  tags: string[];
+  /** Window end, epoch ms. */
+  T: number;
+  ordered: boolean;
+  /** Final counting forecast. */
+  probs: number[];
+  /** First counting forecast. */
+  probs_first: number[];
+  outcome_option: number;
+  /** Multi-category Brier score Σ (p_k − o_k)², in [0, 2]. */
+  brier: number;
+  /** −ln max(p_j, 0.001). */
+  log_score: number;
+  /** Ranked probability score; null for an unordered question. */
+  rps: number | null;
+  top_option: number;
+  top_p: number;
+}
+
+export interface ChoiceDetail {
+  /** Sorted by window end, ties by id. */
+  per_question: ChoiceQuestionRow[];
+}
+
+// ---------------------------------------------------------------------------------------
+// Numeric questions (SCORING.md "Numeric questions").
+
+/** One revision of the user's quantiles for a numeric question. */
+export interface ScoringNumericForecast {
+  at: number;
+  /** One value per level of the question, non-decreasing; dates in days since 1970-01-01. */
+  quantiles: readonly number[] | Float64Array;
+  /** Entry order: with the same `at`, the larger `seq` was entered later. */
+  seq: number;
+}
+
+export interface ScoringNumericQuestion {
+  id: string;
+  title: string;
+  tags: string[];
+  closes_at: number;
+  /** `value` is the outcome y; for a date, whole days since 1970-01-01. */
+  resolution: { outcome: 'value'; value: number; at: number } | { outcome: 'void'; at: number } | null;
+  /** Shown beside values and scores, e.g. "weeks"; may be empty. */
+  unit: string;
+  /** 'date': values are whole days since 1970-01-01 (the service converts), scores in days. */
+  value_kind: 'number' | 'date';
+  /** Quantile levels, ascending (shared/quantile-levels.ts). */
+  levels: readonly number[];
+  /** Any order. */
+  forecasts: ScoringNumericForecast[];
+}
+
+export interface CoverageRow {
+  /** Nominal central level, upper τ − lower τ rounded to two decimals (0.8 for {0.1, 0.9}). */
+  level: number;
+  /** Scored questions with an interval at this level. */
+  n: number;
+  /** Of those, how many had l ≤ y ≤ u. */
+  inside: number;
+  rate: number;
+  wilson_low: number;
+  wilson_high: number;
+}
+
+export interface QuantileCalibrationRow {
+  tau: number;
+  /** Scored questions with this level. */
+  n: number;
+  /** Of those, how many had y ≤ q_τ. */
+  below: number;
+  rate: number;
+  wilson_low: number;
+  wilson_high: number;
+}
+
+export interface LandedGap {
+  /** Outcomes in this gap (an outcome equal to a quantile counts in the gap below it). */
+  n: number;
+  /** Expected share: the level difference across the gap, rounded to two decimals. */
+  expected: number;
+}
+
+export interface LandedSet {
+  levels: number[];
+  /** Below the lowest quantile, between consecutive quantiles, above the highest. */
+  gaps: LandedGap[];
+}
+
+export interface NumericQuestionScore {
+  id: string;
+  /** Weighted interval score, in the question's unit (days for dates). */
+  wis: number;
+  /** Interval score of the widest central interval; null with the median only. */
+  interval_score: number | null;
+  /** That interval's nominal level; null with the median only. */
+  interval_level: number | null;
+}
+
+export interface Surprise {
+  id: string;
+  title: string;
+  /** The outcome y. */
+  value: number;
+  /** The widest central interval [low, high] of the final forecast. */
+  low: number;
+  high: number;
+  level: number;
+  /** Distance outside the interval divided by its width; null for a zero-width interval. */
+  size: number | null;
+}
+
+/** The `numeric` member of `score --json` (INTERFACES.md §2). */
+export interface NumericReport {
+  scored: number;
+  unscored: number;
+  void: number;
+  open: number;
+  coverage: CoverageRow[];
+  quantile_calibration: QuantileCalibrationRow[];
+  landed: LandedSet[];
+  relative_wis_vs_first: number | null;
+  questions: NumericQuestionScore[];
+  surprises: Surprise[];
+}
+
+/** One scored numeric question as the Scorecard lists it (not part of the CLI JSON). */
+export interface NumericQuestionRow {
+  id: string;
+  title: string;
+  tags: string[];
+  /** Window end, epoch ms. */
+  T: number;
+  unit: string;
+  value_kind: 'number' | 'date';
+  levels: number[];
+  /** Final counting forecast. */
+  quantiles: number[];
+  /** First counting forecast. */
+  quantiles_first: number[];
+  /** The outcome y. */
+  value: number;
+  wis: number;
+  wis_first: number;
+  interval_score: number | null;
+  interval_level: number | null;
+  /** Which gap of "where outcomes landed" y fell in: 0 below the lowest quantile … levels.length above the highest. */
+  gap: number;
+}
+
+export interface NumericDetail {
+  /** Sorted by window end, ties by id. */
+  per_question: NumericQuestionRow[];
 }

@@ -57,3 +57,16 @@ export function assertPositive(x: number, what: string): void {
     throw new RangeError(`${what} is ${String(x)}; give a finite number greater than 0.`);
   }
 }
+
+/** How a message names a question of the input: its position and its id. */
+export function describeQuestion(q: { id: string }, i: number): string {
+  return `question ${i} (${JSON.stringify(q.id)})`;
+}
+
+/**
+ * Throws a RangeError naming the question and the field, with a reason from one of the
+ * shared rule checks (shared/choice-vector.ts, shared/quantile-levels.ts).
+ */
+export function failQuestion(q: { id: string }, i: number, field: string, problem: string): never {
+  throw new RangeError(`${describeQuestion(q, i)}: ${field} ${problem}.`);
+}
