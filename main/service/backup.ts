@@ -36,6 +36,8 @@ async function writeCopy(source: Db, sourcePath: string, file: string, onProgres
   const partial = `${target}.partial-${process.pid}-${randomBytes(4).toString('hex')}`;
   try {
     fs.mkdirSync(path.dirname(target), { recursive: true });
+    // SQLite says only "cannot open" for a folder we may not write; the OS says why.
+    fs.accessSync(path.dirname(target), fs.constants.W_OK);
     await source.backup(partial, {
       progress({ totalPages, remainingPages }) {
         if (totalPages > 0) onProgress?.(Math.round(((totalPages - remainingPages) / totalPages) * 100));

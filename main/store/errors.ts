@@ -50,7 +50,7 @@ export function describeProblem(problem: StoreProblem, file: string, role: FileR
       case 'disk_full':
         return `The disk is full, so ${file} was not written; the diary itself is unchanged. Free some disk space (or choose another disk) and try again.`;
       case 'read_only':
-        return `Forelog may not write ${file} (the file or its folder is read-only)${why}, so nothing was written; the diary itself is unchanged. Choose a folder you can write to.`;
+        return `Forelog may not write ${file} (the file or its folder is read-only${detail ? `: ${detail}` : ''}), so nothing was written; the diary itself is unchanged. Choose a folder you can write to.`;
       case 'io_error':
         return `Forelog could not write ${file}${why}, so nothing was written; the diary itself is unchanged. Check that the disk is available and try again.`;
       default:

@@ -73,6 +73,18 @@ test('a diary in a folder the user may not write: reading commands work, writes 
   assert.equal(JSON.parse(scored.stdout).scored, 1);
   const due = forelogUnprivileged('due', '--at', '2026-12-31T12:00:00Z', '--db', db);
   assert.equal(due.status, 0, due.stderr);
+  const elsewhere = tempDir();
+  fs.chmodSync(elsewhere, 0o777);
+  const backedUp = forelogUnprivileged('backup', path.join(elsewhere, 'copy.sqlite'), '--db', db);
+  assert.equal(backedUp.status, 0, backedUp.stderr);
+  assert.match(backedUp.stdout, /\(2 questions\)/);
+  const beside = path.join(dir, 'copy.sqlite');
+  const notBeside = forelogUnprivileged('backup', beside, '--db', db);
+  assert.equal(notBeside.status, 1);
+  assert.equal(
+    notBeside.stderr,
+    `forelog: Forelog may not write ${beside} (the file or its folder is read-only: EACCES), so nothing was written; the diary itself is unchanged. Choose a folder you can write to.\n`,
+  );
 
   const refused = forelogUnprivileged('import', seed, '--db', db);
   assert.equal(refused.status, 1);
