@@ -94,6 +94,15 @@ export function canWriteFile(file: string): boolean {
   }
 }
 
+function canRead(file: string): boolean {
+  try {
+    fs.accessSync(file, fs.constants.R_OK);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 /** Refuses a file that holds a newer schema, or tables of some other program. */
 function checkVersion(db: Db, file: string): number {
   const version = db.pragma('user_version', { simple: true }) as number;
@@ -115,6 +124,13 @@ export function openStore(file: string, options: OpenStoreOptions = {}): StoreHa
   if (!exists && options.create === false) throw new StoreError('missing', resolved, describeProblem('missing', resolved));
   if (exists && fs.statSync(resolved).isDirectory()) {
     throw new StoreError('not_a_diary', resolved, `${resolved} is a folder, not a diary file. Check the path (--db).`);
+  }
+  if (exists && !canRead(resolved)) {
+    throw new StoreError(
+      'io_error',
+      resolved,
+      `Forelog may not read the diary ${resolved} (no read permission), so nothing was changed. Give yourself read permission on it, or check the path (--db).`,
+    );
   }
   try {
     if (!exists) {
@@ -224,7 +240,12 @@ function openReadOnly(file: string, options: OpenStoreOptions): StoreHandles {
       prepare.close();
     }
     const copyRead = readOnlyHandle(copy);
-    return handles(file, readOnlyHandle(copy), copyRead, { readOnly: true, created: false }, removeDir);
+    try {
+      return handles(file, readOnlyHandle(copy), copyRead, { readOnly: true, created: false }, removeDir);
+    } catch (err) {
+      copyRead.close();
+      throw err;
+    }
   } catch (err) {
     removeDir();
     throw err;

@@ -111,6 +111,12 @@ test('a read-only diary file in a writable folder: export works, writes are refu
   assert.equal(refused.status, 1);
   assert.match(refused.stderr, /^forelog: The diary .* is read-only .* so nothing was changed/);
   assert.deepEqual(fs.readFileSync(db), bytes);
+
+  if (process.getuid?.() === 0) fs.chownSync(db, 0, 0); // the unprivileged user must not own it
+  fs.chmodSync(db, 0o000);
+  const unreadable = forelogUnprivileged('export', '--db', db);
+  assert.equal(unreadable.status, 1);
+  assert.equal(unreadable.stderr, `forelog: Forelog may not read the diary ${db} (no read permission), so nothing was changed. Give yourself read permission on it, or check the path (--db).\n`);
 });
 
 test('the read-only decision: a diary this process may not write opens read-only, reads and refuses writes by name', async () => {
