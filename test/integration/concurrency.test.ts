@@ -87,3 +87,20 @@ test('a write that cannot get the diary in time answers busy, retryable, and cha
   await app.close();
   assert.equal((await d.call('getQuestion', { id: q.id })).forecasts.length, 1, 'only the retried write landed');
 });
+
+test('every write transaction in the app begins IMMEDIATE: none is opened any other way', () => {
+  // A deferred transaction would bring "database is locked" back under concurrency (see
+  // writeTransaction); this finds one before a user does.
+  const root = path.resolve(import.meta.dirname, '..', '..', 'main');
+  const offenders: string[] = [];
+  for (const entry of fs.readdirSync(root, { recursive: true, withFileTypes: true })) {
+    if (!entry.isFile() || !entry.name.endsWith('.ts')) continue;
+    const file = path.join(entry.parentPath, entry.name);
+    const rel = path.relative(root, file).split(path.sep).join('/');
+    const text = fs.readFileSync(file, 'utf8');
+    const opens = [...text.matchAll(/\.transaction\(|(?:exec|prepare)\(\s*['"`]BEGIN(?! IMMEDIATE)/gi)].length;
+    const allowed = rel === 'store/open.ts' ? 1 : 0; // writeTransaction itself
+    if (opens > allowed) offenders.push(`main/${rel}`);
+  }
+  assert.deepEqual(offenders, []);
+});
