@@ -93,6 +93,13 @@ test('a diary in a folder the user may not write: reading commands work, writes 
     `forelog: The diary ${db} is read-only (Forelog may not write to the file or its folder), so nothing was changed. ` +
       'Reading, exporting and backing it up still work; to make changes, give yourself write permission on the file and its folder, or work on a copy.\n',
   );
+  const fresh = path.join(dir, 'new.sqlite');
+  const cannotCreate = forelogUnprivileged('demo', '--db', fresh);
+  assert.equal(cannotCreate.status, 1);
+  assert.equal(cannotCreate.stderr, `forelog: Forelog cannot create a diary at ${fresh}: its folder is read-only. Choose a folder you can write to.\n`);
+  const nested = forelogUnprivileged('demo', '--db', path.join(dir, 'sub', 'new.sqlite'));
+  assert.equal(nested.status, 1);
+  assert.match(nested.stderr, /^forelog: Forelog cannot create a diary at .*: EACCES: permission denied.* Choose a folder you can write to\.\n$/);
   if (process.getuid?.() !== 0) fs.chmodSync(dir, 0o755);
   assert.deepEqual(fs.readFileSync(db), bytes, 'the file is unchanged');
   assert.deepEqual(fs.readdirSync(dir), ['diary.sqlite'], 'nothing was added beside it');
