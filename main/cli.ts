@@ -9,7 +9,7 @@ import { ApiError, parseRequest, type DueList, type ExportedText } from '../shar
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
-import { callOrThrow } from './service/dispatch';
+import { callOrThrow, storeFailure } from './service/dispatch';
 import { openDiary, type DiaryService } from './service/index';
 import { startHttpServer } from './transport/http';
 
@@ -67,14 +67,38 @@ function parse(argv: string[]): Parsed {
   return { command: positionals[0], positionals: positionals.slice(1), values };
 }
 
+/** The diary path the arguments name, for messages about the file after a failure. */
+function dbPathOf(argv: string[]): string {
+  try {
+    return parse(argv).values.db ?? defaultDiaryPath();
+  } catch {
+    return defaultDiaryPath();
+  }
+}
+
 function one(positionals: string[], what: string): string {
   if (positionals.length !== 1) throw new UsageError(`expects exactly one ${what}`);
   return positionals[0]!;
 }
 
-function withDiary<T>(dbPath: string, fn: (service: DiaryService) => Promise<T>): Promise<T> {
-  const service = openDiary({ dbPath, onInternalError: reportInternal });
-  return fn(service).finally(() => service.close());
+/** Says so on stderr when a command made a new diary (a mistyped --db shows up at once). */
+function noteCreated(created: boolean, location: string): void {
+  if (created) process.stderr.write(`Created a new diary at ${location}.\n`);
+}
+
+/**
+ * Opens the diary for one command. Commands that only read (`create: false`) refuse a
+ * missing file, naming the path, and create nothing; commands that add data may start a
+ * new diary, and say so.
+ */
+async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (service: DiaryService) => Promise<T>): Promise<T> {
+  const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal });
+  noteCreated(service.store.created, service.location);
+  try {
+    return await fn(service);
+  } finally {
+    service.close();
+  }
 }
 
 /** Newest modification time of any file under `dir` (0 when it does not exist). */
@@ -115,6 +139,7 @@ async function serve(dbPath: string, portText: string | undefined): Promise<void
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
   const dir = await rendererDir();
   const service = openDiary({ dbPath, onInternalError: reportInternal });
+  noteCreated(service.store.created, service.location);
   let server;
   try {
     server = await startHttpServer({ dispatch: service.dispatch, rendererDir: dir, port });
@@ -152,7 +177,7 @@ async function run(argv: string[]): Promise<void> {
       if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
       if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
       const text = fs.readFileSync(file, 'utf8');
-      const result = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'importText', { format, text }))) as { added: number };
+      const result = (await withDiary(dbPath, { create: true }, (s) => callOrThrow(s.dispatch, 'importText', { format, text }))) as { added: number };
       process.stdout.write(`Imported ${result.added} question${result.added === 1 ? '' : 's'} into ${path.resolve(dbPath)}.\n`);
       return;
     }
@@ -160,7 +185,7 @@ async function run(argv: string[]): Promise<void> {
       if (positionals.length > 1) throw new UsageError('expects at most one FILE');
       const format = values.format ?? 'json';
       if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
-      const { text } = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'exportText', { format }))) as ExportedText;
+      const { text } = (await withDiary(dbPath, { create: false }, (s) => callOrThrow(s.dispatch, 'exportText', { format }))) as ExportedText;
       if (positionals[0]) {
         fs.writeFileSync(positionals[0], text);
         process.stderr.write(`Wrote ${positionals[0]}.\n`);
@@ -170,7 +195,7 @@ async function run(argv: string[]): Promise<void> {
     case 'score': {
       if (positionals.length) throw new UsageError('takes no FILE; filter with --tag, --from and --to');
       const request = { tag: values.tag, from: values.from, to: values.to };
-      const report = await withDiary(dbPath, async (s) => s.diary.scoreReport(parseRequest('score', request)));
+      const report = await withDiary(dbPath, { create: false }, async (s) => s.diary.scoreReport(parseRequest('score', request)));
       if (values.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       else {
         const note = [values.tag && `tag ${values.tag}`, values.from && `from ${values.from}`, values.to && `to ${values.to}`].filter(Boolean).join(', ');
@@ -180,7 +205,7 @@ async function run(argv: string[]): Promise<void> {
     }
     case 'due': {
       if (positionals.length) throw new UsageError('takes no FILE; give the instant with --at');
-      const list = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'due', values.at === undefined ? {} : { at: values.at }))) as DueList;
+      const list = (await withDiary(dbPath, { create: false }, (s) => callOrThrow(s.dispatch, 'due', values.at === undefined ? {} : { at: values.at }))) as DueList;
       if (values.json) {
         const out = { at: list.at, nudges: list.nudges.map((n) => ({ id: n.id, title: n.title, kind: n.kind, due_at: n.due_at })) };
         process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
@@ -192,13 +217,13 @@ async function run(argv: string[]): Promise<void> {
       return;
     }
     case 'demo': {
-      const result = (await withDiary(dbPath, (s) => callOrThrow(s.dispatch, 'loadDemo', {}))) as { added: number };
+      const result = (await withDiary(dbPath, { create: true }, (s) => callOrThrow(s.dispatch, 'loadDemo', {}))) as { added: number };
       process.stdout.write(`Added the example diary: ${result.added} invented questions in ${path.resolve(dbPath)}.\n`);
       return;
     }
     case 'backup': {
       const file = one(positionals, 'FILE to write the backup to');
-      await withDiary(dbPath, (s) =>
+      await withDiary(dbPath, { create: false }, (s) =>
         s.backupTo(file, (percent) => {
           if (process.stderr.isTTY) process.stderr.write(`\rBacking up… ${percent}%`);
         }),
@@ -210,6 +235,7 @@ async function run(argv: string[]): Promise<void> {
     case 'restore': {
       const file = one(positionals, 'backup FILE to restore');
       const result = await restoreFrom(file, dbPath, Date.now());
+      noteCreated(result.created, path.resolve(dbPath));
       process.stdout.write(
         `Restored ${result.questions} questions from ${path.resolve(file)} into ${path.resolve(dbPath)}.` +
           (result.safetyCopy ? ` The diary as it was is kept at ${result.safetyCopy}.` : '') +
@@ -222,13 +248,18 @@ async function run(argv: string[]): Promise<void> {
   }
 }
 
-run(process.argv.slice(2)).catch((err: unknown) => {
+const argv = process.argv.slice(2);
+run(argv).catch((err: unknown) => {
+  // A failure of the diary file itself (busy, read-only, disk full, damaged) reads as the app says it.
+  const failure = err instanceof UsageError || err instanceof ApiError ? null : storeFailure(err, path.resolve(dbPathOf(argv)));
   const message =
     err instanceof UsageError
       ? `forelog: ${err.message}. See forelog --help.`
       : err instanceof ApiError
         ? `forelog: ${err.message}`
-        : `forelog: ${err instanceof Error ? err.message : String(err)}`;
+        : failure
+          ? `forelog: ${failure.message}`
+          : `forelog: ${err instanceof Error ? err.message : String(err)}`;
   process.stderr.write(`${message.replace(/\s*\n\s*/g, ' ')}\n`);
   process.exitCode = 1;
 });

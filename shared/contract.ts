@@ -311,7 +311,12 @@ export interface ApiErrorBody {
   error: { code: ApiErrorCode; message: string; fields: string[] };
 }
 
-export type ApiErrorCode = 'invalid' | 'not_found' | 'conflict' | 'internal';
+/**
+ * `busy` (another window or command is writing; retry), `read_only` (the diary file may not
+ * be written), `disk_full` and `storage` (the file could not be read or written, or is
+ * damaged) describe the diary file rather than the request; each message says what to do.
+ */
+export type ApiErrorCode = 'invalid' | 'not_found' | 'conflict' | 'busy' | 'read_only' | 'disk_full' | 'storage' | 'internal';
 
 export class ApiError extends Error {
   constructor(

@@ -1,31 +1,77 @@
 /**
  * Copies of the diary: an online backup (SQLite's backup API, safe while the diary is in
- * use) and a restore that checks the copy before it replaces anything.
+ * use, written atomically) and a restore that checks the copy before it replaces anything
+ * and works while other processes have the diary open.
  */
 import Database from 'better-sqlite3';
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
+import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
-import { openStore, type StoreHandles } from '../store/open';
+import { openStore, type Db, type StoreHandles } from '../store/open';
+import { replaceContents } from '../store/replace';
+
+/** Flushes a file's (or, where the system allows it, a folder's) contents to the disk. */
+function fsyncPath(target: string, flags: string): void {
+  const fd = fs.openSync(target, flags);
+  try {
+    fs.fsyncSync(fd);
+  } finally {
+    fs.closeSync(fd);
+  }
+}
+
+/**
+ * Writes an online copy of the database behind `source` (the diary at `sourcePath`) to
+ * `file`, atomically: SQLite's backup API writes a temporary file in the target folder,
+ * which is made self-contained, flushed to the disk and only then renamed over `file`.
+ * A copy cut short — a crash, a full disk, a killed command — never sits under the
+ * target's name, and a file that was there stays as it was.
+ */
+async function writeCopy(source: Db, sourcePath: string, file: string, onProgress?: (percent: number) => void): Promise<void> {
+  const target = path.resolve(file);
+  // Not ending in .sqlite, so a partial copy is never taken for one of the rolling backups.
+  const partial = `${target}.partial-${process.pid}-${randomBytes(4).toString('hex')}`;
+  try {
+    fs.mkdirSync(path.dirname(target), { recursive: true });
+    // SQLite says only "cannot open" for a folder we may not write; the OS says why.
+    fs.accessSync(path.dirname(target), fs.constants.W_OK);
+    await source.backup(partial, {
+      progress({ totalPages, remainingPages }) {
+        if (totalPages > 0) onProgress?.(Math.round(((totalPages - remainingPages) / totalPages) * 100));
+        return 256;
+      },
+    });
+    // A copy is one self-contained file: out of WAL mode, so opening it later (even
+    // read-only) leaves no -wal/-shm files beside it.
+    const copy = new Database(partial);
+    try {
+      copy.pragma('journal_mode = DELETE');
+    } finally {
+      copy.close();
+    }
+    fsyncPath(partial, 'r+');
+    fs.renameSync(partial, target);
+    try {
+      fsyncPath(path.dirname(target), 'r'); // makes the rename itself durable (POSIX)
+    } catch {
+      // Windows cannot open a folder to flush it; its rename is already recorded by NTFS.
+    }
+  } catch (err) {
+    for (const suffix of ['', '-journal', '-wal', '-shm']) fs.rmSync(partial + suffix, { force: true });
+    const problem = problemOf(err);
+    // A full disk or a folder we may not write concerns the copy; anything else, the diary read from.
+    if (problem === 'disk_full' || problem === 'read_only' || problem === 'io_error') throw toStoreError(err, target, 'copy');
+    throw toStoreError(err, sourcePath) ?? err;
+  }
+}
 
 export async function backupTo(store: StoreHandles, file: string, onProgress?: (percent: number) => void): Promise<void> {
   const target = path.resolve(file);
   if (target === store.path) throw new Error('The backup file cannot be the diary itself; choose another file name.');
-  fs.mkdirSync(path.dirname(target), { recursive: true });
-  await store.write.backup(target, {
-    progress({ totalPages, remainingPages }) {
-      if (totalPages > 0) onProgress?.(Math.round(((totalPages - remainingPages) / totalPages) * 100));
-      return 256;
-    },
-  });
-  // A copy is one self-contained file: out of WAL mode, so opening it later (even
-  // read-only) leaves no -wal/-shm files beside it.
-  const copy = new Database(target);
-  try {
-    copy.pragma('journal_mode = DELETE');
-  } finally {
-    copy.close();
-  }
+  await writeCopy(store.write, store.path, target, onProgress);
 }
 
 /** Checks that `file` is a Forelog diary this version can open; returns its question count. */
@@ -54,36 +100,51 @@ export function inspectBackup(file: string): { questions: number; version: numbe
   }
 }
 
+export interface RestoreResult {
+  questions: number;
+  /** Where the replaced diary is kept (null when there was no diary before). */
+  safetyCopy: string | null;
+  /** True when there was no diary at the path and the restore made one. */
+  created: boolean;
+}
+
 /**
- * Puts `backupFile` in place of the diary at `dbPath` (which must not be open). The
- * current diary is first copied beside itself as `<name>.before-restore-<time>.sqlite`,
- * so a wrong restore can be undone. Returns that safety copy's path (null if there was no diary).
+ * Puts `backupFile` in place of the diary at `dbPath`, which other processes may have
+ * open: the contents are replaced in one ordinary write transaction (see
+ * replaceContents), so they read the restored diary and keep what they write next. The
+ * current diary is first copied beside itself as `<name>.before-restore-<time>.sqlite`, so
+ * a wrong restore can be undone. An older backup is migrated forward on a private copy (the
+ * backup file is never written); a newer one is refused before anything changes.
  */
-export async function restoreFrom(backupFile: string, dbPath: string, stamp: number): Promise<{ questions: number; safetyCopy: string | null }> {
+export async function restoreFrom(backupFile: string, dbPath: string, stamp: number): Promise<RestoreResult> {
   const source = path.resolve(backupFile);
   const target = path.resolve(dbPath);
   if (source === target) throw new Error('The backup file is the diary itself; choose a backup copy.');
   const { questions } = inspectBackup(source);
-  let safetyCopy: string | null = null;
-  if (fs.existsSync(target)) {
-    const current = openStore(target);
-    try {
-      safetyCopy = target.replace(/(\.sqlite)?$/, `.before-restore-${new Date(stamp).toISOString().replace(/[:.]/g, '-')}.sqlite`);
-      await backupTo(current, safetyCopy);
-    } finally {
-      current.close();
-    }
-  }
-  const src = new Database(source, { readonly: true, fileMustExist: true });
+  // The normal opener: a newer diary or another program's file is refused untouched.
+  const live = openStore(target);
+  const work = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-restore-'));
   try {
-    for (const suffix of ['-wal', '-shm']) fs.rmSync(target + suffix, { force: true });
-    await src.backup(target);
+    if (live.readOnly) throw new StoreError('read_only', target, describeProblem('read_only', target));
+    const copy = path.join(work, 'restore.sqlite');
+    const backup = new Database(source, { readonly: true, fileMustExist: true });
+    try {
+      await backup.backup(copy);
+    } finally {
+      backup.close();
+    }
+    openStore(copy).close(); // migrates an older copy to this version's schema
+    const safetyCopy = live.created
+      ? null
+      : target.replace(/(\.sqlite)?$/, `.before-restore-${new Date(stamp).toISOString().replace(/[:.]/g, '-')}.sqlite`);
+    await replaceContents(live, copy, async () => {
+      if (safetyCopy) await writeCopy(live.read, target, safetyCopy);
+    });
+    return { questions, safetyCopy, created: live.created };
   } finally {
-    src.close();
+    live.close();
+    fs.rmSync(work, { recursive: true, force: true });
   }
-  // Opening migrates an older copy forward and checks it once more.
-  openStore(target).close();
-  return { questions, safetyCopy };
 }
 
 export const ROLLING_BACKUP_PREFIX = 'forelog-';
@@ -111,10 +172,7 @@ export async function rollingBackup(
   let created: string | null = null;
   if (!existing().some((name) => name.startsWith(`${ROLLING_BACKUP_PREFIX}${day}`))) {
     created = path.join(dir, `${ROLLING_BACKUP_PREFIX}${new Date(now).toISOString().replace(/[:.]/g, '-')}.sqlite`);
-    // Written under a temporary name first, so a copy cut short never looks complete.
-    const partial = `${created}.partial`;
-    await backupTo(store, partial);
-    fs.renameSync(partial, created);
+    await backupTo(store, created);
   }
   const all = existing();
   const removed = all.slice(0, Math.max(0, all.length - keep)).map((name) => path.join(dir, name));

@@ -54,6 +54,8 @@ type ImportFormat = (typeof IMPORT_FORMATS)[number];
 export function createDiary(ctx: DiaryContext) {
   const { store, now } = ctx;
   const { read, write } = store;
+  // Every write is one immediate transaction (see writeTransaction in main/store/open.ts).
+  const transact = <T>(fn: () => T): T => store.transact(fn);
 
   const settings = (): Settings => readSettings(read, ctx.systemTimeZone);
 
@@ -220,7 +222,7 @@ export function createDiary(ctx: DiaryContext) {
       throw err;
     }
     const stamp = now();
-    write.transaction(() => {
+    transact(() => {
       const empty = qs.questionCount(write) === 0;
       // The file's settings come along only into an empty diary: importing a colleague's
       // file into a working diary must not change its defaults.
@@ -255,7 +257,7 @@ export function createDiary(ctx: DiaryContext) {
           throw err;
         }
       });
-    })();
+    });
     return { added: parsed.questions.length };
   }
 
@@ -335,7 +337,7 @@ export function createDiary(ctx: DiaryContext) {
         throw invalid('closes_at', req.opened_at === undefined ? 'must be in the future (after now, when the question opens)' : 'must be after the opening time (opened_at)');
       }
       let id = '';
-      write.transaction(() => {
+      transact(() => {
         id = insertWhole(
           {
             ...req,
@@ -347,12 +349,12 @@ export function createDiary(ctx: DiaryContext) {
           s,
           stamp,
         );
-      })();
+      });
       return getQuestion(id);
     },
 
     updateQuestion: (req) => {
-      write.transaction(() => {
+      transact(() => {
         const row = requireQuestionRow(req.id);
         const c = req.changes;
         const next: qs.QuestionRow = {
@@ -373,19 +375,19 @@ export function createDiary(ctx: DiaryContext) {
         if (next.closes_at <= next.opened_at) throw invalid('changes.closes_at', 'must be after the opening time (opened_at)');
         qs.updateQuestionRow(write, next);
         if (c.tags) qs.replaceTags(write, req.id, c.tags);
-      })();
+      });
       return getQuestion(req.id);
     },
 
     deleteQuestion: (req) => {
-      write.transaction(() => {
+      transact(() => {
         if (!qs.deleteQuestionRow(write, req.id)) throw notFound('question', req.id);
-      })();
+      });
       return { deleted: req.id };
     },
 
     addForecast: (req) => {
-      write.transaction(() => {
+      transact(() => {
         requireQuestionRow(req.question_id);
         const stamp = now();
         qs.insertForecast(write, {
@@ -399,13 +401,13 @@ export function createDiary(ctx: DiaryContext) {
         // A revision answers any pending check-in, snoozed or not.
         nudgeStore.clearSnoozes(write, req.question_id, 'checkin');
         qs.touchQuestion(write, req.question_id, stamp);
-      })();
+      });
       return getQuestion(req.question_id);
     },
 
     updateForecast: (req) => {
       let questionId = '';
-      write.transaction(() => {
+      transact(() => {
         const f = qs.forecastRow(write, req.id);
         if (!f) throw notFound('revision', req.id);
         questionId = f.question_id;
@@ -417,24 +419,24 @@ export function createDiary(ctx: DiaryContext) {
         });
         if (req.lenses) qs.replaceLenses(write, f.id, req.lenses as Lens[]);
         qs.touchQuestion(write, f.question_id, now());
-      })();
+      });
       return getQuestion(questionId);
     },
 
     deleteForecast: (req) => {
       let questionId = '';
-      write.transaction(() => {
+      transact(() => {
         const f = qs.forecastRow(write, req.id);
         if (!f) throw notFound('revision', req.id);
         questionId = f.question_id;
         qs.deleteForecastRow(write, req.id);
         qs.touchQuestion(write, f.question_id, now());
-      })();
+      });
       return getQuestion(questionId);
     },
 
     addReference: (req) => {
-      write.transaction(() => {
+      transact(() => {
         requireQuestionRow(req.question_id);
         qs.insertReference(write, {
           id: randomUUID(),
@@ -444,24 +446,24 @@ export function createDiary(ctx: DiaryContext) {
           source: req.source,
         });
         qs.touchQuestion(write, req.question_id, now());
-      })();
+      });
       return getQuestion(req.question_id);
     },
 
     deleteReference: (req) => {
       let questionId = '';
-      write.transaction(() => {
+      transact(() => {
         const r = qs.referenceRow(write, req.id);
         if (!r) throw notFound('reference forecast', req.id);
         questionId = r.question_id;
         qs.deleteReferenceRow(write, req.id);
         qs.touchQuestion(write, r.question_id, now());
-      })();
+      });
       return getQuestion(questionId);
     },
 
     resolveQuestion: (req) => {
-      write.transaction(() => {
+      transact(() => {
         const row = requireQuestionRow(req.id);
         const stamp = now();
         const at = req.at !== undefined ? ms(req.at) : stamp;
@@ -469,23 +471,23 @@ export function createDiary(ctx: DiaryContext) {
         qs.upsertResolution(write, { question_id: req.id, outcome: req.outcome as Outcome, at, note: req.note ?? '', recorded_at: stamp });
         nudgeStore.clearSnoozes(write, req.id);
         qs.touchQuestion(write, req.id, stamp);
-      })();
+      });
       return getQuestion(req.id);
     },
 
     reopenQuestion: (req) => {
-      write.transaction(() => {
+      transact(() => {
         requireQuestionRow(req.id);
         qs.deleteResolution(write, req.id);
         qs.touchQuestion(write, req.id, now());
-      })();
+      });
       return getQuestion(req.id);
     },
 
     getSettings: () => settings(),
 
     updateSettings: (req) => {
-      write.transaction(() => writeSettings(write, req as Partial<Settings>))();
+      transact(() => writeSettings(write, req as Partial<Settings>));
       return settings();
     },
 
@@ -541,11 +543,11 @@ export function createDiary(ctx: DiaryContext) {
       const t = now();
       const until = req.until !== undefined ? ms(req.until) : snoozeUntil(req.preset!, t, settings().time_zone);
       if (until <= t) throw invalid('until', 'must be in the future');
-      write.transaction(() => {
+      transact(() => {
         const row = requireQuestionRow(req.question_id);
         if (qs.loadBundles(write, [row.id])[0]?.resolution) throw invalid('question_id', 'this question is resolved; it has no nudges to snooze');
         nudgeStore.upsertSnooze(write, { question_id: req.question_id, kind: req.kind as nudgeStore.StoredNudgeKind, until });
-      })();
+      });
       return { question_id: req.question_id, kind: req.kind, until: toIso(until) };
     },
 

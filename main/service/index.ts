@@ -17,6 +17,12 @@ export interface OpenOptions {
   onInternalError?: (err: unknown) => void;
   /** Path of better-sqlite3's native module when it is not the default (Electron's own build). */
   nativeBinding?: string;
+  /** false: a missing diary file is an error and nothing is created (commands that only read). */
+  create?: boolean;
+  /** Whether this process may write the file; injected by tests (see openStore). */
+  canWrite?: (file: string) => boolean;
+  /** How long a write waits for another window's or command's write, in ms (default 5 s). */
+  busyTimeoutMs?: number;
 }
 
 export interface DiaryService {
@@ -38,9 +44,14 @@ export interface DiaryService {
 
 export function openDiary(options: OpenOptions): DiaryService {
   const now = options.now ?? Date.now;
-  const store = openStore(options.dbPath, { nativeBinding: options.nativeBinding });
+  const store = openStore(options.dbPath, {
+    nativeBinding: options.nativeBinding,
+    create: options.create,
+    canWrite: options.canWrite,
+    busyTimeoutMs: options.busyTimeoutMs,
+  });
   const diary = createDiary({ store, now, systemTimeZone: options.timeZone ?? systemTimeZone(), demo: buildDemoDiary });
-  const dispatch = createDispatch(diary.handlers, options.onInternalError);
+  const dispatch = createDispatch(diary.handlers, options.onInternalError ?? (() => {}), store.path);
   return {
     dispatch,
     diary,

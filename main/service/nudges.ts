@@ -49,13 +49,19 @@ export function createDiaryScheduler(
   notifier: Notifier,
   onDueCountChanged?: (count: number) => void,
 ): Scheduler {
+  // A read-only diary cannot record deliveries; this run of the app remembers them instead,
+  // so a nudge is not shown again every minute.
+  const delivered = new Set<string>();
+  const log: SchedulerPorts['log'] = store.readOnly
+    ? { wasDelivered: (key) => delivered.has(key) || nudgeStore.wasDelivered(store.read, key), record: (key) => void delivered.add(key) }
+    : {
+        wasDelivered: (key) => nudgeStore.wasDelivered(store.write, key),
+        record: (key, questionId, kind: NudgeKind, at) => nudgeStore.recordDelivered(store.write, key, questionId, kind, at),
+      };
   return createScheduler({
     clock: { now },
     source: { questions: () => unresolvedQuestions(store), settings, snoozes: () => snoozes(store) },
-    log: {
-      wasDelivered: (key) => nudgeStore.wasDelivered(store.write, key),
-      record: (key, questionId, kind: NudgeKind, at) => nudgeStore.recordDelivered(store.write, key, questionId, kind, at),
-    },
+    log,
     notifier,
     onDueCountChanged,
   });

@@ -31,7 +31,18 @@ export interface RunningServer {
   close(): Promise<void>;
 }
 
-const STATUS: Record<ApiErrorCode, number> = { invalid: 400, not_found: 404, conflict: 409, internal: 500 };
+// 403 is left to the Host/Origin refusal (the page reads 401/403 as "wrong token"); a
+// read-only diary is a conflict with the state of the file, a busy one is worth a retry.
+const STATUS: Record<ApiErrorCode, number> = {
+  invalid: 400,
+  not_found: 404,
+  conflict: 409,
+  read_only: 409,
+  busy: 503,
+  disk_full: 507,
+  storage: 500,
+  internal: 500,
+};
 
 const CONTENT_TYPES: Record<string, string> = {
   '.html': 'text/html; charset=utf-8',
