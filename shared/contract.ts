@@ -93,16 +93,11 @@ export const settingsPatch = z
   })
   .strict();
 
-const rangeBound = (end: 'from' | 'to') =>
-  z.string({ error: 'must be a date (YYYY-MM-DD) or an ISO 8601 date-time' }).refine((t) => parseRangeBound(t, end) !== null, {
-    message: 'must be a date (YYYY-MM-DD, the whole day in UTC) or an ISO 8601 date-time with an offset',
-  });
-
 export const scoreRequest = z
   .object({
     tag: v.tag.optional(),
-    from: rangeBound('from').optional(),
-    to: rangeBound('to').optional(),
+    from: v.rangeBound('from').optional(),
+    to: v.rangeBound('to').optional(),
     /** "What if" costs applied to every question in the filter, overriding their own. */
     costs: v.costs.optional(),
   })
@@ -113,8 +108,8 @@ export const scoreRequest = z
 
 export const hindsightRequest = z.object({
   tag: v.tag.optional(),
-  from: rangeBound('from').optional(),
-  to: rangeBound('to').optional(),
+  from: v.rangeBound('from').optional(),
+  to: v.rangeBound('to').optional(),
   /** A call is confident when its final forecast is at least this far towards one side. */
   threshold: z
     .number({ error: 'must be a number' })

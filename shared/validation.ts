@@ -3,7 +3,7 @@
  * probability, instant, tag, time zone and title are, each with the message a user sees.
  */
 import { z } from 'zod';
-import { isValidTimeZone, parseInstant } from './time';
+import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
 
 export const TAG_PATTERN = /^[a-z0-9][a-z0-9_\-:./]{0,63}$/;
 export const TAG_RULE =
@@ -13,10 +13,19 @@ export const probability = z
   .number({ error: 'must be a number between 0 and 1' })
   .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1, { message: 'must be a probability between 0 and 1' });
 
-export const instant = z
-  .string({ error: 'must be an ISO 8601 date-time text' })
-  .refine((v) => parseInstant(v) !== null, {
-    message: 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00',
+/** An ISO 8601 instant with an offset, inside `INSTANT_RANGE` (shared/time.ts). */
+export const instant = z.string({ error: 'must be an ISO 8601 date-time text' }).superRefine((text, ctx) => {
+  const ms = parseInstant(text);
+  if (ms === null) ctx.addIssue({ code: 'custom', message: 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00' });
+  else if (!isInstantInRange(ms)) ctx.addIssue({ code: 'custom', message: INSTANT_RANGE_RULE });
+});
+
+/** A filter bound: a bare date (that whole day in UTC) or an instant, inside `INSTANT_RANGE`. */
+export const rangeBound = (end: 'from' | 'to') =>
+  z.string({ error: 'must be a date (YYYY-MM-DD) or an ISO 8601 date-time' }).superRefine((text, ctx) => {
+    const ms = parseRangeBound(text, end);
+    if (ms === null) ctx.addIssue({ code: 'custom', message: 'must be a date (YYYY-MM-DD, the whole day in UTC) or an ISO 8601 date-time with an offset' });
+    else if (!isInstantInRange(ms)) ctx.addIssue({ code: 'custom', message: INSTANT_RANGE_RULE });
   });
 
 export const tag = z.string({ error: 'must be text' }).refine((v) => TAG_PATTERN.test(v), { message: `is not a valid tag: ${TAG_RULE}` });
