@@ -11,7 +11,7 @@ import type { ScorecardDetail, ScoreReport } from './scoring/types';
 import { parseRangeBound } from './time';
 import * as v from './validation';
 
-const id = z.string({ error: 'must be an id' }).min(1, { message: 'must not be empty' }).max(200);
+const id = v.id('must be an id');
 
 const firstForecast = z.object({
   p: v.probability,
@@ -64,7 +64,7 @@ export const updateForecastRequest = z.object({
 export const referenceRequest = z.object({
   question_id: id,
   p: v.probability,
-  source: z.string({ error: 'must be text' }).trim().min(1, { message: 'must name the source' }).max(200),
+  source: v.source,
   at: v.instant.optional(),
 });
 
@@ -78,7 +78,7 @@ export const resolveRequest = z.object({
 export const listRequest = z.object({
   status: z.enum(QUESTION_STATUSES as [string, ...string[]], { error: `must be one of ${QUESTION_STATUSES.join(', ')}` }).optional(),
   tag: v.tag.optional(),
-  text: z.string().max(200).optional(),
+  text: v.searchText.optional(),
 });
 
 export const settingsPatch = z

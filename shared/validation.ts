@@ -39,13 +39,53 @@ export const timeZone = z
   .string({ error: 'must be an IANA time zone name' })
   .refine(isValidTimeZone, { message: 'is not a time zone this system knows (use an IANA name such as Europe/London)' });
 
-export const title = z
-  .string({ error: 'must be text' })
-  .trim()
-  .min(1, { message: 'must not be empty' })
-  .max(300, { message: 'must be at most 300 characters' });
+/**
+ * Control characters in text. One-line fields (titles, names, sources, ids, search text)
+ * take none of the C0 controls U+0000–U+001F or DEL U+007F; notes may also hold tab, line
+ * feed and carriage return. Why: nobody types them, they hide on screen and in CSV, and
+ * SQLite's length() stops at a NUL, so the store would see "\u0000" as an empty title
+ * that the validator thought was full.
+ */
+const ONE_LINE_CONTROLS = /[\u0000-\u001f\u007f]/;
+const NOTE_CONTROLS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
 
-export const note = z.string({ error: 'must be text' }).max(20_000, { message: 'must be at most 20,000 characters' });
+/** The first forbidden control character in `text`, as a reason naming it and its place; null when none. */
+export function controlCharacterProblem(text: string, lines: 'one' | 'many'): string | null {
+  const m = (lines === 'one' ? ONE_LINE_CONTROLS : NOTE_CONTROLS).exec(text);
+  if (!m) return null;
+  const found = `found U+${m[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')} at character ${m.index + 1}`;
+  return lines === 'one'
+    ? `must be one line without control characters such as NUL, tab or line breaks (${found})`
+    : `must not contain control characters other than tab and line breaks (${found})`;
+}
+
+/** Text of `lines` lines; a control-character problem stops the field's other checks (one reason is enough). */
+function text(lines: 'one' | 'many', typeError = 'must be text') {
+  return z.string({ error: typeError }).superRefine((value, ctx) => {
+    const problem = controlCharacterProblem(value, lines);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem, continue: false });
+  });
+}
+
+/** One line of text, trimmed, not empty once trimmed: after this rule SQLite's length(trim(x)) > 0 holds too. */
+const filledLine = (max: number, empty = 'must not be empty') =>
+  text('one')
+    .trim()
+    .min(1, { message: empty })
+    .max(max, { message: `must be at most ${max} characters` });
+
+export const title = filledLine(300);
+
+export const note = text('many').max(20_000, { message: 'must be at most 20,000 characters' });
+
+/** Whose reference forecast it is. */
+export const source = filledLine(200, 'must name the source');
+
+/** A record's id, as requests name it and diary files carry it. */
+export const id = (typeError = 'must be text') => text('one', typeError).min(1, { message: 'must not be empty' }).max(200);
+
+/** Search text for the question list. */
+export const searchText = text('one').max(200, { message: 'must be at most 200 characters' });
 
 export const positiveCost = z
   .number({ error: 'must be a number' })
@@ -60,7 +100,7 @@ export const checkinDays = z
   .max(365, { message: 'must be at most 365 days' });
 
 export const lens = z.object({
-  name: z.string({ error: 'must be text' }).trim().min(1, { message: 'must not be empty' }).max(80),
+  name: filledLine(80),
   p: probability,
   weight: z
     .number({ error: 'must be a number' })
