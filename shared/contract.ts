@@ -328,6 +328,9 @@ export class ApiError extends Error {
  * field and reason.
  */
 export function parseRequest<K extends OperationName>(name: K, raw: unknown): ValidRequest<K> {
+  if (v.nestedDeeperThan(raw)) {
+    throw new ApiError('invalid', `The request is nested too deeply: ${v.NESTING_RULE}. Nothing was changed.`);
+  }
   const result = operations[name].safeParse(raw ?? {});
   if (!result.success) {
     const fields = v.describeIssues(result.error);

@@ -143,6 +143,51 @@ export const closesAfterOpens: [
 
 export const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { message: 'must be a time of day HH:MM (24-hour)' });
 
+/**
+ * How deep lists and objects may nest in a request or a diary file. The deepest real shape
+ * (a diary file's lens: request → diary → questions → question → forecasts → forecast →
+ * lenses → lens) is 8 levels; refusing past 64 keeps every recursive reader (schema
+ * checks, error formatting, JSON.stringify) far from the stack's end, and JSON.parse from
+ * spending seconds on a body of nothing but brackets.
+ */
+export const MAX_NESTING = 64;
+
+export const NESTING_RULE = `lists and objects may nest at most ${MAX_NESTING} levels deep`;
+
+/** True when `value` holds lists or objects nested deeper than `limit`; walks without recursion, stops at the first. */
+export function nestedDeeperThan(value: unknown, limit = MAX_NESTING): boolean {
+  const stack: [unknown, number][] = [[value, 1]];
+  while (stack.length > 0) {
+    const [item, depth] = stack.pop()!;
+    if (typeof item !== 'object' || item === null) continue;
+    if (depth > limit) return true;
+    for (const child of Array.isArray(item) ? item : Object.values(item)) {
+      if (typeof child === 'object' && child !== null) stack.push([child, depth + 1]);
+    }
+  }
+  return false;
+}
+
+/**
+ * The same question asked of JSON text before parsing it: counts brackets outside strings
+ * in one pass. Exact for valid JSON; for invalid JSON the parser's own error follows.
+ */
+export function jsonTextNestedDeeperThan(text: string, limit = MAX_NESTING): boolean {
+  let depth = 0;
+  let inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 0x5c) i++; // backslash: the next character is escaped
+      else if (c === 0x22) inString = false;
+    } else if (c === 0x22) inString = true;
+    else if (c === 0x5b || c === 0x7b) {
+      if (++depth > limit) return true;
+    } else if (c === 0x5d || c === 0x7d) depth--;
+  }
+  return false;
+}
+
 /** Turns a zod error into one line per problem: `field.path: reason`. */
 export function describeIssues(error: z.ZodError, prefix = ''): string[] {
   return error.issues.map((issue) => {

@@ -19,6 +19,7 @@ import {
 } from '../../shared/domain';
 import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
+import { jsonTextNestedDeeperThan, NESTING_RULE } from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
 import * as qs from '../store/questions';
@@ -308,6 +309,9 @@ export function createDiary(ctx: DiaryContext) {
         throw err;
       }
       return importParsed(diary);
+    }
+    if (jsonTextNestedDeeperThan(text)) {
+      throw new ApiError('invalid', `The file is nested too deeply (${NESTING_RULE}); nothing was imported. Is it a Forelog diary file?`);
     }
     let parsed: unknown;
     try {

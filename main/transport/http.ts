@@ -12,6 +12,7 @@ import type { Duplex } from 'node:stream';
 import path from 'node:path';
 import { API_PREFIX, type Envelope } from '../../shared/bridge';
 import type { ApiErrorCode } from '../../shared/contract';
+import { jsonTextNestedDeeperThan, NESTING_RULE } from '../../shared/validation';
 import type { Dispatch } from '../service/dispatch';
 import { CONTENT_SECURITY_POLICY } from '../shell/csp';
 
@@ -205,6 +206,9 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       return;
     }
     const text = await readBody(req, limit);
+    if (jsonTextNestedDeeperThan(text)) {
+      throw new RequestRefusal(400, `The request body is nested too deeply: ${NESTING_RULE}. Nothing was changed.`);
+    }
     let request: unknown = {};
     try {
       request = text.trim() ? JSON.parse(text) : {};
