@@ -8,7 +8,6 @@ import { z } from 'zod';
 import type { DueNudge, Question, QuestionSummary, Settings } from './domain';
 import { NUDGE_KINDS, OUTCOMES, QUESTION_STATUSES } from './domain';
 import type { ScorecardDetail, ScoreReport } from './scoring/types';
-import { parseRangeBound } from './time';
 import * as v from './validation';
 
 const id = v.id('must be an id');
@@ -101,22 +100,21 @@ export const scoreRequest = z
     /** "What if" costs applied to every question in the filter, overriding their own. */
     costs: v.costs.optional(),
   })
-  .refine((r) => r.from === undefined || r.to === undefined || parseRangeBound(r.from, 'from')! <= parseRangeBound(r.to, 'to')!, {
-    message: 'must not be before from',
-    path: ['to'],
-  });
+  .refine(...v.toNotBeforeFrom);
 
-export const hindsightRequest = z.object({
-  tag: v.tag.optional(),
-  from: v.rangeBound('from').optional(),
-  to: v.rangeBound('to').optional(),
-  /** A call is confident when its final forecast is at least this far towards one side. */
-  threshold: z
-    .number({ error: 'must be a number' })
-    .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
-    .default(0.8),
-  include_hits: z.boolean({ error: 'must be true or false' }).default(false),
-});
+export const hindsightRequest = z
+  .object({
+    tag: v.tag.optional(),
+    from: v.rangeBound('from').optional(),
+    to: v.rangeBound('to').optional(),
+    /** A call is confident when its final forecast is at least this far towards one side. */
+    threshold: z
+      .number({ error: 'must be a number' })
+      .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
+      .default(0.8),
+    include_hits: z.boolean({ error: 'must be true or false' }).default(false),
+  })
+  .refine(...v.toNotBeforeFrom);
 
 export const briefingRequest = z.object({
   tag: v.tag.optional(),

@@ -141,6 +141,17 @@ export const closesAfterOpens: [
   { message: 'must be after the opening time (opened_at)', path: ['closes_at'] },
 ];
 
+/** A filter's range must not end before it starts (checked when both ends are given and readable). */
+export const toNotBeforeFrom: [(r: { from?: string; to?: string }) => boolean, { message: string; path: PropertyKey[] }] = [
+  (r) => {
+    if (r.from === undefined || r.to === undefined) return true;
+    const from = parseRangeBound(r.from, 'from');
+    const to = parseRangeBound(r.to, 'to');
+    return from === null || to === null || from <= to;
+  },
+  { message: 'must not be before from', path: ['to'] },
+];
+
 export const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { message: 'must be a time of day HH:MM (24-hour)' });
 
 /**

@@ -194,3 +194,14 @@ test('the command line refuses --at, --from and --to outside the range with the 
   assert.equal(inside.status, 0, inside.stderr);
   assert.equal(JSON.parse(inside.stdout).at, '2199-12-31T23:59:59.999Z');
 });
+
+test('a filter whose to is before its from is refused as invalid by score and hindsight alike', async () => {
+  const d = openTestDiary();
+  for (const op of ['score', 'hindsight'] as const) {
+    const answer = await d.service.dispatch(op, { from: '2200-01-01T13:59:59.999+14:00', to: '2026-12-31' });
+    assert.equal(answer.ok, false, op);
+    if (!answer.ok) assert.deepEqual(answer.error.fields, ['to: must not be before from'], op);
+    const sameDay = await d.service.dispatch(op, { from: '2026-12-31', to: '2026-12-31' });
+    assert.equal(sameDay.ok, true, `${op}: a single day is a valid range`);
+  }
+});
