@@ -82,7 +82,8 @@ export const note = text('many').max(20_000, { message: 'must be at most 20,000 
 export const source = filledLine(200, 'must name the source');
 
 /** A record's id, as requests name it and diary files carry it. */
-export const id = (typeError = 'must be text') => text('one', typeError).min(1, { message: 'must not be empty' }).max(200);
+export const id = (typeError = 'must be text') =>
+  text('one', typeError).min(1, { message: 'must not be empty' }).max(200, { message: 'must be at most 200 characters' });
 
 /** Search text for the question list. */
 export const searchText = text('one').max(200, { message: 'must be at most 200 characters' });
