@@ -168,12 +168,14 @@ function targetPath(target: string | undefined, allowedHosts: Set<string>): stri
 }
 
 /**
- * What a malformed request line, bad or oversized headers, or a timeout earn: a bare
- * status line, then the connection closes. Node's parser reports these on the server
- * rather than the request, so they never reach the request handler.
+ * What a malformed request line, bad or oversized headers, a malformed body encoding or a
+ * timeout earn: a bare status line, then the connection closes. Node's parser reports
+ * these on the server rather than the request, so they never reach the request handler.
+ * `mayAnswer` is false when the status line could land inside, or in place of, the answer
+ * to an earlier request on the same connection (pipelining): the connection is dropped.
  */
-function answerClientError(err: NodeJS.ErrnoException, socket: Duplex): void {
-  if (err.code === 'ECONNRESET' || !socket.writable) {
+function answerClientError(err: NodeJS.ErrnoException, socket: Duplex, mayAnswer: boolean): void {
+  if (err.code === 'ECONNRESET' || !socket.writable || !mayAnswer) {
     socket.destroy();
     return;
   }
@@ -278,14 +280,27 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
     serveStatic(req, res, pathname);
   }
 
+  // Requests still being answered, per connection: see answerClientError.
+  const inFlight = new WeakMap<Duplex, Set<{ req: http.IncomingMessage; res: http.ServerResponse }>>();
+
   const server = http.createServer((req, res) => {
+    const socket = req.socket;
+    const pending = inFlight.get(socket) ?? new Set();
+    inFlight.set(socket, pending);
+    const entry = { req, res };
+    pending.add(entry);
+    res.on('close', () => pending.delete(entry));
     try {
       handle(req, res);
     } catch (err) {
       answerFailure(res, err);
     }
   });
-  server.on('clientError', answerClientError);
+  server.on('clientError', (err: NodeJS.ErrnoException, socket: Duplex) => {
+    // Only the request whose own body broke may be answered, and only before its answer began.
+    const pending = [...(inFlight.get(socket) ?? [])];
+    answerClientError(err, socket, pending.every(({ req, res }) => !req.complete && !res.headersSent));
+  });
 
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);

@@ -181,3 +181,12 @@ test('a body that is not UTF-8 or not JSON gets 400 naming the problem', async (
   assert.match(notJson.text, /not valid JSON/);
   await assertStillServing();
 });
+
+test('garbage pipelined behind a request still being answered drops the connection, not the server', async () => {
+  const pipelined = await raw([
+    `${post('exportText', 'Content-Type: application/json\r\nContent-Length: 17\r\n', '{"format":"json"}').replace('Connection: close\r\n', '')}GARBAGE LINE\r\n\r\n`,
+  ]);
+  assert.ok(pipelined.status === 0 || pipelined.status === 200, pipelined.text.slice(0, 200));
+  assert.doesNotMatch(pipelined.text.slice(0, 400), /^HTTP\/1\.1 400/, 'no status line written into the answer before it');
+  await assertStillServing();
+});
