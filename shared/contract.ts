@@ -8,10 +8,9 @@ import { z } from 'zod';
 import type { DueNudge, Question, QuestionSummary, Settings } from './domain';
 import { NUDGE_KINDS, OUTCOMES, QUESTION_STATUSES } from './domain';
 import type { ScorecardDetail, ScoreReport } from './scoring/types';
-import { parseRangeBound } from './time';
 import * as v from './validation';
 
-const id = z.string({ error: 'must be an id' }).min(1, { message: 'must not be empty' }).max(200);
+const id = v.id('must be an id');
 
 const firstForecast = z.object({
   p: v.probability,
@@ -64,7 +63,7 @@ export const updateForecastRequest = z.object({
 export const referenceRequest = z.object({
   question_id: id,
   p: v.probability,
-  source: z.string({ error: 'must be text' }).trim().min(1, { message: 'must name the source' }).max(200),
+  source: v.source,
   at: v.instant.optional(),
 });
 
@@ -78,7 +77,7 @@ export const resolveRequest = z.object({
 export const listRequest = z.object({
   status: z.enum(QUESTION_STATUSES as [string, ...string[]], { error: `must be one of ${QUESTION_STATUSES.join(', ')}` }).optional(),
   tag: v.tag.optional(),
-  text: z.string().max(200).optional(),
+  text: v.searchText.optional(),
 });
 
 export const settingsPatch = z
@@ -93,35 +92,29 @@ export const settingsPatch = z
   })
   .strict();
 
-const rangeBound = (end: 'from' | 'to') =>
-  z.string({ error: 'must be a date (YYYY-MM-DD) or an ISO 8601 date-time' }).refine((t) => parseRangeBound(t, end) !== null, {
-    message: 'must be a date (YYYY-MM-DD, the whole day in UTC) or an ISO 8601 date-time with an offset',
-  });
-
 export const scoreRequest = z
   .object({
     tag: v.tag.optional(),
-    from: rangeBound('from').optional(),
-    to: rangeBound('to').optional(),
+    from: v.rangeBound('from').optional(),
+    to: v.rangeBound('to').optional(),
     /** "What if" costs applied to every question in the filter, overriding their own. */
     costs: v.costs.optional(),
   })
-  .refine((r) => r.from === undefined || r.to === undefined || parseRangeBound(r.from, 'from')! <= parseRangeBound(r.to, 'to')!, {
-    message: 'must not be before from',
-    path: ['to'],
-  });
+  .refine(...v.toNotBeforeFrom);
 
-export const hindsightRequest = z.object({
-  tag: v.tag.optional(),
-  from: rangeBound('from').optional(),
-  to: rangeBound('to').optional(),
-  /** A call is confident when its final forecast is at least this far towards one side. */
-  threshold: z
-    .number({ error: 'must be a number' })
-    .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
-    .default(0.8),
-  include_hits: z.boolean({ error: 'must be true or false' }).default(false),
-});
+export const hindsightRequest = z
+  .object({
+    tag: v.tag.optional(),
+    from: v.rangeBound('from').optional(),
+    to: v.rangeBound('to').optional(),
+    /** A call is confident when its final forecast is at least this far towards one side. */
+    threshold: z
+      .number({ error: 'must be a number' })
+      .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
+      .default(0.8),
+    include_hits: z.boolean({ error: 'must be true or false' }).default(false),
+  })
+  .refine(...v.toNotBeforeFrom);
 
 export const briefingRequest = z.object({
   tag: v.tag.optional(),
@@ -338,6 +331,9 @@ export class ApiError extends Error {
  * field and reason.
  */
 export function parseRequest<K extends OperationName>(name: K, raw: unknown): ValidRequest<K> {
+  if (v.nestedDeeperThan(raw)) {
+    throw new ApiError('invalid', `The request is nested too deeply: ${v.NESTING_RULE}. Nothing was changed.`);
+  }
   const result = operations[name].safeParse(raw ?? {});
   if (!result.success) {
     const fields = v.describeIssues(result.error);

@@ -20,7 +20,7 @@ const fileForecast = z.object({
 const fileReference = z.object({
   at: v.instant,
   p: v.probability,
-  source: z.string({ error: 'must be text' }).trim().min(1, { message: 'must name the source' }).max(200),
+  source: v.source,
 });
 
 const fileResolution = z.object({
@@ -31,7 +31,7 @@ const fileResolution = z.object({
 
 export const fileQuestion = z
   .object({
-    id: z.string({ error: 'must be text' }).min(1, { message: 'must not be empty' }).max(200).optional(),
+    id: v.id().optional(),
     ...v.questionFields,
     forecasts: z.array(fileForecast, { error: 'must be a list of forecasts' }),
     references: z.array(fileReference, { error: 'must be a list of reference forecasts' }).optional(),

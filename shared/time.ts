@@ -143,9 +143,35 @@ export function toLocalInputValue(ms: number, timeZone: string): string {
 }
 
 /**
+ * The instants Forelog accepts wherever a time comes in (the API, the diary file, CSV, the
+ * command line's --at/--from/--to): from 1900-01-01T00:00:00Z up to, not including,
+ * 2200-01-01T00:00:00Z. Why a range at all: an accepted instant must come back out
+ * unchanged (ISO 8601's four-digit years end at 9999, so a year-10000 instant exported as
+ * "+010000-…" and no longer re-imported), and the calendar arithmetic on it (check-ins,
+ * overdue days, snoozes, the briefing's dates) must stay well inside four-digit years.
+ * No real forecast needs more. Compare with `isInstantInRange`, never by hand.
+ */
+export const INSTANT_RANGE = {
+  /** 1900-01-01T00:00:00.000Z, the first instant accepted. */
+  earliest: Date.UTC(1900, 0, 1),
+  /** 2200-01-01T00:00:00.000Z, the first instant refused after the range. */
+  end: Date.UTC(2200, 0, 1),
+} as const;
+
+/** What a user reads when an instant falls outside `INSTANT_RANGE`. */
+export const INSTANT_RANGE_RULE = 'must be between 1900 and 2199 (from 1900-01-01T00:00:00Z up to, not including, 2200-01-01T00:00:00Z)';
+
+/** True when epoch-ms `ms` lies in `INSTANT_RANGE` (earliest included, end excluded). */
+export function isInstantInRange(ms: number): boolean {
+  return ms >= INSTANT_RANGE.earliest && ms < INSTANT_RANGE.end;
+}
+
+/**
  * Parses an ISO 8601 date-time that carries an offset or `Z` (as the diary file and the
  * API require); returns epoch ms or null. A bare date or a time without offset is
- * rejected here on purpose: it would be ambiguous.
+ * rejected here on purpose: it would be ambiguous. This reads the syntax only: whether
+ * the instant is in `INSTANT_RANGE` is the validator's question (shared/validation.ts),
+ * so stored times always read back.
  */
 const ISO_INSTANT_RE =
   /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,9}))?)?(Z|[+-]\d{2}:?\d{2})$/i;
@@ -174,7 +200,8 @@ export function parseRangeBound(text: string, end: 'from' | 'to'): number | null
   if (bare) {
     const wall = parseLocalDateTime(`${bare[1]}-${bare[2]}-${bare[3]}T00:00`);
     if (!wall) return null;
-    const start = Date.UTC(wall.year, wall.month - 1, wall.day);
+    // setUTCFullYear rather than Date.UTC, which would read year 0099 as 1999.
+    const start = new Date(0).setUTCFullYear(wall.year, wall.month - 1, wall.day);
     return end === 'from' ? start : start + 86_400_000 - 1;
   }
   return parseInstant(text);

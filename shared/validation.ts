@@ -3,7 +3,7 @@
  * probability, instant, tag, time zone and title are, each with the message a user sees.
  */
 import { z } from 'zod';
-import { isValidTimeZone, parseInstant } from './time';
+import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
 
 export const TAG_PATTERN = /^[a-z0-9][a-z0-9_\-:./]{0,63}$/;
 export const TAG_RULE =
@@ -13,10 +13,19 @@ export const probability = z
   .number({ error: 'must be a number between 0 and 1' })
   .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1, { message: 'must be a probability between 0 and 1' });
 
-export const instant = z
-  .string({ error: 'must be an ISO 8601 date-time text' })
-  .refine((v) => parseInstant(v) !== null, {
-    message: 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00',
+/** An ISO 8601 instant with an offset, inside `INSTANT_RANGE` (shared/time.ts). */
+export const instant = z.string({ error: 'must be an ISO 8601 date-time text' }).superRefine((text, ctx) => {
+  const ms = parseInstant(text);
+  if (ms === null) ctx.addIssue({ code: 'custom', message: 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00' });
+  else if (!isInstantInRange(ms)) ctx.addIssue({ code: 'custom', message: INSTANT_RANGE_RULE });
+});
+
+/** A filter bound: a bare date (that whole day in UTC) or an instant, inside `INSTANT_RANGE`. */
+export const rangeBound = (end: 'from' | 'to') =>
+  z.string({ error: 'must be a date (YYYY-MM-DD) or an ISO 8601 date-time' }).superRefine((text, ctx) => {
+    const ms = parseRangeBound(text, end);
+    if (ms === null) ctx.addIssue({ code: 'custom', message: 'must be a date (YYYY-MM-DD, the whole day in UTC) or an ISO 8601 date-time with an offset' });
+    else if (!isInstantInRange(ms)) ctx.addIssue({ code: 'custom', message: INSTANT_RANGE_RULE });
   });
 
 export const tag = z.string({ error: 'must be text' }).refine((v) => TAG_PATTERN.test(v), { message: `is not a valid tag: ${TAG_RULE}` });
@@ -30,13 +39,54 @@ export const timeZone = z
   .string({ error: 'must be an IANA time zone name' })
   .refine(isValidTimeZone, { message: 'is not a time zone this system knows (use an IANA name such as Europe/London)' });
 
-export const title = z
-  .string({ error: 'must be text' })
-  .trim()
-  .min(1, { message: 'must not be empty' })
-  .max(300, { message: 'must be at most 300 characters' });
+/**
+ * Control characters in text. One-line fields (titles, names, sources, ids, search text)
+ * take none of the C0 controls U+0000–U+001F or DEL U+007F; notes may also hold tab, line
+ * feed and carriage return. Why: nobody types them, they hide on screen and in CSV, and
+ * SQLite's length() stops at a NUL, so the store would see "\u0000" as an empty title
+ * that the validator thought was full.
+ */
+const ONE_LINE_CONTROLS = /[\u0000-\u001f\u007f]/;
+const NOTE_CONTROLS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
 
-export const note = z.string({ error: 'must be text' }).max(20_000, { message: 'must be at most 20,000 characters' });
+/** The first forbidden control character in `text`, as a reason naming it and its place; null when none. */
+export function controlCharacterProblem(text: string, lines: 'one' | 'many'): string | null {
+  const m = (lines === 'one' ? ONE_LINE_CONTROLS : NOTE_CONTROLS).exec(text);
+  if (!m) return null;
+  const found = `found U+${m[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')} at character ${m.index + 1}`;
+  return lines === 'one'
+    ? `must be one line without control characters such as NUL, tab or line breaks (${found})`
+    : `must not contain control characters other than tab and line breaks (${found})`;
+}
+
+/** Text of `lines` lines; a control-character problem stops the field's other checks (one reason is enough). */
+function text(lines: 'one' | 'many', typeError = 'must be text') {
+  return z.string({ error: typeError }).superRefine((value, ctx) => {
+    const problem = controlCharacterProblem(value, lines);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem, continue: false });
+  });
+}
+
+/** One line of text, trimmed, not empty once trimmed: after this rule SQLite's length(trim(x)) > 0 holds too. */
+const filledLine = (max: number, empty = 'must not be empty') =>
+  text('one')
+    .trim()
+    .min(1, { message: empty })
+    .max(max, { message: `must be at most ${max} characters` });
+
+export const title = filledLine(300);
+
+export const note = text('many').max(20_000, { message: 'must be at most 20,000 characters' });
+
+/** Whose reference forecast it is. */
+export const source = filledLine(200, 'must name the source');
+
+/** A record's id, as requests name it and diary files carry it. */
+export const id = (typeError = 'must be text') =>
+  text('one', typeError).min(1, { message: 'must not be empty' }).max(200, { message: 'must be at most 200 characters' });
+
+/** Search text for the question list. */
+export const searchText = text('one').max(200, { message: 'must be at most 200 characters' });
 
 export const positiveCost = z
   .number({ error: 'must be a number' })
@@ -51,7 +101,7 @@ export const checkinDays = z
   .max(365, { message: 'must be at most 365 days' });
 
 export const lens = z.object({
-  name: z.string({ error: 'must be text' }).trim().min(1, { message: 'must not be empty' }).max(80),
+  name: filledLine(80),
   p: probability,
   weight: z
     .number({ error: 'must be a number' })
@@ -92,7 +142,63 @@ export const closesAfterOpens: [
   { message: 'must be after the opening time (opened_at)', path: ['closes_at'] },
 ];
 
+/** A filter's range must not end before it starts (checked when both ends are given and readable). */
+export const toNotBeforeFrom: [(r: { from?: string; to?: string }) => boolean, { message: string; path: PropertyKey[] }] = [
+  (r) => {
+    if (r.from === undefined || r.to === undefined) return true;
+    const from = parseRangeBound(r.from, 'from');
+    const to = parseRangeBound(r.to, 'to');
+    return from === null || to === null || from <= to;
+  },
+  { message: 'must not be before from', path: ['to'] },
+];
+
 export const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { message: 'must be a time of day HH:MM (24-hour)' });
+
+/**
+ * How deep lists and objects may nest in a request or a diary file. The deepest real shape
+ * (a diary file's lens: request → diary → questions → question → forecasts → forecast →
+ * lenses → lens) is 8 levels; refusing past 64 keeps every recursive reader (schema
+ * checks, error formatting, JSON.stringify) far from the stack's end, and JSON.parse from
+ * spending seconds on a body of nothing but brackets.
+ */
+export const MAX_NESTING = 64;
+
+export const NESTING_RULE = `lists and objects may nest at most ${MAX_NESTING} levels deep`;
+
+/** True when `value` holds lists or objects nested deeper than `limit`; walks without recursion, stops at the first. */
+export function nestedDeeperThan(value: unknown, limit = MAX_NESTING): boolean {
+  const stack: [unknown, number][] = [[value, 1]];
+  while (stack.length > 0) {
+    const [item, depth] = stack.pop()!;
+    if (typeof item !== 'object' || item === null) continue;
+    if (depth > limit) return true;
+    for (const child of Array.isArray(item) ? item : Object.values(item)) {
+      if (typeof child === 'object' && child !== null) stack.push([child, depth + 1]);
+    }
+  }
+  return false;
+}
+
+/**
+ * The same question asked of JSON text before parsing it: counts brackets outside strings
+ * in one pass. Exact for valid JSON; for invalid JSON the parser's own error follows.
+ */
+export function jsonTextNestedDeeperThan(text: string, limit = MAX_NESTING): boolean {
+  let depth = 0;
+  let inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 0x5c) i++; // backslash: the next character is escaped
+      else if (c === 0x22) inString = false;
+    } else if (c === 0x22) inString = true;
+    else if (c === 0x5b || c === 0x7b) {
+      if (++depth > limit) return true;
+    } else if (c === 0x5d || c === 0x7d) depth--;
+  }
+  return false;
+}
 
 /** Turns a zod error into one line per problem: `field.path: reason`. */
 export function describeIssues(error: z.ZodError, prefix = ''): string[] {

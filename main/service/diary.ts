@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto';
 import type { ExportedText, Handlers, QuestionList, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
+import { extent } from '../../shared/extent';
 import { parseDiaryFile, toDiaryFile, DiaryFileError, type FileQuestion } from '../../shared/diary-file';
 import {
   questionStatus,
@@ -19,6 +20,7 @@ import {
 } from '../../shared/domain';
 import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
+import { jsonTextNestedDeeperThan, NESTING_RULE } from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
 import * as qs from '../store/questions';
@@ -93,7 +95,7 @@ export function createDiary(ctx: DiaryContext) {
   /** Inserts one question with its history; the caller holds the transaction. */
   function insertWhole(q: FileQuestion, s: Settings, stamp: number): string {
     const id = q.id ?? randomUUID();
-    const firstAt = q.forecasts.length ? Math.min(...q.forecasts.map((f) => ms(f.at))) : null;
+    const firstAt = q.forecasts.length ? extent(q.forecasts.map((f) => ms(f.at))).min : null;
     const closes = ms(q.closes_at);
     const opened = q.opened_at !== undefined ? ms(q.opened_at) : Math.min(firstAt ?? stamp, closes - 1);
     if (closes <= opened) throw invalid('closes_at', 'must be after the opening time (opened_at)');
@@ -310,6 +312,9 @@ export function createDiary(ctx: DiaryContext) {
         throw err;
       }
       return importParsed(diary);
+    }
+    if (jsonTextNestedDeeperThan(text)) {
+      throw new ApiError('invalid', `The file is nested too deeply (${NESTING_RULE}); nothing was imported. Is it a Forelog diary file?`);
     }
     let parsed: unknown;
     try {

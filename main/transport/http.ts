@@ -8,9 +8,11 @@ import { randomBytes, timingSafeEqual } from 'node:crypto';
 import fs from 'node:fs';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
+import type { Duplex } from 'node:stream';
 import path from 'node:path';
 import { API_PREFIX, type Envelope } from '../../shared/bridge';
 import type { ApiErrorCode } from '../../shared/contract';
+import { jsonTextNestedDeeperThan, NESTING_RULE } from '../../shared/validation';
 import type { Dispatch } from '../service/dispatch';
 import { CONTENT_SECURITY_POLICY } from '../shell/csp';
 
@@ -57,6 +59,20 @@ const CONTENT_TYPES: Record<string, string> = {
 };
 
 
+/**
+ * A request the server refuses before the API sees it, with the status to answer and a
+ * message that says what to do. Thrown by the request-reading helpers below.
+ */
+class RequestRefusal extends Error {
+  constructor(
+    readonly status: number,
+    message: string,
+  ) {
+    super(message);
+    this.name = 'RequestRefusal';
+  }
+}
+
 function sendJson(res: http.ServerResponse, status: number, body: unknown): void {
   const text = JSON.stringify(body);
   res.writeHead(status, {
@@ -68,7 +84,16 @@ function sendJson(res: http.ServerResponse, status: number, body: unknown): void
   res.end(text);
 }
 
+/**
+ * Answers with an error envelope, unless the answer can no longer be sent (the client
+ * went away, or an answer already started): then the connection is dropped instead, so a
+ * second answer never throws inside the server.
+ */
 function refuse(res: http.ServerResponse, status: number, message: string): void {
+  if (res.headersSent || res.writableEnded || res.destroyed) {
+    res.destroy();
+    return;
+  }
   const envelope: Envelope = { ok: false, error: { code: 'invalid', message, fields: [] } };
   sendJson(res, status, envelope);
 }
@@ -81,22 +106,97 @@ function tokenMatches(header: string | undefined, token: string): boolean {
   return given.length === expected.length && timingSafeEqual(given, expected);
 }
 
+const megabytes = (bytes: number): string => `${Math.round(bytes / 1_048_576)} MB`;
+
+/**
+ * Reads the whole body as UTF-8 text. Refuses (413) a body larger than `limit` before
+ * reading it when Content-Length says so, and as soon as it grows past it otherwise; a
+ * body cut off before its end, or one that is not UTF-8, is refused with 400.
+ */
 function readBody(req: http.IncomingMessage, limit: number): Promise<string> {
   return new Promise((resolve, reject) => {
+    const tooLarge = () =>
+      new RequestRefusal(413, `The request is larger than ${megabytes(limit)}; nothing was changed. Import a large diary with \`forelog import FILE\` instead.`);
+    const declared = Number(req.headers['content-length']);
+    if (Number.isFinite(declared) && declared > limit) {
+      reject(tooLarge());
+      return;
+    }
     const chunks: Buffer[] = [];
     let size = 0;
+    let settled = false;
+    const settle = (outcome: () => void) => {
+      if (settled) return;
+      settled = true;
+      outcome();
+    };
     req.on('data', (chunk: Buffer) => {
+      if (settled) return;
       size += chunk.length;
       if (size > limit) {
-        reject(new Error(`The request is larger than ${Math.round(limit / 1_048_576)} MB.`));
-        req.destroy();
+        chunks.length = 0;
+        settle(() => reject(tooLarge()));
         return;
       }
       chunks.push(chunk);
     });
-    req.on('end', () => resolve(Buffer.concat(chunks).toString('utf8')));
-    req.on('error', reject);
+    req.on('end', () =>
+      settle(() => {
+        try {
+          resolve(new TextDecoder('utf-8', { fatal: true }).decode(Buffer.concat(chunks)));
+        } catch {
+          reject(new RequestRefusal(400, 'The request body is not UTF-8 text; nothing was changed. Send the JSON body encoded as UTF-8.'));
+        }
+      }),
+    );
+    const cutOff = () =>
+      settle(() => reject(new RequestRefusal(400, 'The request body ended before its declared length; nothing was changed. Send the request again.')));
+    req.on('error', cutOff);
+    req.on('aborted', cutOff);
+    req.on('close', cutOff);
   });
+}
+
+/**
+ * The path of a request target (RFC 9112 §3.2): origin form `/path?query`, or absolute
+ * form `http://host/path`, whose authority must then be ours like the Host header.
+ * Anything else (`*`, an unparsable URL) is refused with 400.
+ */
+function targetPath(target: string | undefined, allowedHosts: Set<string>): string {
+  const text = target ?? '';
+  if (text.startsWith('/')) return text.replace(/[?#].*$/s, '');
+  let url: URL;
+  try {
+    url = new URL(text);
+  } catch {
+    throw new RequestRefusal(400, 'The request names no valid path; ask for a path such as / or /api/<operation>.');
+  }
+  if (url.protocol !== 'http:') throw new RequestRefusal(400, 'The request names no valid path; ask for a path such as / or /api/<operation>.');
+  if (!allowedHosts.has(url.host)) {
+    throw new RequestRefusal(403, 'Refused: Forelog answers only requests addressed to its own loopback address and port.');
+  }
+  return url.pathname;
+}
+
+/**
+ * What a malformed request line, bad or oversized headers, a malformed body encoding or a
+ * timeout earn: a bare status line, then the connection closes. Node's parser reports
+ * these on the server rather than the request, so they never reach the request handler.
+ * `mayAnswer` is false when the status line could land inside, or in place of, the answer
+ * to an earlier request on the same connection (pipelining): the connection is dropped.
+ */
+function answerClientError(err: NodeJS.ErrnoException, socket: Duplex, mayAnswer: boolean): void {
+  if (err.code === 'ECONNRESET' || !socket.writable || !mayAnswer) {
+    socket.destroy();
+    return;
+  }
+  const status =
+    err.code === 'HPE_HEADER_OVERFLOW'
+      ? '431 Request Header Fields Too Large'
+      : err.code === 'ERR_HTTP_REQUEST_TIMEOUT'
+        ? '408 Request Timeout'
+        : '400 Bad Request';
+  socket.end(`HTTP/1.1 ${status}\r\nConnection: close\r\nContent-Length: 0\r\n\r\n`);
 }
 
 export async function startHttpServer(options: HttpServerOptions): Promise<RunningServer> {
@@ -118,13 +218,15 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       refuse(res, 405, 'API calls use POST with a JSON body.');
       return;
     }
+    const text = await readBody(req, limit);
+    if (jsonTextNestedDeeperThan(text)) {
+      throw new RequestRefusal(400, `The request body is nested too deeply: ${NESTING_RULE}. Nothing was changed.`);
+    }
     let request: unknown = {};
     try {
-      const text = await readBody(req, limit);
       request = text.trim() ? JSON.parse(text) : {};
     } catch (err) {
-      refuse(res, 400, `The request body is not valid JSON: ${err instanceof Error ? err.message : String(err)}. Nothing was changed.`);
-      return;
+      throw new RequestRefusal(400, `The request body is not valid JSON: ${err instanceof Error ? err.message : String(err)}. Nothing was changed.`);
     }
     const answer = await options.dispatch(operation, request);
     sendJson(res, answer.ok ? 200 : STATUS[answer.error.code], answer);
@@ -135,9 +237,15 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       res.writeHead(405, { Allow: 'GET, HEAD' }).end();
       return;
     }
-    const relative = pathname === '/' ? 'index.html' : decodeURIComponent(pathname.slice(1));
+    let relative: string;
+    try {
+      relative = pathname === '/' ? 'index.html' : decodeURIComponent(pathname.slice(1));
+    } catch {
+      throw new RequestRefusal(400, 'The path is not valid percent-encoded UTF-8; check the address.');
+    }
     const file = path.resolve(rendererDir, relative);
-    if (!file.startsWith(rendererDir + path.sep) || !fs.existsSync(file) || !fs.statSync(file).isFile()) {
+    // fs treats a NUL in a path as an error rather than a missing file.
+    if (relative.includes('\0') || !file.startsWith(rendererDir + path.sep) || !fs.existsSync(file) || !fs.statSync(file).isFile()) {
       res.writeHead(404, { 'Content-Type': 'text/plain; charset=utf-8' }).end('Not found');
       return;
     }
@@ -153,21 +261,56 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
     res.end(req.method === 'HEAD' ? undefined : body);
   }
 
-  const server = http.createServer((req, res) => {
+  /** Whatever a request handler throws becomes an answer here; nothing reaches the process. */
+  function answerFailure(res: http.ServerResponse, err: unknown): void {
+    try {
+      if (err instanceof RequestRefusal) {
+        // A refused body may still be arriving: close the connection after answering.
+        if (!res.headersSent) res.setHeader('Connection', 'close');
+        refuse(res, err.status, err.message);
+        return;
+      }
+      refuse(res, 500, `Forelog could not answer: ${err instanceof Error ? err.message : String(err)}. Nothing was changed; try again.`);
+    } catch {
+      res.destroy();
+    }
+  }
+
+  function handle(req: http.IncomingMessage, res: http.ServerResponse): void {
     const host = req.headers.host ?? '';
     const origin = req.headers.origin;
     if (!allowedHosts().has(host) || (origin !== undefined && !allowedOrigins().has(origin))) {
       refuse(res, 403, 'Refused: Forelog answers only requests addressed to its own loopback address and port.');
       return;
     }
-    const pathname = new URL(req.url ?? '/', `http://${host}`).pathname;
+    const pathname = targetPath(req.url, allowedHosts());
     if (pathname.startsWith(API_PREFIX)) {
-      handleApi(req, res, pathname.slice(API_PREFIX.length)).catch((err: unknown) => {
-        refuse(res, 500, `Forelog could not answer: ${err instanceof Error ? err.message : String(err)}`);
-      });
+      handleApi(req, res, pathname.slice(API_PREFIX.length)).catch((err: unknown) => answerFailure(res, err));
       return;
     }
     serveStatic(req, res, pathname);
+  }
+
+  // Requests still being answered, per connection: see answerClientError.
+  const inFlight = new WeakMap<Duplex, Set<{ req: http.IncomingMessage; res: http.ServerResponse }>>();
+
+  const server = http.createServer((req, res) => {
+    const socket = req.socket;
+    const pending = inFlight.get(socket) ?? new Set();
+    inFlight.set(socket, pending);
+    const entry = { req, res };
+    pending.add(entry);
+    res.on('close', () => pending.delete(entry));
+    try {
+      handle(req, res);
+    } catch (err) {
+      answerFailure(res, err);
+    }
+  });
+  server.on('clientError', (err: NodeJS.ErrnoException, socket: Duplex) => {
+    // Only the request whose own body broke may be answered, and only before its answer began.
+    const pending = [...(inFlight.get(socket) ?? [])];
+    answerClientError(err, socket, pending.every(({ req, res }) => !req.complete && !res.headersSent));
   });
 
   await new Promise<void>((resolve, reject) => {

@@ -116,3 +116,28 @@ test('serves the renderer with a strict CSP and never files outside it', async (
   const escape = await request(server.port, { path: '/..%2f..%2fetc%2fpasswd', headers: { Host: host } });
   assert.equal(escape.status, 404);
 });
+
+test('a dispatch that throws or rejects gets a 500 answer, and the server keeps answering', async () => {
+  const dir = tempDir();
+  fs.writeFileSync(path.join(dir, 'index.html'), '<!doctype html><title>Forelog</title>');
+  let calls = 0;
+  const server = await startHttpServer({
+    dispatch: (operation) => {
+      calls += 1;
+      if (operation === 'throws') throw new Error('boom');
+      if (operation === 'rejects') return Promise.reject(new Error('bang'));
+      return Promise.resolve({ ok: true, value: calls });
+    },
+    rendererDir: dir,
+    port: 0,
+  });
+  after(() => server.close());
+  const headers = { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}` };
+  for (const operation of ['throws', 'rejects']) {
+    const res = await request(server.port, { path: `/api/${operation}`, method: 'POST', headers, body: '{}' });
+    assert.equal(res.status, 500);
+    assert.match(JSON.parse(res.body).error.message, /Forelog could not answer: (boom|bang)\. Nothing was changed/);
+  }
+  const ok = await request(server.port, { path: '/api/fine', method: 'POST', headers, body: '{}' });
+  assert.deepEqual(JSON.parse(ok.body), { ok: true, value: 3 });
+});

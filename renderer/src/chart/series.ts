@@ -3,6 +3,7 @@
  * feed the chart, the table beside it and the figure's `data-points` attribute.
  */
 import type { Outcome, Question } from '../../../shared/domain';
+import { extent } from '../../../shared/extent';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../../shared/time';
 import { glideSeries } from '../tools/glide';
 
@@ -91,8 +92,7 @@ export function chartSeries(data: HistoryData, nowMs: number): ChartSeries {
 
   const xs = [openMs, closeMs, end, ...own.map((p) => p.x), ...references.flatMap((r) => r.points.map((p) => p.x))];
   if (resolvedMs !== null) xs.push(resolvedMs);
-  const lo = Math.min(...xs);
-  const hi = Math.max(...xs);
+  const { min: lo, max: hi } = extent(xs);
   // A little room either side so the first point and the close line are not on the frame.
   const pad = Math.max((hi - lo) * 0.03, 3_600_000);
   const xMin = lo - pad;

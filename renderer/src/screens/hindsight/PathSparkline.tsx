@@ -6,6 +6,7 @@
  * so it needs no chart library and prints with the page.
  */
 import type { HindsightEntry } from '../../../../shared/contract';
+import { extent } from '../../../../shared/extent';
 import { wholePercent } from './wording';
 
 const W = 260;
@@ -18,9 +19,10 @@ const r = (v: number) => v.toFixed(1);
 export function PathSparkline({ entry, threshold }: { entry: HindsightEntry; threshold: number }) {
   const times = entry.forecasts.map((f) => Date.parse(f.at));
   const end = Date.parse(entry.window_end);
-  const t0 = Math.min(...times, end);
+  const span = extent(times);
+  const t0 = Math.min(span.min, end);
   // A path made on the day the window closed still gets width to show its steps.
-  const t1 = Math.max(...times, end, t0 + DAY_MS);
+  const t1 = Math.max(span.max, end, t0 + DAY_MS);
   const x = (t: number) => PAD.left + ((t - t0) / (t1 - t0)) * (W - PAD.left - PAD.right);
   const y = (p: number) => PAD.top + (1 - p) * (H - PAD.top - PAD.bottom);
 

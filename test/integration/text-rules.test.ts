@@ -1,0 +1,114 @@
+/**
+ * Control characters in text fields are refused with a reason naming the character, in
+ * every text field of every way in (API requests, diary files, CSV), and the validator's
+ * idea of an empty title agrees with the store's CHECK (length(trim(title)) > 0), so no
+ * title reaches SQLite only to fail there as an "internal" error.
+ */
+import assert from 'node:assert/strict';
+import { test } from 'node:test';
+import fc from 'fast-check';
+import * as v from '../../shared/validation';
+import { openTestDiary } from '../support/temp-diary';
+
+const CLOSES = '2030-01-01T00:00:00Z';
+
+test('a title of "\\u0000" is refused as invalid naming U+0000, not stored and not an internal error', async () => {
+  const d = openTestDiary();
+  for (const title of ['\u0000', 'a\u0000', '\u0000Quellmoor signs', ' \u0000 ']) {
+    const answer = await d.service.dispatch('createQuestion', { title, closes_at: CLOSES });
+    assert.equal(answer.ok, false, JSON.stringify(title));
+    if (answer.ok) continue;
+    assert.equal(answer.error.code, 'invalid');
+    assert.match(answer.error.fields[0]!, /^title: must be one line without control characters .*\(found U\+0000 at character \d+\)$/);
+  }
+  assert.equal((await d.call('listQuestions', {})).total, 0);
+});
+
+test('every text field refuses NUL and other C0 controls; notes keep tab and line breaks', async () => {
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', {
+    title: 'Controls',
+    rule: 'Yes if\tsigned.\r\nOtherwise no.',
+    base_rate_note: 'line one\nline two',
+    closes_at: CLOSES,
+    first_forecast: { p: 0.5, note: 'tab\there\nand a line', lenses: [{ name: 'outside view', p: 0.4 }] },
+  });
+  assert.equal(q.rule, 'Yes if\tsigned.\r\nOtherwise no.');
+  assert.equal(q.forecasts[0].note, 'tab\there\nand a line');
+  const before = d.service.exportDiaryJson();
+  const refused: [string, unknown, string][] = [
+    ['createQuestion', { title: 'Two\nlines', closes_at: CLOSES }, 'title'],
+    ['createQuestion', { title: 'Tab\there', closes_at: CLOSES }, 'title'],
+    ['createQuestion', { title: 'x', rule: 'bell\u0007', closes_at: CLOSES }, 'rule'],
+    ['createQuestion', { title: 'x', base_rate_note: 'nul\u0000', closes_at: CLOSES }, 'base_rate_note'],
+    ['createQuestion', { title: 'x', closes_at: CLOSES, first_forecast: { p: 0.5, note: 'esc\u001b[31m' } }, 'first_forecast.note'],
+    ['updateQuestion', { id: q.id, changes: { title: 'del\u007f' } }, 'changes.title'],
+    ['addForecast', { question_id: q.id, p: 0.5, note: 'form feed\u000c' }, 'note'],
+    ['addForecast', { question_id: q.id, p: 0.5, lenses: [{ name: 'in\nside', p: 0.5 }] }, 'lenses[0].name'],
+    ['updateForecast', { id: q.forecasts[0].id, note: 'vertical tab\u000b' }, 'note'],
+    ['addReference', { question_id: q.id, p: 0.5, source: 'desk\u0000' }, 'source'],
+    ['resolveQuestion', { id: q.id, outcome: 'yes', note: '\u0000' }, 'note'],
+    ['getQuestion', { id: `${q.id}\u0000` }, 'id'],
+    ['listQuestions', { text: 'find\u0000me' }, 'text'],
+  ];
+  for (const [op, request, field] of refused) {
+    const answer = await d.service.dispatch(op, request);
+    assert.equal(answer.ok, false, `${op} ${JSON.stringify(request)}`);
+    if (answer.ok) continue;
+    assert.equal(answer.error.code, 'invalid', op);
+    assert.match(answer.error.fields[0]!, new RegExp(`^${field.replace(/[[\]]/g, '\\$&')}: must .*control characters`), op);
+  }
+  assert.equal(d.service.exportDiaryJson(), before);
+});
+
+test('diary files and CSV are held to the same text rules, naming the record or row', async () => {
+  const d = openTestDiary();
+  const file = JSON.stringify({
+    format: 'forelog-diary',
+    version: 1,
+    questions: [
+      { title: 'Fine', closes_at: CLOSES, forecasts: [] },
+      { id: 'q\u0000', title: 'Bad id', closes_at: CLOSES, forecasts: [] },
+    ],
+  });
+  const json = await d.service.dispatch('importText', { format: 'json', text: file });
+  assert.equal(json.ok, false);
+  if (!json.ok) assert.match(json.error.message, /record 1 .*field id: must be one line without control characters/);
+  const csv = `title,closes_at,forecast_at,p,note\r\nFine,${CLOSES},2026-01-01T00:00:00Z,0.5,"a \u0000 note"\r\n`;
+  const fromCsv = await d.service.dispatch('importText', { format: 'csv', text: csv });
+  assert.equal(fromCsv.ok, false);
+  if (!fromCsv.ok) assert.match(fromCsv.error.message, /control characters/);
+  assert.equal((await d.call('listQuestions', {})).total, 0);
+});
+
+/** Strings rich in the characters where the two notions of "empty" could differ. */
+const tricky = fc.string({
+  unit: fc.oneof(
+    fc.constantFrom(' ', '\t', '\n', '\r', '\u0000', '\u000b', '\u00a0', '\u2028', '\u3000', '\ufeff', '\u200b', '\u0085', '\u007f'),
+    fc.string({ unit: 'binary', minLength: 1, maxLength: 1 }),
+  ),
+  maxLength: 8,
+});
+
+test('a title the validator accepts is one the store accepts: SQLite finds length(trim(title)) > 0', () => {
+  const d = openTestDiary();
+  const storeCheck = d.service.store.read.prepare('SELECT length(trim(?)) > 0 AS filled');
+  fc.assert(
+    fc.property(tricky, (raw) => {
+      const r = v.title.safeParse(raw);
+      if (r.success) assert.equal((storeCheck.get(r.data) as { filled: number }).filled, 1, JSON.stringify(raw));
+    }),
+    { seed: 8_2026, numRuns: 2000 },
+  );
+});
+
+test('whatever the title, creating a question is stored or refused as invalid, never an internal error', async () => {
+  const d = openTestDiary();
+  await fc.assert(
+    fc.asyncProperty(tricky, async (title) => {
+      const answer = await d.service.dispatch('createQuestion', { title, closes_at: CLOSES });
+      if (!answer.ok) assert.equal(answer.error.code, 'invalid', `${JSON.stringify(title)}: ${answer.error.message}`);
+    }),
+    { seed: 8_2026, numRuns: 300 },
+  );
+});
