@@ -182,6 +182,7 @@ test('a diary at both extremes works everywhere and re-imports exactly through J
 
 test('the command line refuses --at, --from and --to outside the range with the rule', () => {
   const db = path.join(tempDir(), 'd.sqlite');
+  openTestDiary({ dbPath: db }).service.close();
   const run = (...args: string[]) =>
     spawnSync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), ...args, '--db', db], { cwd: ROOT, encoding: 'utf8' });
   const due = run('due', '--at', '2200-01-01T00:00:00Z');
