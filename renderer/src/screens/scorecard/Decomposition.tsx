@@ -23,6 +23,35 @@ const TERMS: TermRow[] = [
   { key: 'within_bin_covariance', symbol: 'WBC', name: 'Within-bin covariance', reading: 'Whether higher forecasts inside a bin went with Yes more often (a correction for binning).' },
 ];
 
+export interface IdentityRow {
+  /** '' for the first term, else '+' or '−' (U+2212), after folding in the term's own sign. */
+  op: '' | '+' | '\u2212';
+  symbol: string;
+  /** The term's size; its sign is in `op`. */
+  value: number;
+}
+
+/**
+ * BS = REL − RES + UNC + WBV − WBC, written so every number is read once and every sign once:
+ * a term that is itself negative turns its operator round ("− WBC" with WBC = −0.001 is
+ * "+ 0.001"), never "− (−0.001)".
+ */
+export function identityRows(t: { rel: number; res: number; unc: number; wbv: number; wbc: number }): IdentityRow[] {
+  const terms: [1 | -1, string, number][] = [
+    [1, 'REL', t.rel],
+    [-1, 'RES', t.res],
+    [1, 'UNC', t.unc],
+    [1, 'WBV', t.wbv],
+    [-1, 'WBC', t.wbc],
+  ];
+  return terms.map(([sign, symbol, value], i) => {
+    const signed = sign * value;
+    const op = i === 0 ? '' : signed < 0 ? '\u2212' : '+';
+    // The first term keeps its own sign in the number (it has no operator to carry it).
+    return { op, symbol, value: i === 0 ? value : Math.abs(value) };
+  });
+}
+
 export const Decomposition = memo(function Decomposition({ terms, brier, scored }: { terms: Terms; brier: number | null; scored: number }) {
   const { reliability: rel, resolution: res, uncertainty: unc, within_bin_variance: wbv, within_bin_covariance: wbc } = terms;
   const complete = rel !== null && res !== null && unc !== null && wbv !== null && wbc !== null;
@@ -53,14 +82,24 @@ export const Decomposition = memo(function Decomposition({ terms, brier, scored 
           <tr>
             <th scope="row">Identity</th>
             <td colSpan={2} className="sc-identity" data-testid="decomposition-identity">
-              BS = REL − RES + UNC + WBV − WBC
+              <p className="sc-identity__formula">BS = REL − RES + UNC + WBV − WBC</p>
               {complete ? (
-                <>
-                  {' '}= {score3(rel)} − {score3(res)} + {score3(unc)} + {score3(wbv)} − ({score3(wbc)}) = <strong>{score3(sum)}</strong>
-                  {' '}(Brier score {score3(brier)})
-                </>
+                <span className="sc-identity__sum" role="list" aria-label="The identity with your numbers">
+                  {identityRows({ rel, res, unc, wbv, wbc }).map((row) => (
+                    <span key={row.symbol} role="listitem" className="sc-identity__row">
+                      <span className="sc-identity__op">{row.op}</span>
+                      <span className="sc-identity__value">{score3(row.value)}</span>
+                      <span className="sc-identity__symbol">{row.symbol}</span>
+                    </span>
+                  ))}
+                  <span role="listitem" className="sc-identity__row sc-identity__row--total">
+                    <span className="sc-identity__op">=</span>
+                    <strong className="sc-identity__value">{score3(sum)}</strong>
+                    <span className="sc-identity__symbol">BS (Brier score {score3(brier)})</span>
+                  </span>
+                </span>
               ) : (
-                ' — needs at least one scored question.'
+                <p>Needs at least one scored question.</p>
               )}
             </td>
           </tr>
