@@ -36,7 +36,7 @@ test('export in three formats, import a file back, refuse a bad one', async ({ b
     expect(ics.text.startsWith('BEGIN:VCALENDAR\r\nVERSION:2.0\r\n')).toBe(true);
 
     // A file with a bad record in the middle: refused whole, the record and field named.
-    const input = section.getByLabel('Import a diary file (JSON or CSV)');
+    const input = section.getByLabel('Import a diary file…');
     const bad = {
       format: 'forelog-diary',
       version: 1,

@@ -122,7 +122,12 @@ function OpenDialog({ title, onClose, children, description, size = 'md', role =
     first?.focus();
     return () => {
       if (dialog.open) dialog.close();
-      if (opener && opener.isConnected) opener.focus();
+      // After every dialog closing in this update has closed (Discard closes the prompt and
+      // its form together; while a modal is open the page is inert and refuses focus), and
+      // never into a dialog that closed too.
+      queueMicrotask(() => {
+        if (opener && opener.isConnected && !opener.closest('dialog:not([open])')) opener.focus();
+      });
     };
   }, []);
 

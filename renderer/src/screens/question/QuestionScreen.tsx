@@ -198,11 +198,11 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
           <dd>
             {q.costs ? (
               <>
-                False alarm {q.costs.false_alarm} · Miss {q.costs.miss}
+                False-alarm cost {q.costs.false_alarm} · Miss cost {q.costs.miss}
               </>
             ) : (
               <span className="muted">
-                Diary defaults (false alarm {settings.default_false_alarm_cost} · miss {settings.default_miss_cost})
+                Diary defaults (false-alarm cost {settings.default_false_alarm_cost} · miss cost {settings.default_miss_cost})
               </span>
             )}
           </dd>

@@ -90,7 +90,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
     if (title.trim() === '') found.title = 'write the question you are forecasting, e.g. “Northgate signs phase 2 by 31 March”';
     const closesAt = localToIso(closesLocal, timeZone);
     if (!closesAt) found.closes_at = 'choose the date and time the window closes';
-    else if (Date.parse(closesAt) <= Date.parse(openedAt)) found.closes_at = 'must be in the future: the question opens now';
+    else if (Date.parse(closesAt) <= Date.parse(openedAt)) found.closes_at = 'must be after the opening time: the question opens now, so the close must be in the future';
     const base = percentToProbability(baseRate);
     if (!base.ok) found.base_rate = base.error;
     const first = percentToProbability(firstP);

@@ -251,7 +251,7 @@ function CostSection({ draft, set, error }: SectionProps) {
         {usable ? (
           <>
             Act when your probability is above <strong>{formatPercent(costLossThreshold(falseAlarm, miss))}</strong>
-            <span className="muted"> — the action threshold α = false alarm ÷ (false alarm + miss).</span>
+            <span className="muted"> — the action threshold α = false-alarm cost ÷ (false-alarm cost + miss cost).</span>
           </>
         ) : (
           'Enter two costs above 0 to see the probability above which acting pays.'
