@@ -49,7 +49,7 @@ export function percentAdvice(text: string): PercentAdvice | null {
     const clipped = formatPercent(p === 0 ? LOG_CLIP_LOW : LOG_CLIP_HIGH);
     return {
       kind: 'certain',
-      message: `A single miss at ${formatPercent(p)} dominates the log score; it is scored as ${clipped}. Saved as you typed it.`,
+      message: `A single miss at ${formatPercent(p)} dominates the log score; it is scored as ${clipped}.`,
     };
   }
   const n = Number(text.trim());

@@ -6,7 +6,7 @@
  */
 import { memo } from 'react';
 import type { Decomposition as Terms } from '../../../../shared/scoring/types';
-import { score3 } from './format';
+import { identityRows, score3 } from './format';
 
 interface TermRow {
   key: keyof Terms;
@@ -22,35 +22,6 @@ const TERMS: TermRow[] = [
   { key: 'within_bin_variance', symbol: 'WBV', name: 'Within-bin variance', reading: 'Spread of forecasts inside each 10-point bin (a correction for binning).' },
   { key: 'within_bin_covariance', symbol: 'WBC', name: 'Within-bin covariance', reading: 'Whether higher forecasts inside a bin went with Yes more often (a correction for binning).' },
 ];
-
-export interface IdentityRow {
-  /** '' for the first term, else '+' or '−' (U+2212), after folding in the term's own sign. */
-  op: '' | '+' | '\u2212';
-  symbol: string;
-  /** The term's size; its sign is in `op`. */
-  value: number;
-}
-
-/**
- * BS = REL − RES + UNC + WBV − WBC, written so every number is read once and every sign once:
- * a term that is itself negative turns its operator round ("− WBC" with WBC = −0.001 is
- * "+ 0.001"), never "− (−0.001)".
- */
-export function identityRows(t: { rel: number; res: number; unc: number; wbv: number; wbc: number }): IdentityRow[] {
-  const terms: [1 | -1, string, number][] = [
-    [1, 'REL', t.rel],
-    [-1, 'RES', t.res],
-    [1, 'UNC', t.unc],
-    [1, 'WBV', t.wbv],
-    [-1, 'WBC', t.wbc],
-  ];
-  return terms.map(([sign, symbol, value], i) => {
-    const signed = sign * value;
-    const op = i === 0 ? '' : signed < 0 ? '\u2212' : '+';
-    // The first term keeps its own sign in the number (it has no operator to carry it).
-    return { op, symbol, value: i === 0 ? value : Math.abs(value) };
-  });
-}
 
 export const Decomposition = memo(function Decomposition({ terms, brier, scored }: { terms: Terms; brier: number | null; scored: number }) {
   const { reliability: rel, resolution: res, uncertainty: unc, within_bin_variance: wbv, within_bin_covariance: wbc } = terms;
