@@ -23,7 +23,7 @@ export function NoTokenPage() {
           </p>
           <p>Copy that whole line into the address bar. If the server has stopped, start it again and use the new address.</p>
           <p>
-            Started it with <code>npm run forelog -- serve</code>? npm prints two lines of its own first; the address is the line that
+            Started it with <code>npm run forelog -- serve</code>? npm prints a banner of its own first; the address is the line that
             starts with <code>http://127.0.0.1</code>. Run <code>npm run --silent forelog -- serve</code> to see only Forelog’s lines.
           </p>
         </div>
