@@ -17,6 +17,8 @@ export interface LegendItem {
   /** Canvas dash pattern; [] or undefined for a solid line; null for no line (markers only). */
   dash?: number[] | null;
   marker?: Marker;
+  /** How solid the marker's fill is (default 1); a see-through marker also gets a solid ring. */
+  markerOpacity?: number;
   lineWidth?: number;
 }
 
@@ -41,7 +43,9 @@ function Swatch({ item }: { item: LegendItem }) {
       {item.dash === null ? null : (
         <line x1="1" y1="7" x2="31" y2="7" stroke={stroke} strokeWidth={item.lineWidth ?? 2} strokeDasharray={item.dash && item.dash.length ? item.dash.join(' ') : undefined} />
       )}
-      {marker === 'circle' ? <circle cx="16" cy="7" r="4" fill={stroke} /> : null}
+      {marker === 'circle' ? (
+        <circle cx="16" cy="7" r="4.5" fill={stroke} fillOpacity={item.markerOpacity ?? 1} stroke={item.markerOpacity === undefined ? 'none' : stroke} strokeWidth="1.5" />
+      ) : null}
       {marker !== 'none' && marker !== 'circle' ? (
         <path d={MARKER_PATHS[marker]} fill={marker === 'crossRot' ? 'none' : stroke} stroke={stroke} strokeWidth={marker === 'crossRot' ? 2 : 1} />
       ) : null}

@@ -60,9 +60,12 @@ function drawingOrder(bins: readonly ReportBin[]): ReportBin[] {
   return [...bins].sort((a, b) => b.n - a.n || a.index - b.index);
 }
 
+/** The dots are see-through with a solid ring, so overlapping dots and their bars all show. */
+const DOT_OPACITY = 0.55;
+
 const LEGEND: LegendItem[] = [
   { label: 'Perfect calibration', color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 },
-  { label: 'Your forecasts, by bin (bar: 95% interval)', color: '--chart-own', dash: null, marker: 'circle' },
+  { label: 'Your forecasts, by bin (bar: 95% interval)', color: '--chart-own', dash: null, marker: 'circle', markerOpacity: DOT_OPACITY },
 ];
 
 
@@ -95,8 +98,7 @@ export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins:
           {
             ...lineStyle(LEGEND[1]!, cssColor),
             data: [],
-            // See-through with a solid ring, so overlapping dots and their bars all show.
-            backgroundColor: withAlpha(colors.own, 0.55),
+            backgroundColor: withAlpha(colors.own, DOT_OPACITY),
             borderColor: colors.own,
             borderWidth: 2,
             // Bins at 0% or 100% sit on the frame; draw the whole dot rather than half of it.
