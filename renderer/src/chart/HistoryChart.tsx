@@ -27,10 +27,8 @@ import '../tools/tools.css';
 
 Chart.register(LineController, LineElement, PointElement, LinearScale, Tooltip);
 
+/** The colours drawn on the canvas itself; the series' colours come from their legend items. */
 interface Palette {
-  own: string;
-  reference: string;
-  baseRate: string;
   close: string;
   resolved: string;
   grid: string;
@@ -48,9 +46,6 @@ function palette(): Palette {
   const style = getComputedStyle(document.documentElement);
   const v = (name: string) => style.getPropertyValue(name).trim();
   return {
-    own: v('--chart-own'),
-    reference: v('--chart-reference'),
-    baseRate: v('--chart-base-rate'),
     close: v('--chart-close'),
     resolved: v('--color-success'),
     grid: v('--chart-grid'),
