@@ -31,13 +31,21 @@ function sentence(reason: string): string {
 /** Lets controls inside a form report problems the form's own state cannot show. */
 export interface FieldProblems {
   set: (key: string, problem: string | null) => void;
+  /** How many saves were refused so far: a control shows its problem once one was. */
+  refused: number;
 }
 
 export const FieldProblemsContext = createContext<FieldProblems | null>(null);
 
+/** Whether the enclosing form has refused a save (so half-typed values now count as wrong). */
+export function useSaveRefused(): boolean {
+  return (useContext(FieldProblemsContext)?.refused ?? 0) > 0;
+}
+
 /**
  * Reports `problem` (null: none) to the enclosing form, which refuses to save while it stands.
- * The control shows the message itself and marks its box aria-invalid.
+ * The control shows the message itself (at the latest once a save was refused) and marks its
+ * box aria-invalid, so the keyboard is taken to it.
  */
 export function useFieldProblem(problem: string | null): void {
   const problems = useContext(FieldProblemsContext);
@@ -62,8 +70,9 @@ export function useForm() {
         if (problem === null) open.current.delete(key);
         else open.current.set(key, problem);
       },
+      refused: attempt,
     }),
-    [],
+    [attempt],
   );
 
   // After a refused save, take the keyboard to the first field that needs attention.

@@ -168,6 +168,23 @@ test('dates are typed day/month/year and read back with the zone’s offset', as
   expect(list.questions.map((q) => q.closes_at)).toEqual(['2030-12-31T22:00:00.000Z']);
 });
 
+test('an optional date that is not a date is not taken as “now”: the save stops at it', async () => {
+  const { page } = app;
+  await page.getByRole('link', { name: 'Northgate signs phase 3 by New Year’s Eve' }).click();
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  const asOf = dialog.getByRole('textbox', { name: 'As of', exact: true });
+  await asOf.fill('32/01/2026');
+  await dialog.getByRole('textbox', { name: 'As of: time' }).fill('10:00');
+  await dialog.getByRole('spinbutton', { name: 'Your probability', exact: true }).fill('45');
+  await page.keyboard.press('Enter');
+  await expect(asOf).toBeFocused();
+  await expect(asOf).toHaveAccessibleDescription(/That month has no day 32; write the date as dd\/mm\/yyyy/);
+  await expect(dialog).toBeVisible();
+  await discard(page, dialog);
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Questions' }).click();
+});
+
 test('Edit says a close before the opening beside Closes, without internal names', async () => {
   const { page } = app;
   await page.getByRole('link', { name: 'Northgate signs phase 3 by New Year’s Eve' }).click();
@@ -250,9 +267,10 @@ test('a toast’s action is reached with F6, and F6 goes back', async () => {
   await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('2031-03-31T17:00');
   await dialog.getByRole('button', { name: 'Save question' }).click();
   await expect(dialog).toBeHidden();
-  const action = page.getByTestId('toast').getByRole('link', { name: 'Open the question' });
+  const action = page.getByTestId('toast').filter({ hasText: 'Pilot extended to a second depot' }).getByRole('link', { name: 'Open the question' });
   await expect(action).toBeVisible();
   await page.getByLabel('Search').focus();
+  // The newest toast's action, whatever older toasts are still showing.
   await page.keyboard.press('F6');
   await expect(action).toBeFocused();
   await page.keyboard.press('F6');

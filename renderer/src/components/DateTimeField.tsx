@@ -24,7 +24,7 @@ import {
   wallText,
   zoneName,
 } from '../dates';
-import { useFieldProblem } from '../forms';
+import { useFieldProblem, useSaveRefused } from '../forms';
 import { CalendarButton } from './CalendarButton';
 import { FieldError } from './FieldError';
 import { errorId, hintId } from './FieldFrame';
@@ -80,6 +80,7 @@ export function DateTimeField({ label, local, onLocalChange, timeZone, onTimeZon
   const zones = useMemo(() => (onTimeZoneChange ? timeZoneNames(timeZone) : []), [onTimeZoneChange, timeZone]);
   const [texts, setTexts] = useState<Texts>(() => textsFor(local));
   const [touched, setTouched] = useState(false);
+  const refused = useSaveRefused();
   const reading = read(texts);
 
   // The form changed the value itself (a reset, "now"): show that instead of the old text.
@@ -96,7 +97,7 @@ export function DateTimeField({ label, local, onLocalChange, timeZone, onTimeZon
     onLocalChange(read(whole).local);
   }
 
-  const shownError = (touched || error) && reading.problem ? sentence(reading.problem) : error;
+  const shownError = (touched || refused || error) && reading.problem ? sentence(reading.problem) : error;
   const iso = reading.local ? localToIso(reading.local, timeZone) : null;
   const readback = iso ? formatInstant(iso, timeZone, { weekday: true }) : null;
   const described = [hint ? hintId(controlId) : '', readback ? readbackId : '', shownError ? errorId(controlId) : ''].filter(Boolean).join(' ') || undefined;
