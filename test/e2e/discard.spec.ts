@@ -101,6 +101,34 @@ test('Edit asks only when something was changed', async ({ browser }) => {
   }
 });
 
+test('what is typed in a Desk revise panel survives closing the panel', async ({ browser }) => {
+  const app = await openApp(browser, server(), {}, 'desk');
+  const { page } = app;
+  try {
+    const now = Date.now();
+    // A forecast 9 days old on a question with the default 7-day check-in: a check-in is due.
+    await apiCall(server().url, 'createQuestion', {
+      title: 'Canal bridge reopens before the festival',
+      opened_at: new Date(now - 10 * 86_400_000).toISOString(),
+      closes_at: new Date(now + 30 * 86_400_000).toISOString(),
+      first_forecast: { p: 0.4, at: new Date(now - 9 * 86_400_000).toISOString() },
+    });
+    await page.reload();
+    const item = page.getByTestId('desk-item').filter({ hasText: 'Canal bridge reopens' });
+    await item.getByRole('button', { name: 'Revise' }).click();
+    await item.getByRole('spinbutton', { name: 'New probability', exact: true }).fill('55');
+    await item.getByRole('textbox', { name: 'What changed' }).fill('Contractor says the deck is poured');
+    await page.keyboard.press('Escape');
+    await expect(item.getByRole('textbox', { name: 'What changed' })).toHaveCount(0);
+    await item.getByRole('button', { name: 'Revise' }).click();
+    await expect(item.getByRole('spinbutton', { name: 'New probability', exact: true })).toHaveValue('55');
+    await expect(item.getByRole('textbox', { name: 'What changed' })).toHaveValue('Contractor says the deck is poured');
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
 async function settingsNow(): Promise<Settings> {
   return apiCall<Settings>(server().url, 'getSettings');
 }

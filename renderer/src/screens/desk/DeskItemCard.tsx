@@ -46,6 +46,8 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
   const [panel, setPanel] = useState<Panel>('none');
   const [busy, setBusy] = useState(false);
   const [note, setNote] = useState('');
+  // What was typed in the revise panel outlives the panel (Escape, Cancel), like the note does.
+  const [revision, setRevision] = useState<RevisionDraft>(() => ({ p: percentText(item.last_p), note: '' }));
   const href = hrefTo(questionPath(item.id));
   const toResolve = item.group === 'resolve';
 
@@ -111,7 +113,7 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
       ) : null}
       {panel === 'revise' ? (
         <div id={`${titleId}-revise`} className="desk-item__panel">
-          <ReviseForm item={item} onCancel={() => setPanel('none')} onSaved={finish} />
+          <ReviseForm item={item} draft={revision} onDraftChange={setRevision} onCancel={() => setPanel('none')} onSaved={finish} />
         </div>
       ) : null}
       {panel === 'snooze' ? (
@@ -242,10 +244,28 @@ function NoteField({ note, onChange }: { note: string; onChange: (note: string) 
   );
 }
 
-function ReviseForm({ item, onCancel, onSaved }: { item: DeskItem; onCancel: () => void; onSaved: (message: string) => void }) {
+interface RevisionDraft {
+  p: string;
+  note: string;
+}
+
+function ReviseForm({
+  item,
+  draft,
+  onDraftChange,
+  onCancel,
+  onSaved,
+}: {
+  item: DeskItem;
+  draft: RevisionDraft;
+  onDraftChange: (draft: RevisionDraft) => void;
+  onCancel: () => void;
+  onSaved: (message: string) => void;
+}) {
   const form = useForm();
-  const [p, setP] = useState(percentText(item.last_p));
-  const [note, setNote] = useState('');
+  const { p, note } = draft;
+  const setP = (value: string) => onDraftChange({ ...draft, p: value });
+  const setNote = (value: string) => onDraftChange({ ...draft, note: value });
 
   useEffect(() => {
     form.formRef.current?.querySelector<HTMLInputElement>('input[type="number"]')?.focus();
@@ -265,7 +285,9 @@ function ReviseForm({ item, onCancel, onSaved }: { item: DeskItem; onCancel: () 
       },
       { fields: ['p', 'note'] },
     );
-    if (ok) onSaved(unchanged ? `Kept “${item.title}” at ${formatPercent(value)}; check-in done.` : `Revised “${item.title}” to ${formatPercent(value)}.`);
+    if (!ok) return;
+    onDraftChange({ p, note: '' });
+    onSaved(unchanged ? `Kept “${item.title}” at ${formatPercent(value)}; check-in done.` : `Revised “${item.title}” to ${formatPercent(value)}.`);
   }
 
   return (
