@@ -3,11 +3,13 @@
  * (notifications, diary facts, quick add). The desktop shell can ask it to show a question.
  */
 import { useEffect, useRef } from 'react';
+import { currentToken } from './api/token';
 import { EmptyState } from './components/EmptyState';
 import { ToastProvider } from './components/Toast';
 import { DiaryInfoProvider } from './diaryInfo';
 import { useDocumentTitle, useTitleCount } from './hooks';
 import { hrefTo, navigate, questionPath, useRoute } from './routing';
+import { NoTokenPage } from './NoTokenPage';
 import { HOME_PATH, matchScreen, navEntryFor, screens } from './screens/registry';
 import { useDueCount } from './screens/desk/useDueCount';
 import { QuickAddProvider } from './screens/questions/quickAdd';
@@ -18,6 +20,9 @@ export function App() {
     if (!bridge) return;
     return bridge.onOpenQuestion((id) => navigate(questionPath(id)));
   }, []);
+
+  // Browser mode without the launch token: nothing would load, so say how to get in.
+  if (!window.forelog && currentToken() === null) return <NoTokenPage />;
 
   return (
     <ToastProvider>

@@ -1,46 +1,244 @@
 /**
- * Turning instants into words and form values in a question's own time zone, and back.
+ * Every date and time the window shows or reads, in one place: written in the user's own
+ * locale (a UK user reads 31/03/2026 and "31 Mar 2026", a US user 03/31/2026 and
+ * "Mar 31, 2026"), on the clocks of the time zone the figure belongs to (a question's own
+ * zone, or the diary's), with one style of zone label everywhere: the offset in force at
+ * that instant, as the locale writes it ("GMT+1", "GMT−4"). Short names mix styles across
+ * locales ("BST" beside "GMT-4" in one locale, "GMT+1" beside "EDT" in another), so they are
+ * never used.
+ *
  * The arithmetic lives in shared/time (RFC 5545 rules for repeated and skipped wall times).
  */
-import { addCalendarDays, parseLocalDateTime, toIso, toLocalInputValue, wallTimeToInstant } from '../../shared/time';
+import { addCalendarDays, daysInMonth, parseLocalDateTime, toIso, toLocalInputValue, wallTimeAt, wallTimeToInstant } from '../../shared/time';
 
-/** The instant a datetime-local value means in `timeZone`, as an ISO string; null if incomplete. */
+/**
+ * The locale every format uses: the user's own (the browser's or the operating system's).
+ * Functions take it as a parameter only so tests can check other locales.
+ */
+function userLocale(): string {
+  return new Intl.DateTimeFormat().resolvedOptions().locale;
+}
+
+const formats = new Map<string, Intl.DateTimeFormat>();
+
+function cached(locale: string, timeZone: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
+  const key = `${locale}|${timeZone}|${JSON.stringify(options)}`;
+  let format = formats.get(key);
+  if (!format) {
+    format = new Intl.DateTimeFormat(locale, { ...options, timeZone });
+    formats.set(key, format);
+  }
+  return format;
+}
+
+function toMs(at: string | number): number {
+  return typeof at === 'number' ? at : Date.parse(at);
+}
+
+const pad = (n: number) => String(n).padStart(2, '0');
+
+const DAY = { day: 'numeric', month: 'short', year: 'numeric' } as const;
+const CLOCK = { hour: '2-digit', minute: '2-digit' } as const;
+
+/** Intl writes a zero offset "GMT+0"; people write "GMT". */
+function tidyOffset(label: string): string {
+  return label.replace(/^(GMT|UTC)[+\u2212-]0$/, '$1').replace('-', '\u2212');
+}
+
+/** The zone label of an instant: the offset in force then, e.g. "GMT+1" (London in summer), "GMT−4". */
+export function zoneLabel(at: string | number, timeZone: string, locale = userLocale()): string {
+  const ms = toMs(at);
+  const part = cached(locale, timeZone, { timeZoneName: 'shortOffset' })
+    .formatToParts(ms)
+    .find((p) => p.type === 'timeZoneName');
+  return tidyOffset(part?.value ?? timeZone);
+}
+
+/** A zone's own name, for pickers and "on this zone's clocks" hints: "America/New York". */
+export function zoneName(timeZone: string): string {
+  return timeZone.replaceAll('_', ' ');
+}
+
+export interface InstantOptions {
+  /** Add the zone label (default true). Leave it off where the zone is stated once nearby. */
+  zone?: boolean;
+  /** Start with the weekday, for read-backs where the day matters ("Tue 31 Mar 2026, 17:00"). */
+  weekday?: boolean;
+}
+
+/**
+ * e.g. "31 Mar 2026, 17:00 GMT+1": the instant as `timeZone`'s clocks show it. `false` for
+ * `options` is short for `{ zone: false }`.
+ */
+export function formatInstant(at: string | number, timeZone: string, options: InstantOptions | false = {}, locale = userLocale()): string {
+  if (options === false) return formatInstant(at, timeZone, { zone: false }, locale);
+  const ms = toMs(at);
+  if (!Number.isFinite(ms)) return String(at);
+  const text = cached(locale, timeZone, { ...(options.weekday ? { weekday: 'short' } : {}), ...DAY, ...CLOCK }).format(ms);
+  return options.zone === false ? text : `${text} ${zoneLabel(ms, timeZone, locale)}`;
+}
+
+/** e.g. "31 Mar 2026" (or "31 Mar" with `year: false`): the calendar day of an instant on `timeZone`'s clocks. */
+export function formatDay(at: string | number, timeZone: string, { year = true }: { year?: boolean } = {}, locale = userLocale()): string {
+  const ms = toMs(at);
+  if (!Number.isFinite(ms)) return String(at);
+  return cached(locale, timeZone, year ? DAY : { day: 'numeric', month: 'short' }).format(ms);
+}
+
+/** e.g. "Tue". */
+export function formatWeekday(at: string | number, timeZone: string, locale = userLocale()): string {
+  return cached(locale, timeZone, { weekday: 'short' }).format(toMs(at));
+}
+
+/** e.g. "17:00" (or "05:00 PM" where the locale uses a 12-hour clock). */
+export function formatClock(at: string | number, timeZone: string, locale = userLocale()): string {
+  return cached(locale, timeZone, CLOCK).format(toMs(at));
+}
+
+/** Calendar days from the date of `from` to the date of `to` on `timeZone`'s calendar (tomorrow = 1). */
+export function calendarDayDiff(from: number, to: number, timeZone: string): number {
+  const a = wallTimeAt(from, timeZone);
+  const b = wallTimeAt(to, timeZone);
+  return Math.round((Date.UTC(b.year, b.month - 1, b.day) - Date.UTC(a.year, a.month - 1, a.day)) / 86_400_000);
+}
+
+/** "today", "tomorrow", "yesterday", a weekday within a week either side, else "26 Mar" (with the year if not this one). */
+export function dayWord(ms: number, now: number, timeZone: string, locale = userLocale()): string {
+  const diff = calendarDayDiff(now, ms, timeZone);
+  if (diff === 0) return 'today';
+  if (diff === 1) return 'tomorrow';
+  if (diff === -1) return 'yesterday';
+  if (Math.abs(diff) < 7) return formatWeekday(ms, timeZone, locale);
+  const sameYear = wallTimeAt(ms, timeZone).year === wallTimeAt(now, timeZone).year;
+  return formatDay(ms, timeZone, { year: !sameYear }, locale);
+}
+
+/** "tomorrow 17:00 GMT+1": a nearby instant in words, with its zone label. */
+export function formatNearby(ms: number, now: number, timeZone: string, locale = userLocale()): string {
+  return `${dayWord(ms, now, timeZone, locale)} ${formatClock(ms, timeZone, locale)} ${zoneLabel(ms, timeZone, locale)}`;
+}
+
+/**
+ * A time axis's tick label: the day ("31 Mar", with the year when the axis spans most of one)
+ * or, on an axis of hours, the day and the time.
+ */
+export function formatTick(ms: number, timeZone: string, unit: 'hour' | 'day', spanMs: number, locale = userLocale()): string {
+  const withYear = spanMs > 300 * 86_400_000;
+  const day = withYear ? DAY : ({ day: 'numeric', month: 'short' } as const);
+  return cached(locale, timeZone, unit === 'hour' ? { ...day, ...CLOCK } : day).format(ms);
+}
+
+// ---------------------------------------------------------------------------------------
+// Reading dates and times typed in the user's own order.
+
+export interface DateOrder {
+  /** The order the locale writes a numeric date in, e.g. day, month, year for en-GB. */
+  order: ('day' | 'month' | 'year')[];
+  separator: string;
+  /** What the box shows while empty, e.g. "dd/mm/yyyy". */
+  placeholder: string;
+}
+
+/** How the locale writes a numeric date (31/03/2026, 03/31/2026, 2026-03-31, 31.03.2026). */
+export function dateOrder(locale = userLocale()): DateOrder {
+  const parts = new Intl.DateTimeFormat(locale, { day: '2-digit', month: '2-digit', year: 'numeric', timeZone: 'UTC' }).formatToParts(Date.UTC(2026, 2, 31));
+  const order = parts.filter((p) => p.type === 'day' || p.type === 'month' || p.type === 'year').map((p) => p.type as 'day' | 'month' | 'year');
+  const literal = parts.find((p) => p.type === 'literal')?.value.trim() || '/';
+  const separator = /^[./-]$/.test(literal) ? literal : '/';
+  const complete = order.length === 3 && new Set(order).size === 3 ? order : (['day', 'month', 'year'] as DateOrder['order']);
+  const letters = { day: 'dd', month: 'mm', year: 'yyyy' } as const;
+  return { order: complete, separator, placeholder: complete.map((k) => letters[k]).join(separator) };
+}
+
+/** A calendar date as the locale writes it numerically, e.g. "31/03/2026". */
+export function formatDateText(date: { year: number; month: number; day: number }, locale = userLocale()): string {
+  const { order, separator } = dateOrder(locale);
+  const text = { day: String(date.day).padStart(2, '0'), month: String(date.month).padStart(2, '0'), year: String(date.year).padStart(4, '0') };
+  return order.map((k) => text[k]).join(separator);
+}
+
+export type Read<T> = { ok: true; value: T } | { ok: false; error: string };
+
+/**
+ * A date typed in the locale's order ("31/03/2026" in the UK), or as ISO "2026-03-31".
+ * The year must have four digits: "03/04/26" could be read three ways.
+ */
+export function parseDateText(text: string, locale = userLocale()): Read<{ year: number; month: number; day: number }> {
+  const { order, placeholder } = dateOrder(locale);
+  const trimmed = text.trim();
+  const iso = /^(\d{4})-(\d{1,2})-(\d{1,2})$/.exec(trimmed);
+  const groups = iso ? [iso[1]!, iso[2]!, iso[3]!] : trimmed.split(/[^0-9]+/).filter(Boolean);
+  const keys: DateOrder['order'] = iso ? ['year', 'month', 'day'] : order;
+  if (groups.length !== 3) return { ok: false, error: `write the date as ${placeholder}` };
+  const value = { year: 0, month: 0, day: 0 };
+  keys.forEach((k, i) => {
+    value[k] = Number(groups[i]);
+  });
+  const yearText = groups[keys.indexOf('year')]!;
+  if (yearText.length !== 4) return { ok: false, error: `write the year with four digits (${placeholder})` };
+  if (value.month < 1 || value.month > 12) return { ok: false, error: `${value.month} is not a month; write the date as ${placeholder}` };
+  if (value.day < 1 || value.day > daysInMonth(value.year, value.month)) {
+    return { ok: false, error: `that month has no day ${value.day}; write the date as ${placeholder}` };
+  }
+  return { ok: true, value };
+}
+
+/** Whether the locale writes times on a 12-hour clock (5:00 PM) or a 24-hour one (17:00). */
+export function uses12Hour(locale = userLocale()): boolean {
+  const cycle = new Intl.DateTimeFormat(locale, { hour: 'numeric', timeZone: 'UTC' }).resolvedOptions().hourCycle;
+  return cycle === 'h11' || cycle === 'h12';
+}
+
+/** The placeholder of a time box: "hh:mm", or "hh:mm am" where the locale uses a 12-hour clock. */
+export function timePlaceholder(locale = userLocale()): string {
+  return uses12Hour(locale) ? 'hh:mm am' : 'hh:mm';
+}
+
+/**
+ * A time of day for a time box: "17:00", or "5:00 pm" where the locale uses a 12-hour clock.
+ * Written by hand rather than by Intl, whose 12-hour forms vary by locale ("오후 5:00"), so
+ * whatever the box shows, `parseTimeText` reads back.
+ */
+export function formatTimeText(time: { hour: number; minute: number }, locale = userLocale()): string {
+  if (!uses12Hour(locale)) return `${pad(time.hour)}:${pad(time.minute)}`;
+  return `${time.hour % 12 === 0 ? 12 : time.hour % 12}:${pad(time.minute)} ${time.hour < 12 ? 'am' : 'pm'}`;
+}
+
+/** A time of day typed as "17:00", "17.00", "1700", "5:00 pm" or "5pm". */
+export function parseTimeText(text: string, locale = userLocale()): Read<{ hour: number; minute: number }> {
+  const m = /^(\d{1,2})(?:[:.h]?(\d{2}))?\s*(?:([ap])\.?\s*m\.?)?$/i.exec(text.trim());
+  const example = timePlaceholder(locale);
+  if (!m) return { ok: false, error: `write the time as ${example}` };
+  let hour = Number(m[1]);
+  const minute = m[2] === undefined ? 0 : Number(m[2]);
+  const half = m[3]?.toLowerCase();
+  if (half) {
+    if (hour < 1 || hour > 12) return { ok: false, error: `${hour} is not an hour on a 12-hour clock` };
+    hour = (hour % 12) + (half === 'p' ? 12 : 0);
+  }
+  if (hour > 23) return { ok: false, error: `${hour} is not an hour; use 0 to 23 (or add am/pm)` };
+  if (minute > 59) return { ok: false, error: `${minute} is not a minute; use 00 to 59` };
+  return { ok: true, value: { hour, minute } };
+}
+
+/** The "YYYY-MM-DDTHH:MM" wall-time text forms keep, from its parts. */
+export function wallText(date: { year: number; month: number; day: number }, time: { hour: number; minute: number }): string {
+  return `${String(date.year).padStart(4, '0')}-${pad(date.month)}-${pad(date.day)}T${pad(time.hour)}:${pad(time.minute)}`;
+}
+
+// ---------------------------------------------------------------------------------------
+// Wall-clock text and instants.
+
+/** The instant a "YYYY-MM-DDTHH:MM" wall time means in `timeZone`, as an ISO string; null if it is not one. */
 export function localToIso(local: string, timeZone: string): string | null {
   const wall = parseLocalDateTime(local);
   if (!wall) return null;
   return toIso(wallTimeToInstant(wall, timeZone));
 }
 
-/** The datetime-local value showing `iso` on `timeZone`'s clocks. */
+/** The "YYYY-MM-DDTHH:MM" wall time showing `iso` on `timeZone`'s clocks. */
 export function isoToLocal(iso: string, timeZone: string): string {
   return toLocalInputValue(Date.parse(iso), timeZone);
-}
-
-const readable = new Map<string, Intl.DateTimeFormat>();
-
-function readableFormat(timeZone: string, withZone: boolean): Intl.DateTimeFormat {
-  const key = `${timeZone}|${withZone}`;
-  let format = readable.get(key);
-  if (!format) {
-    format = new Intl.DateTimeFormat(undefined, {
-      timeZone,
-      day: 'numeric',
-      month: 'short',
-      year: 'numeric',
-      hour: '2-digit',
-      minute: '2-digit',
-      ...(withZone ? { timeZoneName: 'short' } : {}),
-    });
-    readable.set(key, format);
-  }
-  return format;
-}
-
-/** e.g. "31 Mar 2026, 17:00 BST" — the instant as the question's own clocks show it. */
-export function formatInstant(iso: string, timeZone: string, withZone = true): string {
-  const ms = Date.parse(iso);
-  if (!Number.isFinite(ms)) return iso;
-  return readableFormat(timeZone, withZone).format(ms);
 }
 
 /** Every IANA zone this runtime knows, with the given ones (e.g. "UTC") guaranteed present. */

@@ -40,3 +40,28 @@ export async function quickAdd(page: Page, input: QuickAddInput): Promise<void> 
 export function daysFromNow(days: number): string {
   return new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 16);
 }
+
+/** POST /api/<operation> with the launch token, as the page itself does; throws on a refusal. */
+export async function apiCall<T>(serverUrl: string, operation: string, request: object = {}): Promise<T> {
+  const url = new URL(serverUrl);
+  const response = await fetch(`${url.origin}/api/${operation}`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${url.searchParams.get('token')}` },
+    body: JSON.stringify(request),
+  });
+  const envelope = (await response.json()) as { ok: true; value: T } | { ok: false; error: unknown };
+  if (!envelope.ok) throw new Error(`${operation} was refused: ${JSON.stringify(envelope.error)}`);
+  return envelope.value;
+}
+
+/** An axe scan with the WCAG 2.2 AA and best-practice rules; serious or critical findings fail. */
+export async function expectNoSeriousViolations(page: Page, what: string): Promise<void> {
+  const { default: AxeBuilder } = await import('@axe-core/playwright');
+  const results = await new AxeBuilder({ page })
+    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa', 'best-practice'])
+    .analyze();
+  const serious = results.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+  expect(serious, `axe found serious or critical problems on ${what}`).toEqual([]);
+}

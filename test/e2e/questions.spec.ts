@@ -46,7 +46,8 @@ test('quick add, two revisions, a reference and a Yes resolution show up in the 
   await expect(row.getByRole('cell').nth(3)).toHaveText('40%');
   await expect(row.getByRole('cell').nth(4)).toHaveText('30%');
   await expect(row).toContainText('client:northgate · renewals'); // tags are lower-cased
-  await expect(row).toContainText('30 Jun 2030, 17:00 BST');
+  // Every time shows its zone as the offset in force then (renderer/src/dates.ts).
+  await expect(row).toContainText('30 Jun 2030, 17:00 GMT+1');
   await row.getByRole('link').click();
 
   await expect(page.getByRole('heading', { level: 1 })).toHaveText('Northgate signs the phase-2 statement of work');
@@ -75,7 +76,7 @@ test('quick add, two revisions, a reference and a Yes resolution show up in the 
   const resolve = page.getByRole('dialog', { name: 'Resolve the question' });
   await resolve.getByRole('radio', { name: 'Yes', exact: true }).check();
   await resolve.getByLabel('Note').fill('Countersigned SOW arrived.');
-  await resolve.getByRole('button', { name: 'Resolve' }).click();
+  await resolve.getByRole('button', { name: 'Resolve', exact: true }).click();
   await expect(resolve).toBeHidden();
   await expect(page.getByText('Resolved · Yes')).toBeVisible();
 
@@ -134,8 +135,10 @@ test('the diary’s refusals and the form’s own checks appear beside the field
   await expect(probability).not.toHaveAttribute('aria-invalid', 'true');
   await expect(dialog).toBeVisible();
 
-  // Escape closes the dialog, changes nothing, and returns focus to where it was.
+  // Escape asks before throwing the typed text away; Discard closes the dialog, changes
+  // nothing, and returns focus to where it was.
   await page.keyboard.press('Escape');
+  await page.getByRole('alertdialog', { name: 'Discard your changes?' }).getByRole('button', { name: 'Discard' }).click();
   await expect(dialog).toBeHidden();
   await expect(page.getByRole('main')).toBeFocused();
   await expect(page.getByTestId('question-table').getByText('Pilot reaches 500 weekly users')).toHaveCount(0);
@@ -216,12 +219,12 @@ test('Edit saves every kind of field and leaves untouched times exact', async ()
   await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Westhaven renews the support contract for two years');
   await dialog.getByLabel('Kind').selectOption('state_at_deadline');
   await dialog.getByLabel('Tags', { exact: true }).fill('Client:Westhaven,');
-  await dialog.getByRole('spinbutton', { name: 'Cost of a miss' }).fill('4');
+  await dialog.getByRole('spinbutton', { name: 'Miss cost' }).fill('4');
   await dialog.getByRole('button', { name: 'Save changes' }).click();
   // Only one of the two costs: the form asks for both before sending anything.
-  await expect(dialog.getByRole('spinbutton', { name: 'Cost of a false alarm' })).toHaveAccessibleDescription(/give both costs/i);
+  await expect(dialog.getByRole('spinbutton', { name: 'False-alarm cost' })).toHaveAccessibleDescription(/give both costs/i);
 
-  await dialog.getByRole('spinbutton', { name: 'Cost of a false alarm' }).fill('1');
+  await dialog.getByRole('spinbutton', { name: 'False-alarm cost' }).fill('1');
   await dialog.getByRole('spinbutton', { name: 'Check in every' }).fill('14');
   await dialog.getByRole('button', { name: 'Save changes' }).click();
   await expect(dialog).toBeHidden();
@@ -231,7 +234,7 @@ test('Edit saves every kind of field and leaves untouched times exact', async ()
   const facts = page.locator('.facts');
   await expect(facts).toContainText('State at deadline');
   await expect(facts).toContainText('client:westhaven');
-  await expect(facts).toContainText('False alarm 1 · Miss 4');
+  await expect(facts).toContainText('False-alarm cost 1 · Miss cost 4');
   await expect(facts).toContainText('Every 14 days');
   // The times were not edited, so they were not sent: still exact to the millisecond.
   const after = JSON.parse((await chart.getAttribute('data-points')) ?? 'null') as { opened_at: string; closes_at: string };

@@ -240,7 +240,7 @@ test('what-if costs move the threshold and the 2×2 table; default costs are sav
     await page.getByLabel('What-if miss cost').fill('4');
     await waitReady(page, '');
     await expect(page.getByTestId('threshold-value')).toHaveText('0.20');
-    await expect(page.getByTestId('whatif-status')).toHaveText('In use: false alarm 1, miss 4 for every question in this view.');
+    await expect(page.getByTestId('whatif-status')).toHaveText('In use: false-alarm cost 1, miss cost 4 for every question in this view.');
     await expect.poll(() => contingency(page)).toEqual([
       whatIf.report.decisions.hits,
       whatIf.report.decisions.false_alarms,

@@ -56,8 +56,8 @@ test('changed settings are saved and still there after a reload', async ({ brows
     await page.getByLabel('Quiet until').fill('06:45');
     await page.getByLabel('Diary time zone').selectOption('America/New_York');
     // α = 1 / (1 + 4) = 20% (derived from α = FA / (FA + M)).
-    await field(page, 'False alarm costs').fill('1');
-    await field(page, 'Miss costs').fill('4');
+    await field(page, 'False-alarm cost').fill('1');
+    await field(page, 'Miss cost').fill('4');
     await expect(page.getByTestId('action-threshold')).toContainText('Act when your probability is above 20%');
     await expect(page.getByText('You have unsaved changes.')).toBeVisible();
     await page.getByRole('button', { name: 'Save settings' }).click();
@@ -70,7 +70,7 @@ test('changed settings are saved and still there after a reload', async ({ brows
     await expect(page.getByLabel('Quiet from')).toHaveValue('22:30');
     await expect(page.getByLabel('Quiet until')).toHaveValue('06:45');
     await expect(page.getByLabel('Diary time zone')).toHaveValue('America/New_York');
-    await expect(field(page, 'Miss costs')).toHaveValue('4');
+    await expect(field(page, 'Miss cost')).toHaveValue('4');
     await expect(page.getByTestId('action-threshold')).toContainText('above 20%');
     expect(await settingsNow(server())).toMatchObject({
       default_checkin_days: 14,

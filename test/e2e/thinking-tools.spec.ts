@@ -281,7 +281,9 @@ test.describe('what the tools do', () => {
       envelope.value.report.calibration = { intercept: null, slope: null, reason: 'needs at least 20 scored questions; there are 3' };
       await route.fulfill({ response, json: envelope });
     });
+    // The typed 90 is not thrown away without asking (renderer/src/components/Dialog.tsx).
     await page.keyboard.press('Escape');
+    await page.getByRole('alertdialog', { name: 'Discard your changes?' }).getByRole('button', { name: 'Discard' }).click();
     await page.getByRole('button', { name: 'Revise' }).click();
     await dialog.getByRole('spinbutton', { name: 'Your probability', exact: true }).fill('90');
     await expect(hint).toContainText('No recalibrated value yet: needs at least 20 scored questions; there are 3 — resolve 17 more to see it.', {

@@ -26,7 +26,7 @@ async function viaHttp(operation: OperationName, request: unknown): Promise<Enve
   } catch {
     throw new RequestError(
       'unreachable',
-      'The diary did not answer. Check that `forelog serve` is still running, then reload the page.',
+      'The diary did not answer. Check that forelog serve is still running in its terminal, then reload the page.',
       [],
       operation,
     );
@@ -34,7 +34,7 @@ async function viaHttp(operation: OperationName, request: unknown): Promise<Enve
   if (response.status === 401 || response.status === 403) {
     throw new RequestError(
       'unauthorized',
-      'The diary did not accept this page’s access token. Open the address `forelog serve` printed (it carries a fresh token).',
+      'The diary did not accept this page’s access token: the server was probably restarted, and each run has its own token. Open the address forelog serve printed when it started (its first line).',
       [],
       operation,
     );
@@ -44,7 +44,7 @@ async function viaHttp(operation: OperationName, request: unknown): Promise<Enve
   } catch {
     throw new RequestError(
       'internal',
-      `The diary answered ${response.status} without a readable reply. Reload the page; if it persists, restart \`forelog serve\`.`,
+      `The diary answered ${response.status} without a readable reply. Reload the page; if it persists, stop forelog serve and start it again.`,
       [],
       operation,
     );

@@ -7,7 +7,6 @@
 import { useEffect, useMemo, useRef } from 'react';
 import {
   Chart,
-  Legend,
   LinearScale,
   LineController,
   LineElement,
@@ -18,19 +17,18 @@ import {
 } from 'chart.js';
 import type { Question } from '../../../shared/domain';
 import { OUTCOME_LABELS } from '../components/StatusPill';
-import { formatInstant } from '../dates';
+import { formatInstant, formatTick } from '../dates';
 import { useColorScheme } from '../hooks';
 import { formatPercent } from '../percent';
+import { ChartLegend, DASHED, DOTTED, lineStyle, type LegendItem, type Marker } from './Legend';
 import { verticalMarkers, type VerticalMarker } from './markers';
 import { chartSeries, historyData, timeTicks, type HistoryData, type XY } from './series';
 import '../tools/tools.css';
 
-Chart.register(LineController, LineElement, PointElement, LinearScale, Tooltip, Legend);
+Chart.register(LineController, LineElement, PointElement, LinearScale, Tooltip);
 
+/** The colours drawn on the canvas itself; the series' colours come from their legend items. */
 interface Palette {
-  own: string;
-  reference: string;
-  baseRate: string;
   close: string;
   resolved: string;
   grid: string;
@@ -39,13 +37,15 @@ interface Palette {
   font: string;
 }
 
+/** A colour token's value in the theme in force. */
+function cssColor(name: string): string {
+  return getComputedStyle(document.documentElement).getPropertyValue(name).trim();
+}
+
 function palette(): Palette {
   const style = getComputedStyle(document.documentElement);
   const v = (name: string) => style.getPropertyValue(name).trim();
   return {
-    own: v('--chart-own'),
-    reference: v('--chart-reference'),
-    baseRate: v('--chart-base-rate'),
     close: v('--chart-close'),
     resolved: v('--color-success'),
     grid: v('--chart-grid'),
@@ -77,12 +77,31 @@ function describe(data: HistoryData): string {
   return `Probability history step chart. ${parts.join(' ')}`;
 }
 
-const REFERENCE_DASHES: number[][] = [[], [2, 3], [8, 3, 2, 3]];
+/** Each reference source gets its own line pattern and marker, so two sources never look alike. */
+const REFERENCE_DASHES: number[][] = [[], [8, 3, 2, 3], [2, 3]];
+const REFERENCE_MARKERS: Marker[] = ['rectRot', 'triangle', 'rect', 'star'];
+
+/** What each series looks like: the canvas and the legend under it both draw from this. */
+export function historyLegend(data: HistoryData): LegendItem[] {
+  const sources = [...new Set(data.reference.map((r) => r.source))];
+  return [
+    { label: 'Your forecasts', color: '--chart-own', dash: [], marker: 'circle', lineWidth: 2.5 },
+    ...sources.map<LegendItem>((source, i) => ({
+      label: `Reference: ${source}`,
+      color: '--chart-reference',
+      dash: REFERENCE_DASHES[i % REFERENCE_DASHES.length] ?? [],
+      marker: REFERENCE_MARKERS[i % REFERENCE_MARKERS.length] ?? 'rectRot',
+    })),
+    ...(data.glide.length ? [{ label: 'Glide path', color: '--chart-own', dash: DOTTED, marker: 'none', lineWidth: 1.5 } satisfies LegendItem] : []),
+    ...(data.base_rate !== null ? [{ label: 'Base rate', color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 } satisfies LegendItem] : []),
+  ];
+}
 
 export function HistoryChart({ question }: { question: Question }) {
   const scheme = useColorScheme();
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const data = useMemo(() => historyData(question), [question]);
+  const legend = useMemo(() => historyLegend(data), [data]);
   const zone = question.time_zone;
 
   useEffect(() => {
@@ -91,65 +110,30 @@ export function HistoryChart({ question }: { question: Question }) {
     const colors = palette();
     const series = chartSeries(data, Date.now());
     const ticks = timeTicks(series.xMin, series.xMax, zone);
-    const tickFormat = new Intl.DateTimeFormat(undefined, {
-      timeZone: zone,
-      day: 'numeric',
-      month: 'short',
-      ...(ticks.unit === 'hour' ? { hour: '2-digit', minute: '2-digit' } : {}),
-      ...(series.xMax - series.xMin > 300 * 86_400_000 ? { year: 'numeric' } : {}),
-    });
     const pointRadius = (points: XY[], size: number) => points.map((p) => (p.hold ? 0 : size));
+    const style = (label: string) => lineStyle(legend.find((item) => item.label === label)!, cssColor);
 
     const datasets: ChartDataset<'line', XY[]>[] = [
       {
-        label: 'Your forecasts',
+        ...style('Your forecasts'),
         data: series.own,
         stepped: 'before',
-        borderColor: colors.own,
-        backgroundColor: colors.own,
-        borderWidth: 2.5,
         pointRadius: pointRadius(series.own, 4),
         pointHoverRadius: 6,
       },
-      ...series.references.map((r, i) => ({
-        label: `Reference: ${r.source}`,
+      ...series.references.map((r) => ({
+        ...style(`Reference: ${r.source}`),
         data: r.points,
         stepped: 'before' as const,
-        borderColor: colors.reference,
-        backgroundColor: colors.reference,
-        borderWidth: 2,
-        borderDash: REFERENCE_DASHES[i % REFERENCE_DASHES.length] ?? [],
-        pointStyle: 'rectRot' as const,
         pointRadius: pointRadius(r.points, 5),
         pointHoverRadius: 7,
       })),
     ];
     if (series.glide.length) {
-      datasets.push({
-        label: 'Glide path',
-        data: series.glide,
-        borderColor: colors.own,
-        backgroundColor: colors.own,
-        borderWidth: 1.5,
-        borderDash: [2, 4],
-        // A dotted line in the legend too, so it is not read as a second set of forecasts.
-        pointStyle: 'line',
-        pointRadius: 0,
-        pointHoverRadius: 0,
-        tension: 0,
-      });
+      datasets.push({ ...style('Glide path'), data: series.glide, pointRadius: 0, pointHoverRadius: 0, tension: 0 });
     }
     if (series.baseRate.length) {
-      datasets.push({
-        label: 'Base rate',
-        data: series.baseRate,
-        borderColor: colors.baseRate,
-        backgroundColor: colors.baseRate,
-        borderWidth: 1.5,
-        borderDash: [6, 5],
-        pointRadius: 0,
-        pointHoverRadius: 0,
-      });
+      datasets.push({ ...style('Base rate'), data: series.baseRate, pointRadius: 0, pointHoverRadius: 0 });
     }
 
     const markers: VerticalMarker[] = [{ at: series.closeMs, label: 'Close', color: colors.close }];
@@ -174,7 +158,7 @@ export function HistoryChart({ question }: { question: Question }) {
             afterBuildTicks: (axis) => {
               axis.ticks = ticks.values.map((value) => ({ value }));
             },
-            ticks: { color: colors.text, callback: (value) => tickFormat.format(Number(value)), maxRotation: 0, autoSkip: true },
+            ticks: { color: colors.text, callback: (value) => formatTick(Number(value), zone, ticks.unit, series.xMax - series.xMin), maxRotation: 0, autoSkip: true },
             grid: { color: colors.grid },
             border: { color: colors.grid },
           },
@@ -189,7 +173,8 @@ export function HistoryChart({ question }: { question: Question }) {
           },
         },
         plugins: {
-          legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },
+          // Our own legend under the canvas draws each line's dash and marker (chart/Legend.tsx).
+          legend: { display: false },
           tooltip: {
             filter: (item: TooltipItem<'line'>) => !(item.raw as XY).hold && item.dataset.label !== 'Base rate',
             callbacks: {
@@ -202,7 +187,7 @@ export function HistoryChart({ question }: { question: Question }) {
       plugins: [verticalMarkers(markers, colors.font, colors.surface)],
     });
     return () => chart.destroy();
-  }, [data, scheme, zone]);
+  }, [data, legend, scheme, zone]);
 
   return (
     <figure className="history-chart" data-testid="history-chart" data-points={JSON.stringify(data)}>
@@ -218,6 +203,7 @@ export function HistoryChart({ question }: { question: Question }) {
       <div className="history-chart__canvas">
         <canvas ref={canvasRef} role="img" aria-label={describe(data)} />
       </div>
+      <ChartLegend items={legend} />
     </figure>
   );
 }

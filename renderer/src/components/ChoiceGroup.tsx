@@ -1,10 +1,14 @@
 /** One choice out of a few, as native radio buttons (arrow keys move between them). */
-import { useId } from 'react';
+import { useId, type ReactNode } from 'react';
 import { FieldError } from './FieldError';
 
 export interface Choice {
   value: string;
   label: string;
+  /** Drawn before the label (hidden from screen readers). */
+  icon?: ReactNode;
+  /** Styles the choice apart from its neighbours (`choice--<tone>`). */
+  tone?: string;
 }
 
 export interface ChoiceGroupProps {
@@ -23,7 +27,7 @@ export function ChoiceGroup({ legend, value, choices, onChange, error }: ChoiceG
       <legend>{legend}</legend>
       <div className="choice-row">
         {choices.map((choice) => (
-          <label key={choice.value} className="choice">
+          <label key={choice.value} className={choice.tone ? `choice choice--${choice.tone}` : 'choice'}>
             <input
               type="radio"
               name={name}
@@ -32,6 +36,7 @@ export function ChoiceGroup({ legend, value, choices, onChange, error }: ChoiceG
               aria-invalid={error ? true : undefined}
               onChange={() => onChange(choice.value)}
             />
+            {choice.icon}
             {choice.label}
           </label>
         ))}

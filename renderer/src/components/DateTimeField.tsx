@@ -1,11 +1,33 @@
 /**
- * A date and time on a named time zone's clocks ("31 March, 17:00, Europe/London"), which is
- * how people think of a deadline. The form keeps the wall-clock text and the zone; `localToIso`
- * (renderer/src/dates.ts) turns the pair into the instant the diary stores.
+ * A date and time on a named time zone's clocks ("31/03/2026, 17:00, Europe/London"), which is
+ * how people think of a deadline. The date is typed in the user's own order (dd/mm/yyyy in
+ * the UK, mm/dd/yyyy in the US; a calendar button helps), the time as the locale writes it,
+ * and the line under the boxes reads the result back in words with its zone label, so a
+ * slip (the 3rd of April for the 4th of March) shows before saving.
+ *
+ * The form keeps "YYYY-MM-DDTHH:MM" (or '' while the boxes are empty or do not yet hold a
+ * date and time); `localToIso` (dates.ts) turns it and the zone into the instant the diary
+ * stores. Text that is not a date is reported to the form, which will not save it.
  */
-import { useId, useMemo } from 'react';
-import { timeZoneNames } from '../dates';
-import { FieldFrame, describedBy } from './FieldFrame';
+import { useId, useMemo, useState } from 'react';
+import { parseLocalDateTime } from '../../../shared/time';
+import {
+  dateOrder,
+  formatDateText,
+  formatInstant,
+  formatTimeText,
+  localToIso,
+  parseDateText,
+  parseTimeText,
+  timePlaceholder,
+  timeZoneNames,
+  wallText,
+  zoneName,
+} from '../dates';
+import { useFieldProblem, useSaveRefused } from '../forms';
+import { CalendarButton } from './CalendarButton';
+import { FieldError } from './FieldError';
+import { errorId, hintId } from './FieldFrame';
 
 export interface DateTimeFieldProps {
   label: string;
@@ -21,22 +43,109 @@ export interface DateTimeFieldProps {
   id?: string | undefined;
 }
 
+interface Texts {
+  date: string;
+  time: string;
+}
+
+function textsFor(local: string): Texts {
+  const wall = parseLocalDateTime(local);
+  return wall ? { date: formatDateText(wall), time: formatTimeText(wall) } : { date: '', time: '' };
+}
+
+type Reading = { local: string; problem: null } | { local: ''; problem: string | null };
+
+/** What the two boxes mean together. */
+function read(texts: Texts): Reading {
+  const date = texts.date.trim();
+  const time = texts.time.trim();
+  if (date === '' && time === '') return { local: '', problem: null };
+  if (date === '') return { local: '', problem: `add the date (${dateOrder().placeholder})` };
+  const day = parseDateText(date);
+  if (!day.ok) return { local: '', problem: day.error };
+  if (time === '') return { local: '', problem: `add the time (${timePlaceholder()})` };
+  const clock = parseTimeText(time);
+  if (!clock.ok) return { local: '', problem: clock.error };
+  return { local: wallText(day.value, clock.value), problem: null };
+}
+
+/** A pasted or typed "2026-03-31T17:00" fills both boxes. */
+const WHOLE = /^\s*\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}\s*$/;
+
 export function DateTimeField({ label, local, onLocalChange, timeZone, onTimeZoneChange, hint, error, required, id }: DateTimeFieldProps) {
   const generated = useId();
   const controlId = id ?? generated;
+  const timeId = `${controlId}-time`;
+  const readbackId = `${controlId}-readback`;
   const zones = useMemo(() => (onTimeZoneChange ? timeZoneNames(timeZone) : []), [onTimeZoneChange, timeZone]);
+  const [texts, setTexts] = useState<Texts>(() => textsFor(local));
+  const [touched, setTouched] = useState(false);
+  const refused = useSaveRefused();
+  const reading = read(texts);
+
+  // The form changed the value itself (a reset, "now"): show that instead of the old text.
+  if (local !== reading.local && !(local === '' && reading.problem !== null)) {
+    const synced = textsFor(local);
+    if (read(synced).local === local) setTexts(synced);
+  }
+
+  useFieldProblem(reading.problem ? `${label}: ${reading.problem}` : null);
+
+  function change(next: Texts) {
+    const whole = WHOLE.test(next.date) ? textsFor(next.date.trim().replace(' ', 'T')) : next;
+    setTexts(whole);
+    onLocalChange(read(whole).local);
+  }
+
+  const shownError = (touched || refused || error) && reading.problem ? sentence(reading.problem) : error;
+  const iso = reading.local ? localToIso(reading.local, timeZone) : null;
+  const readback = iso ? formatInstant(iso, timeZone, { weekday: true }) : null;
+  const described = [hint ? hintId(controlId) : '', readback ? readbackId : '', shownError ? errorId(controlId) : ''].filter(Boolean).join(' ') || undefined;
+  const order = dateOrder();
+
   return (
-    <FieldFrame controlId={controlId} label={label} hint={hint} error={error} required={required} className="datetime">
+    <div
+      className={['field', 'datetime', shownError ? 'field--invalid' : ''].filter(Boolean).join(' ')}
+      onBlur={(event) => {
+        // Moving from the date box to the time box is still typing; leaving the field is not.
+        if (!event.currentTarget.contains(event.relatedTarget as Node | null)) setTouched(true);
+      }}
+    >
+      <label className="field__label" htmlFor={controlId}>
+        {label}
+        {required ? <span className="field__required" aria-hidden="true"> *</span> : null}
+      </label>
       <span className="datetime__row">
         <input
-          type="datetime-local"
+          type="text"
           id={controlId}
-          className="input input--datetime"
-          value={local}
+          className="input input--date"
+          inputMode="numeric"
+          autoComplete="off"
+          placeholder={order.placeholder}
+          value={texts.date}
           required={required}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={describedBy(controlId, hint, error)}
-          onChange={(event) => onLocalChange(event.target.value)}
+          aria-invalid={shownError ? true : undefined}
+          aria-describedby={described}
+          onChange={(event) => change({ ...texts, date: event.target.value })}
+        />
+        <input
+          type="text"
+          id={timeId}
+          className="input input--time"
+          autoComplete="off"
+          placeholder={timePlaceholder()}
+          value={texts.time}
+          aria-label={`${label}: time`}
+          aria-invalid={shownError ? true : undefined}
+          aria-describedby={described}
+          onChange={(event) => change({ ...texts, time: event.target.value })}
+        />
+        <CalendarButton
+          label={label}
+          current={reading.local.slice(0, 10)}
+          boxId={controlId}
+          onPick={(date) => change({ ...texts, date: formatDateText(date) })}
         />
         {onTimeZoneChange ? (
           <select
@@ -48,14 +157,29 @@ export function DateTimeField({ label, local, onLocalChange, timeZone, onTimeZon
           >
             {zones.map((zone) => (
               <option key={zone} value={zone}>
-                {zone.replaceAll('_', ' ')}
+                {zoneName(zone)}
               </option>
             ))}
           </select>
         ) : (
-          <span className="datetime__zone-text">{timeZone.replaceAll('_', ' ')}</span>
+          <span className="datetime__zone-text">{zoneName(timeZone)}</span>
         )}
       </span>
-    </FieldFrame>
+      {readback ? (
+        <p className="field__hint datetime__readback" id={readbackId} data-testid="datetime-readback">
+          {readback}
+        </p>
+      ) : null}
+      {hint ? (
+        <p className="field__hint" id={hintId(controlId)}>
+          {hint}
+        </p>
+      ) : null}
+      <FieldError id={errorId(controlId)} message={shownError} />
+    </div>
   );
+}
+
+function sentence(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }

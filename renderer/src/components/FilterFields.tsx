@@ -3,8 +3,9 @@
  * in whole days on the diary's clocks (turned into instants by `dayRange` in dates.ts).
  */
 import type { TagCount } from '../../../shared/contract';
+import { zoneName } from '../dates';
+import { DateField } from './DateField';
 import { Select } from './Select';
-import { TextField } from './TextField';
 
 export function TagFilter({ value, tags, onChange }: { value: string; tags: readonly TagCount[]; onChange: (tag: string) => void }) {
   const options = [{ value: '', label: 'All tags' }, ...tags.map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` }))];
@@ -22,20 +23,18 @@ export interface WindowEndRangeProps {
 }
 
 export function WindowEndRange({ from, to, timeZone, problems, onChange }: WindowEndRangeProps) {
-  const zone = timeZone.replaceAll('_', ' ');
+  const zone = zoneName(timeZone);
   return (
     <>
-      <TextField
+      <DateField
         label="From"
-        type="date"
         value={from}
         onChange={(value) => onChange({ from: value })}
         hint={`Window ended on or after this day (${zone})`}
         error={problems.from}
       />
-      <TextField
+      <DateField
         label="To"
-        type="date"
         value={to}
         onChange={(value) => onChange({ to: value })}
         hint={`Window ended on or before this day (${zone})`}

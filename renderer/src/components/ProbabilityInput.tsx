@@ -1,10 +1,12 @@
 /**
  * A probability entered in percent, with a slider and a number box kept in step: the slider
  * for a quick gut number, the box for an exact one (e.g. 2.5%). The value is the percent text
- * as typed; `percentToProbability` turns it into the 0–1 number the diary stores.
+ * as typed; `percentToProbability` turns it into the 0–1 number the diary stores. Under the
+ * box, PercentAdvice warns at 0% and 100% and asks about a fraction such as 0.5.
  */
-import { useId } from 'react';
+import { useId, useState } from 'react';
 import { FieldFrame, describedBy } from './FieldFrame';
+import { PercentAdvice, hasPercentAdvice } from './PercentAdvice';
 
 export interface ProbabilityInputProps {
   label: string;
@@ -21,8 +23,12 @@ export interface ProbabilityInputProps {
 export function ProbabilityInput({ label, value, onChange, hint, error, required, autoFocus, id }: ProbabilityInputProps) {
   const generated = useId();
   const controlId = id ?? generated;
+  const adviceId = `${controlId}-advice`;
+  // What was last typed into the box (not set by the slider or a helper), for the 0.5 question.
+  const [typed, setTyped] = useState<string | null>(null);
   const numeric = Number(value);
   const sliderValue = value.trim() !== '' && Number.isFinite(numeric) ? Math.min(100, Math.max(0, numeric)) : 50;
+  const described = [describedBy(controlId, hint, error), hasPercentAdvice(value) ? adviceId : ''].filter(Boolean).join(' ') || undefined;
   return (
     <FieldFrame controlId={controlId} label={label} hint={hint} error={error} required={required} className="probability">
       <span className="probability__row">
@@ -50,14 +56,18 @@ export function ProbabilityInput({ label, value, onChange, hint, error, required
             required={required}
             data-autofocus={autoFocus ? '' : undefined}
             aria-invalid={error ? true : undefined}
-            aria-describedby={describedBy(controlId, hint, error)}
-            onChange={(event) => onChange(event.target.value)}
+            aria-describedby={described}
+            onChange={(event) => {
+              setTyped(event.target.value);
+              onChange(event.target.value);
+            }}
           />
           <span className="input-suffix" aria-hidden="true">
             %
           </span>
         </span>
       </span>
+      <PercentAdvice value={value} onChange={onChange} id={adviceId} boxId={controlId} typed={typed} />
     </FieldFrame>
   );
 }

@@ -1,11 +1,22 @@
 /**
  * Tags typed one at a time: Enter or comma adds the tag, Backspace in an empty box removes the
  * last one. Tags are lower-cased and checked against the diary's tag rule before they are added,
- * so the user learns about a bad tag while typing rather than on save.
+ * so the user learns about a bad tag while typing rather than on save; a bad tag left in the
+ * box stops the form from saving (it would otherwise be dropped without a word).
  */
 import { useId, useState, type KeyboardEvent } from 'react';
 import { TAG_PATTERN, TAG_RULE } from '../../../shared/validation';
+import { useFieldProblem } from '../forms';
 import { FieldFrame, describedBy } from './FieldFrame';
+
+/** The draft as the tag it would become. */
+function normalise(draft: string): string {
+  return draft.trim().replace(/,+$/, '').trim().toLowerCase();
+}
+
+function tagProblem(tag: string): string | null {
+  return tag === '' || TAG_PATTERN.test(tag) ? null : `“${tag}” is not a valid tag: ${TAG_RULE}. Fix it or clear the box.`;
+}
 
 export interface TagInputProps {
   label: string;
@@ -24,16 +35,18 @@ export function TagInput({ label, tags, onChange, suggestions = [], hint, error,
   const listId = `${controlId}-suggestions`;
   const [draft, setDraft] = useState('');
   const [draftError, setDraftError] = useState<string | undefined>();
+  useFieldProblem(tagProblem(normalise(draft)));
 
   /** Adds the draft if it is a valid new tag; returns whether the draft was consumed. */
   function commit(): boolean {
-    const tag = draft.trim().replace(/,+$/, '').trim().toLowerCase();
+    const tag = normalise(draft);
     if (tag === '') {
       setDraft('');
       return false;
     }
-    if (!TAG_PATTERN.test(tag)) {
-      setDraftError(`“${tag}” is not a valid tag: ${TAG_RULE}.`);
+    const problem = tagProblem(tag);
+    if (problem) {
+      setDraftError(problem);
       return false;
     }
     if (!tags.includes(tag)) onChange([...tags, tag]);

@@ -8,6 +8,8 @@ import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
 import { Button } from '../components/Button';
 import { FieldError } from '../components/FieldError';
 import { FieldFrame, describedBy } from '../components/FieldFrame';
+import { PercentAdvice, hasPercentAdvice } from '../components/PercentAdvice';
+import { percentAdvice } from '../percent';
 import { estimateText, formatEstimate, numberOrNull } from './format';
 import {
   EXTREMIZE_MAX,
@@ -51,7 +53,10 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
   const listRef = useRef<HTMLOListElement>(null);
   const addRef = useRef<HTMLButtonElement>(null);
   const [focusKey, setFocusKey] = useState<number | 'add' | null>(null);
-  const hasErrors = lenses.some((l) => error(lensField(l.key, 'name')) || error(lensField(l.key, 'p')) || error(lensField(l.key, 'weight')));
+  // Open whenever a row needs an answer, so nothing the form waits for is folded away.
+  const hasErrors = lenses.some(
+    (l) => error(lensField(l.key, 'name')) || error(lensField(l.key, 'p')) || error(lensField(l.key, 'weight')) || percentAdvice(l.p)?.kind === 'fraction',
+  );
   const [open, setOpen] = useState(false);
 
   // After adding a row, the keyboard goes to its probability (the name is already offered);
@@ -139,7 +144,7 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
                         aria-label={`${label} probability`}
                         value={lens.p}
                         aria-invalid={errors.p ? true : undefined}
-                        aria-describedby={describedBy(pId, undefined, errors.p)}
+                        aria-describedby={[describedBy(pId, undefined, errors.p), hasPercentAdvice(lens.p) ? `${pId}-advice` : ''].filter(Boolean).join(' ') || undefined}
                         onChange={(event) => change(lens.key, 'p', event.target.value)}
                       />
                       <span className="input-suffix" aria-hidden="true">
@@ -165,6 +170,7 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
                     <div className="lens-grid__errors">
                       <FieldError id={`${nameId}-error`} message={errors.name} />
                       <FieldError id={`${pId}-error`} message={errors.p} />
+                      <PercentAdvice value={lens.p} onChange={(value) => change(lens.key, 'p', value)} id={`${pId}-advice`} boxId={pId} />
                       <FieldError id={`${weightId}-error`} message={errors.weight} />
                     </div>
                   </li>

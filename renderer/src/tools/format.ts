@@ -24,17 +24,8 @@ export function plural(n: number, one: string, many = `${one}s`): string {
   return `${n} ${n === 1 ? one : many}`;
 }
 
-const dateFormats = new Map<string, Intl.DateTimeFormat>();
-
-/** e.g. "3 Jun 2025": the calendar day of an instant on `timeZone`'s clocks. */
-export function formatDay(ms: number, timeZone: string): string {
-  let format = dateFormats.get(timeZone);
-  if (!format) {
-    format = new Intl.DateTimeFormat(undefined, { timeZone, day: 'numeric', month: 'short', year: 'numeric' });
-    dateFormats.set(timeZone, format);
-  }
-  return format.format(ms);
-}
+/** e.g. "3 Jun 2025": the calendar day of an instant on `timeZone`'s clocks (dates.ts). */
+export { formatDay } from '../dates';
 
 /**
  * A text box's number, or null when it is empty or not a finite number. The tools compute as

@@ -9,7 +9,8 @@ import { api } from '../../api/client';
 import { describeError } from '../../api/errors';
 import { Badge } from '../../components/Badge';
 import { Button } from '../../components/Button';
-import { ErrorBanner } from '../../components/ErrorBanner';
+import { Form } from '../../components/Form';
+import { OutcomeButton } from '../../components/OutcomeMark';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { OUTCOME_LABELS } from '../../components/StatusPill';
 import { TextArea } from '../../components/TextArea';
@@ -45,6 +46,8 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
   const [panel, setPanel] = useState<Panel>('none');
   const [busy, setBusy] = useState(false);
   const [note, setNote] = useState('');
+  // What was typed in the revise panel outlives the panel (Escape, Cancel), like the note does.
+  const [revision, setRevision] = useState<RevisionDraft>(() => ({ p: percentText(item.last_p), note: '' }));
   const href = hrefTo(questionPath(item.id));
   const toResolve = item.group === 'resolve';
 
@@ -110,7 +113,7 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
       ) : null}
       {panel === 'revise' ? (
         <div id={`${titleId}-revise`} className="desk-item__panel">
-          <ReviseForm item={item} onCancel={() => setPanel('none')} onSaved={finish} />
+          <ReviseForm item={item} draft={revision} onDraftChange={setRevision} onCancel={() => setPanel('none')} onSaved={finish} />
         </div>
       ) : null}
       {panel === 'snooze' ? (
@@ -185,12 +188,6 @@ function DisclosureButton({
   );
 }
 
-const OUTCOME_HINTS: Record<Outcome, string> = {
-  yes: 'It happened: resolve Yes',
-  no: 'It did not happen: resolve No',
-  void: 'It cannot be resolved fairly: Void questions are never scored',
-};
-
 function ResolveButtons({
   item,
   note,
@@ -224,9 +221,7 @@ function ResolveButtons({
           Resolve
         </span>
         {(['yes', 'no', 'void'] as const).map((outcome) => (
-          <Button key={outcome} size="sm" variant={outcome === 'void' ? 'secondary' : 'primary'} title={OUTCOME_HINTS[outcome]} disabled={busy} onClick={() => resolve(outcome)}>
-            {OUTCOME_LABELS[outcome]}
-          </Button>
+          <OutcomeButton key={outcome} outcome={outcome} label={OUTCOME_LABELS[outcome]} disabled={busy} onClick={() => resolve(outcome)} />
         ))}
       </div>
       <Button size="sm" variant="ghost" aria-expanded={noteOpen} aria-controls={noteOpen ? noteId : undefined} disabled={busy} onClick={onToggleNote}>
@@ -249,10 +244,28 @@ function NoteField({ note, onChange }: { note: string; onChange: (note: string) 
   );
 }
 
-function ReviseForm({ item, onCancel, onSaved }: { item: DeskItem; onCancel: () => void; onSaved: (message: string) => void }) {
+interface RevisionDraft {
+  p: string;
+  note: string;
+}
+
+function ReviseForm({
+  item,
+  draft,
+  onDraftChange,
+  onCancel,
+  onSaved,
+}: {
+  item: DeskItem;
+  draft: RevisionDraft;
+  onDraftChange: (draft: RevisionDraft) => void;
+  onCancel: () => void;
+  onSaved: (message: string) => void;
+}) {
   const form = useForm();
-  const [p, setP] = useState(percentText(item.last_p));
-  const [note, setNote] = useState('');
+  const { p, note } = draft;
+  const setP = (value: string) => onDraftChange({ ...draft, p: value });
+  const setNote = (value: string) => onDraftChange({ ...draft, note: value });
 
   useEffect(() => {
     form.formRef.current?.querySelector<HTMLInputElement>('input[type="number"]')?.focus();
@@ -263,6 +276,7 @@ function ReviseForm({ item, onCancel, onSaved }: { item: DeskItem; onCancel: () 
     const parsed = percentToProbability(p);
     if (!parsed.ok) return void form.reject({ p: parsed.error });
     if (parsed.value === null) return void form.reject({ p: 'enter your probability in percent, e.g. 35' });
+    if (!form.check({})) return;
     const value = parsed.value;
     const unchanged = item.last_p !== null && value === item.last_p;
     const ok = await form.submit(
@@ -271,12 +285,13 @@ function ReviseForm({ item, onCancel, onSaved }: { item: DeskItem; onCancel: () 
       },
       { fields: ['p', 'note'] },
     );
-    if (ok) onSaved(unchanged ? `Kept “${item.title}” at ${formatPercent(value)}; check-in done.` : `Revised “${item.title}” to ${formatPercent(value)}.`);
+    if (!ok) return;
+    onDraftChange({ p, note: '' });
+    onSaved(unchanged ? `Kept “${item.title}” at ${formatPercent(value)}; check-in done.` : `Revised “${item.title}” to ${formatPercent(value)}.`);
   }
 
   return (
-    <form ref={form.formRef} className="desk-revise" noValidate onSubmit={onSubmit} aria-label={`Revise “${item.title}”`}>
-      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+    <Form form={form} label={`Revise “${item.title}”`} className="desk-revise" onSubmit={onSubmit} dirty={false}>
       <ProbabilityInput label="New probability" value={p} onChange={setP} required error={form.error('p')} hint={item.last_p === null ? undefined : `Was ${formatPercent(item.last_p)}; saving the same number confirms it.`} />
       <TextField label="What changed" value={note} onChange={setNote} placeholder="Optional: the evidence behind the number" error={form.error('note')} />
       <div className="desk-revise__actions">
@@ -285,7 +300,7 @@ function ReviseForm({ item, onCancel, onSaved }: { item: DeskItem; onCancel: () 
           Save revision
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }
 

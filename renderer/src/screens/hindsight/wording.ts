@@ -2,6 +2,7 @@
  * How the Hindsight screen puts figures into words: one place, so an entry, the calibration
  * summary and the empty states never write the same number two ways.
  */
+import { recalibrate } from '../../../../shared/scoring';
 import type { CalibrationFit } from '../../../../shared/scoring/types';
 
 /** e.g. 0.85 → "85%", 0.333 → "33%"; a value strictly inside (0, 1) never reads as 0% or 100%. */
@@ -41,16 +42,6 @@ export function confidentMeaning(threshold: number): string {
 
 /** The stated probability the calibration reading translates ("your 90% behaves like …", PRODUCT.md). */
 export const READING_P = 0.9;
-
-/**
- * The recalibrated value of a stated p, σ(a + b · logit(p)) with p clipped to [0.001, 0.999]
- * (SCORING.md, "Calibration intercept and slope"; Cox 1958).
- */
-export function recalibrate(p: number, intercept: number, slope: number): number {
-  const clipped = Math.min(0.999, Math.max(0.001, p));
-  const z = intercept + slope * Math.log(clipped / (1 - clipped));
-  return 1 / (1 + Math.exp(-z));
-}
 
 /** The calibration slope in words, or why it is missing. */
 export function slopeReading(fit: CalibrationFit): string {

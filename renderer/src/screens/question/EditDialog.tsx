@@ -3,19 +3,20 @@
  * the title cannot shift a stored time by rounding it to the minute.
  */
 import { useMemo, useState, type FormEvent } from 'react';
+import { updateQuestionRequest } from '../../../../shared/contract';
 import type { Costs, Question, QuestionKind } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog } from '../../components/Dialog';
-import { ErrorBanner } from '../../components/ErrorBanner';
+import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { Select } from '../../components/Select';
 import { TagInput } from '../../components/TagInput';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
-import { isoToLocal, localToIso, timeZoneNames } from '../../dates';
+import { isoToLocal, localToIso, timeZoneNames, zoneName } from '../../dates';
 import { useForm } from '../../forms';
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
@@ -30,10 +31,21 @@ interface Props {
 
 type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
 
-const FIELDS = [
-  'title', 'rule', 'kind', 'tags', 'opened_at', 'closes_at', 'time_zone', 'base_rate', 'base_rate_note',
-  'costs.false_alarm', 'costs.miss', 'checkin_days',
-];
+const LABELS = {
+  title: 'Question',
+  rule: 'Resolution rule',
+  kind: 'Kind',
+  tags: 'Tags',
+  opened_at: 'Opened',
+  closes_at: 'Closes',
+  time_zone: 'Time zone',
+  base_rate: 'Base rate',
+  base_rate_note: 'Reference class',
+  'costs.false_alarm': 'False-alarm cost',
+  'costs.miss': 'Miss cost',
+  checkin_days: 'Check in every',
+};
+const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS, prefix: 'changes', aliases: { costs: 'costs.false_alarm' } };
 
 export function EditDialog({ question, open, onClose, onSaved }: Props) {
   return (
@@ -58,6 +70,7 @@ function windowDays(openedLocal: string, closesLocal: string, timeZone: string):
 
 function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
   const form = useForm();
+  const cancel = useCloseRequest(onClose);
   const initialOpened = isoToLocal(q.opened_at, q.time_zone);
   const initialCloses = isoToLocal(q.closes_at, q.time_zone);
   const [title, setTitle] = useState(q.title);
@@ -72,13 +85,19 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
   const [falseAlarm, setFalseAlarm] = useState(q.costs ? String(q.costs.false_alarm) : '');
   const [miss, setMiss] = useState(q.costs ? String(q.costs.miss) : '');
   const [checkin, setCheckin] = useState(q.checkin_days === null ? '' : String(q.checkin_days));
-  const zones = useMemo(() => timeZoneNames(q.time_zone).map((zone) => ({ value: zone, label: zone.replaceAll('_', ' ') })), [q.time_zone]);
+  const zones = useMemo(() => timeZoneNames(q.time_zone).map((zone) => ({ value: zone, label: zoneName(zone) })), [q.time_zone]);
+  const initialCosts = { falseAlarm: q.costs ? String(q.costs.false_alarm) : '', miss: q.costs ? String(q.costs.miss) : '' };
+  const dirty =
+    title !== q.title || rule !== q.rule || kind !== q.kind || tags.join('\n') !== q.tags.join('\n') || timeZone !== q.time_zone ||
+    openedLocal !== initialOpened || closesLocal !== initialCloses || baseRate !== percentText(q.base_rate) || baseRateNote !== q.base_rate_note ||
+    falseAlarm !== initialCosts.falseAlarm || miss !== initialCosts.miss || checkin !== (q.checkin_days === null ? '' : String(q.checkin_days));
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
     const changes: Changes = {};
     if (title !== q.title) changes.title = title;
+    if (title.trim() === '') found.title = 'write the question you are forecasting';
     if (rule !== q.rule) changes.rule = rule;
     if (kind !== q.kind) changes.kind = kind;
     if (tags.join('\n') !== q.tags.join('\n')) changes.tags = tags;
@@ -119,23 +138,26 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
     if (days === 'invalid') found.checkin_days = 'must be a whole number of days';
     else if (days !== q.checkin_days) changes.checkin_days = days;
 
-    if (Object.keys(found).length) return void form.reject(found);
+    // The window as it will be after the save, checked here because the diary checks it only
+    // once every other field is right.
+    const opened = changes.opened_at ?? q.opened_at;
+    const closes = changes.closes_at ?? q.closes_at;
+    if (!found.opened_at && !found.closes_at && Date.parse(closes) <= Date.parse(opened)) found.closes_at = 'must be after the opening time';
+
+    const request = { id: q.id, changes };
+    if (!form.check(found, { schema: updateQuestionRequest, request, placement: PLACEMENT })) return;
     if (Object.keys(changes).length === 0) {
       onClose();
       return;
     }
-    const ok = await form.submit(
-      async () => {
-        await api.updateQuestion({ id: q.id, changes });
-      },
-      { fields: FIELDS, prefix: 'changes', aliases: { costs: 'costs.false_alarm' } },
-    );
+    const ok = await form.submit(async () => {
+      await api.updateQuestion(request);
+    }, PLACEMENT);
     if (ok) onSaved('Question saved.');
   }
 
   return (
-    <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="Edit question">
-      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+    <Form form={form} label="Edit question" onSubmit={onSubmit} dirty={dirty}>
       <TextField label="Question" value={title} onChange={setTitle} required data-autofocus error={form.error('title')} />
       <TextArea label="Resolution rule" value={rule} onChange={setRule} rows={3} error={form.error('rule')} />
       <div className="form__row">
@@ -169,8 +191,8 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
         <legend>Costs of being wrong</legend>
         <p className="field__hint">How much worse a miss is than a false alarm sets the probability at which acting pays. Leave both empty to use the diary’s defaults.</p>
         <div className="form__row">
-          <NumberField label="Cost of a false alarm" value={falseAlarm} onChange={setFalseAlarm} min={0} step="any" error={form.error('costs.false_alarm')} />
-          <NumberField label="Cost of a miss" value={miss} onChange={setMiss} min={0} step="any" error={form.error('costs.miss')} />
+          <NumberField label="False-alarm cost" value={falseAlarm} onChange={setFalseAlarm} min={0} step="any" error={form.error('costs.false_alarm')} />
+          <NumberField label="Miss cost" value={miss} onChange={setMiss} min={0} step="any" error={form.error('costs.miss')} />
         </div>
       </fieldset>
       <NumberField
@@ -185,11 +207,11 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
         error={form.error('checkin_days')}
       />
       <div className="form__actions">
-        <Button onClick={onClose}>Cancel</Button>
+        <Button onClick={cancel}>Cancel</Button>
         <Button type="submit" variant="primary" busy={form.busy}>
           Save changes
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }

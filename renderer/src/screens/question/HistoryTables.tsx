@@ -62,7 +62,7 @@ export function HistoryTables({ question, onDeleteForecast, onDeleteReference }:
           at: r.at,
           p: r.p,
           deleteLabel: `Delete ${r.source}’s ${formatPercent(r.p)} of ${when(r.at)}`,
-          detail: r.source,
+          detail: <span className="user-text">{r.source}</span>,
         }))}
         onDelete={onDeleteReference}
       />

@@ -17,7 +17,7 @@ import { EmptyState } from '../../components/EmptyState';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { OUTCOME_LABELS, StatusPill } from '../../components/StatusPill';
 import { useToast } from '../../components/Toast';
-import { formatInstant } from '../../dates';
+import { formatInstant, zoneName } from '../../dates';
 import { useDocumentTitle } from '../../hooks';
 import { formatPercent } from '../../percent';
 import { hrefTo, navigate } from '../../routing';
@@ -175,7 +175,7 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
           <dt>Window</dt>
           <dd>
             <time dateTime={q.opened_at}>{formatInstant(q.opened_at, zone)}</time> → <time dateTime={q.closes_at}>{formatInstant(q.closes_at, zone)}</time>{' '}
-            <span className="muted">({zone.replaceAll('_', ' ')})</span>
+            <span className="muted">({zoneName(zone)})</span>
           </dd>
           <dt>Base rate</dt>
           <dd>
@@ -198,11 +198,11 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
           <dd>
             {q.costs ? (
               <>
-                False alarm {q.costs.false_alarm} · Miss {q.costs.miss}
+                False-alarm cost {q.costs.false_alarm} · Miss cost {q.costs.miss}
               </>
             ) : (
               <span className="muted">
-                Diary defaults (false alarm {settings.default_false_alarm_cost} · miss {settings.default_miss_cost})
+                Diary defaults (false-alarm cost {settings.default_false_alarm_cost} · miss cost {settings.default_miss_cost})
               </span>
             )}
           </dd>
@@ -270,7 +270,7 @@ function Figure({ label, value, detail, tone }: { label: string; value: string; 
     <div className={`figure-tile ${tone ? `figure-tile--${tone}` : ''}`}>
       <span className="figure-tile__label">{label}</span>
       <span className="figure-tile__value">{value}</span>
-      <span className="figure-tile__detail" title={detail}>
+      <span className="figure-tile__detail">
         {detail}
       </span>
     </div>

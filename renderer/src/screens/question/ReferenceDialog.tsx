@@ -1,11 +1,12 @@
 /** A probability from a named outside source (a client's view, a consensus figure). */
 import { useId, useState, type FormEvent } from 'react';
+import { referenceRequest } from '../../../../shared/contract';
 import type { Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog } from '../../components/Dialog';
-import { ErrorBanner } from '../../components/ErrorBanner';
+import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { Form } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextField } from '../../components/TextField';
 import { localToIso } from '../../dates';
@@ -27,34 +28,38 @@ export function ReferenceDialog({ question, open, onClose, onSaved }: Props) {
   );
 }
 
+const LABELS = { p: 'Their probability', source: 'Source', at: 'As of' };
+const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
+
 function ReferenceForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
   const form = useForm();
+  const cancel = useCloseRequest(onClose);
   const listId = useId();
   const [p, setP] = useState('');
   const [source, setSource] = useState('');
   const [atLocal, setAtLocal] = useState('');
   const knownSources = [...new Set(question.references.map((r) => r.source))];
+  const dirty = p !== '' || source !== '' || atLocal !== '';
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
+    const found: Record<string, string> = {};
     const parsed = percentToProbability(p);
     const at = atLocal ? localToIso(atLocal, question.time_zone) : null;
-    if (!parsed.ok) return void form.reject({ p: parsed.error });
-    if (parsed.value === null) return void form.reject({ p: 'enter the source’s probability in percent, e.g. 60' });
-    if (atLocal && !at) return void form.reject({ at: 'enter a complete date and time, or leave it empty for now' });
-    const value = parsed.value;
-    const ok = await form.submit(
-      async () => {
-        await api.addReference({ question_id: question.id, p: value, source, ...(at ? { at } : {}) });
-      },
-      { fields: ['p', 'source', 'at'] },
-    );
+    if (!parsed.ok) found.p = parsed.error;
+    else if (parsed.value === null) found.p = 'enter the source’s probability in percent, e.g. 60';
+    if (source.trim() === '') found.source = 'name the source, e.g. client’s view';
+    if (atLocal && !at) found.at = 'enter a complete date and time, or leave it empty for now';
+    const request = { question_id: question.id, p: parsed.ok && parsed.value !== null ? parsed.value : Number.NaN, source, ...(at ? { at } : {}) };
+    if (!form.check(found, { schema: referenceRequest, request, placement: PLACEMENT })) return;
+    const ok = await form.submit(async () => {
+      await api.addReference(request);
+    }, PLACEMENT);
     if (ok) onSaved(`Added ${source.trim()}’s ${p.trim()}%.`);
   }
 
   return (
-    <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="Add a reference forecast">
-      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+    <Form form={form} label="Add a reference forecast" onSubmit={onSubmit} dirty={dirty}>
       <ProbabilityInput label="Their probability" value={p} onChange={setP} required autoFocus error={form.error('p')} />
       <TextField
         label="Source"
@@ -74,11 +79,11 @@ function ReferenceForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
       ) : null}
       <DateTimeField label="As of" local={atLocal} onLocalChange={setAtLocal} timeZone={question.time_zone} hint="Leave empty for now." error={form.error('at')} />
       <div className="form__actions">
-        <Button onClick={onClose}>Cancel</Button>
+        <Button onClick={cancel}>Cancel</Button>
         <Button type="submit" variant="primary" busy={form.busy}>
           Add reference
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }

@@ -3,13 +3,15 @@
  * and a note. Also used to correct a resolution already recorded.
  */
 import { useState, type FormEvent } from 'react';
+import { resolveRequest } from '../../../../shared/contract';
 import type { Outcome, Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { ChoiceGroup } from '../../components/ChoiceGroup';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog } from '../../components/Dialog';
-import { ErrorBanner } from '../../components/ErrorBanner';
+import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { Form } from '../../components/Form';
+import { OUTCOME_HINTS, OutcomeIcon } from '../../components/OutcomeMark';
 import { OUTCOME_LABELS } from '../../components/StatusPill';
 import { TextArea } from '../../components/TextArea';
 import { isoToLocal, localToIso } from '../../dates';
@@ -22,11 +24,15 @@ interface Props {
   onSaved: (message: string) => void;
 }
 
-const OUTCOME_CHOICES = [
-  { value: 'yes', label: 'Yes' },
-  { value: 'no', label: 'No' },
-  { value: 'void', label: 'Void — cannot be resolved fairly' },
-];
+const OUTCOME_CHOICES = (['yes', 'no', 'void'] as const).map((outcome) => ({
+  value: outcome,
+  label: outcome === 'void' ? 'Void — cannot be resolved fairly' : OUTCOME_LABELS[outcome],
+  icon: <OutcomeIcon outcome={outcome} />,
+  tone: outcome,
+}));
+
+const LABELS = { outcome: 'Outcome', at: 'Resolved at', note: 'Note' };
+const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
 export function ResolveDialog({ question, open, onClose, onSaved }: Props) {
   const correcting = question.resolution !== null;
@@ -39,11 +45,13 @@ export function ResolveDialog({ question, open, onClose, onSaved }: Props) {
 
 function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
   const form = useForm();
+  const cancel = useCloseRequest(onClose);
   const current = question.resolution;
   const [outcome, setOutcome] = useState<Outcome | ''>(current?.outcome ?? '');
   const [initialLocal] = useState(() => isoToLocal(current?.at ?? new Date().toISOString(), question.time_zone));
   const [atLocal, setAtLocal] = useState(initialLocal);
   const [note, setNote] = useState(current?.note ?? '');
+  const dirty = outcome !== (current?.outcome ?? '') || atLocal !== initialLocal || note !== (current?.note ?? '');
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
@@ -55,29 +63,27 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
     const found: Record<string, string> = {};
     if (outcome === '') found.outcome = 'choose Yes, No or Void';
     if (!untouched && !at) found.at = 'enter when it resolved';
-    if (outcome === '' || (!untouched && !at)) return void form.reject(found);
+    const request = { id: question.id, outcome, note, ...(at ? { at } : {}) };
+    if (!form.check(found, { schema: resolveRequest, request, placement: PLACEMENT }) || outcome === '') return;
     const chosen = outcome;
-    const ok = await form.submit(
-      async () => {
-        await api.resolveQuestion({ id: question.id, outcome: chosen, note, ...(at ? { at } : {}) });
-      },
-      { fields: ['outcome', 'at', 'note'] },
-    );
+    const ok = await form.submit(async () => {
+      await api.resolveQuestion({ ...request, outcome: chosen });
+    }, PLACEMENT);
     if (ok) onSaved(current ? `Resolution corrected to ${OUTCOME_LABELS[chosen]}.` : `Resolved ${OUTCOME_LABELS[chosen]}.`);
   }
 
   return (
-    <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="Resolution">
-      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+    <Form form={form} label="Resolution" onSubmit={onSubmit} dirty={dirty}>
       <ChoiceGroup legend="Outcome" value={outcome} choices={OUTCOME_CHOICES} onChange={(v) => setOutcome(v as Outcome)} error={form.error('outcome')} />
+      {outcome !== '' ? <p className="field__hint">{OUTCOME_HINTS[outcome]}.</p> : null}
       <DateTimeField label="Resolved at" local={atLocal} onLocalChange={setAtLocal} timeZone={question.time_zone} required error={form.error('at')} />
       <TextArea label="Note" value={note} onChange={setNote} hint="What happened, and where you can check it." error={form.error('note')} />
       <div className="form__actions">
-        <Button onClick={onClose}>Cancel</Button>
+        <Button onClick={cancel}>Cancel</Button>
         <Button type="submit" variant="primary" busy={form.busy}>
           {current ? 'Save correction' : 'Resolve'}
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }

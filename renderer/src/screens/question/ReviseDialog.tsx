@@ -4,12 +4,13 @@
  * number has meant in the user's resolved record.
  */
 import { useState, type FormEvent } from 'react';
+import { forecastRequest } from '../../../../shared/contract';
 import type { Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog } from '../../components/Dialog';
-import { ErrorBanner } from '../../components/ErrorBanner';
+import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { Form } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextArea } from '../../components/TextArea';
 import { localToIso } from '../../dates';
@@ -35,43 +36,47 @@ export function ReviseDialog({ question, open, onClose, onSaved }: Props) {
   );
 }
 
+const LABELS = { p: 'Your probability', note: 'What changed', at: 'As of', lenses: 'Lenses' };
+const PLACEMENT = { fields: ['p', 'note', 'at'], labels: LABELS };
+
 function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
   const form = useForm();
-  const [p, setP] = useState(percentText(lastForecast(question)?.p));
+  const cancel = useCloseRequest(onClose);
+  const [initialP] = useState(() => percentText(lastForecast(question)?.p));
+  const [p, setP] = useState(initialP);
   const [note, setNote] = useState('');
   const [atLocal, setAtLocal] = useState('');
   const [lenses, setLenses] = useState<LensDraft[]>([]);
   const [extremize, setExtremize] = useState('1');
   const stated = percentToProbability(p);
+  const dirty = p !== initialP || note !== '' || atLocal !== '' || lenses.length > 0 || extremize !== '1';
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
+    const found: Record<string, string> = {};
     const parsed = percentToProbability(p);
     const at = atLocal ? localToIso(atLocal, question.time_zone) : null;
-    if (!parsed.ok) return void form.reject({ p: parsed.error });
-    if (parsed.value === null) return void form.reject({ p: 'enter your probability in percent, e.g. 35' });
-    if (atLocal && !at) return void form.reject({ at: 'enter a complete date and time, or leave it empty for now' });
+    if (!parsed.ok) found.p = parsed.error;
+    else if (parsed.value === null) found.p = 'enter your probability in percent, e.g. 35';
+    if (atLocal && !at) found.at = 'enter a complete date and time, or leave it empty for now';
     const checked = checkLenses(lenses);
-    if (Object.keys(checked.errors).length) return void form.reject(checked.errors);
-    const value = parsed.value;
-    const ok = await form.submit(
-      async () => {
-        await api.addForecast({
-          question_id: question.id,
-          p: value,
-          note,
-          ...(at ? { at } : {}),
-          ...(checked.lenses.length ? { lenses: checked.lenses } : {}),
-        });
-      },
-      { fields: ['p', 'note', 'at'] },
-    );
+    Object.assign(found, checked.errors);
+    const request = {
+      question_id: question.id,
+      p: parsed.ok && parsed.value !== null ? parsed.value : Number.NaN,
+      note,
+      ...(at ? { at } : {}),
+      ...(checked.lenses.length ? { lenses: checked.lenses } : {}),
+    };
+    if (!form.check(found, { schema: forecastRequest, request, placement: PLACEMENT })) return;
+    const ok = await form.submit(async () => {
+      await api.addForecast(request);
+    }, PLACEMENT);
     if (ok) onSaved(`Revised to ${p.trim()}%.`);
   }
 
   return (
-    <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="Revise your forecast">
-      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+    <Form form={form} label="Revise your forecast" onSubmit={onSubmit} dirty={dirty}>
       <ProbabilityInput label="Your probability" value={p} onChange={setP} required autoFocus error={form.error('p')} />
       <RecalibrationHint p={stated.ok ? stated.value : null} />
       <LensesEditor
@@ -92,11 +97,11 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
         error={form.error('at')}
       />
       <div className="form__actions">
-        <Button onClick={onClose}>Cancel</Button>
+        <Button onClick={cancel}>Cancel</Button>
         <Button type="submit" variant="primary" busy={form.busy}>
           Save revision
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }

@@ -3,13 +3,14 @@
  * The rest (costs, check-in cadence, opening time) can be filled in later from Edit.
  */
 import { useEffect, useState, type FormEvent } from 'react';
+import { createQuestionRequest } from '../../../../shared/contract';
 import type { QuestionKind } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
 import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog } from '../../components/Dialog';
-import { ErrorBanner } from '../../components/ErrorBanner';
+import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { Form } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { Select } from '../../components/Select';
 import { TagInput } from '../../components/TagInput';
@@ -24,7 +25,20 @@ import { hrefTo, questionPath } from '../../routing';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from '../question/labels';
 
-const FIELDS = ['title', 'rule', 'kind', 'closes_at', 'time_zone', 'base_rate', 'base_rate_note', 'first_forecast.p', 'first_forecast.note', 'tags'];
+const LABELS = {
+  title: 'Question',
+  rule: 'Resolution rule',
+  kind: 'Kind',
+  closes_at: 'Closes',
+  opened_at: 'Opened',
+  time_zone: 'Time zone',
+  base_rate: 'Base rate',
+  base_rate_note: 'Reference class',
+  'first_forecast.p': 'Your probability',
+  'first_forecast.note': 'Reasoning',
+  tags: 'Tags',
+};
+const PLACEMENT = { fields: Object.keys(LABELS).filter((f) => f !== 'opened_at'), labels: LABELS, aliases: { opened_at: 'closes_at' } };
 
 export function QuickAddDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
   return (
@@ -44,6 +58,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   const defaultZone = useDefaultTimeZone();
   const toast = useToast();
   const form = useForm();
+  const cancel = useCloseRequest(onDone);
   const [title, setTitle] = useState('');
   const [rule, setRule] = useState('');
   const [kind, setKind] = useState<QuestionKind>('event_by_deadline');
@@ -63,43 +78,48 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
     );
   }, []);
 
+  const dirty =
+    title !== '' || rule !== '' || kind !== 'event_by_deadline' || closesLocal !== '' || timeZone !== defaultZone ||
+    baseRate !== '' || baseRateNote !== '' || firstP !== '' || firstNote !== '' || tags.length > 0;
+
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
+    // Stated explicitly so a close in the past is refused beside the close field.
+    const openedAt = new Date().toISOString();
+    if (title.trim() === '') found.title = 'write the question you are forecasting, e.g. “Northgate signs phase 2 by 31 March”';
     const closesAt = localToIso(closesLocal, timeZone);
     if (!closesAt) found.closes_at = 'choose the date and time the window closes';
+    else if (Date.parse(closesAt) <= Date.parse(openedAt)) found.closes_at = 'must be after the opening time: the question opens now, so the close must be in the future';
     const base = percentToProbability(baseRate);
     if (!base.ok) found.base_rate = base.error;
     const first = percentToProbability(firstP);
     if (!first.ok) found['first_forecast.p'] = first.error;
-    if (!closesAt || !base.ok || !first.ok) return void form.reject(found);
+    else if (first.value === null && firstNote.trim() !== '') found['first_forecast.p'] = 'give the probability your reasoning is for, or clear the reasoning';
+    const request = {
+      title,
+      rule,
+      kind,
+      tags,
+      opened_at: openedAt,
+      closes_at: closesAt ?? '',
+      time_zone: timeZone,
+      base_rate: base.ok ? base.value : null,
+      base_rate_note: baseRateNote,
+      ...(first.ok && first.value !== null ? { first_forecast: { p: first.value, note: firstNote } } : {}),
+    };
+    if (!form.check(found, { schema: createQuestionRequest, request, placement: PLACEMENT })) return;
 
-    const ok = await form.submit(
-      async () => {
-        const created = await api.createQuestion({
-          title,
-          rule,
-          kind,
-          tags,
-          // Stated explicitly so a close in the past is refused beside the close field.
-          opened_at: new Date().toISOString(),
-          closes_at: closesAt,
-          time_zone: timeZone,
-          base_rate: base.value,
-          base_rate_note: baseRateNote,
-          ...(first.value !== null ? { first_forecast: { p: first.value, note: firstNote } } : {}),
-        });
-        diaryChanged();
-        toast.show({ message: `Added “${created.title}”.`, action: { label: 'Open the question', href: hrefTo(questionPath(created.id)) } });
-      },
-      { fields: FIELDS, aliases: { opened_at: 'closes_at' } },
-    );
+    const ok = await form.submit(async () => {
+      const created = await api.createQuestion(request);
+      diaryChanged();
+      toast.show({ message: `Added “${created.title}”.`, action: { label: 'Open the question', href: hrefTo(questionPath(created.id)) } });
+    }, PLACEMENT);
     if (ok) onDone();
   }
 
   return (
-    <form ref={form.formRef} className="form" noValidate onSubmit={onSubmit} aria-label="New question">
-      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+    <Form form={form} label="New question" onSubmit={onSubmit} dirty={dirty}>
       <TextField
         label="Question"
         value={title}
@@ -171,11 +191,11 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
         <TagInput label="Tags" tags={tags} onChange={setTags} suggestions={knownTags} error={form.error('tags')} />
       </div>
       <div className="form__actions">
-        <Button onClick={onDone}>Cancel</Button>
+        <Button onClick={cancel}>Cancel</Button>
         <Button type="submit" variant="primary" busy={form.busy}>
           Save question
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }

@@ -6,8 +6,9 @@
 import { memo, useRef } from 'react';
 import type { Chart, ChartConfiguration, Plugin } from 'chart.js';
 import type { ReportBin } from '../../../../shared/scoring/types';
+import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, percentAxis, useChart, type Palette } from './chartKit';
+import { BASE_OPTIONS, cssColor, percentAxis, useChart, withAlpha, type Palette } from './chartKit';
 import { binLabel, pct, pctInterval, questions } from './format';
 
 /** The bins the interval bars are drawn for; the plugin reads whatever the chart shows now. */
@@ -51,6 +52,24 @@ function radii(bins: readonly ReportBin[]): number[] {
   return bins.map((b) => 4 + 8 * Math.sqrt(b.n / most));
 }
 
+/**
+ * The bins in drawing order: biggest first, so a small bin lying on a big one is drawn on top
+ * of it and stays visible (the dots are also see-through with a ring, so both show).
+ */
+function drawingOrder(bins: readonly ReportBin[]): ReportBin[] {
+  return [...bins].sort((a, b) => b.n - a.n || a.index - b.index);
+}
+
+/** The dots are see-through with a solid ring, so overlapping dots and their bars all show. */
+const DOT_OPACITY = 0.55;
+
+const LEGEND: LegendItem[] = [
+  { label: 'Perfect calibration', color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 },
+  { label: 'Your forecasts, by bin (bar: 95% interval)', color: '--chart-own', dash: null, marker: 'circle', markerOpacity: DOT_OPACITY },
+];
+
+
+
 function describe(bins: readonly ReportBin[]): string {
   if (bins.length === 0) return 'Calibration diagram: no scored questions.';
   const parts = bins.map((b) => `${binLabel(b.index)} bin: came true ${pct(b.observed)} of ${questions(b.n)}`);
@@ -68,24 +87,20 @@ export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins:
       data: {
         datasets: [
           {
-            label: 'Perfect calibration',
+            ...lineStyle(LEGEND[0]!, cssColor),
             data: [
               { x: 0, y: 0 },
               { x: 1, y: 1 },
             ],
-            showLine: true,
-            borderColor: colors.baseRate,
-            borderDash: [6, 5],
-            borderWidth: 1.5,
             pointRadius: 0,
             pointHoverRadius: 0,
           },
           {
-            label: 'Your forecasts, by bin (bar: 95% interval)',
+            ...lineStyle(LEGEND[1]!, cssColor),
             data: [],
-            backgroundColor: colors.own,
-            borderColor: colors.surface,
-            borderWidth: 1.5,
+            backgroundColor: withAlpha(colors.own, DOT_OPACITY),
+            borderColor: colors.own,
+            borderWidth: 2,
             // Bins at 0% or 100% sit on the frame; draw the whole dot rather than half of it.
             clip: false,
           },
@@ -100,7 +115,7 @@ export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins:
           y: percentAxis(colors, 'Share that came true', 0.25),
         },
         plugins: {
-          legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },
+          legend: { display: false },
           tooltip: {
             filter: (item) => item.datasetIndex === 1,
             callbacks: {
@@ -121,10 +136,11 @@ export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins:
       plugins: [wilsonBars(holder, () => colors.text)],
     }),
     (chart, data) => {
-      holder.bins = data;
+      const ordered = drawingOrder(data);
+      holder.bins = ordered;
       const dataset = chart.data.datasets[1]!;
-      dataset.data = data.map((b) => ({ x: b.mean_p, y: b.observed }));
-      const r = radii(data);
+      dataset.data = ordered.map((b) => ({ x: b.mean_p, y: b.observed }));
+      const r = radii(ordered);
       dataset.pointRadius = r;
       dataset.pointHoverRadius = r.map((v) => v + 2);
     },
@@ -137,6 +153,7 @@ export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins:
       canvasRef={canvasRef}
       points={bins}
       description={describe(bins)}
+      legend={LEGEND}
       caption={
         <>
           Calibration diagram: each dot is a 10-point probability bin; bars are 95% Wilson intervals; bigger dots hold more

@@ -5,6 +5,7 @@
  * would rather not read the picture.
  */
 import { useMemo, useState, type ReactNode, type RefObject } from 'react';
+import { ChartLegend, type LegendItem } from '../../chart/Legend';
 
 export interface ChartFigureProps {
   testId: string;
@@ -16,6 +17,10 @@ export interface ChartFigureProps {
   canvasRef: RefObject<HTMLCanvasElement | null>;
   /** The data table alternative. */
   table: ReactNode;
+  /** The legend under the canvas: each series' own line and marker (none for a single series). */
+  legend?: readonly LegendItem[];
+  /** A note under the canvas about how it is drawn (e.g. what is clipped at the edge). */
+  note?: ReactNode;
   tableLabel?: string;
   /** Show the table under the chart rather than folded away (when it carries readings too). */
   openTable?: boolean;
@@ -38,7 +43,7 @@ function FoldedTable({ label, children }: { label: string; children: ReactNode }
   );
 }
 
-export function ChartFigure({ testId, caption, points, description, canvasRef, table, tableLabel = 'Show the data as a table', size = 'md', openTable = false, className }: ChartFigureProps) {
+export function ChartFigure({ testId, caption, points, description, canvasRef, table, legend = [], note, tableLabel = 'Show the data as a table', size = 'md', openTable = false, className }: ChartFigureProps) {
   const json = useMemo(() => JSON.stringify(points), [points]);
   return (
     <figure className={['sc-figure', className ?? ''].filter(Boolean).join(' ')} data-testid={testId} data-points={json}>
@@ -46,6 +51,8 @@ export function ChartFigure({ testId, caption, points, description, canvasRef, t
       <div className={`sc-figure__canvas sc-figure__canvas--${size}`}>
         <canvas ref={canvasRef} role="img" aria-label={description} />
       </div>
+      <ChartLegend items={legend} />
+      {note ? <p className="sc-figure__note">{note}</p> : null}
       {openTable ? (
         <div className="sc-figure__table sc-figure__table--open">{table}</div>
       ) : (

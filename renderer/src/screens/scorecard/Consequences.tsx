@@ -67,7 +67,7 @@ export function Consequences({ report, settings, filter, problems, whatIf, onWha
             </div>
             <p className="sc-small" role="status" data-testid="whatif-status">
               {whatIf
-                ? `In use: false alarm ${cost(whatIf.false_alarm)}, miss ${cost(whatIf.miss)} for every question in this view.`
+                ? `In use: false-alarm cost ${cost(whatIf.false_alarm)}, miss cost ${cost(whatIf.miss)} for every question in this view.`
                 : 'Not in use: each question’s own costs apply, or the defaults above.'}
             </p>
           </fieldset>

@@ -3,29 +3,30 @@
  * costs of its own), edited here and saved to the diary's settings.
  */
 import { useEffect, useState, type FormEvent } from 'react';
+import { settingsPatch } from '../../../../shared/contract';
 import type { Settings } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
-import { RequestError, describeError, fieldReasons } from '../../api/errors';
 import { Button } from '../../components/Button';
-import { ErrorBanner } from '../../components/ErrorBanner';
+import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { useToast } from '../../components/Toast';
+import { useForm } from '../../forms';
+
+const LABELS = { default_false_alarm_cost: 'False-alarm cost', default_miss_cost: 'Miss cost' };
+const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
 function costProblem(text: string): string | undefined {
   const n = Number(text.trim());
   if (text.trim() === '' || !Number.isFinite(n)) return 'must be a number';
-  if (n <= 0) return 'must be a cost greater than 0';
   return undefined;
 }
 
 export function CostSettings({ settings }: { settings: Settings }) {
   const toast = useToast();
+  const form = useForm();
   const [falseAlarm, setFalseAlarm] = useState(String(settings.default_false_alarm_cost));
   const [miss, setMiss] = useState(String(settings.default_miss_cost));
-  const [errors, setErrors] = useState<{ falseAlarm?: string | undefined; miss?: string | undefined }>({});
-  const [problem, setProblem] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
 
   // Show what the diary holds after any save (here or elsewhere).
   useEffect(() => {
@@ -37,40 +38,35 @@ export function CostSettings({ settings }: { settings: Settings }) {
 
   async function save(event: FormEvent) {
     event.preventDefault();
-    const found = { falseAlarm: costProblem(falseAlarm), miss: costProblem(miss) };
-    setErrors(found);
-    setProblem(null);
-    if (found.falseAlarm || found.miss) return;
-    setBusy(true);
-    try {
-      await api.updateSettings({ default_false_alarm_cost: Number(falseAlarm), default_miss_cost: Number(miss) });
+    const found: Record<string, string> = {};
+    const fa = costProblem(falseAlarm);
+    const mi = costProblem(miss);
+    if (fa) found.default_false_alarm_cost = fa;
+    if (mi) found.default_miss_cost = mi;
+    const request = { default_false_alarm_cost: Number(falseAlarm), default_miss_cost: Number(miss) };
+    if (!form.check(found, { schema: settingsPatch, request, placement: PLACEMENT })) return;
+    const ok = await form.submit(async () => {
+      await api.updateSettings(request);
+    }, PLACEMENT);
+    if (ok) {
       diaryChanged();
       toast.show({ message: 'Saved the default costs. The scorecard now uses them for questions without their own.' });
-    } catch (error) {
-      if (error instanceof RequestError && error.fields.length > 0) {
-        const reasons = fieldReasons(error.fields);
-        setErrors({ falseAlarm: reasons.get('default_false_alarm_cost'), miss: reasons.get('default_miss_cost') });
-      }
-      setProblem(describeError(error));
-    } finally {
-      setBusy(false);
     }
   }
 
   return (
-    <form className="sc-costs" onSubmit={save} noValidate aria-labelledby="sc-default-costs">
+    <Form form={form} label="Default costs" className="sc-costs" onSubmit={save} dirty={false}>
       <h3 id="sc-default-costs" className="sc-subhead">
         Default costs (saved to the diary)
       </h3>
       <p className="muted sc-small">Used for every question that has no costs of its own. Any unit works; only the ratio matters for the threshold.</p>
-      {problem ? <ErrorBanner message={problem} /> : null}
       <div className="sc-costs__row">
-        <NumberField label="False-alarm cost" value={falseAlarm} onChange={setFalseAlarm} min={0} step="any" error={errors.falseAlarm} />
-        <NumberField label="Miss cost" value={miss} onChange={setMiss} min={0} step="any" error={errors.miss} />
-        <Button type="submit" busy={busy} disabled={!changed} className="sc-costs__save">
+        <NumberField label="False-alarm cost" value={falseAlarm} onChange={setFalseAlarm} min={0} step="any" error={form.error('default_false_alarm_cost')} />
+        <NumberField label="Miss cost" value={miss} onChange={setMiss} min={0} step="any" error={form.error('default_miss_cost')} />
+        <Button type="submit" busy={form.busy} disabled={!changed} className="sc-costs__save">
           Save defaults
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }

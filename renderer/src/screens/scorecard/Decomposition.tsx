@@ -6,7 +6,7 @@
  */
 import { memo } from 'react';
 import type { Decomposition as Terms } from '../../../../shared/scoring/types';
-import { score3 } from './format';
+import { identityRows, score3 } from './format';
 
 interface TermRow {
   key: keyof Terms;
@@ -53,14 +53,24 @@ export const Decomposition = memo(function Decomposition({ terms, brier, scored 
           <tr>
             <th scope="row">Identity</th>
             <td colSpan={2} className="sc-identity" data-testid="decomposition-identity">
-              BS = REL − RES + UNC + WBV − WBC
+              <p className="sc-identity__formula">BS = REL − RES + UNC + WBV − WBC</p>
               {complete ? (
-                <>
-                  {' '}= {score3(rel)} − {score3(res)} + {score3(unc)} + {score3(wbv)} − ({score3(wbc)}) = <strong>{score3(sum)}</strong>
-                  {' '}(Brier score {score3(brier)})
-                </>
+                <span className="sc-identity__sum" role="list" aria-label="The identity with your numbers">
+                  {identityRows({ rel, res, unc, wbv, wbc }).map((row) => (
+                    <span key={row.symbol} role="listitem" className="sc-identity__row">
+                      <span className="sc-identity__op">{row.op}</span>
+                      <span className="sc-identity__value">{score3(row.value)}</span>
+                      <span className="sc-identity__symbol">{row.symbol}</span>
+                    </span>
+                  ))}
+                  <span role="listitem" className="sc-identity__row sc-identity__row--total">
+                    <span className="sc-identity__op">=</span>
+                    <strong className="sc-identity__value">{score3(sum)}</strong>
+                    <span className="sc-identity__symbol">BS (Brier score {score3(brier)})</span>
+                  </span>
+                </span>
               ) : (
-                ' — needs at least one scored question.'
+                <p>Needs at least one scored question.</p>
               )}
             </td>
           </tr>

@@ -6,11 +6,17 @@
 import { memo, useMemo, useRef } from 'react';
 import type { ChartConfiguration } from 'chart.js';
 import type { RocPoint } from '../../../../shared/scoring/types';
+import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, percentAxis, thin, useChart, type Palette } from './chartKit';
+import { BASE_OPTIONS, cssColor, percentAxis, thin, useChart, type Palette } from './chartKit';
 import { pct, score2 } from './format';
 
 const MAX_POINTS = 200;
+
+const LEGEND: LegendItem[] = [
+  { label: 'Your final forecasts', color: '--chart-own', dash: [], marker: 'circle', lineWidth: 2.5 },
+  { label: 'No discrimination (AUC 0.5)', color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 },
+];
 
 export interface RocChartProps {
   roc: RocPoint[];
@@ -30,12 +36,8 @@ export const RocChart = memo(function RocChart({ roc, auc, yes, no }: RocChartPr
       data: {
         datasets: [
           {
-            label: 'Your final forecasts',
+            ...lineStyle(LEGEND[0]!, cssColor),
             data: [],
-            showLine: true,
-            borderColor: colors.own,
-            backgroundColor: colors.own,
-            borderWidth: 2.5,
             pointRadius: 2.5,
             pointHoverRadius: 5,
             clip: false,
@@ -43,15 +45,11 @@ export const RocChart = memo(function RocChart({ roc, auc, yes, no }: RocChartPr
             parsing: false,
           },
           {
-            label: 'No discrimination (AUC 0.5)',
+            ...lineStyle(LEGEND[1]!, cssColor),
             data: [
               { x: 0, y: 0 },
               { x: 1, y: 1 },
             ],
-            showLine: true,
-            borderColor: colors.baseRate,
-            borderDash: [6, 5],
-            borderWidth: 1.5,
             pointRadius: 0,
             pointHoverRadius: 0,
           },
@@ -66,7 +64,7 @@ export const RocChart = memo(function RocChart({ roc, auc, yes, no }: RocChartPr
           y: percentAxis(colors, 'Hit rate', 0.25),
         },
         plugins: {
-          legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },
+          legend: { display: false },
           tooltip: {
             filter: (item) => item.datasetIndex === 0,
             callbacks: {
@@ -88,6 +86,7 @@ export const RocChart = memo(function RocChart({ roc, auc, yes, no }: RocChartPr
       testId="roc-chart"
       canvasRef={canvasRef}
       points={points}
+      legend={LEGEND}
       description={`ROC curve of your final forecasts: AUC ${score2(auc)} (${counts}). The table below lists the points.`}
       caption={`ROC curve: AUC ${score2(auc)} over ${counts}. 1 means every Yes question got a higher forecast than every No question; 0.5 is the diagonal.`}
       table={

@@ -6,25 +6,28 @@
 import { memo, useMemo, useRef } from 'react';
 import type { ChartConfiguration } from 'chart.js';
 import type { RunningBrierPoint } from '../../../../shared/scoring/types';
+import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
 import { timeTicks } from '../../chart/series';
+import { formatDay, formatTick } from '../../dates';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, axisStyle, thin, useChart, type Palette } from './chartKit';
+import { BASE_OPTIONS, axisStyle, cssColor, thin, useChart, type Palette } from './chartKit';
 import { score3 } from './format';
 
 /** More points than this cannot be told apart on a chart this wide. */
 const MAX_POINTS = 200;
 const DAY_MS = 86_400_000;
 
+const LEGEND: LegendItem[] = [
+  { label: 'Your running Brier score', color: '--chart-own', dash: [], marker: 'circle', lineWidth: 2.5 },
+  { label: 'Always 50% (0.25)', color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 },
+];
+
 /** What the axis and tooltip callbacks (set once, at creation) read for the data drawn now. */
 interface Holder {
   points: readonly RunningBrierPoint[];
   ticks: number[];
-  format: Intl.DateTimeFormat;
-  full: Intl.DateTimeFormat;
-}
-
-function dayFormat(timeZone: string, withYear: boolean): Intl.DateTimeFormat {
-  return new Intl.DateTimeFormat(undefined, { timeZone, day: 'numeric', month: 'short', ...(withYear ? { year: 'numeric' } : {}) });
+  timeZone: string;
+  span: number;
 }
 
 function describe(points: readonly RunningBrierPoint[]): string {
@@ -37,8 +40,7 @@ function describe(points: readonly RunningBrierPoint[]): string {
 export const RunningBrierChart = memo(function RunningBrierChart({ running, timeZone }: { running: RunningBrierPoint[]; timeZone: string }) {
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const points = useMemo(() => thin(running, MAX_POINTS), [running]);
-  const full = useMemo(() => dayFormat(timeZone, true), [timeZone]);
-  const holder = useRef<Holder>({ points, ticks: [], format: full, full }).current;
+  const holder = useRef<Holder>({ points, ticks: [], timeZone, span: 0 }).current;
   const data = useMemo(() => ({ points, timeZone }), [points, timeZone]);
 
   useChart<'line', typeof data>(
@@ -48,11 +50,8 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
       data: {
         datasets: [
           {
-            label: 'Your running Brier score',
+            ...lineStyle(LEGEND[0]!, cssColor),
             data: [],
-            borderColor: colors.own,
-            backgroundColor: colors.own,
-            borderWidth: 2.5,
             pointRadius: 2.5,
             pointHoverRadius: 5,
             // Already {x, y} and sorted by window end: skip Chart.js's parsing.
@@ -60,11 +59,8 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
             normalized: true,
           },
           {
-            label: 'Always 50% (0.25)',
+            ...lineStyle(LEGEND[1]!, cssColor),
             data: [],
-            borderColor: colors.baseRate,
-            borderDash: [6, 5],
-            borderWidth: 1.5,
             pointRadius: 0,
             pointHoverRadius: 0,
           },
@@ -81,7 +77,7 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
             afterBuildTicks: (axis) => {
               axis.ticks = holder.ticks.map((value) => ({ value }));
             },
-            ticks: { color: colors.text, maxRotation: 0, autoSkip: true, callback: (v) => holder.format.format(Number(v)) },
+            ticks: { color: colors.text, maxRotation: 0, autoSkip: true, callback: (v) => formatTick(Number(v), holder.timeZone, 'day', holder.span) },
           },
           y: {
             type: 'linear',
@@ -92,11 +88,11 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
           },
         },
         plugins: {
-          legend: { position: 'bottom', labels: { color: colors.text, usePointStyle: true, boxHeight: 8 } },
+          legend: { display: false },
           tooltip: {
             filter: (item) => item.datasetIndex === 0,
             callbacks: {
-              title: (items) => holder.full.format(items[0]?.parsed.x ?? 0),
+              title: (items) => formatDay(items[0]?.parsed.x ?? 0, holder.timeZone),
               label: (item) => {
                 const point = holder.points[item.dataIndex];
                 return point ? `Brier ${score3(point.brier)} over ${point.n} question${point.n === 1 ? '' : 's'}` : '';
@@ -115,8 +111,8 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
       const ticks = timeTicks(min, max, zone, 6);
       holder.points = shown;
       holder.ticks = ticks.values;
-      holder.format = dayFormat(zone, max - min > 300 * DAY_MS);
-      holder.full = dayFormat(zone, true);
+      holder.timeZone = zone;
+      holder.span = max - min;
       const x = chart.options.scales?.x;
       if (x) {
         x.min = min;
@@ -137,6 +133,7 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
       canvasRef={canvasRef}
       points={points}
       description={describe(points)}
+      legend={LEGEND}
       caption={
         running.length > points.length
           ? `Running Brier score by window end (${points.length} of ${running.length} points drawn, evenly spread).`
@@ -156,7 +153,7 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
             {points.map((p) => (
               <tr key={p.T}>
                 <td>
-                  <time dateTime={new Date(p.T).toISOString()}>{full.format(p.T)}</time>
+                  <time dateTime={new Date(p.T).toISOString()}>{formatDay(p.T, timeZone)}</time>
                 </td>
                 <td className="num">{p.n}</td>
                 <td className="num">{score3(p.brier)}</td>

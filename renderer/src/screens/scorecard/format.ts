@@ -65,3 +65,33 @@ export function days(x: number): string {
 export function tick(value: number | string): string {
   return signed(String(Number(Number(value).toFixed(2))));
 }
+
+export interface IdentityRow {
+  /** '' for the first term, else '+' or '−' (U+2212), after folding in the term's own sign. */
+  op: '' | '+' | '\u2212';
+  symbol: string;
+  /** The term's size; its sign is in `op`. */
+  value: number;
+}
+
+/**
+ * BS = REL − RES + UNC + WBV − WBC, written so every number is read once and every sign once:
+ * a term that is itself negative turns its operator round ("− WBC" with WBC = −0.001 is
+ * "+ 0.001"), never "− (−0.001)".
+ */
+export function identityRows(t: { rel: number; res: number; unc: number; wbv: number; wbc: number }): IdentityRow[] {
+  const terms: [1 | -1, string, number][] = [
+    [1, 'REL', t.rel],
+    [-1, 'RES', t.res],
+    [1, 'UNC', t.unc],
+    [1, 'WBV', t.wbv],
+    [-1, 'WBC', t.wbc],
+  ];
+  return terms.map(([sign, symbol, value], i) => {
+    const signed = sign * value;
+    // A zero keeps the formula's own operator ("− 0.000 RES", not "+ 0.000 RES").
+    const op = i === 0 ? '' : signed < 0 || (signed === 0 && sign < 0) ? '\u2212' : '+';
+    // The first term keeps its own sign in the number (it has no operator to carry it).
+    return { op, symbol, value: i === 0 ? value : Math.abs(value) };
+  });
+}

@@ -3,13 +3,14 @@
  * questions' closes as an iCalendar file) and a diary file in (JSON or CSV, all or nothing).
  * The same in the desktop app and in browser mode: the files go through the API as text.
  */
-import { useId, useRef, useState, type ChangeEvent } from 'react';
+import { useState } from 'react';
 import type { EXPORT_FORMATS } from '../../../../shared/contract';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
 import { Button } from '../../components/Button';
 import { ErrorBanner } from '../../components/ErrorBanner';
+import { FilePicker } from '../../components/FilePicker';
 import { useToast } from '../../components/Toast';
 
 type ExportFormat = (typeof EXPORT_FORMATS)[number];
@@ -37,8 +38,6 @@ function saveAs(text: string, fileName: string, mediaType: string): void {
 
 export function DataSection() {
   const toast = useToast();
-  const inputId = useId();
-  const input = useRef<HTMLInputElement>(null);
   const [busy, setBusy] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
 
@@ -56,10 +55,7 @@ export function DataSection() {
     }
   }
 
-  async function importFile(event: ChangeEvent<HTMLInputElement>) {
-    const file = event.target.files?.[0];
-    event.target.value = '';
-    if (!file) return;
+  async function importFile(file: File) {
     setBusy('import');
     setProblem(null);
     try {
@@ -90,17 +86,13 @@ export function DataSection() {
           </li>
         ))}
       </ul>
-      <p>
-        <label htmlFor={inputId} className="settings__import-label">
-          Import a diary file (JSON or CSV)
-        </label>{' '}
-        <input
-          id={inputId}
-          ref={input}
-          type="file"
+      <p className="settings__import">
+        <FilePicker
+          label="Import a diary file…"
           accept=".json,.csv,application/json,text/csv"
-          onChange={(event) => void importFile(event)}
+          onFile={(file) => void importFile(file)}
           disabled={busy !== null}
+          note={busy === 'import' ? 'Importing…' : 'JSON (Forelog’s diary file) or CSV'}
         />
       </p>
       <p className="muted">

@@ -4,6 +4,7 @@
  * action threshold they imply, where the diary file lives, and the diary's files in and out.
  */
 import { useId, useMemo, useState, type FormEvent } from 'react';
+import { settingsPatch } from '../../../../shared/contract';
 import type { Settings } from '../../../../shared/domain';
 import { costLossThreshold } from '../../../../shared/scoring/decisions';
 import { api } from '../../api/client';
@@ -11,15 +12,18 @@ import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
 import { useLoad } from '../../api/useLoad';
 import { Button } from '../../components/Button';
+import { DiscardDialog } from '../../components/DiscardDialog';
 import { ErrorBanner } from '../../components/ErrorBanner';
+import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { Select } from '../../components/Select';
 import { TextField } from '../../components/TextField';
 import { useToast } from '../../components/Toast';
-import { timeZoneNames } from '../../dates';
+import { timeZoneNames, zoneName } from '../../dates';
 import { useDiaryInfo } from '../../diaryInfo';
 import { useDocumentTitle } from '../../hooks';
 import { useForm } from '../../forms';
+import { useLeaveGuard } from '../../leaveGuard';
 import { formatPercent } from '../../percent';
 import { DataSection } from './DataSection';
 import { draftFrom, numberIn, patchFrom, sameDraft, type SettingsDraft } from './draft';
@@ -49,18 +53,18 @@ function SettingsForm({ initial }: { initial: Settings }) {
   const [draft, setDraft] = useState(saved);
   const dirty = !sameDraft(draft, saved);
   const set = <K extends keyof SettingsDraft>(key: K) => (value: SettingsDraft[K]) => setDraft((d) => ({ ...d, [key]: value }));
+  // Leaving with unsaved changes asks first; `leave` is where the user was going.
+  const [leave, setLeave] = useState<(() => void) | null>(null);
+  useLeaveGuard(dirty, (proceed) => setLeave(() => proceed));
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const built = patchFrom(draft);
-    if (!built.ok) return void form.reject(built.errors);
+    if (!form.check(built.errors, { schema: settingsPatch, request: built.patch, placement: PLACEMENT })) return;
     let answer: Settings | undefined;
-    const ok = await form.submit(
-      async () => {
-        answer = await api.updateSettings(built.patch);
-      },
-      { fields: SETTINGS_FIELDS },
-    );
+    const ok = await form.submit(async () => {
+      answer = await api.updateSettings(built.patch);
+    }, PLACEMENT);
     if (ok && answer) {
       const next = draftFrom(answer);
       setSaved(next);
@@ -71,8 +75,7 @@ function SettingsForm({ initial }: { initial: Settings }) {
   }
 
   return (
-    <form ref={form.formRef} className="settings__form" noValidate onSubmit={onSubmit} aria-label="Settings">
-      {form.banner ? <ErrorBanner message={form.banner.message} details={form.banner.details} /> : null}
+    <Form form={form} label="Settings" className="settings__form" onSubmit={onSubmit} dirty={dirty}>
       <NudgeSection draft={draft} set={set} error={form.error} />
       <TimeZoneSection value={draft.timeZone} onChange={set('timeZone')} error={form.error('time_zone')} />
       <CostSection draft={draft} set={set} error={form.error} />
@@ -87,20 +90,31 @@ function SettingsForm({ initial }: { initial: Settings }) {
           Save settings
         </Button>
       </div>
-    </form>
+      <DiscardDialog
+        open={leave !== null}
+        what="Settings"
+        onKeep={() => setLeave(null)}
+        onDiscard={() => {
+          const go = leave;
+          setLeave(null);
+          go?.();
+        }}
+      />
+    </Form>
   );
 }
 
-const SETTINGS_FIELDS = [
-  'default_checkin_days',
-  'closing_soon_hours',
-  'overdue_after_days',
-  'quiet_hours.start',
-  'quiet_hours.end',
-  'time_zone',
-  'default_false_alarm_cost',
-  'default_miss_cost',
-] as const;
+const LABELS = {
+  default_checkin_days: 'Check in every',
+  closing_soon_hours: 'Closing-soon warning',
+  overdue_after_days: 'Overdue after',
+  'quiet_hours.start': 'Quiet from',
+  'quiet_hours.end': 'Quiet until',
+  time_zone: 'Diary time zone',
+  default_false_alarm_cost: 'False-alarm cost',
+  default_miss_cost: 'Miss cost',
+};
+const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
 type Setter = <K extends keyof SettingsDraft>(key: K) => (value: SettingsDraft[K]) => void;
 
@@ -191,7 +205,7 @@ function TimeOfDayField({ label, value, onChange, error }: { label: string; valu
 
 function TimeZoneSection({ value, onChange, error }: { value: string; onChange: (zone: string) => void; error: string | undefined }) {
   const listed = typeof Intl.supportedValuesOf === 'function';
-  const options = useMemo(() => (listed ? timeZoneNames(value).map((zone) => ({ value: zone, label: zone.replaceAll('_', ' ') })) : []), [listed, value]);
+  const options = useMemo(() => (listed ? timeZoneNames(value).map((zone) => ({ value: zone, label: zoneName(zone) })) : []), [listed, value]);
   const hint = 'Quiet hours, snooze mornings and overdue days follow this clock; new questions start in it.';
   return (
     <section className="card settings__section" aria-labelledby="settings-zone">
@@ -224,20 +238,20 @@ function CostSection({ draft, set, error }: SectionProps) {
       <div className="settings__costs">
         <NumberField
           id={falseAlarmId}
-          label="False alarm costs"
+          label="False-alarm cost"
           min={0}
           step="any"
           value={draft.falseAlarmCost}
           onChange={set('falseAlarmCost')}
           error={error('default_false_alarm_cost')}
         />
-        <NumberField id={missId} label="Miss costs" min={0} step="any" value={draft.missCost} onChange={set('missCost')} error={error('default_miss_cost')} />
+        <NumberField id={missId} label="Miss cost" min={0} step="any" value={draft.missCost} onChange={set('missCost')} error={error('default_miss_cost')} />
       </div>
       <output className="settings__threshold" htmlFor={`${falseAlarmId} ${missId}`} data-testid="action-threshold">
         {usable ? (
           <>
             Act when your probability is above <strong>{formatPercent(costLossThreshold(falseAlarm, miss))}</strong>
-            <span className="muted"> — the action threshold α = false alarm ÷ (false alarm + miss).</span>
+            <span className="muted"> — the action threshold α = false-alarm cost ÷ (false-alarm cost + miss cost).</span>
           </>
         ) : (
           'Enter two costs above 0 to see the probability above which acting pays.'

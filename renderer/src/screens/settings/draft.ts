@@ -1,7 +1,7 @@
 /**
  * The Settings form keeps what the user typed as text; on save it becomes a settings patch.
- * The form checks only what it alone can know (a box left empty, text that is not a
- * number); ranges and formats are the diary's to judge, and its reasons come back per field.
+ * This module checks only what the form alone can know (a box left empty, text that is not a
+ * number); ranges and formats are the diary's rules, which the form runs before sending.
  */
 import type { Request } from '../../../../shared/contract';
 import type { Settings } from '../../../../shared/domain';
@@ -46,37 +46,42 @@ export function numberIn(text: string): number | null {
   return Number.isFinite(n) ? n : null;
 }
 
-export type PatchResult = { ok: true; patch: Request<'updateSettings'> } | { ok: false; errors: Record<string, string> };
+export interface PatchResult {
+  /** What can be sent: every field the form could read (the others are left out). */
+  patch: Request<'updateSettings'>;
+  /** Field (request path) → what is wrong with it, for boxes the form could not read. */
+  errors: Record<string, string>;
+}
 
-/** Field names are the request's paths, so the diary's `field: reason` lines land on the same fields. */
+/**
+ * Field names are the request's paths, so the diary's `field: reason` lines land on the same
+ * fields. The form runs the diary's own rules (the contract schema) on `patch` before
+ * sending, so every problem is shown at once.
+ */
 export function patchFrom(draft: SettingsDraft): PatchResult {
   const errors: Record<string, string> = {};
-  const need = (field: string, text: string, what: string): number => {
+  const patch: Request<'updateSettings'> = {};
+  const need = (field: string, text: string, what: string): number | undefined => {
     const n = numberIn(text);
     if (n === null) errors[field] = text.trim() === '' ? `enter ${what}` : `must be a number (${what})`;
-    return n ?? 0;
+    return n ?? undefined;
   };
-  const default_checkin_days = need('default_checkin_days', draft.checkinDays, 'a number of days, or 0 for no check-ins');
-  const closing_soon_hours = need('closing_soon_hours', draft.closingSoonHours, 'a number of hours');
-  const overdue_after_days = need('overdue_after_days', draft.overdueAfterDays, 'a number of days');
-  const default_false_alarm_cost = need('default_false_alarm_cost', draft.falseAlarmCost, 'a cost greater than 0');
-  const default_miss_cost = need('default_miss_cost', draft.missCost, 'a cost greater than 0');
+  const put = <K extends keyof Request<'updateSettings'>>(key: K, value: Request<'updateSettings'>[K] | undefined) => {
+    if (value !== undefined) patch[key] = value;
+  };
+  put('default_checkin_days', need('default_checkin_days', draft.checkinDays, 'a number of days, or 0 for no check-ins'));
+  put('closing_soon_hours', need('closing_soon_hours', draft.closingSoonHours, 'a number of hours'));
+  put('overdue_after_days', need('overdue_after_days', draft.overdueAfterDays, 'a number of days'));
+  put('default_false_alarm_cost', need('default_false_alarm_cost', draft.falseAlarmCost, 'a cost greater than 0'));
+  put('default_miss_cost', need('default_miss_cost', draft.missCost, 'a cost greater than 0'));
   if (draft.quietOn) {
     if (draft.quietStart.trim() === '') errors['quiet_hours.start'] = 'enter when quiet hours start (HH:MM)';
     if (draft.quietEnd.trim() === '') errors['quiet_hours.end'] = 'enter when quiet hours end (HH:MM)';
+    patch.quiet_hours = { start: draft.quietStart.trim(), end: draft.quietEnd.trim() };
+  } else {
+    patch.quiet_hours = null;
   }
   if (draft.timeZone.trim() === '') errors.time_zone = 'enter a time zone name such as Europe/London';
-  if (Object.keys(errors).length > 0) return { ok: false, errors };
-  return {
-    ok: true,
-    patch: {
-      default_checkin_days,
-      closing_soon_hours,
-      overdue_after_days,
-      default_false_alarm_cost,
-      default_miss_cost,
-      time_zone: draft.timeZone.trim(),
-      quiet_hours: draft.quietOn ? { start: draft.quietStart.trim(), end: draft.quietEnd.trim() } : null,
-    },
-  };
+  else patch.time_zone = draft.timeZone.trim();
+  return { patch, errors };
 }

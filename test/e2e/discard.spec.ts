@@ -1,0 +1,196 @@
+/**
+ * Typed text is never thrown away without asking: a half-filled dialog closed by Escape,
+ * its × button, a click outside it or Cancel asks "Discard your changes?" (Keep editing /
+ * Discard), while an untouched one just closes; leaving Settings with unsaved changes — a
+ * link, Back, or closing the tab — asks too, and leaving after saving does not.
+ */
+import { expect, test, type Locator, type Page } from '@playwright/test';
+import type { Settings } from '../../shared/domain';
+import { apiCall, expectNoSeriousViolations } from './helpers';
+import { openApp, useDiaryServer } from './serve';
+
+const server = useDiaryServer();
+test.describe.configure({ mode: 'serial' });
+
+const prompt = (page: Page) => page.getByRole('alertdialog', { name: 'Discard your changes?' });
+
+async function openQuickAdd(page: Page): Promise<Locator> {
+  await page.getByRole('main').focus();
+  await page.keyboard.press('n');
+  const dialog = page.getByRole('dialog', { name: 'New question' });
+  await expect(dialog).toBeVisible();
+  return dialog;
+}
+
+test('a half-filled dialog asks before Escape, ×, a click outside or Cancel throw the text away', async ({ browser }) => {
+  const app = await openApp(browser, server(), {}, 'questions');
+  const { page } = app;
+  try {
+    // Untouched: Escape just closes.
+    let dialog = await openQuickAdd(page);
+    await page.keyboard.press('Escape');
+    await expect(dialog).toBeHidden();
+    await expect(prompt(page)).toHaveCount(0);
+
+    dialog = await openQuickAdd(page);
+    const title = dialog.getByRole('textbox', { name: 'Question', exact: true });
+    await title.fill('Ferry operator confirms the winter timetable');
+
+    const ways: [string, () => Promise<void>][] = [
+      ['Escape', () => page.keyboard.press('Escape')],
+      ['the × button', () => dialog.getByRole('button', { name: 'Close dialog' }).click()],
+      // Top left of the window: on the backdrop, outside the dialog.
+      ['a click outside', () => page.mouse.click(8, 8)],
+      ['Cancel', () => dialog.getByRole('button', { name: 'Cancel' }).click()],
+    ];
+    for (const [way, close] of ways) {
+      await close();
+      await expect(prompt(page), way).toBeVisible();
+      // Keep editing is the default: a reflexive Enter keeps the text.
+      await expect(prompt(page).getByRole('button', { name: 'Keep editing' }), way).toBeFocused();
+      if (way === 'Escape') {
+        await expectNoSeriousViolations(page, 'the discard prompt');
+        await page.screenshot({ path: 'test/e2e/artifacts/discard-prompt.png' });
+      }
+      await page.keyboard.press('Enter');
+      await expect(prompt(page), way).toBeHidden();
+      await expect(dialog, way).toBeVisible();
+      await expect(title, way).toHaveValue('Ferry operator confirms the winter timetable');
+    }
+
+    // A click inside the dialog is not a click outside.
+    await dialog.getByText('Write the call down now').click();
+    await expect(prompt(page)).toHaveCount(0);
+
+    await page.keyboard.press('Escape');
+    await prompt(page).getByRole('button', { name: 'Discard' }).click();
+    await expect(dialog).toBeHidden();
+    await expect(page.getByRole('main')).toBeFocused();
+    const list = await apiCall<{ questions: unknown[] }>(server().url, 'listQuestions', {});
+    expect(list.questions).toHaveLength(0);
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+test('Edit asks only when something was changed', async ({ browser }) => {
+  const app = await openApp(browser, server(), {}, 'questions');
+  const { page } = app;
+  try {
+    const created = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+      title: 'Depot lease renewed',
+      closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    });
+    await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(created.id)}`);
+    await page.getByRole('button', { name: 'Edit' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Edit question' });
+    await page.keyboard.press('Escape');
+    await expect(dialog).toBeHidden();
+
+    await page.getByRole('button', { name: 'Edit' }).click();
+    await dialog.getByRole('spinbutton', { name: 'Check in every' }).fill('3');
+    await page.keyboard.press('Escape');
+    await expect(prompt(page)).toBeVisible();
+    await prompt(page).getByRole('button', { name: 'Discard' }).click();
+    await expect(dialog).toBeHidden();
+    await expect(page.getByRole('button', { name: 'Edit' })).toBeFocused();
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+test('what is typed in a Desk revise panel survives closing the panel', async ({ browser }) => {
+  const app = await openApp(browser, server(), {}, 'desk');
+  const { page } = app;
+  try {
+    const now = Date.now();
+    // A forecast 9 days old on a question with the default 7-day check-in: a check-in is due.
+    await apiCall(server().url, 'createQuestion', {
+      title: 'Canal bridge reopens before the festival',
+      opened_at: new Date(now - 10 * 86_400_000).toISOString(),
+      closes_at: new Date(now + 30 * 86_400_000).toISOString(),
+      first_forecast: { p: 0.4, at: new Date(now - 9 * 86_400_000).toISOString() },
+    });
+    await page.reload();
+    const item = page.getByTestId('desk-item').filter({ hasText: 'Canal bridge reopens' });
+    await item.getByRole('button', { name: 'Revise' }).click();
+    await item.getByRole('spinbutton', { name: 'New probability', exact: true }).fill('55');
+    await item.getByRole('textbox', { name: 'What changed' }).fill('Contractor says the deck is poured');
+    await page.keyboard.press('Escape');
+    await expect(item.getByRole('textbox', { name: 'What changed' })).toHaveCount(0);
+    await item.getByRole('button', { name: 'Revise' }).click();
+    await expect(item.getByRole('spinbutton', { name: 'New probability', exact: true })).toHaveValue('55');
+    await expect(item.getByRole('textbox', { name: 'What changed' })).toHaveValue('Contractor says the deck is poured');
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+async function settingsNow(): Promise<Settings> {
+  return apiCall<Settings>(server().url, 'getSettings');
+}
+
+for (const scheme of ['light', 'dark'] as const) {
+  test(`leaving Settings with unsaved changes asks first (${scheme})`, async ({ browser }) => {
+    const app = await openApp(browser, server(), { colorScheme: scheme }, 'desk');
+    const { page } = app;
+    const cadence = page.getByRole('spinbutton', { name: 'Check in every', exact: true });
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    try {
+      await nav.getByRole('link', { name: 'Settings' }).click();
+      await cadence.fill('11');
+
+      // A link: held, asked about; Keep editing stays with the text.
+      await nav.getByRole('link', { name: 'Scorecard' }).click();
+      await expect(prompt(page)).toBeVisible();
+      await expect(prompt(page)).toContainText('“Settings”');
+      await expectNoSeriousViolations(page, `Settings' discard prompt (${scheme})`);
+      await page.screenshot({ path: `test/e2e/artifacts/discard-settings-${scheme}.png` });
+      await prompt(page).getByRole('button', { name: 'Keep editing' }).click();
+      await expect(page).toHaveURL(/#\/settings$/);
+      await expect(page.getByRole('heading', { level: 1 })).toHaveText('Settings');
+      await expect(cadence).toHaveValue('11');
+
+      // Back: the address stays on Settings until the user answers.
+      await page.goBack();
+      await expect(prompt(page)).toBeVisible();
+      await expect(page).toHaveURL(/#\/settings$/);
+      await prompt(page).getByRole('button', { name: 'Keep editing' }).click();
+      await expect(cadence).toHaveValue('11');
+
+      // Closing the tab or reloading: the browser's own prompt; dismissing it keeps the page.
+      const asked = new Promise<string>((resolve) => {
+        page.once('dialog', (dialog) => {
+          resolve(dialog.type());
+          void dialog.dismiss();
+        });
+      });
+      await page.close({ runBeforeUnload: true });
+      expect(await asked).toBe('beforeunload');
+      await expect(cadence).toHaveValue('11');
+
+      // Discard follows the link, and nothing was saved.
+      await nav.getByRole('link', { name: 'Scorecard' }).click();
+      await prompt(page).getByRole('button', { name: 'Discard' }).click();
+      await expect(page.getByRole('heading', { level: 1 })).toHaveText('Scorecard');
+      expect((await settingsNow()).default_checkin_days).toBe(7);
+
+      // Saved changes leave without a word.
+      await nav.getByRole('link', { name: 'Settings' }).click();
+      await cadence.fill('10');
+      await page.getByRole('button', { name: 'Save settings' }).click();
+      await expect(page.getByTestId('toast').filter({ hasText: 'Settings saved.' })).toBeVisible();
+      await nav.getByRole('link', { name: 'Desk' }).click();
+      await expect(page.getByRole('heading', { level: 1 })).toHaveText('Desk');
+      await expect(prompt(page)).toHaveCount(0);
+      expect((await settingsNow()).default_checkin_days).toBe(10);
+      await apiCall(server().url, 'updateSettings', { default_checkin_days: 7 });
+      expect(app.problems).toEqual([]);
+    } finally {
+      await app.close();
+    }
+  });
+}

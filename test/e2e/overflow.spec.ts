@@ -1,0 +1,151 @@
+/**
+ * Nothing overflows: with the example diary plus questions whose title, rule, tag, notes and
+ * reference source are each one unbroken word as long as the diary allows (a 300-character
+ * title, a 64-character tag, a 200-character source), no screen is wider than the window at
+ * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
+ * decomposition) fit their cards, and the base-rate card shows its whole note. Screens are
+ * photographed at both sizes; the long question's page is scanned by axe in light and dark.
+ */
+import { expect, test, type Page } from '@playwright/test';
+import type { Question } from '../../shared/domain';
+import { apiCall, expectNoSeriousViolations } from './helpers';
+import { openApp, useDiaryServer } from './serve';
+
+const server = useDiaryServer();
+test.describe.configure({ mode: 'serial' });
+
+const SIZES = [
+  { width: 1024, height: 700 },
+  { width: 1920, height: 1080 },
+] as const;
+
+/** One word of `length` characters: a capital and then `letter` repeated. */
+const word = (length: number, letter: string) => `W${letter.repeat(length - 1)}`;
+const DAY = 86_400_000;
+const iso = (ms: number) => new Date(ms).toISOString();
+
+let open: Question;
+let resolved: Question;
+
+test('setup: the example diary and two questions made of long words', async () => {
+  await apiCall(server().url, 'loadDemo');
+  const now = Date.now();
+  // Awaiting resolution (on the Desk), with two reference sources.
+  open = await apiCall<Question>(server().url, 'createQuestion', {
+    title: word(300, 'x'),
+    rule: word(2000, 'r'),
+    tags: [word(64, 't').toLowerCase()],
+    opened_at: iso(now - 30 * DAY),
+    closes_at: iso(now - 2 * DAY),
+    time_zone: 'Europe/London',
+    base_rate: 0.3,
+    base_rate_note: word(300, 'b'),
+    first_forecast: { p: 0.9, note: word(600, 'n'), at: iso(now - 20 * DAY) },
+  });
+  await apiCall(server().url, 'addReference', { question_id: open.id, p: 0.4, source: word(200, 's'), at: iso(now - 19 * DAY) });
+  await apiCall(server().url, 'addReference', { question_id: open.id, p: 0.6, source: 'second source', at: iso(now - 18 * DAY) });
+  // A confident miss (on Hindsight and the Scorecard), resolved with a long note.
+  resolved = await apiCall<Question>(server().url, 'createQuestion', {
+    title: word(300, 'y'),
+    rule: word(300, 'r'),
+    tags: [word(64, 'u').toLowerCase()],
+    opened_at: iso(now - 40 * DAY),
+    closes_at: iso(now - 5 * DAY),
+    time_zone: 'Europe/London',
+    base_rate: 0.3,
+    base_rate_note: word(300, 'b'),
+    first_forecast: { p: 0.95, note: word(300, 'n'), at: iso(now - 30 * DAY) },
+  });
+  await apiCall(server().url, 'addReference', { question_id: resolved.id, p: 0.4, source: word(200, 's'), at: iso(now - 29 * DAY) });
+  await apiCall(server().url, 'resolveQuestion', { id: resolved.id, outcome: 'no', note: word(300, 'o'), at: iso(now - 4 * DAY) });
+});
+
+interface Screen {
+  name: string;
+  hash: () => string;
+  ready: (page: Page) => Promise<unknown>;
+}
+
+const heading = (page: Page) => expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+
+const SCREENS: Screen[] = [
+  { name: 'desk', hash: () => 'desk', ready: (page) => expect(page.getByTestId('desk-item').first()).toBeVisible() },
+  { name: 'questions', hash: () => 'questions', ready: (page) => expect(page.getByText(word(300, 'x')).first()).toBeVisible() },
+  { name: 'question-open', hash: () => `questions/${encodeURIComponent(open.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
+  { name: 'question-resolved', hash: () => `questions/${encodeURIComponent(resolved.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
+  { name: 'scorecard', hash: () => 'scorecard', ready: (page) => expect(page.locator('[data-scorecard-ready="true"]')).toBeVisible() },
+  { name: 'hindsight', hash: () => 'hindsight', ready: (page) => expect(page.locator('[data-hindsight-ready="true"]')).toBeVisible() },
+  { name: 'settings', hash: () => 'settings', ready: heading },
+];
+
+/** How far the page is wider than the window (0 when it fits). */
+async function overflow(page: Page): Promise<number> {
+  return page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+}
+
+/** Elements wider inside than the box that shows them (content cut off or scrolled away). */
+async function cut(page: Page, selector: string): Promise<string[]> {
+  return page.locator(selector).evaluateAll((elements) =>
+    elements.filter((el) => el.scrollWidth > el.clientWidth + 1).map((el) => `${el.className} (${el.scrollWidth} > ${el.clientWidth})`),
+  );
+}
+
+for (const size of SIZES) {
+  test(`no screen is wider than a ${size.width}×${size.height} window, and the cut tables fit`, async ({ browser }) => {
+    const app = await openApp(browser, server(), { viewport: size }, 'desk');
+    const { page } = app;
+    try {
+      for (const screen of SCREENS) {
+        await page.goto(`${server().url.split('?')[0]}#/${screen.hash()}`);
+        await screen.ready(page);
+        expect(await overflow(page), `${screen.name} at ${size.width}×${size.height}`).toBeLessThanOrEqual(0);
+        await page.screenshot({ path: `test/e2e/artifacts/overflow-${screen.name}-${size.width}.png`, fullPage: true });
+
+        if (screen.name.startsWith('question-')) {
+          // The title and every fact can be read: nothing is cut at the side.
+          expect(await cut(page, 'h1, .facts dd, .figure-tile__detail, .history-tables .table-card'), screen.name).toEqual([]);
+          // The reference table's Delete buttons are inside its card.
+          const card = await page.getByTestId('references-table').locator('xpath=..').boundingBox();
+          for (const button of await page.getByTestId('references-table').getByRole('button', { name: /^Delete / }).all()) {
+            const box = await button.boundingBox();
+            expect(box!.x + box!.width, `a Delete button on ${screen.name}`).toBeLessThanOrEqual(card!.x + card!.width);
+          }
+        }
+        if (screen.name === 'scorecard') {
+          expect(await cut(page, '.sc-decisions .table-card, .sc-decomposition'), 'scorecard tables').toEqual([]);
+        }
+        if (screen.name === 'hindsight') {
+          expect(await cut(page, '.hs-entry'), 'hindsight entries').toEqual([]);
+        }
+      }
+
+      // A dialog holding the long words is no wider than the window either.
+      await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(open.id)}`);
+      await page.getByRole('button', { name: 'Edit' }).click();
+      const dialog = page.getByRole('dialog', { name: 'Edit question' });
+      await expect(dialog).toBeVisible();
+      expect(await cut(page, 'dialog[open]'), 'the Edit dialog').toEqual([]);
+      expect(await overflow(page)).toBeLessThanOrEqual(0);
+      expect(app.problems).toEqual([]);
+    } finally {
+      await app.close();
+    }
+  });
+}
+
+for (const scheme of ['light', 'dark'] as const) {
+  for (const size of SIZES) {
+    test(`the long-word question passes an axe scan and is photographed (${scheme}, ${size.width})`, async ({ browser }) => {
+      const app = await openApp(browser, server(), { viewport: size, colorScheme: scheme }, `questions/${encodeURIComponent(open.id)}`);
+      const { page } = app;
+      try {
+        await expect(page.getByTestId('references-table')).toBeVisible();
+        await expectNoSeriousViolations(page, `the long-word question (${scheme}, ${size.width})`);
+        await page.screenshot({ path: `test/e2e/artifacts/overflow-question-${scheme}-${size.width}.png`, fullPage: true });
+        expect(app.problems).toEqual([]);
+      } finally {
+        await app.close();
+      }
+    });
+  }
+}

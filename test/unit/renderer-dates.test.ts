@@ -1,0 +1,107 @@
+/**
+ * renderer/src/dates.ts: every date the window shows is written in the user's locale with
+ * one zone label style (the offset in force, "GMT+1"), and dates typed in the user's own
+ * order are read back exactly. Expected strings are what Intl's CLDR data writes for en-GB
+ * and en-US; the UK summer-time rule (last Sunday of March to last Sunday of October, 01:00
+ * UTC) is the Summer Time Order 2002.
+ */
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import {
+  dateOrder,
+  dayWord,
+  formatDateText,
+  formatInstant,
+  formatNearby,
+  formatTimeText,
+  localToIso,
+  parseDateText,
+  parseTimeText,
+  wallText,
+  zoneLabel,
+} from '../../renderer/src/dates';
+
+// 2026-03-29 01:00:00Z: UK clocks go from 01:00 GMT to 02:00 BST.
+const SPRING = Date.parse('2026-03-29T01:00:00.000Z');
+
+test('a zone label is the offset in force at that instant, in one style for every zone', () => {
+  assert.equal(zoneLabel(SPRING - 1, 'Europe/London', 'en-GB'), 'GMT', 'the last millisecond of winter time');
+  assert.equal(zoneLabel(SPRING, 'Europe/London', 'en-GB'), 'GMT+1', 'the first of summer time');
+  assert.equal(zoneLabel(SPRING, 'America/New_York', 'en-GB'), 'GMT\u22124', 'not "EDT", and a proper minus sign');
+  assert.equal(zoneLabel(SPRING, 'America/New_York', 'en-US'), 'GMT\u22124', 'the same style in a US locale');
+  assert.equal(zoneLabel(SPRING, 'Europe/London', 'en-US'), 'GMT+1', 'not "BST" in one locale and "GMT+1" in another');
+  assert.equal(zoneLabel(SPRING, 'UTC', 'en-GB'), 'GMT');
+  assert.equal(zoneLabel(SPRING, 'Asia/Kolkata', 'en-GB'), 'GMT+5:30');
+});
+
+test('an instant is written day, month, year in a UK locale and month first in a US one', () => {
+  const closes = '2030-06-30T16:00:00.000Z'; // 17:00 in London (summer time)
+  assert.equal(formatInstant(closes, 'Europe/London', {}, 'en-GB'), '30 Jun 2030, 17:00 GMT+1');
+  assert.equal(formatInstant(closes, 'Europe/London', false, 'en-GB'), '30 Jun 2030, 17:00');
+  assert.equal(formatInstant(closes, 'Europe/London', { weekday: true }, 'en-GB'), 'Sun, 30 Jun 2030, 17:00 GMT+1');
+  assert.match(formatInstant(closes, 'Europe/London', {}, 'en-US'), /^Jun 30, 2030, 05:00\sPM GMT\+1$/);
+});
+
+test('nearby instants are named by day on the zone’s own calendar', () => {
+  const now = Date.parse('2026-03-31T22:30:00.000Z'); // 23:30 on 31 March in London
+  const next = Date.parse('2026-03-31T23:30:00.000Z'); // 00:30 on 1 April in London
+  assert.equal(dayWord(next, now, 'Europe/London', 'en-GB'), 'tomorrow');
+  assert.equal(dayWord(next, now, 'UTC', 'en-GB'), 'today');
+  assert.equal(formatNearby(next, now, 'Europe/London', 'en-GB'), 'tomorrow 00:30 GMT+1');
+  assert.equal(dayWord(now + 8 * 86_400_000, now, 'Europe/London', 'en-GB'), '8 Apr');
+  assert.equal(dayWord(now + 300 * 86_400_000, now, 'Europe/London', 'en-GB'), '25 Jan 2027');
+});
+
+test('the date box follows the locale’s order, and what it shows reads back', () => {
+  assert.deepEqual(dateOrder('en-GB'), { order: ['day', 'month', 'year'], separator: '/', placeholder: 'dd/mm/yyyy' });
+  assert.deepEqual(dateOrder('en-US'), { order: ['month', 'day', 'year'], separator: '/', placeholder: 'mm/dd/yyyy' });
+  assert.equal(dateOrder('de-DE').placeholder, 'dd.mm.yyyy');
+  assert.equal(dateOrder('sv-SE').placeholder, 'yyyy-mm-dd');
+  for (const locale of ['en-GB', 'en-US', 'de-DE', 'sv-SE', 'ja-JP']) {
+    const date = { year: 2026, month: 3, day: 4 };
+    assert.deepEqual(parseDateText(formatDateText(date, locale), locale), { ok: true, value: date }, locale);
+  }
+  assert.equal(formatDateText({ year: 2026, month: 3, day: 4 }, 'en-GB'), '04/03/2026');
+  assert.deepEqual(parseDateText('4/3/2026', 'en-GB'), { ok: true, value: { year: 2026, month: 3, day: 4 } }, 'the 4th of March in the UK');
+  assert.deepEqual(parseDateText('4/3/2026', 'en-US'), { ok: true, value: { year: 2026, month: 4, day: 3 } }, 'the 3rd of April in the US');
+  assert.deepEqual(parseDateText('2026-03-04', 'en-US'), { ok: true, value: { year: 2026, month: 3, day: 4 } }, 'ISO is read in every locale');
+});
+
+test('a date that is not one says why, in the user’s terms', () => {
+  assert.deepEqual(parseDateText('31/13/2026', 'en-GB'), { ok: false, error: '13 is not a month; write the date as dd/mm/yyyy' });
+  assert.deepEqual(parseDateText('29/02/2027', 'en-GB'), { ok: false, error: 'that month has no day 29; write the date as dd/mm/yyyy' });
+  assert.deepEqual(parseDateText('29/02/2028', 'en-GB'), { ok: true, value: { year: 2028, month: 2, day: 29 } }, 'a leap day');
+  assert.deepEqual(parseDateText('1/0/2026', 'en-GB'), { ok: false, error: '0 is not a month; write the date as dd/mm/yyyy' });
+  assert.deepEqual(parseDateText('0/1/2026', 'en-GB'), { ok: false, error: 'that month has no day 0; write the date as dd/mm/yyyy' });
+  assert.deepEqual(parseDateText('03/04/26', 'en-GB'), { ok: false, error: 'write the year with four digits (dd/mm/yyyy)' });
+  assert.deepEqual(parseDateText('next Tuesday', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
+});
+
+test('times are read on a 24-hour clock or with am/pm, and refused past 23:59', () => {
+  assert.deepEqual(parseTimeText('17:00', 'en-GB'), { ok: true, value: { hour: 17, minute: 0 } });
+  assert.deepEqual(parseTimeText('1700', 'en-GB'), { ok: true, value: { hour: 17, minute: 0 } });
+  assert.deepEqual(parseTimeText('5pm', 'en-GB'), { ok: true, value: { hour: 17, minute: 0 } });
+  assert.deepEqual(parseTimeText('12:30 am', 'en-US'), { ok: true, value: { hour: 0, minute: 30 } });
+  assert.deepEqual(parseTimeText('12:30 PM', 'en-US'), { ok: true, value: { hour: 12, minute: 30 } });
+  assert.deepEqual(parseTimeText('23:59', 'en-GB'), { ok: true, value: { hour: 23, minute: 59 } });
+  assert.equal(parseTimeText('24:00', 'en-GB').ok, false);
+  assert.equal(parseTimeText('23:60', 'en-GB').ok, false);
+  assert.equal(parseTimeText('13 pm', 'en-GB').ok, false);
+  assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'en-GB'), '17:05');
+  assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'en-US'), '5:05 pm');
+  assert.equal(formatTimeText({ hour: 0, minute: 0 }, 'en-US'), '12:00 am');
+  for (const locale of ['en-GB', 'en-US']) {
+    for (const time of [{ hour: 0, minute: 0 }, { hour: 12, minute: 0 }, { hour: 23, minute: 59 }]) {
+      assert.deepEqual(parseTimeText(formatTimeText(time, locale), locale), { ok: true, value: time }, `${locale} ${time.hour}:${time.minute}`);
+    }
+  }
+});
+
+test('a typed wall time becomes the instant the zone’s clocks show, skipped hours by RFC 5545', () => {
+  const local = wallText({ year: 2026, month: 3, day: 29 }, { hour: 0, minute: 59 });
+  assert.equal(localToIso(local, 'Europe/London'), '2026-03-29T00:59:00.000Z');
+  // 01:30 does not exist in London that night; read with the offset before the gap (RFC 5545 §3.3.5).
+  assert.equal(localToIso(wallText({ year: 2026, month: 3, day: 29 }, { hour: 1, minute: 30 }), 'Europe/London'), '2026-03-29T01:30:00.000Z');
+  assert.equal(localToIso(wallText({ year: 2026, month: 3, day: 29 }, { hour: 2, minute: 0 }), 'Europe/London'), '2026-03-29T01:00:00.000Z');
+  assert.equal(localToIso('31/03/2026 17:00', 'Europe/London'), null, 'only the form’s own YYYY-MM-DDTHH:MM text');
+});

@@ -1,0 +1,99 @@
+/**
+ * What forms say: a percent box's advice (renderer/src/percent.ts) at the edges it draws —
+ * exactly 0% and 100% stored, a fraction strictly between 0 and 1 typed — with the numbers
+ * one step either side; the diary's `field: reason` lines in plain words beside the right
+ * field (renderer/src/fieldMessages.ts); and the Brier identity's signs
+ * (renderer/src/screens/scorecard/format.ts).
+ */
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { createQuestionRequest, settingsPatch } from '../../shared/contract';
+import { plainReason, placeReasons, schemaReasons } from '../../renderer/src/fieldMessages';
+import { percentAdvice, percentToProbability } from '../../renderer/src/percent';
+import { identityRows, score3 } from '../../renderer/src/screens/scorecard/format';
+
+test('0% and 100% are saved but warned about, with the value the log score uses', () => {
+  assert.deepEqual(percentAdvice('0'), {
+    kind: 'certain',
+    message: 'A single miss at 0% dominates the log score; it is scored as 0.1%.',
+  });
+  assert.deepEqual(percentAdvice('100'), {
+    kind: 'certain',
+    message: 'A single miss at 100% dominates the log score; it is scored as 99.9%.',
+  });
+  assert.deepEqual(percentToProbability('0'), { ok: true, value: 0 }, 'saved as typed');
+  // One step inside each edge of what is stored: no warning. The smallest positive probability
+  // (5e-324) is typed as a fraction of a percent, so it is asked about rather than warned about.
+  assert.equal(percentAdvice('99.9999999999999')?.kind, undefined, 'stored as 0.999999999999999, below 1');
+  assert.deepEqual(percentToProbability('5e-322'), { ok: true, value: Number.MIN_VALUE });
+  assert.equal(percentAdvice('5e-322')?.kind, 'fraction');
+  // A number too small to store is stored as 0, and warned about as 0.
+  assert.deepEqual(percentToProbability('5e-324'), { ok: true, value: 0 });
+  assert.equal(percentAdvice('5e-324')?.kind, 'certain');
+  // Typed digits beyond what the diary keeps round to 1: the warning follows what is stored.
+  assert.deepEqual(percentToProbability('99.99999999999999'), { ok: true, value: 1 });
+  assert.equal(percentAdvice('99.99999999999999')?.kind, 'certain');
+  assert.equal(percentAdvice('50'), null);
+  assert.equal(percentAdvice(''), null);
+  assert.equal(percentAdvice('150'), null, 'out of range is an error, not advice');
+});
+
+test('a fraction typed into a percent box asks whether the percent was meant', () => {
+  assert.deepEqual(percentAdvice('0.5'), { kind: 'fraction', typed: '0.5', meant: '50' });
+  assert.deepEqual(percentAdvice(' 0.35 '), { kind: 'fraction', typed: '0.35', meant: '35' });
+  assert.deepEqual(percentAdvice('0.07'), { kind: 'fraction', typed: '0.07', meant: '7' });
+  // The edges: 1 is one percent, not a fraction; the largest number below 1 is.
+  assert.equal(percentAdvice('1'), null);
+  assert.deepEqual(percentAdvice('0.9999999999999999'), { kind: 'fraction', typed: '0.9999999999999999', meant: '100' });
+  assert.equal(percentAdvice('1.5'), null);
+});
+
+test('the diary’s reasons read as sentences without internal names', () => {
+  assert.equal(plainReason('must be after the opening time (opened_at)'), 'Must be after the opening time');
+  assert.equal(plainReason('must not be empty'), 'Must not be empty');
+  assert.equal(plainReason('is not a valid tag: a tag is 1–64 lower-case letters'), 'This is not a valid tag: a tag is 1–64 lower-case letters');
+  assert.equal(plainReason('lists the same tag twice'), 'This lists the same tag twice');
+  assert.equal(plainReason('must be event_by_deadline or state_at_deadline'), 'Must be event by deadline or state at deadline');
+  assert.equal(plainReason('must not be before closes_at', { closes_at: 'Closes' }), 'Must not be before “Closes”');
+});
+
+test('each reason lands beside its field; others are listed by name, never by request path', () => {
+  const placed = placeReasons(
+    ['changes.closes_at: must be after the opening time (opened_at)', 'changes.tags[1]: is not a valid tag: x', 'changes.base_rate_note: must be at most 20,000 characters', 'id: not found'],
+    { fields: ['closes_at', 'tags'], labels: { closes_at: 'Closes', tags: 'Tags', base_rate_note: 'Reference class' }, prefix: 'changes' },
+  );
+  assert.deepEqual([...placed.shown], [
+    ['closes_at', 'Must be after the opening time'],
+    ['tags', 'This is not a valid tag: x'],
+  ]);
+  assert.deepEqual(placed.elsewhere, ['Reference class: Must be at most 20,000 characters', 'id: Not found']);
+  for (const line of [...placed.shown.values(), ...placed.elsewhere]) assert.doesNotMatch(line, /[a-z]+_[a-z]+/, line);
+});
+
+test('the form runs the diary’s own rules and gets every problem at once', () => {
+  const lines = schemaReasons(createQuestionRequest, { title: '   ', closes_at: '', tags: ['Not A Tag'], base_rate: 2 });
+  const { shown } = placeReasons(lines, { fields: ['title', 'closes_at', 'tags', 'base_rate'] });
+  assert.deepEqual([...shown.keys()].sort(), ['base_rate', 'closes_at', 'tags', 'title']);
+  assert.deepEqual(schemaReasons(settingsPatch, { closing_soon_hours: 24 }), []);
+  assert.deepEqual(schemaReasons(settingsPatch, { closing_soon_hours: 0, overdue_after_days: 91 }), [
+    'closing_soon_hours: must be at least 1 hour',
+    'overdue_after_days: must be at most 90 days',
+  ]);
+});
+
+test('the Brier identity turns a negative term’s operator round instead of writing − (−x)', () => {
+  const rows = identityRows({ rel: 0.118, res: 0.136, unc: 0.25, wbv: 0.0004, wbc: -0.001 });
+  assert.deepEqual(
+    rows.map((r) => `${r.op}${score3(r.value)} ${r.symbol}`),
+    ['0.118 REL', '\u22120.136 RES', '+0.250 UNC', '+0.000 WBV', '+0.001 WBC'],
+  );
+  // The sign edge of WBC, one step either side of zero: − for a positive WBC, − kept at 0, + below.
+  const op = (wbc: number) => identityRows({ rel: 0, res: 0, unc: 0, wbv: 0, wbc })[4]!.op;
+  assert.equal(op(Number.MIN_VALUE), '\u2212');
+  assert.equal(op(0), '\u2212');
+  assert.equal(op(-Number.MIN_VALUE), '+');
+  // Summing the rows as shown gives the identity back.
+  const t = { rel: 0.05, res: 0.02, unc: 0.24, wbv: 0.003, wbc: -0.002 };
+  const sum = identityRows(t).reduce((acc, r) => (r.op === '\u2212' ? acc - r.value : acc + r.value), 0);
+  assert.equal(sum, t.rel - t.res + t.unc + t.wbv - t.wbc);
+});
