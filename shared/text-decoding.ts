@@ -173,7 +173,7 @@ function sniff(head: Uint8Array): { encoding: TextEncodingName; bom: number } {
 export function createTextDecoder(): TextChunkDecoder {
   let head: Uint8Array | null = new Uint8Array(0);
   let encoding: TextEncodingName | null = null;
-  let inner: TextDecoder | null = null;
+  let inner: { decode(input?: Uint8Array, options?: { stream?: boolean }): string } | null = null;
   /** Bytes of the file whose characters have been returned (the BOM included). */
   let consumed = 0;
   /** Bytes given to `inner` that it holds back: an unfinished character (UTF-16: little-endian order). */
