@@ -13,11 +13,29 @@ export const probability = z
   .number({ error: 'must be a number between 0 and 1' })
   .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1, { message: 'must be a probability between 0 and 1' });
 
-export const instant = z
-  .string({ error: 'must be an ISO 8601 date-time text' })
-  .refine((v) => parseInstant(v) !== null, {
-    message: 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00',
-  });
+const INSTANT_TYPE = 'must be an ISO 8601 date-time text';
+
+/** The instant rule, once: epoch ms of a valid instant text, or the reason it is not one. */
+function readInstant(text: string): number | string {
+  const ms = parseInstant(text);
+  return ms === null ? 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00' : ms;
+}
+
+export const instant = z.string({ error: INSTANT_TYPE }).superRefine((text, ctx) => {
+  const read = readInstant(text);
+  if (typeof read === 'string') ctx.addIssue({ code: 'custom', message: read });
+});
+
+/**
+ * The same rule as `instant`, read into epoch milliseconds: the diary file's times, which
+ * are stored as numbers, are parsed once (a large import reads millions of them).
+ */
+export const instantMs = z.string({ error: INSTANT_TYPE }).transform((text, ctx) => {
+  const read = readInstant(text);
+  if (typeof read !== 'string') return read;
+  ctx.addIssue({ code: 'custom', message: read });
+  return z.NEVER;
+});
 
 export const tag = z.string({ error: 'must be text' }).refine((v) => TAG_PATTERN.test(v), { message: `is not a valid tag: ${TAG_RULE}` });
 
@@ -83,13 +101,20 @@ export const questionFields = {
   checkin_days: checkinDays.nullable().optional(),
 };
 
-/** The window must close after it opens (checked when both are given). */
-export const closesAfterOpens: [
-  (q: { opened_at?: string; closes_at: string }) => boolean,
-  { message: string; path: PropertyKey[] },
-] = [
-  (q) => q.opened_at === undefined || Date.parse(q.closes_at) > Date.parse(q.opened_at),
-  { message: 'must be after the opening time (opened_at)', path: ['closes_at'] },
+const instantValue = (t: string | number): number => (typeof t === 'number' ? t : Date.parse(t));
+
+/** What a window that does not close after it opens is told (on its closes_at). */
+export const CLOSES_AFTER_OPENS_RULE = 'must be after the opening time (opened_at)';
+
+/** The window must close after it opens (checked when both are given; as text or as epoch ms). */
+export function closesAfterOpening(q: { opened_at?: string | number; closes_at: string | number }): boolean {
+  return q.opened_at === undefined || instantValue(q.closes_at) > instantValue(q.opened_at);
+}
+
+/** `closesAfterOpening` as arguments for a schema's refine (zod rewrites the options object, so read the rule above). */
+export const closesAfterOpens: [typeof closesAfterOpening, { message: string; path: PropertyKey[] }] = [
+  closesAfterOpening,
+  { message: CLOSES_AFTER_OPENS_RULE, path: ['closes_at'] },
 ];
 
 export const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { message: 'must be a time of day HH:MM (24-hour)' });

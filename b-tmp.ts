@@ -1,0 +1,16 @@
+import { parse } from 'csv-parse/sync';
+import { Parser } from 'csv-parse';
+const rows: string[] = ['question_id,title,rule,kind,tags,opened_at,closes_at,time_zone,base_rate,base_rate_note,false_alarm_cost,miss_cost,checkin_days,forecast_at,p,note,lenses,outcome,resolved_at,resolution_note,reference_at,reference_p,reference_source'];
+for (let i = 0; i < 200000; i++) rows.push(`bench-${i >> 4},Synthetic question ${i >> 4},,event_by_deadline,client:norrowby renewals,2021-01-04T00:00:00.000Z,2021-06-04T00:00:00.000Z,Europe/London,0.43,,,,,2021-02-04T11:22:33.123Z,0.45,,,yes,2021-06-04T00:00:00.000Z,,,,`);
+const text = rows.join('\r\n') + '\r\n';
+console.log('MB', (text.length / 1e6).toFixed(1));
+let t = performance.now();
+const r = parse(text, { relax_column_count: true, record_delimiter: ['\r\n', '\n', '\r'] });
+console.log('csv-parse sync', (performance.now() - t).toFixed(0), r.length);
+t = performance.now();
+const p = new Parser({ relax_column_count: true, record_delimiter: ['\r\n', '\n', '\r'] }) as any;
+let n = 0;
+const buf = Buffer.from(text);
+for (let i = 0; i < buf.length; i += 1 << 20) p.api.parse(buf.subarray(i, i + (1 << 20)), false, () => n++, () => {});
+p.api.parse(undefined, true, () => n++, () => {});
+console.log('csv-parse api', (performance.now() - t).toFixed(0), n);
