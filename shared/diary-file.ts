@@ -10,7 +10,7 @@
  * times as epoch milliseconds, parsed once.
  */
 import { z } from 'zod';
-import { OUTCOMES, type Question, type Settings } from './domain';
+import { OUTCOMES, type Forecast, type Question, type ReferenceForecast, type Settings } from './domain';
 import { JsonStreamError, readObjectStream } from './json-stream';
 import * as v from './validation';
 
@@ -220,8 +220,14 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   if (!seen.questions) throw questionsNotAList();
 }
 
+/** What the export writes of a question: the question without its internal ids and stamps. */
+export type ExportedQuestion = Omit<Question, 'forecasts' | 'references' | 'created_at' | 'updated_at'> & {
+  forecasts: Omit<Forecast, 'id' | 'seq'>[];
+  references: Omit<ReferenceForecast, 'id'>[];
+};
+
 /** The export shape of one question; optional fields are written only when set. */
-export function toFileQuestion(q: Question): Record<string, unknown> {
+export function toFileQuestion(q: ExportedQuestion): Record<string, unknown> {
   const out: Record<string, unknown> = {
     id: q.id,
     title: q.title,
@@ -265,7 +271,7 @@ const LIST_CLOSE = '\n  ]\n}';
  * `JSON.stringify(toDiaryFile(settings, questions), null, 2) + "\n"` for the same questions
  * in the same order: each batch is laid out by JSON.stringify itself, one level down.
  */
-export function* diaryFileText(settings: Settings, batches: Iterable<Question[]>): Generator<string> {
+export function* diaryFileText(settings: Settings, batches: Iterable<ExportedQuestion[]>): Generator<string> {
   const empty = JSON.stringify({ format: DIARY_FORMAT, version: DIARY_VERSION, settings: { ...settings }, questions: [] }, null, 2);
   const head = empty.slice(0, empty.length - '[]\n}'.length);
   let first = true;

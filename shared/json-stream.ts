@@ -72,6 +72,8 @@ class Scanner {
   private column = 0;
   /** The line on which the last value read starts. */
   valueLine = 1;
+  /** The closing brackets a value being read still needs (reused from value to value). */
+  private readonly closers: number[] = [];
 
   constructor(
     private readonly source: Iterator<string>,
@@ -138,8 +140,10 @@ class Scanner {
     this.drop(this.pos);
     const startLine = (this.valueLine = this.line);
     const startColumn = this.column;
-    const pieces: string[] = [];
-    const closers: number[] = [];
+    // Text of the value from earlier chunks, when it spans more than one.
+    let pieces: string[] | null = null;
+    const closers = this.closers;
+    closers.length = 0;
     const first = this.buf.charCodeAt(0);
     const scalar = first !== QUOTE && first !== OPEN_BRACE && first !== OPEN_BRACKET;
     let inString = false;
@@ -149,7 +153,7 @@ class Scanner {
         // The value goes on in the next chunk: keep what was read and go on there. An
         // escape's backslash at the very end carries over as i = length + 1.
         const length = this.buf.length;
-        pieces.push(this.buf);
+        (pieces ??= []).push(this.buf);
         this.drop(length);
         if (!this.pull()) {
           if (scalar) {
@@ -192,7 +196,7 @@ class Scanner {
         if (closers.length === 0) break;
       } else i++;
     }
-    const text = pieces.length ? pieces.join('') + this.buf.slice(0, i) : this.buf.slice(0, i);
+    const text = pieces ? pieces.join('') + this.buf.slice(0, i) : this.buf.slice(0, i);
     this.pos = i;
     try {
       return JSON.parse(text);

@@ -210,11 +210,11 @@ export function createTextDecoder(): TextChunkDecoder {
   /** Feeds bytes (UTF-16: already in little-endian order) to the inner decoder. */
   function feed(bytes: Uint8Array, final: boolean): string {
     const region = concat(pending, bytes);
-    let text: string;
-    try {
-      text = inner!.decode(bytes, { stream: !final });
-    } catch {
-      return fail(region, final);
+    const text = inner!.decode(bytes, { stream: !final });
+    // The inner decoder replaces what is not text with U+FFFD (its fast path; a strict one is
+    // several times slower). Only then are the bytes checked: U+FFFD may also be in the file.
+    if (text.indexOf('\uFFFD') !== -1 && (encoding === 'utf-8' ? firstInvalidUtf8(region, final) : firstInvalidUtf16le(region, final)) !== -1) {
+      fail(region, final);
     }
     let held = 0;
     if (!final) {
@@ -233,7 +233,7 @@ export function createTextDecoder(): TextChunkDecoder {
     if (head.length < 4 && !final) return '';
     const found = sniff(head);
     encoding = found.encoding;
-    inner = new TextDecoder(encoding === 'utf-8' ? 'utf-8' : 'utf-16le', { fatal: true, ignoreBOM: true });
+    inner = new TextDecoder(encoding === 'utf-8' ? 'utf-8' : 'utf-16le', { ignoreBOM: true });
     consumed = found.bom;
     const rest = head.subarray(found.bom);
     head = null;

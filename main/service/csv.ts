@@ -12,8 +12,7 @@
  * additions to it, so neither holds the file or the diary in memory.
  */
 import type { z } from 'zod';
-import type { Question } from '../../shared/domain';
-import { fileQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
+import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
 import * as v from '../../shared/validation';
 import { CsvSyntaxError, readCsvRecords } from '../files/csv-records';
 
@@ -100,7 +99,7 @@ for (const c of CSV_COLUMNS) {
 }
 
 /** The question's own cells, repeated on each of its rows (as the JSON export writes the fields). */
-function questionCells(q: Question): Record<QuestionColumn, string> {
+function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
   return {
     question_id: q.id,
     title: q.title,
@@ -122,7 +121,7 @@ function questionCells(q: Question): Record<QuestionColumn, string> {
 }
 
 /** One question's rows: one per revision, then one per reference forecast, or one row when it has neither. */
-function questionRows(q: Question): string {
+function questionRows(q: ExportedQuestion): string {
   const cells = questionCells(q);
   const fixed = SEGMENTS.map((s) => (s.question ? s.columns.map((c) => csvField(cells[c])).join(',') : ''));
   const row = (point: Partial<Record<PointColumn, string>>) =>
@@ -143,7 +142,7 @@ function questionRows(q: Question): string {
  * it has neither. Numbers keep full precision (`String(number)` reads back to the same
  * double); every line ends in CRLF (RFC 4180 §2 rule 1).
  */
-export function* diaryCsvText(batches: Iterable<Question[]>): Generator<string> {
+export function* diaryCsvText(batches: Iterable<ExportedQuestion[]>): Generator<string> {
   yield CSV_HEADER;
   for (const batch of batches) {
     let text = '';

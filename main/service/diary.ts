@@ -29,6 +29,7 @@ import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
 import { readTextFile } from '../files/read-text';
 import { CsvError, diaryCsvText, readCsvDiary, type CsvItem } from './csv';
+import { exportBatches } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
@@ -364,19 +365,6 @@ export function createDiary(ctx: DiaryContext) {
     return importItems(readerFor(format, readTextFile(file)));
   }
 
-  /** The whole diary, questions in export order, read a batch at a time. */
-  function* questionBatches(): Generator<Question[]> {
-    // Keyset pagination: each page starts after the last one's (closes_at, id), by the index on closes_at.
-    const page = read.prepare('SELECT id, closes_at FROM questions WHERE (closes_at, id) > (?, ?) ORDER BY closes_at, id LIMIT ?');
-    let after: { id: string; closes_at: number } = { id: '', closes_at: -Infinity };
-    for (;;) {
-      const keys = page.all(after.closes_at, after.id, EXPORT_BATCH) as { id: string; closes_at: number }[];
-      if (keys.length === 0) return;
-      yield qs.loadBundles(read, keys.map((k) => k.id)).map(qs.toQuestion);
-      after = keys[keys.length - 1]!;
-    }
-  }
-
   /**
    * The export's text, piece by piece, read in one snapshot of the diary: a read
    * transaction is open from the first piece to the last, so a change committed meanwhile
@@ -391,7 +379,8 @@ export function createDiary(ctx: DiaryContext) {
     }
     read.exec('BEGIN');
     try {
-      yield* format === 'csv' ? diaryCsvText(questionBatches()) : diaryFileText(settings(), questionBatches());
+      const batches = exportBatches(read, EXPORT_BATCH);
+      yield* format === 'csv' ? diaryCsvText(batches) : diaryFileText(settings(), batches);
     } finally {
       read.exec('COMMIT');
     }

@@ -28,6 +28,9 @@ function random32(): number {
 
 let lastMs = -1;
 let counter = 0;
+/** The first groups of an id (time and version), kept for the millisecond they spell. */
+let groupsMs = -1;
+let groups = '';
 
 const hex = (n: number, width: number) => n.toString(16).padStart(width, '0');
 
@@ -41,8 +44,12 @@ export function orderedId(now = Date.now()): string {
     lastMs++;
     counter = 0;
   }
+  if (groupsMs !== lastMs) {
+    groupsMs = lastMs;
+    const time = hex(lastMs, 12);
+    groups = `${time.slice(0, 8)}-${time.slice(8)}-7`;
+  }
   const randA = Math.floor(counter / LOW_30);
   const randB = counter % LOW_30;
-  const time = hex(lastMs, 12);
-  return `${time.slice(0, 8)}-${time.slice(8)}-7${hex(randA, 3)}-${hex(0x8000 | (randB >>> 16), 4)}-${hex(randB & 0xffff, 4)}${hex(random32(), 8)}`;
+  return `${groups}${hex(randA, 3)}-${hex(0x8000 | (randB >>> 16), 4)}-${hex(randB & 0xffff, 4)}${hex(random32(), 8)}`;
 }
