@@ -40,9 +40,9 @@ class UsageError extends Error {}
 /** Set when stdout's reader went away (`forelog export | head`): the rest is not wanted. */
 class StdoutClosed extends Error {}
 
-function writeStdout(chunks: Iterable<string>): void {
+function writeStdout(text: string): void {
   try {
-    writeToDescriptor(1, chunks);
+    writeToDescriptor(1, text);
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code === 'EPIPE') throw new StdoutClosed();
     throw err;
@@ -177,7 +177,7 @@ async function run(argv: string[]): Promise<void> {
       await withDiary(dbPath, async (s) => {
         // Streamed from the diary a batch at a time: to a file whole or not at all, or to stdout.
         if (file) s.exportDiaryFile(file, format);
-        else writeStdout(s.diary.exportChunks(format));
+        else s.diary.exportTo(format, writeStdout);
       });
       if (file) process.stderr.write(`Wrote ${file}.\n`);
       return;

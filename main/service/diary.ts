@@ -368,11 +368,11 @@ export function createDiary(ctx: DiaryContext) {
   /**
    * The export's text, piece by piece, read in one snapshot of the diary: a read
    * transaction is open from the first piece to the last, so a change committed meanwhile
-   * (by the app, or another process) is either wholly in the file or not at all. Consume it
-   * synchronously (as writeFileAtomic and a join do): nothing else may use the read handle
-   * while the snapshot is open.
+   * (by another connection or process) is either wholly in the file or not at all. Private,
+   * and consumed synchronously (by exportTo and writeFileAtomic): nothing else may use the
+   * read handle while the snapshot is open.
    */
-  function* exportChunks(format: ExportFormat): Generator<string> {
+  function* exportPieces(format: ExportFormat): Generator<string> {
     if (format === 'ics') {
       yield toICalendar(unresolvedQuestions(store), { now: now(), alarmHours: settings().closing_soon_hours });
       return;
@@ -421,16 +421,23 @@ export function createDiary(ctx: DiaryContext) {
     ics: { name: 'forelog-closes', extension: 'ics', media_type: 'text/calendar' },
   };
 
+  /** Hands the export to `sink` piece by piece (a few megabytes each), synchronously, from one snapshot. */
+  function exportTo(format: ExportFormat, sink: (piece: string) => void): void {
+    for (const piece of exportPieces(format)) sink(piece);
+  }
+
   /** The export as one text, for the API (browser mode, the app's Settings): the same writer as the files. */
   function exportText(format: ExportFormat): ExportedText {
     const day = toIso(now()).slice(0, 10);
     const { name, extension, media_type } = EXPORT_FILES[format];
-    return { text: [...exportChunks(format)].join(''), file_name: `${name}-${day}.${extension}`, media_type };
+    const pieces: string[] = [];
+    exportTo(format, (piece) => pieces.push(piece));
+    return { text: pieces.join(''), file_name: `${name}-${day}.${extension}`, media_type };
   }
 
   /** Writes the export to `file`, whole or not at all (main/files/atomic-write.ts). */
   function exportFile(file: string, format: ExportFormat): void {
-    writeFileAtomic(file, exportChunks(format));
+    writeFileAtomic(file, exportPieces(format));
   }
 
   /** A file's text from the API (already decoded by the caller). */
@@ -710,7 +717,7 @@ export function createDiary(ctx: DiaryContext) {
     getQuestion,
     exportDiary,
     exportText,
-    exportChunks,
+    exportTo,
     exportFile,
     importText,
     importFile,
