@@ -127,18 +127,22 @@ function readSettings(raw: unknown): FileSettings | null {
   return s.data;
 }
 
-/** Validates question record `index`; `ids` holds the ids of the records before it. */
-function readQuestion(raw: unknown, index: number, ids: Set<string>, where = ''): FileQuestion {
+/**
+ * Validates question record `index`; `ids` holds the ids of the records before it. `line`,
+ * when the record was read from text, is where it starts (for finding it in a large file).
+ */
+function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: number): FileQuestion {
+  const where = line === undefined ? '' : ` (the record starts on line ${line})`;
   const r = fileQuestion.safeParse(raw);
   if (!r.success) {
     const issue = r.error.issues[0]!;
     const field = v.formatPath(issue.path) || '(record)';
-    throw new DiaryFileError(`Question record ${index}${where} is not valid: field ${field}: ${issue.message}. Nothing was imported.`, index, field);
+    throw new DiaryFileError(`Question record ${index} is not valid: field ${field}: ${issue.message}${where}. Nothing was imported.`, index, field);
   }
   if (r.data.id !== undefined) {
     if (ids.has(r.data.id)) {
       throw new DiaryFileError(
-        `Question record ${index}${where} is not valid: field id: "${r.data.id}" is used by an earlier record. Nothing was imported.`,
+        `Question record ${index} is not valid: field id: "${r.data.id}" is used by an earlier record${where}. Nothing was imported.`,
         index,
         'id',
       );
@@ -199,7 +203,7 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   try {
     for (const part of readObjectStream(chunks, { streamed: 'questions', maxDepth: MAX_NESTING })) {
       if (part.kind === 'element') {
-        yield { kind: 'question', index: part.index, question: readQuestion(part.value, part.index, ids, ` (line ${part.line})`) };
+        yield { kind: 'question', index: part.index, question: readQuestion(part.value, part.index, ids, part.line) };
       } else if (part.kind === 'array') seen.questions = true;
       else if (part.key === 'format') {
         checkFormat(part.value);
