@@ -89,14 +89,29 @@ function csvField(text: string): string {
   return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
-/** Runs of neighbouring question columns and point columns, in export order: a row is their cells joined. */
-const SEGMENTS: ({ question: true; columns: QuestionColumn[] } | { question: false; columns: PointColumn[] })[] = [];
-for (const c of CSV_COLUMNS) {
-  const last = SEGMENTS[SEGMENTS.length - 1];
-  const point = isPointColumn(c);
-  if (last && last.question === !point) (last.columns as CsvColumn[]).push(c);
-  else SEGMENTS.push(point ? { question: false, columns: [c] } : { question: true, columns: [c as QuestionColumn] });
+/** A revision's cells, in the order questionRows writes them. */
+const FORECAST_COLUMNS = ['forecast_at', 'p', 'note', 'lenses'] as const satisfies readonly PointColumn[];
+const REFERENCE_COLUMNS = ['reference_at', 'reference_p', 'reference_source'] as const satisfies readonly PointColumn[];
+
+/**
+ * A row as the text around a run of neighbouring point columns: the question's cells (and
+ * empty point cells) before the run, and after it. Rows are written by the million, so the
+ * surrounding text is made once per question and each row only adds its own cells.
+ */
+function around(columns: readonly PointColumn[]): (cells: Record<QuestionColumn, string>) => { before: string; after: string } {
+  const first = CSV_COLUMNS.indexOf(columns[0]!);
+  if (columns.some((c, i) => CSV_COLUMNS[first + i] !== c)) throw new Error(`the CSV columns ${columns.join(', ')} must stand together`);
+  const cell = (cells: Record<QuestionColumn, string>, c: CsvColumn) => (isPointColumn(c) ? '' : csvField(cells[c]));
+  const before = CSV_COLUMNS.slice(0, first);
+  const after = CSV_COLUMNS.slice(first + columns.length);
+  return (cells) => ({
+    before: before.map((c) => `${cell(cells, c)},`).join(''),
+    after: after.map((c) => `,${cell(cells, c)}`).join(''),
+  });
 }
+
+const aroundForecast = around(FORECAST_COLUMNS);
+const aroundReference = around(REFERENCE_COLUMNS);
 
 /** The question's own cells, repeated on each of its rows (as the JSON export writes the fields). */
 function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
@@ -120,19 +135,28 @@ function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
   };
 }
 
-/** One question's rows: one per revision, then one per reference forecast, or one row when it has neither. */
+/**
+ * One question's rows: one per revision, then one per reference forecast, or one row when
+ * it has neither. Times and numbers never need quoting; text does (csvField).
+ */
 function questionRows(q: ExportedQuestion): string {
   const cells = questionCells(q);
-  const fixed = SEGMENTS.map((s) => (s.question ? s.columns.map((c) => csvField(cells[c])).join(',') : ''));
-  const row = (point: Partial<Record<PointColumn, string>>) =>
-    `${SEGMENTS.map((s, k) => (s.question ? fixed[k] : s.columns.map((c) => csvField(point[c] ?? '')).join(','))).join(',')}\r\n`;
   let out = '';
-  for (const f of q.forecasts) {
-    const lenses = f.lenses.length ? JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight }))) : '';
-    out += row({ forecast_at: f.at, p: String(f.p), note: f.note, lenses });
+  if (q.forecasts.length) {
+    const { before, after } = aroundForecast(cells);
+    for (const f of q.forecasts) {
+      const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
+      out += `${before}${f.at},${String(f.p)},${csvField(f.note)},${lenses}${after}\r\n`;
+    }
   }
-  for (const r of q.references) out += row({ reference_at: r.at, reference_p: String(r.p), reference_source: r.source });
-  if (out === '') out = row({});
+  if (q.references.length) {
+    const { before, after } = aroundReference(cells);
+    for (const r of q.references) out += `${before}${r.at},${String(r.p)},${csvField(r.source)}${after}\r\n`;
+  }
+  if (out === '') {
+    const { before, after } = aroundForecast(cells);
+    out = `${before}${','.repeat(FORECAST_COLUMNS.length - 1)}${after}\r\n`;
+  }
   return out;
 }
 

@@ -33,25 +33,26 @@ const forBatch = (columns: string, table: string, order: string) =>
 
 /**
  * `toIso` for the many times of one export, faster: the date part comes from toIso itself,
- * once per day (times cluster on days), and the time of day is plain arithmetic.
+ * once per day (a diary's times fall on a few thousand days), and the time of day is plain
+ * arithmetic.
  */
 export function isoFormatter(): (ms: number) => string {
   const DAY = 86_400_000;
   const two = Array.from({ length: 100 }, (_, i) => String(i).padStart(2, '0'));
   const three = Array.from({ length: 1000 }, (_, i) => String(i).padStart(3, '0'));
-  let day = NaN;
-  let date = '';
+  const dates = new Map<number, string>();
   return (ms) => {
     if (!Number.isInteger(ms)) return toIso(ms);
     const d = Math.floor(ms / DAY);
-    if (d !== day) {
-      day = d;
-      date = toIso(d * DAY).slice(0, -13);
-    }
+    let date = dates.get(d);
+    if (date === undefined) dates.set(d, (date = toIso(d * DAY).slice(0, -13)));
     const t = ms - d * DAY;
     return `${date}${two[Math.floor(t / 3_600_000)]}:${two[Math.floor(t / 60_000) % 60]}:${two[Math.floor(t / 1000) % 60]}.${three[t % 1000]}Z`;
   };
 }
+
+/** The lenses of a revision without any: one shared empty list, not two million. */
+const NO_LENSES: Lens[] = [];
 
 /** The questions in export order, `size` at a time. */
 export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion[]> {
@@ -63,7 +64,9 @@ export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion
     )
     .raw();
   const tags = db.prepare(forBatch('tag', 'question_tags', 'position')).raw();
-  const forecasts = db.prepare(forBatch('seq, at, p, note', 'forecasts', 'at, seq')).raw();
+  // The revision's seq matters only to attach lenses, so it is read only when there are lenses.
+  const forecasts = db.prepare(forBatch('at, p, note, seq', 'forecasts', 'at, seq')).raw();
+  const forecastsOnly = db.prepare(forBatch('at, p, note', 'forecasts', 'at, seq')).raw();
   const references = db.prepare(forBatch('at, p, source', 'reference_forecasts', 'at, seq')).raw();
   const resolutions = db.prepare(forBatch('outcome, at, note', 'resolutions', '')).raw();
   // Most diaries have few lenses or none; then their query is not run at all.
@@ -111,8 +114,8 @@ export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion
         else lensesOf.set(seq, [{ name, p, weight }]);
       }
     }
-    for (const [k, seq, at, p, note] of forecasts.all(ids) as [number, number, number, number, string][]) {
-      batch[k]!.forecasts.push({ at: iso(at), p, note, lenses: lensesOf.get(seq) ?? [] });
+    for (const [k, at, p, note, seq] of (anyLenses ? forecasts : forecastsOnly).all(ids) as [number, number, number, string, number?][]) {
+      batch[k]!.forecasts.push({ at: iso(at), p, note, lenses: (seq !== undefined && lensesOf.get(seq)) || NO_LENSES });
     }
     for (const [k, at, p, source] of references.all(ids) as [number, number, number, string][]) batch[k]!.references.push({ at: iso(at), p, source });
     for (const [k, outcome, at, note] of resolutions.all(ids) as [number, Outcome, number, string][]) batch[k]!.resolution = { outcome, at: iso(at), note };
