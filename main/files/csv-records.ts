@@ -69,14 +69,8 @@ export function* readCsvRecords(chunks: Iterable<string>): Generator<CsvRecord> 
   let quoteLine = 1;
   /** The last chunk ended with a CR that ended a record: a LF opening the next one belongs to it. */
   let skipLf = false;
-  let started = false;
 
-  for (let text of chunks) {
-    if (!started && text.length) {
-      // A byte order mark read as text (from an API caller that kept it) is not part of the header.
-      if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-      started = true;
-    }
+  for (const text of chunks) {
     const n = text.length;
     let i = 0;
     if (skipLf && n > 0) {

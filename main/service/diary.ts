@@ -289,6 +289,7 @@ export function createDiary(ctx: DiaryContext) {
       const zoneDefaulted: string[] = [];
       // CSV only: each question's id and what its default opening time depends on, by index.
       const csvQuestions: { id: string; closes: number; firstAt: number | null; openedGiven: boolean }[] = [];
+      const setOpenedAt = write.prepare('UPDATE questions SET opened_at = ? WHERE id = ?');
       for (const item of items) {
         if (item.kind === 'settings') {
           settingsRead = true;
@@ -326,7 +327,7 @@ export function createDiary(ctx: DiaryContext) {
             qs.insertForecast(write, { id: orderedId(), question_id: target.id, at: f.at, p: f.p, note: f.note ?? '', lenses: (f.lenses ?? []) as Lens[] });
             if (!target.openedGiven && (target.firstAt === null || f.at < target.firstAt)) {
               target.firstAt = f.at;
-              write.prepare('UPDATE questions SET opened_at = ? WHERE id = ?').run(defaultOpenedAt(f.at, stamp, target.closes), target.id);
+              setOpenedAt.run(defaultOpenedAt(f.at, stamp, target.closes), target.id);
             }
           }
           if (item.reference) {
@@ -440,9 +441,9 @@ export function createDiary(ctx: DiaryContext) {
     writeFileAtomic(file, exportPieces(format));
   }
 
-  /** A file's text from the API (already decoded by the caller). */
+  /** A file's text from the API (already decoded by the caller; a byte order mark it kept is dropped). */
   function importText(format: ImportFormat, text: string): { added: number } {
-    return importItems(readerFor(format, [text]));
+    return importItems(readerFor(format, [text.charCodeAt(0) === 0xfeff ? text.slice(1) : text]));
   }
 
   const handlers: Handlers = {
