@@ -361,13 +361,30 @@ export type CsvItem =
   | { kind: 'question'; index: number; row: number; question: FileQuestion }
   | { kind: 'addition'; index: number; row: number; forecast: FileForecast | null; reference: FileReference | null };
 
-// Joins a row's raw question cells for comparing rows; a character no cell is compared across.
-const CELL_SEPARATOR = '\u0001';
+/**
+ * A row's question cells as written, in one new string (so no chunk of the file stays in
+ * memory), each prefixed with its length so no text inside a cell can make two different
+ * rows look alike.
+ */
+function joinCells(cells: readonly string[]): string {
+  return cells.map((c) => `${c.length}:${c}`).join('');
+}
+
+function splitCells(joined: string): string[] {
+  const cells: string[] = [];
+  for (let at = 0; at < joined.length; ) {
+    const colon = joined.indexOf(':', at);
+    const end = colon + 1 + Number(joined.slice(at, colon));
+    cells.push(joined.slice(colon + 1, end));
+    at = end;
+  }
+  return cells;
+}
 
 interface Group {
   index: number;
   row: number;
-  /** The first row's question cells as written, joined (a copy, so no chunk of the file stays in memory). */
+  /** The first row's question cells as written (joinCells). */
   raw: string;
 }
 
@@ -403,7 +420,7 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
         const i = at.get(c);
         return i === undefined ? '' : fields[i]!;
       };
-      const raw = QUESTION_COLUMNS.map(cell).join(CELL_SEPARATOR);
+      const raw = joinCells(QUESTION_COLUMNS.map(cell));
       const id = cell('question_id');
       // Joined rather than concatenated: a new string, so the map does not keep a chunk of the file alive.
       const key = id.trim() !== '' ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000');
@@ -431,7 +448,7 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
 
 /** A later row of a question must hold the same values as its first row (compared as read: 0.30 and .3 agree). */
 function agree(group: Group, values: Record<QuestionColumn, unknown>, row: number): void {
-  const cells = group.raw.split(CELL_SEPARATOR);
+  const cells = splitCells(group.raw);
   const first = readQuestionCells((c) => cells[QUESTION_COLUMNS.indexOf(c as QuestionColumn)] ?? '', group.row);
   for (const c of QUESTION_COLUMNS) {
     if (JSON.stringify(values[c]) !== JSON.stringify(first[c])) {

@@ -400,3 +400,22 @@ test("a problem spanning a question's fields is reported at the question's first
     'closes_at',
   );
 });
+
+test('rows of a question may be anywhere in the file (a sheet sorted by date), and read as if they stood together', async () => {
+  const rows = {
+    a1: row({ ...Q1, forecast_at: '2026-06-03T09:00:00.000Z', p: '0.3' }),
+    b1: row({ ...Q2, forecast_at: '2026-06-02T09:00:00.000Z', p: '0.6' }),
+    a2: row({ ...Q1, forecast_at: '2026-06-01T09:00:00.000Z', p: '0.2', note: 'earlier, written later' }),
+    b2: row({ ...Q2, reference_at: '2026-06-04T09:00:00.000Z', reference_p: '0.5', reference_source: 'client' }),
+    a3: row({ ...Q1, forecast_at: '2026-06-05T09:00:00.000Z', p: '0.35' }),
+  };
+  const interleaved = openTestDiary();
+  await interleaved.call('importText', { format: 'csv', text: csvText(rows.a1, rows.b1, rows.a2, rows.b2, rows.a3) });
+  const grouped = openTestDiary();
+  await grouped.call('importText', { format: 'csv', text: csvText(rows.a1, rows.a2, rows.a3, rows.b1, rows.b2) });
+  assert.equal(interleaved.service.diary.exportText('json').text, grouped.service.diary.exportText('json').text);
+  // Without an opened_at column the question opens at its earliest revision, wherever its row is.
+  const q1 = await interleaved.call('getQuestion', { id: 'q1' });
+  assert.equal(q1.opened_at, '2026-06-01T09:00:00.000Z');
+  assert.deepEqual(q1.forecasts.map((f: { p: number }) => f.p), [0.2, 0.3, 0.35]);
+});
