@@ -282,8 +282,9 @@ export function* diaryFileText(settings: Settings, batches: Iterable<ExportedQue
   for (const batch of batches) {
     if (batch.length === 0) continue;
     const framed = JSON.stringify({ questions: batch.map(toFileQuestion) }, null, 2);
-    const records = framed.slice(LIST_OPEN.length, framed.length - LIST_CLOSE.length);
-    yield first ? `${head}[\n${records}` : `,\n${records}`;
+    // Handed over as they are, not joined: a join would copy the batch's text once more.
+    yield first ? `${head}[\n` : ',\n';
+    yield framed.slice(LIST_OPEN.length, framed.length - LIST_CLOSE.length);
     first = false;
   }
   yield first ? `${empty}\n` : `${LIST_CLOSE}\n`;

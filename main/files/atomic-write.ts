@@ -74,9 +74,20 @@ function writeAll(fd: number, data: Uint8Array): void {
   }
 }
 
+/** Text chunks are encoded into this one buffer rather than a new one each: an export writes hundreds. */
+let scratch = Buffer.alloc(0);
+
 /** Writes chunks to an open descriptor (stdout, a device, an open file), encoding text as UTF-8. */
 export function writeToDescriptor(fd: number, content: FileContent): void {
-  for (const chunk of chunksOf(content)) writeAll(fd, typeof chunk === 'string' ? Buffer.from(chunk, 'utf8') : chunk);
+  for (const chunk of chunksOf(content)) {
+    if (typeof chunk !== 'string') {
+      writeAll(fd, chunk);
+      continue;
+    }
+    // UTF-8 takes at most three bytes per UTF-16 code unit.
+    if (scratch.length < chunk.length * 3) scratch = Buffer.allocUnsafe(Math.max(chunk.length * 3, 1 << 20));
+    writeAll(fd, scratch.subarray(0, scratch.write(chunk, 0, 'utf8')));
+  }
 }
 
 /** Flushes a folder's entry list, so the rename itself survives a power cut. Not possible everywhere (Windows); then skipped. */
