@@ -76,6 +76,7 @@ function writeAll(fd: number, data: Uint8Array): void {
 
 /** Text chunks are encoded into this one buffer rather than a new one each: an export writes hundreds. */
 let scratch = Buffer.alloc(0);
+const SCRATCH_LIMIT = 32 << 20;
 
 /** Writes chunks to an open descriptor (stdout, a device, an open file), encoding text as UTF-8. */
 export function writeToDescriptor(fd: number, content: FileContent): void {
@@ -84,9 +85,14 @@ export function writeToDescriptor(fd: number, content: FileContent): void {
       writeAll(fd, chunk);
       continue;
     }
-    // UTF-8 takes at most three bytes per UTF-16 code unit.
-    if (scratch.length < chunk.length * 3) scratch = Buffer.allocUnsafe(Math.max(chunk.length * 3, 1 << 20));
-    writeAll(fd, scratch.subarray(0, scratch.write(chunk, 0, 'utf8')));
+    // UTF-8 takes at most three bytes per UTF-16 code unit. A text too large to keep a
+    // buffer for (a whole file given as one string) is encoded on its own.
+    const room = chunk.length * 3;
+    if (room > SCRATCH_LIMIT) writeAll(fd, Buffer.from(chunk, 'utf8'));
+    else {
+      if (scratch.length < room) scratch = Buffer.allocUnsafe(Math.max(room, 1 << 20));
+      writeAll(fd, scratch.subarray(0, scratch.write(chunk, 0, 'utf8')));
+    }
   }
 }
 
