@@ -23,6 +23,10 @@ test('a string, bytes, or chunks of either are written exactly, and nothing else
   assert.equal(fs.readFileSync(file, 'utf8'), 'a,b,ü\r\n');
   writeFileAtomic(file, Uint8Array.of(0x25, 0x50, 0x44, 0x46));
   assert.equal(fs.readFileSync(file, 'latin1'), '%PDF');
+  // A whole file given as one large string, of three-byte characters.
+  const large = '€'.repeat(11_500_000);
+  writeFileAtomic(file, ['(', large, ')']);
+  assert.equal(fs.readFileSync(file, 'utf8'), `(${large})`);
   assert.deepEqual(fs.readdirSync(dir), ['diary.json']);
 });
 
