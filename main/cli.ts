@@ -5,7 +5,8 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
-import { ApiError, parseRequest, type DueList, type ExportedText } from '../shared/contract';
+import { ApiError, parseRequest, type DueList } from '../shared/contract';
+import { writeToDescriptor } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
@@ -35,6 +36,18 @@ Options:
   --help                      this text`;
 
 class UsageError extends Error {}
+
+/** Set when stdout's reader went away (`forelog export | head`): the rest is not wanted. */
+class StdoutClosed extends Error {}
+
+function writeStdout(text: string): void {
+  try {
+    writeToDescriptor(1, text);
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'EPIPE') throw new StdoutClosed();
+    throw err;
+  }
+}
 
 /** Unexpected failures keep their stack on stderr when FORELOG_DEBUG is set. */
 function reportInternal(err: unknown): void {
@@ -176,8 +189,8 @@ async function run(argv: string[]): Promise<void> {
       const format = values.format ?? (/\.csv$/i.test(file) ? 'csv' : 'json');
       if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
       if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
-      const text = fs.readFileSync(file, 'utf8');
-      const result = (await withDiary(dbPath, { create: true }, (s) => callOrThrow(s.dispatch, 'importText', { format, text }))) as { added: number };
+      // Streamed from the file: no size limit, all or nothing.
+      const result = await withDiary(dbPath, { create: true }, async (s) => s.importDiaryFile(file, format));
       process.stdout.write(`Imported ${result.added} question${result.added === 1 ? '' : 's'} into ${path.resolve(dbPath)}.\n`);
       return;
     }
@@ -185,11 +198,13 @@ async function run(argv: string[]): Promise<void> {
       if (positionals.length > 1) throw new UsageError('expects at most one FILE');
       const format = values.format ?? 'json';
       if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
-      const { text } = (await withDiary(dbPath, { create: false }, (s) => callOrThrow(s.dispatch, 'exportText', { format }))) as ExportedText;
-      if (positionals[0]) {
-        fs.writeFileSync(positionals[0], text);
-        process.stderr.write(`Wrote ${positionals[0]}.\n`);
-      } else process.stdout.write(text);
+      const file = positionals[0];
+      await withDiary(dbPath, { create: false }, async (s) => {
+        // Streamed from the diary a batch at a time: to a file whole or not at all, or to stdout.
+        if (file) s.exportDiaryFile(file, format);
+        else s.diary.exportTo(format, writeStdout);
+      });
+      if (file) process.stderr.write(`Wrote ${file}.\n`);
       return;
     }
     case 'score': {
@@ -252,6 +267,7 @@ const argv = process.argv.slice(2);
 run(argv).catch((err: unknown) => {
   // A failure of the diary file itself (busy, read-only, disk full, damaged) reads as the app says it.
   const failure = err instanceof UsageError || err instanceof ApiError ? null : storeFailure(err, path.resolve(dbPathOf(argv)));
+  if (err instanceof StdoutClosed) return;
   const message =
     err instanceof UsageError
       ? `forelog: ${err.message}. See forelog --help.`

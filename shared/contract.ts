@@ -144,9 +144,17 @@ export const exportTextRequest = z.object({
   format: z.enum(EXPORT_FORMATS, { error: 'must be json, csv or ics' }),
 });
 
+/**
+ * The largest file the app imports in one request: browser mode's request cap (64 MB).
+ * `forelog import FILE` reads a file as it streams, with no limit.
+ */
+export const APP_IMPORT_MAX_BYTES = 64 * 1_048_576;
+export const APP_IMPORT_TOO_LARGE =
+  'is larger than 64 MB, the most the app imports at once; import it with the command line instead, which takes files of any size: forelog import FILE';
+
 export const importTextRequest = z.object({
   format: z.enum(IMPORT_FORMATS, { error: 'must be json or csv' }),
-  text: z.string({ error: 'must be the file’s text' }).max(64 * 1_048_576, { message: 'is larger than 64 MB' }),
+  text: z.string({ error: 'must be the file’s text' }).max(APP_IMPORT_MAX_BYTES, { message: APP_IMPORT_TOO_LARGE }),
 });
 
 const empty = z.object({}).strict();

@@ -1,31 +1,38 @@
 /**
  * The diary file, JSON version 1 (INTERFACES.md §1): its schema for import and its shape
- * for export. Import is all-or-nothing, so `parseDiaryFile` either returns every record
- * or throws naming the first bad record's index, the field and the reason.
+ * for export. Import is all-or-nothing, so a reader either yields every record or throws
+ * naming the first bad record's index, the field and the reason.
+ *
+ * Two ways in, one set of rules: `readDiaryText` reads the file's text as it streams in
+ * (a question record at a time, so a file of any size is read in bounded memory) and
+ * `diaryItems` reads an object already in memory (the API's importDiary, the example
+ * diary). Both check the same things in the same words; a validated question carries its
+ * times as epoch milliseconds, parsed once.
  */
 import { z } from 'zod';
-import { OUTCOMES, type Question, type Settings } from './domain';
+import { OUTCOMES, type Forecast, type Question, type ReferenceForecast, type Settings } from './domain';
+import { JsonStreamError, readObjectStream } from './json-stream';
 import * as v from './validation';
 
 export const DIARY_FORMAT = 'forelog-diary';
 export const DIARY_VERSION = 1;
 
 const fileForecast = z.object({
-  at: v.instant,
+  at: v.instantMs,
   p: v.probability,
   note: v.note.optional(),
   lenses: v.lenses.optional(),
 });
 
 const fileReference = z.object({
-  at: v.instant,
+  at: v.instantMs,
   p: v.probability,
   source: v.source,
 });
 
 const fileResolution = z.object({
   outcome: z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' }),
-  at: v.instant,
+  at: v.instantMs,
   note: v.note.optional(),
 });
 
@@ -33,13 +40,18 @@ export const fileQuestion = z
   .object({
     id: v.id().optional(),
     ...v.questionFields,
+    opened_at: v.instantMs.optional(),
+    closes_at: v.instantMs,
     forecasts: z.array(fileForecast, { error: 'must be a list of forecasts' }),
     references: z.array(fileReference, { error: 'must be a list of reference forecasts' }).optional(),
     resolution: fileResolution.nullable().optional(),
   })
   .refine(...v.closesAfterOpens);
 
+/** A validated question record; every time in it is epoch milliseconds. */
 export type FileQuestion = z.output<typeof fileQuestion>;
+export type FileForecast = z.output<typeof fileForecast>;
+export type FileReference = z.output<typeof fileReference>;
 
 const fileSettings = z
   .object({
@@ -60,6 +72,11 @@ export interface ParsedDiary {
   questions: FileQuestion[];
 }
 
+/** What a reader yields, in file order: the settings (when the file has them) and each question. */
+export type DiaryItem =
+  | { kind: 'settings'; settings: FileSettings }
+  | { kind: 'question'; index: number; question: FileQuestion };
+
 export class DiaryFileError extends Error {
   constructor(
     message: string,
@@ -71,64 +88,143 @@ export class DiaryFileError extends Error {
   }
 }
 
-/** Validates a whole diary file (already JSON-parsed). Throws DiaryFileError on the first bad record. */
-export function parseDiaryFile(raw: unknown): ParsedDiary {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) {
-    throw new DiaryFileError('This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary".', null, null);
-  }
-  const top = raw as Record<string, unknown>;
-  if (top.format !== DIARY_FORMAT) {
+const NOT_A_DIARY = 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary".';
+
+function checkFormat(format: unknown): void {
+  if (format !== DIARY_FORMAT) {
     throw new DiaryFileError(`This is not a Forelog diary file: "format" must be "${DIARY_FORMAT}".`, null, 'format');
   }
-  if (top.version !== DIARY_VERSION) {
+}
+
+function checkVersion(version: unknown): void {
+  if (version !== DIARY_VERSION) {
     throw new DiaryFileError(
-      `This diary file is version ${JSON.stringify(top.version)}; this Forelog reads version ${DIARY_VERSION}. Update Forelog to import it.`,
+      `This diary file is version ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}. Update Forelog to import it.`,
       null,
       'version',
     );
   }
-  let settings: FileSettings | null = null;
-  if (top.settings !== undefined && top.settings !== null) {
-    const s = fileSettings.safeParse(top.settings);
-    if (!s.success) {
-      const line = v.describeIssues(s.error, 'settings')[0]!;
-      throw new DiaryFileError(`The settings are not valid: ${line}. Nothing was imported.`, null, line.split(':')[0]!);
-    }
-    settings = s.data;
-  }
-  if (!Array.isArray(top.questions)) {
-    throw new DiaryFileError('"questions" must be a list (it may be empty).', null, 'questions');
-  }
-  const questions: FileQuestion[] = [];
-  const ids = new Set<string>();
-  top.questions.forEach((item, index) => {
-    const r = fileQuestion.safeParse(item);
-    if (!r.success) {
-      const issue = r.error.issues[0]!;
-      const field = v.formatPath(issue.path) || '(record)';
-      throw new DiaryFileError(
-        `Question record ${index} is not valid: field ${field}: ${issue.message}. Nothing was imported.`,
-        index,
-        field,
-      );
-    }
-    if (r.data.id !== undefined) {
-      if (ids.has(r.data.id)) {
-        throw new DiaryFileError(
-          `Question record ${index} is not valid: field id: "${r.data.id}" is used by an earlier record. Nothing was imported.`,
-          index,
-          'id',
-        );
-      }
-      ids.add(r.data.id);
-    }
-    questions.push(r.data);
-  });
-  return { settings, questions };
 }
 
+function questionsNotAList(): DiaryFileError {
+  return new DiaryFileError('"questions" must be a list (it may be empty).', null, 'questions');
+}
+
+function readSettings(raw: unknown): FileSettings | null {
+  if (raw === undefined || raw === null) return null;
+  const s = fileSettings.safeParse(raw);
+  if (!s.success) {
+    const line = v.describeIssues(s.error, 'settings')[0]!;
+    throw new DiaryFileError(`The settings are not valid: ${line}. Nothing was imported.`, null, line.split(':')[0]!);
+  }
+  return s.data;
+}
+
+/**
+ * Validates question record `index`; `ids` holds the ids of the records before it. `line`,
+ * when the record was read from text, is where it starts (for finding it in a large file).
+ */
+function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: number): FileQuestion {
+  const where = line === undefined ? '' : ` (the record starts on line ${line})`;
+  const r = fileQuestion.safeParse(raw);
+  if (!r.success) {
+    const issue = r.error.issues[0]!;
+    const field = v.formatPath(issue.path) || '(record)';
+    throw new DiaryFileError(`Question record ${index} is not valid: field ${field}: ${issue.message}${where}. Nothing was imported.`, index, field);
+  }
+  if (r.data.id !== undefined) {
+    if (ids.has(r.data.id)) {
+      throw new DiaryFileError(
+        `Question record ${index} is not valid: field id: "${r.data.id}" is used by an earlier record${where}. Nothing was imported.`,
+        index,
+        'id',
+      );
+    }
+    ids.add(r.data.id);
+  }
+  return r.data;
+}
+
+/** Reads a diary file already in memory (JSON-parsed). Throws DiaryFileError on the first problem. */
+export function* diaryItems(raw: unknown): Generator<DiaryItem> {
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw new DiaryFileError(NOT_A_DIARY, null, null);
+  const top = raw as Record<string, unknown>;
+  checkFormat(top.format);
+  checkVersion(top.version);
+  const settings = readSettings(top.settings);
+  if (settings) yield { kind: 'settings', settings };
+  if (!Array.isArray(top.questions)) throw questionsNotAList();
+  const ids = new Set<string>();
+  for (let index = 0; index < top.questions.length; index++) {
+    yield { kind: 'question', index, question: readQuestion(top.questions[index], index, ids) };
+  }
+}
+
+/** Validates a whole diary file (already JSON-parsed). Throws DiaryFileError on the first bad record. */
+export function parseDiaryFile(raw: unknown): ParsedDiary {
+  const parsed: ParsedDiary = { settings: null, questions: [] };
+  for (const item of diaryItems(raw)) {
+    if (item.kind === 'settings') parsed.settings = item.settings;
+    else parsed.questions.push(item.question);
+  }
+  return parsed;
+}
+
+function unreadable(err: JsonStreamError): DiaryFileError {
+  switch (err.kind) {
+    case 'not-object':
+      return new DiaryFileError(`${NOT_A_DIARY} (${err.message})`, null, null);
+    case 'depth':
+      return new DiaryFileError(`The file cannot be read at ${err.message}; a diary file never nests that deep. Nothing was imported.`, null, null);
+    case 'duplicate':
+      return new DiaryFileError(`The file cannot be read at ${err.message}. Nothing was imported.`, null, null);
+    default:
+      return new DiaryFileError(`The file is not valid JSON at ${err.message}; nothing was imported. Is it a Forelog diary file?`, null, null);
+  }
+}
+
+/**
+ * Reads a diary file's text as it arrives, chunk by chunk, yielding each question as soon
+ * as its record is read and valid. The members may come in any order (`settings` before or
+ * after `questions`); a file without `format`, `version` or `questions` is refused at its
+ * end. Throws DiaryFileError on the first problem; a consumer that stops early (or fails)
+ * stops the reading too.
+ */
+export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
+  const seen = { format: false, version: false, questions: false };
+  const ids = new Set<string>();
+  try {
+    for (const part of readObjectStream(chunks, { streamed: 'questions', maxDepth: v.MAX_NESTING })) {
+      if (part.kind === 'element') {
+        yield { kind: 'question', index: part.index, question: readQuestion(part.value, part.index, ids, part.line) };
+      } else if (part.kind === 'array') seen.questions = true;
+      else if (part.key === 'format') {
+        checkFormat(part.value);
+        seen.format = true;
+      } else if (part.key === 'version') {
+        checkVersion(part.value);
+        seen.version = true;
+      } else if (part.key === 'settings') {
+        const settings = readSettings(part.value);
+        if (settings) yield { kind: 'settings', settings };
+      } else if (part.key === 'questions') throw questionsNotAList();
+    }
+  } catch (err) {
+    throw err instanceof JsonStreamError ? unreadable(err) : err;
+  }
+  if (!seen.format) checkFormat(undefined);
+  if (!seen.version) checkVersion(undefined);
+  if (!seen.questions) throw questionsNotAList();
+}
+
+/** What the export writes of a question: the question without its internal ids and stamps. */
+export type ExportedQuestion = Omit<Question, 'forecasts' | 'references' | 'created_at' | 'updated_at'> & {
+  forecasts: Omit<Forecast, 'id' | 'seq'>[];
+  references: Omit<ReferenceForecast, 'id'>[];
+};
+
 /** The export shape of one question; optional fields are written only when set. */
-export function toFileQuestion(q: Question): Record<string, unknown> {
+export function toFileQuestion(q: ExportedQuestion): Record<string, unknown> {
   const out: Record<string, unknown> = {
     id: q.id,
     title: q.title,
@@ -160,4 +256,29 @@ export function toDiaryFile(settings: Settings, questions: Question[]): Record<s
     settings: { ...settings },
     questions: questions.map(toFileQuestion),
   };
+}
+
+// How JSON.stringify(…, null, 2) frames the records of a `questions` list one level down.
+const LIST_OPEN = '{\n  "questions": [\n';
+const LIST_CLOSE = '\n  ]\n}';
+
+/**
+ * The diary file's text in pieces, one per batch of questions, so an export of any size
+ * is written without holding the diary in memory. The bytes are exactly those of
+ * `JSON.stringify(toDiaryFile(settings, questions), null, 2) + "\n"` for the same questions
+ * in the same order: each batch is laid out by JSON.stringify itself, one level down.
+ */
+export function* diaryFileText(settings: Settings, batches: Iterable<ExportedQuestion[]>): Generator<string> {
+  const empty = JSON.stringify({ format: DIARY_FORMAT, version: DIARY_VERSION, settings: { ...settings }, questions: [] }, null, 2);
+  const head = empty.slice(0, empty.length - '[]\n}'.length);
+  let first = true;
+  for (const batch of batches) {
+    if (batch.length === 0) continue;
+    const framed = JSON.stringify({ questions: batch.map(toFileQuestion) }, null, 2);
+    // Handed over as they are, not joined: a join would copy the batch's text once more.
+    yield first ? `${head}[\n` : ',\n';
+    yield framed.slice(LIST_OPEN.length, framed.length - LIST_CLOSE.length);
+    first = false;
+  }
+  yield first ? `${empty}\n` : `${LIST_CLOSE}\n`;
 }

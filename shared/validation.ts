@@ -13,11 +13,29 @@ export const probability = z
   .number({ error: 'must be a number between 0 and 1' })
   .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1, { message: 'must be a probability between 0 and 1' });
 
-/** An ISO 8601 instant with an offset, inside `INSTANT_RANGE` (shared/time.ts). */
-export const instant = z.string({ error: 'must be an ISO 8601 date-time text' }).superRefine((text, ctx) => {
+const INSTANT_TYPE = 'must be an ISO 8601 date-time text';
+
+/** The instant rule, once: epoch ms of a valid instant text inside `INSTANT_RANGE` (shared/time.ts), or the reason it is not one. */
+function readInstant(text: string): number | string {
   const ms = parseInstant(text);
-  if (ms === null) ctx.addIssue({ code: 'custom', message: 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00' });
-  else if (!isInstantInRange(ms)) ctx.addIssue({ code: 'custom', message: INSTANT_RANGE_RULE });
+  if (ms === null) return 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00';
+  return isInstantInRange(ms) ? ms : INSTANT_RANGE_RULE;
+}
+
+export const instant = z.string({ error: INSTANT_TYPE }).superRefine((text, ctx) => {
+  const read = readInstant(text);
+  if (typeof read === 'string') ctx.addIssue({ code: 'custom', message: read });
+});
+
+/**
+ * The same rule as `instant`, read into epoch milliseconds: the diary file's times, which
+ * are stored as numbers, are parsed once (a large import reads millions of them).
+ */
+export const instantMs = z.string({ error: INSTANT_TYPE }).transform((text, ctx) => {
+  const read = readInstant(text);
+  if (typeof read !== 'string') return read;
+  ctx.addIssue({ code: 'custom', message: read });
+  return z.NEVER;
 });
 
 /** A filter bound: a bare date (that whole day in UTC) or an instant, inside `INSTANT_RANGE`. */
@@ -133,13 +151,20 @@ export const questionFields = {
   checkin_days: checkinDays.nullable().optional(),
 };
 
-/** The window must close after it opens (checked when both are given). */
-export const closesAfterOpens: [
-  (q: { opened_at?: string; closes_at: string }) => boolean,
-  { message: string; path: PropertyKey[] },
-] = [
-  (q) => q.opened_at === undefined || Date.parse(q.closes_at) > Date.parse(q.opened_at),
-  { message: 'must be after the opening time (opened_at)', path: ['closes_at'] },
+const instantValue = (t: string | number): number => (typeof t === 'number' ? t : Date.parse(t));
+
+/** What a window that does not close after it opens is told (on its closes_at). */
+export const CLOSES_AFTER_OPENS_RULE = 'must be after the opening time (opened_at)';
+
+/** The window must close after it opens (checked when both are given; as text or as epoch ms). */
+export function closesAfterOpening(q: { opened_at?: string | number; closes_at: string | number }): boolean {
+  return q.opened_at === undefined || instantValue(q.closes_at) > instantValue(q.opened_at);
+}
+
+/** `closesAfterOpening` as arguments for a schema's refine (zod rewrites the options object, so read the rule above). */
+export const closesAfterOpens: [typeof closesAfterOpening, { message: string; path: PropertyKey[] }] = [
+  closesAfterOpening,
+  { message: CLOSES_AFTER_OPENS_RULE, path: ['closes_at'] },
 ];
 
 /** A filter's range must not end before it starts (checked when both ends are given and readable). */

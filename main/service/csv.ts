@@ -1,16 +1,20 @@
 /**
  * The whole diary as CSV, one row per revision (docs/csv-format.md), for people who keep
  * their numbers in a spreadsheet. CSV is a second spelling of the diary file (JSON v1,
- * INTERFACES.md §1): export starts from the JSON export object and import ends in one, so
- * the JSON schema stays the single home of every field rule. Import is all-or-nothing and
- * every error names the CSV row (the header is row 1, as a spreadsheet numbers them) and
- * the column, because a record index means nothing to someone looking at a spreadsheet.
+ * INTERFACES.md §1): export writes the JSON export's fields, and import checks every cell
+ * with the JSON schema's own rules, so the schema stays the single home of every field
+ * rule. Import is all-or-nothing and every error names the CSV row (the header is row 1,
+ * as a spreadsheet numbers them) and the column, because a record index means nothing to
+ * someone looking at a spreadsheet.
+ *
+ * Both directions stream: export writes a batch of questions at a time, import reads a row
+ * at a time and hands each question over at its first row, with the rows that follow as
+ * additions to it, so neither holds the file or the diary in memory.
  */
-import { parse, CsvError as CsvSyntaxError } from 'csv-parse/sync';
-import { stringify } from 'csv-stringify/sync';
 import type { z } from 'zod';
-import { DIARY_FORMAT, DIARY_VERSION, DiaryFileError, fileQuestion, parseDiaryFile, type FileQuestion } from '../../shared/diary-file';
+import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
 import * as v from '../../shared/validation';
+import { CsvSyntaxError, readCsvRecords } from '../files/csv-records';
 
 /** The columns, in the order export writes them. */
 export const CSV_COLUMNS = [
@@ -53,13 +57,6 @@ export class CsvError extends Error {
   }
 }
 
-/** The JSON v1 diary file that `csvToDiary` produces (no settings: CSV does not carry them). */
-export interface CsvDiaryFile {
-  format: typeof DIARY_FORMAT;
-  version: typeof DIARY_VERSION;
-  questions: Record<string, unknown>[];
-}
-
 // The same rules the JSON import applies, taken from its schema so the two cannot drift apart.
 const Q = fileQuestion.shape;
 const F = Q.forecasts.element.shape;
@@ -67,27 +64,71 @@ const REF = Q.references.unwrap().element.shape;
 const RES = Q.resolution.unwrap().unwrap().shape;
 const COST = v.costs.shape;
 
+/** The columns that describe a revision or a reference forecast, not the question. */
+const POINT_COLUMNS = ['forecast_at', 'p', 'note', 'lenses', 'reference_at', 'reference_p', 'reference_source'] as const satisfies readonly CsvColumn[];
+type PointColumn = (typeof POINT_COLUMNS)[number];
+type QuestionColumn = Exclude<CsvColumn, PointColumn>;
+
+const isPointColumn = (c: CsvColumn): c is PointColumn => (POINT_COLUMNS as readonly CsvColumn[]).includes(c);
+
+/** The columns a question's rows must agree on: every other one, in export order. */
+const QUESTION_COLUMNS: readonly QuestionColumn[] = CSV_COLUMNS.filter((c): c is QuestionColumn => !isPointColumn(c));
+
 // ---------------------------------------------------------------------------------------
 // Export
 
-type Cells = Partial<Record<CsvColumn, string>>;
+/** The header row, as export writes it. */
+export const CSV_HEADER = `${CSV_COLUMNS.join(',')}\r\n`;
 
-/** The columns describing the question itself, repeated on each of its rows. */
-function questionCells(q: FileQuestion): Cells {
+/**
+ * A field as RFC 4180 §2 rules 6 and 7 write it: enclosed in double quotes when it holds a
+ * comma, a double quote, CR or LF (a bare CR or LF too, so a note's line break never splits
+ * the row), with each double quote inside doubled.
+ */
+function csvField(text: string): string {
+  return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
+}
+
+/** A revision's cells, in the order questionRows writes them. */
+const FORECAST_COLUMNS = ['forecast_at', 'p', 'note', 'lenses'] as const satisfies readonly PointColumn[];
+const REFERENCE_COLUMNS = ['reference_at', 'reference_p', 'reference_source'] as const satisfies readonly PointColumn[];
+
+/**
+ * A row as the text around a run of neighbouring point columns: the question's cells (and
+ * empty point cells) before the run, and after it. Rows are written by the million, so the
+ * surrounding text is made once per question and each row only adds its own cells.
+ */
+function around(columns: readonly PointColumn[]): (cells: Record<QuestionColumn, string>) => { before: string; after: string } {
+  const first = CSV_COLUMNS.indexOf(columns[0]!);
+  if (columns.some((c, i) => CSV_COLUMNS[first + i] !== c)) throw new Error(`the CSV columns ${columns.join(', ')} must stand together`);
+  const cell = (cells: Record<QuestionColumn, string>, c: CsvColumn) => (isPointColumn(c) ? '' : csvField(cells[c]));
+  const before = CSV_COLUMNS.slice(0, first);
+  const after = CSV_COLUMNS.slice(first + columns.length);
+  return (cells) => ({
+    before: before.map((c) => `${cell(cells, c)},`).join(''),
+    after: after.map((c) => `,${cell(cells, c)}`).join(''),
+  });
+}
+
+const aroundForecast = around(FORECAST_COLUMNS);
+const aroundReference = around(REFERENCE_COLUMNS);
+
+/** The question's own cells, repeated on each of its rows (as the JSON export writes the fields). */
+function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
   return {
-    question_id: q.id ?? '',
+    question_id: q.id,
     title: q.title,
-    rule: q.rule ?? '',
-    kind: q.kind ?? '',
-    tags: (q.tags ?? []).join(' '),
-    opened_at: q.opened_at ?? '',
+    rule: q.rule,
+    kind: q.kind,
+    tags: q.tags.join(' '),
+    opened_at: q.opened_at,
     closes_at: q.closes_at,
-    time_zone: q.time_zone ?? '',
-    base_rate: q.base_rate == null ? '' : String(q.base_rate),
-    base_rate_note: q.base_rate_note ?? '',
+    time_zone: q.time_zone,
+    base_rate: q.base_rate === null ? '' : String(q.base_rate),
+    base_rate_note: q.base_rate_note,
     false_alarm_cost: q.costs ? String(q.costs.false_alarm) : '',
     miss_cost: q.costs ? String(q.costs.miss) : '',
-    checkin_days: q.checkin_days == null ? '' : String(q.checkin_days),
+    checkin_days: q.checkin_days === null ? '' : String(q.checkin_days),
     outcome: q.resolution?.outcome ?? '',
     resolved_at: q.resolution?.at ?? '',
     resolution_note: q.resolution?.note ?? '',
@@ -95,33 +136,43 @@ function questionCells(q: FileQuestion): Cells {
 }
 
 /**
- * Writes a diary file object (what `exportDiary` returns) as CSV text: a header row, then
- * per question one row per revision, then one row per reference forecast, or a single row
- * when it has neither. Numbers keep full precision (`String(number)` reads back to the
- * same double); lines end in CRLF and fields holding a comma, a double quote, CR or LF
- * are quoted, as RFC 4180 §2 prescribes.
+ * One question's rows: one per revision, then one per reference forecast, or one row when
+ * it has neither. Times and numbers never need quoting; text does (csvField).
  */
-export function diaryToCsv(diary: Record<string, unknown>): string {
-  const { questions } = parseDiaryFile(diary);
-  const rows: string[][] = [[...CSV_COLUMNS]];
-  for (const q of questions) {
-    const base = questionCells(q);
-    const lines: Cells[] = [
-      ...q.forecasts.map((f) => ({
-        ...base,
-        forecast_at: f.at,
-        p: String(f.p),
-        note: f.note ?? '',
-        lenses: f.lenses?.length ? JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight }))) : '',
-      })),
-      ...(q.references ?? []).map((r) => ({ ...base, reference_at: r.at, reference_p: String(r.p), reference_source: r.source })),
-    ];
-    if (lines.length === 0) lines.push(base);
-    for (const cells of lines) rows.push(CSV_COLUMNS.map((c) => cells[c] ?? ''));
+function questionRows(q: ExportedQuestion): string {
+  const cells = questionCells(q);
+  let out = '';
+  if (q.forecasts.length) {
+    const { before, after } = aroundForecast(cells);
+    for (const f of q.forecasts) {
+      const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
+      out += `${before}${f.at},${String(f.p)},${csvField(f.note)},${lenses}${after}\r\n`;
+    }
   }
-  // csv-stringify quotes a lone CR or LF only when told to: it looks for the whole record
-  // delimiter (CRLF), and a note's bare LF would otherwise split the row.
-  return stringify(rows, { record_delimiter: 'windows', quoted_match: /[\r\n]/ });
+  if (q.references.length) {
+    const { before, after } = aroundReference(cells);
+    for (const r of q.references) out += `${before}${r.at},${String(r.p)},${csvField(r.source)}${after}\r\n`;
+  }
+  if (out === '') {
+    const { before, after } = aroundForecast(cells);
+    out = `${before}${','.repeat(FORECAST_COLUMNS.length - 1)}${after}\r\n`;
+  }
+  return out;
+}
+
+/**
+ * The diary as CSV text, one piece per batch of questions: the header row, then per
+ * question one row per revision, then one row per reference forecast, or a single row when
+ * it has neither. Numbers keep full precision (`String(number)` reads back to the same
+ * double); every line ends in CRLF (RFC 4180 §2 rule 1).
+ */
+export function* diaryCsvText(batches: Iterable<ExportedQuestion[]>): Generator<string> {
+  yield CSV_HEADER;
+  for (const batch of batches) {
+    // Joined once, flat: a string grown row by row would be copied again to be written.
+    const text = batch.map(questionRows).join('');
+    if (text) yield text;
+  }
 }
 
 // ---------------------------------------------------------------------------------------
@@ -150,26 +201,6 @@ function numberCell(text: string, row: number, column: string): number {
     throw nothingImported(row, column, `"${t}" is not a number; write it with a decimal point and nothing else, e.g. 0.35`);
   }
   return Number(t);
-}
-
-/** Reads the text into records, turning csv-parse's syntax errors into ones that say what to fix. */
-function readRecords(text: string): string[][] {
-  try {
-    // No skip_empty_lines: an empty line is a row a spreadsheet numbers too, so keeping it
-    // keeps row numbers right; empty rows are dropped later. Uneven rows are let through so
-    // the field-count error can name the row.
-    return parse(text, { bom: true, relax_column_count: true, record_delimiter: ['\r\n', '\n', '\r'] });
-  } catch (err) {
-    if (!(err instanceof CsvSyntaxError)) throw err;
-    // Syntax errors carry the line where parsing stopped and the count of complete records.
-    const line = Number(err.lines);
-    const row = Number(err.records) + 1;
-    const message =
-      err.code === 'CSV_QUOTE_NOT_CLOSED'
-        ? `The file is not valid CSV: a quoted field in row ${row} is never closed (the file ends at line ${line} still inside the quotes). Add the missing closing double quote and import it again. Nothing was imported.`
-        : `The file is not valid CSV at row ${row}, line ${line}: ${err.message}. A field holding commas, double quotes or line breaks must be enclosed in double quotes, with each double quote inside it doubled (""); correct it and import again. Nothing was imported.`;
-    throw new CsvError(message, row, null);
-  }
 }
 
 /** Maps the header's names to positions: every name must be a documented column, once. */
@@ -203,25 +234,13 @@ function readHeader(header: string[] | undefined): Map<CsvColumn, number> {
   return positions;
 }
 
-/** The columns that describe a revision or a reference forecast, not the question. */
-const POINT_COLUMNS = ['forecast_at', 'p', 'note', 'lenses', 'reference_at', 'reference_p', 'reference_source'] as const satisfies readonly CsvColumn[];
-type QuestionColumn = Exclude<CsvColumn, (typeof POINT_COLUMNS)[number]>;
+type Cell = (c: CsvColumn) => string;
 
-/** The columns a question's rows must agree on: every other one, in export order. */
-const QUESTION_COLUMNS: readonly QuestionColumn[] = CSV_COLUMNS.filter(
-  (c): c is QuestionColumn => !(POINT_COLUMNS as readonly CsvColumn[]).includes(c),
-);
-
-
-interface CsvRow {
-  row: number;
-  /** Each question column's value as read (undefined when empty), compared across a question's rows. */
-  question: Record<QuestionColumn, unknown>;
-  forecast: { at: string; p: number; note: string; lenses?: unknown[] } | null;
-  reference: { at: string; p: number; source: string } | null;
-}
-
-function readRow(cell: (c: CsvColumn) => string, row: number): CsvRow {
+/**
+ * The question's columns on one row, checked with the diary file's rules: each value as
+ * read (times in epoch ms, numbers as numbers), undefined when the cell is empty.
+ */
+function readQuestionCells(cell: Cell, row: number): Record<QuestionColumn, unknown> {
   const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
   const text = (c: CsvColumn, schema: z.ZodType<unknown>): unknown => check(schema, cell(c), row, c);
   const optional = (c: CsvColumn, schema: z.ZodType<unknown>, read: (t: string) => unknown = (t) => t) => {
@@ -260,13 +279,18 @@ function readRow(cell: (c: CsvColumn) => string, row: number): CsvRow {
   } else if (question.resolved_at === undefined) {
     throw nothingImported(row, 'resolved_at', 'is empty, but outcome is set; give the time the question was resolved');
   }
+  return question;
+}
 
+/** The revision or the reference forecast a row holds (or neither). */
+function readPoint(cell: Cell, row: number): { forecast: FileForecast | null; reference: FileReference | null } {
+  const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
   const forecastGiven = trimmed('forecast_at') !== undefined || trimmed('p') !== undefined;
   const referenceGiven = trimmed('reference_at') !== undefined || trimmed('reference_p') !== undefined || trimmed('reference_source') !== undefined;
   if (forecastGiven && referenceGiven) {
     throw nothingImported(row, 'reference_at', 'a row holds either a revision (forecast_at, p) or a reference forecast (reference_at, reference_p, reference_source), not both; put the reference forecast on a row of its own');
   }
-  let forecast: CsvRow['forecast'] = null;
+  let forecast: FileForecast | null = null;
   if (forecastGiven) {
     for (const c of ['forecast_at', 'p'] as const) {
       if (trimmed(c) === undefined) throw nothingImported(row, c, 'is empty, but a revision needs both its time (forecast_at) and its probability (p)');
@@ -292,7 +316,7 @@ function readRow(cell: (c: CsvColumn) => string, row: number): CsvRow {
       if (cell(c) !== '') throw nothingImported(row, c, 'belongs to a revision, but forecast_at and p are empty on this row; fill them in or clear this cell');
     }
   }
-  let reference: CsvRow['reference'] = null;
+  let reference: FileReference | null = null;
   if (referenceGiven) {
     for (const c of ['reference_at', 'reference_p', 'reference_source'] as const) {
       if (trimmed(c) === undefined) throw nothingImported(row, c, 'is empty, but a reference forecast needs its time, probability and source');
@@ -303,88 +327,137 @@ function readRow(cell: (c: CsvColumn) => string, row: number): CsvRow {
       source: check(REF.source, cell('reference_source'), row, 'reference_source'),
     };
   }
-  return { row, question, forecast, reference };
+  return { forecast, reference };
 }
 
-/** One question's rows gathered into a JSON v1 question record. */
-function toRecord(rows: CsvRow[]): Record<string, unknown> {
-  const q = rows[0]!.question;
-  const record: Record<string, unknown> = {
-    title: q.title,
-    rule: q.rule,
-    tags: q.tags,
-    closes_at: q.closes_at,
-    forecasts: rows.flatMap((r) => (r.forecast ? [r.forecast] : [])),
-    references: rows.flatMap((r) => (r.reference ? [r.reference] : [])),
-    resolution: q.outcome === undefined ? null : { outcome: q.outcome, at: q.resolved_at, note: q.resolution_note },
+/** A question record from its first row's question columns and the revision or reference forecast on that row. */
+function toRecord(q: Record<QuestionColumn, unknown>, point: ReturnType<typeof readPoint>): FileQuestion {
+  const record: FileQuestion = {
+    title: q.title as string,
+    rule: q.rule as string,
+    tags: q.tags as string[],
+    closes_at: q.closes_at as number,
+    forecasts: point.forecast ? [point.forecast] : [],
+    references: point.reference ? [point.reference] : [],
+    resolution: q.outcome === undefined ? null : { outcome: q.outcome as string, at: q.resolved_at as number, note: q.resolution_note as string },
   };
-  if (q.question_id !== undefined) record.id = q.question_id;
-  for (const key of ['kind', 'opened_at', 'time_zone', 'base_rate', 'base_rate_note', 'checkin_days'] as const) {
-    if (q[key] !== undefined) record[key] = q[key];
-  }
-  if (q.false_alarm_cost !== undefined) record.costs = { false_alarm: q.false_alarm_cost, miss: q.miss_cost };
+  if (q.question_id !== undefined) record.id = q.question_id as string;
+  if (q.kind !== undefined) record.kind = q.kind as FileQuestion['kind'];
+  if (q.opened_at !== undefined) record.opened_at = q.opened_at as number;
+  if (q.time_zone !== undefined) record.time_zone = q.time_zone as string;
+  if (q.base_rate !== undefined) record.base_rate = q.base_rate as number;
+  if (q.base_rate_note !== undefined) record.base_rate_note = q.base_rate_note as string;
+  if (q.checkin_days !== undefined) record.checkin_days = q.checkin_days as number;
+  if (q.false_alarm_cost !== undefined) record.costs = { false_alarm: q.false_alarm_cost as number, miss: q.miss_cost as number };
   return record;
 }
 
 /**
- * Reads CSV text (as `diaryToCsv` writes it, or as a spreadsheet saves it) into a diary
- * file object (JSON v1, without settings) for the normal import. Columns are matched by
- * name in any order; rows with the same question_id (or, without one, the same title)
- * form one question and must agree on its columns. Accepts a UTF-8 byte order mark, CRLF
- * or LF line ends and line breaks inside quoted fields; blank rows are skipped.
- * Throws CsvError naming the row and column of the first problem.
+ * What `readCsvDiary` yields: a question at its first row (with that row's revision or
+ * reference forecast), then each later row of it as an addition. `index` numbers the
+ * questions in the order of their first rows.
  */
-export function csvToDiary(text: string): CsvDiaryFile {
-  const records = readRecords(text);
-  const positions = readHeader(records[0]);
-  const width = records[0]!.length;
+export type CsvItem =
+  | { kind: 'question'; index: number; row: number; question: FileQuestion }
+  | { kind: 'addition'; index: number; row: number; forecast: FileForecast | null; reference: FileReference | null };
 
-  const groups = new Map<string, CsvRow[]>();
-  records.forEach((cells, index) => {
-    const row = index + 1;
-    if (index === 0 || cells.every((c) => c.trim() === '')) return;
-    if (cells.length !== width) {
-      throw new CsvError(
-        `Row ${row} has ${cells.length} fields but the header names ${width} columns; check for a missing or extra comma, or an unquoted comma inside a field. Nothing was imported.`,
-        row,
-        null,
-      );
-    }
-    const read = readRow((c) => {
-      const at = positions.get(c);
-      return at === undefined ? '' : cells[at]!;
-    }, row);
-    const key = read.question.question_id !== undefined ? `id\u0000${String(read.question.question_id)}` : `title\u0000${String(read.question.title)}`;
-    const group = groups.get(key);
-    if (!group) {
-      groups.set(key, [read]);
-      return;
-    }
-    const first = group[0]!;
-    for (const c of QUESTION_COLUMNS) {
-      if (JSON.stringify(read.question[c]) !== JSON.stringify(first.question[c])) {
-        const which = first.question.question_id !== undefined ? `question_id "${String(first.question.question_id)}"` : `title "${String(first.question.title)}"`;
-        throw nothingImported(
+/**
+ * A row's question cells as written, in one new string (so no chunk of the file stays in
+ * memory), each prefixed with its length so no text inside a cell can make two different
+ * rows look alike.
+ */
+function joinCells(cells: readonly string[]): string {
+  return cells.map((c) => `${c.length}:${c}`).join('');
+}
+
+function splitCells(joined: string): string[] {
+  const cells: string[] = [];
+  for (let at = 0; at < joined.length; ) {
+    const colon = joined.indexOf(':', at);
+    const end = colon + 1 + Number(joined.slice(at, colon));
+    cells.push(joined.slice(colon + 1, end));
+    at = end;
+  }
+  return cells;
+}
+
+interface Group {
+  index: number;
+  row: number;
+  /** The first row's question cells as written (joinCells). */
+  raw: string;
+}
+
+/**
+ * Reads CSV text (as export writes it, or as a spreadsheet saves it) as it arrives, chunk
+ * by chunk. Columns are matched by name in any order; rows with the same question_id (or,
+ * without one, the same title) form one question, wherever they are in the file, and must
+ * agree on its columns. Accepts CRLF, LF or CR line ends and line breaks inside quoted
+ * fields; blank rows are skipped. Throws CsvError naming the row and column of the first
+ * problem (or CsvError with the row and line, when the text is not CSV at all).
+ */
+export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
+  let positions: Map<CsvColumn, number> | null = null;
+  let width = 0;
+  const groups = new Map<string, Group>();
+  try {
+    for (const { fields, row } of readCsvRecords(chunks)) {
+      if (positions === null) {
+        positions = readHeader(fields);
+        width = fields.length;
+        continue;
+      }
+      if (fields.every((c) => c.trim() === '')) continue;
+      if (fields.length !== width) {
+        throw new CsvError(
+          `Row ${row} has ${fields.length} fields but the header names ${width} columns; check for a missing or extra comma, or an unquoted comma inside a field. Nothing was imported.`,
           row,
-          c,
-          `differs from row ${first.row}, which belongs to the same question (${which}); a question's columns must hold the same value on each of its rows`,
+          null,
         );
       }
+      const at = positions;
+      const cell: Cell = (c) => {
+        const i = at.get(c);
+        return i === undefined ? '' : fields[i]!;
+      };
+      const raw = joinCells(QUESTION_COLUMNS.map(cell));
+      const id = cell('question_id');
+      // Joined rather than concatenated: a new string, so the map does not keep a chunk of the file alive.
+      const key = id.trim() !== '' ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000');
+      const group = groups.get(key);
+      if (!group) {
+        const question = readQuestionCells(cell, row);
+        const record = toRecord(question, readPoint(cell, row));
+        // The rule spanning the question's fields, at its first row (the file schema's own).
+        if (!v.closesAfterOpening(record)) throw nothingImported(row, 'closes_at', v.CLOSES_AFTER_OPENS_RULE);
+        const index = groups.size;
+        groups.set(key, { index, row, raw });
+        yield { kind: 'question', index, row, question: record };
+        continue;
+      }
+      // Rows repeating the first row's cells exactly need no second reading.
+      if (raw !== group.raw) agree(group, readQuestionCells(cell, row), row);
+      yield { kind: 'addition', index: group.index, row, ...readPoint(cell, row) };
     }
-    group.push(read);
-  });
-
-  const grouped = [...groups.values()];
-  const diary: CsvDiaryFile = { format: DIARY_FORMAT, version: DIARY_VERSION, questions: grouped.map(toRecord) };
-  // Rules that span a question's fields (the close after the opening) live in the file
-  // schema; a problem there is reported at the question's first row.
-  try {
-    parseDiaryFile(diary);
   } catch (err) {
-    if (!(err instanceof DiaryFileError) || err.record === null) throw err;
-    const row = grouped[err.record]![0]!.row;
-    const reason = err.message.replace(`Question record ${err.record} is not valid: field ${err.field}: `, '');
-    throw new CsvError(`Row ${row}, column ${err.field}: ${reason}`, row, err.field);
+    if (err instanceof CsvSyntaxError) throw new CsvError(`${err.message} Nothing was imported.`, err.row, null);
+    throw err;
   }
-  return diary;
+  if (positions === null) readHeader(undefined);
+}
+
+/** A later row of a question must hold the same values as its first row (compared as read: 0.30 and .3 agree). */
+function agree(group: Group, values: Record<QuestionColumn, unknown>, row: number): void {
+  const cells = splitCells(group.raw);
+  const first = readQuestionCells((c) => cells[QUESTION_COLUMNS.indexOf(c as QuestionColumn)] ?? '', group.row);
+  for (const c of QUESTION_COLUMNS) {
+    if (JSON.stringify(values[c]) !== JSON.stringify(first[c])) {
+      const which = first.question_id !== undefined ? `question_id "${String(first.question_id)}"` : `title "${String(first.title)}"`;
+      throw nothingImported(
+        row,
+        c,
+        `differs from row ${group.row}, which belongs to the same question (${which}); a question's columns must hold the same value on each of its rows`,
+      );
+    }
+  }
 }

@@ -7,8 +7,7 @@ import { randomUUID } from 'node:crypto';
 import type { ExportedText, Handlers, QuestionList, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
-import { extent } from '../../shared/extent';
-import { parseDiaryFile, toDiaryFile, DiaryFileError, type FileQuestion } from '../../shared/diary-file';
+import { diaryFileText, diaryItems, readDiaryText, toDiaryFile, DiaryFileError, type DiaryItem, type FileQuestion, type FileSettings } from '../../shared/diary-file';
 import {
   questionStatus,
   type Lens,
@@ -20,14 +19,18 @@ import {
 } from '../../shared/domain';
 import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
-import { jsonTextNestedDeeperThan, NESTING_RULE } from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
 import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
 import { confidentCalls, referenceLeads } from './hindsight';
 import { toICalendar } from './calendar';
-import { CsvError, csvToDiary, diaryToCsv } from './csv';
+import { TextDecodingError } from '../../shared/text-decoding';
+import { writeFileAtomic } from '../files/atomic-write';
+import { readTextFile } from '../files/read-text';
+import { CsvError, diaryCsvText, readCsvDiary, type CsvItem } from './csv';
+import { exportBatches } from './export-batches';
+import { orderedId } from './ordered-ids';
 import { dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
 import { loadScoringQuestions } from './scoring-source';
@@ -52,6 +55,36 @@ function invalid(field: string, reason: string): ApiError {
 
 type ExportFormat = (typeof EXPORT_FORMATS)[number];
 type ImportFormat = (typeof IMPORT_FORMATS)[number];
+
+/** What an import reads, in file order: from a JSON diary file (or object) or from CSV. */
+type ImportItem = DiaryItem | CsvItem;
+
+/** Questions per batch when an export reads the diary: a few megabytes of text at a time. */
+const EXPORT_BATCH = 500;
+
+/** SQLite's page cache during an import, in KiB: enough for the indexes' working pages. */
+const IMPORT_CACHE_KIB = 64 * 1024;
+
+/** Without an opening time, a question opens at its first revision (or now), and always before its close. */
+function defaultOpenedAt(firstAt: number | null, stamp: number, closes: number): number {
+  return Math.min(firstAt ?? stamp, closes - 1);
+}
+
+/** An id from a file, copied: a slice of a chunk of text would keep the whole chunk in memory. */
+const detached = (id: string): string => (' ' + id).slice(1);
+
+/** A reader's refusal as the API error the user sees; anything else (a file that cannot be read) passes through. */
+function asImportError(err: unknown): unknown {
+  if (err instanceof DiaryFileError) return new ApiError('invalid', err.message, err.field ? [`${err.field}: ${err.message}`] : []);
+  if (err instanceof CsvError) return new ApiError('invalid', err.message, err.column ? [`${err.column}: ${err.message}`] : []);
+  if (err instanceof TextDecodingError) return new ApiError('invalid', `${err.message} Nothing was imported.`);
+  return err;
+}
+
+/** better-sqlite3's error for a row whose primary key is taken: here, a question id already in the diary. */
+function isTakenQuestionId(err: unknown): boolean {
+  return (err as { code?: string }).code === 'SQLITE_CONSTRAINT_PRIMARYKEY' && /\bquestions\.id\b/.test((err as Error).message);
+}
 
 export function createDiary(ctx: DiaryContext) {
   const { store, now } = ctx;
@@ -95,9 +128,10 @@ export function createDiary(ctx: DiaryContext) {
   /** Inserts one question with its history; the caller holds the transaction. */
   function insertWhole(q: FileQuestion, s: Settings, stamp: number): string {
     const id = q.id ?? randomUUID();
-    const firstAt = q.forecasts.length ? extent(q.forecasts.map((f) => ms(f.at))).min : null;
-    const closes = ms(q.closes_at);
-    const opened = q.opened_at !== undefined ? ms(q.opened_at) : Math.min(firstAt ?? stamp, closes - 1);
+    let firstAt: number | null = null;
+    for (const f of q.forecasts) if (firstAt === null || f.at < firstAt) firstAt = f.at;
+    const closes = q.closes_at;
+    const opened = q.opened_at ?? defaultOpenedAt(firstAt, stamp, closes);
     if (closes <= opened) throw invalid('closes_at', 'must be after the opening time (opened_at)');
     qs.insertQuestion(
       write,
@@ -121,22 +155,22 @@ export function createDiary(ctx: DiaryContext) {
     );
     for (const f of q.forecasts) {
       qs.insertForecast(write, {
-        id: randomUUID(),
+        id: orderedId(),
         question_id: id,
-        at: ms(f.at),
+        at: f.at,
         p: f.p,
         note: f.note ?? '',
         lenses: (f.lenses ?? []) as Lens[],
       });
     }
     for (const r of q.references ?? []) {
-      qs.insertReference(write, { id: randomUUID(), question_id: id, at: ms(r.at), p: r.p, source: r.source });
+      qs.insertReference(write, { id: orderedId(), question_id: id, at: r.at, p: r.p, source: r.source });
     }
     if (q.resolution) {
       qs.upsertResolution(write, {
         question_id: id,
         outcome: q.resolution.outcome as Outcome,
-        at: ms(q.resolution.at),
+        at: q.resolution.at,
         note: q.resolution.note ?? '',
         recorded_at: stamp,
       });
@@ -215,52 +249,144 @@ export function createDiary(ctx: DiaryContext) {
     return { questions, tags: qs.allTagCounts(read), total: qs.questionCount(read) };
   }
 
-  function importParsed(raw: unknown): { added: number } {
-    let parsed;
-    try {
-      parsed = parseDiaryFile(raw);
-    } catch (err) {
-      if (err instanceof DiaryFileError) throw new ApiError('invalid', err.message, err.field ? [`${err.field}: ${err.message}`] : []);
-      throw err;
+  /** The file's settings, written into an empty diary (the caller holds the transaction). */
+  function adoptSettings(file: FileSettings): void {
+    const { default_false_alarm_cost, default_miss_cost, default_checkin_days, closing_soon_hours, overdue_after_days, time_zone, quiet_hours } = file;
+    writeSettings(write, {
+      default_false_alarm_cost,
+      default_miss_cost,
+      default_checkin_days,
+      closing_soon_hours,
+      overdue_after_days,
+      time_zone,
+      quiet_hours: quiet_hours === undefined ? undefined : quiet_hours,
+    } as Partial<Settings>);
+  }
+
+  /** The place of a record in its file, as its error messages name it. */
+  function recordError(item: { index: number; row?: number }, code: ApiError['code'], column: string, reason: string): ApiError {
+    if (item.row !== undefined) {
+      return new ApiError(code, `Row ${item.row}, column ${column}: ${reason}. Nothing was imported.`, [`${column}: ${reason}`]);
     }
+    return new ApiError(code, `Question record ${item.index} is not valid: field ${column}: ${reason}. Nothing was imported.`, [`questions[${item.index}].${column}: ${reason}`]);
+  }
+
+  /**
+   * Adds what a file holds, read as it streams, inside ONE immediate write transaction: the
+   * first bad record rolls back everything, so the diary is left exactly as it was. Each
+   * record costs the same however large the diary: no query per record grows with it (an
+   * id already in the diary is found by the insert's own primary-key check).
+   */
+  function importItems(items: Iterable<ImportItem>): { added: number } {
     const stamp = now();
-    transact(() => {
-      const empty = qs.questionCount(write) === 0;
+    let added = 0;
+    const run = () => transact(() => {
       // The file's settings come along only into an empty diary: importing a colleague's
       // file into a working diary must not change its defaults.
-      if (empty && parsed.settings) {
-        const { default_false_alarm_cost, default_miss_cost, default_checkin_days, closing_soon_hours, overdue_after_days, time_zone, quiet_hours } =
-          parsed.settings;
-        writeSettings(write, {
-          default_false_alarm_cost,
-          default_miss_cost,
-          default_checkin_days,
-          closing_soon_hours,
-          overdue_after_days,
-          time_zone,
-          quiet_hours: quiet_hours === undefined ? undefined : quiet_hours,
-        } as Partial<Settings>);
-      }
-      const s = readSettings(write, ctx.systemTimeZone);
-      parsed.questions.forEach((q, index) => {
-        if (q.id !== undefined && qs.questionRow(write, q.id)) {
-          throw new ApiError(
-            'conflict',
-            `Question record ${index} is not valid: field id: "${q.id}" is already in this diary (was this file imported before?). Nothing was imported.`,
-            [`questions[${index}].id: already in this diary`],
-          );
-        }
-        try {
-          insertWhole(q, s, stamp);
-        } catch (err) {
-          if (err instanceof ApiError) {
-            throw new ApiError(err.code, `Question record ${index} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
+      const empty = qs.questionCount(write) === 0;
+      let s = readSettings(write, ctx.systemTimeZone);
+      let settingsRead = false;
+      // Questions that took the diary's zone before the file's settings (which may come after
+      // the questions) named another one.
+      const zoneDefaulted: string[] = [];
+      // CSV only: each question's id and what its default opening time depends on, by index.
+      const csvQuestions: { id: string; closes: number; firstAt: number | null; openedGiven: boolean }[] = [];
+      const setOpenedAt = write.prepare('UPDATE questions SET opened_at = ? WHERE id = ?');
+      for (const item of items) {
+        if (item.kind === 'settings') {
+          settingsRead = true;
+          if (!empty) continue;
+          adoptSettings(item.settings);
+          s = readSettings(write, ctx.systemTimeZone);
+          if (zoneDefaulted.length) {
+            write.prepare('UPDATE questions SET time_zone = ? WHERE id IN (SELECT value FROM json_each(?))').run(s.time_zone, JSON.stringify(zoneDefaulted));
           }
-          throw err;
+        } else if (item.kind === 'question') {
+          const q = item.question;
+          let id: string;
+          try {
+            id = insertWhole(q, s, stamp);
+          } catch (err) {
+            if (isTakenQuestionId(err)) {
+              throw recordError(item, 'conflict', 'row' in item ? 'question_id' : 'id', `"${q.id}" is already in this diary (was this file imported before?)`);
+            }
+            if (err instanceof ApiError) {
+              throw new ApiError(err.code, `Question record ${item.index} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
+            }
+            throw err;
+          }
+          added++;
+          if (empty && !settingsRead && q.time_zone === undefined) zoneDefaulted.push(detached(id));
+          if ('row' in item) {
+            const firstAt = q.forecasts[0]?.at ?? null;
+            csvQuestions[item.index] = { id: detached(id), closes: q.closes_at, firstAt, openedGiven: q.opened_at !== undefined };
+          }
+        } else {
+          // A later CSV row of a question already inserted: its revision or reference forecast.
+          const target = csvQuestions[item.index]!;
+          if (item.forecast) {
+            const f = item.forecast;
+            qs.insertForecast(write, { id: orderedId(), question_id: target.id, at: f.at, p: f.p, note: f.note ?? '', lenses: (f.lenses ?? []) as Lens[] });
+            if (!target.openedGiven && (target.firstAt === null || f.at < target.firstAt)) {
+              target.firstAt = f.at;
+              setOpenedAt.run(defaultOpenedAt(f.at, stamp, target.closes), target.id);
+            }
+          }
+          if (item.reference) {
+            const r = item.reference;
+            qs.insertReference(write, { id: orderedId(), question_id: target.id, at: r.at, p: r.p, source: r.source });
+          }
         }
-      });
+      }
     });
-    return { added: parsed.questions.length };
+    const cache = write.pragma('cache_size', { simple: true }) as number;
+    write.pragma(`cache_size = ${-IMPORT_CACHE_KIB}`);
+    try {
+      run();
+    } catch (err) {
+      throw asImportError(err);
+    } finally {
+      write.pragma(`cache_size = ${cache}`);
+    }
+    return { added };
+  }
+
+  /** A diary file already in memory (the API's importDiary, the example diary). */
+  function importParsed(raw: unknown): { added: number } {
+    return importItems(diaryItems(raw));
+  }
+
+  function readerFor(format: ImportFormat, chunks: Iterable<string>): Iterable<ImportItem> {
+    return format === 'csv' ? readCsvDiary(chunks) : readDiaryText(chunks);
+  }
+
+  /**
+   * Imports a file from disk, streaming: any size, in the memory of one record. The
+   * command line and the desktop app's File menu come this way.
+   */
+  function importFile(file: string, format: ImportFormat): { added: number } {
+    return importItems(readerFor(format, readTextFile(file)));
+  }
+
+  /**
+   * The export's text, piece by piece, read in one snapshot of the diary: a read
+   * transaction is open from the first piece to the last, so a change committed meanwhile
+   * (by another connection or process) is either wholly in the file or not at all. Private,
+   * and consumed synchronously (by exportTo and writeFileAtomic): nothing else may use the
+   * read handle while the snapshot is open.
+   */
+  function* exportPieces(format: ExportFormat): Generator<string> {
+    if (format === 'ics') {
+      yield toICalendar(unresolvedQuestions(store), { now: now(), alarmHours: settings().closing_soon_hours });
+      return;
+    }
+    read.exec('BEGIN');
+    try {
+      const batches = exportBatches(read, EXPORT_BATCH);
+      yield* format === 'csv' ? diaryCsvText(batches) : diaryFileText(settings(), batches);
+    } finally {
+      read.exec('COMMIT');
+    }
   }
 
   function exportDiary(): Record<string, unknown> {
@@ -292,37 +418,34 @@ export function createDiary(ctx: DiaryContext) {
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
   }
 
-  function exportText(format: ExportFormat): ExportedText {
-    const day = toIso(now()).slice(0, 10);
-    if (format === 'csv') return { text: diaryToCsv(exportDiary()), file_name: `forelog-diary-${day}.csv`, media_type: 'text/csv' };
-    if (format === 'ics') {
-      const text = toICalendar(unresolvedQuestions(store), { now: now(), alarmHours: settings().closing_soon_hours });
-      return { text, file_name: `forelog-closes-${day}.ics`, media_type: 'text/calendar' };
-    }
-    return { text: `${JSON.stringify(exportDiary(), null, 2)}\n`, file_name: `forelog-diary-${day}.json`, media_type: 'application/json' };
+  const EXPORT_FILES: Record<ExportFormat, { name: string; extension: string; media_type: string }> = {
+    json: { name: 'forelog-diary', extension: 'json', media_type: 'application/json' },
+    csv: { name: 'forelog-diary', extension: 'csv', media_type: 'text/csv' },
+    ics: { name: 'forelog-closes', extension: 'ics', media_type: 'text/calendar' },
+  };
+
+  /** Hands the export to `sink` piece by piece (a few megabytes each), synchronously, from one snapshot. */
+  function exportTo(format: ExportFormat, sink: (piece: string) => void): void {
+    for (const piece of exportPieces(format)) sink(piece);
   }
 
+  /** The export as one text, for the API (browser mode, the app's Settings): the same writer as the files. */
+  function exportText(format: ExportFormat): ExportedText {
+    const day = toIso(now()).slice(0, 10);
+    const { name, extension, media_type } = EXPORT_FILES[format];
+    const pieces: string[] = [];
+    exportTo(format, (piece) => pieces.push(piece));
+    return { text: pieces.join(''), file_name: `${name}-${day}.${extension}`, media_type };
+  }
+
+  /** Writes the export to `file`, whole or not at all (main/files/atomic-write.ts). */
+  function exportFile(file: string, format: ExportFormat): void {
+    writeFileAtomic(file, exportPieces(format));
+  }
+
+  /** A file's text from the API (already decoded by the caller; a byte order mark it kept is dropped). */
   function importText(format: ImportFormat, text: string): { added: number } {
-    if (format === 'csv') {
-      let diary: unknown;
-      try {
-        diary = csvToDiary(text);
-      } catch (err) {
-        if (err instanceof CsvError) throw new ApiError('invalid', err.message, err.column ? [`${err.column}: ${err.message}`] : []);
-        throw err;
-      }
-      return importParsed(diary);
-    }
-    if (jsonTextNestedDeeperThan(text)) {
-      throw new ApiError('invalid', `The file is nested too deeply (${NESTING_RULE}); nothing was imported. Is it a Forelog diary file?`);
-    }
-    let parsed: unknown;
-    try {
-      parsed = JSON.parse(text);
-    } catch (err) {
-      throw new ApiError('invalid', `The file is not valid JSON (${(err as Error).message}); nothing was imported. Is it a Forelog diary file?`);
-    }
-    return importParsed(parsed);
+    return importItems(readerFor(format, [text.charCodeAt(0) === 0xfeff ? text.slice(1) : text]));
   }
 
   const handlers: Handlers = {
@@ -343,14 +466,14 @@ export function createDiary(ctx: DiaryContext) {
       }
       let id = '';
       transact(() => {
+        const { first_forecast: first, ...fields } = req;
         id = insertWhole(
           {
-            ...req,
-            opened_at: toIso(opened),
-            forecasts: req.first_forecast
-              ? [{ at: req.first_forecast.at ?? toIso(Math.max(stamp, opened)), p: req.first_forecast.p, note: req.first_forecast.note, lenses: req.first_forecast.lenses }]
-              : [],
-          } as FileQuestion,
+            ...fields,
+            opened_at: opened,
+            closes_at: ms(req.closes_at),
+            forecasts: first ? [{ at: first.at !== undefined ? ms(first.at) : Math.max(stamp, opened), p: first.p, note: first.note, lenses: first.lenses }] : [],
+          },
           s,
           stamp,
         );
@@ -591,7 +714,18 @@ export function createDiary(ctx: DiaryContext) {
     },
   };
 
-  return { handlers, settings, getQuestion, exportDiary, exportText, importText, scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)) };
+  return {
+    handlers,
+    settings,
+    getQuestion,
+    exportDiary,
+    exportText,
+    exportTo,
+    exportFile,
+    importText,
+    importFile,
+    scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)),
+  };
 }
 
 export type Diary = ReturnType<typeof createDiary>;

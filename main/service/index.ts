@@ -31,9 +31,10 @@ export interface DiaryService {
   store: StoreHandles;
   location: string;
   now: () => number;
-  exportDiaryJson(): string;
-  /** Adds a diary file's text (JSON v1) through the same validated path as every import. */
-  importDiaryJson(text: string): { added: number };
+  /** Writes the diary to `file` (JSON v1, CSV or iCalendar), streamed, whole or not at all. */
+  exportDiaryFile(file: string, format: 'json' | 'csv' | 'ics'): void;
+  /** Adds a diary file (JSON v1 or CSV) from disk, streamed, all or nothing. */
+  importDiaryFile(file: string, format: 'json' | 'csv'): { added: number };
   /** The nudge scheduler over this diary, delivering through `notifier`. */
   createScheduler(notifier: Notifier, onDueCountChanged?: (count: number) => void): Scheduler;
   backupTo(file: string, onProgress?: (percent: number) => void): Promise<void>;
@@ -58,8 +59,8 @@ export function openDiary(options: OpenOptions): DiaryService {
     store,
     location: store.path,
     now,
-    exportDiaryJson: () => diary.exportText('json').text,
-    importDiaryJson: (text) => diary.importText('json', text),
+    exportDiaryFile: (file, format) => diary.exportFile(file, format),
+    importDiaryFile: (file, format) => diary.importFile(file, format),
     createScheduler: (notifier, onDueCountChanged) => createDiaryScheduler(store, now, diary.settings, notifier, onDueCountChanged),
     backupTo: (file, onProgress) => backupTo(store, file, onProgress),
     rollingBackup: (dir) => rollingBackup(store, dir, now()),

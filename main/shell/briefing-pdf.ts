@@ -4,10 +4,9 @@
  * script-less window and prints it to an A4 PDF. Everything Electron-specific comes in as
  * functions, so this runs without Electron.
  */
-import { rename, rm, writeFile } from 'node:fs/promises';
-import path from 'node:path';
 import type { Envelope } from '../../shared/bridge';
 import { ApiError, parseRequest } from '../../shared/contract';
+import { writeFileAtomic } from '../files/atomic-write';
 import { localDateStamp } from './diary-files';
 
 export interface BriefingPdfDeps {
@@ -39,15 +38,8 @@ export function briefingPdfSaver(deps: BriefingPdfDeps): (request: unknown) => P
       const file = await deps.chooseSavePath(briefingFileName(valid.tag, deps.today()));
       if (file === null) return { ok: true, value: null };
       const pdf = await deps.renderPdf(html);
-      // Through a temporary name, so a failed save never leaves half a PDF behind.
-      const partial = path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.partial`);
-      try {
-        await writeFile(partial, pdf);
-        await rename(partial, file);
-      } catch (error) {
-        await rm(partial, { force: true });
-        throw error;
-      }
+      // Whole or not at all, so a failed save never leaves half a PDF behind.
+      writeFileAtomic(file, pdf);
       return { ok: true, value: { file } };
     } catch (error) {
       if (error instanceof ApiError) return { ok: false, error: error.toBody().error };

@@ -2,8 +2,7 @@
  * The File menu's export, import and back-up: ask for a file, call the diary, and tell
  * the user what happened. The dialogs come in as functions so this runs without Electron.
  */
-import { readFile, rename, rm, writeFile } from 'node:fs/promises';
-import path from 'node:path';
+import { FileWriteError } from '../files/atomic-write';
 import type { DiaryService } from './service-port';
 
 export interface FileDialogs {
@@ -27,21 +26,6 @@ export function localDateStamp(at: Date): string {
   return `${at.getFullYear()}-${pad(at.getMonth() + 1)}-${pad(at.getDate())}`;
 }
 
-/**
- * Writes through a temporary file and a rename, so an export that fails half way never
- * leaves a truncated file where an older good one was.
- */
-async function writeWhole(file: string, text: string): Promise<void> {
-  const temporary = path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.partial`);
-  try {
-    await writeFile(temporary, text, 'utf8');
-    await rename(temporary, file);
-  } catch (error) {
-    await rm(temporary, { force: true });
-    throw error;
-  }
-}
-
 function reason(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
 }
@@ -57,25 +41,22 @@ export function diaryFileActions(diary: DiaryService, dialogs: FileDialogs, toda
       });
       if (file === null) return;
       try {
-        await writeWhole(file, diary.exportDiaryJson());
+        // Streamed from the diary through a temporary file renamed over the target, so a
+        // failure half way never leaves a truncated file where an older good one was.
+        diary.exportDiaryFile(file, 'json');
         dialogs.showInfo('Diary exported.', `Saved to ${file}.`);
       } catch (error) {
-        dialogs.showError('Export failed', `${reason(error)}\nNothing was written. Choose a folder you can write to and try again.`);
+        // A file system failure says what to do and that the old file is unchanged; anything else happened before a byte was written.
+        dialogs.showError('Export failed', error instanceof FileWriteError ? error.message : `${reason(error)}\nNothing was written.`);
       }
     },
 
     async importDiary() {
       const file = await dialogs.chooseOpenPath({ title: 'Import diary', extension: 'json', kind: 'Forelog diary' });
       if (file === null) return false;
-      let text: string;
       try {
-        text = await readFile(file, 'utf8');
-      } catch (error) {
-        dialogs.showError('Import failed', `${reason(error)}\nThe diary was not changed. Check the file exists and can be read.`);
-        return false;
-      }
-      try {
-        const { added } = diary.importDiaryJson(text);
+        // Read as it streams, so a file of any size imports; all or nothing.
+        const { added } = diary.importDiaryFile(file, 'json');
         dialogs.showInfo('Diary imported.', `Added ${added} question${added === 1 ? '' : 's'} from ${file}.`);
         return added > 0;
       } catch (error) {

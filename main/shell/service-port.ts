@@ -27,9 +27,10 @@ export interface DiaryService {
   /** Validates `request` against the contract and runs the operation; never throws. */
   dispatch(operation: string, request: unknown): Promise<Envelope>;
   createScheduler(notifier: NudgeNotifier, onDueCountChanged?: (count: number) => void): NudgeScheduler;
-  exportDiaryJson(): string;
-  /** Adds a whole diary file (all or nothing); throws an error saying what was wrong. */
-  importDiaryJson(text: string): { added: number };
+  /** Writes the diary to `file`, whole or not at all; throws an error saying what went wrong. */
+  exportDiaryFile(file: string, format: 'json'): void;
+  /** Adds a diary file from disk, read as it streams (all or nothing); throws an error saying what was wrong. */
+  importDiaryFile(file: string, format: 'json'): { added: number };
   backupTo(file: string): Promise<void>;
   /** Today's automatic copy into `dir` if there is none yet; keeps the newest seven. */
   rollingBackup(dir: string): Promise<unknown>;

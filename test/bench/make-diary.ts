@@ -19,9 +19,13 @@ export function mulberry32(seed: number): () => number {
  * seeded PRNG (same arguments, same file). For benchmarks and size tests only.
  */
 export function buildDiaryFile(questions: number, revisionsPerQuestion = 20): { format: string; version: number; questions: object[] } {
+  return { format: 'forelog-diary', version: 1, questions: [...diaryQuestions(questions, revisionsPerQuestion)] };
+}
+
+/** The question records of `buildDiaryFile`, one at a time, for diaries too large to hold whole. */
+export function* diaryQuestions(questions: number, revisionsPerQuestion = 20): Generator<object> {
   const rand = mulberry32(20261201);
   const start = Date.UTC(2021, 0, 4);
-  const out = [];
   const perQuestion = revisionsPerQuestion;
   for (let i = 0; i < questions; i++) {
     const opened = start + Math.floor(rand() * 1500) * DAY;
@@ -33,7 +37,7 @@ export function buildDiaryFile(questions: number, revisionsPerQuestion = 20): { 
       forecasts.push({ at: new Date(at).toISOString(), p: Math.round(Math.min(1, Math.max(0, truth + (rand() - 0.5) * 0.5)) * 100) / 100, note: '' });
     }
     const roll = rand();
-    out.push({
+    yield {
       id: `bench-${i}`,
       title: `Synthetic question ${i}`,
       kind: roll < 0.7 ? 'event_by_deadline' : 'state_at_deadline',
@@ -45,7 +49,6 @@ export function buildDiaryFile(questions: number, revisionsPerQuestion = 20): { 
       forecasts,
       references: i % 5 === 0 ? [{ at: new Date(opened + DAY).toISOString(), p: 0.5, source: 'sector survey' }] : [],
       resolution: roll < 0.9 ? { outcome: rand() < truth ? 'yes' : 'no', at: new Date(closes).toISOString(), note: '' } : null,
-    });
+    };
   }
-  return { format: 'forelog-diary', version: 1, questions: out };
 }

@@ -62,3 +62,43 @@ test('export in three formats, import a file back, refuse a bad one', async ({ b
     await app.close();
   }
 });
+
+test('a picked file is decoded as the command line decodes it: BOM and UTF-16 read, Latin-1 refused where it breaks', async ({ browser }) => {
+  const app = await openApp(browser, server(), {}, 'settings');
+  const { page } = app;
+  try {
+    const section = page.getByRole('region', { name: 'Your data' });
+    const input = section.getByLabel('Import a diary file (JSON or CSV)');
+    const csv = 'title,closes_at,forecast_at,p,note\r\nCafé opens in Zürich,2031-01-01T00:00:00Z,2030-01-01T00:00:00Z,0.4,naïve\r\n';
+    const json = (title: string) =>
+      JSON.stringify({ format: 'forelog-diary', version: 1, questions: [{ title, closes_at: '2031-01-01T00:00:00Z', forecasts: [] }] });
+
+    await input.setInputFiles({ name: 'bom.json', mimeType: 'application/json', buffer: Buffer.concat([Buffer.of(0xef, 0xbb, 0xbf), Buffer.from(json('With a byte order mark'))]) });
+    await expect(page.getByText('Imported 1 question from bom.json.')).toBeVisible();
+    await input.setInputFiles({ name: 'wide.csv', mimeType: 'text/csv', buffer: Buffer.from(`\ufeff${csv}`, 'utf16le') });
+    await expect(page.getByText('Imported 1 question from wide.csv.')).toBeVisible();
+
+    // The same CSV saved in Latin-1 (é is the single byte 0xE9): refused, not imported with U+FFFD.
+    await input.setInputFiles({ name: 'latin1.csv', mimeType: 'text/csv', buffer: Buffer.from(csv.replace('Café', 'Bistro'), 'latin1') });
+    await expect(
+      section.getByText(
+        'latin1.csv: This file is not UTF-8 text: at line 2, column 18 (byte offset 53) it holds the byte 0xFC, which UTF-8 does not allow there. It was probably saved in another encoding (such as Windows-1252 or Latin-1). Save the file as UTF-8 (in a spreadsheet: "CSV UTF-8") and try again.',
+      ),
+    ).toBeVisible();
+
+    // Larger than the app's cap: sent to the command line before a byte is read.
+    const fs = await import('node:fs');
+    const huge = `${server().dir}/huge.json`;
+    fs.writeFileSync(huge, '');
+    fs.truncateSync(huge, 64 * 1_048_576 + 1);
+    await input.setInputFiles(huge);
+    await expect(section.getByText(/^huge\.json: This file is larger than 64 MB, the most the app imports at once; .*: forelog import FILE\.$/)).toBeVisible();
+
+    await page.goto(`${server().url}#/questions`);
+    await expect(page.getByText('Café opens in Zürich')).toBeVisible();
+    await expect(page.getByText('Bistro opens in Zürich')).toHaveCount(0);
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});

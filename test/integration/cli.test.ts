@@ -8,6 +8,7 @@ import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
+import { randomDiaryFile } from '../support/random-diary';
 import { tempDir } from '../support/temp-diary';
 
 const ROOT = path.resolve(import.meta.dirname, '..', '..');
@@ -153,4 +154,107 @@ test('failures exit non-zero with one line: unknown command, missing file, not a
   const r = forelog('import', file, '--db', db);
   assert.equal(r.status, 1);
   assert.match(r.stderr, /not a Forelog diary file/);
+});
+
+/** `forelog …args` in a shell whose processes may write at most `kib` KiB per file (`ulimit -f`). */
+function forelogLimited(kib: number, ...args: string[]): { status: number; stdout: string; stderr: string } {
+  const r = spawnSync('bash', ['-c', `ulimit -f ${kib} && exec "$0" "$@"`, process.execPath, '--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), ...args], {
+    cwd: ROOT,
+    encoding: 'utf8',
+    env: { ...process.env, TZ: 'UTC' },
+  });
+  return { status: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}
+
+test('export FILE is written whole or not at all: when the system refuses more bytes half way, the old file stays and nothing else appears', () => {
+  const dir = tempDir();
+  const db = path.join(dir, 'd.sqlite');
+  const seed = path.join(dir, 'seed.json');
+  fs.writeFileSync(seed, JSON.stringify(randomDiaryFile(1000, 4)));
+  assert.equal(forelog('import', seed, '--db', db).status, 0);
+  const out = path.join(dir, 'out');
+  fs.mkdirSync(out);
+  const target = path.join(out, 'diary.json');
+  assert.equal(forelog('export', target, '--db', db).status, 0);
+  const old = fs.readFileSync(target);
+  assert.ok(forelog('export', '--format', 'csv', '--db', db).stdout.length > 512 * 1024, 'both exports are larger than the limit below');
+  fs.writeFileSync(seed, diaryFile([good(1)]));
+  assert.equal(forelog('import', seed, '--db', db).status, 0);
+
+  for (const format of ['json', 'csv']) {
+    const r = forelogLimited(512, 'export', target, '--format', format, '--db', db);
+    assert.equal(r.status, 1, r.stderr);
+    assert.equal(
+      r.stderr,
+      `forelog: Could not write ${target}: the file is larger than this system allows files to be; choose another disk (EFBIG). The file that was there is unchanged.\n`,
+    );
+    assert.ok(fs.readFileSync(target).equals(old), `${format}: the old export is intact`);
+    assert.deepEqual(fs.readdirSync(out), ['diary.json'], `${format}: no temporary file is left`);
+  }
+});
+
+test('import reads files as people have them: UTF-8 with a BOM, UTF-16; a Latin-1 file is refused at its line and column', () => {
+  const dir = tempDir();
+  const json = diaryFile([{ ...good(1), title: 'Zürich ≥ ½' }]);
+  const csv = 'title,closes_at,forecast_at,p\r\nCafé opens,2027-01-01T00:00:00Z,2026-01-01T00:00:00Z,0.4\r\n';
+  const cases: [string, Buffer][] = [
+    ['bom.json', Buffer.concat([Buffer.of(0xef, 0xbb, 0xbf), Buffer.from(json)])],
+    ['le.json', Buffer.from(`\ufeff${json}`, 'utf16le')],
+    ['be.csv', Buffer.from(`\ufeff${csv}`, 'utf16le').swap16()],
+  ];
+  for (const [name, bytes] of cases) {
+    const file = path.join(dir, name);
+    fs.writeFileSync(file, bytes);
+    const r = forelog('import', file, '--db', path.join(dir, `${name}.sqlite`));
+    assert.equal(r.status, 0, `${name}: ${r.stderr}`);
+    assert.match(r.stdout, /^Imported 1 question into /);
+  }
+  assert.match(forelog('export', '--db', path.join(dir, 'le.json.sqlite')).stdout, /"title": "Zürich ≥ ½"/);
+  assert.match(forelog('export', '--format', 'csv', '--db', path.join(dir, 'be.csv.sqlite')).stdout, /\r\nq?[^,]*,Café opens,/);
+
+  const latin1 = path.join(dir, 'latin1.csv');
+  fs.writeFileSync(latin1, Buffer.from(csv, 'latin1'));
+  const db = path.join(dir, 'latin1.sqlite');
+  const r = forelog('import', latin1, '--db', db);
+  assert.equal(r.status, 1);
+  assert.equal(
+    r.stderr,
+    'forelog: This file is not UTF-8 text: at line 2, column 4 (byte offset 34) it holds the byte 0xE9, which UTF-8 does not allow there. It was probably saved in another encoding (such as Windows-1252 or Latin-1). Save the file as UTF-8 (in a spreadsheet: "CSV UTF-8") and try again. Nothing was imported.\n',
+  );
+  assert.equal(JSON.parse(forelog('export', '--db', db).stdout).questions.length, 0);
+});
+
+test('import reads a file larger than the app’s 64 MB request cap (the command line has no limit)', () => {
+  const dir = tempDir();
+  const file = path.join(dir, 'large.json');
+  // 3,500 revisions with 20,000-character notes (the longest a note may be): about 70 MB.
+  const note = 'Notes from the steering meeting. '.repeat(607).slice(0, 20_000);
+  const fd = fs.openSync(file, 'w');
+  fs.writeSync(fd, '{"format":"forelog-diary","version":1,"questions":[');
+  for (let q = 0; q < 35; q++) {
+    const forecasts = Array.from({ length: 100 }, (_, i) => ({ at: new Date(Date.UTC(2026, 0, 1) + (q * 100 + i) * 60_000).toISOString(), p: i / 100, note }));
+    fs.writeSync(fd, `${q ? ',' : ''}${JSON.stringify({ id: `large-${q}`, title: `Large ${q}`, closes_at: '2027-01-01T00:00:00Z', forecasts })}`);
+  }
+  fs.writeSync(fd, ']}');
+  fs.closeSync(fd);
+  assert.ok(fs.statSync(file).size > 64 * 1_048_576);
+  const db = path.join(dir, 'd.sqlite');
+  const r = forelog('import', file, '--db', db);
+  assert.equal(r.status, 0, r.stderr);
+  assert.match(r.stdout, /^Imported 35 questions into /);
+  const exported = path.join(dir, 'back.json');
+  assert.equal(forelog('export', exported, '--db', db).status, 0);
+  assert.ok(fs.statSync(exported).size > 64 * 1_048_576);
+});
+
+test('export to a reader that stops early (| head) ends quietly', () => {
+  const db = path.join(tempDir(), 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const r = spawnSync('bash', ['-c', 'set -o pipefail; "$0" --import tsx "$1" export --format csv --db "$2" | head -c 10', process.execPath, path.join(ROOT, 'main', 'cli.ts'), db], {
+    cwd: ROOT,
+    encoding: 'utf8',
+  });
+  assert.equal(r.stdout, 'question_i');
+  assert.equal(r.stderr, '');
+  assert.equal(r.status, 0);
 });

@@ -10,7 +10,8 @@ import path from 'node:path';
 import { test } from 'node:test';
 import { ApiError } from '../../shared/contract';
 import { buildDemoDiary } from '../../main/service/demo';
-import { CSV_COLUMNS, CsvError, csvToDiary, diaryToCsv, type CsvColumn } from '../../main/service/csv';
+import { CSV_COLUMNS, CsvError, readCsvDiary, type CsvColumn } from '../../main/service/csv';
+import type { FileQuestion } from '../../shared/diary-file';
 import { openTestDiary, type TestDiary } from '../support/temp-diary';
 
 /** A note using everything RFC 4180 §2 rules 6–7 say must be quoted, plus non-ASCII text. */
@@ -35,10 +36,28 @@ function csvText(...rows: string[]): string {
   return [HEADER, ...rows].join('\r\n') + '\r\n';
 }
 
+/** What import reads from CSV text: each question with the rows that follow it gathered in (times in epoch ms). */
+function csvQuestions(text: string, chunkSize = text.length || 1): FileQuestion[] {
+  const chunks: string[] = [];
+  for (let i = 0; i < text.length; i += chunkSize) chunks.push(text.slice(i, i + chunkSize));
+  const questions: FileQuestion[] = [];
+  for (const item of readCsvDiary(chunks)) {
+    if (item.kind === 'question') questions[item.index] = structuredClone(item.question);
+    else {
+      const q = questions[item.index]!;
+      if (item.forecast) q.forecasts.push(item.forecast);
+      if (item.reference) q.references!.push(item.reference);
+    }
+  }
+  return questions;
+}
+
+const t = (iso: string) => Date.parse(iso);
+
 /** Asserts that reading `text` fails with exactly this message (and its row and column). */
 function refuses(text: string, message: string | RegExp, rowNumber: number | null, column: string | null): void {
   assert.throws(
-    () => csvToDiary(text),
+    () => csvQuestions(text),
     (err: unknown) => {
       assert.ok(err instanceof CsvError, `a CsvError, got ${String(err)}`);
       if (typeof message === 'string') assert.equal(err.message, message);
@@ -93,7 +112,7 @@ async function fullDiary(): Promise<TestDiary> {
 test('export → CSV → import into a fresh diary → export gives identical questions (example diary and edge shapes)', async () => {
   const d = await fullDiary();
   const first = (await d.call('exportDiary', {})) as { questions: { forecasts: unknown[]; references: unknown[] }[] };
-  const csv = diaryToCsv(first);
+  const csv = (await d.call('exportText', { format: 'csv' })).text as string;
 
   // One header row, then one row per revision and per reference, or one row for a question with neither (docs/csv-format.md).
   const expectedRows = 1 + first.questions.reduce((n, q) => n + Math.max(1, q.forecasts.length + q.references.length), 0);
@@ -106,17 +125,16 @@ test('export → CSV → import into a fresh diary → export gives identical qu
   assert.ok(csv.includes(',0.30000000000000004,'));
 
   const d2 = openTestDiary();
-  const added = await d2.call('importDiary', { diary: csvToDiary(csv) });
+  const added = await d2.call('importText', { format: 'csv', text: csv });
   assert.equal(added.added, first.questions.length);
   const second = (await d2.call('exportDiary', {})) as { questions: unknown[] };
   assert.equal(JSON.stringify(second.questions, null, 2), JSON.stringify(first.questions, null, 2));
-  assert.equal(diaryToCsv(second), csv, 'the CSV export is stable across the round trip');
+  assert.equal((await d2.call('exportText', { format: 'csv' })).text, csv, 'the CSV export is stable across the round trip');
 });
 
 test('exported quoting reads back exactly with an independent RFC 4180 reader (Python csv)', async () => {
   const d = await fullDiary();
-  const exported = (await d.call('exportDiary', {})) as Record<string, unknown>;
-  const rows = pythonRows(diaryToCsv(exported));
+  const rows = pythonRows((await d.call('exportText', { format: 'csv' })).text);
   assert.deepEqual(rows[0], [...CSV_COLUMNS]);
   const col = (name: CsvColumn) => CSV_COLUMNS.indexOf(name);
   const tricky = rows.filter((r) => r[col('title')] === 'Tender, "phase 3", won — Zürich office');
@@ -145,44 +163,45 @@ test('exported quoting reads back exactly with an independent RFC 4180 reader (P
   assert.equal(bare[0]![col('forecast_at')]! + bare[0]![col('reference_at')]!, '');
 });
 
-test('a hand-written CSV with a BOM, LF line ends, reordered columns and tricky quoting is read exactly', () => {
+test('a hand-written CSV with a BOM, LF line ends, reordered columns and tricky quoting is read exactly', async () => {
   // RFC 4180 §2 rule 6 (line breaks, quotes and commas inside quoted fields) and rule 7
   // (a quote inside a quoted field is doubled), e.g. "b""bb" reads as b"bb.
   const text =
-    '\ufeffnote,p,forecast_at,title,closes_at,tags,question_id,reference_at,reference_p,reference_source\n' +
+    'note,p,forecast_at,title,closes_at,tags,question_id,reference_at,reference_p,reference_source\n' +
     '"Client said ""maybe, later"", then:\nline two\r\nline three — Zürich ≥ ½ 日本 🙂",0.25,2026-06-01T09:00:00Z,"Tender, ""phase 3"", won",2026-12-01T12:00:00+01:00,client:zurich tenders,t-1,,,\n' +
     '\n' +
     '"b""bb",.5,2026-06-02T09:00:00Z,"Tender, ""phase 3"", won",2026-12-01T12:00:00+01:00,client:zurich tenders,t-1,,,\n' +
     ',,,"Tender, ""phase 3"", won",2026-12-01T12:00:00+01:00,client:zurich tenders,t-1,2026-06-03T10:00:00Z,7.5e-1,"Ölberg & Co, Zürich"\n' +
     '\n';
-  assert.deepEqual(csvToDiary(text), {
-    format: 'forelog-diary',
-    version: 1,
-    questions: [
-      {
-        id: 't-1',
-        title: 'Tender, "phase 3", won',
-        rule: '',
-        tags: ['client:zurich', 'tenders'],
-        closes_at: '2026-12-01T12:00:00+01:00',
-        forecasts: [
-          { at: '2026-06-01T09:00:00Z', p: 0.25, note: TRICKY_NOTE },
-          { at: '2026-06-02T09:00:00Z', p: 0.5, note: 'b"bb' },
-        ],
-        references: [{ at: '2026-06-03T10:00:00Z', p: 0.75, source: 'Ölberg & Co, Zürich' }],
-        resolution: null,
-      },
-    ],
-  });
+  const expected: FileQuestion[] = [
+    {
+      id: 't-1',
+      title: 'Tender, "phase 3", won',
+      rule: '',
+      tags: ['client:zurich', 'tenders'],
+      closes_at: t('2026-12-01T12:00:00+01:00'),
+      forecasts: [
+        { at: t('2026-06-01T09:00:00Z'), p: 0.25, note: TRICKY_NOTE },
+        { at: t('2026-06-02T09:00:00Z'), p: 0.5, note: 'b"bb' },
+      ],
+      references: [{ at: t('2026-06-03T10:00:00Z'), p: 0.75, source: 'Ölberg & Co, Zürich' }],
+      resolution: null,
+    },
+  ];
+  // In one piece, and in chunks that split quoted fields, doubled quotes and CRLF pairs.
+  for (const size of [text.length, 1, 2, 3, 7]) assert.deepEqual(csvQuestions(text, size), expected, `chunks of ${size}`);
+  // Text that kept its byte order mark (the file decoder drops it; an API caller may not).
+  const d = openTestDiary();
+  assert.equal((await d.call('importText', { format: 'csv', text: `\ufeff${text}` })).added, 1);
+  assert.equal((await d.call('getQuestion', { id: 't-1' })).forecasts.length, 2);
 });
 
 test('the example in docs/csv-format.md imports as documented', async () => {
   const doc = fs.readFileSync(path.join(import.meta.dirname, '..', '..', 'docs', 'csv-format.md'), 'utf8');
   const example = /```csv\n([\s\S]*?)```/.exec(doc)![1]!;
-  const file = csvToDiary(example);
-  assert.equal(file.questions.length, 1);
+  assert.equal(csvQuestions(example).length, 1);
   const d = openTestDiary();
-  await d.call('importDiary', { diary: file });
+  await d.call('importText', { format: 'csv', text: example });
   const q = await d.call('getQuestion', { id: 'q1' });
   assert.deepEqual(
     q.forecasts.map((f: { p: number; note: string; lenses: unknown[] }) => [f.p, f.note, f.lenses.length]),
@@ -198,10 +217,12 @@ test('the example in docs/csv-format.md imports as documented', async () => {
 
 test('CRLF and LF line ends read the same; a quoted line break is kept exactly as written', () => {
   const rows = [line(['title', 'closes_at', 'forecast_at', 'p', 'note']), line(['Q', '2026-09-30T16:00:00Z', '2026-06-01T09:00:00Z', '0.4', 'a\r\nb\nc'])];
-  const crlf = csvToDiary(rows.join('\r\n'));
-  const lf = csvToDiary(rows.join('\n') + '\n');
+  const crlf = csvQuestions(rows.join('\r\n'));
+  const lf = csvQuestions(rows.join('\n') + '\n');
+  const cr = csvQuestions(rows.join('\r') + '\r');
   assert.deepEqual(crlf, lf);
-  assert.equal((crlf.questions[0]!.forecasts as { note: string }[])[0]!.note, 'a\r\nb\nc');
+  assert.deepEqual(cr, lf);
+  assert.equal(crlf[0]!.forecasts[0]!.note, 'a\r\nb\nc');
 });
 
 test('rows without a question_id are grouped by title, and each group gets a new id on import', async () => {
@@ -210,11 +231,11 @@ test('rows without a question_id are grouped by title, and each group gets a new
     row({ title: 'Pilot extended', closes_at: '2026-09-30T16:00:00Z', forecast_at: '2026-06-02T09:00:00Z', p: '0.45' }),
     row({ title: 'Second pilot', closes_at: '2026-10-30T16:00:00Z' }),
   );
-  const file = csvToDiary(text);
-  assert.equal(file.questions.length, 2);
-  assert.equal('id' in file.questions[0]!, false);
+  const questions = csvQuestions(text);
+  assert.equal(questions.length, 2);
+  assert.equal('id' in questions[0]!, false);
   const d = openTestDiary();
-  await d.call('importDiary', { diary: file });
+  await d.call('importText', { format: 'csv', text });
   const list = await d.call('listQuestions', {});
   assert.deepEqual(
     list.questions.map((q: { title: string; forecast_count: number }) => [q.title, q.forecast_count]),
@@ -226,7 +247,7 @@ test('rows without a question_id are grouped by title, and each group gets a new
 });
 
 test('resolution, costs, base rate and lenses are read from their columns', () => {
-  const file = csvToDiary(
+  const [question] = csvQuestions(
     csvText(
       row({
         ...Q1,
@@ -246,48 +267,57 @@ test('resolution, costs, base rate and lenses are read from their columns', () =
       }),
     ),
   );
-  assert.deepEqual(file.questions[0], {
+  assert.deepEqual(question, {
     id: 'q1',
     title: 'Northgate renews',
     rule: '',
     kind: 'state_at_deadline',
     tags: [],
-    opened_at: '2026-05-01T09:00:00Z',
-    closes_at: '2026-09-30T16:00:00.000Z',
+    opened_at: t('2026-05-01T09:00:00Z'),
+    closes_at: t('2026-09-30T16:00:00.000Z'),
     time_zone: 'Europe/London',
     base_rate: 0.3,
     base_rate_note: '6 of 20',
     costs: { false_alarm: 1, miss: 4 },
     checkin_days: 14,
     // The lens weight defaults to 1, as in the JSON file.
-    forecasts: [{ at: '2026-06-01T09:00:00.000Z', p: 0.4, note: '', lenses: [{ name: 'outside view', p: 0.3, weight: 1 }] }],
+    forecasts: [{ at: t('2026-06-01T09:00:00.000Z'), p: 0.4, note: '', lenses: [{ name: 'outside view', p: 0.3, weight: 1 }] }],
     references: [],
-    resolution: { outcome: 'yes', at: '2026-09-29T12:00:00Z', note: 'signed' },
+    resolution: { outcome: 'yes', at: t('2026-09-29T12:00:00Z'), note: 'signed' },
   });
 });
 
 test('a bad row in the middle rejects the whole file, naming its row and column; the diary is unchanged', async () => {
   const d = openTestDiary();
   await d.call('importDiary', { diary: buildDemoDiary(d.clock.now) });
-  const before = d.service.exportDiaryJson();
+  const before = d.service.diary.exportText('json').text;
   const text = csvText(
     row({ ...Q1, ...F1 }),
     row({ ...Q1, forecast_at: '2026-06-02T09:00:00.000Z', p: '0.5' }),
     row({ ...Q1, forecast_at: '2026-06-03T09:00:00.000Z', p: '1.5' }),
     row({ ...Q2, ...F1 }),
   );
-  refuses(text, 'Row 4, column p: must be a probability between 0 and 1. Nothing was imported.', 4, 'p');
-  assert.equal(d.service.exportDiaryJson(), before);
+  const message = 'Row 4, column p: must be a probability between 0 and 1. Nothing was imported.';
+  refuses(text, message, 4, 'p');
+  // Rows 2 and 3 were already written when row 4 was read: the one transaction takes them back.
+  await assert.rejects(d.call('importText', { format: 'csv', text }), (err: unknown) => err instanceof ApiError && err.code === 'invalid' && err.message === message);
+  assert.equal(d.service.diary.exportText('json').text, before);
 });
 
 test('a CSV whose later question is already in the diary adds none of its questions', async () => {
   // All-or-nothing (INTERFACES.md §1): the first question is valid and new, the second's id exists.
   const d = openTestDiary();
-  await d.call('importDiary', { diary: csvToDiary(csvText(row({ ...Q2, ...F1 }))) });
-  const before = d.service.exportDiaryJson();
-  const again = csvToDiary(csvText(row({ ...Q1, ...F1 }), row({ ...Q2, ...F1 })));
-  await assert.rejects(d.call('importDiary', { diary: again }), (err: unknown) => err instanceof ApiError && err.code === 'conflict');
-  assert.equal(d.service.exportDiaryJson(), before);
+  await d.call('importText', { format: 'csv', text: csvText(row({ ...Q2, ...F1 })) });
+  const before = d.service.diary.exportText('json').text;
+  const again = csvText(row({ ...Q1, ...F1 }), row({ ...Q2, ...F1 }));
+  await assert.rejects(
+    d.call('importText', { format: 'csv', text: again }),
+    (err: unknown) =>
+      err instanceof ApiError &&
+      err.code === 'conflict' &&
+      err.message === 'Row 3, column question_id: "q2" is already in this diary (was this file imported before?). Nothing was imported.',
+  );
+  assert.equal(d.service.diary.exportText('json').text, before);
 });
 
 test('header problems name the column', () => {
@@ -296,18 +326,29 @@ test('header problems name the column', () => {
   refuses('title;closes_at\r\n', /semicolons or tabs between fields; save it as comma-separated CSV\. Nothing was imported\.$/, 1, 'title;closes_at');
   refuses('title,closes_at,p,P\r\n', 'Row 1 (the header): column "p" appears twice; keep one of them. Nothing was imported.', 1, 'p');
   refuses('title,forecast_at,p\r\n', 'Row 1 (the header): the required column "closes_at" is missing; add it. Nothing was imported.', 1, 'closes_at');
-  assert.deepEqual(csvToDiary(`${HEADER}\r\n`).questions, [], 'a header alone is an empty diary');
+  assert.deepEqual(csvQuestions(`${HEADER}\r\n`), [], 'a header alone is an empty diary');
 });
 
-test('malformed CSV is refused with the row and the line where csv-parse stopped', () => {
-  // The quote opened in row 3 (line 3) is never closed; the text has 4 lines.
+test('malformed CSV is refused with the row and the line of the problem', () => {
+  // The quote opened in row 3 (line 3) is never closed; everything after it is inside it.
   refuses(
     'title,closes_at\n"Q one",2026-09-30T16:00:00Z\n"Q two,2026-09-30T16:00:00Z\nQ three,2026-09-30T16:00:00Z\n',
-    'The file is not valid CSV: a quoted field in row 3 is never closed (the file ends at line 4 still inside the quotes). Add the missing closing double quote and import it again. Nothing was imported.',
+    'The file is not valid CSV: the quoted field that starts in row 3, line 3 is never closed. Add the missing closing double quote and import it again. Nothing was imported.',
     3,
     null,
   );
-  refuses('title,closes_at\n"Q "one",2026-09-30T16:00:00Z\n', /^The file is not valid CSV at row 2, line 2: Invalid Closing Quote/, 2, null);
+  refuses(
+    'title,closes_at\n"Q "one",2026-09-30T16:00:00Z\n',
+    'The file is not valid CSV at row 2, line 2: in a quoted field, the double quote before "o" ends the field early (a comma or the end of the line should follow it). A double quote inside a quoted field must be written twice (""); correct it and import again. Nothing was imported.',
+    2,
+    null,
+  );
+  refuses(
+    'title,closes_at\r\n"multi\nline",2026-09-30T16:00:00Z\r\nQ "two",2026-09-30T16:00:00Z\r\n',
+    'The file is not valid CSV at row 3, line 4: field 1 ("Q "") holds a double quote but does not start with one. A field holding commas, double quotes or line breaks must be enclosed in double quotes, with each double quote inside it doubled (""); correct it and import again. Nothing was imported.',
+    3,
+    null,
+  );
   refuses(`${HEADER}\r\n"Q",2026-09-30T16:00:00Z\r\n`, `Row 2 has 2 fields but the header names ${CSV_COLUMNS.length} columns; check for a missing or extra comma, or an unquoted comma inside a field. Nothing was imported.`, 2, null);
 });
 
@@ -346,8 +387,9 @@ test("a question's rows must agree: the error names both rows and the column", (
     'base_rate',
   );
   // Values are compared as read, so 0.30 and .3 agree.
-  const same = csvToDiary(csvText(row({ ...Q1, base_rate: '0.30', ...F1 }), row({ ...Q1, base_rate: '.3', forecast_at: '2026-06-02T09:00:00Z', p: '0.5' })));
-  assert.equal(same.questions.length, 1);
+  const same = csvQuestions(csvText(row({ ...Q1, base_rate: '0.30', ...F1 }), row({ ...Q1, base_rate: '.3', forecast_at: '2026-06-02T09:00:00Z', p: '0.5' })));
+  assert.equal(same.length, 1);
+  assert.equal(same[0]!.forecasts.length, 2);
 });
 
 test("a problem spanning a question's fields is reported at the question's first row", () => {
@@ -357,4 +399,23 @@ test("a problem spanning a question's fields is reported at the question's first
     3,
     'closes_at',
   );
+});
+
+test('rows of a question may be anywhere in the file (a sheet sorted by date), and read as if they stood together', async () => {
+  const rows = {
+    a1: row({ ...Q1, forecast_at: '2026-06-03T09:00:00.000Z', p: '0.3' }),
+    b1: row({ ...Q2, forecast_at: '2026-06-02T09:00:00.000Z', p: '0.6' }),
+    a2: row({ ...Q1, forecast_at: '2026-06-01T09:00:00.000Z', p: '0.2', note: 'earlier, written later' }),
+    b2: row({ ...Q2, reference_at: '2026-06-04T09:00:00.000Z', reference_p: '0.5', reference_source: 'client' }),
+    a3: row({ ...Q1, forecast_at: '2026-06-05T09:00:00.000Z', p: '0.35' }),
+  };
+  const interleaved = openTestDiary();
+  await interleaved.call('importText', { format: 'csv', text: csvText(rows.a1, rows.b1, rows.a2, rows.b2, rows.a3) });
+  const grouped = openTestDiary();
+  await grouped.call('importText', { format: 'csv', text: csvText(rows.a1, rows.a2, rows.a3, rows.b1, rows.b2) });
+  assert.equal(interleaved.service.diary.exportText('json').text, grouped.service.diary.exportText('json').text);
+  // Without an opened_at column the question opens at its earliest revision, wherever its row is.
+  const q1 = await interleaved.call('getQuestion', { id: 'q1' });
+  assert.equal(q1.opened_at, '2026-06-01T09:00:00.000Z');
+  assert.deepEqual(q1.forecasts.map((f: { p: number }) => f.p), [0.2, 0.3, 0.35]);
 });

@@ -21,7 +21,7 @@ import { after, test } from 'node:test';
 import fc from 'fast-check';
 import { startHttpServer, type RunningServer } from '../../main/transport/http';
 import { operations, type OperationName, type Request } from '../../shared/contract';
-import { openTestDiary, tempDir, type TestDiary } from '../support/temp-diary';
+import { exportJson, openTestDiary, tempDir, type TestDiary } from '../support/temp-diary';
 
 const SEED = Number(process.env.FUZZ_SEED ?? 20_260_801);
 /** Mutated requests per field of an operation's valid request; the other properties scale with it. */
@@ -43,7 +43,7 @@ const server: RunningServer = await startHttpServer({ dispatch: d.service.dispat
 const agent = new http.Agent({ keepAlive: true, maxSockets: 1 });
 const ids = await (async () => {
   const questions = await Promise.all(
-    (JSON.parse(d.service.exportDiaryJson()) as { questions: { id: string }[] }).questions.map((q) => d.call('getQuestion', { id: q.id })),
+    (JSON.parse(exportJson(d.service)) as { questions: { id: string }[] }).questions.map((q) => d.call('getQuestion', { id: q.id })),
   );
   return {
     questions: questions.map((q) => q.id as string),
@@ -379,7 +379,7 @@ function rawExchange(bytes: Buffer): Promise<number[]> {
 
 /** The diary as the user would get it, and SQLite's own count of commits by others. */
 function snapshot(): { export: string; version: number } {
-  return { export: d.service.exportDiaryJson(), version: d.service.store.read.pragma('data_version', { simple: true }) as number };
+  return { export: exportJson(d.service), version: d.service.store.read.pragma('data_version', { simple: true }) as number };
 }
 
 function assertUnchanged(before: { export: string; version: number }, what: string): void {

@@ -11,7 +11,7 @@ import path from 'node:path';
 import { test } from 'node:test';
 import { INSTANT_RANGE, INSTANT_RANGE_RULE, isInstantInRange, parseInstant, toIso } from '../../shared/time';
 import * as v from '../../shared/validation';
-import { openTestDiary, tempDir } from '../support/temp-diary';
+import { exportJson, openTestDiary, tempDir } from '../support/temp-diary';
 
 const ROOT = path.resolve(import.meta.dirname, '..', '..');
 
@@ -87,7 +87,7 @@ const AFTER = OUTSIDE[5][0];
 test('every operation taking an instant refuses one outside the range with the rule, and changes nothing', async () => {
   const d = openTestDiary();
   const q = await d.call('createQuestion', { title: 'Edge', closes_at: '2030-01-01T00:00:00Z', first_forecast: { p: 0.5 } });
-  const before = d.service.exportDiaryJson();
+  const before = exportJson(d.service);
   const requests: [string, unknown, string][] = [
     ['createQuestion', { title: 'x', closes_at: AFTER }, 'closes_at'],
     ['createQuestion', { title: 'x', opened_at: BEFORE, closes_at: '2030-01-01T00:00:00Z' }, 'opened_at'],
@@ -112,7 +112,7 @@ test('every operation taking an instant refuses one outside the range with the r
     assert.equal(answer.error.code, 'invalid');
     assert.deepEqual(answer.error.fields, [`${field}: ${INSTANT_RANGE_RULE}`], op);
   }
-  assert.equal(d.service.exportDiaryJson(), before);
+  assert.equal(exportJson(d.service), before);
 });
 
 test('a diary file or CSV holding an instant outside the range is refused, naming the record and field', async () => {
@@ -169,15 +169,15 @@ test('a diary at both extremes works everywhere and re-imports exactly through J
   assert.match((await d.call('briefing', {})).html, /Resolved at the last instant/);
   assert.match((await d.call('exportText', { format: 'ics' })).text, /BEGIN:VCALENDAR/);
 
-  const json = d.service.exportDiaryJson();
+  const json = exportJson(d.service);
   const again = openTestDiary();
   await again.call('importText', { format: 'json', text: json });
-  assert.equal(again.service.exportDiaryJson(), json);
+  assert.equal(exportJson(again.service), json);
   const csv = (await d.call('exportText', { format: 'csv' })).text;
   const fromCsv = openTestDiary();
   await fromCsv.call('importText', { format: 'csv', text: csv });
   const questions = (text: string) => (JSON.parse(text) as { questions: unknown[] }).questions;
-  assert.deepEqual(questions(fromCsv.service.exportDiaryJson()), questions(json));
+  assert.deepEqual(questions(exportJson(fromCsv.service)), questions(json));
 });
 
 test('the command line refuses --at, --from and --to outside the range with the rule', () => {

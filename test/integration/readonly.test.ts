@@ -19,7 +19,7 @@ import { startHttpServer } from '../../main/transport/http';
 import { MIGRATIONS, SCHEMA_VERSION } from '../../main/store/migrations';
 import { canWriteFile, migrate } from '../../main/store/open';
 import { forelog, ROOT } from '../support/diary-process';
-import { openTestDiary, tempDir } from '../support/temp-diary';
+import { exportJson, openTestDiary, tempDir } from '../support/temp-diary';
 
 const CLOSES = '2027-01-01T00:00:00Z';
 const NOBODY = 65534;
@@ -149,7 +149,7 @@ test('the read-only decision: a diary this process may not write opens read-only
     assert.equal(service.store.write.readonly, true, 'so even a stray write cannot land');
     const list = await service.dispatch('listQuestions', {});
     assert.ok(list.ok);
-    assert.match(service.exportDiaryJson(), /Written by its owner/);
+    assert.match(exportJson(service), /Written by its owner/);
     assert.ok((await service.dispatch('score', {})).ok);
 
     for (const [op, request] of [
@@ -188,7 +188,7 @@ test('a read-only diary from an older Forelog is read through a migrated private
   try {
     assert.equal(service.store.readOnly, true);
     assert.equal(service.location, dbPath, 'messages still name the diary, not the copy');
-    assert.match(service.exportDiaryJson(), /From schema 1/);
+    assert.match(exportJson(service), /From schema 1/);
     assert.ok((await service.dispatch('due', {})).ok, 'the nudge tables of schema 2 are there to read');
     const refused = await service.dispatch('deleteQuestion', { id: 'q-old' });
     assert.equal(refused.ok ? '' : refused.error.code, 'read_only');
@@ -210,7 +210,7 @@ test('a read-only diary from an older Forelog is read through a migrated private
 test('a full disk: the change is not saved, nothing is lost, and the message says to free space', async () => {
   const d = openTestDiary();
   await d.call('createQuestion', { title: 'Already in the diary', closes_at: CLOSES, first_forecast: { p: 0.6 } });
-  const before = d.service.exportDiaryJson();
+  const before = exportJson(d.service);
   // SQLite answers SQLITE_FULL both for a full disk and for a database at its page limit.
   const pages = d.service.store.write.pragma('page_count', { simple: true }) as number;
   d.service.store.write.pragma(`max_page_count = ${pages}`);
@@ -223,7 +223,7 @@ test('a full disk: the change is not saved, nothing is lost, and the message say
     answer.error.message,
     `The disk holding the diary ${d.dbPath} is full, so this change was not saved; nothing already in the diary was lost. Free some disk space and try again.`,
   );
-  assert.equal(d.service.exportDiaryJson(), before, 'the diary is as it was');
+  assert.equal(exportJson(d.service), before, 'the diary is as it was');
 });
 
 test('a damaged diary: reading it says so and how to put a backup back', () => {

@@ -8,7 +8,7 @@ import assert from 'node:assert/strict';
 import { test } from 'node:test';
 import fc from 'fast-check';
 import * as v from '../../shared/validation';
-import { openTestDiary } from '../support/temp-diary';
+import { exportJson, openTestDiary } from '../support/temp-diary';
 
 const CLOSES = '2030-01-01T00:00:00Z';
 
@@ -35,7 +35,7 @@ test('every text field refuses NUL and other C0 controls; notes keep tab and lin
   });
   assert.equal(q.rule, 'Yes if\tsigned.\r\nOtherwise no.');
   assert.equal(q.forecasts[0].note, 'tab\there\nand a line');
-  const before = d.service.exportDiaryJson();
+  const before = exportJson(d.service);
   const refused: [string, unknown, string][] = [
     ['createQuestion', { title: 'Two\nlines', closes_at: CLOSES }, 'title'],
     ['createQuestion', { title: 'Tab\there', closes_at: CLOSES }, 'title'],
@@ -58,7 +58,7 @@ test('every text field refuses NUL and other C0 controls; notes keep tab and lin
     assert.equal(answer.error.code, 'invalid', op);
     assert.match(answer.error.fields[0]!, new RegExp(`^${field.replace(/[[\]]/g, '\\$&')}: must .*control characters`), op);
   }
-  assert.equal(d.service.exportDiaryJson(), before);
+  assert.equal(exportJson(d.service), before);
 });
 
 test('diary files and CSV are held to the same text rules, naming the record or row', async () => {

@@ -39,7 +39,8 @@ function fakeDiary() {
     starts: 0,
     stops: 0,
     closes: 0,
-    imported: [] as string[],
+    exported: [] as { file: string; format: string }[],
+    imported: [] as { file: string; format: string }[],
     backups: [] as string[],
     rollingBackups: [] as string[],
     notifier: null as NudgeNotifier | null,
@@ -63,9 +64,12 @@ function fakeDiary() {
         },
       };
     },
-    exportDiaryJson: () => '{"format":"forelog-diary","version":1,"questions":[]}\n',
-    importDiaryJson(text) {
-      record.imported.push(text);
+    exportDiaryFile(file, format) {
+      record.exported.push({ file, format });
+      writeFileSync(file, '{"format":"forelog-diary","version":1,"questions":[]}\n');
+    },
+    importDiaryFile(file, format) {
+      record.imported.push({ file, format });
       return { added: 2 };
     },
     async backupTo(file) {
@@ -450,10 +454,11 @@ test('closing the window hides it; quitting stops nudges and closes the diary on
 
 test('File > Export writes the diary file where the user chose, with a dated default name', async () => {
   const dir = await mkdtemp(path.join(tmpdir(), 'forelog-shell-'));
-  await start();
+  const { record } = await start();
   fake.savePath = path.join(dir, 'mine.json');
   menuItem(fake.applicationMenu!.template, 'File', 'Export diary…').click!();
   await until(() => fake.messageBoxes.length > 0);
+  assert.deepEqual(record.exported, [{ file: fake.savePath, format: 'json' }], 'the service writes the chosen file');
   assert.equal(await readFile(fake.savePath, 'utf8'), '{"format":"forelog-diary","version":1,"questions":[]}\n');
   assert.deepEqual(await readdir(dir), ['mine.json'], 'no partial file is left behind');
   assert.match(fake.fileDialogs[0]!.defaultPath!, /forelog-diary-\d{4}-\d{2}-\d{2}\.json$/);
@@ -468,7 +473,7 @@ test('File > Import hands the file to the service, reports the count and reloads
   const loadsBefore = win!.loads.length;
   menuItem(fake.applicationMenu!.template, 'File', 'Import diary…').click!();
   await until(() => win!.loads.length > loadsBefore);
-  assert.deepEqual(record.imported, ['{"format":"forelog-diary","version":1,"questions":[{"title":"x"}]}']);
+  assert.deepEqual(record.imported, [{ file: fake.openPath, format: 'json' }], 'the service reads the chosen file itself (streaming)');
   assert.match(fake.messageBoxes[0]!.detail!, /Added 2 questions/);
 });
 

@@ -9,6 +9,8 @@ import assert from 'node:assert/strict';
 import { mkdtemp, readdir, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { writeFileAtomic } from '../../main/files/atomic-write';
+import { readTextFile } from '../../main/files/read-text';
 import { CONTENT_SECURITY_POLICY, withContentSecurityPolicy } from '../../main/shell/csp';
 import { diaryFileActions, localDateStamp, type FileDialogs } from '../../main/shell/diary-files';
 import { dbPathFromArgs, shellLocations } from '../../main/shell/locations';
@@ -126,8 +128,12 @@ function quietDialogs(answer: string | null) {
 const unusedDiary = (overrides: Partial<DiaryService>): DiaryService => ({
   dispatch: async () => ({ ok: true, value: null }),
   createScheduler: () => ({ runOnce: () => null, start: () => undefined, stop: () => undefined }),
-  exportDiaryJson: () => '{}',
-  importDiaryJson: () => ({ added: 0 }),
+  // The service's own file writer and reader, over an empty diary's text.
+  exportDiaryFile: (file) => writeFileAtomic(file, '{}'),
+  importDiaryFile: (file) => {
+    for (const chunk of readTextFile(file)) void chunk;
+    return { added: 0 };
+  },
   backupTo: async () => undefined,
   rollingBackup: async () => undefined,
   close: () => undefined,
@@ -141,7 +147,10 @@ test('export into a folder that does not exist reports the error and leaves noth
   await diaryFileActions(unusedDiary({}), dialogs, () => new Date()).exportDiary();
   assert.equal(shown.length, 1);
   assert.equal(shown[0]!.kind, 'error');
-  assert.match(shown[0]!.text, /ENOENT[\s\S]*Nothing was written/);
+  assert.equal(
+    shown[0]!.text,
+    `Could not write ${path.join(dir, 'missing', 'diary.json')}: the folder ${path.join(dir, 'missing')} does not exist; create it or choose another (ENOENT). No file was written.`,
+  );
   assert.deepEqual(await readdir(dir), []);
 });
 
@@ -149,13 +158,13 @@ test('import: an unreadable file and a rejected file both say the diary was not 
   const dir = await mkdtemp(path.join(tmpdir(), 'forelog-files-'));
   const missing = quietDialogs(path.join(dir, 'nope.json'));
   assert.equal(await diaryFileActions(unusedDiary({}), missing.dialogs, () => new Date()).importDiary(), false);
-  assert.match(missing.shown[0]!.text, /The diary was not changed/);
+  assert.match(missing.shown[0]!.text, /^there is no file at .*nope\.json; check the path\nThe diary was not changed\.$/);
 
   const file = path.join(dir, 'bad.json');
   await writeFile(file, '{"format":"something-else"}');
   const rejected = quietDialogs(file);
   const diary = unusedDiary({
-    importDiaryJson: () => {
+    importDiaryFile: () => {
       throw new Error('Record 0: format must be "forelog-diary".');
     },
   });
@@ -167,9 +176,12 @@ test('import: an unreadable file and a rejected file both say the diary was not 
 test('cancelling a dialog does nothing at all', async () => {
   let touched = false;
   const diary = unusedDiary({
-    exportDiaryJson: () => {
+    exportDiaryFile: () => {
       touched = true;
-      return '{}';
+    },
+    importDiaryFile: () => {
+      touched = true;
+      return { added: 0 };
     },
     backupTo: async () => {
       touched = true;

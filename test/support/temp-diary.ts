@@ -33,3 +33,10 @@ export function openTestDiary(options: { now?: string; timeZone?: string; dbPath
     call: (op, request) => callOrThrow(service.dispatch, op, request) as Promise<any>,
   };
 }
+
+/** The diary's JSON export as one text, from the same writer the command line uses. */
+export function exportJson(service: DiaryService): string {
+  const pieces: string[] = [];
+  service.diary.exportTo('json', (piece) => pieces.push(piece));
+  return pieces.join('');
+}

@@ -1,10 +1,12 @@
 /**
  * Your data: the whole diary out as a file (JSON v1, CSV one row per revision, or the open
  * questions' closes as an iCalendar file) and a diary file in (JSON or CSV, all or nothing).
- * The same in the desktop app and in browser mode: the files go through the API as text.
+ * The same in the desktop app and in browser mode: the files go through the API as text,
+ * decoded here from the file's bytes; files above the app's 64 MB cap go to `forelog import`.
  */
 import { useState } from 'react';
-import type { EXPORT_FORMATS } from '../../../../shared/contract';
+import { APP_IMPORT_MAX_BYTES, APP_IMPORT_TOO_LARGE, type EXPORT_FORMATS } from '../../../../shared/contract';
+import { decodeText, TextDecodingError } from '../../../../shared/text-decoding';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
@@ -60,11 +62,19 @@ export function DataSection() {
     setProblem(null);
     try {
       const format = /\.csv$/i.test(file.name) ? 'csv' : 'json';
-      const { added } = await api.importText({ format, text: await file.text() });
+      const tooLarge = `${file.name}: This file ${APP_IMPORT_TOO_LARGE}.`;
+      // Larger files go to the command line, which streams them: refused before a byte is read.
+      if (file.size > APP_IMPORT_MAX_BYTES) return setProblem(tooLarge);
+      // The bytes, decoded by the same decoder as the command line's: UTF-8 with or without
+      // a byte order mark, or UTF-16 with one; other bytes are refused where they are.
+      const text = decodeText(new Uint8Array(await file.arrayBuffer()));
+      // The request carries the text escaped as JSON; its size is what the cap counts.
+      if (new Blob([JSON.stringify({ format, text })]).size > APP_IMPORT_MAX_BYTES) return setProblem(tooLarge);
+      const { added } = await api.importText({ format, text });
       toast.show({ message: `Imported ${added} question${added === 1 ? '' : 's'} from ${file.name}.` });
       diaryChanged();
     } catch (error) {
-      setProblem(`${file.name}: ${describeError(error)}`);
+      setProblem(`${file.name}: ${error instanceof TextDecodingError ? error.message : describeError(error)}`);
     } finally {
       setBusy(null);
     }

@@ -1,0 +1,147 @@
+/**
+ * Export with bounded memory: the diary streams out a batch of questions at a time, and the
+ * bytes are exactly those of the whole-diary exporter it replaced — JSON is
+ * `JSON.stringify(exportDiary, null, 2) + "\n"` (the API's exportDiary still builds the
+ * object whole), CSV is what an independent RFC 4180 writer (Python's csv module) writes
+ * for the same cells — on the example diary and on a random diary with every awkward shape.
+ * The stream is one snapshot of the diary, and export → import → export is identical.
+ */
+import assert from 'node:assert/strict';
+import { spawnSync } from 'node:child_process';
+import { after, test } from 'node:test';
+import { openDiary } from '../../main/service/index';
+import type { QuestionList } from '../../shared/contract';
+import { buildDemoDiary } from '../../main/service/demo';
+import { CSV_COLUMNS } from '../../main/service/csv';
+import { isoFormatter } from '../../main/service/export-batches';
+import { toIso } from '../../shared/time';
+import { randomDiaryFile } from '../support/random-diary';
+import { openTestDiary, type TestDiary } from '../support/temp-diary';
+
+interface FileQuestionJson {
+  id: string;
+  title: string;
+  rule: string;
+  kind: string;
+  tags: string[];
+  opened_at: string;
+  closes_at: string;
+  time_zone: string;
+  base_rate?: number;
+  base_rate_note?: string;
+  costs?: { false_alarm: number; miss: number };
+  checkin_days?: number;
+  forecasts: { at: string; p: number; note: string; lenses?: { name: string; p: number; weight: number }[] }[];
+  references: { at: string; p: number; source: string }[];
+  resolution: { outcome: string; at: string; note: string } | null;
+}
+
+/** The CSV of the export object, written by Python's csv module (QUOTE_MINIMAL, CRLF), cells as docs/csv-format.md lays them out. */
+function pythonCsv(questions: FileQuestionJson[]): string {
+  const rows: string[][] = [[...CSV_COLUMNS]];
+  for (const q of questions) {
+    const base: Record<string, string> = {
+      question_id: q.id,
+      title: q.title,
+      rule: q.rule,
+      kind: q.kind,
+      tags: q.tags.join(' '),
+      opened_at: q.opened_at,
+      closes_at: q.closes_at,
+      time_zone: q.time_zone,
+      base_rate: q.base_rate === undefined ? '' : String(q.base_rate),
+      base_rate_note: q.base_rate_note ?? '',
+      false_alarm_cost: q.costs ? String(q.costs.false_alarm) : '',
+      miss_cost: q.costs ? String(q.costs.miss) : '',
+      checkin_days: q.checkin_days === undefined ? '' : String(q.checkin_days),
+      outcome: q.resolution?.outcome ?? '',
+      resolved_at: q.resolution?.at ?? '',
+      resolution_note: q.resolution?.note ?? '',
+    };
+    const lines: Record<string, string>[] = [
+      ...q.forecasts.map((f) => ({ ...base, forecast_at: f.at, p: String(f.p), note: f.note, lenses: f.lenses ? JSON.stringify(f.lenses) : '' })),
+      ...q.references.map((r) => ({ ...base, reference_at: r.at, reference_p: String(r.p), reference_source: r.source })),
+    ];
+    if (lines.length === 0) lines.push(base);
+    for (const cells of lines) rows.push(CSV_COLUMNS.map((c) => cells[c] ?? ''));
+  }
+  const script =
+    'import csv, io, json, sys\n' +
+    'out = io.TextIOWrapper(sys.stdout.buffer, encoding="utf-8", newline="")\n' +
+    'csv.writer(out, lineterminator="\\r\\n").writerows(json.load(sys.stdin))\n' +
+    'out.flush()';
+  const r = spawnSync('/usr/bin/python3', ['-c', script], { input: JSON.stringify(rows), encoding: 'utf8', maxBuffer: 1 << 28 });
+  assert.equal(r.status, 0, r.stderr);
+  return r.stdout;
+}
+
+async function checkExports(d: TestDiary, label: string): Promise<void> {
+  const whole = await d.call('exportDiary', {});
+  const json = d.service.diary.exportText('json').text;
+  assert.equal(json, `${JSON.stringify(whole, null, 2)}\n`, `${label}: JSON, byte for byte`);
+  assert.equal(d.service.diary.exportText('csv').text, pythonCsv(whole.questions), `${label}: CSV, byte for byte`);
+}
+
+test('the streamed exports are byte-identical to the whole-diary JSON and to an independent CSV writer', async () => {
+  const demo = openTestDiary();
+  await demo.call('loadDemo', {});
+  await checkExports(demo, 'example diary');
+
+  // 1,234 questions: three export batches, with a third of them closing at the same instant,
+  // so batch boundaries fall inside a tie broken by id.
+  const random = openTestDiary();
+  const file = randomDiaryFile(1234, 20261202);
+  assert.equal((await random.call('importDiary', { diary: file })).added, 1234);
+  await checkExports(random, 'random diary');
+
+  const empty = openTestDiary();
+  await checkExports(empty, 'empty diary');
+});
+
+test('export → import → export is identical, in JSON and in CSV', async () => {
+  const source = openTestDiary();
+  await source.call('importDiary', { diary: randomDiaryFile(700, 7) });
+  await source.call('importDiary', { diary: buildDemoDiary(source.clock.now) });
+  for (const format of ['json', 'csv'] as const) {
+    const first = source.service.diary.exportText(format).text;
+    const copy = openTestDiary();
+    await copy.call('importText', { format, text: first });
+    assert.equal(copy.service.diary.exportText(format).text, first, format);
+  }
+});
+
+test('an export is one snapshot: a change committed while it streams is not half in the file', async () => {
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: randomDiaryFile(1200, 11) });
+  const before = d.service.diary.exportText('json').text;
+  // Another connection to the same file (another process, or the app beside the command line).
+  const other = openDiary({ dbPath: d.dbPath, now: () => d.clock.now, timeZone: 'UTC' });
+  after(() => other.close());
+  const ids = (other.diary.handlers.listQuestions({}) as QuestionList).questions.map((q) => q.id);
+  let text = '';
+  d.service.diary.exportTo('json', (piece) => {
+    if (text === '') {
+      // Between the first batch and the rest: a question that sorts last, a revision on one
+      // already written and on one not yet written, and a question deleted from a later batch.
+      const h = other.diary.handlers;
+      h.createQuestion({ title: 'Added meanwhile', closes_at: '2199-01-01T00:00:00Z' } as never);
+      h.addForecast({ question_id: ids[0]!, p: 0.9 } as never);
+      h.addForecast({ question_id: ids[ids.length - 1]!, p: 0.1 } as never);
+      h.deleteQuestion({ id: ids[ids.length - 2]! } as never);
+    }
+    text += piece;
+  });
+  assert.equal(text, before);
+  assert.notEqual(d.service.diary.exportText('json').text, before, 'the changes are there for the next export');
+});
+
+test('the export’s fast time formatter writes exactly what toIso writes', () => {
+  const iso = isoFormatter();
+  const DAY = 86_400_000;
+  const edges = [0, -1, 1, DAY - 1, DAY, -DAY, -DAY - 1, Date.UTC(1900, 0, 1), Date.UTC(2199, 11, 31, 23, 59, 59, 999), Date.UTC(2000, 1, 29, 12), Date.UTC(2024, 1, 29, 23, 59, 59, 999)];
+  let seed = 3;
+  const next = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
+  const random = Array.from({ length: 20_000 }, () => Math.floor((next() - 0.3) * 7e12));
+  // Sorted and shuffled: the formatter keeps the last day's date, so both orders matter.
+  for (const ms of [...edges, ...random, ...[...random].sort((a, b) => a - b), 1.5, -0.5]) assert.equal(iso(ms), toIso(ms), String(ms));
+});
