@@ -106,12 +106,19 @@ function noteCreated(created: boolean, location: string): void {
  */
 async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (service: DiaryService) => Promise<T>): Promise<T> {
   const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal });
-  noteCreated(service.store.created, service.location);
+  const { created } = service.store;
+  let result: T;
   try {
-    return await fn(service);
-  } finally {
+    result = await fn(service);
+  } catch (err) {
     service.close();
+    // A diary made for a command that then added nothing (a refused import) is not left behind.
+    if (created) for (const suffix of ['', '-wal', '-shm']) fs.rmSync(`${service.location}${suffix}`, { force: true });
+    throw err;
   }
+  service.close();
+  noteCreated(created, service.location);
+  return result;
 }
 
 /** Newest modification time of any file under `dir` (0 when it does not exist). */

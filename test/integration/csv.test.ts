@@ -344,7 +344,7 @@ test('malformed CSV is refused with the row and the line of the problem', () => 
     null,
   );
   refuses(
-    'title,closes_at\r\n"multi\nline",2026-09-30T16:00:00Z\r\nQ "two",2026-09-30T16:00:00Z\r\n',
+    'title,rule,closes_at\r\nQ one,"multi\nline",2026-09-30T16:00:00Z\r\nQ "two",,2026-09-30T16:00:00Z\r\n',
     'The file is not valid CSV at row 3, line 4: field 1 ("Q "") holds a double quote but does not start with one. A field holding commas, double quotes or line breaks must be enclosed in double quotes, with each double quote inside it doubled (""); correct it and import again. Nothing was imported.',
     3,
     null,
