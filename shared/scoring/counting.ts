@@ -108,6 +108,37 @@ function sortEntries(s: Scratch, n: number): void {
   }
 }
 
+/** Copies the question's forecasts at or before `end` into `own`; returns how many. */
+function collectCounting(q: ScoringQuestion, end: number, own: Scratch): number {
+  let count = 0;
+  const cols = q.forecast_columns;
+  if (cols !== undefined) {
+    own.ensure(cols.end - cols.start);
+    const { at, p, seq } = cols;
+    for (let r = cols.start; r < cols.end; r++) {
+      if (at[r]! <= end) {
+        own.at[count] = at[r]!;
+        own.p[count] = p[r]!;
+        own.key[count] = seq[r]!;
+        count++;
+      }
+    }
+    return count;
+  }
+  const fs = q.forecasts;
+  own.ensure(fs.length);
+  for (let j = 0; j < fs.length; j++) {
+    const f = fs[j]!;
+    if (f.at <= end) {
+      own.at[count] = f.at;
+      own.p[count] = f.p;
+      own.key[count] = f.seq;
+      count++;
+    }
+  }
+  return count;
+}
+
 function isProbability(p: number): boolean {
   return p >= 0 && p <= 1;
 }
@@ -135,12 +166,22 @@ function validateQuestion(q: ScoringQuestion, i: number): void {
     if (!(false_alarm > 0 && Number.isFinite(false_alarm))) assertPositive(false_alarm, `${describe(q, i)}: false-alarm cost`);
     if (!(miss > 0 && Number.isFinite(miss))) assertPositive(miss, `${describe(q, i)}: miss cost`);
   }
-  const fs = q.forecasts;
-  for (let j = 0; j < fs.length; j++) {
-    const f = fs[j]!;
-    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describe(q, i)}: forecast ${j} time`);
-    if (!isProbability(f.p)) assertProbability(f.p, `${describe(q, i)}: forecast ${j}`);
-    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describe(q, i)}: forecast ${j} entry order (seq)`);
+  const cols = q.forecast_columns;
+  if (cols !== undefined) {
+    for (let r = cols.start; r < cols.end; r++) {
+      const j = r - cols.start;
+      if (!Number.isFinite(cols.at[r]!)) assertFinite(cols.at[r]!, `${describe(q, i)}: forecast ${j} time`);
+      if (!isProbability(cols.p[r]!)) assertProbability(cols.p[r]!, `${describe(q, i)}: forecast ${j}`);
+      if (!Number.isFinite(cols.seq[r]!)) assertFinite(cols.seq[r]!, `${describe(q, i)}: forecast ${j} entry order (seq)`);
+    }
+  } else {
+    const fs = q.forecasts;
+    for (let j = 0; j < fs.length; j++) {
+      const f = fs[j]!;
+      if (!Number.isFinite(f.at)) assertFinite(f.at, `${describe(q, i)}: forecast ${j} time`);
+      if (!isProbability(f.p)) assertProbability(f.p, `${describe(q, i)}: forecast ${j}`);
+      if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describe(q, i)}: forecast ${j} entry order (seq)`);
+    }
   }
   const rs = q.references;
   for (let j = 0; j < rs.length; j++) {
@@ -200,18 +241,7 @@ export function prepareScoredSet(questions: readonly ScoringQuestion[], options:
       continue;
     }
 
-    const fs = q.forecasts;
-    own.ensure(fs.length);
-    let count = 0;
-    for (let j = 0; j < fs.length; j++) {
-      const f = fs[j]!;
-      if (f.at <= end) {
-        own.at[count] = f.at;
-        own.p[count] = f.p;
-        own.key[count] = f.seq;
-        count++;
-      }
-    }
+    const count = collectCounting(q, end, own);
     if (count === 0) {
       counts.unscored++;
       continue;
