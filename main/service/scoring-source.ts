@@ -7,9 +7,9 @@
  *
  * Why a collecting SQL function: better-sqlite3 builds one JavaScript array per row, which
  * costs several times SQLite's own scan for 200,000 revisions; packing them into text in
- * SQL (group_concat + printf) is as slow and misreads a stored double by one unit in the
- * last place (SQLite's %g stops at 16 significant digits). A function called once per row
- * receives each value as the double SQLite holds and writes it into typed arrays.
+ * SQL (group_concat + printf) is as slow and misreads some stored doubles (SQLite prints
+ * 0.1 + 0.2 as 0.3). A function called once per row receives each value as the double
+ * SQLite holds and writes it into typed arrays.
  */
 import type { ForecastColumns, ScoringForecast, ScoringQuestion } from '../../shared/scoring';
 import type { Db } from '../store/open';
@@ -25,7 +25,8 @@ interface RevisionRows {
 
 /** Where the collecting function writes during one read; null between reads. */
 interface Collector {
-  slots: Map<string, number>;
+  /** Question rowid → its index in the answer. */
+  slotOfRowid: Int32Array;
   rows: RevisionRows;
 }
 
@@ -37,7 +38,7 @@ function emptyRows(capacity: number): RevisionRows {
 }
 
 function grow(rows: RevisionRows): void {
-  const bigger = emptyRows(rows.at.length * 2);
+  const bigger = emptyRows(Math.max(16, rows.at.length * 2));
   bigger.slot.set(rows.slot);
   bigger.at.set(rows.at);
   bigger.p.set(rows.p);
@@ -50,14 +51,13 @@ function collectorFor(db: Db): { current: Collector | null } {
   const known = collectors.get(db);
   if (known) return known;
   const holder: { current: Collector | null } = { current: null };
-  db.function(COLLECT_FN, { directOnly: true }, (questionId: unknown, at: unknown, p: unknown, seq: unknown) => {
+  db.function(COLLECT_FN, { directOnly: true }, (questionRowid: unknown, at: unknown, p: unknown, seq: unknown) => {
     const c = holder.current;
     if (c === null) throw new Error(`${COLLECT_FN} belongs to the scoring reader and cannot be called on its own`);
     const { rows } = c;
     if (rows.n === rows.at.length) grow(rows);
     const i = rows.n++;
-    // A revision without its question (impossible with foreign keys on) gets slot -1 and is left out.
-    rows.slot[i] = c.slots.get(questionId as string) ?? -1;
+    rows.slot[i] = c.slotOfRowid[questionRowid as number]!;
     rows.at[i] = at as number;
     rows.p[i] = p as number;
     rows.seq[i] = seq as number;
@@ -67,105 +67,168 @@ function collectorFor(db: Db): { current: Collector | null } {
   return holder;
 }
 
-/** Every revision of the diary, in table order (the engine orders each question's own by time, then seq). */
-function readRevisions(db: Db, slots: Map<string, number>): RevisionRows {
+/**
+ * Every revision of the diary, in table order (the engine orders each question's own by time,
+ * then seq). The question is named by its rowid, so no text crosses per revision.
+ */
+function readRevisions(db: Db, slotOfRowid: Int32Array): RevisionRows {
   const holder = collectorFor(db);
-  const rows = emptyRows(4096);
-  holder.current = { slots, rows };
+  // seq only grows (AUTOINCREMENT), so the largest is a bound on the row count found in one step.
+  const rows = emptyRows(((db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null) ?? 0) + 1);
+  holder.current = { slotOfRowid, rows };
   try {
-    db.prepare(`SELECT count(${COLLECT_FN}(question_id, at, p, seq)) FROM forecasts`).pluck().get();
+    db.prepare(`SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM forecasts f JOIN questions q ON q.id = f.question_id`).pluck().get();
   } finally {
     holder.current = null;
   }
   return rows;
 }
 
-/** Regroups the rows by question (a counting sort, keeping table order within each): one column range per question. */
+/**
+ * One column range per question. When each question's revisions already sit together in
+ * table order (as after an import) the rows are used as they are; otherwise they are
+ * regrouped by a counting sort that keeps table order within each question.
+ */
 function columnsByQuestion(rows: RevisionRows, questionCount: number): ForecastColumns[] {
-  const starts = new Int32Array(questionCount + 1);
-  for (let i = 0; i < rows.n; i++) if (rows.slot[i]! >= 0) starts[rows.slot[i]! + 1]!++;
-  for (let q = 0; q < questionCount; q++) starts[q + 1]! += starts[q]!;
-  const total = starts[questionCount]!;
-  const at = new Float64Array(total);
-  const p = new Float64Array(total);
-  const seq = new Float64Array(total);
-  const next = starts.slice(0, questionCount);
+  const start = new Int32Array(questionCount).fill(-1);
+  const end = new Int32Array(questionCount);
+  let together = true;
   for (let i = 0; i < rows.n; i++) {
     const s = rows.slot[i]!;
-    if (s < 0) continue;
-    const to = next[s]!++;
+    if (start[s] === -1) start[s] = i;
+    else if (end[s] !== i) together = false;
+    end[s] = i + 1;
+  }
+  if (together) {
+    const { at, p, seq } = rows;
+    return Array.from({ length: questionCount }, (_, q) => (start[q] === -1 ? { at, p, seq, start: 0, end: 0 } : { at, p, seq, start: start[q]!, end: end[q]! }));
+  }
+  const offsets = new Int32Array(questionCount + 1);
+  for (let i = 0; i < rows.n; i++) offsets[rows.slot[i]! + 1]!++;
+  for (let q = 0; q < questionCount; q++) offsets[q + 1]! += offsets[q]!;
+  const at = new Float64Array(rows.n);
+  const p = new Float64Array(rows.n);
+  const seq = new Float64Array(rows.n);
+  const next = offsets.slice(0, questionCount);
+  for (let i = 0; i < rows.n; i++) {
+    const to = next[rows.slot[i]!]!++;
     at[to] = rows.at[i]!;
     p[to] = rows.p[i]!;
     seq[to] = rows.seq[i]!;
   }
-  const out: ForecastColumns[] = new Array(questionCount);
-  for (let q = 0; q < questionCount; q++) out[q] = { at, p, seq, start: starts[q]!, end: starts[q + 1]! };
-  return out;
+  return Array.from({ length: questionCount }, (_, q) => ({ at, p, seq, start: offsets[q]!, end: offsets[q + 1]! }));
 }
 
-function forecastList(c: ForecastColumns): ScoringForecast[] {
-  const list: ScoringForecast[] = [];
-  for (let r = c.start; r < c.end; r++) list.push({ at: c.at[r]!, p: c.p[r]!, seq: c.seq[r]! });
-  return list;
-}
-
-type QuestionRow = [string, string, ScoringQuestion['kind'], number, number | null, number | null, number | null, 'yes' | 'no' | 'void' | null, number | null];
+const LIST = Symbol('forecast list');
 
 /**
- * One question for the engine. `forecasts` is built from the columns on first read and then
- * kept; assigning a new list drops the columns, so the engine never reads stale ones.
+ * `forecasts` as an own, enumerable accessor (so a spread copy still carries the list) whose
+ * functions are shared by every question, which keeps the objects small and fast.
  */
-function scoringQuestion(row: QuestionRow, columns: ForecastColumns): ScoringQuestion {
-  const [id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt] = row;
-  let list: ScoringForecast[] | null = null;
-  return {
-    id,
-    title,
-    tags: [],
-    kind,
-    closes_at: closes,
-    resolution: outcome ? { outcome, at: resolvedAt! } : null,
-    base_rate: baseRate,
-    costs: fa !== null && miss !== null ? { false_alarm: fa, miss } : null,
-    forecast_columns: columns,
-    get forecasts(): ScoringForecast[] {
-      return (list ??= forecastList(columns));
-    },
-    set forecasts(replacement: ScoringForecast[]) {
-      list = replacement;
-      delete this.forecast_columns;
-    },
-    references: [],
-  };
+const FORECASTS: PropertyDescriptor & ThisType<StoredQuestion> = {
+  get(): ScoringForecast[] {
+    let list = this[LIST];
+    if (list === null) {
+      const c = this.forecast_columns!;
+      list = [];
+      for (let r = c.start; r < c.end; r++) list.push({ at: c.at[r]!, p: c.p[r]!, seq: c.seq[r]! });
+      this[LIST] = list;
+    }
+    return list;
+  },
+  set(list: ScoringForecast[]) {
+    this[LIST] = list;
+    this.forecast_columns = undefined; // no longer the same revisions
+  },
+  enumerable: true,
+  configurable: true,
+};
+
+/** A question as the engine reads it; `forecasts` is built from the columns on first read. */
+class StoredQuestion {
+  declare forecasts: ScoringForecast[];
+  declare [LIST]: ScoringForecast[] | null;
+  tags: string[];
+  resolution: ScoringQuestion['resolution'];
+  costs: ScoringQuestion['costs'];
+  references: ScoringQuestion['references'] = [];
+
+  constructor(
+    readonly id: string,
+    readonly title: string,
+    readonly kind: ScoringQuestion['kind'],
+    readonly closes_at: number,
+    readonly base_rate: number | null,
+    costs: ScoringQuestion['costs'],
+    resolution: ScoringQuestion['resolution'],
+    tags: string[],
+    public forecast_columns: ForecastColumns | undefined,
+  ) {
+    this.costs = costs;
+    this.resolution = resolution;
+    this.tags = tags;
+    Object.defineProperty(this, LIST, { value: null, writable: true, enumerable: false });
+    Object.defineProperty(this, 'forecasts', FORECASTS);
+  }
 }
+
+type QuestionRow = [
+  rowid: number,
+  id: string,
+  title: string,
+  kind: ScoringQuestion['kind'],
+  closes_at: number,
+  base_rate: number | null,
+  false_alarm_cost: number | null,
+  miss_cost: number | null,
+  outcome: 'yes' | 'no' | 'void' | null,
+  resolved_at: number | null,
+  tags: string,
+];
 
 /**
  * The whole diary as the engine's questions, from one consistent snapshot of the file.
- * References come in time order, because the engine lets the later of two same-time
- * references stand.
+ * Tags come in the question's order; references in time order, because the engine lets
+ * the later of two same-time references stand.
  */
 export function loadScoringQuestions(db: Db): ScoringQuestion[] {
   return db.transaction(() => {
     const rows = db
       .prepare(
-        `SELECT q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at AS resolved_at
+        `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at,
+           (SELECT json_group_array(tag ORDER BY position) FROM question_tags WHERE question_id = q.id)
          FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id`,
       )
       .raw()
       .all() as QuestionRow[];
-    const slots = new Map<string, number>();
-    rows.forEach((row, i) => slots.set(row[0], i));
-    const columns = columnsByQuestion(readRevisions(db, slots), rows.length);
-    const questions = rows.map((row, i) => scoringQuestion(row, columns[i]!));
+    let maxRowid = 0;
+    for (const row of rows) maxRowid = Math.max(maxRowid, row[0]);
+    const slotOfRowid = new Int32Array(maxRowid + 1);
+    rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
+    const columns = columnsByQuestion(readRevisions(db, slotOfRowid), rows.length);
+    // Most questions share a handful of tag sets: each distinct one is parsed once, and each question gets its own copy.
+    const tagSets = new Map<string, string[]>();
+    const questions: ScoringQuestion[] = rows.map(([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt, tagsJson], i) => {
+      let tags = tagSets.get(tagsJson);
+      if (!tags) tagSets.set(tagsJson, (tags = JSON.parse(tagsJson) as string[]));
+      return new StoredQuestion(
+        id,
+        title,
+        kind,
+        closes,
+        baseRate,
+        fa !== null && miss !== null ? { false_alarm: fa, miss } : null,
+        outcome ? { outcome, at: resolvedAt! } : null,
+        tags.slice(),
+        columns[i],
+      );
+    });
 
-    for (const [qid, tag] of db.prepare('SELECT question_id, tag FROM question_tags ORDER BY question_id, position').raw().all() as [string, string][]) {
-      const i = slots.get(qid);
-      if (i !== undefined) questions[i]!.tags.push(tag);
-    }
-    for (const [qid, at, p] of db.prepare('SELECT question_id, at, p FROM reference_forecasts ORDER BY question_id, at, seq').raw().all() as [string, number, number][]) {
-      const i = slots.get(qid);
-      if (i !== undefined) questions[i]!.references.push({ at, p });
-    }
+    const references = db
+      .prepare('SELECT q.rowid, r.at, r.p FROM reference_forecasts r JOIN questions q ON q.id = r.question_id ORDER BY r.question_id, r.at, r.seq')
+      .raw()
+      .all() as [number, number, number][];
+    for (const [rowid, at, p] of references) questions[slotOfRowid[rowid]!]!.references.push({ at, p });
     return questions;
   })();
 }

@@ -152,3 +152,24 @@ test('a copy or a replaced forecast list is scored from what it holds', async ()
   assert.equal(loaded.forecast_columns, undefined, 'a replaced list drops the columns it no longer matches');
   assert.equal(computeScoreReport([loaded], options).brier, (0.2 - 1) ** 2);
 });
+
+test('revisions written to several questions in turn each reach their own question', async () => {
+  const d = openTestDiary({ now: '2026-02-01T12:00:00Z' });
+  const qs = [];
+  for (const title of ['North', 'South', 'East', 'Quiet']) qs.push(await d.call('createQuestion', { ...base, title }));
+  // Round-robin, so no question's revisions sit together in the table.
+  for (let round = 0; round < 5; round++) {
+    for (const [k, q] of qs.slice(0, 3).entries()) {
+      await d.call('addForecast', { question_id: q.id, p: (round * 3 + k) / 20, at: `2026-01-${String(10 + round).padStart(2, '0')}T09:00:00Z` });
+    }
+  }
+  const input = new Map(loadScoringQuestions(d.service.store.read).map((q) => [q.id, q]));
+  for (const q of qs) {
+    const whole = await d.call('getQuestion', { id: q.id });
+    const expected = whole.forecasts.map((f: { at: string; p: number; seq: number }) => ({ at: Date.parse(f.at), p: f.p, seq: f.seq }));
+    const got = [...input.get(q.id)!.forecasts].sort((x, y) => x.seq - y.seq);
+    assert.deepEqual(got, [...expected].sort((x, y) => x.seq - y.seq), q.title);
+  }
+  assert.deepEqual(input.get(qs[3]!.id)!.forecasts, []);
+  assert.equal(input.get(qs[0]!.id)!.forecasts.length, 5);
+});
