@@ -67,9 +67,11 @@ export function nudgeTimeZone(question: Pick<PlanQuestion, 'time_zone'>, setting
 
 // The scheduler re-plans every minute from the same anchors, and each shift costs several
 // Intl formatting calls (tens of µs each); the answer depends only on the arguments (the
-// runtime's tz data is fixed for the process), so it is remembered. Bounded by clearing.
+// runtime's tz data is fixed for the process), so it is remembered. Bounded by clearing, at
+// a size that holds a check-in and an overdue instant for every open question of a very
+// large diary (about 10 MB), so the minute tick does not start from nothing each time.
 const shiftMemo = new Map<string, number>();
-const SHIFT_MEMO_LIMIT = 10_000;
+const SHIFT_MEMO_LIMIT = 100_000;
 
 /**
  * `days` calendar days after `ms` at the same wall-clock time in `timeZone`. Keeps the
@@ -116,6 +118,26 @@ function activeSnoozes(snoozes: readonly Snooze[], now: number): Set<string> {
 }
 
 const KIND_ORDER = new Map(NUDGE_KINDS.map((k, i) => [k, i]));
+const DAY_MS = 86_400_000;
+
+/** Appends to `out` the nudges of one question due at `now`; the rules of the module comment, in one place. */
+function planQuestion(q: PlanQuestion, settings: Settings, snoozed: Set<string>, soonMs: number, now: number, out: Nudge[]): void {
+  const close = q.closes_at;
+  if (!Number.isFinite(close)) return;
+  const add = (kind: NudgeKind, due_at: number): void => {
+    if (!snoozed.has(`${kind}|${q.id}`)) out.push({ question_id: q.id, title: q.title, kind, due_at });
+  };
+  if (now < close) {
+    const checkin = checkinAt(q, settings);
+    if (checkin !== null && checkin <= now && checkin < close) add('checkin', checkin);
+    const soon = close - soonMs;
+    if (soon <= now) add('closing_soon', soon);
+  } else {
+    const overdue = overdueAt(close, nudgeTimeZone(q, settings), settings);
+    if (now < overdue) add('window_closed', close);
+    else add('overdue', overdue);
+  }
+}
 
 /**
  * Every nudge due at `now` (epoch ms), sorted by `due_at`, then title (then question id and
@@ -131,24 +153,7 @@ export function planNudges(
   const nudges: Nudge[] = [];
   const snoozed = activeSnoozes(snoozes, now);
   const soonMs = Math.max(0, settings.closing_soon_hours) * HOUR_MS;
-  for (const q of questions) {
-    const close = q.closes_at;
-    if (!Number.isFinite(close)) continue;
-    const add = (kind: NudgeKind, due_at: number): void => {
-      if (!snoozed.has(`${kind}|${q.id}`)) nudges.push({ question_id: q.id, title: q.title, kind, due_at });
-    };
-
-    if (now < close) {
-      const checkin = checkinAt(q, settings);
-      if (checkin !== null && checkin <= now && checkin < close) add('checkin', checkin);
-      const soon = close - soonMs;
-      if (soon <= now) add('closing_soon', soon);
-    } else {
-      const overdue = overdueAt(close, nudgeTimeZone(q, settings), settings);
-      if (now < overdue) add('window_closed', close);
-      else add('overdue', overdue);
-    }
-  }
+  for (const q of questions) planQuestion(q, settings, snoozed, soonMs, now, nudges);
   // One collator for the whole sort: `localeCompare(…, 'en')` per pair sets one up each time.
   const byTitle = new Intl.Collator('en').compare;
   return nudges.sort(
@@ -167,4 +172,43 @@ export function planNudges(
  */
 export function dueQuestionCount(nudges: readonly Nudge[]): number {
   return new Set(nudges.map((n) => n.question_id)).size;
+}
+
+/**
+ * `dueQuestionCount(planNudges(…))` without working out instants that cannot change the
+ * answer, for the count every screen and the tray show: a closed question is due whichever
+ * of its two nudges applies unless one of them is snoozed, and a check-in more than two days
+ * from `now` is settled by arithmetic (a shift of N calendar days differs from N × 24 h by at
+ * most the change in UTC offset, under 26 h, plus as much again for a gap). Anything nearer
+ * is planned exactly.
+ */
+export function countDueQuestions(questions: readonly PlanQuestion[], settings: Settings, snoozes: readonly Snooze[], now: number): number {
+  const snoozed = activeSnoozes(snoozes, now);
+  const soonMs = Math.max(0, settings.closing_soon_hours) * HOUR_MS;
+  const margin = 2 * DAY_MS;
+  const scratch: Nudge[] = [];
+  let count = 0;
+  for (const q of questions) {
+    const close = q.closes_at;
+    if (!Number.isFinite(close)) continue;
+    if (now >= close) {
+      if (!snoozed.has(`window_closed|${q.id}`) && !snoozed.has(`overdue|${q.id}`)) {
+        count++;
+        continue;
+      }
+    } else {
+      if (close - soonMs <= now && !snoozed.has(`closing_soon|${q.id}`)) {
+        count++;
+        continue;
+      }
+      const days = wholeDays(q.checkin_days ?? settings.default_checkin_days);
+      const anchor = q.last_forecast_at ?? q.opened_at;
+      const roughly = anchor + days * DAY_MS;
+      if (days === 0 || !Number.isFinite(anchor) || now < roughly - margin || snoozed.has(`checkin|${q.id}`)) continue;
+    }
+    scratch.length = 0;
+    planQuestion(q, settings, snoozed, soonMs, now, scratch);
+    if (scratch.length > 0) count++;
+  }
+  return count;
 }

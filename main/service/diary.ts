@@ -26,8 +26,7 @@ import { readSettings, writeSettings } from '../store/settings';
 import { confidentCalls, referenceLeads } from './hindsight';
 import { toICalendar } from './calendar';
 import { CsvError, csvToDiary, diaryToCsv } from './csv';
-import { dueQuestionCount } from '../nudges/plan';
-import { dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
+import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
 import { loadScoringQuestions } from './scoring-source';
 
@@ -535,7 +534,7 @@ export function createDiary(ctx: DiaryContext) {
 
     dueCount: (req) => {
       const at = req.at !== undefined ? ms(req.at) : now();
-      return { at: toIso(at), count: dueQuestionCount(dueAt(store, settings(), at).nudges) };
+      return { at: toIso(at), count: countDueAt(store, settings(), at) };
     },
 
     snooze: (req) => {

@@ -4,7 +4,7 @@
  */
 import type { Question, QuestionKind, Settings } from '../../shared/domain';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../shared/time';
-import { planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from '../nudges/plan';
+import { countDueQuestions, planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from '../nudges/plan';
 import { createScheduler, type Scheduler, type SchedulerPorts } from '../nudges/scheduler';
 import * as nudgeStore from '../store/nudges';
 import type { Db, StoreHandles } from '../store/open';
@@ -39,8 +39,9 @@ export function dueQuestions(db: Db): DueQuestion[] {
     .prepare(
       `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.p
        FROM questions q
+       LEFT JOIN resolutions r ON r.question_id = q.id
        LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
-       WHERE q.id NOT IN (SELECT question_id FROM resolutions)`,
+       WHERE r.question_id IS NULL`,
     )
     .raw()
     .all() as DueRow[];
@@ -61,10 +62,21 @@ export function snoozes(store: StoreHandles): Snooze[] {
   return nudgeStore.allSnoozes(store.read);
 }
 
-/** What is due at `at`, with the questions it was planned from (one snapshot of the file). */
+/** The unresolved questions and the snoozes, from one snapshot of the file. */
+function planInput(store: StoreHandles): { questions: DueQuestion[]; snoozed: Snooze[] } {
+  return store.read.transaction(() => ({ questions: dueQuestions(store.read), snoozed: snoozes(store) }))();
+}
+
+/** What is due at `at`, with the questions it was planned from. */
 export function dueAt(store: StoreHandles, settings: Settings, at: number): { questions: DueQuestion[]; nudges: Nudge[] } {
-  const { questions, snoozed } = store.read.transaction(() => ({ questions: dueQuestions(store.read), snoozed: snoozes(store) }))();
+  const { questions, snoozed } = planInput(store);
   return { questions, nudges: planNudges(questions, settings, snoozed, at) };
+}
+
+/** How many questions have something due at `at` (the Desk's item count). */
+export function countDueAt(store: StoreHandles, settings: Settings, at: number): number {
+  const { questions, snoozed } = planInput(store);
+  return countDueQuestions(questions, settings, snoozed, at);
 }
 
 export type SnoozePreset = 'hour' | 'tomorrow_morning' | 'next_week';

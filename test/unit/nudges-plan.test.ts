@@ -9,7 +9,7 @@ import assert from 'node:assert/strict';
 import { defaultSettings, type Settings } from '../../shared/domain';
 import { addCalendarDays } from '../../shared/time';
 import { planQuestion } from '../support/builders';
-import { checkinAt, planNudges, type Nudge, type Snooze } from '../../main/nudges/plan';
+import { checkinAt, countDueQuestions, dueQuestionCount, planNudges, type Nudge, type PlanQuestion, type Snooze } from '../../main/nudges/plan';
 
 const ms = (iso: string): number => Date.parse(iso);
 
@@ -180,4 +180,51 @@ test("a question without a usable zone is placed in the diary's zone", () => {
   assert.equal(checkinAt(q, settings({ time_zone: 'America/New_York' })), ms('2025-03-10T13:00:00.000Z'));
   // In UTC it would be exactly 7 × 24 h later.
   assert.equal(checkinAt(q, settings({ time_zone: 'UTC' })), ms('2025-03-10T14:00:00.000Z'));
+});
+
+test('the quick due count equals the number of questions planNudges finds, near every edge', () => {
+  // A seeded walk over questions whose check-ins, warnings and closes fall within hours of
+  // `now`, in zones with and without DST (including Lord Howe's 30-minute change and
+  // Samoa's skipped day), with snoozes on some kinds; every case is checked, not sampled.
+  let seed = 7;
+  const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+  const zones = ['UTC', 'Europe/London', 'America/New_York', 'Australia/Sydney', 'Australia/Lord_Howe', 'Pacific/Apia', 'Asia/Kolkata', 'not/a-zone'];
+  const HOUR = 3_600_000;
+  const DAY = 24 * HOUR;
+  const kinds = ['checkin', 'closing_soon', 'window_closed', 'overdue'] as const;
+  let dueSomewhere = 0;
+  for (const nowIso of ['2025-03-30T01:00:00.000Z', '2025-10-26T00:59:59.999Z', '2011-12-30T10:00:00.000Z', '2025-04-06T15:30:00.000Z', '2026-01-15T12:00:00.000Z']) {
+    const now = ms(nowIso);
+    for (let round = 0; round < 40; round++) {
+      const s = settings({
+        default_checkin_days: Math.floor(rand() * 4),
+        closing_soon_hours: 1 + Math.floor(rand() * 48),
+        overdue_after_days: Math.floor(rand() * 4),
+        time_zone: zones[Math.floor(rand() * zones.length)]!,
+      });
+      const questions: PlanQuestion[] = [];
+      const snoozes: Snooze[] = [];
+      for (let i = 0; i < 12; i++) {
+        const days = Math.floor(rand() * 4);
+        const close = now + Math.round((rand() - 0.5) * 10 * DAY);
+        const anchor = now - days * DAY + Math.round((rand() - 0.5) * 6 * DAY);
+        questions.push({
+          id: `q${i}`,
+          title: `Question ${i}`,
+          opened_at: Math.min(anchor, close - 1),
+          closes_at: close,
+          time_zone: zones[Math.floor(rand() * zones.length)]!,
+          checkin_days: rand() < 0.3 ? null : days,
+          last_forecast_at: rand() < 0.2 ? null : anchor,
+        });
+        for (const kind of kinds) {
+          if (rand() < 0.15) snoozes.push({ question_id: `q${i}`, kind, until: now + Math.round((rand() - 0.3) * 4 * HOUR) });
+        }
+      }
+      const exact = dueQuestionCount(planNudges(questions, s, snoozes, now));
+      dueSomewhere += exact;
+      assert.equal(countDueQuestions(questions, s, snoozes, now), exact, `${nowIso}, round ${round}`);
+    }
+  }
+  assert.ok(dueSomewhere > 300, 'the cases include plenty that are due');
 });
