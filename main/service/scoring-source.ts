@@ -183,20 +183,19 @@ type QuestionRow = [
   miss_cost: number | null,
   outcome: 'yes' | 'no' | 'void' | null,
   resolved_at: number | null,
-  tags: string,
 ];
 
 /**
  * The whole diary as the engine's questions, from one consistent snapshot of the file.
  * Tags come in the question's order; references in time order, because the engine lets
- * the later of two same-time references stand.
+ * the later of two same-time references stand. Every table is joined to its question by
+ * rowid, so no question id is read as text more than once.
  */
 export function loadScoringQuestions(db: Db): ScoringQuestion[] {
   return db.transaction(() => {
     const rows = db
       .prepare(
-        `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at,
-           (SELECT json_group_array(tag ORDER BY position) FROM question_tags WHERE question_id = q.id)
+        `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
          FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id`,
       )
       .raw()
@@ -206,23 +205,16 @@ export function loadScoringQuestions(db: Db): ScoringQuestion[] {
     const slotOfRowid = new Int32Array(maxRowid + 1);
     rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
     const columns = columnsByQuestion(readRevisions(db, slotOfRowid), rows.length);
-    // Most questions share a handful of tag sets: each distinct one is parsed once, and each question gets its own copy.
-    const tagSets = new Map<string, string[]>();
-    const questions: ScoringQuestion[] = rows.map(([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt, tagsJson], i) => {
-      let tags = tagSets.get(tagsJson);
-      if (!tags) tagSets.set(tagsJson, (tags = JSON.parse(tagsJson) as string[]));
-      return new StoredQuestion(
-        id,
-        title,
-        kind,
-        closes,
-        baseRate,
-        fa !== null && miss !== null ? { false_alarm: fa, miss } : null,
-        outcome ? { outcome, at: resolvedAt! } : null,
-        tags.slice(),
-        columns[i],
-      );
-    });
+    const questions: ScoringQuestion[] = rows.map(
+      ([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt], i) =>
+        new StoredQuestion(id, title, kind, closes, baseRate, fa !== null && miss !== null ? { false_alarm: fa, miss } : null, outcome ? { outcome, at: resolvedAt! } : null, [], columns[i]),
+    );
+
+    const tags = db
+      .prepare('SELECT q.rowid, t.tag FROM question_tags t JOIN questions q ON q.id = t.question_id ORDER BY t.question_id, t.position')
+      .raw()
+      .all() as [number, string][];
+    for (const [rowid, tag] of tags) questions[slotOfRowid[rowid]!]!.tags.push(tag);
 
     const references = db
       .prepare('SELECT q.rowid, r.at, r.p FROM reference_forecasts r JOIN questions q ON q.id = r.question_id ORDER BY r.question_id, r.at, r.seq')

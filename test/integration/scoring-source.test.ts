@@ -94,7 +94,7 @@ test('revisions reach their own questions; the same time is settled by entry ord
         {
           id: 'a',
           title: 'Alpha',
-          tags: ['client:wendlebrook', 'renewals'],
+          tags: ['renewals', 'client:wendlebrook', 'delivery'],
           opened_at: '2026-01-01T00:00:00Z',
           closes_at: '2026-03-01T00:00:00Z',
           forecasts: [
@@ -127,7 +127,7 @@ test('revisions reach their own questions; the same time is settled by entry ord
     ],
     'every revision of Alpha, with seq following the order it was entered',
   );
-  assert.deepEqual(a.tags, ['client:wendlebrook', 'renewals']);
+  assert.deepEqual(a.tags, ['renewals', 'client:wendlebrook', 'delivery'], 'in the order the question lists them');
   assert.deepEqual(a.references, [{ at: Date.parse('2026-01-10T00:00:00Z'), p: 0.4 }, { at: Date.parse('2026-01-20T00:00:00Z'), p: 0.6 }]);
   assert.deepEqual(a.resolution, { outcome: 'no', at: Date.parse('2026-03-02T00:00:00Z') });
   assert.deepEqual(input.get('b')!.forecasts.map((f) => f.p), [0.2]);
