@@ -9,7 +9,7 @@
  * Everything it touches is a port, so tests drive it with a fake clock and in-memory
  * stores, and the app plugs in SQLite, Electron notifications and the Desk badge.
  */
-import cron from 'node-cron';
+import { createRequire } from 'node:module';
 import type { Settings } from '../../shared/domain';
 import { isValidTimeZone } from '../../shared/time';
 import { deliveryKey } from './keys';
@@ -78,6 +78,15 @@ export const CATCH_UP_GAP_MS = 150_000;
 
 export const TICK_EXPRESSION = '* * * * *';
 
+/**
+ * node-cron, loaded when a scheduler first starts rather than when this module is: the
+ * command line imports the service (and so this module) on every call but never starts a
+ * scheduler, and loading node-cron is a noticeable part of a short command's start-up.
+ */
+function nodeCron(): CronModule {
+  return createRequire(import.meta.url)('node-cron') as CronModule;
+}
+
 export function createScheduler(ports: SchedulerPorts): Scheduler {
   let lastRunAt: number | null = null;
   let heldByQuietHours = false;
@@ -137,8 +146,9 @@ export function createScheduler(ports: SchedulerPorts): Scheduler {
 
   return {
     runOnce,
-    start(cronModule: CronModule = cron) {
+    start(cronModule?: CronModule) {
       if (task) return;
+      cronModule ??= nodeCron();
       // The tick is scheduled before the start-up run, so a failing first run (its error
       // is rethrown to the caller) is retried by the next tick instead of ending nudges.
       task = cronModule.createTask(TICK_EXPRESSION, () => void runOnce('tick'), {

@@ -6,7 +6,7 @@
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import cron from 'node-cron';
+import { createRequire } from 'node:module';
 import { defaultSettings, type Settings } from '../../shared/domain';
 import { planQuestion } from '../support/builders';
 import { createScheduler, type CronModule, type SchedulerPorts } from '../../main/nudges/scheduler';
@@ -418,6 +418,9 @@ test('start() creates and starts a minute task, runs once at start, and the task
 });
 
 test('with the real node-cron module, start() registers a started minute task and stop() removes it', () => {
+  // The scheduler requires node-cron when it starts (as the bundled app does), so its task
+  // is in the registry of the module `require` gives, not of an ES-module import.
+  const cron = createRequire(import.meta.url)('node-cron') as typeof import('node-cron');
   const t = harness({ now: '2025-06-02T08:00:00.000Z', settings: defaultSettings('UTC'), questions: [] });
   const before = new Set(cron.getTasks().keys());
   t.scheduler.start();
