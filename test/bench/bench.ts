@@ -8,14 +8,17 @@
  *     (Brier, log score, calibration bins) computed with numpy from the exported file by
  *     Debian's /usr/bin/python3, timed as a whole process in the same run; it must agree;
  *   - reading the diary for scoring and the engine's own compute, in process;
+ *   - `due` and `dueCount` per call to a running `forelog serve`;
  *   - in browser mode (`forelog serve` in Chromium): opening Questions, one search keystroke
- *     (includes the search box's 250 ms pause), opening the Desk and Hindsight, a Scorecard
- *     tag change, and the DOM node count of each screen.
- * Whole-process figures are medians of 5 (3 at 100,000), in-process ones of 5; the load
- * average before and after is printed because other work on the machine inflates them.
+ *     (includes the search box's 250 ms pause), opening the Desk, Hindsight and the
+ *     Scorecard, a Scorecard tag change, and the DOM node count of each screen.
+ * Whole-process figures are medians of 5 (3 at 100,000), in-process and per-call ones of 5,
+ * browser ones of 5 (1 at 100,000); the load average before and after is printed because
+ * other work on the machine inflates them.
  * Figures are printed, never asserted: timings do not belong in pass/fail tests.
  */
 import { spawn, spawnSync } from 'node:child_process';
+import type { Page } from '@playwright/test';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -78,41 +81,62 @@ function peerAgrees(peer: { scored: number; brier: number; log_score: number; bi
   return ok ? 'agrees' : 'DISAGREES (check the counting rules of score_peer.py)';
 }
 
-interface BrowserFigures {
-  questionsOpen: number;
-  questionsNodes: number;
-  searchKeystroke: number;
-  deskOpen: number;
-  deskNodes: number;
-  hindsightOpen: number;
-  hindsightNodes: number;
-  scorecardOpen: number;
-  scorecardNodes: number;
-  scorecardFilter: number;
-}
-
-/** Screens in browser mode: in-app navigation from Settings to each screen, timed until its content is drawn. */
-async function browserFigures(dbPath: string, times: number): Promise<BrowserFigures> {
-  const server = spawn(process.execPath, [CLI, 'serve', '--db', dbPath, '--port', '0'], { stdio: ['ignore', 'pipe', 'inherit'] });
+/**
+ * Screens in browser mode, each measured on its own so one that cannot finish (a screen that
+ * draws every row of a very large diary) does not hide the others: in-app navigation from
+ * Settings to the screen, timed until its content is drawn, then the page's DOM node count.
+ * Calls `put(label, figure)` for each; a figure is "not measured: …" when a step timed out.
+ */
+async function browserFigures(dbPath: string, times: number, timeoutMs: number, put: (label: string, value: string) => void): Promise<void> {
+  const server = spawn(process.execPath, [CLI, 'serve', '--db', dbPath, '--port', '0'], { stdio: ['ignore', 'pipe', 'ignore'] });
   try {
     const url = await new Promise<string>((resolve, reject) => {
       readline.createInterface({ input: server.stdout! }).once('line', resolve);
       server.once('exit', () => reject(new Error('forelog serve exited before printing its address')));
     });
+    // The due list and the top bar's count as the running app asks for them, after one warm-up call.
+    const address = new URL(url);
+    for (const op of ['due', 'dueCount']) {
+      const call = async () => {
+        const t0 = performance.now();
+        const response = await fetch(`${address.origin}/api/${op}`, {
+          method: 'POST',
+          headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${address.searchParams.get('token')}` },
+          body: '{}',
+        });
+        await response.text();
+        return performance.now() - t0;
+      };
+      await call();
+      const spans: number[] = [];
+      for (let i = 0; i < 5; i++) spans.push(await call());
+      put(`${op} per call in serve`, ms(median(spans)));
+    }
+
     const { chromium } = await import('@playwright/test');
     const browser = await chromium.launch({
       executablePath: CHROMIUM,
       args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
     });
+    const wait = { timeout: timeoutMs };
     try {
-      const page = await browser.newPage({ viewport: { width: 1280, height: 860 } });
-      const wait = { timeout: 120_000 };
-      const nodes = () => page.evaluate(() => document.querySelectorAll('*').length);
-      await page.goto(`${url}#/settings`);
-      await page.getByRole('heading', { level: 1, name: 'Settings' }).waitFor(wait);
+      /** A fresh tab on Settings for each figure, so a screen that hangs leaves nothing behind. */
+      async function onPage(label: string, fn: (page: Page) => Promise<string>): Promise<void> {
+        const page = await browser.newPage({ viewport: { width: 1280, height: 860 } });
+        try {
+          await page.goto(`${url}#/settings`);
+          await page.getByRole('heading', { level: 1, name: 'Settings' }).waitFor(wait);
+          put(label, await fn(page));
+        } catch (err) {
+          put(label, `not measured: ${(err as Error).message.split('\n')[0]!.slice(0, 60)}`);
+        } finally {
+          await page.close().catch(() => undefined);
+        }
+      }
+      const nodes = async (page: Page) => `${(await page.evaluate(() => document.querySelectorAll('*').length)).toLocaleString('en')} nodes`;
 
-      /** Median time from the navigation to `ready` (in the page), and the node count then. */
-      async function open(hash: string, ready: () => Promise<unknown>): Promise<[number, number]> {
+      /** Median time from the navigation to `ready`, and the node count then. */
+      async function open(page: Page, hash: string, ready: () => Promise<unknown>): Promise<string> {
         const spans: number[] = [];
         for (let i = 0; i < times; i++) {
           await page.evaluate(() => (location.hash = '#/settings'));
@@ -122,60 +146,56 @@ async function browserFigures(dbPath: string, times: number): Promise<BrowserFig
           await ready();
           spans.push(performance.now() - t0);
         }
-        return [median(spans), await nodes()];
+        return `${ms(median(spans))}, ${await nodes(page)}`;
       }
-
-      const questionsReady = async () => {
+      const questionsReady = (page: Page) => async () => {
         await page.getByTestId('question-table').locator('caption').waitFor(wait);
         await page.locator('.table-card:not([aria-busy])').waitFor(wait);
       };
-      const [questionsOpen, questionsNodes] = await open('#/questions', questionsReady);
 
-      // One keystroke added to "question 1" (a digit: always fewer matches, so the caption changes).
-      const search = page.getByRole('searchbox', { name: 'Search' });
-      const caption = () => page.evaluate(() => document.querySelector('[data-testid="question-table"] caption')?.textContent ?? '');
-      await search.fill('question 1');
-      await page.waitForFunction(() => /of \d+ questions/.test(document.querySelector('[data-testid="question-table"] caption')?.textContent ?? ''), null, wait);
-      const before = await caption();
-      const keystrokes: number[] = [];
-      for (let i = 0; i < times; i++) {
+      await onPage('Questions open (browser)', (page) => open(page, '#/questions', questionsReady(page)));
+
+      await onPage('search keystroke (browser, incl. 250 ms pause)', async (page) => {
+        await page.evaluate(() => (location.hash = '#/questions'));
+        await questionsReady(page)();
+        // One digit typed after "question 1": always fewer matches, so the caption changes.
+        const search = page.getByRole('searchbox', { name: 'Search' });
         await search.fill('question 1');
-        await page.waitForFunction((was) => document.querySelector('[data-testid="question-table"] caption')?.textContent === was, before, wait);
-        await page.locator('.table-card:not([aria-busy])').waitFor(wait);
-        const t0 = performance.now();
-        await search.press(String((i % 9) + 1));
-        await page.waitForFunction((was) => {
-          const caption = document.querySelector('[data-testid="question-table"] caption')?.textContent;
-          return caption !== was && document.querySelector('.table-card[aria-busy]') === null;
-        }, before, wait);
-        keystrokes.push(performance.now() - t0);
-      }
-      await search.fill('');
+        await page.waitForFunction(() => /of \d+ questions/.test(document.querySelector('[data-testid="question-table"] caption')?.textContent ?? ''), null, wait);
+        const before = await page.evaluate(() => document.querySelector('[data-testid="question-table"] caption')?.textContent ?? '');
+        const keystrokes: number[] = [];
+        for (let i = 0; i < times; i++) {
+          await search.fill('question 1');
+          await page.waitForFunction((was) => document.querySelector('[data-testid="question-table"] caption')?.textContent === was, before, wait);
+          await page.locator('.table-card:not([aria-busy])').waitFor(wait);
+          const t0 = performance.now();
+          await search.press(String((i % 9) + 1));
+          await page.waitForFunction(
+            (was) => document.querySelector('[data-testid="question-table"] caption')?.textContent !== was && document.querySelector('.table-card[aria-busy]') === null,
+            before,
+            wait,
+          );
+          keystrokes.push(performance.now() - t0);
+        }
+        return ms(median(keystrokes));
+      });
 
-      const [deskOpen, deskNodes] = await open('#/', () => page.locator('.screen.desk:not([aria-busy])').waitFor(wait));
-      const [hindsightOpen, hindsightNodes] = await open('#/hindsight', () => page.locator('[data-hindsight-ready="true"]').waitFor(wait));
-      const [scorecardOpen, scorecardNodes] = await open('#/scorecard', () => page.locator('[data-scorecard-ready="true"]').waitFor(wait));
-
-      const tagFilter = page.getByLabel('Tag', { exact: true });
-      const changes: number[] = [];
-      for (const tag of [BENCH_TAGS[0]!, BENCH_TAGS[2]!, '', BENCH_TAGS[4]!, BENCH_TAGS[1]!].slice(0, Math.max(times, 3))) {
-        const t0 = performance.now();
-        await tagFilter.selectOption(tag);
-        await page.locator(`[data-scorecard-ready="true"][data-scorecard-tag="${tag}"]`).waitFor(wait);
-        changes.push(performance.now() - t0);
-      }
-      return {
-        questionsOpen,
-        questionsNodes,
-        searchKeystroke: median(keystrokes),
-        deskOpen,
-        deskNodes,
-        hindsightOpen,
-        hindsightNodes,
-        scorecardOpen,
-        scorecardNodes,
-        scorecardFilter: median(changes),
-      };
+      await onPage('Desk open (browser)', (page) => open(page, '#/', () => page.locator('.screen.desk:not([aria-busy])').waitFor(wait)));
+      await onPage('Hindsight open (browser)', (page) => open(page, '#/hindsight', () => page.locator('[data-hindsight-ready="true"]').waitFor(wait)));
+      await onPage('Scorecard open (browser)', (page) => open(page, '#/scorecard', () => page.locator('[data-scorecard-ready="true"]').waitFor(wait)));
+      await onPage('Scorecard tag change (browser)', async (page) => {
+        await page.evaluate(() => (location.hash = '#/scorecard'));
+        await page.locator('[data-scorecard-ready="true"]').waitFor(wait);
+        const tagFilter = page.getByLabel('Tag', { exact: true });
+        const changes: number[] = [];
+        for (const tag of [BENCH_TAGS[0]!, BENCH_TAGS[2]!, '', BENCH_TAGS[4]!, BENCH_TAGS[1]!].slice(0, Math.max(times, 3))) {
+          const t0 = performance.now();
+          await tagFilter.selectOption(tag);
+          await page.locator(`[data-scorecard-ready="true"][data-scorecard-tag="${tag}"]`).waitFor(wait);
+          changes.push(performance.now() - t0);
+        }
+        return ms(median(changes));
+      });
     } finally {
       await browser.close();
     }
@@ -257,17 +277,7 @@ async function measure(questions: number, rows: Map<string, Row>): Promise<void>
       return;
     }
     say('browser mode');
-    try {
-      const b = await browserFigures(dbPath, large ? 3 : 5);
-      put('Questions open (browser)', `${ms(b.questionsOpen)}, ${b.questionsNodes.toLocaleString('en')} nodes`);
-      put('search keystroke (browser, incl. 250 ms pause)', ms(b.searchKeystroke));
-      put('Desk open (browser)', `${ms(b.deskOpen)}, ${b.deskNodes.toLocaleString('en')} nodes`);
-      put('Hindsight open (browser)', `${ms(b.hindsightOpen)}, ${b.hindsightNodes.toLocaleString('en')} nodes`);
-      put('Scorecard open (browser)', `${ms(b.scorecardOpen)}, ${b.scorecardNodes.toLocaleString('en')} nodes`);
-      put('Scorecard tag change (browser)', ms(b.scorecardFilter));
-    } catch (err) {
-      put('browser mode', `not measured: ${(err as Error).message.split('\n')[0]}`);
-    }
+    await browserFigures(dbPath, large ? 1 : 5, large ? 300_000 : 60_000, put).catch((err: unknown) => put('browser mode', `not measured: ${(err as Error).message.split('\n')[0]}`));
   } finally {
     fs.rmSync(dir, { recursive: true, force: true });
   }
