@@ -4,7 +4,9 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
+import { isCheckout, staleReason } from '../scripts/freshness.mjs';
 import { ApiError, parseRequest, type DueList } from '../shared/contract';
 import { writeToDescriptor } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
@@ -121,36 +123,27 @@ async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (serv
   return result;
 }
 
-/** Newest modification time of any file under `dir` (0 when it does not exist). */
-function newestChange(dir: string): number {
-  if (!fs.existsSync(dir)) return 0;
-  let newest = 0;
-  for (const entry of fs.readdirSync(dir, { withFileTypes: true, recursive: true })) {
-    if (entry.isFile()) newest = Math.max(newest, fs.statSync(path.join(entry.parentPath, entry.name)).mtimeMs);
-  }
-  return newest;
-}
-
 /**
  * Finds the built renderer next to this program. In a source checkout it is built first
- * when missing or older than the sources, so `npm run forelog -- serve` always shows the
- * screens as the code stands.
+ * when missing or older than the sources, so `forelog serve` always shows the screens as
+ * the code stands.
  */
 async function rendererDir(): Promise<string> {
-  // A global install runs through a symlink; the files sit beside its target.
-  const here = path.dirname(fs.realpathSync(path.resolve(process.argv[1] ?? '.')));
-  const root = path.join(here, '..');
-  const checkout = fs.existsSync(path.join(root, 'vite.config.ts'));
-  const candidates = [path.join(here, '..', 'renderer'), path.join(here, '..', 'dist', 'renderer')];
-  // A build has assets/; in a checkout main/../renderer is the Vite source folder, whose index.html is not servable.
-  const found = candidates.find((dir) => fs.existsSync(path.join(dir, 'index.html')) && fs.existsSync(path.join(dir, 'assets')));
-  if (found && !checkout) return found;
-  if (!checkout) throw new Error('The app screens are missing from this installation; reinstall Forelog.');
-  const built = found ? fs.statSync(path.join(found, 'index.html')).mtimeMs : 0;
-  if (found && built >= Math.max(newestChange(path.join(root, 'renderer')), newestChange(path.join(root, 'shared')))) return found;
-  process.stderr.write(`Building the app screens (${found ? 'the sources changed since the last build' : 'first run in this checkout'})…\n`);
-  const vite = await import('vite');
-  await vite.build({ root: path.join(root, 'renderer'), configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn' });
+  // This file is main/cli.ts (run from source) or dist/main/cli.cjs (built); an installed
+  // copy has dist/renderer beside dist/main. Node has already followed any symlinked install.
+  const here = path.dirname(fileURLToPath(import.meta.url));
+  const root = [path.join(here, '..'), path.join(here, '..', '..')].find(isCheckout);
+  if (!root) {
+    const installed = path.join(here, '..', 'renderer');
+    if (fs.existsSync(path.join(installed, 'index.html'))) return installed;
+    throw new Error('The app screens are missing from this installation; reinstall Forelog.');
+  }
+  const reason = staleReason(root, 'renderer');
+  if (reason !== null) {
+    process.stderr.write(`Building the app screens (${reason})…\n`);
+    const vite = await import('vite');
+    await vite.build({ root: path.join(root, 'renderer'), configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn' });
+  }
   return path.join(root, 'dist', 'renderer');
 }
 

@@ -211,6 +211,7 @@ export const operations = {
   loadDemo: empty,
   score: scoreRequest,
   due: dueRequest,
+  dueCount: dueRequest,
   snooze: snoozeRequest,
   hindsight: hindsightRequest,
   briefing: briefingRequest,
@@ -242,6 +243,7 @@ export interface Responses {
   loadDemo: { added: number };
   score: Scorecard;
   due: DueList;
+  dueCount: DueCount;
   snooze: { question_id: string; kind: string; until: string };
   hindsight: Hindsight;
   briefing: { html: string; title: string };
@@ -275,6 +277,12 @@ export interface Hindsight {
 export interface DueList {
   at: string;
   nudges: DueNudge[];
+}
+
+/** How many questions the Desk would list at `at` (what the top bar and the tray show), without the list. */
+export interface DueCount {
+  at: string;
+  count: number;
 }
 
 /** The scorecard: the `score --json` report plus what the Scorecard screen draws. */

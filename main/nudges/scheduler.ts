@@ -9,19 +9,19 @@
  * Everything it touches is a port, so tests drive it with a fake clock and in-memory
  * stores, and the app plugs in SQLite, Electron notifications and the Desk badge.
  */
-import cron from 'node-cron';
-import type { Question, Settings } from '../../shared/domain';
-import { isValidTimeZone, parseInstant } from '../../shared/time';
+import { createRequire } from 'node:module';
+import type { Settings } from '../../shared/domain';
+import { isValidTimeZone } from '../../shared/time';
 import { deliveryKey } from './keys';
 import { nudgeMessage, summaryMessage, type BatchCause } from './messages';
-import { planNudges, type Nudge, type NudgeKind, type Snooze } from './plan';
+import { dueQuestionCount, planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from './plan';
 import { inQuietHours } from './quiet';
 
 export interface SchedulerPorts {
   clock: { now(): number };
   source: {
-    /** The diary's questions; resolved ones may be left out (they get no nudges anyway). */
-    questions(): Question[];
+    /** The diary's unresolved questions (resolved and void ones get no nudges). */
+    questions(): PlanQuestion[];
     settings(): Settings;
     /** Snoozes, including ones that have run out (they mark a reminder as due again). */
     snoozes(): Snooze[];
@@ -78,6 +78,15 @@ export const CATCH_UP_GAP_MS = 150_000;
 
 export const TICK_EXPRESSION = '* * * * *';
 
+/**
+ * node-cron, loaded when a scheduler first starts rather than when this module is: the
+ * command line imports the service (and so this module) on every call but never starts a
+ * scheduler, and loading node-cron is a noticeable part of a short command's start-up.
+ */
+function nodeCron(): CronModule {
+  return createRequire(import.meta.url)('node-cron') as CronModule;
+}
+
 export function createScheduler(ports: SchedulerPorts): Scheduler {
   let lastRunAt: number | null = null;
   let heldByQuietHours = false;
@@ -96,9 +105,7 @@ export function createScheduler(ports: SchedulerPorts): Scheduler {
     const snoozes = ports.source.snoozes();
     const nudges = planNudges(questions, settings, snoozes, now);
 
-    // The count the tray and dock show is of questions needing attention, as on the Desk:
-    // a question closing soon with a check-in due is one thing to do, not two.
-    const dueQuestions = new Set(nudges.map((n) => n.question_id)).size;
+    const dueQuestions = dueQuestionCount(nudges);
     if (dueQuestions !== lastDueCount) {
       lastDueCount = dueQuestions;
       ports.onDueCountChanged?.(dueQuestions);
@@ -113,11 +120,7 @@ export function createScheduler(ports: SchedulerPorts): Scheduler {
       return { delivered: 0, summary: false, due: nudges.length };
     }
 
-    const closes = new Map<string, number>();
-    for (const q of questions) {
-      const close = parseInstant(q.closes_at);
-      if (close !== null) closes.set(q.id, close);
-    }
+    const closes = new Map(questions.map((q) => [q.id, q.closes_at]));
     const pending: { nudge: Nudge; key: string; close: number }[] = [];
     for (const nudge of nudges) {
       const close = closes.get(nudge.question_id);
@@ -143,8 +146,9 @@ export function createScheduler(ports: SchedulerPorts): Scheduler {
 
   return {
     runOnce,
-    start(cronModule: CronModule = cron) {
+    start(cronModule?: CronModule) {
       if (task) return;
+      cronModule ??= nodeCron();
       // The tick is scheduled before the start-up run, so a failing first run (its error
       // is rethrown to the caller) is retried by the next tick instead of ending nudges.
       task = cronModule.createTask(TICK_EXPRESSION, () => void runOnce('tick'), {

@@ -31,7 +31,7 @@ import { readTextFile } from '../files/read-text';
 import { CsvError, diaryCsvText, readCsvDiary, type CsvItem } from './csv';
 import { exportBatches } from './export-batches';
 import { orderedId } from './ordered-ids';
-import { dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
+import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
 import { loadScoringQuestions } from './scoring-source';
 
@@ -646,25 +646,25 @@ export function createDiary(ctx: DiaryContext) {
         at: toIso(at),
         nudges: nudges.map((n) => {
           const q = byId.get(n.question_id)!;
-          const last = q.forecasts.length ? q.forecasts[q.forecasts.length - 1]! : null;
+          const last = q.last_p !== null && q.last_forecast_at !== null ? { p: q.last_p, at: q.last_forecast_at } : null;
           return {
             id: q.id,
             title: q.title,
             kind: n.kind,
             due_at: toIso(n.due_at),
-            closes_at: q.closes_at,
+            closes_at: toIso(q.closes_at),
             time_zone: q.time_zone,
             last_p: last?.p ?? null,
-            last_forecast_at: last?.at ?? null,
-            stale: stale(
-              { kind: q.kind, opened_at: ms(q.opened_at), closes_at: ms(q.closes_at), checkin_days: q.checkin_days },
-              last ? { p: last.p, at: ms(last.at) } : null,
-              s,
-              at,
-            ),
+            last_forecast_at: last ? toIso(last.at) : null,
+            stale: stale(q, last, s, at),
           };
         }),
       };
+    },
+
+    dueCount: (req) => {
+      const at = req.at !== undefined ? ms(req.at) : now();
+      return { at: toIso(at), count: countDueAt(store, settings(), at) };
     },
 
     snooze: (req) => {

@@ -2,17 +2,17 @@
  * The nudge planner and scheduler (main/nudges) wired to the diary file: which questions
  * are unresolved, what is snoozed, what was delivered.
  */
-import type { Question, Settings } from '../../shared/domain';
+import type { Question, QuestionKind, Settings } from '../../shared/domain';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../shared/time';
-import { planNudges, type Nudge, type NudgeKind, type Snooze } from '../nudges/plan';
+import { countDueQuestions, planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from '../nudges/plan';
 import { createScheduler, type Scheduler, type SchedulerPorts } from '../nudges/scheduler';
 import * as nudgeStore from '../store/nudges';
-import type { StoreHandles } from '../store/open';
+import type { Db, StoreHandles } from '../store/open';
 import * as qs from '../store/questions';
 
 export type Notifier = SchedulerPorts['notifier'];
 
-/** Every unresolved question, whole (the planner needs revisions for check-ins). */
+/** Every unresolved question, whole (for the calendar export, which lists their details). */
 export function unresolvedQuestions(store: StoreHandles): Question[] {
   const ids = (store.read.prepare('SELECT id FROM questions WHERE id NOT IN (SELECT question_id FROM resolutions)').raw().all() as [string][]).map(
     ([id]) => id,
@@ -20,13 +20,63 @@ export function unresolvedQuestions(store: StoreHandles): Question[] {
   return ids.length ? qs.loadBundles(store.read, ids).map(qs.toQuestion) : [];
 }
 
+/** An unresolved question as planning and the due list see it: no history, only its latest revision. */
+export interface DueQuestion extends PlanQuestion {
+  kind: QuestionKind;
+  /** Probability of the latest revision (latest time; same time: entered last), null when there is none. */
+  last_p: number | null;
+}
+
+type DueRow = [string, string, QuestionKind, number, number, string, number | null, number | null, number | null];
+
+/**
+ * Every unresolved question with its latest revision, in one query: the latest revision is
+ * found through the (question_id, at, seq) index, one step per question, so the cost
+ * follows the number of open questions, not the length of their histories.
+ */
+export function dueQuestions(db: Db): DueQuestion[] {
+  const rows = db
+    .prepare(
+      `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.p
+       FROM questions q
+       LEFT JOIN resolutions r ON r.question_id = q.id
+       LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
+       WHERE r.question_id IS NULL`,
+    )
+    .raw()
+    .all() as DueRow[];
+  return rows.map(([id, title, kind, opened, closes, zone, checkinDays, lastAt, lastP]) => ({
+    id,
+    title,
+    kind,
+    opened_at: opened,
+    closes_at: closes,
+    time_zone: zone,
+    checkin_days: checkinDays,
+    last_forecast_at: lastAt,
+    last_p: lastP,
+  }));
+}
+
 export function snoozes(store: StoreHandles): Snooze[] {
   return nudgeStore.allSnoozes(store.read);
 }
 
-export function dueAt(store: StoreHandles, settings: Settings, at: number): { questions: Question[]; nudges: Nudge[] } {
-  const questions = unresolvedQuestions(store);
-  return { questions, nudges: planNudges(questions, settings, snoozes(store), at) };
+/** The unresolved questions and the snoozes, from one snapshot of the file. */
+function planInput(store: StoreHandles): { questions: DueQuestion[]; snoozed: Snooze[] } {
+  return store.read.transaction(() => ({ questions: dueQuestions(store.read), snoozed: snoozes(store) }))();
+}
+
+/** What is due at `at`, with the questions it was planned from. */
+export function dueAt(store: StoreHandles, settings: Settings, at: number): { questions: DueQuestion[]; nudges: Nudge[] } {
+  const { questions, snoozed } = planInput(store);
+  return { questions, nudges: planNudges(questions, settings, snoozed, at) };
+}
+
+/** How many questions have something due at `at` (the Desk's item count). */
+export function countDueAt(store: StoreHandles, settings: Settings, at: number): number {
+  const { questions, snoozed } = planInput(store);
+  return countDueQuestions(questions, settings, snoozed, at);
 }
 
 export type SnoozePreset = 'hour' | 'tomorrow_morning' | 'next_week';
@@ -60,7 +110,7 @@ export function createDiaryScheduler(
       };
   return createScheduler({
     clock: { now },
-    source: { questions: () => unresolvedQuestions(store), settings, snoozes: () => snoozes(store) },
+    source: { questions: () => dueQuestions(store.read), settings, snoozes: () => snoozes(store) },
     log,
     notifier,
     onDueCountChanged,

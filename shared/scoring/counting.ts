@@ -7,7 +7,7 @@
  */
 import { timeAverageUnchecked } from './accuracy';
 import { assertFinite, assertPositive, assertProbability, describeQuestion } from './validate';
-import type { ScoreFilter, ScoreOptions, ScoringQuestion } from './types';
+import type { ForecastColumns, ScoreFilter, ScoreOptions, ScoringQuestion } from './types';
 
 /**
  * Window end `T = min(close time, resolution time)` (SCORING.md): an event-by-deadline
@@ -54,6 +54,8 @@ export interface CountableQuestion {
   /** Any outcome but 'void' means resolved and scorable. */
   resolution: { outcome: string; at: number } | null;
   forecasts: readonly { at: number; seq: number }[];
+  /** When given, the revisions are read from these columns and `forecasts` is not read (yes/no loader). */
+  forecast_columns?: ForecastColumns;
 }
 
 export interface QuestionCounts {
@@ -174,6 +176,27 @@ function gatherCounting(
 }
 
 /**
+ * `gatherCounting` for revisions given as columns (`ScoringQuestion.forecast_columns`):
+ * `into.index` holds each entry's row relative to `cols.start`.
+ */
+function gatherCountingColumns(cols: ForecastColumns, end: number, into: CountingEntries): number {
+  into.ensure(cols.end - cols.start);
+  const { at, seq } = cols;
+  let count = 0;
+  for (let r = cols.start; r < cols.end; r++) {
+    if (at[r]! <= end) {
+      into.at[count] = at[r]!;
+      into.key[count] = seq[r]!;
+      into.index[count] = r - cols.start;
+      count++;
+    }
+  }
+  into.count = count;
+  if (count > 1) sortEntries(into, count);
+  return count;
+}
+
+/**
  * The counting rules of SCORING.md "Which forecasts count", once for every question type:
  * validates each question (all of them, so a bad record fails whatever the filter),
  * applies the tag and window-end filters, classifies the rest as open / void / unscored
@@ -216,7 +239,9 @@ export function forEachScored<Q extends CountableQuestion>(
       counts.void++;
       continue;
     }
-    if (gatherCounting(q.forecasts, end, own, 'seq') === 0) {
+    const cols = q.forecast_columns;
+    const count = cols !== undefined ? gatherCountingColumns(cols, end, own) : gatherCounting(q.forecasts, end, own, 'seq');
+    if (count === 0) {
       counts.unscored++;
       continue;
     }
@@ -249,12 +274,22 @@ function validateQuestion(q: ScoringQuestion, i: number): void {
     if (!(false_alarm > 0 && Number.isFinite(false_alarm))) assertPositive(false_alarm, `${describeQuestion(q, i)}: false-alarm cost`);
     if (!(miss > 0 && Number.isFinite(miss))) assertPositive(miss, `${describeQuestion(q, i)}: miss cost`);
   }
-  const fs = q.forecasts;
-  for (let j = 0; j < fs.length; j++) {
-    const f = fs[j]!;
-    if (!Number.isFinite(f.at)) assertFinite(f.at, `${describeQuestion(q, i)}: forecast ${j} time`);
-    if (!isProbability(f.p)) assertProbability(f.p, `${describeQuestion(q, i)}: forecast ${j}`);
-    if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describeQuestion(q, i)}: forecast ${j} entry order (seq)`);
+  const cols = q.forecast_columns;
+  if (cols !== undefined) {
+    for (let r = cols.start; r < cols.end; r++) {
+      const j = r - cols.start;
+      if (!Number.isFinite(cols.at[r]!)) assertFinite(cols.at[r]!, `${describeQuestion(q, i)}: forecast ${j} time`);
+      if (!isProbability(cols.p[r]!)) assertProbability(cols.p[r]!, `${describeQuestion(q, i)}: forecast ${j}`);
+      if (!Number.isFinite(cols.seq[r]!)) assertFinite(cols.seq[r]!, `${describeQuestion(q, i)}: forecast ${j} entry order (seq)`);
+    }
+  } else {
+    const fs = q.forecasts;
+    for (let j = 0; j < fs.length; j++) {
+      const f = fs[j]!;
+      if (!Number.isFinite(f.at)) assertFinite(f.at, `${describeQuestion(q, i)}: forecast ${j} time`);
+      if (!isProbability(f.p)) assertProbability(f.p, `${describeQuestion(q, i)}: forecast ${j}`);
+      if (!Number.isFinite(f.seq)) assertFinite(f.seq, `${describeQuestion(q, i)}: forecast ${j} entry order (seq)`);
+    }
   }
   const rs = q.references;
   for (let j = 0; j < rs.length; j++) {
@@ -295,9 +330,14 @@ export function prepareScoredSet(questions: readonly ScoringQuestion[], options:
 
   const counts = forEachScored(questions, options, validateQuestion, (q, end, own) => {
     const count = own.count;
-    const fs = q.forecasts;
     if (ownP.length < count) ownP = new Float64Array(Math.max(count, ownP.length * 2));
-    for (let i = 0; i < count; i++) ownP[i] = fs[own.index[i]!]!.p;
+    // Columns, when the loader gave them, are read in place: `forecasts` is not touched.
+    const cols = q.forecast_columns;
+    if (cols !== undefined) for (let i = 0; i < count; i++) ownP[i] = cols.p[cols.start + own.index[i]!]!;
+    else {
+      const fs = q.forecasts;
+      for (let i = 0; i < count; i++) ownP[i] = fs[own.index[i]!]!.p;
+    }
 
     const k = scoredQuestions.length;
     const outcome = q.resolution!.outcome === 'yes' ? 1 : 0;
@@ -305,8 +345,9 @@ export function prepareScoredSet(questions: readonly ScoringQuestion[], options:
     scoredQuestions.push(q);
     T[k] = end;
     o[k] = outcome;
-    p[k] = fs[own.final]!.p;
-    p1[k] = fs[own.first]!.p;
+    // Sorted by time, then entry order: the final forecast is the last entry, the first the first.
+    p[k] = ownP[count - 1]!;
+    p1[k] = ownP[0]!;
     timeAvg[k] = timeAverageUnchecked(own.at, ownP, count, outcome, t1, end);
 
     const rs = q.references;

@@ -33,8 +33,23 @@ export interface ScoringQuestion {
   costs: { false_alarm: number; miss: number } | null;
   /** Any order. */
   forecasts: ScoringForecast[];
+  /**
+   * Optional: the same revisions as `forecasts`, as columns. A loader reading a large diary
+   * sets it so that no object is made per revision; the engine then reads these rows and
+   * never touches `forecasts`. Whoever replaces `forecasts` must drop this.
+   */
+  forecast_columns?: ForecastColumns;
   /** Any order; two references at the same time: the later one in this array stands. */
   references: ScoringReference[];
+}
+
+/** Rows `start` (inclusive) to `end` (exclusive) of parallel arrays, any order, as in `ScoringForecast`. */
+export interface ForecastColumns {
+  at: Float64Array;
+  p: Float64Array;
+  seq: Float64Array;
+  start: number;
+  end: number;
 }
 
 /** Which questions a report covers; the same for every question type. */

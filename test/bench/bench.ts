@@ -1,67 +1,201 @@
 /**
- * `npm run bench`: builds a 10,000-question / 200,000-revision diary from a seeded PRNG
- * and prints how long the things a user waits for take on this machine:
- *   - importing it with `forelog import` (whole process),
- *   - `forelog score --json` (whole process: start-up, reading the diary, scoring, printing),
- *   - the scoring engine's own compute time (median of 5, in process),
- *   - the Scorecard's update after a filter change in browser mode (median of 5), when
- *     Chromium is installed.
+ * `npm run bench`: how long the things a user waits for take on this machine, on synthetic
+ * diaries of 1,000 and 10,000 questions (`npm run bench -- --large` adds 100,000), 20
+ * revisions each, from a seeded PRNG (test/bench/make-diary.ts). For each size it prints:
+ *   - import, export (JSON, CSV), `score --json` and `due`, each as a whole process of the
+ *     built command line (dist/main/cli.cjs), the way a user or a script runs them;
+ *   - `score --json` against a yardstick: test/bench/score_peer.py, the same core figures
+ *     (Brier, log score, calibration bins) computed with numpy from the exported file by
+ *     Debian's /usr/bin/python3, timed as a whole process in the same run; it must agree;
+ *   - reading the diary for scoring and the engine's own compute, in process;
+ *   - `due` and `dueCount` per call to a running `forelog serve`;
+ *   - in browser mode (`forelog serve` in Chromium): opening Questions, one search keystroke
+ *     (includes the search box's 250 ms pause), opening the Desk, Hindsight and the
+ *     Scorecard, a Scorecard tag change, and the DOM node count of each screen.
+ * Whole-process figures are medians of 5 (3 at 100,000), in-process and per-call ones of 5,
+ * browser ones of 5 (1 at 100,000); the load average before and after is printed because
+ * other work on the machine inflates them.
  * Figures are printed, never asserted: timings do not belong in pass/fail tests.
  */
 import { spawn, spawnSync } from 'node:child_process';
+import type { Page } from '@playwright/test';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import readline from 'node:readline';
-import { openDiary } from '../../main/service/index';
 import { loadScoringQuestions } from '../../main/service/scoring-source';
-import { computeScoreReport } from '../../shared/scoring';
+import { openDiary } from '../../main/service/index';
+import { computeScoreReport, type ScoreReport } from '../../shared/scoring';
 import { BENCH_TAGS, buildDiaryFile } from './make-diary';
 
+// The little of the DOM the functions run inside the page use (this file is type-checked without the DOM library).
+declare const document: { querySelector(selector: string): { textContent: string | null } | null; querySelectorAll(selector: string): { length: number } };
+declare const location: { hash: string };
+
 const ROOT = path.resolve(import.meta.dirname, '..', '..');
-const QUESTIONS = 10_000;
-const REVISIONS = 200_000;
-const TAGS = BENCH_TAGS;
+const CLI = path.join(ROOT, 'dist', 'main', 'cli.cjs');
+const PEER = path.join(ROOT, 'test', 'bench', 'score_peer.py');
+const PYTHON = '/usr/bin/python3';
+const CHROMIUM = '/usr/bin/chromium';
+const REVISIONS_PER_QUESTION = 20;
+/** The largest file one import takes today is 64 MB; bigger diaries are written in parts of this many questions. */
+const PART = 10_000;
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
-const ms = (x: number) => `${x.toFixed(0)} ms`;
+const ms = (x: number) => (x >= 10_000 ? `${(x / 1000).toFixed(1)} s` : `${x.toFixed(0)} ms`);
 
-function cli(args: string[]): number {
-  const t0 = performance.now();
-  const r = spawnSync(process.execPath, [path.join(ROOT, 'dist', 'main', 'cli.cjs'), ...args], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
-  const elapsed = performance.now() - t0;
-  if (r.status !== 0) throw new Error(`forelog ${args[0]} failed: ${r.stderr}`);
-  return elapsed;
+interface Timed {
+  ms: number;
+  stdout: string;
 }
 
-async function scorecardFilterTiming(dbPath: string): Promise<string> {
-  if (!fs.existsSync('/usr/bin/chromium')) return 'skipped (no /usr/bin/chromium)';
-  const server = spawn(process.execPath, [path.join(ROOT, 'dist', 'main', 'cli.cjs'), 'serve', '--db', dbPath, '--port', '0'], { stdio: ['ignore', 'pipe', 'inherit'] });
+function run(command: string, args: string[]): Timed {
+  const t0 = performance.now();
+  const r = spawnSync(command, args, { encoding: 'utf8', maxBuffer: 1024 * 1024 * 1024 });
+  const elapsed = performance.now() - t0;
+  if (r.status !== 0) throw new Error(`${path.basename(command)} ${args.slice(0, 2).join(' ')} failed: ${(r.stderr || r.error?.message || '').trim()}`);
+  return { ms: elapsed, stdout: r.stdout };
+}
+
+const forelog = (...args: string[]) => run(process.execPath, [CLI, ...args]);
+
+function repeat(times: number, fn: () => Timed): { median: number; last: Timed } {
+  const runs: Timed[] = [];
+  for (let i = 0; i < times; i++) runs.push(fn());
+  return { median: median(runs.map((r) => r.ms)), last: runs[runs.length - 1]! };
+}
+
+/** A row of the table: label → figure per size. */
+type Row = Map<number, string>;
+
+/** The peer must compute the same figures, or the comparison means nothing. */
+function peerAgrees(peer: { scored: number; brier: number; log_score: number; bins: { index: number; n: number; mean_p: number; observed: number }[] }, ours: ScoreReport): string {
+  const close = (a: number | null, b: number | null) => a !== null && b !== null && Math.abs(a - b) <= 1e-12 * Math.max(1, Math.abs(b));
+  const ok =
+    peer.scored === ours.scored &&
+    close(peer.brier, ours.brier) &&
+    close(peer.log_score, ours.log_score) &&
+    peer.bins.length === ours.bins.length &&
+    peer.bins.every((b, i) => b.index === ours.bins[i]!.index && b.n === ours.bins[i]!.n && close(b.mean_p, ours.bins[i]!.mean_p) && close(b.observed, ours.bins[i]!.observed));
+  return ok ? 'agrees' : 'DISAGREES (check the counting rules of score_peer.py)';
+}
+
+/**
+ * Screens in browser mode, each measured on its own so one that cannot finish (a screen that
+ * draws every row of a very large diary) does not hide the others: in-app navigation from
+ * Settings to the screen, timed until its content is drawn, then the page's DOM node count.
+ * Calls `put(label, figure)` for each; a figure is "not measured: …" when a step timed out.
+ */
+async function browserFigures(dbPath: string, times: number, timeoutMs: number, put: (label: string, value: string) => void): Promise<void> {
+  const server = spawn(process.execPath, [CLI, 'serve', '--db', dbPath, '--port', '0'], { stdio: ['ignore', 'pipe', 'ignore'] });
   try {
     const url = await new Promise<string>((resolve, reject) => {
       readline.createInterface({ input: server.stdout! }).once('line', resolve);
-      server.once('exit', () => reject(new Error('serve exited')));
+      server.once('exit', () => reject(new Error('forelog serve exited before printing its address')));
     });
+    // The due list and the top bar's count as the running app asks for them, after one warm-up call.
+    const address = new URL(url);
+    for (const op of ['due', 'dueCount']) {
+      const call = async () => {
+        const t0 = performance.now();
+        const response = await fetch(`${address.origin}/api/${op}`, {
+          method: 'POST',
+          headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${address.searchParams.get('token')}` },
+          body: '{}',
+        });
+        await response.text();
+        return performance.now() - t0;
+      };
+      await call();
+      const spans: number[] = [];
+      for (let i = 0; i < 5; i++) spans.push(await call());
+      put(`${op} per call in serve`, ms(median(spans)));
+    }
+
     const { chromium } = await import('@playwright/test');
     const browser = await chromium.launch({
-      executablePath: '/usr/bin/chromium',
+      executablePath: CHROMIUM,
       args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
     });
+    const wait = { timeout: timeoutMs };
     try {
-      const page = await browser.newPage();
-      await page.goto(`${url}#/scorecard`);
-      const tagFilter = page.getByLabel('Tag', { exact: true });
-      await tagFilter.waitFor({ timeout: 20_000 });
-      await page.locator('[data-scorecard-ready="true"]').waitFor({ timeout: 20_000 });
-      const times: number[] = [];
-      for (const tag of [TAGS[0]!, TAGS[2]!, '', TAGS[4]!, TAGS[1]!]) {
-        const t0 = performance.now();
-        await tagFilter.selectOption(tag);
-        await page.locator(`[data-scorecard-ready="true"][data-scorecard-tag="${tag}"]`).waitFor({ timeout: 20_000 });
-        times.push(performance.now() - t0);
+      /** A fresh tab on Settings for each figure, so a screen that hangs leaves nothing behind. */
+      async function onPage(label: string, fn: (page: Page) => Promise<string>): Promise<void> {
+        const page = await browser.newPage({ viewport: { width: 1280, height: 860 } });
+        try {
+          await page.goto(`${url}#/settings`);
+          await page.getByRole('heading', { level: 1, name: 'Settings' }).waitFor(wait);
+          put(label, await fn(page));
+        } catch (err) {
+          put(label, `not measured: ${(err as Error).message.split('\n')[0]!.slice(0, 60)}`);
+        } finally {
+          await page.close().catch(() => undefined);
+        }
       }
-      return `${ms(median(times))} (median of 5 tag changes; from the click to every figure redrawn)`;
+      const nodes = async (page: Page) => `${(await page.evaluate(() => document.querySelectorAll('*').length)).toLocaleString('en')} nodes`;
+
+      /** Median time from the navigation to `ready`, and the node count then. */
+      async function open(page: Page, hash: string, ready: () => Promise<unknown>): Promise<string> {
+        const spans: number[] = [];
+        for (let i = 0; i < times; i++) {
+          await page.evaluate(() => (location.hash = '#/settings'));
+          await page.getByRole('heading', { level: 1, name: 'Settings' }).waitFor(wait);
+          const t0 = performance.now();
+          await page.evaluate((h) => (location.hash = h), hash);
+          await ready();
+          spans.push(performance.now() - t0);
+        }
+        return `${ms(median(spans))}, ${await nodes(page)}`;
+      }
+      const questionsReady = (page: Page) => async () => {
+        await page.getByTestId('question-table').locator('caption').waitFor(wait);
+        await page.locator('.table-card:not([aria-busy])').waitFor(wait);
+      };
+
+      await onPage('Questions open (browser)', (page) => open(page, '#/questions', questionsReady(page)));
+
+      await onPage('search keystroke (browser, incl. 250 ms pause)', async (page) => {
+        await page.evaluate(() => (location.hash = '#/questions'));
+        await questionsReady(page)();
+        // One digit typed after "question 1": always fewer matches, so the caption changes.
+        const search = page.getByRole('searchbox', { name: 'Search' });
+        await search.fill('question 1');
+        await page.waitForFunction(() => /of \d+ questions/.test(document.querySelector('[data-testid="question-table"] caption')?.textContent ?? ''), null, wait);
+        const before = await page.evaluate(() => document.querySelector('[data-testid="question-table"] caption')?.textContent ?? '');
+        const keystrokes: number[] = [];
+        for (let i = 0; i < times; i++) {
+          await search.fill('question 1');
+          await page.waitForFunction((was) => document.querySelector('[data-testid="question-table"] caption')?.textContent === was, before, wait);
+          await page.locator('.table-card:not([aria-busy])').waitFor(wait);
+          const t0 = performance.now();
+          await search.press(String((i % 9) + 1));
+          await page.waitForFunction(
+            (was) => document.querySelector('[data-testid="question-table"] caption')?.textContent !== was && document.querySelector('.table-card[aria-busy]') === null,
+            before,
+            wait,
+          );
+          keystrokes.push(performance.now() - t0);
+        }
+        return ms(median(keystrokes));
+      });
+
+      await onPage('Desk open (browser)', (page) => open(page, '#/', () => page.locator('.screen.desk:not([aria-busy])').waitFor(wait)));
+      await onPage('Hindsight open (browser)', (page) => open(page, '#/hindsight', () => page.locator('[data-hindsight-ready="true"]').waitFor(wait)));
+      await onPage('Scorecard open (browser)', (page) => open(page, '#/scorecard', () => page.locator('[data-scorecard-ready="true"]').waitFor(wait)));
+      await onPage('Scorecard tag change (browser)', async (page) => {
+        await page.evaluate(() => (location.hash = '#/scorecard'));
+        await page.locator('[data-scorecard-ready="true"]').waitFor(wait);
+        const tagFilter = page.getByLabel('Tag', { exact: true });
+        const changes: number[] = [];
+        for (const tag of [BENCH_TAGS[0]!, BENCH_TAGS[2]!, '', BENCH_TAGS[4]!, BENCH_TAGS[1]!].slice(0, Math.max(times, 3))) {
+          const t0 = performance.now();
+          await tagFilter.selectOption(tag);
+          await page.locator(`[data-scorecard-ready="true"][data-scorecard-tag="${tag}"]`).waitFor(wait);
+          changes.push(performance.now() - t0);
+        }
+        return ms(median(changes));
+      });
     } finally {
       await browser.close();
     }
@@ -70,56 +204,109 @@ async function scorecardFilterTiming(dbPath: string): Promise<string> {
   }
 }
 
-async function main(): Promise<void> {
-  if (!fs.existsSync(path.join(ROOT, 'dist', 'main', 'cli.cjs'))) {
-    process.stderr.write('Building first (npm run build)…\n');
-    spawnSync('npm', ['run', 'build'], { cwd: ROOT, stdio: 'inherit' });
-  }
+async function measure(questions: number, rows: Map<string, Row>): Promise<void> {
+  const put = (label: string, value: string) => {
+    if (!rows.has(label)) rows.set(label, new Map());
+    rows.get(label)!.set(questions, value);
+  };
+  const large = questions > PART;
+  const times = large ? 3 : 5;
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-bench-'));
+  const say = (what: string) => process.stderr.write(`[${questions.toLocaleString('en')}] ${what}…\n`);
   try {
-    process.stderr.write(`Generating ${QUESTIONS.toLocaleString('en')} questions with ${REVISIONS.toLocaleString('en')} revisions…\n`);
-    const file = path.join(dir, 'bench.json');
-    fs.writeFileSync(file, JSON.stringify(buildDiaryFile(QUESTIONS, REVISIONS / QUESTIONS)));
     const dbPath = path.join(dir, 'bench.sqlite');
-    process.stderr.write('Importing…\n');
-    const importMs = cli(['import', file, '--db', dbPath]);
-    process.stderr.write('Scoring (5 whole-process runs)…\n');
-    const scoreRuns = Array.from({ length: 5 }, () => cli(['score', '--json', '--db', dbPath]));
+    say('generating the diary');
+    const whole = path.join(dir, 'diary.json');
+    fs.writeFileSync(whole, JSON.stringify(buildDiaryFile(questions, REVISIONS_PER_QUESTION)));
+    say('importing');
+    try {
+      put('import JSON (whole process)', ms(forelog('import', whole, '--db', dbPath).ms));
+    } catch (err) {
+      // Today one import takes at most 64 MB; a larger diary goes in as several files.
+      put('import JSON (whole process)', `refused (${(err as Error).message.replace(/^.*?: forelog: /, '').slice(0, 60)}…)`);
+      fs.rmSync(dbPath, { force: true });
+      let total = 0;
+      for (let first = 0; first < questions; first += PART) {
+        const part = path.join(dir, 'part.json');
+        fs.writeFileSync(part, JSON.stringify(buildDiaryFile(Math.min(PART, questions - first), REVISIONS_PER_QUESTION, first)));
+        total += forelog('import', part, '--db', dbPath).ms;
+      }
+      put(`import in files of ${PART.toLocaleString('en')} (sum)`, ms(total));
+    }
+    fs.rmSync(whole, { force: true });
+
+    say('exporting');
+    const exported = path.join(dir, 'export.json');
+    put('export JSON (whole process)', ms(forelog('export', exported, '--db', dbPath).ms));
+    put('export CSV (whole process)', ms(forelog('export', path.join(dir, 'export.csv'), '--format', 'csv', '--db', dbPath).ms));
+    fs.rmSync(path.join(dir, 'export.csv'), { force: true });
+
+    say('scoring, and the numpy peer');
+    const score = repeat(times, () => forelog('score', '--json', '--db', dbPath));
+    const peer = repeat(times, () => run(PYTHON, [PEER, exported]));
+    const report = JSON.parse(score.last.stdout) as ScoreReport;
+    put('score --json (whole process)', ms(score.median));
+    put('numpy peer (whole process)', `${ms(peer.median)} (${peerAgrees(JSON.parse(peer.last.stdout), report)})`);
+    put('score ÷ peer', `${(score.median / peer.median).toFixed(2)}`);
+    fs.rmSync(exported, { force: true });
 
     const service = openDiary({ dbPath });
-    const loadRuns: number[] = [];
-    const engineRuns: number[] = [];
+    const reading: number[] = [];
+    const engine: number[] = [];
     try {
       for (let i = 0; i < 5; i++) {
         const t0 = performance.now();
-        const questions = loadScoringQuestions(service.store.read);
+        const input = loadScoringQuestions(service.store.read);
         const t1 = performance.now();
-        computeScoreReport(questions, { default_costs: { false_alarm: 1, miss: 1 } });
-        const t2 = performance.now();
-        loadRuns.push(t1 - t0);
-        engineRuns.push(t2 - t1);
+        computeScoreReport(input, { default_costs: { false_alarm: 1, miss: 1 } });
+        reading.push(t1 - t0);
+        engine.push(performance.now() - t1);
       }
     } finally {
       service.close();
     }
-    process.stderr.write('Timing the Scorecard in browser mode…\n');
-    const browser = await scorecardFilterTiming(dbPath).catch((err: unknown) => `not measured: ${err instanceof Error ? err.message.split('\n')[0] : String(err)}`);
+    put('reading the diary for scoring (in process)', ms(median(reading)));
+    put('scoring engine (in process)', ms(median(engine)));
 
-    const cpus = os.cpus();
-    process.stdout.write(
-      [
-        `Forelog benchmark — ${QUESTIONS.toLocaleString('en')} questions, ${REVISIONS.toLocaleString('en')} revisions`,
-        `machine: ${cpus.length} × ${cpus[0]?.model ?? 'cpu'}, Node ${process.version}`,
-        `  import (whole process)            ${ms(importMs)}`,
-        `  score --json (whole process)      ${ms(median(scoreRuns))}  median of 5 (min ${ms(Math.min(...scoreRuns))})`,
-        `  reading the diary for scoring     ${ms(median(loadRuns))}  median of 5`,
-        `  scoring engine compute            ${ms(median(engineRuns))}  median of 5 (targets: engine ≤ 150 ms, score ≤ 1.5 s)`,
-        `  Scorecard filter change (browser) ${browser}  (target ≤ 250 ms)`,
-      ].join('\n') + '\n',
-    );
+    say('due');
+    const due = repeat(times, () => forelog('due', '--json', '--db', dbPath));
+    put('due --json (whole process)', `${ms(due.median)} (${(JSON.parse(due.last.stdout) as { nudges: unknown[] }).nudges.length.toLocaleString('en')} due)`);
+
+    if (!fs.existsSync(CHROMIUM)) {
+      put('browser mode', `not measured (no ${CHROMIUM})`);
+      return;
+    }
+    say('browser mode');
+    await browserFigures(dbPath, large ? 1 : 5, large ? 300_000 : 60_000, put).catch((err: unknown) => put('browser mode', `not measured: ${(err as Error).message.split('\n')[0]}`));
   } finally {
     fs.rmSync(dir, { recursive: true, force: true });
   }
+}
+
+async function main(): Promise<void> {
+  const sizes = process.argv.includes('--large') ? [1_000, 10_000, 100_000] : [1_000, 10_000];
+  process.stderr.write('Building the command line and the screens (npm run build)…\n');
+  const built = spawnSync('npm', ['run', '--silent', 'build'], { cwd: ROOT, stdio: ['ignore', 'ignore', 'inherit'] });
+  if (built.status !== 0) throw new Error('npm run build failed (messages above)');
+  const loadBefore = os.loadavg()[0]!;
+  const rows = new Map<string, Row>();
+  for (const size of sizes) await measure(size, rows);
+
+  const cpus = os.cpus();
+  const header = ['', ...sizes.map((s) => `${s.toLocaleString('en')} questions`)];
+  const body = [...rows].map(([label, values]) => [label, ...sizes.map((s) => values.get(s) ?? '—')]);
+  const widths = header.map((_, i) => Math.max(...[header, ...body].map((r) => r[i]!.length)));
+  const line = (cells: string[]) => `| ${cells.map((c, i) => c.padEnd(widths[i]!)).join(' | ')} |`;
+  process.stdout.write(
+    [
+      `Forelog benchmark, ${REVISIONS_PER_QUESTION} revisions per question`,
+      `machine: ${cpus.length} × ${cpus[0]?.model ?? 'cpu'}, ${(os.totalmem() / 2 ** 30).toFixed(0)} GB, Node ${process.version}; load average ${loadBefore.toFixed(1)} before, ${os.loadavg()[0]!.toFixed(1)} after`,
+      '',
+      line(header),
+      line(widths.map((w) => '-'.repeat(w))),
+      ...body.map(line),
+    ].join('\n') + '\n',
+  );
 }
 
 main().catch((err: unknown) => {

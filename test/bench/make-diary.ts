@@ -17,17 +17,20 @@ export function mulberry32(seed: number): () => number {
 /**
  * A synthetic diary of `questions` questions with `revisionsPerQuestion` revisions each, from a
  * seeded PRNG (same arguments, same file). For benchmarks and size tests only.
+ *
+ * `firstIndex` numbers the questions from there (ids `bench-<index>`) and seeds the PRNG with
+ * it, so a large diary can be written as several files that import one after another.
  */
-export function buildDiaryFile(questions: number, revisionsPerQuestion = 20): { format: string; version: number; questions: object[] } {
-  return { format: 'forelog-diary', version: 1, questions: [...diaryQuestions(questions, revisionsPerQuestion)] };
+export function buildDiaryFile(questions: number, revisionsPerQuestion = 20, firstIndex = 0): { format: string; version: number; questions: object[] } {
+  return { format: 'forelog-diary', version: 1, questions: [...diaryQuestions(questions, revisionsPerQuestion, firstIndex)] };
 }
 
 /** The question records of `buildDiaryFile`, one at a time, for diaries too large to hold whole. */
-export function* diaryQuestions(questions: number, revisionsPerQuestion = 20): Generator<object> {
-  const rand = mulberry32(20261201);
+export function* diaryQuestions(questions: number, revisionsPerQuestion = 20, firstIndex = 0): Generator<object> {
+  const rand = mulberry32(20261201 + firstIndex);
   const start = Date.UTC(2021, 0, 4);
   const perQuestion = revisionsPerQuestion;
-  for (let i = 0; i < questions; i++) {
+  for (let i = firstIndex; i < firstIndex + questions; i++) {
     const opened = start + Math.floor(rand() * 1500) * DAY;
     const closes = opened + (14 + Math.floor(rand() * 160)) * DAY;
     const truth = rand();

@@ -146,6 +146,33 @@ for (const scheme of ['light', 'dark'] as const) {
   });
 }
 
+test('the top bar asks only for the count; the Desk asks for its list once', async ({ browser }) => {
+  const context = await browser.newContext();
+  /** A new tab at `screen`, and the due operations it asks for. */
+  async function open(screen: string): Promise<{ page: Page; asked: string[] }> {
+    const page = await context.newPage();
+    const asked: string[] = [];
+    page.on('request', (request) => {
+      const op = new URL(request.url()).pathname.match(/^\/api\/(\w+)$/)?.[1];
+      if (op === 'due' || op === 'dueCount') asked.push(op);
+    });
+    await page.goto(`${server().url}${screen}`);
+    return { page, asked };
+  }
+  try {
+    const desk = await open('');
+    await expect(desk.page.getByTestId('desk-item')).toHaveCount(4);
+    await expectCount(desk.page, 4);
+    expect(desk.asked.filter((op) => op === 'due'), 'the Desk fetched its list once').toEqual(['due']);
+
+    const questions = await open('#/questions');
+    await expect(questions.page.getByRole('navigation', { name: 'Main' }).getByTestId('due-count')).toHaveText('4 due');
+    expect(questions.asked, 'another screen shows the count without the list').toEqual(['dueCount']);
+  } finally {
+    await context.close();
+  }
+});
+
 test('resolving Yes from the Desk, with a note, removes the item and lowers the count', async ({ browser }) => {
   const app = await openApp(browser, server(), {}, '');
   const { page } = app;

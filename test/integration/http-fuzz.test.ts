@@ -196,6 +196,8 @@ const VALID: { [K in OperationName]: (n: number) => Request<K> } = {
   loadDemo: () => ({}),
   score: () => ({ tag: 'fuzz', from: '2026-01-01', to: '2026-12-31T23:59:59Z', costs: { false_alarm: 1, miss: 2 } }),
   due: () => ({ at: '2026-06-01T12:00:00Z' }),
+
+  dueCount: () => ({ at: '2026-06-01T12:00:00Z' }),
   snooze: (n) => ({ question_id: pick(ids.questions, n), kind: 'checkin', preset: pick(['hour', 'tomorrow_morning', 'next_week'] as const, n) }),
   hindsight: () => ({ tag: 'fuzz', from: '2026-01-01', to: '2026-12-31', threshold: 0.8, include_hits: true }),
   briefing: () => ({ tag: 'fuzz', threshold: 0.7 }),

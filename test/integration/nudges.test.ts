@@ -76,6 +76,52 @@ test('revising clears a check-in, snoozing hides a nudge until its time, resolvi
   await assert.rejects(d.call('snooze', { question_id: open.id, kind: 'nagging' as never, preset: 'hour' }), /kind: must be one of/);
 });
 
+test('dueCount is the number of questions the Desk lists; resolved and void questions get nothing', async () => {
+  const { d, closed, open } = await diaryWithClosedQuestion();
+  const both = async (at: string) => {
+    const due = await d.call('due', { at });
+    const count = await d.call('dueCount', { at });
+    assert.equal(count.at, due.at);
+    return { ids: [...new Set(due.nudges.map((n: { id: string }) => n.id))], count: count.count };
+  };
+  // The closed question has a check-in and its closing-soon warning: one question, two nudges.
+  assert.deepEqual(await both('2026-03-09T17:00:00Z'), { ids: [closed.id, open.id], count: 2 });
+  assert.deepEqual(await both('2026-03-02T10:00:00Z'), { ids: [], count: 0 });
+  d.clock.now = Date.parse('2026-03-09T17:00:00Z');
+  await d.call('snooze', { question_id: open.id, kind: 'checkin', preset: 'hour' });
+  assert.deepEqual(await both('2026-03-09T17:30:00Z'), { ids: [closed.id], count: 1 });
+  for (const outcome of ['void', 'yes'] as const) {
+    await d.call('resolveQuestion', { id: closed.id, outcome });
+    assert.deepEqual(await both('2026-04-30T12:00:00Z'), { ids: [open.id], count: 1 }, outcome);
+    await d.call('reopenQuestion', { id: closed.id });
+  }
+  await assert.rejects(d.call('dueCount', { at: 'soon' }), /at: must be an ISO 8601/);
+});
+
+test('the latest revision by time anchors the check-in and is the one listed, whatever order they were entered in', async () => {
+  const d = openTestDiary({ now: '2026-03-02T09:00:00Z' });
+  const q = await d.call('createQuestion', {
+    title: 'Depot sale completes',
+    closes_at: '2026-06-30T17:00:00Z',
+    opened_at: '2026-02-01T09:00:00Z',
+    first_forecast: { p: 0.2, at: '2026-02-01T09:00:00Z' },
+  });
+  await d.call('addForecast', { question_id: q.id, p: 0.4, at: '2026-02-20T10:00:00Z' });
+  // Entered later but back-dated: not the latest.
+  await d.call('addForecast', { question_id: q.id, p: 0.9, at: '2026-02-10T10:00:00Z' });
+  let due = await d.call('due', { at: '2026-02-27T10:00:00Z' });
+  assert.deepEqual(due.nudges.map((n: { kind: string; due_at: string; last_p: number; last_forecast_at: string }) => [n.kind, n.due_at, n.last_p, n.last_forecast_at]), [
+    ['checkin', '2026-02-27T10:00:00.000Z', 0.4, '2026-02-20T10:00:00.000Z'],
+  ]);
+  assert.equal((await d.call('due', { at: '2026-02-27T09:59:59.999Z' })).nudges.length, 0, 'not a millisecond early');
+  // Two revisions at one instant: the one entered last stands.
+  await d.call('addForecast', { question_id: q.id, p: 0.45, at: '2026-02-20T10:00:00Z' });
+  due = await d.call('due', { at: '2026-02-27T10:00:00Z' });
+  assert.equal(due.nudges[0].last_p, 0.45);
+  assert.equal(due.nudges[0].closes_at, '2026-06-30T17:00:00.000Z');
+  assert.equal(due.nudges[0].time_zone, 'UTC');
+});
+
 test('the scheduler delivers each nudge once, across a restart of the app', async () => {
   const { d } = await diaryWithClosedQuestion();
   const sent: { title: string; body: string; question_id: string | null }[] = [];

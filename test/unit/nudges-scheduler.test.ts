@@ -6,13 +6,13 @@
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import cron from 'node-cron';
-import { defaultSettings, type Question, type Settings } from '../../shared/domain';
-import { forecast, question } from '../support/builders';
+import { createRequire } from 'node:module';
+import { defaultSettings, type Settings } from '../../shared/domain';
+import { planQuestion } from '../support/builders';
 import { createScheduler, type CronModule, type SchedulerPorts } from '../../main/nudges/scheduler';
 import { inQuietHours, parseClockTime } from '../../main/nudges/quiet';
 import { nudgeMessage, summaryMessage } from '../../main/nudges/messages';
-import type { NudgeKind, Snooze } from '../../main/nudges/plan';
+import type { NudgeKind, PlanQuestion, Snooze } from '../../main/nudges/plan';
 
 const MINUTE = 60_000;
 const ms = (iso: string): number => Date.parse(iso);
@@ -28,7 +28,7 @@ interface Sent {
 type LogRow = { question_id: string; kind: NudgeKind; at: number };
 
 /** In-memory stand-ins for the SQLite tables and the notifier; `log` can be shared across instances. */
-function harness(init: { now: string; questions: Question[]; settings: Settings; log?: Map<string, LogRow> }) {
+function harness(init: { now: string; questions: PlanQuestion[]; settings: Settings; log?: Map<string, LogRow> }) {
   const h = {
     now: ms(init.now),
     questions: init.questions,
@@ -71,23 +71,21 @@ test('a week of minute ticks delivers each nudge once, at the minute it comes du
     settings: london,
     questions: [
       // Check-in 03-17 09:00 GMT + 7 → 03-24 09:00Z; revised 03-25 10:00Z → next 04-01, after the week.
-      question({ id: 'A', title: 'Alpha renewal', time_zone: 'Europe/London', opened_at: '2025-03-17T09:00:00.000Z', closes_at: '2025-04-30T12:00:00.000Z' }),
+      planQuestion({ id: 'A', title: 'Alpha renewal', time_zone: 'Europe/London', opened_at: '2025-03-17T09:00:00.000Z', closes_at: '2025-04-30T12:00:00.000Z' }),
       // Close 03-26 17:00Z: warning 03-25 17:00Z, closed prompt at the close, overdue from 03-29 17:00 GMT,
       // repeated daily at 17:00 London time: 03-30 17:00 BST = 16:00Z. Its check-in (03-27) is after the close.
-      question({ id: 'B', title: 'Board approval', time_zone: 'Europe/London', opened_at: '2025-03-20T12:00:00.000Z', closes_at: '2025-03-26T17:00:00.000Z' }),
-      // Resolved: never nudged.
-      question({ id: 'C', title: 'Client signs', time_zone: 'Europe/London', closes_at: '2025-03-26T12:00:00.000Z', resolution: { outcome: 'yes', at: '2025-03-20T12:00:00.000Z', note: '' } }),
+      planQuestion({ id: 'B', title: 'Board approval', time_zone: 'Europe/London', opened_at: '2025-03-20T12:00:00.000Z', closes_at: '2025-03-26T17:00:00.000Z' }),
       // Cadence 2: 03-23 08:00 + 2 → 03-25 08:00Z; never revised, so it stays due and is not repeated.
-      question({ id: 'D', title: 'Delivery on time', time_zone: 'Europe/London', checkin_days: 2, opened_at: '2025-03-23T08:00:00.000Z', closes_at: '2025-04-10T12:00:00.000Z' }),
+      planQuestion({ id: 'D', title: 'Delivery on time', time_zone: 'Europe/London', checkin_days: 2, opened_at: '2025-03-23T08:00:00.000Z', closes_at: '2025-04-10T12:00:00.000Z' }),
       // Cadence 3: 03-22 06:00 + 3 → 03-25 06:00Z; snoozed at 06:30 until 03-26 07:00Z, then shown once more.
-      question({ id: 'E', title: 'Export licence', time_zone: 'Europe/London', checkin_days: 3, opened_at: '2025-03-22T06:00:00.000Z', closes_at: '2025-04-10T12:00:00.000Z' }),
+      planQuestion({ id: 'E', title: 'Export licence', time_zone: 'Europe/London', checkin_days: 3, opened_at: '2025-03-22T06:00:00.000Z', closes_at: '2025-04-10T12:00:00.000Z' }),
     ],
   });
   const started = performance.now();
   t.scheduler.runOnce('start');
   tickUntil(t, '2025-03-31T00:00:00.000Z', (now) => {
     if (now === ms('2025-03-25T10:00:00.000Z')) {
-      t.h.questions = t.h.questions.map((q) => (q.id === 'A' ? { ...q, forecasts: [forecast('2025-03-25T10:00:00.000Z', 1)] } : q));
+      t.h.questions = t.h.questions.map((q) => (q.id === 'A' ? { ...q, last_forecast_at: ms('2025-03-25T10:00:00.000Z') } : q));
     }
     if (now === ms('2025-03-25T06:30:00.000Z')) {
       t.h.snoozes = [{ question_id: 'E', kind: 'checkin', until: ms('2025-03-26T07:00:00.000Z') }];
@@ -121,13 +119,13 @@ test('three days asleep, then resume: one summary for everything missed, and eve
     settings: utc,
     questions: [
       // Closed 06-01 10:00Z: window-closed prompt at start; overdue from 06-04 10:00Z.
-      question({ id: 'Q', checkin_days: 0, closes_at: '2025-06-01T10:00:00.000Z' }),
+      planQuestion({ id: 'Q', checkin_days: 0, closes_at: '2025-06-01T10:00:00.000Z' }),
       // Closes while asleep (06-03 12:00Z): its prompt is due on waking.
-      question({ id: 'P', checkin_days: 0, closes_at: '2025-06-03T12:00:00.000Z' }),
+      planQuestion({ id: 'P', checkin_days: 0, closes_at: '2025-06-03T12:00:00.000Z' }),
       // Check-ins due while asleep: 05-27 09:00 + 7, 06-02 07:30 + 1, 06-01 12:00 + 2.
-      question({ id: 'R', opened_at: '2025-05-27T09:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
-      question({ id: 'S', checkin_days: 1, opened_at: '2025-06-02T07:30:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
-      question({ id: 'T', checkin_days: 2, opened_at: '2025-06-01T12:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
+      planQuestion({ id: 'R', opened_at: '2025-05-27T09:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
+      planQuestion({ id: 'S', checkin_days: 1, opened_at: '2025-06-02T07:30:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
+      planQuestion({ id: 'T', checkin_days: 2, opened_at: '2025-06-01T12:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
     ],
   });
   assert.deepEqual(t.scheduler.runOnce('start'), { delivered: 1, summary: false, due: 1 });
@@ -154,9 +152,9 @@ test('a tick long after the previous run counts as a catch-up too; a single miss
     settings: { ...defaultSettings('UTC'), closing_soon_hours: 2 },
     questions: [
       // Check-in 06-02 07:00 + 1 → 06-03 07:00Z.
-      question({ id: 'one', title: 'One', checkin_days: 1, opened_at: '2025-06-02T07:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
+      planQuestion({ id: 'one', title: 'One', checkin_days: 1, opened_at: '2025-06-02T07:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
       // Warning from 06-03 10:00Z, closed prompt from 12:00Z.
-      question({ id: 'two', title: 'Two', checkin_days: 0, closes_at: '2025-06-03T12:00:00.000Z' }),
+      planQuestion({ id: 'two', title: 'Two', checkin_days: 0, closes_at: '2025-06-03T12:00:00.000Z' }),
     ],
   });
   t.scheduler.runOnce('start');
@@ -172,7 +170,7 @@ test('a tick long after the previous run counts as a catch-up too; a single miss
   // Asleep again from 07:03Z to 13:00Z: two closed at 12:00Z (its warning went unseen and is no
   // longer due), three's warning started at 12:00Z. One was resolved meanwhile (left out).
   t.h.now = ms('2025-06-03T13:00:00.000Z');
-  t.h.questions = [t.h.questions[1]!, question({ id: 'three', title: 'Three', checkin_days: 0, closes_at: '2025-06-03T14:00:00.000Z' })];
+  t.h.questions = [t.h.questions[1]!, planQuestion({ id: 'three', title: 'Three', checkin_days: 0, closes_at: '2025-06-03T14:00:00.000Z' })];
   assert.deepEqual(t.scheduler.runOnce('tick'), { delivered: 2, summary: true, due: 2 });
   assert.equal(t.h.sent.at(-1)?.body, '2 nudges while you were away: 1 to resolve, 1 closing soon');
 });
@@ -183,7 +181,7 @@ test('nudges falling due on the same tick go out as one summary', () => {
   const t = harness({
     now: '2025-06-10T16:58:00.000Z',
     settings: { ...utc, closing_soon_hours: 0 },
-    questions: [question({ id: 'a', checkin_days: 0, closes_at: close }), question({ id: 'b', checkin_days: 0, closes_at: close })],
+    questions: [planQuestion({ id: 'a', checkin_days: 0, closes_at: close }), planQuestion({ id: 'b', checkin_days: 0, closes_at: close })],
   });
   t.scheduler.runOnce('start');
   tickUntil(t, '2025-06-10T17:05:00.000Z');
@@ -195,9 +193,9 @@ test('nudges falling due on the same tick go out as one summary', () => {
 test('a restart over the same log re-delivers nothing, and still delivers what is new', () => {
   const utc = defaultSettings('UTC');
   const questions = [
-    question({ id: 'x', checkin_days: 0, closes_at: '2025-06-01T10:00:00.000Z' }),
-    question({ id: 'y', opened_at: '2025-05-20T09:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
-    question({ id: 'z', checkin_days: 0, closes_at: '2025-06-03T12:00:00.000Z' }),
+    planQuestion({ id: 'x', checkin_days: 0, closes_at: '2025-06-01T10:00:00.000Z' }),
+    planQuestion({ id: 'y', opened_at: '2025-05-20T09:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
+    planQuestion({ id: 'z', checkin_days: 0, closes_at: '2025-06-03T12:00:00.000Z' }),
   ];
   const first = harness({ now: '2025-06-02T08:00:00.000Z', settings: utc, questions });
   first.scheduler.runOnce('start');
@@ -216,7 +214,7 @@ test('overdue is re-delivered once per local day at the time it first fell due, 
   // New York: close 2025-10-28 09:00 EDT (13:00Z); overdue from 10-31 09:00 EDT (13:00Z), then daily at
   // 09:00 New York time: 11-01 13:00Z, and after EDT→EST on 11-02 06:00Z, 11-02 and 11-03 at 14:00Z.
   const ny = defaultSettings('America/New_York');
-  const questions = [question({ id: 'late', title: 'Late one', time_zone: 'America/New_York', checkin_days: 0, closes_at: '2025-10-28T13:00:00.000Z' })];
+  const questions = [planQuestion({ id: 'late', title: 'Late one', time_zone: 'America/New_York', checkin_days: 0, closes_at: '2025-10-28T13:00:00.000Z' })];
   const t = harness({ now: '2025-10-31T12:00:00.000Z', settings: ny, questions });
   t.scheduler.runOnce('start'); // window-closed prompt, still due at 08:00 EDT
   tickUntil(t, '2025-11-02T20:00:00.000Z');
@@ -245,9 +243,9 @@ test('quiet hours hold nudges and release them, summed up, at the first run afte
     settings,
     questions: [
       // Check-in 06-03 22:00Z + 7 → 06-10 22:00Z (23:00 BST, quiet).
-      question({ id: 'X', title: 'X', time_zone: 'Europe/London', opened_at: '2025-06-03T22:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
+      planQuestion({ id: 'X', title: 'X', time_zone: 'Europe/London', opened_at: '2025-06-03T22:00:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
       // Closes 06-11 01:00Z (02:00 BST, quiet); its closing-soon warning is already due at start.
-      question({ id: 'Y', title: 'Y', time_zone: 'Europe/London', checkin_days: 0, closes_at: '2025-06-11T01:00:00.000Z' }),
+      planQuestion({ id: 'Y', title: 'Y', time_zone: 'Europe/London', checkin_days: 0, closes_at: '2025-06-11T01:00:00.000Z' }),
     ],
   });
   t.scheduler.runOnce('start');
@@ -268,7 +266,7 @@ test('a single nudge held by quiet hours goes out on its own, naming its questio
   const t = harness({
     now: '2025-06-10T21:00:00.000Z',
     settings,
-    questions: [question({ id: 'X', title: 'X', opened_at: '2025-06-03T23:30:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' })],
+    questions: [planQuestion({ id: 'X', title: 'X', opened_at: '2025-06-03T23:30:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' })],
   });
   t.scheduler.runOnce('start');
   tickUntil(t, '2025-06-11T08:00:00.000Z');
@@ -302,7 +300,7 @@ test('a notifier failure records nothing, so the next run tries again', () => {
   const t = harness({
     now: '2025-06-02T08:00:00.000Z',
     settings: defaultSettings('UTC'),
-    questions: [question({ id: 'q', checkin_days: 0, closes_at: '2025-06-01T00:00:00.000Z' })],
+    questions: [planQuestion({ id: 'q', checkin_days: 0, closes_at: '2025-06-01T00:00:00.000Z' })],
   });
   let fail = true;
   const ports: SchedulerPorts = {
@@ -327,13 +325,13 @@ test('the due count is reported on the first run and on every change only', () =
   const t = harness({
     now: '2025-06-02T08:00:00.000Z',
     settings: { ...defaultSettings('UTC'), closing_soon_hours: 1 },
-    questions: [question({ id: 'q', checkin_days: 0, closes_at: '2025-06-02T10:00:00.000Z' })],
+    questions: [planQuestion({ id: 'q', checkin_days: 0, closes_at: '2025-06-02T10:00:00.000Z' })],
   });
   t.scheduler.runOnce('start');
   tickUntil(t, '2025-06-02T11:00:00.000Z');
   // 0 until 09:00Z, then closing soon (1), then window closed (still 1).
   assert.deepEqual(t.h.counts, [0, 1]);
-  t.h.questions = [{ ...t.h.questions[0]!, resolution: { outcome: 'no', at: '2025-06-02T11:00:00.000Z', note: '' } }];
+  t.h.questions = []; // resolved: the source lists unresolved questions only
   t.scheduler.runOnce('tick');
   assert.deepEqual(t.h.counts, [0, 1, 0]);
 });
@@ -342,7 +340,7 @@ test('the due count counts questions, as the Desk does: a check-in and closing s
   const t = harness({
     now: '2025-06-09T09:30:00.000Z',
     settings: { ...defaultSettings('UTC'), closing_soon_hours: 24 },
-    questions: [question({ id: 'q', checkin_days: 7, closes_at: '2025-06-10T08:00:00.000Z' })],
+    questions: [planQuestion({ id: 'q', checkin_days: 7, closes_at: '2025-06-10T08:00:00.000Z' })],
   });
   const result = t.scheduler.runOnce('start');
   assert.equal(result.due, 2, 'two reminders are due');
@@ -390,8 +388,8 @@ test('start() creates and starts a minute task, runs once at start, and the task
     now: '2025-06-02T08:00:00.000Z',
     settings: defaultSettings('UTC'),
     questions: [
-      question({ id: 'now', checkin_days: 0, closes_at: '2025-06-01T00:00:00.000Z' }),
-      question({ id: 'soon', checkin_days: 1, opened_at: '2025-06-01T08:01:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
+      planQuestion({ id: 'now', checkin_days: 0, closes_at: '2025-06-01T00:00:00.000Z' }),
+      planQuestion({ id: 'soon', checkin_days: 1, opened_at: '2025-06-01T08:01:00.000Z', closes_at: '2025-07-01T00:00:00.000Z' }),
     ],
   });
   const scheduler = t.scheduler;
@@ -420,6 +418,9 @@ test('start() creates and starts a minute task, runs once at start, and the task
 });
 
 test('with the real node-cron module, start() registers a started minute task and stop() removes it', () => {
+  // The scheduler requires node-cron when it starts (as the bundled app does), so its task
+  // is in the registry of the module `require` gives, not of an ES-module import.
+  const cron = createRequire(import.meta.url)('node-cron') as typeof import('node-cron');
   const t = harness({ now: '2025-06-02T08:00:00.000Z', settings: defaultSettings('UTC'), questions: [] });
   const before = new Set(cron.getTasks().keys());
   t.scheduler.start();

@@ -1,0 +1,175 @@
+/**
+ * The scoring engine's input as read from a real diary file: every probability comes back
+ * bit for bit as it was stored, the revisions belong to the right questions in the order
+ * the counting rules need, and the input behaves like a plain list wherever the service
+ * copies or replaces it.
+ */
+import assert from 'node:assert/strict';
+import { test } from 'node:test';
+import { loadScoringQuestions } from '../../main/service/scoring-source';
+import { computeScoreReport, computeScorecardDetail, type ScoringQuestion } from '../../shared/scoring';
+import { openTestDiary } from '../support/temp-diary';
+
+/** The neighbouring double towards +∞ (`up`) or −∞. */
+function nextDouble(x: number, up: boolean): number {
+  const view = new DataView(new ArrayBuffer(8));
+  view.setFloat64(0, x);
+  const bits = view.getBigUint64(0);
+  if (x === 0) return up ? Number.MIN_VALUE : -Number.MIN_VALUE;
+  view.setBigUint64(0, (x > 0) === up ? bits + 1n : bits - 1n);
+  return view.getFloat64(0);
+}
+
+function bits(x: number): bigint {
+  const view = new DataView(new ArrayBuffer(8));
+  view.setFloat64(0, x);
+  return view.getBigUint64(0);
+}
+
+const AWKWARD: [string, number][] = [
+  ['one ulp above 0.8', nextDouble(0.8, true)],
+  ['one ulp below 0.8', nextDouble(0.8, false)],
+  ['0.8 itself', 0.8],
+  ['0.1 + 0.2', 0.1 + 0.2],
+  ['the smallest subnormal, 5e-324', 5e-324],
+  ['1 - 2^-53, the largest double below 1', 1 - 2 ** -53],
+  ['one ulp above 0.1', nextDouble(0.1, true)],
+  ['the smallest normal double, 2^-1022', 2 ** -1022],
+  ['0', 0],
+  ['1', 1],
+];
+
+const base = { rule: 'Yes if it happens.', closes_at: '2026-03-31T17:00:00Z', opened_at: '2026-01-05T09:00:00Z' };
+
+test('awkward probabilities read back bit-identical through the scoring input', async () => {
+  const d = openTestDiary({ now: '2026-02-01T12:00:00Z' });
+  const ids = new Map<string, number>();
+  for (const [name, p] of AWKWARD) {
+    const q = await d.call('createQuestion', { ...base, title: `Holds ${name}`, first_forecast: { p, at: '2026-01-10T09:00:00Z' } });
+    await d.call('addReference', { question_id: q.id, p, source: 'sector survey', at: '2026-01-11T09:00:00Z' });
+    ids.set(q.id, p);
+  }
+  const input = loadScoringQuestions(d.service.store.read);
+  assert.equal(input.length, AWKWARD.length);
+  for (const q of input) {
+    const stored = ids.get(q.id)!;
+    assert.equal(bits(q.forecasts[0]!.p), bits(stored), `${q.title}: read ${q.forecasts[0]!.p}, stored ${stored}`);
+    assert.equal(bits(q.references[0]!.p), bits(stored), `${q.title}: the reference`);
+  }
+  for (const q of input) {
+    const stored = ids.get(q.id)!;
+    const cols = q.forecast_columns!;
+    assert.equal(cols.end - cols.start, 1, q.title);
+    assert.equal(bits(cols.p[cols.start]!), bits(stored), `${q.title}: the column`);
+  }
+});
+
+test('the final forecast the engine scores is the stored double, one ulp from 0.8 included', async () => {
+  const d = openTestDiary({ now: '2026-04-10T12:00:00Z' });
+  const above = nextDouble(0.8, true);
+  const below = nextDouble(0.8, false);
+  for (const [title, p, outcome] of [['Above', above, 'yes'], ['Below', below, 'no']] as const) {
+    const q = await d.call('createQuestion', { ...base, title, first_forecast: { p: 0.5, at: '2026-01-10T09:00:00Z' } });
+    await d.call('addForecast', { question_id: q.id, p, at: '2026-02-10T09:00:00Z' });
+    await d.call('resolveQuestion', { id: q.id, outcome, at: '2026-04-01T09:00:00Z' });
+  }
+  const input = loadScoringQuestions(d.service.store.read);
+  const rows = computeScorecardDetail(input, { default_costs: { false_alarm: 1, miss: 1 } }).per_question;
+  const byTitle = new Map(rows.map((r) => [r.title, r]));
+  assert.equal(bits(byTitle.get('Above')!.p), bits(above));
+  assert.equal(bits(byTitle.get('Below')!.p), bits(below));
+  const report = computeScoreReport(input, { default_costs: { false_alarm: 1, miss: 1 } });
+  assert.equal(report.brier, ((above - 1) ** 2 + below ** 2) / 2);
+});
+
+test('revisions reach their own questions; the same time is settled by entry order, not table order', async () => {
+  const d = openTestDiary({ now: '2026-04-10T12:00:00Z' });
+  // Imported out of time order, with two revisions at one instant: the one written later in
+  // the file (entered last) is the final forecast.
+  await d.call('importDiary', {
+    diary: {
+      format: 'forelog-diary',
+      version: 1,
+      questions: [
+        {
+          id: 'a',
+          title: 'Alpha',
+          tags: ['renewals', 'client:wendlebrook', 'delivery'],
+          opened_at: '2026-01-01T00:00:00Z',
+          closes_at: '2026-03-01T00:00:00Z',
+          forecasts: [
+            { at: '2026-02-01T00:00:00Z', p: 0.3 },
+            { at: '2026-01-05T00:00:00Z', p: 0.9 },
+            { at: '2026-02-01T00:00:00Z', p: 0.35 },
+            { at: '2026-03-05T00:00:00Z', p: 0.99 },
+          ],
+          references: [
+            { at: '2026-01-20T00:00:00Z', p: 0.6, source: 'panel' },
+            { at: '2026-01-10T00:00:00Z', p: 0.4, source: 'panel' },
+          ],
+          resolution: { outcome: 'no', at: '2026-03-02T00:00:00Z' },
+        },
+        { id: 'b', title: 'Beta', opened_at: '2026-01-01T00:00:00Z', closes_at: '2026-03-01T00:00:00Z', forecasts: [{ at: '2026-01-02T00:00:00Z', p: 0.2 }] },
+        { id: 'c', title: 'Gamma', opened_at: '2026-01-01T00:00:00Z', closes_at: '2026-03-01T00:00:00Z', forecasts: [] },
+      ],
+    },
+  });
+  const input = new Map(loadScoringQuestions(d.service.store.read).map((q) => [q.id, q]));
+  const a = input.get('a')!;
+  const entered = [...a.forecasts].sort((x, y) => x.seq - y.seq);
+  assert.deepEqual(
+    entered.map((f) => [f.at, f.p]),
+    [
+      [Date.parse('2026-02-01T00:00:00Z'), 0.3],
+      [Date.parse('2026-01-05T00:00:00Z'), 0.9],
+      [Date.parse('2026-02-01T00:00:00Z'), 0.35],
+      [Date.parse('2026-03-05T00:00:00Z'), 0.99],
+    ],
+    'every revision of Alpha, with seq following the order it was entered',
+  );
+  assert.deepEqual(a.tags, ['renewals', 'client:wendlebrook', 'delivery'], 'in the order the question lists them');
+  assert.deepEqual(a.references, [{ at: Date.parse('2026-01-10T00:00:00Z'), p: 0.4 }, { at: Date.parse('2026-01-20T00:00:00Z'), p: 0.6 }]);
+  assert.deepEqual(a.resolution, { outcome: 'no', at: Date.parse('2026-03-02T00:00:00Z') });
+  assert.deepEqual(input.get('b')!.forecasts.map((f) => f.p), [0.2]);
+  assert.deepEqual(input.get('c')!.forecasts, []);
+  const row = computeScorecardDetail([a], { default_costs: { false_alarm: 1, miss: 1 } }).per_question[0]!;
+  assert.equal(row.p, 0.35, 'the final counting forecast: same time as 0.3, entered after it; 0.99 is late');
+  assert.equal(row.p1, 0.9);
+});
+
+test('a copy or a replaced forecast list is scored from what it holds', async () => {
+  const d = openTestDiary({ now: '2026-04-10T12:00:00Z' });
+  const q = await d.call('createQuestion', { ...base, title: 'Copied', first_forecast: { p: 0.7, at: '2026-01-10T09:00:00Z' } });
+  await d.call('resolveQuestion', { id: q.id, outcome: 'yes', at: '2026-04-01T09:00:00Z' });
+  const options = { default_costs: { false_alarm: 1, miss: 1 } };
+  const [loaded] = loadScoringQuestions(d.service.store.read) as [ScoringQuestion];
+
+  const copy = { ...loaded, costs: { false_alarm: 1, miss: 9 } };
+  assert.deepEqual(copy.forecasts.map((f) => f.p), [0.7]);
+  assert.equal(computeScoreReport([copy], options).brier, computeScoreReport([loaded], options).brier);
+
+  loaded.forecasts = [{ at: Date.parse('2026-01-10T09:00:00Z'), p: 0.2, seq: 1 }];
+  assert.equal(loaded.forecast_columns, undefined, 'a replaced list drops the columns it no longer matches');
+  assert.equal(computeScoreReport([loaded], options).brier, (0.2 - 1) ** 2);
+});
+
+test('revisions written to several questions in turn each reach their own question', async () => {
+  const d = openTestDiary({ now: '2026-02-01T12:00:00Z' });
+  const qs = [];
+  for (const title of ['North', 'South', 'East', 'Quiet']) qs.push(await d.call('createQuestion', { ...base, title }));
+  // Round-robin, so no question's revisions sit together in the table.
+  for (let round = 0; round < 5; round++) {
+    for (const [k, q] of qs.slice(0, 3).entries()) {
+      await d.call('addForecast', { question_id: q.id, p: (round * 3 + k) / 20, at: `2026-01-${String(10 + round).padStart(2, '0')}T09:00:00Z` });
+    }
+  }
+  const input = new Map(loadScoringQuestions(d.service.store.read).map((q) => [q.id, q]));
+  for (const q of qs) {
+    const whole = await d.call('getQuestion', { id: q.id });
+    const expected = whole.forecasts.map((f: { at: string; p: number; seq: number }) => ({ at: Date.parse(f.at), p: f.p, seq: f.seq }));
+    const got = [...input.get(q.id)!.forecasts].sort((x, y) => x.seq - y.seq);
+    assert.deepEqual(got, [...expected].sort((x, y) => x.seq - y.seq), q.title);
+  }
+  assert.deepEqual(input.get(qs[3]!.id)!.forecasts, []);
+  assert.equal(input.get(qs[0]!.id)!.forecasts.length, 5);
+});
