@@ -37,6 +37,7 @@ function emptyRows(capacity: number): RevisionRows {
   return { n: 0, slot: new Int32Array(capacity), at: new Float64Array(capacity), p: new Float64Array(capacity), seq: new Float64Array(capacity) };
 }
 
+/** Doubles the columns; only reached if the row bound taken before the read were ever short. */
 function grow(rows: RevisionRows): void {
   const bigger = emptyRows(Math.max(16, rows.at.length * 2));
   bigger.slot.set(rows.slot);
