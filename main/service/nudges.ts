@@ -7,7 +7,7 @@ import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../shared/tim
 import { countDueQuestions, planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from '../nudges/plan';
 import { createScheduler, type Scheduler, type SchedulerPorts } from '../nudges/scheduler';
 import * as nudgeStore from '../store/nudges';
-import type { Db, StoreHandles } from '../store/open';
+import { readSnapshot, type Db, type StoreHandles } from '../store/open';
 import * as qs from '../store/questions';
 
 export type Notifier = SchedulerPorts['notifier'];
@@ -64,7 +64,7 @@ export function snoozes(store: StoreHandles): Snooze[] {
 
 /** The unresolved questions and the snoozes, from one snapshot of the file. */
 function planInput(store: StoreHandles): { questions: DueQuestion[]; snoozed: Snooze[] } {
-  return store.read.transaction(() => ({ questions: dueQuestions(store.read), snoozed: snoozes(store) }))();
+  return readSnapshot(store.read, () => ({ questions: dueQuestions(store.read), snoozed: snoozes(store) }));
 }
 
 /** What is due at `at`, with the questions it was planned from. */

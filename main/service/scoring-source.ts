@@ -12,7 +12,7 @@
  * SQLite holds and writes it into typed arrays.
  */
 import type { ForecastColumns, ScoringForecast, ScoringQuestion } from '../../shared/scoring';
-import type { Db } from '../store/open';
+import { readSnapshot, type Db } from '../store/open';
 
 /** Revisions as parallel columns; row i belongs to the question at index `slot[i]` of the answer. */
 interface RevisionRows {
@@ -192,7 +192,7 @@ type QuestionRow = [
  * the later of two same-time references stand.
  */
 export function loadScoringQuestions(db: Db): ScoringQuestion[] {
-  return db.transaction(() => {
+  return readSnapshot(db, () => {
     const rows = db
       .prepare(
         `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
@@ -218,5 +218,5 @@ export function loadScoringQuestions(db: Db): ScoringQuestion[] {
     const references = db.prepare('SELECT question_id, at, p FROM reference_forecasts ORDER BY question_id, at, seq').raw().all() as [string, number, number][];
     for (const [qid, at, p] of references) questions[slotOfId.get(qid)!]!.references.push({ at, p });
     return questions;
-  })();
+  });
 }

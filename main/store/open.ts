@@ -61,6 +61,16 @@ export function writeTransaction<T>(db: Db, fn: () => T): T {
   return db.transaction(fn).immediate();
 }
 
+/**
+ * Runs `fn` in one read transaction on a read-only handle, so every query inside sees the
+ * same snapshot of the diary even while another connection commits. Read-only handles
+ * only: a read that later writes must use `writeTransaction`.
+ */
+export function readSnapshot<T>(db: Db, fn: () => T): T {
+  if (!db.readonly) throw new Error('readSnapshot takes the read-only handle; writes go through writeTransaction.');
+  return db.transaction(fn)();
+}
+
 function configure(db: Db, busyTimeoutMs: number): void {
   db.pragma('foreign_keys = ON');
   db.pragma(`busy_timeout = ${busyTimeoutMs}`);
