@@ -206,3 +206,26 @@ export function parseRangeBound(text: string, end: 'from' | 'to'): number | null
   }
   return parseInstant(text);
 }
+
+/**
+ * "YYYY-MM-DD HH:MM" of instant `ms` on `timeZone`'s clock, with ":SS" when the seconds are
+ * not zero (a message about two times a few seconds apart must show them apart). The one
+ * format for times written in sentences: refusals and the command line's `due`.
+ */
+export function formatLocal(ms: number, timeZone: string): string {
+  const w = wallTimeAt(ms, timeZone);
+  const p = (n: number) => String(n).padStart(2, '0');
+  return `${w.year}-${p(w.month)}-${p(w.day)} ${p(w.hour)}:${p(w.minute)}${w.second ? `:${p(w.second)}` : ''}`;
+}
+
+/**
+ * A date and time written without an offset ("2026-03-31T17:00", seconds optional) read on
+ * `timeZone`'s clock, as epoch ms (RFC 5545 §3.3.5 for skipped and repeated wall times);
+ * null when `text` is not of that form. Text with an offset or `Z`, or a bare date, is not
+ * this form: read it with parseInstant or parseRangeBound.
+ */
+export function parseLocalInZone(text: string, timeZone: string): number | null {
+  if (!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/.test(text.trim())) return null;
+  const wall = parseLocalDateTime(text);
+  return wall ? wallTimeToInstant(wall, timeZone) : null;
+}

@@ -94,8 +94,13 @@ export function overdueAt(close: number, zone: string, settings: Settings): numb
   return sameWallTimeDaysLater(close, wholeDays(settings.overdue_after_days), zone);
 }
 
+/** The snooze hiding the (question, kind) nudge at `now`, if one is running. */
+export function runningSnooze(snoozes: readonly Snooze[], questionId: string, kind: NudgeKind, now: number): Snooze | undefined {
+  return snoozes.find((s) => s.question_id === questionId && s.kind === kind && s.until > now);
+}
+
 function isSnoozed(snoozes: readonly Snooze[], questionId: string, kind: NudgeKind, now: number): boolean {
-  return snoozes.some((s) => s.question_id === questionId && s.kind === kind && s.until > now);
+  return runningSnooze(snoozes, questionId, kind, now) !== undefined;
 }
 
 const KIND_ORDER = new Map(NUDGE_KINDS.map((k, i) => [k, i]));

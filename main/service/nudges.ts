@@ -4,7 +4,7 @@
  */
 import type { Question, Settings } from '../../shared/domain';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../shared/time';
-import { planNudges, type Nudge, type NudgeKind, type Snooze } from '../nudges/plan';
+import { planNudges, runningSnooze, type Nudge, type NudgeKind, type Snooze } from '../nudges/plan';
 import { createScheduler, type Scheduler, type SchedulerPorts } from '../nudges/scheduler';
 import * as nudgeStore from '../store/nudges';
 import type { StoreHandles } from '../store/open';
@@ -12,21 +12,38 @@ import * as qs from '../store/questions';
 
 export type Notifier = SchedulerPorts['notifier'];
 
-/** Every unresolved question, whole (the planner needs revisions for check-ins). */
-export function unresolvedQuestions(store: StoreHandles): Question[] {
+/** Every unresolved question, whole (the planner needs revisions for check-ins), as it stands at `now`. */
+export function unresolvedQuestions(store: StoreHandles, now: number): Question[] {
   const ids = (store.read.prepare('SELECT id FROM questions WHERE id NOT IN (SELECT question_id FROM resolutions)').raw().all() as [string][]).map(
     ([id]) => id,
   );
-  return ids.length ? qs.loadBundles(store.read, ids).map(qs.toQuestion) : [];
+  return ids.length ? qs.loadBundles(store.read, ids).map((b) => qs.toQuestion(b, now)) : [];
 }
 
 export function snoozes(store: StoreHandles): Snooze[] {
   return nudgeStore.allSnoozes(store.read);
 }
 
-export function dueAt(store: StoreHandles, settings: Settings, at: number): { questions: Question[]; nudges: Nudge[] } {
-  const questions = unresolvedQuestions(store);
-  return { questions, nudges: planNudges(questions, settings, snoozes(store), at) };
+/**
+ * What is due at `at`: the nudges to show, and apart from them the ones a running snooze
+ * hides, each with its snooze's end. Planned once without snoozes and then split, so the
+ * two lists hold exactly what the planner would show with no snoozes at all.
+ */
+export function dueAt(
+  store: StoreHandles,
+  settings: Settings,
+  at: number,
+): { questions: Question[]; nudges: Nudge[]; snoozed: { nudge: Nudge; until: number }[] } {
+  const questions = unresolvedQuestions(store, at);
+  const running = snoozes(store);
+  const nudges: Nudge[] = [];
+  const snoozed: { nudge: Nudge; until: number }[] = [];
+  for (const nudge of planNudges(questions, settings, [], at)) {
+    const snooze = runningSnooze(running, nudge.question_id, nudge.kind, at);
+    if (snooze) snoozed.push({ nudge, until: snooze.until });
+    else nudges.push(nudge);
+  }
+  return { questions, nudges, snoozed };
 }
 
 export type SnoozePreset = 'hour' | 'tomorrow_morning' | 'next_week';
@@ -60,7 +77,7 @@ export function createDiaryScheduler(
       };
   return createScheduler({
     clock: { now },
-    source: { questions: () => unresolvedQuestions(store), settings, snoozes: () => snoozes(store) },
+    source: { questions: () => unresolvedQuestions(store, now()), settings, snoozes: () => snoozes(store) },
     log,
     notifier,
     onDueCountChanged,
