@@ -213,3 +213,20 @@ test('the reader stops reading when a record is refused, and a diary file error 
   assert.throws(() => collect(readDiaryText(chunks())), (err: unknown) => err instanceof DiaryFileError && err.record === 0 && err.field === 'title');
   assert.equal(pulled, 0, 'nothing after the bad record was read');
 });
+
+test('a setting in a file is held to the app’s rules in the app’s words', async () => {
+  const d = openTestDiary();
+  const cases: [Record<string, unknown>, string][] = [
+    [{ closing_soon_hours: 0 }, 'closing_soon_hours: must be at least 1 hour'],
+    [{ closing_soon_hours: 337 }, 'closing_soon_hours: must be at most 336 hours (14 days)'],
+    [{ overdue_after_days: 1.5 }, 'overdue_after_days: must be whole days'],
+    [{ overdue_after_days: '3' }, 'overdue_after_days: must be whole days'],
+    [{ quiet_hours: { start: 2200, end: '07:00' } }, 'quiet_hours.start: must be a time of day HH:MM (24-hour)'],
+    [{ quiet_hours: '22:00-07:00' }, 'quiet_hours: must be { "start": "HH:MM", "end": "HH:MM" } or null'],
+  ];
+  for (const [settings, reason] of cases) {
+    await refusesText(d, JSON.stringify({ ...DIARY, settings, questions: [] }), `The settings are not valid: settings.${reason}. Nothing was imported.`);
+    // The same rule, in the same words, when the app changes a setting.
+    await assert.rejects(d.call('updateSettings', settings as never), (err: unknown) => err instanceof ApiError && err.fields[0] === reason);
+  }
+});
