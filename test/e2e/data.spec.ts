@@ -68,7 +68,7 @@ test('a picked file is decoded as the command line decodes it: BOM and UTF-16 re
   const { page } = app;
   try {
     const section = page.getByRole('region', { name: 'Your data' });
-    const input = section.getByLabel('Import a diary file (JSON or CSV)');
+    const input = section.getByLabel('Import a diary file…');
     const csv = 'title,closes_at,forecast_at,p,note\r\nCafé opens in Zürich,2031-01-01T00:00:00Z,2030-01-01T00:00:00Z,0.4,naïve\r\n';
     const json = (title: string) =>
       JSON.stringify({ format: 'forelog-diary', version: 1, questions: [{ title, closes_at: '2031-01-01T00:00:00Z', forecasts: [] }] });
