@@ -135,6 +135,8 @@ export const MIGRATIONS: readonly Migration[] = [
         operation   TEXT NOT NULL,
         recorded_at INTEGER NOT NULL,
         before      TEXT NOT NULL,
+        -- the length of before, kept so the log can be bounded by size without reading it
+        size        INTEGER NOT NULL,
         after_hash  TEXT NOT NULL
       );
       CREATE INDEX undo_log_recorded ON undo_log (recorded_at);

@@ -19,6 +19,20 @@ import type { Db } from './open';
 /** How many changes can be undone, and for how long. */
 export const UNDO_KEEP_ENTRIES = 200;
 export const UNDO_KEEP_MS = 7 * 86_400_000;
+/**
+ * And how much the kept snapshots may weigh together (in characters of JSON): a question
+ * with a hundred thousand revisions makes a snapshot of megabytes, and 200 of them must
+ * not fill the disk. The newest entry is always kept.
+ */
+export const UNDO_KEEP_SIZE = 64 * 1_048_576;
+
+export interface UndoLimits {
+  entries: number;
+  ms: number;
+  size: number;
+}
+
+const LIMITS: UndoLimits = { entries: UNDO_KEEP_ENTRIES, ms: UNDO_KEEP_MS, size: UNDO_KEEP_SIZE };
 
 /** A table of the question's rows and how to find them: `where` holds one `?`, the question's id. */
 interface TablePlan {
@@ -159,23 +173,31 @@ export function isUndoFresh(recordedAt: number, now: number): boolean {
 
 /**
  * Records that `operation` changed question `questionId` from `before` to what its rows
- * are now; returns the token that undoes it. Keeps the log bounded: entries past
- * `UNDO_KEEP_MS`, and all but the newest `UNDO_KEEP_ENTRIES`, are dropped.
+ * are now; returns the token that undoes it. Keeps the log bounded: entries older than
+ * `limits.ms`, beyond the newest `limits.entries`, or beyond `limits.size` together are
+ * dropped, oldest first.
  */
-export function recordUndo(db: Db, operation: string, questionId: string, before: QuestionSnapshot, now: number): string {
+export function recordUndo(db: Db, operation: string, questionId: string, before: QuestionSnapshot, now: number, limits: UndoLimits = LIMITS): string {
   const token = randomUUID();
-  stmt(db, 'INSERT INTO undo_log (token, question_id, operation, recorded_at, before, after_hash) VALUES (?, ?, ?, ?, ?, ?)').run(
+  const text = JSON.stringify(before);
+  stmt(db, 'INSERT INTO undo_log (token, question_id, operation, recorded_at, before, size, after_hash) VALUES (?, ?, ?, ?, ?, ?, ?)').run(
     token,
     questionId,
     operation,
     now,
-    JSON.stringify(before),
+    text,
+    text.length,
     snapshotHash(snapshotQuestion(db, questionId)),
   );
-  stmt(db, 'DELETE FROM undo_log WHERE recorded_at < ? OR seq <= (SELECT seq FROM undo_log ORDER BY seq DESC LIMIT 1 OFFSET ?)').run(
-    now - UNDO_KEEP_MS,
-    UNDO_KEEP_ENTRIES,
-  );
+  stmt(db, 'DELETE FROM undo_log WHERE recorded_at < ? OR seq <= (SELECT seq FROM undo_log ORDER BY seq DESC LIMIT 1 OFFSET ?)').run(now - limits.ms, limits.entries);
+  let total = 0;
+  for (const [i, { seq, size }] of (stmt(db, 'SELECT seq, size FROM undo_log ORDER BY seq DESC').all() as { seq: number; size: number }[]).entries()) {
+    total += size;
+    if (i > 0 && total > limits.size) {
+      stmt(db, 'DELETE FROM undo_log WHERE seq <= ?').run(seq);
+      break;
+    }
+  }
   return token;
 }
 

@@ -7,7 +7,7 @@
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
 import { ApiError } from '../../shared/contract';
-import { UNDO_KEEP_ENTRIES, UNDO_KEEP_MS } from '../../main/store/undo';
+import { recordUndo, snapshotQuestion, UNDO_KEEP_ENTRIES, UNDO_KEEP_MS } from '../../main/store/undo';
 import { exportJson, openTestDiary, type TestDiary } from '../support/temp-diary';
 
 const NOW = Date.parse('2026-06-01T12:00:00Z');
@@ -168,4 +168,19 @@ test('rows of a table added by a later migration come back too: the snapshot fol
   assert.equal(dump(d).forecast_choice_p!.length, 0, 'the delete cascaded');
   await d.call('undo', { token: undo });
   assert.deepEqual(dump(d), before);
+});
+
+test('the log is bounded by size too, oldest first, always keeping the newest change', () => {
+  const d = openTestDiary({ now: iso(NOW) });
+  const db = d.service.store.write;
+  db.exec(`INSERT INTO questions (id, title, rule, kind, opened_at, closes_at, time_zone, created_at, updated_at)
+           VALUES ('big', 'Heavy', '${'r'.repeat(1000)}', 'event_by_deadline', 0, 1, 'UTC', 0, 0)`);
+  const before = snapshotQuestion(db, 'big');
+  const size = JSON.stringify(before).length;
+  const limits = { entries: 200, ms: UNDO_KEEP_MS, size: 3 * size };
+  const tokens = Array.from({ length: 5 }, () => d.service.store.transact(() => recordUndo(db, 'updateQuestion', 'big', before, NOW, limits)));
+  const kept = (db.prepare('SELECT token FROM undo_log ORDER BY seq').all() as { token: string }[]).map((r) => r.token);
+  assert.deepEqual(kept, tokens.slice(2), 'exactly three snapshots fit');
+  const alone = d.service.store.transact(() => recordUndo(db, 'updateQuestion', 'big', before, NOW, { ...limits, size: size - 1 }));
+  assert.deepEqual((db.prepare('SELECT token FROM undo_log').all() as { token: string }[]).map((r) => r.token), [alone], 'the newest stays even when it alone is over');
 });
