@@ -7,7 +7,7 @@ import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { ApiError, parseRequest, type DueList, type ImportResult } from '../shared/contract';
 import { NUDGE_KIND_NAMES } from '../shared/domain';
-import { formatLocal, parseLocalInZone, toIso } from '../shared/time';
+import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
 import { writeToDescriptor } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
@@ -143,7 +143,8 @@ function onDiaryClock(option: string, text: string | undefined, timeZone: string
   if (text === undefined) return undefined;
   const local = parseLocalInZone(text, timeZone);
   if (local !== null) return toIso(local);
-  if (/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/.test(text.trim()) || (!bareDate && /^\d{4}-\d{2}-\d{2}$/.test(text.trim()))) {
+  // The shape of a local time (or, where none is taken, of a bare date) that names no real moment.
+  if (LOCAL_DATE_TIME_FORM.test(text.trim()) || (!bareDate && BARE_DATE_FORM.test(text.trim()))) {
     throw new UsageError(
       `--${option} ${text} is not a date and time that exists; write it as ${bareDate ? '2026-03-31 (a UTC day), ' : ''}2026-03-31T17:00 (on the diary's clock, ${timeZone}) or 2026-03-31T17:00+01:00`,
     );

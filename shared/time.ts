@@ -191,12 +191,18 @@ export function toIso(ms: number): string {
   return new Date(ms).toISOString();
 }
 
+/** How a bare date is written: "2026-03-31". */
+export const BARE_DATE_FORM = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** How a date and time without offset is written: "2026-03-31T17:00", seconds optional. */
+export const LOCAL_DATE_TIME_FORM = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/;
+
 /**
  * A date-range bound for filters: an ISO instant, or a bare date `YYYY-MM-DD` meaning that
  * whole day in UTC (start of the day for `from`, end of the day for `to`, both inclusive).
  */
 export function parseRangeBound(text: string, end: 'from' | 'to'): number | null {
-  const bare = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text.trim());
+  const bare = BARE_DATE_FORM.exec(text.trim());
   if (bare) {
     const wall = parseLocalDateTime(`${bare[1]}-${bare[2]}-${bare[3]}T00:00`);
     if (!wall) return null;
@@ -225,7 +231,7 @@ export function formatLocal(ms: number, timeZone: string): string {
  * this form: read it with parseInstant or parseRangeBound.
  */
 export function parseLocalInZone(text: string, timeZone: string): number | null {
-  if (!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/.test(text.trim())) return null;
+  if (!LOCAL_DATE_TIME_FORM.test(text.trim())) return null;
   const wall = parseLocalDateTime(text);
   return wall ? wallTimeToInstant(wall, timeZone) : null;
 }
