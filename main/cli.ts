@@ -7,7 +7,9 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { isCheckout, staleReason } from '../scripts/freshness.mjs';
-import { ApiError, parseRequest, type DueList } from '../shared/contract';
+import { ApiError, parseRequest, type DueList, type ImportResult } from '../shared/contract';
+import { NUDGE_KIND_NAMES } from '../shared/domain';
+import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
 import { writeToDescriptor } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
@@ -20,22 +22,42 @@ const USAGE = `Usage: forelog <command> [--db PATH]
 
 Commands:
   serve [--port N]            the full app in a browser, on 127.0.0.1 only
-  import FILE [--format json|csv]
+  import FILE [--format json|csv] [--merge]
                               add a diary file (JSON v1, or CSV as in docs/csv-format.md;
-                              chosen by --format or the .csv extension)
+                              chosen by --format or the .csv extension); --merge skips
+                              questions already in the diary unchanged
   score [--tag T] [--from D] [--to D] [--json]
                               the scorecard (JSON as documented with --json)
   export [FILE] [--format json|csv|ics]
                               write the diary file (to stdout without FILE); csv: one
                               row per revision; ics: every open question's close as an event
-  due [--at TIME] [--json]    the nudges due at that instant (default now)
+  due [--at TIME] [--json]    the nudges due at that instant (default now), in the
+                              diary's time zone; --json keeps UTC instants
   demo                        fill an empty diary with the invented example
   backup FILE                 online copy of the diary database
   restore FILE                put a backup copy in place of the diary
 
+Times for --from, --to and --at:
+  2026-03-31                  a bare date: that whole day in UTC (--from and --to only)
+  2026-03-31T17:00            a date and time without offset: on the diary's clock
+                              (its time zone setting)
+  2026-03-31T17:00+01:00      a date and time with an offset or Z: that instant
+
 Options:
   --db PATH                   the diary file (default: the desktop app's own diary)
   --help                      this text`;
+
+/** The options each command takes, besides --db and --help; any other is refused. */
+const COMMAND_OPTIONS: Record<string, readonly string[]> = {
+  serve: ['port'],
+  import: ['format', 'merge'],
+  export: ['format'],
+  score: ['tag', 'from', 'to', 'json'],
+  due: ['at', 'json'],
+  demo: [],
+  backup: [],
+  restore: [],
+};
 
 class UsageError extends Error {}
 
@@ -59,27 +81,77 @@ function reportInternal(err: unknown): void {
 interface Parsed {
   command: string | undefined;
   positionals: string[];
-  values: { db?: string; port?: string; format?: string; tag?: string; from?: string; to?: string; at?: string; json?: boolean; help?: boolean };
+  values: {
+    db?: string;
+    port?: string;
+    format?: string;
+    tag?: string;
+    from?: string;
+    to?: string;
+    at?: string;
+    json?: boolean;
+    merge?: boolean;
+    help?: boolean;
+  };
 }
 
 function parse(argv: string[]): Parsed {
-  const { values, positionals } = parseArgs({
-    args: argv,
-    allowPositionals: true,
-    strict: true,
-    options: {
-      db: { type: 'string' },
-      port: { type: 'string' },
-      format: { type: 'string' },
-      tag: { type: 'string' },
-      from: { type: 'string' },
-      to: { type: 'string' },
-      at: { type: 'string' },
-      json: { type: 'boolean' },
-      help: { type: 'boolean', short: 'h' },
-    },
-  });
-  return { command: positionals[0], positionals: positionals.slice(1), values };
+  try {
+    const { values, positionals } = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      strict: true,
+      options: {
+        db: { type: 'string' },
+        port: { type: 'string' },
+        format: { type: 'string' },
+        tag: { type: 'string' },
+        from: { type: 'string' },
+        to: { type: 'string' },
+        at: { type: 'string' },
+        json: { type: 'boolean' },
+        merge: { type: 'boolean' },
+        help: { type: 'boolean', short: 'h' },
+      },
+    });
+    return { command: positionals[0], positionals: positionals.slice(1), values };
+  } catch (err) {
+    // node:util's own wording is written for programmers ("place it at the end … after '--'").
+    const code = (err as NodeJS.ErrnoException).code;
+    const option = /'(-[^' ]+)/.exec((err as Error).message)?.[1];
+    if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') throw new UsageError(`there is no option ${option ?? ''}`.trimEnd());
+    if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') throw new UsageError(`${option ?? 'an option'} needs a value (or takes none)`);
+    throw err;
+  }
+}
+
+/** Refuses an option the command does not use, rather than ignoring it. */
+function checkOptions(command: string, values: Parsed['values']): void {
+  const allowed = COMMAND_OPTIONS[command];
+  if (!allowed) return;
+  for (const [name, value] of Object.entries(values)) {
+    if (value === undefined || name === 'db' || name === 'help' || allowed.includes(name)) continue;
+    const takes = allowed.length ? `it takes ${allowed.map((o) => `--${o}`).join(', ')}` : 'it takes no options besides --db';
+    throw new UsageError(`${command} does not use --${name}; ${takes}`);
+  }
+}
+
+/**
+ * A --from, --to or --at value as the API reads it: a date and time without offset is
+ * read on the diary's clock (`timeZone`) and becomes that instant; a bare date or a time
+ * with an offset passes as written (the contract reads a bare date as its UTC day).
+ */
+function onDiaryClock(option: string, text: string | undefined, timeZone: string, bareDate: boolean): string | undefined {
+  if (text === undefined) return undefined;
+  const local = parseLocalInZone(text, timeZone);
+  if (local !== null) return toIso(local);
+  // The shape of a local time (or, where none is taken, of a bare date) that names no real moment.
+  if (LOCAL_DATE_TIME_FORM.test(text.trim()) || (!bareDate && BARE_DATE_FORM.test(text.trim()))) {
+    throw new UsageError(
+      `--${option} ${text} is not a date and time that exists; write it as ${bareDate ? '2026-03-31 (a UTC day), ' : ''}2026-03-31T17:00 (on the diary's clock, ${timeZone}) or 2026-03-31T17:00+01:00`,
+    );
+  }
+  return text;
 }
 
 /** The diary path the arguments name, for messages about the file after a failure. */
@@ -147,6 +219,20 @@ async function rendererDir(): Promise<string> {
   return path.join(root, 'dist', 'renderer');
 }
 
+/** `forelog due` for a person: each time on the diary's clock (`zone`), snoozed nudges after the due ones. */
+function dueText(list: DueList, zone: string): string {
+  const local = (iso: string) => formatLocal(Date.parse(iso), zone);
+  const line = (kind: keyof typeof NUDGE_KIND_NAMES, word: string, iso: string, title: string) =>
+    `${NUDGE_KIND_NAMES[kind].padEnd(13)} ${word} ${local(iso)}  ${title}\n`;
+  let out = list.nudges.length ? `Due at ${local(list.at)} (${zone}):\n` : `Nothing due at ${local(list.at)} (${zone}).\n`;
+  for (const n of list.nudges) out += line(n.kind, 'since', n.due_at, n.title);
+  if (list.snoozed.length) {
+    out += 'Snoozed:\n';
+    for (const n of list.snoozed) out += line(n.kind, 'until', n.until, n.title);
+  }
+  return out;
+}
+
 async function serve(dbPath: string, portText: string | undefined): Promise<void> {
   const port = portText === undefined ? 0 : Number(portText);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
@@ -180,6 +266,7 @@ async function run(argv: string[]): Promise<void> {
     process.stdout.write(`${USAGE}\n`);
     return;
   }
+  checkOptions(command, values);
   const dbPath = values.db ?? defaultDiaryPath();
   switch (command) {
     case 'serve':
@@ -190,8 +277,10 @@ async function run(argv: string[]): Promise<void> {
       if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
       if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
       // Streamed from the file: no size limit, all or nothing.
-      const result = await withDiary(dbPath, { create: true }, async (s) => s.importDiaryFile(file, format));
-      process.stdout.write(`Imported ${result.added} question${result.added === 1 ? '' : 's'} into ${path.resolve(dbPath)}.\n`);
+      const result: ImportResult = await withDiary(dbPath, { create: true }, async (s) => s.importDiaryFile(file, format, { merge: values.merge }));
+      const plural = (n: number) => `${n} question${n === 1 ? '' : 's'}`;
+      const skipped = values.merge ? `; skipped ${plural(result.skipped)} already in it unchanged` : '';
+      process.stdout.write(`Imported ${plural(result.added)} into ${path.resolve(dbPath)}${skipped}.\n`);
       return;
     }
     case 'export': {
@@ -209,8 +298,11 @@ async function run(argv: string[]): Promise<void> {
     }
     case 'score': {
       if (positionals.length) throw new UsageError('takes no FILE; filter with --tag, --from and --to');
-      const request = { tag: values.tag, from: values.from, to: values.to };
-      const report = await withDiary(dbPath, { create: false }, async (s) => s.diary.scoreReport(parseRequest('score', request)));
+      const report = await withDiary(dbPath, { create: false }, async (s) => {
+        const zone = s.diary.settings().time_zone;
+        const request = { tag: values.tag, from: onDiaryClock('from', values.from, zone, true), to: onDiaryClock('to', values.to, zone, true) };
+        return s.diary.scoreReport(parseRequest('score', request));
+      });
       if (values.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       else {
         const note = [values.tag && `tag ${values.tag}`, values.from && `from ${values.from}`, values.to && `to ${values.to}`].filter(Boolean).join(', ');
@@ -220,15 +312,16 @@ async function run(argv: string[]): Promise<void> {
     }
     case 'due': {
       if (positionals.length) throw new UsageError('takes no FILE; give the instant with --at');
-      const list = (await withDiary(dbPath, { create: false }, (s) => callOrThrow(s.dispatch, 'due', values.at === undefined ? {} : { at: values.at }))) as DueList;
+      const { list, zone } = await withDiary(dbPath, { create: false }, async (s) => {
+        const zone = s.diary.settings().time_zone;
+        const at = onDiaryClock('at', values.at, zone, false);
+        return { list: (await callOrThrow(s.dispatch, 'due', at === undefined ? {} : { at })) as DueList, zone };
+      });
       if (values.json) {
+        // Exactly the documented object (docs/command-line.md): instants in UTC.
         const out = { at: list.at, nudges: list.nudges.map((n) => ({ id: n.id, title: n.title, kind: n.kind, due_at: n.due_at })) };
         process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
-      } else if (list.nudges.length === 0) process.stdout.write(`Nothing due at ${list.at}.\n`);
-      else {
-        const label = { checkin: 'check-in', closing_soon: 'closing soon', window_closed: 'to resolve', overdue: 'overdue' } as const;
-        for (const n of list.nudges) process.stdout.write(`${label[n.kind].padEnd(13)} since ${n.due_at}  ${n.title}\n`);
-      }
+      } else process.stdout.write(dueText(list, zone));
       return;
     }
     case 'demo': {
@@ -259,7 +352,7 @@ async function run(argv: string[]): Promise<void> {
       return;
     }
     default:
-      throw new UsageError(`unknown command "${command}" (try forelog --help)`);
+      throw new UsageError(`unknown command "${command}"`);
   }
 }
 

@@ -5,7 +5,7 @@
  * these schemas before the service runs, so a bad request changes nothing.
  */
 import { z } from 'zod';
-import type { DueNudge, Question, QuestionSummary, Settings } from './domain';
+import type { DueNudge, NudgeKind, Question, QuestionSummary, Settings, SnoozedNudge } from './domain';
 import { NUDGE_KINDS, OUTCOMES, QUESTION_STATUSES } from './domain';
 import type { ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
@@ -67,12 +67,28 @@ export const referenceRequest = z.object({
   at: v.instant.optional(),
 });
 
+const confirmed = z.boolean({ error: 'must be true or false' });
+
+/**
+ * Resolving a resolved question again is a correction: the resolution it replaces is kept
+ * in the question's `resolution_history`, with `correction_note` as the reason.
+ */
 export const resolveRequest = z.object({
   id,
   outcome: z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' }),
   at: v.instant.optional(),
   note: v.note.optional(),
+  /** Why the earlier resolution was wrong; only when correcting. */
+  correction_note: v.note.optional(),
+  /**
+   * The user saw the warning (error code `confirm`) and means it: a question about the
+   * state at its close resolved Yes or No before that close.
+   */
+  confirm: confirmed.optional(),
 });
+
+/** Reopening keeps the resolution it removes in the history, with `note` as the reason. */
+export const reopenRequest = z.object({ id, note: v.note.optional() });
 
 export const listRequest = z.object({
   status: z.enum(QUESTION_STATUSES as [string, ...string[]], { error: `must be one of ${QUESTION_STATUSES.join(', ')}` }).optional(),
@@ -80,17 +96,7 @@ export const listRequest = z.object({
   text: v.searchText.optional(),
 });
 
-export const settingsPatch = z
-  .object({
-    default_false_alarm_cost: v.positiveCost.optional(),
-    default_miss_cost: v.positiveCost.optional(),
-    default_checkin_days: v.checkinDays.optional(),
-    closing_soon_hours: z.number().int({ message: 'must be whole hours' }).min(1, { message: 'must be at least 1 hour' }).max(24 * 14).optional(),
-    overdue_after_days: z.number().int({ message: 'must be whole days' }).min(0).max(90, { message: 'must be at most 90 days' }).optional(),
-    time_zone: v.timeZone.optional(),
-    quiet_hours: z.object({ start: v.hhmm, end: v.hhmm }).nullable().optional(),
-  })
-  .strict();
+export const settingsPatch = z.object(v.settingsFields).partial().strict();
 
 export const scoreRequest = z
   .object({
@@ -137,6 +143,15 @@ export const snoozeRequest = z
     path: ['preset'],
   });
 
+/** Ends the question's running snoozes: of one kind, or every kind when `kind` is left out. */
+export const unsnoozeRequest = z.object({
+  question_id: id,
+  kind: snoozeRequest.shape.kind.optional(),
+});
+
+/** Takes back the change that answered with `token` (see `Undoable`). */
+export const undoRequest = z.object({ token: v.id('must be the undo token a change answered with') });
+
 export const EXPORT_FORMATS = ['json', 'csv', 'ics'] as const;
 export const IMPORT_FORMATS = ['json', 'csv'] as const;
 
@@ -152,10 +167,21 @@ export const APP_IMPORT_MAX_BYTES = 64 * 1_048_576;
 export const APP_IMPORT_TOO_LARGE =
   'is larger than 64 MB, the most the app imports at once; import it with the command line instead, which takes files of any size: forelog import FILE';
 
+/**
+ * `merge`: questions already in the diary exactly as the file has them are skipped and the
+ * rest added; any that are in the diary with different contents refuse the whole import
+ * (error code `conflict`, with the list in `conflicts`). Without it, any question id
+ * already in the diary refuses the import.
+ */
+const merge = z.boolean({ error: 'must be true or false' }).optional();
+
 export const importTextRequest = z.object({
   format: z.enum(IMPORT_FORMATS, { error: 'must be json or csv' }),
   text: z.string({ error: 'must be the file’s text' }).max(APP_IMPORT_MAX_BYTES, { message: APP_IMPORT_TOO_LARGE }),
+  merge,
 });
+
+export const importDiaryRequest = z.object({ diary: z.unknown(), merge });
 
 const empty = z.object({}).strict();
 const byId = z.object({ id });
@@ -177,6 +203,61 @@ export interface ExportedText {
   text: string;
   file_name: string;
   media_type: string;
+}
+
+/**
+ * Every change to a question answers with an `undo` token: passed to the `undo` operation,
+ * it puts the question back exactly as it was before the change (same ids, entry order,
+ * times, lenses, tags, resolution and history), as long as the question has not changed
+ * since. The last 200 changes of the last 7 days can be undone, each once.
+ */
+export interface Undoable {
+  undo: string;
+}
+
+/** The operations whose answers carry an `undo` token. */
+export const UNDOABLE_OPERATIONS = [
+  'createQuestion',
+  'updateQuestion',
+  'deleteQuestion',
+  'addForecast',
+  'updateForecast',
+  'deleteForecast',
+  'addReference',
+  'deleteReference',
+  'resolveQuestion',
+  'reopenQuestion',
+  'snooze',
+  'unsnooze',
+] as const;
+export type UndoableOperation = (typeof UNDOABLE_OPERATIONS)[number];
+
+export interface UndoResult {
+  question_id: string;
+  /** The operation that was undone. */
+  operation: UndoableOperation;
+  /** The question as it is again; null when the undone change created it. */
+  question: Question | null;
+}
+
+export interface ImportResult {
+  /** Questions added to the diary. */
+  added: number;
+  /** With `merge`: questions already in the diary exactly as in the file, left alone. */
+  skipped: number;
+}
+
+/** A question a merging import found in the diary with different contents. */
+export interface ImportConflict {
+  /** Its place in the file: the index in `questions` (JSON) or the order of first rows (CSV), from 0. */
+  index: number;
+  /** CSV: the question's first row (the header is row 1); null for JSON. */
+  row: number | null;
+  id: string;
+  /** The title in the file. */
+  title: string;
+  /** What differs, by the diary file's field names (title, forecasts, resolution, …), in file order. */
+  differs: string[];
 }
 
 export interface DiaryInfo {
@@ -201,10 +282,10 @@ export const operations = {
   addReference: referenceRequest,
   deleteReference: byId,
   resolveQuestion: resolveRequest,
-  reopenQuestion: byId,
+  reopenQuestion: reopenRequest,
   getSettings: empty,
   updateSettings: settingsPatch,
-  importDiary: z.object({ diary: z.unknown() }),
+  importDiary: importDiaryRequest,
   exportDiary: empty,
   importText: importTextRequest,
   exportText: exportTextRequest,
@@ -213,6 +294,8 @@ export const operations = {
   due: dueRequest,
   dueCount: dueRequest,
   snooze: snoozeRequest,
+  unsnooze: unsnoozeRequest,
+  undo: undoRequest,
   hindsight: hindsightRequest,
   briefing: briefingRequest,
 } as const;
@@ -224,27 +307,30 @@ export interface Responses {
   listQuestions: QuestionList;
   getQuestion: Question;
   listTags: { tags: TagCount[] };
-  createQuestion: Question;
-  updateQuestion: Question;
-  deleteQuestion: { deleted: string };
-  addForecast: Question;
-  updateForecast: Question;
-  deleteForecast: Question;
-  addReference: Question;
-  deleteReference: Question;
-  resolveQuestion: Question;
-  reopenQuestion: Question;
+  createQuestion: Question & Undoable;
+  updateQuestion: Question & Undoable;
+  deleteQuestion: { deleted: string } & Undoable;
+  addForecast: Question & Undoable;
+  updateForecast: Question & Undoable;
+  deleteForecast: Question & Undoable;
+  addReference: Question & Undoable;
+  deleteReference: Question & Undoable;
+  resolveQuestion: Question & Undoable;
+  reopenQuestion: Question & Undoable;
   getSettings: Settings;
   updateSettings: Settings;
-  importDiary: { added: number };
+  importDiary: ImportResult;
   exportDiary: unknown;
-  importText: { added: number };
+  importText: ImportResult;
   exportText: ExportedText;
   loadDemo: { added: number };
   score: Scorecard;
   due: DueList;
   dueCount: DueCount;
-  snooze: { question_id: string; kind: string; until: string };
+  snooze: { question_id: string; kind: string; until: string } & Undoable;
+  /** The kinds whose snoozes ended. */
+  unsnooze: { question_id: string; kinds: NudgeKind[] } & Undoable;
+  undo: UndoResult;
   hindsight: Hindsight;
   briefing: { html: string; title: string };
 }
@@ -277,6 +363,8 @@ export interface Hindsight {
 export interface DueList {
   at: string;
   nudges: DueNudge[];
+  /** Nudges due at `at` but hidden by a running snooze, with when each comes back; same order as `nudges`. */
+  snoozed: SnoozedNudge[];
 }
 
 /** How many questions the Desk would list at `at` (what the top bar and the tray show), without the list. */
@@ -315,30 +403,47 @@ export function isOperationName(name: string): name is OperationName {
   return Object.prototype.hasOwnProperty.call(operations, name);
 }
 
-/** An error a user can act on; `fields` lists `field: reason` lines. Carried by both transports. */
+/**
+ * An error a user can act on; `fields` lists `field: reason` lines. Carried by both
+ * transports. `conflicts` comes only with a merging import's `conflict`.
+ */
 export interface ApiErrorBody {
-  error: { code: ApiErrorCode; message: string; fields: string[] };
+  error: { code: ApiErrorCode; message: string; fields: string[]; conflicts?: ImportConflict[] };
 }
 
 /**
+ * `confirm`: the request is allowed but unusual (the message says why); nothing was
+ * changed, and sending it again with `confirm: true` goes ahead.
  * `busy` (another window or command is writing; retry), `read_only` (the diary file may not
  * be written), `disk_full` and `storage` (the file could not be read or written, or is
  * damaged) describe the diary file rather than the request; each message says what to do.
  */
-export type ApiErrorCode = 'invalid' | 'not_found' | 'conflict' | 'busy' | 'read_only' | 'disk_full' | 'storage' | 'internal';
+export type ApiErrorCode =
+  | 'invalid'
+  | 'not_found'
+  | 'conflict'
+  | 'confirm'
+  | 'busy'
+  | 'read_only'
+  | 'disk_full'
+  | 'storage'
+  | 'internal';
 
 export class ApiError extends Error {
   constructor(
     readonly code: ApiErrorCode,
     message: string,
     readonly fields: string[] = [],
+    readonly conflicts?: ImportConflict[],
   ) {
     super(message);
     this.name = 'ApiError';
   }
 
   toBody(): ApiErrorBody {
-    return { error: { code: this.code, message: this.message, fields: this.fields } };
+    const error: ApiErrorBody['error'] = { code: this.code, message: this.message, fields: this.fields };
+    if (this.conflicts) error.conflicts = this.conflicts;
+    return { error };
   }
 }
 

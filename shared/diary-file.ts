@@ -10,7 +10,7 @@
  * times as epoch milliseconds, parsed once.
  */
 import { z } from 'zod';
-import { OUTCOMES, type Forecast, type Question, type ReferenceForecast, type Settings } from './domain';
+import { OUTCOMES, RESOLUTION_CHANGE_KINDS, type Forecast, type Question, type ReferenceForecast, type Settings } from './domain';
 import { JsonStreamError, readObjectStream } from './json-stream';
 import * as v from './validation';
 
@@ -36,6 +36,17 @@ const fileResolution = z.object({
   note: v.note.optional(),
 });
 
+/** An earlier resolution, replaced by a correction or a reopening (docs/diary-file.md, "Resolution history"). */
+const fileResolutionChange = z.object({
+  outcome: fileResolution.shape.outcome,
+  at: v.instantMs,
+  note: v.note.optional(),
+  recorded_at: v.instantMs,
+  replaced_at: v.instantMs,
+  change: z.enum(RESOLUTION_CHANGE_KINDS as [string, ...string[]], { error: 'must be corrected or reopened' }),
+  change_note: v.note.optional(),
+});
+
 export const fileQuestion = z
   .object({
     id: v.id().optional(),
@@ -45,6 +56,7 @@ export const fileQuestion = z
     forecasts: z.array(fileForecast, { error: 'must be a list of forecasts' }),
     references: z.array(fileReference, { error: 'must be a list of reference forecasts' }).optional(),
     resolution: fileResolution.nullable().optional(),
+    resolution_history: z.array(fileResolutionChange, { error: 'must be a list of earlier resolutions' }).optional(),
   })
   .refine(...v.closesAfterOpens);
 
@@ -52,18 +64,18 @@ export const fileQuestion = z
 export type FileQuestion = z.output<typeof fileQuestion>;
 export type FileForecast = z.output<typeof fileForecast>;
 export type FileReference = z.output<typeof fileReference>;
+export type FileResolutionChange = z.output<typeof fileResolutionChange>;
 
-const fileSettings = z
-  .object({
-    default_false_alarm_cost: v.positiveCost.optional(),
-    default_miss_cost: v.positiveCost.optional(),
-    default_checkin_days: v.checkinDays.optional(),
-    closing_soon_hours: z.number().int().min(1).max(24 * 14).optional(),
-    overdue_after_days: z.number().int().min(0).max(90).optional(),
-    time_zone: v.timeZone.optional(),
-    quiet_hours: z.object({ start: v.hhmm, end: v.hhmm }).nullable().optional(),
-  })
-  .passthrough();
+/**
+ * How messages name question record `index` of a file: counted as people count, with the
+ * index a program uses beside it ("Question 2 (questions[1])").
+ */
+export function questionRecordName(index: number): string {
+  return `Question ${index + 1} (questions[${index}])`;
+}
+
+// The same rules and messages as the API's updateSettings; keys Forelog does not know are ignored.
+const fileSettings = z.object(v.settingsFields).partial().passthrough();
 
 export type FileSettings = z.output<typeof fileSettings>;
 
@@ -130,12 +142,12 @@ function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: numb
   if (!r.success) {
     const issue = r.error.issues[0]!;
     const field = v.formatPath(issue.path) || '(record)';
-    throw new DiaryFileError(`Question record ${index} is not valid: field ${field}: ${issue.message}${where}. Nothing was imported.`, index, field);
+    throw new DiaryFileError(`${questionRecordName(index)} is not valid: field ${field}: ${issue.message}${where}. Nothing was imported.`, index, field);
   }
   if (r.data.id !== undefined) {
     if (ids.has(r.data.id)) {
       throw new DiaryFileError(
-        `Question record ${index} is not valid: field id: "${r.data.id}" is used by an earlier record${where}. Nothing was imported.`,
+        `${questionRecordName(index)} is not valid: field id: "${r.data.id}" is used by an earlier record${where}. Nothing was imported.`,
         index,
         'id',
       );
@@ -218,7 +230,7 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
 }
 
 /** What the export writes of a question: the question without its internal ids and stamps. */
-export type ExportedQuestion = Omit<Question, 'forecasts' | 'references' | 'created_at' | 'updated_at'> & {
+export type ExportedQuestion = Omit<Question, 'forecasts' | 'references' | 'snoozes' | 'created_at' | 'updated_at'> & {
   forecasts: Omit<Forecast, 'id' | 'seq'>[];
   references: Omit<ReferenceForecast, 'id'>[];
 };
@@ -246,6 +258,18 @@ export function toFileQuestion(q: ExportedQuestion): Record<string, unknown> {
   });
   out.references = q.references.map((r) => ({ at: r.at, p: r.p, source: r.source }));
   out.resolution = q.resolution ? { outcome: q.resolution.outcome, at: q.resolution.at, note: q.resolution.note } : null;
+  // Only when there is one: a file of questions never corrected reads as before.
+  if (q.resolution_history.length) {
+    out.resolution_history = q.resolution_history.map((h) => ({
+      outcome: h.outcome,
+      at: h.at,
+      note: h.note,
+      recorded_at: h.recorded_at,
+      replaced_at: h.replaced_at,
+      change: h.change,
+      change_note: h.change_note,
+    }));
+  }
   return out;
 }
 

@@ -18,6 +18,14 @@ export const QUESTION_STATUSES: readonly QuestionStatus[] = ['open', 'closing', 
 export type NudgeKind = 'checkin' | 'closing_soon' | 'window_closed' | 'overdue';
 export const NUDGE_KINDS: readonly NudgeKind[] = ['checkin', 'closing_soon', 'window_closed', 'overdue'];
 
+/** Each nudge kind in a sentence or a listing ("its check-in nudge"). */
+export const NUDGE_KIND_NAMES: Readonly<Record<NudgeKind, string>> = {
+  checkin: 'check-in',
+  closing_soon: 'closing soon',
+  window_closed: 'to resolve',
+  overdue: 'overdue',
+};
+
 /** One perspective estimate recorded with a revision (outside view, inside view, …). */
 export interface Lens {
   name: string;
@@ -50,6 +58,34 @@ export interface Resolution {
   note: string;
 }
 
+/** How an earlier resolution stopped being the question's resolution. */
+export type ResolutionChangeKind = 'corrected' | 'reopened';
+export const RESOLUTION_CHANGE_KINDS: readonly ResolutionChangeKind[] = ['corrected', 'reopened'];
+
+/**
+ * An earlier resolution, kept when it was corrected (resolved again) or the question was
+ * reopened: what it said, when it was recorded and when it was replaced, and why.
+ */
+export interface ResolutionChange {
+  outcome: Outcome;
+  /** When the question resolved, as that resolution said. */
+  at: string;
+  note: string;
+  /** When that resolution was written into the diary. */
+  recorded_at: string;
+  /** When it was corrected or the question reopened. */
+  replaced_at: string;
+  change: ResolutionChangeKind;
+  /** The note given with the correction or the reopening ('' when none). */
+  change_note: string;
+}
+
+/** A nudge the user asked not to see before `until`. */
+export interface ActiveSnooze {
+  kind: NudgeKind;
+  until: string;
+}
+
 export interface Costs {
   false_alarm: number;
   miss: number;
@@ -73,6 +109,10 @@ export interface Question {
   forecasts: Forecast[];
   references: ReferenceForecast[];
   resolution: Resolution | null;
+  /** Earlier resolutions, oldest first: each correction and each reopening keeps the one it replaced. */
+  resolution_history: ResolutionChange[];
+  /** The question's snoozes still running (until after now), by kind. */
+  snoozes: ActiveSnooze[];
   created_at: string;
   updated_at: string;
 }
@@ -108,6 +148,11 @@ export interface DueNudge {
   last_p: number | null;
   last_forecast_at: string | null;
   stale: boolean;
+}
+
+/** A nudge that is due but hidden by a snooze, and when it comes back. */
+export interface SnoozedNudge extends DueNudge {
+  until: string;
 }
 
 export interface QuietHours {

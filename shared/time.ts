@@ -191,12 +191,18 @@ export function toIso(ms: number): string {
   return new Date(ms).toISOString();
 }
 
+/** How a bare date is written: "2026-03-31". */
+export const BARE_DATE_FORM = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** How a date and time without offset is written: "2026-03-31T17:00", seconds optional. */
+export const LOCAL_DATE_TIME_FORM = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/;
+
 /**
  * A date-range bound for filters: an ISO instant, or a bare date `YYYY-MM-DD` meaning that
  * whole day in UTC (start of the day for `from`, end of the day for `to`, both inclusive).
  */
 export function parseRangeBound(text: string, end: 'from' | 'to'): number | null {
-  const bare = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text.trim());
+  const bare = BARE_DATE_FORM.exec(text.trim());
   if (bare) {
     const wall = parseLocalDateTime(`${bare[1]}-${bare[2]}-${bare[3]}T00:00`);
     if (!wall) return null;
@@ -205,4 +211,27 @@ export function parseRangeBound(text: string, end: 'from' | 'to'): number | null
     return end === 'from' ? start : start + 86_400_000 - 1;
   }
   return parseInstant(text);
+}
+
+/**
+ * "YYYY-MM-DD HH:MM" of instant `ms` on `timeZone`'s clock, with ":SS" when the seconds are
+ * not zero (a message about two times a few seconds apart must show them apart). The one
+ * format for times written in sentences: refusals and the command line's `due`.
+ */
+export function formatLocal(ms: number, timeZone: string): string {
+  const w = wallTimeAt(ms, timeZone);
+  const p = (n: number) => String(n).padStart(2, '0');
+  return `${w.year}-${p(w.month)}-${p(w.day)} ${p(w.hour)}:${p(w.minute)}${w.second ? `:${p(w.second)}` : ''}`;
+}
+
+/**
+ * A date and time written without an offset ("2026-03-31T17:00", seconds optional) read on
+ * `timeZone`'s clock, as epoch ms (RFC 5545 §3.3.5 for skipped and repeated wall times);
+ * null when `text` is not of that form. Text with an offset or `Z`, or a bare date, is not
+ * this form: read it with parseInstant or parseRangeBound.
+ */
+export function parseLocalInZone(text: string, timeZone: string): number | null {
+  if (!LOCAL_DATE_TIME_FORM.test(text.trim())) return null;
+  const wall = parseLocalDateTime(text);
+  return wall ? wallTimeToInstant(wall, timeZone) : null;
 }

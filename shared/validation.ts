@@ -178,7 +178,30 @@ export const toNotBeforeFrom: [(r: { from?: string; to?: string }) => boolean, {
   { message: 'must not be before from', path: ['to'] },
 ];
 
-export const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { message: 'must be a time of day HH:MM (24-hour)' });
+const HHMM_RULE = 'must be a time of day HH:MM (24-hour)';
+export const hhmm = z.string({ error: HHMM_RULE }).regex(/^([01]\d|2[0-3]):[0-5]\d$/, { message: HHMM_RULE });
+
+/**
+ * The diary's settings, each with the message a user reads: one home for the API's
+ * `updateSettings` (shared/contract.ts) and a diary file's `settings` (shared/diary-file.ts).
+ */
+export const settingsFields = {
+  default_false_alarm_cost: positiveCost,
+  default_miss_cost: positiveCost,
+  default_checkin_days: checkinDays,
+  closing_soon_hours: z
+    .number({ error: 'must be whole hours' })
+    .int({ message: 'must be whole hours' })
+    .min(1, { message: 'must be at least 1 hour' })
+    .max(24 * 14, { message: 'must be at most 336 hours (14 days)' }),
+  overdue_after_days: z
+    .number({ error: 'must be whole days' })
+    .int({ message: 'must be whole days' })
+    .min(0, { message: 'must be 0 days or more' })
+    .max(90, { message: 'must be at most 90 days' }),
+  time_zone: timeZone,
+  quiet_hours: z.object({ start: hhmm, end: hhmm }, { error: 'must be { "start": "HH:MM", "end": "HH:MM" } or null' }).nullable(),
+};
 
 /**
  * How deep lists and objects may nest in a request or a diary file. The deepest real shape

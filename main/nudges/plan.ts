@@ -110,10 +110,17 @@ export function overdueAt(close: number, zone: string, settings: Settings): numb
   return sameWallTimeDaysLater(close, wholeDays(settings.overdue_after_days), zone);
 }
 
-/** The (question, kind) pairs hidden at `now`, looked up once per nudge however many snoozes the diary holds. */
-function activeSnoozes(snoozes: readonly Snooze[], now: number): Set<string> {
-  const active = new Set<string>();
-  for (const s of snoozes) if (s.until > now) active.add(`${s.kind}|${s.question_id}`);
+/**
+ * The (question, kind) nudges a snooze hides at `now`, keyed `kind|question_id`, each with
+ * when its snooze ends: looked up once per nudge however many snoozes the diary holds.
+ */
+export function activeSnoozes(snoozes: readonly Snooze[], now: number): Map<string, number> {
+  const active = new Map<string, number>();
+  for (const s of snoozes) {
+    if (s.until <= now) continue;
+    const key = `${s.kind}|${s.question_id}`;
+    active.set(key, Math.max(active.get(key) ?? s.until, s.until));
+  }
   return active;
 }
 
@@ -121,7 +128,7 @@ const KIND_ORDER = new Map(NUDGE_KINDS.map((k, i) => [k, i]));
 const DAY_MS = 86_400_000;
 
 /** Appends to `out` the nudges of one question due at `now`; the rules of the module comment, in one place. */
-function planQuestion(q: PlanQuestion, settings: Settings, snoozed: Set<string>, soonMs: number, now: number, out: Nudge[]): void {
+function planQuestion(q: PlanQuestion, settings: Settings, snoozed: ReadonlyMap<string, number>, soonMs: number, now: number, out: Nudge[]): void {
   const close = q.closes_at;
   if (!Number.isFinite(close)) return;
   const add = (kind: NudgeKind, due_at: number): void => {

@@ -4,32 +4,49 @@
  * need the diary's state (does the question exist, is the close still after the opening).
  */
 import { randomUUID } from 'node:crypto';
-import type { ExportedText, Handlers, QuestionList, ValidRequest } from '../../shared/contract';
+import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
-import { diaryFileText, diaryItems, readDiaryText, toDiaryFile, DiaryFileError, type DiaryItem, type FileQuestion, type FileSettings } from '../../shared/diary-file';
 import {
+  diaryFileText,
+  diaryItems,
+  questionRecordName,
+  readDiaryText,
+  toDiaryFile,
+  toFileQuestion,
+  DiaryFileError,
+  type DiaryItem,
+  type FileQuestion,
+  type FileSettings,
+} from '../../shared/diary-file';
+import {
+  NUDGE_KIND_NAMES,
   questionStatus,
   type Lens,
+  type NudgeKind,
   type Outcome,
   type Question,
   type QuestionKind,
   type QuestionSummary,
+  type ResolutionChangeKind,
   type Settings,
 } from '../../shared/domain';
+import { beforeOpeningProblem, earlyStateResolutionWarning, futureProblem, isEarlyStateResolution, onClock } from '../../shared/time-rules';
 import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
+import * as v from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
 import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
+import * as undoStore from '../store/undo';
 import { confidentCalls, referenceLeads } from './hindsight';
 import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
 import { readTextFile } from '../files/read-text';
 import { CsvError, diaryCsvText, readCsvDiary, type CsvItem } from './csv';
-import { exportBatches } from './export-batches';
+import { exportBatches, exportedQuestionReader } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
@@ -52,6 +69,21 @@ function notFound(what: string, id: string): ApiError {
 function invalid(field: string, reason: string): ApiError {
   return new ApiError('invalid', `The request was not accepted: ${field}: ${reason}. Nothing was changed.`, [`${field}: ${reason}`]);
 }
+
+/** Every `field: reason` line a request broke, refused at once (a form shows them all), or nothing. */
+function refuseAll(lines: string[]): void {
+  if (lines.length) throw new ApiError('invalid', `The request was not accepted: ${lines.join('; ')}. Nothing was changed.`, lines);
+}
+
+/**
+ * Where a merging import puts the file's version of a question already in the diary while
+ * it compares the two: an id no file or request can give (ids refuse control characters),
+ * removed before the import ends.
+ */
+const MERGE_SHADOW = '\u0001merge:';
+
+/** How many conflicts a refused merge lists (the message gives the total). */
+const MAX_LISTED_CONFLICTS = 100;
 
 type ExportFormat = (typeof EXPORT_FORMATS)[number];
 type ImportFormat = (typeof IMPORT_FORMATS)[number];
@@ -97,7 +129,7 @@ export function createDiary(ctx: DiaryContext) {
   function getQuestion(id: string): Question {
     const bundle = qs.loadBundles(read, [id])[0];
     if (!bundle) throw notFound('question', id);
-    return qs.toQuestion(bundle);
+    return qs.toQuestion(bundle, now());
   }
 
   /** The stale flag (glide path) for an unresolved question's latest forecast. */
@@ -173,6 +205,18 @@ export function createDiary(ctx: DiaryContext) {
         at: q.resolution.at,
         note: q.resolution.note ?? '',
         recorded_at: stamp,
+      });
+    }
+    for (const h of q.resolution_history ?? []) {
+      qs.insertResolutionHistory(write, {
+        question_id: id,
+        outcome: h.outcome as Outcome,
+        at: h.at,
+        note: h.note ?? '',
+        recorded_at: h.recorded_at,
+        replaced_at: h.replaced_at,
+        change: h.change as ResolutionChangeKind,
+        change_note: h.change_note ?? '',
       });
     }
     return id;
@@ -268,18 +312,60 @@ export function createDiary(ctx: DiaryContext) {
     if (item.row !== undefined) {
       return new ApiError(code, `Row ${item.row}, column ${column}: ${reason}. Nothing was imported.`, [`${column}: ${reason}`]);
     }
-    return new ApiError(code, `Question record ${item.index} is not valid: field ${column}: ${reason}. Nothing was imported.`, [`questions[${item.index}].${column}: ${reason}`]);
+    return new ApiError(code, `${questionRecordName(item.index)} is not valid: field ${column}: ${reason}. Nothing was imported.`, [
+      `questions[${item.index}].${column}: ${reason}`,
+    ]);
+  }
+
+  /** A question of the file that a merge compares with the diary's question of the same id. */
+  interface MergeCandidate {
+    /** Where the file's version sits meanwhile (MERGE_SHADOW). */
+    shadow: string;
+    id: string;
+    title: string;
+    index: number;
+    row: number | null;
+    /** False when the file left opened_at out: its default depends on the moment of import, so it is not compared. */
+    openedGiven: boolean;
+  }
+
+  /** Where a conflict is in its file, as people count. */
+  function conflictPlace(c: ImportConflict): string {
+    return c.row === null ? questionRecordName(c.index) : `The question on row ${c.row}`;
+  }
+
+  function mergeRefusal(conflicts: ImportConflict[], total: number): ApiError {
+    const lines = conflicts.map((c) => `${conflictPlace(c)}: "${c.id}" (“${c.title}”) differs in ${c.differs.join(', ')}`);
+    const shown = lines.slice(0, 5).join('; ');
+    const more = total > 5 ? `; and ${total - 5} more` : '';
+    return new ApiError(
+      'conflict',
+      `${total} question${total === 1 ? ' is' : 's are'} already in this diary with different contents, so nothing was imported: ${shown}${more}. ` +
+        'For each, remove it from the file to keep the diary’s version, or delete it from the diary (or give it a new id in the file) to take the file’s; then import again with merge.',
+      lines,
+      conflicts,
+    );
   }
 
   /**
    * Adds what a file holds, read as it streams, inside ONE immediate write transaction: the
    * first bad record rolls back everything, so the diary is left exactly as it was. Each
    * record costs the same however large the diary: no query per record grows with it (an
-   * id already in the diary is found by the insert's own primary-key check).
+   * id already in the diary is found by the insert's own primary-key check, or with
+   * `merge` by one lookup of its id).
+   *
+   * With `merge`, a question whose id is already in the diary is written under a stand-in
+   * id (MERGE_SHADOW) and compared with the diary's as the export writes both, field by
+   * field, then removed: the same defaults, order and numbers decide "unchanged" as decide
+   * the file an export writes. JSON compares each at once; CSV, whose rows of a question
+   * may be anywhere in the file, at the end.
    */
-  function importItems(items: Iterable<ImportItem>): { added: number } {
+  function importItems(items: Iterable<ImportItem>, options: { merge?: boolean } = {}): ImportResult {
     const stamp = now();
     let added = 0;
+    let skipped = 0;
+    const conflicts: ImportConflict[] = [];
+    let conflictCount = 0;
     const run = () => transact(() => {
       // The file's settings come along only into an empty diary: importing a colleague's
       // file into a working diary must not change its defaults.
@@ -292,6 +378,25 @@ export function createDiary(ctx: DiaryContext) {
       // CSV only: each question's id and what its default opening time depends on, by index.
       const csvQuestions: { id: string; closes: number; firstAt: number | null; openedGiven: boolean }[] = [];
       const setOpenedAt = write.prepare('UPDATE questions SET opened_at = ? WHERE id = ?');
+      const merging = options.merge === true && !empty;
+      const present = merging ? write.prepare('SELECT 1 FROM questions WHERE id = ?').pluck() : null;
+      const exported = merging ? exportedQuestionReader(write) : null;
+      const removeShadow = write.prepare('DELETE FROM questions WHERE id = ?');
+      const csvCandidates: MergeCandidate[] = [];
+
+      const compare = (c: MergeCandidate, csv: boolean) => {
+        const theirs = toFileQuestion(exported!(c.shadow)!);
+        const ours = toFileQuestion(exported!(c.id)!);
+        removeShadow.run(c.shadow);
+        const differs: string[] = [];
+        for (const key of new Set([...Object.keys(theirs), ...Object.keys(ours)])) {
+          if (key === 'id' || (key === 'opened_at' && !c.openedGiven) || (key === 'resolution_history' && csv)) continue;
+          if (JSON.stringify(theirs[key]) !== JSON.stringify(ours[key])) differs.push(key);
+        }
+        if (differs.length === 0) skipped++;
+        else if (++conflictCount <= MAX_LISTED_CONFLICTS) conflicts.push({ index: c.index, row: c.row, id: c.id, title: c.title, differs });
+      };
+
       for (const item of items) {
         if (item.kind === 'settings') {
           settingsRead = true;
@@ -303,21 +408,40 @@ export function createDiary(ctx: DiaryContext) {
           }
         } else if (item.kind === 'question') {
           const q = item.question;
+          const csv = 'row' in item;
+          const candidate: MergeCandidate | null =
+            present && q.id !== undefined && present.get(q.id) !== undefined
+              ? {
+                  shadow: `${MERGE_SHADOW}${item.index}`,
+                  id: detached(q.id),
+                  title: detached(q.title),
+                  index: item.index,
+                  row: csv ? item.row : null,
+                  openedGiven: q.opened_at !== undefined,
+                }
+              : null;
           let id: string;
           try {
-            id = insertWhole(q, s, stamp);
+            id = insertWhole(candidate ? { ...q, id: candidate.shadow } : q, s, stamp);
           } catch (err) {
             if (isTakenQuestionId(err)) {
-              throw recordError(item, 'conflict', 'row' in item ? 'question_id' : 'id', `"${q.id}" is already in this diary (was this file imported before?)`);
+              throw recordError(
+                item,
+                'conflict',
+                csv ? 'question_id' : 'id',
+                `"${q.id}" is already in this diary (was this file imported before? Import it with merge to add only the questions that are new)`,
+              );
             }
             if (err instanceof ApiError) {
-              throw new ApiError(err.code, `Question record ${item.index} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
+              throw new ApiError(err.code, `${questionRecordName(item.index)} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
             }
             throw err;
           }
-          added++;
+          if (candidate && !csv) compare(candidate, false);
+          else if (candidate) csvCandidates.push(candidate);
+          else added++;
           if (empty && !settingsRead && q.time_zone === undefined) zoneDefaulted.push(detached(id));
-          if ('row' in item) {
+          if (csv) {
             const firstAt = q.forecasts[0]?.at ?? null;
             csvQuestions[item.index] = { id: detached(id), closes: q.closes_at, firstAt, openedGiven: q.opened_at !== undefined };
           }
@@ -338,6 +462,9 @@ export function createDiary(ctx: DiaryContext) {
           }
         }
       }
+      for (const c of csvCandidates) compare(c, true);
+      // All or nothing: any conflict rolls the whole import back.
+      if (conflictCount) throw mergeRefusal(conflicts, conflictCount);
     });
     const cache = write.pragma('cache_size', { simple: true }) as number;
     write.pragma(`cache_size = ${-IMPORT_CACHE_KIB}`);
@@ -348,12 +475,12 @@ export function createDiary(ctx: DiaryContext) {
     } finally {
       write.pragma(`cache_size = ${cache}`);
     }
-    return { added };
+    return { added, skipped };
   }
 
   /** A diary file already in memory (the API's importDiary, the example diary). */
-  function importParsed(raw: unknown): { added: number } {
-    return importItems(diaryItems(raw));
+  function importParsed(raw: unknown, options: { merge?: boolean } = {}): ImportResult {
+    return importItems(diaryItems(raw), options);
   }
 
   function readerFor(format: ImportFormat, chunks: Iterable<string>): Iterable<ImportItem> {
@@ -364,8 +491,8 @@ export function createDiary(ctx: DiaryContext) {
    * Imports a file from disk, streaming: any size, in the memory of one record. The
    * command line and the desktop app's File menu come this way.
    */
-  function importFile(file: string, format: ImportFormat): { added: number } {
-    return importItems(readerFor(format, readTextFile(file)));
+  function importFile(file: string, format: ImportFormat, options: { merge?: boolean } = {}): ImportResult {
+    return importItems(readerFor(format, readTextFile(file)), options);
   }
 
   /**
@@ -377,7 +504,7 @@ export function createDiary(ctx: DiaryContext) {
    */
   function* exportPieces(format: ExportFormat): Generator<string> {
     if (format === 'ics') {
-      yield toICalendar(unresolvedQuestions(store), { now: now(), alarmHours: settings().closing_soon_hours });
+      yield toICalendar(unresolvedQuestions(store, now()), { now: now(), alarmHours: settings().closing_soon_hours });
       return;
     }
     read.exec('BEGIN');
@@ -390,7 +517,8 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   function exportDiary(): Record<string, unknown> {
-    const questions = qs.loadBundles(read).map(qs.toQuestion);
+    const t = now();
+    const questions = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
     return toDiaryFile(settings(), questions);
   }
 
@@ -444,8 +572,30 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   /** A file's text from the API (already decoded by the caller; a byte order mark it kept is dropped). */
-  function importText(format: ImportFormat, text: string): { added: number } {
-    return importItems(readerFor(format, [text.charCodeAt(0) === 0xfeff ? text.slice(1) : text]));
+  function importText(format: ImportFormat, text: string, options: { merge?: boolean } = {}): ImportResult {
+    return importItems(readerFor(format, [text.charCodeAt(0) === 0xfeff ? text.slice(1) : text]), options);
+  }
+
+  /**
+   * Runs `change` on question `questionId` (the caller holds the transaction) and keeps the
+   * question's rows as they were before it; returns the token that undoes it.
+   */
+  function tracked(operation: UndoableOperation, questionId: string, change: () => void): string {
+    const before = undoStore.snapshotQuestion(write, questionId);
+    change();
+    return undoStore.recordUndo(write, operation, questionId, before, now());
+  }
+
+  /** A `field: reason` line when `at` lies in the future (shared/time-rules.ts), else none. */
+  function pastLine(at: number, field: string, what: string): string[] {
+    const problem = futureProblem(at, now(), what);
+    return problem ? [`${field}: ${problem}`] : [];
+  }
+
+  /** A `field: reason` line when `at` is before the question opened, else none. */
+  function openingLine(at: number, openedAt: number, timeZone: string, field: string): string[] {
+    const problem = beforeOpeningProblem(at, openedAt, timeZone);
+    return problem ? [`${field}: ${problem}`] : [];
   }
 
   const handlers: Handlers = {
@@ -461,27 +611,40 @@ export function createDiary(ctx: DiaryContext) {
       const stamp = now();
       const s = settings();
       const opened = req.opened_at !== undefined ? ms(req.opened_at) : stamp;
-      if (ms(req.closes_at) <= opened) {
-        throw invalid('closes_at', req.opened_at === undefined ? 'must be in the future (after now, when the question opens)' : 'must be after the opening time (opened_at)');
-      }
-      let id = '';
-      transact(() => {
-        const { first_forecast: first, ...fields } = req;
-        id = insertWhole(
-          {
-            ...fields,
-            opened_at: opened,
-            closes_at: ms(req.closes_at),
-            forecasts: first ? [{ at: first.at !== undefined ? ms(first.at) : Math.max(stamp, opened), p: first.p, note: first.note, lenses: first.lenses }] : [],
-          },
-          s,
-          stamp,
+      const closes = ms(req.closes_at);
+      const zone = req.time_zone ?? s.time_zone;
+      const first = req.first_forecast;
+      // Without a time of its own the first revision is made now (or at the opening, when that is a moment ahead).
+      const firstAt = first?.at !== undefined ? ms(first.at) : Math.max(stamp, opened);
+      const problems: string[] = [];
+      if (req.opened_at !== undefined) problems.push(...pastLine(opened, 'opened_at', 'the opening time (when the question was posed)'));
+      if (closes <= opened) {
+        problems.push(
+          req.opened_at === undefined
+            ? 'closes_at: must be in the future (after now, when the question opens); to record a question whose window has already closed, give the time it was posed as opened_at'
+            : `closes_at: ${v.CLOSES_AFTER_OPENS_RULE}`,
         );
+      }
+      if (first?.at !== undefined) problems.push(...pastLine(firstAt, 'first_forecast.at', 'a revision'), ...openingLine(firstAt, opened, zone, 'first_forecast.at'));
+      refuseAll(problems);
+      const id = randomUUID();
+      let undo = '';
+      transact(() => {
+        const { first_forecast: _first, ...fields } = req;
+        const question: FileQuestion = {
+          ...fields,
+          id,
+          opened_at: opened,
+          closes_at: closes,
+          forecasts: first ? [{ at: firstAt, p: first.p, note: first.note, lenses: first.lenses }] : [],
+        };
+        undo = tracked('createQuestion', id, () => insertWhole(question, s, stamp));
       });
-      return getQuestion(id);
+      return { ...getQuestion(id), undo };
     },
 
     updateQuestion: (req) => {
+      let undo = '';
       transact(() => {
         const row = requireQuestionRow(req.id);
         const c = req.changes;
@@ -500,116 +663,177 @@ export function createDiary(ctx: DiaryContext) {
           checkin_days: c.checkin_days !== undefined ? c.checkin_days : row.checkin_days,
           updated_at: now(),
         };
-        if (next.closes_at <= next.opened_at) throw invalid('changes.closes_at', 'must be after the opening time (opened_at)');
-        qs.updateQuestionRow(write, next);
-        if (c.tags) qs.replaceTags(write, req.id, c.tags);
+        const problems: string[] = [];
+        if (c.opened_at !== undefined) {
+          problems.push(...pastLine(next.opened_at, 'changes.opened_at', 'the opening time (when the question was posed)'));
+          // The history must still start at or after the opening: a revision or a resolution before it could not have been made.
+          const firstAt = qs.firstForecastAt(write, req.id);
+          if (firstAt !== null && firstAt < next.opened_at) {
+            problems.push(`changes.opened_at: must not be after the question's first revision (${onClock(firstAt, next.time_zone)}); move or delete that revision first`);
+          }
+          const resolution = qs.resolutionRow(write, req.id);
+          if (resolution && resolution.at < next.opened_at) {
+            problems.push(`changes.opened_at: must not be after the question's resolution time (${onClock(resolution.at, next.time_zone)})`);
+          }
+        }
+        if (next.closes_at <= next.opened_at) problems.push(`changes.closes_at: ${v.CLOSES_AFTER_OPENS_RULE}`);
+        refuseAll(problems);
+        undo = tracked('updateQuestion', req.id, () => {
+          qs.updateQuestionRow(write, next);
+          if (c.tags) qs.replaceTags(write, req.id, c.tags);
+        });
       });
-      return getQuestion(req.id);
+      return { ...getQuestion(req.id), undo };
     },
 
     deleteQuestion: (req) => {
+      let undo = '';
       transact(() => {
-        if (!qs.deleteQuestionRow(write, req.id)) throw notFound('question', req.id);
+        requireQuestionRow(req.id);
+        undo = tracked('deleteQuestion', req.id, () => qs.deleteQuestionRow(write, req.id));
       });
-      return { deleted: req.id };
+      return { deleted: req.id, undo };
     },
 
     addForecast: (req) => {
+      let undo = '';
       transact(() => {
-        requireQuestionRow(req.question_id);
+        const row = requireQuestionRow(req.question_id);
         const stamp = now();
-        qs.insertForecast(write, {
-          id: randomUUID(),
-          question_id: req.question_id,
-          at: req.at !== undefined ? ms(req.at) : stamp,
-          p: req.p,
-          note: req.note ?? '',
-          lenses: (req.lenses ?? []) as Lens[],
+        const at = req.at !== undefined ? ms(req.at) : Math.max(stamp, row.opened_at);
+        if (req.at !== undefined) refuseAll([...pastLine(at, 'at', 'a revision'), ...openingLine(at, row.opened_at, row.time_zone, 'at')]);
+        undo = tracked('addForecast', row.id, () => {
+          qs.insertForecast(write, {
+            id: randomUUID(),
+            question_id: row.id,
+            at,
+            p: req.p,
+            note: req.note ?? '',
+            lenses: (req.lenses ?? []) as Lens[],
+          });
+          // A revision answers any pending check-in, snoozed or not.
+          nudgeStore.clearSnoozes(write, row.id, 'checkin');
+          qs.touchQuestion(write, row.id, stamp);
         });
-        // A revision answers any pending check-in, snoozed or not.
-        nudgeStore.clearSnoozes(write, req.question_id, 'checkin');
-        qs.touchQuestion(write, req.question_id, stamp);
       });
-      return getQuestion(req.question_id);
+      return { ...getQuestion(req.question_id), undo };
     },
 
     updateForecast: (req) => {
       let questionId = '';
+      let undo = '';
       transact(() => {
         const f = qs.forecastRow(write, req.id);
         if (!f) throw notFound('revision', req.id);
         questionId = f.question_id;
-        qs.updateForecastRow(write, {
-          id: f.id,
-          at: req.at !== undefined ? ms(req.at) : f.at,
-          p: req.p ?? f.p,
-          note: req.note ?? f.note,
+        const at = req.at !== undefined ? ms(req.at) : f.at;
+        if (req.at !== undefined) {
+          const row = requireQuestionRow(f.question_id);
+          refuseAll([...pastLine(at, 'at', 'a revision'), ...openingLine(at, row.opened_at, row.time_zone, 'at')]);
+        }
+        undo = tracked('updateForecast', questionId, () => {
+          qs.updateForecastRow(write, { id: f.id, at, p: req.p ?? f.p, note: req.note ?? f.note });
+          if (req.lenses) qs.replaceLenses(write, f.id, req.lenses as Lens[]);
+          qs.touchQuestion(write, f.question_id, now());
         });
-        if (req.lenses) qs.replaceLenses(write, f.id, req.lenses as Lens[]);
-        qs.touchQuestion(write, f.question_id, now());
       });
-      return getQuestion(questionId);
+      return { ...getQuestion(questionId), undo };
     },
 
     deleteForecast: (req) => {
       let questionId = '';
+      let undo = '';
       transact(() => {
         const f = qs.forecastRow(write, req.id);
         if (!f) throw notFound('revision', req.id);
         questionId = f.question_id;
-        qs.deleteForecastRow(write, req.id);
-        qs.touchQuestion(write, f.question_id, now());
+        undo = tracked('deleteForecast', questionId, () => {
+          qs.deleteForecastRow(write, req.id);
+          qs.touchQuestion(write, f.question_id, now());
+        });
       });
-      return getQuestion(questionId);
+      return { ...getQuestion(questionId), undo };
     },
 
     addReference: (req) => {
+      let undo = '';
       transact(() => {
         requireQuestionRow(req.question_id);
-        qs.insertReference(write, {
-          id: randomUUID(),
-          question_id: req.question_id,
-          at: req.at !== undefined ? ms(req.at) : now(),
-          p: req.p,
-          source: req.source,
+        const at = req.at !== undefined ? ms(req.at) : now();
+        // An outside view may be older than the question (the client's number from last year): only the future is refused.
+        if (req.at !== undefined) refuseAll(pastLine(at, 'at', 'a reference forecast'));
+        undo = tracked('addReference', req.question_id, () => {
+          qs.insertReference(write, { id: randomUUID(), question_id: req.question_id, at, p: req.p, source: req.source });
+          qs.touchQuestion(write, req.question_id, now());
         });
-        qs.touchQuestion(write, req.question_id, now());
       });
-      return getQuestion(req.question_id);
+      return { ...getQuestion(req.question_id), undo };
     },
 
     deleteReference: (req) => {
       let questionId = '';
+      let undo = '';
       transact(() => {
         const r = qs.referenceRow(write, req.id);
         if (!r) throw notFound('reference forecast', req.id);
         questionId = r.question_id;
-        qs.deleteReferenceRow(write, req.id);
-        qs.touchQuestion(write, r.question_id, now());
+        undo = tracked('deleteReference', questionId, () => {
+          qs.deleteReferenceRow(write, req.id);
+          qs.touchQuestion(write, r.question_id, now());
+        });
       });
-      return getQuestion(questionId);
+      return { ...getQuestion(questionId), undo };
     },
 
     resolveQuestion: (req) => {
+      let undo = '';
       transact(() => {
         const row = requireQuestionRow(req.id);
         const stamp = now();
         const at = req.at !== undefined ? ms(req.at) : stamp;
-        if (at < row.opened_at) throw invalid('at', 'must not be before the question opened');
-        qs.upsertResolution(write, { question_id: req.id, outcome: req.outcome as Outcome, at, note: req.note ?? '', recorded_at: stamp });
-        nudgeStore.clearSnoozes(write, req.id);
-        qs.touchQuestion(write, req.id, stamp);
+        const outcome = req.outcome as Outcome;
+        const note = req.note ?? '';
+        const current = qs.resolutionRow(write, req.id);
+        const problems: string[] = [];
+        if (req.at !== undefined) problems.push(...pastLine(at, 'at', 'a resolution'));
+        problems.push(...openingLine(at, row.opened_at, row.time_zone, 'at'));
+        if (req.correction_note !== undefined && !current) {
+          problems.push('correction_note: is for correcting a resolution, and this question is not resolved yet; leave it out');
+        }
+        refuseAll(problems);
+        if (req.confirm !== true && isEarlyStateResolution(row.kind, outcome, at, row.closes_at)) {
+          throw new ApiError('confirm', earlyStateResolutionWarning(row.title, outcome, row.closes_at, row.time_zone), [
+            `at: is before the close (${onClock(row.closes_at, row.time_zone)}) of a question about the state at its close; confirm to resolve it anyway`,
+          ]);
+        }
+        undo = tracked('resolveQuestion', req.id, () => {
+          // Resolving again with the same outcome, time and note and no reason changes nothing (a second click).
+          const same = current !== undefined && current.outcome === outcome && current.at === at && current.note === note;
+          if (!same || req.correction_note) {
+            // A correction keeps the resolution it replaces.
+            if (current) qs.archiveResolution(write, req.id, 'corrected', req.correction_note ?? '', stamp);
+            qs.upsertResolution(write, { question_id: req.id, outcome, at, note, recorded_at: stamp });
+          }
+          nudgeStore.clearSnoozes(write, req.id);
+          qs.touchQuestion(write, req.id, stamp);
+        });
       });
-      return getQuestion(req.id);
+      return { ...getQuestion(req.id), undo };
     },
 
     reopenQuestion: (req) => {
+      let undo = '';
       transact(() => {
         requireQuestionRow(req.id);
-        qs.deleteResolution(write, req.id);
-        qs.touchQuestion(write, req.id, now());
+        if (!qs.resolutionRow(write, req.id)) throw invalid('id', 'this question is not resolved, so there is nothing to reopen');
+        const stamp = now();
+        undo = tracked('reopenQuestion', req.id, () => {
+          qs.archiveResolution(write, req.id, 'reopened', req.note ?? '', stamp);
+          qs.deleteResolution(write, req.id);
+          qs.touchQuestion(write, req.id, stamp);
+        });
       });
-      return getQuestion(req.id);
+      return { ...getQuestion(req.id), undo };
     },
 
     getSettings: () => settings(),
@@ -619,13 +843,13 @@ export function createDiary(ctx: DiaryContext) {
       return settings();
     },
 
-    importDiary: (req) => importParsed(req.diary),
+    importDiary: (req) => importParsed(req.diary, { merge: req.merge }),
 
     exportDiary: () => exportDiary(),
 
     exportText: (req) => exportText(req.format),
 
-    importText: (req) => importText(req.format, req.text),
+    importText: (req) => importText(req.format, req.text, { merge: req.merge }),
 
     loadDemo: () => {
       if (qs.questionCount(read) > 0) {
@@ -640,25 +864,27 @@ export function createDiary(ctx: DiaryContext) {
     due: (req) => {
       const s = settings();
       const at = req.at !== undefined ? ms(req.at) : now();
-      const { questions, nudges } = dueAt(store, s, at);
+      const { questions, nudges, snoozed } = dueAt(store, s, at);
       const byId = new Map(questions.map((q) => [q.id, q]));
+      const entry = (n: { question_id: string; kind: NudgeKind; due_at: number }) => {
+        const q = byId.get(n.question_id)!;
+        const last = q.last_p !== null && q.last_forecast_at !== null ? { p: q.last_p, at: q.last_forecast_at } : null;
+        return {
+          id: q.id,
+          title: q.title,
+          kind: n.kind,
+          due_at: toIso(n.due_at),
+          closes_at: toIso(q.closes_at),
+          time_zone: q.time_zone,
+          last_p: last?.p ?? null,
+          last_forecast_at: last ? toIso(last.at) : null,
+          stale: stale(q, last, s, at),
+        };
+      };
       return {
         at: toIso(at),
-        nudges: nudges.map((n) => {
-          const q = byId.get(n.question_id)!;
-          const last = q.last_p !== null && q.last_forecast_at !== null ? { p: q.last_p, at: q.last_forecast_at } : null;
-          return {
-            id: q.id,
-            title: q.title,
-            kind: n.kind,
-            due_at: toIso(n.due_at),
-            closes_at: toIso(q.closes_at),
-            time_zone: q.time_zone,
-            last_p: last?.p ?? null,
-            last_forecast_at: last ? toIso(last.at) : null,
-            stale: stale(q, last, s, at),
-          };
-        }),
+        nudges: nudges.map(entry),
+        snoozed: snoozed.map(({ nudge, until }) => ({ ...entry(nudge), until: toIso(until) })),
       };
     },
 
@@ -671,12 +897,60 @@ export function createDiary(ctx: DiaryContext) {
       const t = now();
       const until = req.until !== undefined ? ms(req.until) : snoozeUntil(req.preset!, t, settings().time_zone);
       if (until <= t) throw invalid('until', 'must be in the future');
+      let undo = '';
       transact(() => {
         const row = requireQuestionRow(req.question_id);
-        if (qs.loadBundles(write, [row.id])[0]?.resolution) throw invalid('question_id', 'this question is resolved; it has no nudges to snooze');
-        nudgeStore.upsertSnooze(write, { question_id: req.question_id, kind: req.kind as nudgeStore.StoredNudgeKind, until });
+        if (qs.resolutionRow(write, row.id)) throw invalid('question_id', 'this question is resolved; it has no nudges to snooze');
+        undo = tracked('snooze', row.id, () => nudgeStore.upsertSnooze(write, { question_id: row.id, kind: req.kind as NudgeKind, until }));
       });
-      return { question_id: req.question_id, kind: req.kind, until: toIso(until) };
+      return { question_id: req.question_id, kind: req.kind, until: toIso(until), undo };
+    },
+
+    unsnooze: (req) => {
+      const kind = req.kind as NudgeKind | undefined;
+      let kinds: NudgeKind[] = [];
+      let undo = '';
+      transact(() => {
+        const row = requireQuestionRow(req.question_id);
+        kinds = nudgeStore.activeSnoozes(write, row.id, now(), kind).map((z) => z.kind);
+        if (kinds.length === 0) {
+          throw new ApiError(
+            'not_found',
+            `“${row.title}” has no snooze running${kind ? ` on its ${NUDGE_KIND_NAMES[kind]} nudge` : ''}, so nothing was changed. Reload to see its nudges as they are.`,
+          );
+        }
+        undo = tracked('unsnooze', row.id, () => nudgeStore.clearSnoozes(write, row.id, kind));
+      });
+      return { question_id: req.question_id, kinds, undo };
+    },
+
+    undo: (req) => {
+      let entry: undoStore.UndoEntry | undefined;
+      transact(() => {
+        entry = undoStore.findUndo(write, req.token);
+        if (!entry || !undoStore.isUndoFresh(entry.recorded_at, now())) {
+          throw new ApiError(
+            'not_found',
+            `This change can no longer be undone: Forelog keeps the last ${undoStore.UNDO_KEEP_ENTRIES} changes for 7 days, and undoes each once. Nothing was changed.`,
+          );
+        }
+        const id = entry.question_id;
+        if (undoStore.snapshotHash(undoStore.snapshotQuestion(write, id)) !== entry.after_hash) {
+          const title = qs.questionRow(write, id)?.title ?? undoStore.snapshotTitle(entry.before);
+          throw new ApiError(
+            'conflict',
+            `“${title}” changed since, so nothing was undone: undoing would throw away the later change. Undo the later changes first (newest first), or change it back by hand.`,
+          );
+        }
+        undoStore.restoreQuestion(write, id, entry.before);
+        undoStore.removeUndo(write, entry.token);
+      });
+      const { question_id, operation } = entry!;
+      return {
+        question_id,
+        operation: operation as UndoableOperation,
+        question: qs.questionRow(read, question_id) ? getQuestion(question_id) : null,
+      };
     },
 
     score: (req) => {
@@ -689,7 +963,8 @@ export function createDiary(ctx: DiaryContext) {
     hindsight: (req) => {
       const questions = scoringInput({});
       const options = scoreOptions(req);
-      const details = (ids: string[]) => qs.loadBundles(read, ids).map(qs.toQuestion);
+      const t = now();
+      const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t));
       return {
         threshold: req.threshold,
         entries: confidentCalls(questions, options, req.threshold, req.include_hits, details),
@@ -701,7 +976,8 @@ export function createDiary(ctx: DiaryContext) {
       const s = settings();
       const questions = scoringInput({});
       const options = scoreOptions({ tag: req.tag });
-      const all = qs.loadBundles(read).map(qs.toQuestion);
+      const t = now();
+      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
       const html = renderBriefing({
         tag: req.tag ?? null,
         generated_at: now(),

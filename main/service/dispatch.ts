@@ -62,6 +62,6 @@ function toErrorBody(err: unknown, location: string, onInternalError: (err: unkn
 /** Calls an operation and returns its value, or throws the ApiError it answered with. */
 export async function callOrThrow<K extends OperationName>(dispatch: Dispatch, operation: K, request: unknown): Promise<unknown> {
   const answer = await dispatch(operation, request);
-  if (!answer.ok) throw new ApiError(answer.error.code, answer.error.message, answer.error.fields);
+  if (!answer.ok) throw new ApiError(answer.error.code, answer.error.message, answer.error.fields, answer.error.conflicts);
   return answer.value;
 }

@@ -5,9 +5,9 @@
  * (no revision ids, no stamps): reading is most of an export's time.
  *
  * Reads the tables of main/store/migrations.ts directly; a schema change must update these
- * queries too. The caller holds the read transaction that makes the batches one snapshot.
+ * queries too (and a table added for a question's data, the file format with them). The caller holds the read transaction that makes the batches one snapshot.
  */
-import type { Lens, Outcome, QuestionKind } from '../../shared/domain';
+import type { Lens, Outcome, QuestionKind, ResolutionChangeKind } from '../../shared/domain';
 import type { ExportedQuestion } from '../../shared/diary-file';
 import { toIso } from '../../shared/time';
 import type { Db } from '../store/open';
@@ -54,23 +54,28 @@ export function isoFormatter(): (ms: number) => string {
 /** The lenses of a revision without any: one shared empty list, not two million. */
 const NO_LENSES: Lens[] = [];
 
-/** The questions in export order, `size` at a time. */
-export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion[]> {
-  // Keyset pagination: each page starts after the last one's (closes_at, id), by the index on closes_at.
-  const page = db
-    .prepare(
-      `SELECT id, title, rule, kind, opened_at, closes_at, time_zone, base_rate, base_rate_note, false_alarm_cost, miss_cost, checkin_days
-       FROM questions WHERE (closes_at, id) > (?, ?) ORDER BY closes_at, id LIMIT ?`,
-    )
-    .raw();
+/** Likewise the history of a question never corrected or reopened (replaced, never pushed to). */
+const NO_HISTORY: ExportedQuestion['resolution_history'] = [];
+
+/**
+ * Reads questions as the export writes them. `always` reads lenses and resolution
+ * history for every batch; otherwise each is read only when the diary has any at the
+ * start (most diaries have few lenses or none, and few corrections), which holds for one
+ * snapshot (the export's) but not for a diary being written meanwhile (an import's merge).
+ */
+function exportReader(db: Db, always: boolean) {
   const tags = db.prepare(forBatch('tag', 'question_tags', 'position')).raw();
   // The revision's seq matters only to attach lenses, so it is read only when there are lenses.
   const forecasts = db.prepare(forBatch('at, p, note, seq', 'forecasts', 'at, seq')).raw();
   const forecastsOnly = db.prepare(forBatch('at, p, note', 'forecasts', 'at, seq')).raw();
   const references = db.prepare(forBatch('at, p, source', 'reference_forecasts', 'at, seq')).raw();
   const resolutions = db.prepare(forBatch('outcome, at, note', 'resolutions', '')).raw();
-  // Most diaries have few lenses or none; then their query is not run at all.
-  const anyLenses = db.prepare('SELECT EXISTS (SELECT 1 FROM forecast_lenses)').pluck().get() === 1;
+  const history = db
+    .prepare(forBatch('outcome, at, note, recorded_at, replaced_at, change, change_note', 'resolution_history', 'seq'))
+    .raw();
+  const exists = (table: string) => always || db.prepare(`SELECT EXISTS (SELECT 1 FROM ${table})`).pluck().get() === 1;
+  const anyLenses = exists('forecast_lenses');
+  const anyHistory = exists('resolution_history');
   const lenses = db
     .prepare(
       `SELECT f.seq, l.name, l.p, l.weight FROM json_each(?) j JOIN forecasts f ON f.question_id = j.value
@@ -79,12 +84,8 @@ export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion
     .raw();
   const iso = isoFormatter();
 
-  let after: [number, string] = [-Infinity, ''];
-  for (;;) {
-    const rows = page.all(after[0], after[1], size) as QuestionTuple[];
-    if (rows.length === 0) return;
-    const last = rows[rows.length - 1]!;
-    after = [last[5], last[0]];
+  /** The questions of `rows` (in that order), whole. */
+  return (rows: QuestionTuple[]): ExportedQuestion[] => {
     const ids = JSON.stringify(rows.map((r) => r[0]));
     const batch = rows.map(
       ([id, title, rule, kind, opened, closes, time_zone, base_rate, base_rate_note, falseAlarm, miss, checkin_days]): ExportedQuestion => ({
@@ -103,6 +104,7 @@ export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion
         forecasts: [],
         references: [],
         resolution: null,
+        resolution_history: NO_HISTORY,
       }),
     );
     for (const [k, tag] of tags.all(ids) as [number, string][]) batch[k]!.tags.push(tag);
@@ -119,6 +121,46 @@ export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion
     }
     for (const [k, at, p, source] of references.all(ids) as [number, number, number, string][]) batch[k]!.references.push({ at: iso(at), p, source });
     for (const [k, outcome, at, note] of resolutions.all(ids) as [number, Outcome, number, string][]) batch[k]!.resolution = { outcome, at: iso(at), note };
-    yield batch;
+    if (anyHistory) {
+      type HistoryTuple = [number, Outcome, number, string, number, number, ResolutionChangeKind, string];
+      for (const [k, outcome, at, note, recorded, replaced, change, change_note] of history.all(ids) as HistoryTuple[]) {
+        const q = batch[k]!;
+        if (q.resolution_history === NO_HISTORY) q.resolution_history = [];
+        q.resolution_history.push({ outcome, at: iso(at), note, recorded_at: iso(recorded), replaced_at: iso(replaced), change, change_note });
+      }
+    }
+    return batch;
+  };
+}
+
+const QUESTION_SELECT =
+  'SELECT id, title, rule, kind, opened_at, closes_at, time_zone, base_rate, base_rate_note, false_alarm_cost, miss_cost, checkin_days FROM questions';
+
+/** The questions in export order, `size` at a time. */
+export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion[]> {
+  // Keyset pagination: each page starts after the last one's (closes_at, id), by the index on closes_at.
+  const page = db.prepare(`${QUESTION_SELECT} WHERE (closes_at, id) > (?, ?) ORDER BY closes_at, id LIMIT ?`).raw();
+  const read = exportReader(db, false);
+  let after: [number, string] = [-Infinity, ''];
+  for (;;) {
+    const rows = page.all(after[0], after[1], size) as QuestionTuple[];
+    if (rows.length === 0) return;
+    const last = rows[rows.length - 1]!;
+    after = [last[5], last[0]];
+    yield read(rows);
   }
+}
+
+/**
+ * One question at a time as the export writes it, by id (null when there is none): what a
+ * merging import compares. Statements are prepared once, so each question costs a few
+ * indexed lookups however large the diary.
+ */
+export function exportedQuestionReader(db: Db): (id: string) => ExportedQuestion | null {
+  const row = db.prepare(`${QUESTION_SELECT} WHERE id = ?`).raw();
+  const read = exportReader(db, true);
+  return (id) => {
+    const found = row.get(id) as QuestionTuple | undefined;
+    return found ? read([found])[0]! : null;
+  };
 }

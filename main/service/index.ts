@@ -1,6 +1,7 @@
 /**
  * Opens a diary file and assembles everything the transports need around it.
  */
+import type { ImportResult } from '../../shared/contract';
 import { systemTimeZone } from '../../shared/time';
 import { openStore, type StoreHandles } from '../store/open';
 import { backupTo, rollingBackup } from './backup';
@@ -33,8 +34,8 @@ export interface DiaryService {
   now: () => number;
   /** Writes the diary to `file` (JSON v1, CSV or iCalendar), streamed, whole or not at all. */
   exportDiaryFile(file: string, format: 'json' | 'csv' | 'ics'): void;
-  /** Adds a diary file (JSON v1 or CSV) from disk, streamed, all or nothing. */
-  importDiaryFile(file: string, format: 'json' | 'csv'): { added: number };
+  /** Adds a diary file (JSON v1 or CSV) from disk, streamed, all or nothing; `merge` skips questions already here unchanged. */
+  importDiaryFile(file: string, format: 'json' | 'csv', options?: { merge?: boolean }): ImportResult;
   /** The nudge scheduler over this diary, delivering through `notifier`. */
   createScheduler(notifier: Notifier, onDueCountChanged?: (count: number) => void): Scheduler;
   backupTo(file: string, onProgress?: (percent: number) => void): Promise<void>;
@@ -60,7 +61,7 @@ export function openDiary(options: OpenOptions): DiaryService {
     location: store.path,
     now,
     exportDiaryFile: (file, format) => diary.exportFile(file, format),
-    importDiaryFile: (file, format) => diary.importFile(file, format),
+    importDiaryFile: (file, format, options) => diary.importFile(file, format, options),
     createScheduler: (notifier, onDueCountChanged) => createDiaryScheduler(store, now, diary.settings, notifier, onDueCountChanged),
     backupTo: (file, onProgress) => backupTo(store, file, onProgress),
     rollingBackup: (dir) => rollingBackup(store, dir, now()),

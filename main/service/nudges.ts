@@ -4,7 +4,7 @@
  */
 import type { Question, QuestionKind, Settings } from '../../shared/domain';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../shared/time';
-import { countDueQuestions, planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from '../nudges/plan';
+import { activeSnoozes, countDueQuestions, planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from '../nudges/plan';
 import { createScheduler, type Scheduler, type SchedulerPorts } from '../nudges/scheduler';
 import * as nudgeStore from '../store/nudges';
 import { readSnapshot, type Db, type StoreHandles } from '../store/open';
@@ -12,12 +12,12 @@ import * as qs from '../store/questions';
 
 export type Notifier = SchedulerPorts['notifier'];
 
-/** Every unresolved question, whole (for the calendar export, which lists their details). */
-export function unresolvedQuestions(store: StoreHandles): Question[] {
+/** Every unresolved question, whole (the planner needs revisions for check-ins), as it stands at `now`. */
+export function unresolvedQuestions(store: StoreHandles, now: number): Question[] {
   const ids = (store.read.prepare('SELECT id FROM questions WHERE id NOT IN (SELECT question_id FROM resolutions)').raw().all() as [string][]).map(
     ([id]) => id,
   );
-  return ids.length ? qs.loadBundles(store.read, ids).map(qs.toQuestion) : [];
+  return ids.length ? qs.loadBundles(store.read, ids).map((b) => qs.toQuestion(b, now)) : [];
 }
 
 /** An unresolved question as planning and the due list see it: no history, only its latest revision. */
@@ -67,10 +67,26 @@ function planInput(store: StoreHandles): { questions: DueQuestion[]; snoozed: Sn
   return readSnapshot(store.read, () => ({ questions: dueQuestions(store.read), snoozed: snoozes(store) }));
 }
 
-/** What is due at `at`, with the questions it was planned from. */
-export function dueAt(store: StoreHandles, settings: Settings, at: number): { questions: DueQuestion[]; nudges: Nudge[] } {
-  const { questions, snoozed } = planInput(store);
-  return { questions, nudges: planNudges(questions, settings, snoozed, at) };
+/**
+ * What is due at `at`: the nudges to show, and apart from them the ones a running snooze
+ * hides, each with its snooze's end. Planned once without snoozes and then split, so the
+ * two lists hold exactly what the planner would show with no snoozes at all.
+ */
+export function dueAt(
+  store: StoreHandles,
+  settings: Settings,
+  at: number,
+): { questions: DueQuestion[]; nudges: Nudge[]; snoozed: { nudge: Nudge; until: number }[] } {
+  const { questions, snoozed: running } = planInput(store);
+  const hidden = activeSnoozes(running, at);
+  const nudges: Nudge[] = [];
+  const snoozed: { nudge: Nudge; until: number }[] = [];
+  for (const nudge of planNudges(questions, settings, [], at)) {
+    const until = hidden.get(`${nudge.kind}|${nudge.question_id}`);
+    if (until !== undefined) snoozed.push({ nudge, until });
+    else nudges.push(nudge);
+  }
+  return { questions, nudges, snoozed };
 }
 
 /** How many questions have something due at `at` (the Desk's item count). */

@@ -106,6 +106,42 @@ export const MIGRATIONS: readonly Migration[] = [
       );
     `,
   },
+  // Number 3 belongs to the multiple-choice and numeric question types, which land from
+  // their own line of work; 4 depends on nothing they add.
+  {
+    version: 4,
+    description: 'resolution history (corrections and reopenings) and the undo log',
+    sql: `
+      -- Each earlier resolution of a question, kept when it is corrected or the question reopened.
+      CREATE TABLE resolution_history (
+        seq         INTEGER PRIMARY KEY AUTOINCREMENT,
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        outcome     TEXT NOT NULL,
+        at          INTEGER NOT NULL,
+        note        TEXT NOT NULL DEFAULT '',
+        recorded_at INTEGER NOT NULL,
+        replaced_at INTEGER NOT NULL,
+        change      TEXT NOT NULL CHECK (change IN ('corrected', 'reopened')),
+        change_note TEXT NOT NULL DEFAULT ''
+      );
+      CREATE INDEX resolution_history_question ON resolution_history (question_id, seq);
+
+      -- What a change replaced, so the service can put it back (main/store/undo.ts). No
+      -- foreign key on purpose: an entry must outlive the question it restores.
+      CREATE TABLE undo_log (
+        seq         INTEGER PRIMARY KEY AUTOINCREMENT,
+        token       TEXT NOT NULL UNIQUE,
+        question_id TEXT NOT NULL,
+        operation   TEXT NOT NULL,
+        recorded_at INTEGER NOT NULL,
+        before      TEXT NOT NULL,
+        -- the length of before, kept so the log can be bounded by size without reading it
+        size        INTEGER NOT NULL,
+        after_hash  TEXT NOT NULL
+      );
+      CREATE INDEX undo_log_recorded ON undo_log (recorded_at);
+    `,
+  },
 ];
 
 export const SCHEMA_VERSION = MIGRATIONS[MIGRATIONS.length - 1]!.version;

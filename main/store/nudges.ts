@@ -41,3 +41,10 @@ export function clearSnoozes(db: Db, questionId: string, kind?: StoredNudgeKind)
   if (kind) db.prepare('DELETE FROM snoozes WHERE question_id = ? AND kind = ?').run(questionId, kind);
   else db.prepare('DELETE FROM snoozes WHERE question_id = ?').run(questionId);
 }
+
+/** The question's snoozes still running at `now` (of one kind, when given). */
+export function activeSnoozes(db: Db, questionId: string, now: number, kind?: StoredNudgeKind): SnoozeRow[] {
+  return db
+    .prepare('SELECT question_id, kind, until FROM snoozes WHERE question_id = ? AND until > ? AND (? IS NULL OR kind = ?)')
+    .all(questionId, now, kind ?? null, kind ?? null) as SnoozeRow[];
+}

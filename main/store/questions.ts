@@ -3,7 +3,7 @@
  * reference forecasts and resolutions. Reads take the read handle; writes take the write
  * handle and are called by the service inside a transaction.
  */
-import type { Costs, Forecast, Lens, Outcome, Question, QuestionKind, ReferenceForecast } from '../../shared/domain';
+import type { ActiveSnooze, Costs, Forecast, Lens, NudgeKind, Outcome, Question, QuestionKind, ReferenceForecast, ResolutionChangeKind } from '../../shared/domain';
 import { toIso } from '../../shared/time';
 import type { Statement } from 'better-sqlite3';
 import type { Db } from './open';
@@ -57,6 +57,17 @@ export interface ResolutionRow {
   at: number;
   note: string;
   recorded_at: number;
+}
+
+export interface ResolutionHistoryRow {
+  question_id: string;
+  outcome: Outcome;
+  at: number;
+  note: string;
+  recorded_at: number;
+  replaced_at: number;
+  change: ResolutionChangeKind;
+  change_note: string;
 }
 
 export interface NewForecast {
@@ -158,6 +169,27 @@ export function deleteResolution(db: Db, questionId: string): void {
   stmt(db, 'DELETE FROM resolutions WHERE question_id = ?').run(questionId);
 }
 
+/**
+ * Keeps the question's current resolution in its history before a correction or a
+ * reopening replaces it; does nothing when it has none.
+ */
+export function archiveResolution(db: Db, questionId: string, change: ResolutionChangeKind, changeNote: string, replacedAt: number): void {
+  stmt(
+    db,
+    `INSERT INTO resolution_history (question_id, outcome, at, note, recorded_at, replaced_at, change, change_note)
+     SELECT question_id, outcome, at, note, recorded_at, ?, ?, ? FROM resolutions WHERE question_id = ?`,
+  ).run(replacedAt, change, changeNote, questionId);
+}
+
+/** An earlier resolution as a diary file carries it (import). */
+export function insertResolutionHistory(db: Db, r: ResolutionHistoryRow): void {
+  stmt(
+    db,
+    `INSERT INTO resolution_history (question_id, outcome, at, note, recorded_at, replaced_at, change, change_note)
+     VALUES (@question_id, @outcome, @at, @note, @recorded_at, @replaced_at, @change, @change_note)`,
+  ).run(r);
+}
+
 // ---- reads --------------------------------------------------------------------------
 
 export function questionRow(db: Db, id: string): QuestionRow | undefined {
@@ -172,6 +204,15 @@ export function referenceRow(db: Db, id: string): ReferenceRow | undefined {
   return stmt(db, 'SELECT seq, id, question_id, at, p, source FROM reference_forecasts WHERE id = ?').get(id) as
     | ReferenceRow
     | undefined;
+}
+
+/** The time of the question's earliest revision, or null when it has none. */
+export function firstForecastAt(db: Db, questionId: string): number | null {
+  return (stmt(db, 'SELECT min(at) AS at FROM forecasts WHERE question_id = ?').get(questionId) as { at: number | null }).at;
+}
+
+export function resolutionRow(db: Db, questionId: string): ResolutionRow | undefined {
+  return stmt(db, 'SELECT question_id, outcome, at, note, recorded_at FROM resolutions WHERE question_id = ?').get(questionId) as ResolutionRow | undefined;
 }
 
 export function questionCount(db: Db): number {
@@ -193,10 +234,12 @@ export interface QuestionBundle {
   lenses: Map<string, LensRow[]>;
   references: ReferenceRow[];
   resolution: ResolutionRow | null;
+  history: ResolutionHistoryRow[];
+  snoozes: { kind: NudgeKind; until: number }[];
 }
 
 /**
- * Loads whole questions in five queries, whatever their number, so exporting or scoring a
+ * Loads whole questions in a fixed number of queries (eight), whatever their number, so exporting or scoring a
  * large diary does not issue a query per question.
  */
 export function loadBundles(db: Db, ids?: string[]): QuestionBundle[] {
@@ -206,7 +249,7 @@ export function loadBundles(db: Db, ids?: string[]): QuestionBundle[] {
   const rows = stmt(db, `SELECT ${QUESTION_COLUMNS} FROM questions ${qFilter} ORDER BY closes_at, id`).all(...args) as QuestionRow[];
   const bundles = new Map<string, QuestionBundle>();
   for (const row of rows) {
-    bundles.set(row.id, { row, tags: [], forecasts: [], lenses: new Map(), references: [], resolution: null });
+    bundles.set(row.id, { row, tags: [], forecasts: [], lenses: new Map(), references: [], resolution: null, history: [], snoozes: [] });
   }
   for (const t of stmt(db, `SELECT question_id, tag FROM question_tags ${filter} ORDER BY question_id, position`).all(...args) as {
     question_id: string;
@@ -240,10 +283,17 @@ export function loadBundles(db: Db, ids?: string[]): QuestionBundle[] {
     const b = bundles.get(r.question_id);
     if (b) b.resolution = r;
   }
+  const historySql = `SELECT question_id, outcome, at, note, recorded_at, replaced_at, change, change_note FROM resolution_history ${filter} ORDER BY question_id, seq`;
+  for (const h of stmt(db, historySql).all(...args) as ResolutionHistoryRow[]) bundles.get(h.question_id)?.history.push(h);
+  const snoozeSql = `SELECT question_id, kind, until FROM snoozes ${filter} ORDER BY question_id, kind`;
+  for (const z of stmt(db, snoozeSql).all(...args) as { question_id: string; kind: NudgeKind; until: number }[]) {
+    bundles.get(z.question_id)?.snoozes.push({ kind: z.kind, until: z.until });
+  }
   return [...bundles.values()];
 }
 
-export function toQuestion(b: QuestionBundle): Question {
+/** The question as the API gives it; `now` decides which snoozes are still running. */
+export function toQuestion(b: QuestionBundle, now: number): Question {
   const { row } = b;
   const costs: Costs | null =
     row.false_alarm_cost !== null && row.miss_cost !== null ? { false_alarm: row.false_alarm_cost, miss: row.miss_cost } : null;
@@ -272,6 +322,16 @@ export function toQuestion(b: QuestionBundle): Question {
     forecasts,
     references,
     resolution: b.resolution ? { outcome: b.resolution.outcome, at: toIso(b.resolution.at), note: b.resolution.note } : null,
+    resolution_history: b.history.map((h) => ({
+      outcome: h.outcome,
+      at: toIso(h.at),
+      note: h.note,
+      recorded_at: toIso(h.recorded_at),
+      replaced_at: toIso(h.replaced_at),
+      change: h.change,
+      change_note: h.change_note,
+    })),
+    snoozes: b.snoozes.filter((z) => z.until > now).map((z): ActiveSnooze => ({ kind: z.kind, until: toIso(z.until) })),
     created_at: toIso(row.created_at),
     updated_at: toIso(row.updated_at),
   };

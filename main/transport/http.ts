@@ -39,6 +39,8 @@ const STATUS: Record<ApiErrorCode, number> = {
   invalid: 400,
   not_found: 404,
   conflict: 409,
+  // Not refused for what it holds: it waits for the user's confirm (see ApiErrorCode).
+  confirm: 409,
   read_only: 409,
   busy: 503,
   disk_full: 507,

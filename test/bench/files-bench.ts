@@ -7,7 +7,8 @@
  *   - import of the JSON file into an empty diary,
  *   - export as JSON and as CSV to files,
  *   - the round trips: import each export into a fresh diary, export again, and compare
- *     the bytes with the first export (they must be identical).
+ *     the bytes with the first export (they must be identical),
+ *   - merging each export back into the diary it came from (every question skipped).
  * Figures are printed, never asserted: timings do not belong in pass/fail tests.
  */
 import { spawnSync } from 'node:child_process';
@@ -94,6 +95,9 @@ function main(): void {
     forelog('export it again (JSON)', 'export', at('b.json'), '--db', at('b.sqlite'));
     forelog('import the CSV export', 'import', at('a.csv'), '--db', at('c.sqlite'));
     forelog('export it again (CSV)', 'export', at('c.csv'), '--format', 'csv', '--db', at('c.sqlite'));
+    // A merge compares every question of the file with the diary's: the heaviest import there is.
+    forelog('merge the JSON export back (all skipped)', 'import', '--merge', at('a.json'), '--db', at('b.sqlite'));
+    forelog('merge the CSV export back (all skipped)', 'import', '--merge', at('a.csv'), '--db', at('c.sqlite'));
 
     const jsonSame = sha256(at('a.json')) === sha256(at('b.json'));
     const csvSame = sha256(at('a.csv')) === sha256(at('c.csv'));

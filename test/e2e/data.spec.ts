@@ -47,7 +47,7 @@ test('export in three formats, import a file back, refuse a bad one', async ({ b
       ],
     };
     await input.setInputFiles({ name: 'bad.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) });
-    await expect(section.getByText(/bad\.json: Question record 1 is not valid: field forecasts\[0\]\.p/)).toBeVisible();
+    await expect(section.getByText(/bad\.json: Question 2 \(questions\[1\]\) is not valid: field forecasts\[0\]\.p/)).toBeVisible();
 
     // A good CSV adds its questions.
     const one = 'title,closes_at,forecast_at,p\r\nImported from a spreadsheet,2031-01-01T00:00:00Z,2030-01-01T00:00:00Z,0.4\r\n';

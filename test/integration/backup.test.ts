@@ -7,6 +7,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
 import { inspectBackup, rollingBackup } from '../../main/service/backup';
+import { SCHEMA_VERSION } from '../../main/store/migrations';
 import { openTestDiary, tempDir } from '../support/temp-diary';
 
 const DAY = 86_400_000;
@@ -18,7 +19,7 @@ test('one copy a day, the newest seven kept, each a restorable diary', async () 
   const start = Date.parse('2026-06-01T08:00:00Z');
   const first = await rollingBackup(d.service.store, dir, start);
   assert.ok(first.created && fs.existsSync(first.created));
-  assert.deepEqual(inspectBackup(first.created), { questions: 1, version: 2 });
+  assert.deepEqual(inspectBackup(first.created), { questions: 1, version: SCHEMA_VERSION });
   const sameDay = await rollingBackup(d.service.store, dir, start + 6 * 3_600_000);
   assert.equal(sameDay.created, null, 'at most one a day');
   for (let day = 1; day <= 9; day++) await rollingBackup(d.service.store, dir, start + day * DAY);

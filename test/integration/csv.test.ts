@@ -315,7 +315,7 @@ test('a CSV whose later question is already in the diary adds none of its questi
     (err: unknown) =>
       err instanceof ApiError &&
       err.code === 'conflict' &&
-      err.message === 'Row 3, column question_id: "q2" is already in this diary (was this file imported before?). Nothing was imported.',
+      err.message === 'Row 3, column question_id: "q2" is already in this diary (was this file imported before? Import it with merge to add only the questions that are new). Nothing was imported.',
   );
   assert.equal(d.service.diary.exportText('json').text, before);
 });

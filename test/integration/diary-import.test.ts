@@ -97,10 +97,10 @@ test('the first bad record is named with its index, line and field, after thousa
   const bad = question(2500, { forecasts: [{ at: '2026-01-05T09:05:00Z', p: 1.5 }] });
   const text = JSON.stringify({ ...DIARY, questions: [...good, bad, question(2501)] }, null, 2);
   const line = text.split('\n').findIndex((l) => l.includes('"id": "q2500"'));
-  await refusesText(d, text, `Question record 2500 is not valid: field forecasts[0].p: must be a probability between 0 and 1 (the record starts on line ${line}). Nothing was imported.`);
+  await refusesText(d, text, `Question 2501 (questions[2500]) is not valid: field forecasts[0].p: must be a probability between 0 and 1 (the record starts on line ${line}). Nothing was imported.`);
   // An id already in the diary is found by the insert itself, and named the same way.
   const again = JSON.stringify({ ...DIARY, questions: [question(90_000), buildDemoDiary(d.clock.now).questions[3]] });
-  await refusesText(d, again, /^Question record 1 is not valid: field id: ".+" is already in this diary \(was this file imported before\?\)\. Nothing was imported\.$/, 'conflict');
+  await refusesText(d, again, /^Question 2 \(questions\[1\]\) is not valid: field id: ".+" is already in this diary \(was this file imported before\? Import it with merge to add only the questions that are new\)\. Nothing was imported\.$/, 'conflict');
 });
 
 test('numbers read exactly as JSON.parse reads them, down to the last bit, through import and export', async () => {
@@ -181,7 +181,7 @@ test('files as people have them: UTF-8 with a byte order mark and UTF-16 read th
   for (const [name, bytes] of files) {
     fs.writeFileSync(path.join(dir, name), bytes);
     const d = openTestDiary();
-    assert.deepEqual(d.service.importDiaryFile(path.join(dir, name), name.endsWith('.csv') ? 'csv' : 'json'), { added: 1 }, name);
+    assert.deepEqual(d.service.importDiaryFile(path.join(dir, name), name.endsWith('.csv') ? 'csv' : 'json'), { added: 1, skipped: 0 }, name);
     const text = d.service.diary.exportText('json').text.replace(/"id": "[^"]+"/, '"id": "…"');
     const kind = name.split('.')[1]!;
     if (!exports.has(kind)) exports.set(kind, text);
@@ -212,4 +212,21 @@ test('the reader stops reading when a record is refused, and a diary file error 
   }
   assert.throws(() => collect(readDiaryText(chunks())), (err: unknown) => err instanceof DiaryFileError && err.record === 0 && err.field === 'title');
   assert.equal(pulled, 0, 'nothing after the bad record was read');
+});
+
+test('a setting in a file is held to the app’s rules in the app’s words', async () => {
+  const d = openTestDiary();
+  const cases: [Record<string, unknown>, string][] = [
+    [{ closing_soon_hours: 0 }, 'closing_soon_hours: must be at least 1 hour'],
+    [{ closing_soon_hours: 337 }, 'closing_soon_hours: must be at most 336 hours (14 days)'],
+    [{ overdue_after_days: 1.5 }, 'overdue_after_days: must be whole days'],
+    [{ overdue_after_days: '3' }, 'overdue_after_days: must be whole days'],
+    [{ quiet_hours: { start: 2200, end: '07:00' } }, 'quiet_hours.start: must be a time of day HH:MM (24-hour)'],
+    [{ quiet_hours: '22:00-07:00' }, 'quiet_hours: must be { "start": "HH:MM", "end": "HH:MM" } or null'],
+  ];
+  for (const [settings, reason] of cases) {
+    await refusesText(d, JSON.stringify({ ...DIARY, settings, questions: [] }), `The settings are not valid: settings.${reason}. Nothing was imported.`);
+    // The same rule, in the same words, when the app changes a setting.
+    await assert.rejects(d.call('updateSettings', settings as never), (err: unknown) => err instanceof ApiError && err.fields[0] === reason);
+  }
 });

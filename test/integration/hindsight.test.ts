@@ -12,8 +12,15 @@ const DAY = 86_400_000;
 async function diary() {
   const d = openTestDiary({ now: '2026-01-01T09:00:00Z' });
   const make = async (title: string, path: [number, number, string][], outcome: 'yes' | 'no', refs: [number, number][] = [], tags = ['renewals']) => {
-    const start = d.clock.now;
-    const q = await d.call('createQuestion', { title, closes_at: new Date(start + 30 * DAY).toISOString(), tags, first_forecast: { p: path[0]![1], note: path[0]![2] } });
+    // Recorded afterwards, as a user writes up calls already made: every time lies in the past.
+    const start = d.clock.now - 40 * DAY;
+    const q = await d.call('createQuestion', {
+      title,
+      opened_at: new Date(start).toISOString(),
+      closes_at: new Date(start + 30 * DAY).toISOString(),
+      tags,
+      first_forecast: { p: path[0]![1], note: path[0]![2], at: new Date(start).toISOString() },
+    });
     for (const [day, p, note] of path.slice(1)) await d.call('addForecast', { question_id: q.id, p, note, at: new Date(start + day * DAY).toISOString() });
     for (const [day, p] of refs) await d.call('addReference', { question_id: q.id, p, source: "client's view", at: new Date(start + day * DAY).toISOString() });
     await d.call('resolveQuestion', { id: q.id, outcome, at: new Date(start + 30 * DAY).toISOString(), note: `resolved ${outcome}` });

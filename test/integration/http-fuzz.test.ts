@@ -51,6 +51,9 @@ const ids = await (async () => {
     references: questions.flatMap((q) => q.references.map((r: { id: string }) => r.id)),
   };
 })();
+// A real undo token and a running snooze, so `undo` and `unsnooze` have something to act on.
+const open = (await d.call('due', { at: '2026-06-01T12:00:00Z' })).nudges[0] as { id: string; kind: 'checkin' } | undefined;
+const undoToken: string = open ? (await d.call('snooze', { question_id: open.id, kind: open.kind, preset: 'next_week' })).undo : 'no-undo';
 
 after(async () => {
   agent.destroy();
@@ -199,6 +202,8 @@ const VALID: { [K in OperationName]: (n: number) => Request<K> } = {
 
   dueCount: () => ({ at: '2026-06-01T12:00:00Z' }),
   snooze: (n) => ({ question_id: pick(ids.questions, n), kind: 'checkin', preset: pick(['hour', 'tomorrow_morning', 'next_week'] as const, n) }),
+  unsnooze: (n) => (n % 2 && open ? { question_id: open.id, kind: open.kind } : { question_id: pick(ids.questions, n) }),
+  undo: () => ({ token: undoToken }),
   hindsight: () => ({ tag: 'fuzz', from: '2026-01-01', to: '2026-12-31', threshold: 0.8, include_hits: true }),
   briefing: () => ({ tag: 'fuzz', threshold: 0.7 }),
 };

@@ -32,7 +32,7 @@ test('a question with 150,000 revisions imports without an opened_at, then reads
     ],
   };
   const added = await d.service.dispatch('importText', { format: 'json', text: JSON.stringify(file) });
-  assert.deepEqual(added, { ok: true, value: { added: 1 } });
+  assert.deepEqual(added, { ok: true, value: { added: 1, skipped: 0 } });
 
   const q = await d.call('getQuestion', { id: 'long' });
   assert.equal(q.forecasts.length, REVISIONS);

@@ -23,6 +23,8 @@ export function question(over: Partial<Question> & { id: string }): Question {
     forecasts: [],
     references: [],
     resolution: null,
+    resolution_history: [],
+    snoozes: [],
     created_at: '2025-01-06T09:00:00.000Z',
     updated_at: '2025-01-06T09:00:00.000Z',
     ...over,
