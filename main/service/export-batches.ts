@@ -57,6 +57,32 @@ const NO_LENSES: Lens[] = [];
 /** Likewise the history of a question never corrected or reopened (replaced, never pushed to). */
 const NO_HISTORY: ExportedQuestion['resolution_history'] = [];
 
+/** What the revision-collecting SQL function hands each revision to; see `revisionReader`. */
+type RevisionSink = (k: number, at: number, p: number, note: string, seq: number) => void;
+
+const REVISION_FN = 'forelog_export_revision';
+const revisionSinks = new WeakMap<Db, { current: RevisionSink | null }>();
+
+/**
+ * Revisions are nearly all of an export's rows, and better-sqlite3 builds a JavaScript
+ * array per row it returns, which costs several times SQLite's own reading. So they come
+ * through a function SQL calls once per row (as main/service/scoring-source.ts reads them
+ * for scoring): each value arrives as SQLite holds it, with no row array in between.
+ * Registered once per connection; directOnly, so no view or trigger can call it.
+ */
+function revisionSinkOf(db: Db): { current: RevisionSink | null } {
+  const known = revisionSinks.get(db);
+  if (known) return known;
+  const holder: { current: RevisionSink | null } = { current: null };
+  db.function(REVISION_FN, { directOnly: true }, (k: unknown, at: unknown, p: unknown, note: unknown, seq: unknown) => {
+    if (holder.current === null) throw new Error(`${REVISION_FN} belongs to the export reader and cannot be called on its own`);
+    holder.current(k as number, at as number, p as number, note as string, seq as number);
+    return null;
+  });
+  revisionSinks.set(db, holder);
+  return holder;
+}
+
 /**
  * Reads questions as the export writes them. `always` reads lenses and resolution
  * history for every batch; otherwise each is read only when the diary has any at the
@@ -65,9 +91,14 @@ const NO_HISTORY: ExportedQuestion['resolution_history'] = [];
  */
 function exportReader(db: Db, always: boolean) {
   const tags = db.prepare(forBatch('tag', 'question_tags', 'position')).raw();
-  // The revision's seq matters only to attach lenses, so it is read only when there are lenses.
-  const forecasts = db.prepare(forBatch('at, p, note, seq', 'forecasts', 'at, seq')).raw();
-  const forecastsOnly = db.prepare(forBatch('at, p, note', 'forecasts', 'at, seq')).raw();
+  const sink = revisionSinkOf(db);
+  // No ORDER BY: SQLite walks the batch's ids in order and each question's revisions by the
+  // index on (question_id, at, seq), which is the file's order; the sink checks that it was,
+  // and a batch that came otherwise is read again with the order spelled out.
+  const collect = db.prepare(
+    `SELECT count(${REVISION_FN}(j.key, f.at, f.p, f.note, f.seq)) FROM json_each(?) j JOIN forecasts f ON f.question_id = j.value`,
+  );
+  const ordered = db.prepare(forBatch('at, p, note, seq', 'forecasts', 'at, seq')).raw();
   const references = db.prepare(forBatch('at, p, source', 'reference_forecasts', 'at, seq')).raw();
   const resolutions = db.prepare(forBatch('outcome, at, note', 'resolutions', '')).raw();
   const history = db
@@ -83,6 +114,31 @@ function exportReader(db: Db, always: boolean) {
     )
     .raw();
   const iso = isoFormatter();
+
+  /** Fills in the batch's revisions, in time order then entry order, each with its lenses. */
+  function readRevisions(batch: ExportedQuestion[], ids: string, lensesOf: Map<number, Lens[]>): void {
+    let inOrder = true;
+    let lastK = -1;
+    let lastAt = 0;
+    let lastSeq = 0;
+    sink.current = (k, at, p, note, seq) => {
+      if (k === lastK ? at < lastAt || (at === lastAt && seq < lastSeq) : batch[k]!.forecasts.length > 0) inOrder = false;
+      lastK = k;
+      lastAt = at;
+      lastSeq = seq;
+      batch[k]!.forecasts.push({ at: iso(at), p, note, lenses: lensesOf.get(seq) ?? NO_LENSES });
+    };
+    try {
+      collect.get(ids);
+    } finally {
+      sink.current = null;
+    }
+    if (inOrder) return;
+    for (const q of batch) q.forecasts = [];
+    for (const [k, at, p, note, seq] of ordered.all(ids) as [number, number, number, string, number][]) {
+      batch[k]!.forecasts.push({ at: iso(at), p, note, lenses: lensesOf.get(seq) ?? NO_LENSES });
+    }
+  }
 
   /** The questions of `rows` (in that order), whole. */
   return (rows: QuestionTuple[]): ExportedQuestion[] => {
@@ -116,9 +172,7 @@ function exportReader(db: Db, always: boolean) {
         else lensesOf.set(seq, [{ name, p, weight }]);
       }
     }
-    for (const [k, at, p, note, seq] of (anyLenses ? forecasts : forecastsOnly).all(ids) as [number, number, number, string, number?][]) {
-      batch[k]!.forecasts.push({ at: iso(at), p, note, lenses: (seq !== undefined && lensesOf.get(seq)) || NO_LENSES });
-    }
+    readRevisions(batch, ids, lensesOf);
     for (const [k, at, p, source] of references.all(ids) as [number, number, number, string][]) batch[k]!.references.push({ at: iso(at), p, source });
     for (const [k, outcome, at, note] of resolutions.all(ids) as [number, Outcome, number, string][]) batch[k]!.resolution = { outcome, at: iso(at), note };
     if (anyHistory) {

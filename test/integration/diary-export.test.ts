@@ -8,6 +8,7 @@
  */
 import assert from 'node:assert/strict';
 import { spawnSync } from 'node:child_process';
+import Database from 'better-sqlite3';
 import { after, test } from 'node:test';
 import { openDiary } from '../../main/service/index';
 import type { QuestionList } from '../../shared/contract';
@@ -144,4 +145,18 @@ test('the export’s fast time formatter writes exactly what toIso writes', () =
   const random = Array.from({ length: 20_000 }, () => Math.floor((next() - 0.3) * 7e12));
   // Sorted and shuffled: the formatter keeps the last day's date, so both orders matter.
   for (const ms of [...edges, ...random, ...[...random].sort((a, b) => a - b), 1.5, -0.5]) assert.equal(iso(ms), toIso(ms), String(ms));
+});
+
+test('an export keeps each question’s revisions in time order even when SQLite finds them in another order', async () => {
+  // The random file lists revisions out of time order, so entry order (seq) differs from time
+  // order. Without the index on (question_id, at, seq) SQLite finds them in entry order, and
+  // the export must notice and read them again in the file's order.
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: randomDiaryFile(600, 17) });
+  const before = { json: d.service.diary.exportText('json').text, csv: d.service.diary.exportText('csv').text };
+  const other = new Database(d.dbPath);
+  other.exec('DROP INDEX forecasts_question');
+  other.close();
+  assert.equal(d.service.diary.exportText('json').text, before.json, 'JSON');
+  assert.equal(d.service.diary.exportText('csv').text, before.csv, 'CSV');
 });
