@@ -56,9 +56,19 @@ export interface WallTime {
   second: number;
 }
 
-/** The wall-clock reading in `timeZone` at instant `ms`. */
+// How the en-US formatter above writes an instant: "1/4/2021, 00:05:07".
+const FORMATTED_WALL_TIME = /^(\d+)\/(\d+)\/(\d+), (\d+):(\d+):(\d+)$/;
+
+/**
+ * The wall-clock reading in `timeZone` at instant `ms`. Read from the formatter's text,
+ * which costs a fifth of its parts list (nudge planning shifts thousands of instants);
+ * the parts are the answer whenever the text does not have the expected layout.
+ */
 export function wallTimeAt(ms: number, timeZone: string): WallTime {
-  const parts = formatterFor(timeZone).formatToParts(new Date(ms));
+  const formatter = formatterFor(timeZone);
+  const m = FORMATTED_WALL_TIME.exec(formatter.format(ms));
+  if (m) return { year: Number(m[3]), month: Number(m[1]), day: Number(m[2]), hour: Number(m[4]) % 24, minute: Number(m[5]), second: Number(m[6]) };
+  const parts = formatter.formatToParts(new Date(ms));
   const get = (type: Intl.DateTimeFormatPartTypes): number =>
     Number(parts.find((p) => p.type === type)?.value ?? 0);
   return {
