@@ -185,16 +185,10 @@ export function createDiary(ctx: DiaryContext) {
       },
       q.tags ?? [],
     );
-    for (const f of q.forecasts) {
-      qs.insertForecast(write, {
-        id: orderedId(),
-        question_id: id,
-        at: f.at,
-        p: f.p,
-        note: f.note ?? '',
-        lenses: (f.lenses ?? []) as Lens[],
-      });
-    }
+    qs.insertForecasts(
+      write,
+      q.forecasts.map((f) => ({ id: orderedId(), question_id: id, at: f.at, p: f.p, note: f.note ?? '', lenses: (f.lenses ?? []) as Lens[] })),
+    );
     for (const r of q.references ?? []) {
       qs.insertReference(write, { id: orderedId(), question_id: id, at: r.at, p: r.p, source: r.source });
     }
