@@ -62,14 +62,38 @@ function SettingsForm({ initial }: { initial: Settings }) {
     const built = patchFrom(draft);
     if (!form.check(built.errors, { schema: settingsPatch, request: built.patch, placement: PLACEMENT })) return;
     let answer: Settings | undefined;
+    let before: Settings | undefined;
     const ok = await form.submit(async () => {
+      // What the diary holds just before the save is what Undo puts back.
+      before = await api.getSettings({});
       answer = await api.updateSettings(built.patch);
     }, PLACEMENT);
-    if (ok && answer) {
+    if (ok && answer && before) {
       const next = draftFrom(answer);
       setSaved(next);
       setDraft(next);
-      toast.show({ message: 'Settings saved. Nudges and the Desk follow them from now on.' });
+      const restore = { ...before };
+      toast.show({
+        message: 'Settings saved. Nudges and the Desk follow them from now on.',
+        action: { label: 'Undo', onClick: () => void undoSave(restore, next) },
+      });
+      diaryChanged();
+    }
+  }
+
+  /**
+   * Settings are not in the diary's undo log (docs/api.md, "Undo"): a save is a patch, so
+   * undoing it saves the values it replaced. What is typed since stays in the form.
+   */
+  async function undoSave(restore: Settings, savedThen: SettingsDraft) {
+    try {
+      const back = draftFrom(await api.updateSettings(restore));
+      setSaved(back);
+      setDraft((d) => (sameDraft(d, savedThen) ? back : d));
+      toast.show({ message: 'Undone: the settings are as they were before that save.' });
+    } catch (error) {
+      toast.show({ tone: 'error', message: `Could not undo: ${describeError(error)}` });
+    } finally {
       diaryChanged();
     }
   }
