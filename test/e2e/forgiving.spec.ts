@@ -85,10 +85,10 @@ test('an unusual resolution asks first: Cancel changes nothing, going ahead reso
   const { page } = app;
   try {
     const resolveOnce = async () => {
-      await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Resolve' }).click();
+      await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Resolve', exact: true }).click();
       const dialog = page.getByRole('dialog', { name: 'Resolve the question' });
-      await dialog.getByRole('radio', { name: 'Yes' }).check();
-      await dialog.getByRole('button', { name: 'Resolve' }).click();
+      await dialog.getByRole('radio', { name: 'Yes', exact: true }).check();
+      await dialog.getByRole('button', { name: 'Resolve', exact: true }).click();
       return dialog;
     };
     const dialog = await resolveOnce();
@@ -103,10 +103,10 @@ test('an unusual resolution asks first: Cancel changes nothing, going ahead reso
     await ask.getByRole('button', { name: 'Cancel' }).click();
     await expect(ask).toBeHidden();
     // Still in the resolve dialog, as typed; nothing changed in the diary.
-    await expect(dialog.getByRole('radio', { name: 'Yes' })).toBeChecked();
+    await expect(dialog.getByRole('radio', { name: 'Yes', exact: true })).toBeChecked();
     expect((await call<Question>('getQuestion', { id: ids.state })).resolution).toBeNull();
 
-    await dialog.getByRole('button', { name: 'Resolve' }).click();
+    await dialog.getByRole('button', { name: 'Resolve', exact: true }).click();
     await ask.getByRole('button', { name: 'Resolve Yes anyway' }).click();
     await expect(dialog).toBeHidden();
     await expect(toast(page, 'Resolved Yes.')).toBeVisible();
@@ -135,7 +135,7 @@ test('a correction keeps the earlier resolution in the history shown on the ques
     await expect(page.getByTestId('resolution-history')).toHaveCount(0);
     await page.getByRole('button', { name: 'Correct' }).click();
     const dialog = page.getByRole('dialog', { name: 'Correct the resolution' });
-    await dialog.getByRole('radio', { name: 'No' }).check();
+    await dialog.getByRole('radio', { name: 'No', exact: true }).check();
     await dialog.getByLabel('Note', { exact: true }).fill('The review was postponed to next year');
     await dialog.getByLabel('Why the correction').fill('Misread the draft as the final review');
     await dialog.getByRole('button', { name: 'Save correction' }).click();
@@ -152,10 +152,10 @@ test('a correction keeps the earlier resolution in the history shown on the ques
     await expectNoSeriousViolations(page, 'a question page with a resolution history');
 
     // Reopening keeps the correction in the history too, with its reason.
-    await page.getByRole('button', { name: 'Reopen' }).click();
+    await page.getByRole('button', { name: 'Reopen', exact: true }).click();
     const reopen = page.getByRole('alertdialog', { name: 'Reopen this question?' });
     await reopen.getByLabel('Why reopen').fill('The regulator withdrew the postponement');
-    await reopen.getByRole('button', { name: 'Reopen' }).click();
+    await reopen.getByRole('button', { name: 'Reopen', exact: true }).click();
     await expect(rows).toHaveCount(2);
     await expect(rows.nth(1)).toContainText('Reopened');
     await expect(rows.nth(1)).toContainText('The regulator withdrew the postponement');
@@ -183,12 +183,12 @@ test('deleting a revision and then the question are both undone from their toast
     await page.getByRole('button', { name: /^Delete the 45% forecast of/ }).click();
     const confirm = page.getByRole('alertdialog', { name: 'Delete this revision?' });
     await expect(confirm).toContainText('Undo in the message that follows brings it back.');
-    await confirm.getByRole('button', { name: 'Delete' }).click();
+    await confirm.getByRole('button', { name: 'Delete', exact: true }).click();
     await expect(page.getByTestId('revision-row')).toHaveCount(1);
     await toast(page, 'Revision deleted.').getByRole('button', { name: 'Undo' }).click();
     await expect(page.getByTestId('revision-row')).toHaveCount(2);
 
-    await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Delete' }).click();
+    await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Delete', exact: true }).click();
     await page.getByRole('alertdialog', { name: 'Delete this question?' }).getByRole('button', { name: 'Delete question' }).click();
     await expect(page).toHaveURL(/#\/questions$/);
     await expect(page.getByRole('link', { name: TITLES.doomed })).toHaveCount(0);
@@ -220,7 +220,7 @@ test('a snoozed check-in stays visible: a collapsed section on the Desk, a mark 
     await expect(snoozed).toBeVisible();
     // Collapsed until asked.
     await expect(snoozed.getByTestId('desk-snoozed-item')).toBeHidden();
-    await snoozed.getByText('Snoozed', { exact: true }).click();
+    await snoozed.locator('summary').click();
     const row = snoozed.getByTestId('desk-snoozed-item');
     await expect(row).toHaveCount(1);
     await expect(row).toContainText(TITLES.checkin);
@@ -236,7 +236,7 @@ test('a snoozed check-in stays visible: a collapsed section on the Desk, a mark 
     await deskItem(page, TITLES.checkin).getByRole('button', { name: 'Snooze' }).click();
     await deskItem(page, TITLES.checkin).getByRole('button', { name: 'Tomorrow morning' }).click();
     await expect(page.getByTestId('desk-snoozed')).toBeVisible();
-    await page.getByTestId('desk-snoozed').getByText('Snoozed', { exact: true }).click();
+    await page.getByTestId('desk-snoozed').locator('summary').click();
     await page.getByTestId('desk-snoozed-item').getByRole('link', { name: TITLES.checkin }).click();
     const note = page.getByTestId('snooze-note');
     await expect(note).toContainText('Its check-in nudge comes back');
@@ -249,7 +249,7 @@ test('a snoozed check-in stays visible: a collapsed section on the Desk, a mark 
     // And from the Desk's section.
     await call('snooze', { question_id: ids.checkin, kind: 'checkin', preset: 'next_week' });
     await page.goto(`${server().url}#/`);
-    await page.getByTestId('desk-snoozed').getByText('Snoozed', { exact: true }).click();
+    await page.getByTestId('desk-snoozed').locator('summary').click();
     await page.getByRole('button', { name: `Unsnooze “${TITLES.checkin}”` }).click();
     await expect(deskItem(page, TITLES.checkin)).toBeVisible();
     await expect(page.getByTestId('desk-snoozed')).toHaveCount(0);
@@ -382,7 +382,7 @@ for (const scheme of ['light', 'dark'] as const) {
         await call('snooze', { question_id: ids.checkin, kind: 'checkin', preset: 'next_week' });
         const corrected = await call<Question & { undo: string }>('resolveQuestion', { id: ids.corrected, outcome: 'no', note: 'Postponed', correction_note: 'Misread the draft' });
         await page.reload();
-        await page.getByTestId('desk-snoozed').getByText('Snoozed', { exact: true }).click();
+        await page.getByTestId('desk-snoozed').locator('summary').click();
         await expect(page.getByTestId('desk-snoozed-item')).toBeVisible();
         await shot('desk');
 
@@ -394,21 +394,21 @@ for (const scheme of ['light', 'dark'] as const) {
         await shot('history');
 
         await page.goto(`${server().url}#/questions/${ids.closed}`);
-        await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Resolve' }).click();
+        await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Resolve', exact: true }).click();
         const dialog = page.getByRole('dialog', { name: 'Resolve the question' });
-        await dialog.getByRole('radio', { name: 'Yes' }).check();
+        await dialog.getByRole('radio', { name: 'Yes', exact: true }).check();
         // A closed event question is not unusual: this one resolves at once, then is undone.
-        await dialog.getByRole('button', { name: 'Resolve' }).click();
+        await dialog.getByRole('button', { name: 'Resolve', exact: true }).click();
         await expect(toast(page, 'Resolved Yes.')).toBeVisible();
         await shot('undo-toast', false);
         await toast(page, 'Resolved Yes.').getByRole('button', { name: 'Undo' }).click();
         await expect(toast(page, /^Undone/)).toBeVisible();
 
         await page.goto(`${server().url}#/questions/${ids.stateShot}`);
-        await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Resolve' }).click();
+        await page.getByRole('group', { name: 'Question actions' }).getByRole('button', { name: 'Resolve', exact: true }).click();
         const early = page.getByRole('dialog', { name: 'Resolve the question' });
-        await early.getByRole('radio', { name: 'No' }).check();
-        await early.getByRole('button', { name: 'Resolve' }).click();
+        await early.getByRole('radio', { name: 'No', exact: true }).check();
+        await early.getByRole('button', { name: 'Resolve', exact: true }).click();
         const ask = page.getByRole('alertdialog', { name: 'This is unusual — go ahead?' });
         await expect(ask).toBeVisible();
         await shot('warning', false);
