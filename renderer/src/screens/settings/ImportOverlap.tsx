@@ -55,7 +55,11 @@ export function ImportOverlap({ file, onMerged, onCancel }: Props) {
       <h3 id="import-overlap-heading" ref={heading} tabIndex={-1} className="import-overlap__title">
         {file.name} has questions that are already in this diary
       </h3>
-      <p>{file.reason}</p>
+      <p>
+        Some of its questions are already here (an export of this diary, or a file imported before), so the plain import was refused and
+        nothing changed.
+      </p>
+      <p className="muted">The diary said: {file.reason}</p>
       <p>
         Merging adds the questions that are new and skips those already here unchanged. If any question here differs from the file’s
         version, nothing is imported and you see which; it is all or nothing, as always.
