@@ -8,6 +8,7 @@
 import { createContext, useCallback, useContext, useMemo, useRef, useState, type ReactNode } from 'react';
 import { RequestError } from '../api/errors';
 import { ConfirmDialog } from '../components/ConfirmDialog';
+import { warningText } from './warningText';
 
 export interface Warning {
   /** The diary's reason, as it answered. */
@@ -19,14 +20,6 @@ type Ask = (warning: Warning) => Promise<boolean>;
 
 const AskContext = createContext<Ask | null>(null);
 
-/**
- * The diary's warning without its closing advice for API callers ("Nothing was changed. If
- * … confirm (the request's confirm: true)."): in the app the dialog's buttons are the advice.
- */
-export function warningText(reason: string): string {
-  const cut = reason.indexOf(' Nothing was changed.');
-  return cut > 0 ? reason.slice(0, cut) : reason;
-}
 
 export function AskFirstProvider({ children }: { children: ReactNode }) {
   const [pending, setPending] = useState<Warning | null>(null);

@@ -12,6 +12,7 @@ import { diaryChanged } from '../api/changes';
 import { describeError } from '../api/errors';
 import { useToast } from '../components/Toast';
 import { hrefTo, questionPath } from '../routing';
+import { undoneMessage, undoSteps } from './undoSteps';
 
 export interface UndoableChange {
   /** What was done, e.g. "Resolved “Northgate signs phase 2”: Yes." */
@@ -24,19 +25,6 @@ export interface UndoableChange {
   afterUndo?: (result: UndoResult) => void;
 }
 
-/** Undoes the steps of one change, newest first; resolves the last answer (the question as it is again). */
-export async function undoSteps(tokens: readonly string[]): Promise<UndoResult> {
-  if (tokens.length === 0) throw new Error('There is nothing to undo: the change answered without an undo token. Reload the window and check the question.');
-  let result: UndoResult | undefined;
-  for (const token of [...tokens].reverse()) result = await api.undo({ token });
-  return result!;
-}
-
-/** What the toast says once a change is undone. */
-export function undoneMessage(result: UndoResult, title: string): string {
-  if (result.question === null) return `Undone: “${title}” is no longer in the diary.`;
-  return `Undone: “${result.question.title}” is back as it was.`;
-}
 
 /**
  * `show(change)`: a toast saying what was done, with an Undo button (reachable with F6 and
@@ -50,7 +38,7 @@ export function useUndoToast(): (change: UndoableChange) => void {
       const tokens = typeof change.undo === 'string' ? [change.undo] : [...change.undo];
       async function undo() {
         try {
-          const result = await undoSteps(tokens);
+          const result = await undoSteps(tokens, (token) => api.undo({ token }));
           change.afterUndo?.(result);
           toast.show({
             message: undoneMessage(result, change.title),

@@ -6,7 +6,6 @@
  */
 import { useState } from 'react';
 import type { SnoozedNudge } from '../../../../shared/domain';
-import { extent } from '../../../../shared/extent';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
@@ -14,28 +13,9 @@ import { Button } from '../../components/Button';
 import { useToast } from '../../components/Toast';
 import { useUndoToast } from '../../forgiving/undo';
 import { hrefTo, questionPath } from '../../routing';
+import { snoozedItems, type SnoozedItem } from './snoozed';
 import { clockTime, dayWord } from './wording';
 import '../../forgiving/forgiving.css';
-
-interface SnoozedItem {
-  id: string;
-  title: string;
-  /** When the first of its snoozes runs out (epoch ms). */
-  back: number;
-}
-
-/** One item per question, soonest back first. */
-export function snoozedItems(snoozed: readonly SnoozedNudge[]): SnoozedItem[] {
-  const byId = new Map<string, { title: string; untils: number[] }>();
-  for (const n of snoozed) {
-    const known = byId.get(n.id) ?? { title: n.title, untils: [] };
-    known.untils.push(Date.parse(n.until));
-    byId.set(n.id, known);
-  }
-  return [...byId]
-    .map(([id, { title, untils }]) => ({ id, title, back: extent(untils).min }))
-    .sort((x, y) => x.back - y.back);
-}
 
 interface Props {
   snoozed: readonly SnoozedNudge[];

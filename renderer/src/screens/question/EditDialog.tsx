@@ -17,6 +17,7 @@ import { TagInput } from '../../components/TagInput';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { isoToLocal, localToIso, timeZoneNames, zoneName } from '../../dates';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
@@ -111,6 +112,8 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
       const iso = localToIso(openedLocal, timeZone);
       if (iso) changes.opened_at = iso;
       else found.opened_at = 'enter when the question opened';
+      const problem = iso ? typedTimeProblem(iso, 'the opening time (when the question was posed)') : null;
+      if (problem) found.opened_at = problem;
     }
     if (zoneChanged || closesLocal !== initialCloses) {
       const iso = localToIso(closesLocal, timeZone);

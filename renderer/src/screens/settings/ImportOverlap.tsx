@@ -11,6 +11,7 @@ import { RequestError, describeError } from '../../api/errors';
 import { Button } from '../../components/Button';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import '../../forgiving/forgiving.css';
+import { conflictLine } from './importConflicts';
 
 export interface OverlappingFile {
   name: string;
@@ -26,11 +27,6 @@ interface Props {
   onCancel: () => void;
 }
 
-/** Where a conflicting question is in its file, as people count. */
-export function conflictLine(c: ImportConflict): string {
-  const place = c.row === null ? `Question ${c.index + 1}` : `The question on row ${c.row}`;
-  return `${place}, “${c.title}” (${c.id}): differs in ${c.differs.join(', ')}`;
-}
 
 export function ImportOverlap({ file, onMerged, onCancel }: Props) {
   const heading = useRef<HTMLHeadingElement>(null);
