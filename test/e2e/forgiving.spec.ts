@@ -272,6 +272,8 @@ test('quick add records when a call was made: the opening and the first forecast
     await dialog.getByRole('textbox', { name: 'Opened', exact: true }).fill(daysFromNow(2));
     await dialog.getByRole('button', { name: 'Save question' }).click();
     await expect(dialog.getByText(/Must not be in the future: the opening time \(when the question was posed\) records something/)).toBeVisible();
+    await expectNoSeriousViolations(page, 'quick add with an opening time in the future');
+    await dialog.screenshot({ path: 'test/e2e/artifacts/forgiving-quick-add-opened.png' });
 
     const opened = new Date(Date.now() - 3 * DAY);
     opened.setUTCSeconds(0, 0);
@@ -329,6 +331,7 @@ test('importing your own export offers a merge; changed questions are listed and
     await expect(conflicts).toContainText(`Question 2, “${String(second.title)}” (${String(second.id)}): differs in title`);
     await expect(overlap).toContainText('Nothing was imported');
     await expectNoSeriousViolations(page, 'a refused merge with its conflicts');
+    await overlap.screenshot({ path: 'test/e2e/artifacts/forgiving-merge-conflicts.png' });
     expect((await exportedDiary()).questions).toHaveLength(count);
     await overlap.getByRole('button', { name: 'Close' }).click();
     await expect(overlap).toHaveCount(0);

@@ -21,6 +21,9 @@ export interface OverlappingFile {
   reason: string;
 }
 
+/** How many conflicts the diary lists at most (docs/api.md, "Importing"). */
+const MAX_LISTED = 100;
+
 interface Props {
   file: OverlappingFile;
   onMerged: (result: ImportResult) => void;
@@ -70,7 +73,12 @@ export function ImportOverlap({ file, onMerged, onCancel }: Props) {
                   <li key={`${c.index}-${c.id}`}>{conflictLine(c)}</li>
                 ))}
               </ul>
-              <p className="muted">{refusal.message}</p>
+              <p>
+                For each: to keep the diary’s version, remove the question from the file; to take the file’s, delete it from the diary (or
+                give it a new id in the file). Then merge again.
+              </p>
+              {/* The list stops at 100; the diary's message gives the total. */}
+              {refusal.conflicts.length >= MAX_LISTED ? <p className="muted">{refusal.message}</p> : null}
             </>
           ) : null}
         </>
