@@ -18,9 +18,9 @@ import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { Select } from '../../components/Select';
 import { TextField } from '../../components/TextField';
-import { useToast } from '../../components/Toast';
 import { timeZoneNames, zoneName } from '../../dates';
 import { useDiaryInfo } from '../../diaryInfo';
+import { replacedValues, useSettingsUndoToast } from '../../forgiving/settingsUndo';
 import { useDocumentTitle } from '../../hooks';
 import { useForm } from '../../forms';
 import { useLeaveGuard } from '../../leaveGuard';
@@ -48,7 +48,7 @@ export function SettingsScreen() {
 
 function SettingsForm({ initial }: { initial: Settings }) {
   const form = useForm();
-  const toast = useToast();
+  const settingsUndo = useSettingsUndoToast();
   const [saved, setSaved] = useState(() => draftFrom(initial));
   const [draft, setDraft] = useState(saved);
   const dirty = !sameDraft(draft, saved);
@@ -72,28 +72,12 @@ function SettingsForm({ initial }: { initial: Settings }) {
       const next = draftFrom(answer);
       setSaved(next);
       setDraft(next);
-      const restore = { ...before };
-      toast.show({
-        message: 'Settings saved. Nudges and the Desk follow them from now on.',
-        action: { label: 'Undo', onClick: () => void undoSave(restore, next) },
+      settingsUndo('Settings saved. Nudges and the Desk follow them from now on.', replacedValues(before, built.patch), (restored) => {
+        const back = draftFrom(restored);
+        setSaved(back);
+        // What was typed since the save stays in the form.
+        setDraft((d) => (sameDraft(d, next) ? back : d));
       });
-      diaryChanged();
-    }
-  }
-
-  /**
-   * Settings are not in the diary's undo log (docs/api.md, "Undo"): a save is a patch, so
-   * undoing it saves the values it replaced. What is typed since stays in the form.
-   */
-  async function undoSave(restore: Settings, savedThen: SettingsDraft) {
-    try {
-      const back = draftFrom(await api.updateSettings(restore));
-      setSaved(back);
-      setDraft((d) => (sameDraft(d, savedThen) ? back : d));
-      toast.show({ message: 'Undone: the settings are as they were before that save.' });
-    } catch (error) {
-      toast.show({ tone: 'error', message: `Could not undo: ${describeError(error)}` });
-    } finally {
       diaryChanged();
     }
   }
