@@ -349,11 +349,11 @@ test('importing your own export offers a merge; changed questions are listed and
   }
 });
 
-test('saving settings has an Undo that puts the earlier values back', async ({ browser }) => {
+test('saving settings, and the Scorecard’s default costs, has an Undo that puts the earlier values back', async ({ browser }) => {
   const app = await openApp(browser, server(), {}, 'settings');
   const { page } = app;
   try {
-    const before = await call<{ closing_soon_hours: number }>('getSettings');
+    const before = await call<{ closing_soon_hours: number; default_false_alarm_cost: number }>('getSettings');
     const field = page.getByRole('spinbutton', { name: /Closing-soon warning/ });
     await field.fill(String(before.closing_soon_hours + 12));
     await page.getByRole('button', { name: 'Save settings' }).click();
@@ -362,6 +362,18 @@ test('saving settings has an Undo that puts the earlier values back', async ({ b
     await toast(page, 'Settings saved.').getByRole('button', { name: 'Undo' }).click();
     await expect(toast(page, 'Undone: the settings are as they were before that save.')).toBeVisible();
     await expect(field).toHaveValue(String(before.closing_soon_hours));
+    expect(await call('getSettings')).toEqual(before);
+
+    // The Scorecard's default costs are settings too.
+    await page.goto(`${server().url}#/scorecard`);
+    const falseAlarm = page.getByLabel('False-alarm cost', { exact: true });
+    await falseAlarm.fill('2.5');
+    await page.getByRole('button', { name: 'Save defaults' }).click();
+    await expect(toast(page, 'Saved the default costs')).toBeVisible();
+    expect((await call<{ default_false_alarm_cost: number }>('getSettings')).default_false_alarm_cost).toBe(2.5);
+    await toast(page, 'Saved the default costs').getByRole('button', { name: 'Undo' }).click();
+    await expect(toast(page, 'Undone: the settings are as they were before that save.')).toBeVisible();
+    await expect(falseAlarm).toHaveValue(String(before.default_false_alarm_cost));
     expect(await call('getSettings')).toEqual(before);
     expect(app.problems).toEqual([]);
   } finally {
