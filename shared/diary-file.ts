@@ -290,13 +290,24 @@ const LIST_CLOSE = '\n  ]\n}';
 // depth (six spaces) after a line break, which no string value can hold unescaped.
 const EMPTY_FORECASTS = '\n      "forecasts": []';
 
+/** A revision toFileQuestion writes as `{ at, p, note }`: a probability and no lenses. */
+interface PlainRevision {
+  at: string;
+  p: number;
+  note: string;
+}
+
+function isPlainRevision(f: object): f is PlainRevision {
+  return 'p' in f && typeof f.p === 'number' && 'lenses' in f && Array.isArray(f.lenses) && f.lenses.length === 0;
+}
+
 /**
  * A revision list as JSON.stringify(…, null, 2) writes it inside a record of the file:
  * `{ at, p, note }` per revision (toFileQuestion's item for a revision without lenses).
  * Written by hand because revisions are nearly all of an export, and a text per revision
  * costs far less than an object per revision for JSON.stringify to walk.
  */
-function revisionsText(forecasts: ExportedQuestion['forecasts']): string {
+function revisionsText(forecasts: readonly PlainRevision[]): string {
   let out = '[';
   for (let i = 0; i < forecasts.length; i++) {
     const f = forecasts[i]!;
@@ -309,13 +320,15 @@ function revisionsText(forecasts: ExportedQuestion['forecasts']): string {
 /**
  * A batch's records, laid out as JSON.stringify lays out the `questions` list one level
  * down. Revision lists without lenses (nearly all) are left empty for JSON.stringify and
- * written into its text by `revisionsText`; any other list JSON.stringify writes itself.
+ * written into its text by `revisionsText`; any other list (with lenses, or revisions of
+ * another shape) JSON.stringify writes itself.
  */
 function batchText(batch: ExportedQuestion[]): string {
   const byHand: (string | null)[] = [];
   const records = batch.map((q) => {
-    const plain = q.forecasts.length > 0 && q.forecasts.every((f) => f.lenses.length === 0);
-    byHand.push(plain ? revisionsText(q.forecasts) : null);
+    const revisions: readonly object[] = q.forecasts;
+    const plain = revisions.length > 0 && revisions.every(isPlainRevision);
+    byHand.push(plain ? revisionsText(revisions as PlainRevision[]) : null);
     return toFileQuestion(plain ? { ...q, forecasts: [] } : q);
   });
   const framed = JSON.stringify({ questions: records }, null, 2);
