@@ -31,7 +31,8 @@ export interface ChoiceRow extends BaseRow {
   type: 'choice';
   options: string[];
   ordered: boolean;
-  baseRates?: number[];
+  /** Option base rates and where they come from. */
+  base?: [rates: number[], note: string];
   forecasts: ChoiceRevision[];
   refs?: [day: number, probs: number[], source: string][];
   /** [0-based option, day offset, note]. */
@@ -66,6 +67,7 @@ export interface DiaryFileChoiceQuestion {
   options: string[];
   ordered: boolean;
   option_base_rates?: number[];
+  base_rate_note?: string;
   forecasts: { at: string; probs: number[]; note: string }[];
   references: { at: string; probs: number[]; source: string }[];
   resolution: { outcome: 'option'; option: number; at: string; note: string } | null;
@@ -103,7 +105,7 @@ export const TYPED_ROWS: TypedRow[] = [
     close: -140,
     options: ['Brackenfold Systems', 'Orrin Metering', 'Neither: withdrawn or re-tendered'],
     ordered: false,
-    baseRates: [0.45, 0.35, 0.2],
+    base: [[0.45, 0.35, 0.2], 'Of 20 utility platform awards we tracked, the technical front-runner won 9 and the runner-up 7; 4 were withdrawn'],
     forecasts: [
       [-215, [0.55, 0.3, 0.15], 'Brackenfold scored best on the technical evaluation and the integrator already works with them. Roughly the base rate for a technical front-runner.'],
       [-185, [0.7, 0.22, 0.08], "Reference-site visit went well. Orrin's price is about 15% higher."],
@@ -123,7 +125,7 @@ export const TYPED_ROWS: TypedRow[] = [
     close: -60,
     options: ['On time', 'Up to 2 weeks late', '2 to 6 weeks late', 'More than 6 weeks late'],
     ordered: true,
-    baseRates: [0.2, 0.25, 0.3, 0.25],
+    base: [[0.2, 0.25, 0.3, 0.25], "The trust programme office's last twenty go-lives"],
     forecasts: [
       [-175, [0.3, 0.3, 0.25, 0.15], 'Plan looks credible, and the supplier has done this at two other trusts. A little better than the base rate.'],
       [-130, [0.15, 0.3, 0.35, 0.2], 'Integration testing started a fortnight late.'],
@@ -160,7 +162,7 @@ export const TYPED_ROWS: TypedRow[] = [
     close: 55,
     options: ['Ferncastle Analytics', 'Tarnwell Data', 'Build it in-house'],
     ordered: false,
-    baseRates: [0.4, 0.4, 0.2],
+    base: [[0.4, 0.4, 0.2], 'Our rough split over the last ten vendor choices we advised on'],
     forecasts: [
       [-22, [0.45, 0.35, 0.2], 'Ferncastle demoed better; Tarnwell is cheaper. The in-house team is keen but stretched.'],
       [-8, [0.5, 0.35, 0.15], 'The in-house team lost two engineers to the payments work.'],
@@ -313,7 +315,7 @@ export function buildTypedQuestion(row: TypedRow, clock: DemoClock): DiaryFileCh
       ...common,
       options: [...row.options],
       ordered: row.ordered,
-      ...(row.baseRates ? { option_base_rates: [...row.baseRates] } : {}),
+      ...(row.base ? { option_base_rates: [...row.base[0]], base_rate_note: row.base[1] } : {}),
       forecasts,
       references,
       resolution,
