@@ -24,6 +24,7 @@ import {
   type ScoredQuestionRow,
   type ScoringQuestion,
 } from '../../shared/scoring';
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../shared/hindsight-entries';
 import { isValidTimeZone, parseInstant } from '../../shared/time';
 
 /** Probability the calibration reading translates ("your 90% behaves like …", PRODUCT.md). */
@@ -51,6 +52,10 @@ export interface BriefingInput {
    * final 50 % is on both sides and so counts as a miss whatever happened, as the rule reads.
    */
   threshold: number;
+  /** Choice questions of the same tag whose top choice was held at the threshold and missed (hindsight-types.ts), worst first. */
+  choice_misses: ChoiceHindsightEntry[];
+  /** Numeric questions of the same tag whose outcome fell outside the final range (hindsight-types.ts), largest first. */
+  numeric_surprises: NumericHindsightEntry[];
 }
 
 /** Confident hits are shown after the misses and capped: the misses are what the briefing is for. */
@@ -424,6 +429,122 @@ function confidentSections(ctx: Context, misses: ConfidentCall[], hits: Confiden
 ${entrySection('hits', 'Confident hits', hitLede, shown.map((c) => entry(c, 'hit', time_zone)), 'No confident hits.')}`;
 }
 
+// ── Choice and numeric questions ────────────────────────────────────────────────────────
+
+/** A revision's note, or a muted "no note". */
+function noteCell(note: string): string {
+  return note.trim() ? escapeHtml(note) : '<span class="muted">no note</span>';
+}
+
+/** Revisions made after the window end, which never count (SCORING.md "Which forecasts count"). */
+function lateLine(late: number): string {
+  return late > 0 ? `<p class="muted">${plural(late, 'revision was', 'revisions were')} made after the window ended and ${late === 1 ? 'does' : 'do'} not count.</p>\n` : '';
+}
+
+function resolutionLine(resolution: { at: string; note: string }, shown: string, id: string, timeZone: string): string {
+  const when = dateFormat(timeZone, 'entry').format(instant(resolution.at, `question ${id} resolution time`));
+  return `<p><span class="label">Resolution</span><strong>${escapeHtml(shown)}</strong>, ${escapeHtml(when)}${resolution.note.trim() ? ` — <span class="note">${escapeHtml(resolution.note)}</span>` : ''}</p>`;
+}
+
+/** A choice forecast as each option's label with its percentage, in option order. */
+function optionShares(options: readonly string[], probs: readonly number[]): string {
+  return options.map((label, k) => `${escapeHtml(label)} ${wholePercent(probs[k]!)}`).join(' · ');
+}
+
+function choiceEntry(e: ChoiceHindsightEntry, timeZone: string): string {
+  const when = dateFormat(timeZone, 'entry');
+  const counting = e.forecasts.filter((f) => f.counted);
+  const path = counting
+    .map((f) => `<tr><td class="date">${escapeHtml(when.format(instant(f.at, `question ${e.id} forecast time`)))}</td><td class="shares">${optionShares(e.options, f.probs)}</td><td class="note">${noteCell(f.note)}</td></tr>`)
+    .join('\n');
+  const top = e.options[e.top_option]!;
+  const happened = e.options[e.outcome_option]!;
+  const base =
+    e.option_base_rates === null
+      ? ''
+      : `<p><span class="label">Option base rates</span>${optionShares(e.options, e.option_base_rates)}${e.base_rate_note.trim() ? ` — ${escapeHtml(e.base_rate_note)}` : ''}</p>\n`;
+  return `<article class="entry miss">
+<h3>${escapeHtml(e.title)}</h3>
+<p class="verdict"><span class="marker">miss</span><span class="said">Top choice “${escapeHtml(top)}” at ${wholePercent(e.top_p)}</span>; what came true: <span class="outcome">${escapeHtml(happened)}</span>, given ${wholePercent(e.outcome_p)}</p>
+<p class="tags">${e.tags.map(escapeHtml).join(' · ')}</p>
+<p><span class="label">Rule</span><span class="note">${e.rule.trim() ? escapeHtml(e.rule) : '<span class="muted">no rule written</span>'}</span></p>
+${base}<table class="path"><caption>Forecast path: every revision that counts, with the note written at the time</caption>
+<thead><tr><th scope="col">When</th><th scope="col">Forecast</th><th scope="col">Note</th></tr></thead>
+<tbody>
+${path}
+</tbody></table>
+${lateLine(e.forecasts.length - counting.length)}${resolutionLine(e.resolution, happened, e.id, timeZone)}
+</article>`;
+}
+
+const NUMBER_FORMAT = new Intl.NumberFormat(LOCALE, { maximumFractionDigits: 4 });
+const DATE_VALUE_FORMAT = new Intl.DateTimeFormat(LOCALE, { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' });
+
+/** A numeric question's value as the reader sees it: a number with its unit, or a calendar date. */
+function shownValue(e: NumericHindsightEntry, value: number | string): string {
+  if (e.value_kind === 'date') return DATE_VALUE_FORMAT.format(Date.parse(`${String(value)}T00:00:00Z`));
+  const n = NUMBER_FORMAT.format(value as number);
+  return e.unit ? `${n} ${e.unit}` : n;
+}
+
+/** How far outside the range, in the question's unit: days for a date. */
+function shownDistance(e: NumericHindsightEntry): string {
+  const n = NUMBER_FORMAT.format(e.distance);
+  if (e.value_kind === 'date') return `${n} ${e.distance === 1 ? 'day' : 'days'} ${e.side === 'below' ? 'before' : 'after'} it`;
+  return `${e.unit ? `${n} ${e.unit}` : n} ${e.side} it`;
+}
+
+function numericEntry(e: NumericHindsightEntry, timeZone: string): string {
+  const when = dateFormat(timeZone, 'entry');
+  const counting = e.forecasts.filter((f) => f.counted);
+  const levels = e.levels.map((l) => `P${Math.round(l * 100)}`).join(' / ');
+  const path = counting
+    .map((f) => `<tr><td class="date">${escapeHtml(when.format(instant(f.at, `question ${e.id} forecast time`)))}</td><td class="values">${f.quantiles.map((q) => escapeHtml(shownValue(e, q))).join(' / ')}</td><td class="note">${noteCell(f.note)}</td></tr>`)
+    .join('\n');
+  const size = e.size === null ? 'a range of zero width' : `${fixed(e.size, 2)} × the range's width`;
+  return `<article class="entry miss">
+<h3>${escapeHtml(e.title)}</h3>
+<p class="verdict"><span class="marker">surprise</span><span class="said">${wholePercent(e.level)} range ${escapeHtml(shownValue(e, e.low))} – ${escapeHtml(shownValue(e, e.high))}</span>; the outcome <span class="outcome">${escapeHtml(shownValue(e, e.value))}</span> was ${escapeHtml(shownDistance(e))} (${escapeHtml(size)})</p>
+<p class="tags">${e.tags.map(escapeHtml).join(' · ')}</p>
+<p><span class="label">Rule</span><span class="note">${e.rule.trim() ? escapeHtml(e.rule) : '<span class="muted">no rule written</span>'}</span></p>
+<table class="path"><caption>Forecast path: every revision that counts (${escapeHtml(levels)}), with the note written at the time</caption>
+<thead><tr><th scope="col">When</th><th scope="col">${escapeHtml(levels)}</th><th scope="col">Note</th></tr></thead>
+<tbody>
+${path}
+</tbody></table>
+${lateLine(e.forecasts.length - counting.length)}${resolutionLine(e.resolution, shownValue(e, e.value), e.id, timeZone)}
+</article>`;
+}
+
+/** The choice misses and the numeric surprises; a section only when the briefing has such entries. */
+function typedSections(ctx: Context): string {
+  const { choice_misses, numeric_surprises, threshold, time_zone } = ctx.input;
+  const parts: string[] = [];
+  if (choice_misses.length) {
+    parts.push(
+      entrySection(
+        'choice-misses',
+        'Choice questions: confident misses',
+        `The top choice held at ${wholePercent(threshold)} or more, and another option came true; the most confident first.`,
+        choice_misses.map((e) => choiceEntry(e, time_zone)),
+        '',
+      ),
+    );
+  }
+  if (numeric_surprises.length) {
+    parts.push(
+      entrySection(
+        'surprises',
+        'Numeric questions: surprises',
+        "The outcome fell outside the widest range of the final forecast; the largest first, measured as the distance outside divided by the range's width.",
+        numeric_surprises.map((e) => numericEntry(e, time_zone)),
+        '',
+      ),
+    );
+  }
+  return parts.join('\n');
+}
+
 function openQuestions(ctx: Context): string {
   const open = ctx.input.questions
     .filter((q) => q.resolution === null)
@@ -505,6 +626,7 @@ export function renderBriefing(input: BriefingInput): string {
     withReference,
   };
   const { misses, hits } = confidentCalls(detail.per_question, byId, input.threshold);
+  const typed = typedSections(ctx);
   return `<!doctype html>
 <html lang="en">
 <head>
@@ -520,7 +642,7 @@ ${header(ctx)}
 ${scorecard(ctx)}
 ${calibration(ctx)}
 ${confidentSections(ctx, misses, hits)}
-${openQuestions(ctx)}
+${typed ? `${typed}\n` : ''}${openQuestions(ctx)}
 <footer>Forelog briefing for ${escapeHtml(subject)}, made from the diary on this computer. Figures as defined in Forelog's scoring notes; dates in ${escapeHtml(input.time_zone)} unless marked. Scores describe past calls, not future ones.</footer>
 </main>
 </body>
