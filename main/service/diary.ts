@@ -22,6 +22,8 @@ import {
 import {
   NUDGE_KIND_NAMES,
   isBinary,
+  isChoice,
+  isNumeric,
   questionStatus,
   type Lens,
   type NudgeKind,
@@ -43,6 +45,7 @@ import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
 import * as undoStore from '../store/undo';
 import { confidentCalls, referenceLeads } from './hindsight';
+import { choiceHindsight, numericHindsight, scoringChoiceQuestion, scoringNumericQuestion } from './hindsight-types';
 import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
@@ -569,6 +572,23 @@ export function createDiary(ctx: DiaryContext) {
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
   }
 
+  /**
+   * The diary's choice and numeric questions as the service returns them, and `details`
+   * picking some of them by id (Hindsight's entries show their notes and labels).
+   */
+  function typedQuestions(t: number) {
+    const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
+    const byId = new Map(all.map((q) => [q.id, q]));
+    return {
+      choice: all.filter(isChoice),
+      numeric: all.filter(isNumeric),
+      details:
+        <Q extends Question>(is: (q: Question) => q is Q) =>
+        (ids: string[]): Q[] =>
+          ids.map((id) => byId.get(id)).filter((q): q is Question => q !== undefined).filter(is),
+    };
+  }
+
   const EXPORT_FILES: Record<ExportFormat, { name: string; extension: string; media_type: string }> = {
     json: { name: 'forelog-diary', extension: 'json', media_type: 'application/json' },
     csv: { name: 'forelog-diary', extension: 'csv', media_type: 'text/csv' },
@@ -990,9 +1010,12 @@ export function createDiary(ctx: DiaryContext) {
       const t = now();
       // Confident calls are yes/no questions' (the scoring input holds no others).
       const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)).filter(isBinary);
+      const typed = typedQuestions(t);
       return {
         threshold: req.threshold,
         entries: confidentCalls(questions, options, req.threshold, req.include_hits, details),
+        choice_entries: choiceHindsight(typed.choice.map(scoringChoiceQuestion), options, req.threshold, req.include_hits, typed.details(isChoice)),
+        numeric_surprises: numericHindsight(typed.numeric.map(scoringNumericQuestion), options, typed.details(isNumeric)),
         report: computeScoreReport(questions, options),
       };
     },
@@ -1003,6 +1026,7 @@ export function createDiary(ctx: DiaryContext) {
       const options = scoreOptions({ tag: req.tag });
       const t = now();
       const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t)).filter(isBinary);
+      const typed = typedQuestions(t);
       const html = renderBriefing({
         tag: req.tag ?? null,
         generated_at: now(),
@@ -1010,6 +1034,8 @@ export function createDiary(ctx: DiaryContext) {
         report: computeScoreReport(questions, options),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
+        choice_misses: choiceHindsight(typed.choice.map(scoringChoiceQuestion), options, req.threshold, false, typed.details(isChoice)),
+        numeric_surprises: numericHindsight(typed.numeric.map(scoringNumericQuestion), options, typed.details(isNumeric)),
       });
       return { html, title: briefingTitle(req.tag ?? null) };
     },

@@ -136,7 +136,7 @@ test('exported quoting reads back exactly with an independent RFC 4180 reader (P
   const d = await fullDiary();
   const rows = pythonRows((await d.call('exportText', { format: 'csv' })).text);
   assert.deepEqual(rows[0], [...CSV_COLUMNS]);
-  const col = (name: CsvColumn) => CSV_COLUMNS.indexOf(name);
+  const col = (name: CsvColumn) => (CSV_COLUMNS as readonly CsvColumn[]).indexOf(name);
   const tricky = rows.filter((r) => r[col('title')] === 'Tender, "phase 3", won — Zürich office');
   assert.equal(tricky.length, 2, 'one row per revision');
   const [firstRev, secondRev] = tricky as [string[], string[]];
