@@ -13,7 +13,7 @@
  */
 import { z } from 'zod';
 import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
-import { ANY_OUTCOMES } from '../../shared/domain';
+import { ANY_OUTCOMES, OUTCOMES } from '../../shared/domain';
 import {
   entryIssues,
   questionTypeIssues,
@@ -99,6 +99,8 @@ const F = Q.forecasts.element.shape;
 const REF = Q.references.unwrap().element.shape;
 const RES = Q.resolution.unwrap().unwrap().shape;
 const COST = v.costs.shape;
+/** A yes/no question's outcomes, with the message a yes/no row has always had. */
+const YES_NO_OUTCOME = z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' });
 /** Every type's outcomes; which fit the question is checked with its type (checkTypeRules). */
 const ANY_OUTCOME = z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be option or void (choice questions), or value or void (numeric questions)' });
 
@@ -362,7 +364,7 @@ function readQuestionCells(cell: Cell, row: number): Record<QuestionColumn, unkn
     miss_cost: optional('miss_cost', COST.miss, num('miss_cost')),
     checkin_days: optional('checkin_days', Q.checkin_days, num('checkin_days')),
     // A yes/no row keeps the yes/no message; another type's outcome is checked against its type (checkTypeRules).
-    outcome: optional('outcome', ['', 'binary'].includes(cell('type').trim().toLowerCase()) ? RES.outcome : ANY_OUTCOME, (t) => t.toLowerCase()),
+    outcome: optional('outcome', ['', 'binary'].includes(cell('type').trim().toLowerCase()) ? YES_NO_OUTCOME : ANY_OUTCOME, (t) => t.toLowerCase()),
     resolved_at: optional('resolved_at', RES.at),
     resolution_note: text('resolution_note', RES.note),
     ...readTypeCells(cell, row),

@@ -634,7 +634,13 @@ export function createDiary(ctx: DiaryContext) {
     read.exec('BEGIN');
     try {
       const batches = exportBatches(read, EXPORT_BATCH);
-      yield* format === 'csv' ? diaryCsvText(batches) : diaryFileText(settings(), batches);
+      if (format === 'csv') {
+        // The CSV header comes first: it has the type columns only when some question needs them (docs/csv-format.md).
+        const withTypes = read.prepare("SELECT EXISTS (SELECT 1 FROM questions WHERE type <> 'binary')").pluck().get() === 1;
+        yield* diaryCsvText(batches, withTypes);
+      } else {
+        yield* diaryFileText(settings(), batches);
+      }
     } finally {
       read.exec('COMMIT');
     }
@@ -675,7 +681,9 @@ export function createDiary(ctx: DiaryContext) {
    * picking some of them by id (Hindsight's entries show their notes and labels).
    */
   function typedQuestions(t: number) {
-    const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
+    // Only the choice and numeric questions are loaded: a large diary of yes/no questions costs nothing here.
+    const ids = read.prepare("SELECT id FROM questions WHERE type <> 'binary'").pluck().all() as string[];
+    const all = ids.length ? qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)) : [];
     const byId = new Map(all.map((q) => [q.id, q]));
     return {
       choice: all.filter(isChoice),
