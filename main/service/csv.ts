@@ -5,7 +5,10 @@
  * with the JSON schema's own rules, so the schema stays the single home of every field
  * rule. Import is all-or-nothing and every error names the CSV row (the header is row 1,
  * as a spreadsheet numbers them) and the column, because a record index means nothing to
- * someone looking at a spreadsheet.
+ * someone looking at a spreadsheet. Choice and numeric questions have columns of their
+ * own, written only when the diary holds such a question (a diary of yes/no questions
+ * exports as it always did), and checked with the shared type rules
+ * (shared/question-types.ts), the JSON import's own.
  *
  * Both directions stream: export writes a batch of questions at a time, import reads a row
  * at a time and hands each question over at its first row, with the rows that follow as
@@ -492,10 +495,10 @@ const TYPE_WORDS: Record<string, string> = { binary: 'a yes/no question', choice
 
 /** The columns of a revision's or a reference forecast's value, per type, and how a message names the value. */
 const VALUE_COLUMNS = {
-  binary: { forecast: 'p', reference: 'reference_p', word: 'probability', words: 'probability' },
-  choice: { forecast: 'probs', reference: 'reference_probs', word: 'probabilities', words: 'probabilities' },
-  numeric: { forecast: 'quantiles', reference: 'reference_quantiles', word: 'values', words: 'values' },
-} as const satisfies Record<string, { forecast: PointColumn; reference: PointColumn; word: string; words: string }>;
+  binary: { forecast: 'p', reference: 'reference_p', word: 'probability' },
+  choice: { forecast: 'probs', reference: 'reference_probs', word: 'probabilities' },
+  numeric: { forecast: 'quantiles', reference: 'reference_quantiles', word: 'values' },
+} as const satisfies Record<string, { forecast: PointColumn; reference: PointColumn; word: string }>;
 
 /** A revision's or a reference forecast's value cells, read (p, probs, quantiles); undefined when empty. */
 function readEntry(cell: Cell, row: number, shape: TypeShape, columns: { p: PointColumn; probs: PointColumn; quantiles: PointColumn }): EntryFields {
@@ -566,7 +569,7 @@ function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileF
     const columnOf = (f: string) => (`reference_${f}` as CsvColumn);
     checkEntry(shape, entry, row, value.reference, columnOf, () => {
       for (const c of ['reference_at', value.reference, 'reference_source'] as const) {
-        if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a reference forecast needs its time, ${value.words} and source`);
+        if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a reference forecast needs its time, ${value.word} and source`);
       }
     });
     reference = { at: check(REF.at, cell('reference_at').trim(), row, 'reference_at'), ...entry, source: check(REF.source, cell('reference_source'), row, 'reference_source') } as FileReference;
