@@ -13,7 +13,7 @@
  * `computeScorecardDetail`, so the briefing and the Scorecard cannot disagree.
  */
 import { BRIEFING_CSS } from './briefing-style';
-import type { BinaryQuestion } from '../../shared/domain';
+import { isBinary, type BinaryQuestion, type NumericValue, type Question, type ValueKind } from '../../shared/domain';
 import {
   confidentVerdict,
   computeScorecardDetail,
@@ -45,7 +45,7 @@ export interface BriefingInput {
   /** The scorecard for the same tag (`score` with `{ tag }`). */
   report: ScoreReport;
   /** Every question carrying the tag (all when tag is null), resolved and open. */
-  questions: BinaryQuestion[];
+  questions: Question[];
   /**
    * Confident = final forecast ≥ threshold on a No, or ≤ 1 − threshold on a Yes (a miss),
    * and the mirror image for a hit. From 0.5 to 1; INTERFACES.md §2 uses 0.8. At 0.5 a
@@ -481,10 +481,10 @@ const NUMBER_FORMAT = new Intl.NumberFormat(LOCALE, { maximumFractionDigits: 4 }
 const DATE_VALUE_FORMAT = new Intl.DateTimeFormat(LOCALE, { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' });
 
 /** A numeric question's value as the reader sees it: a number with its unit, or a calendar date. */
-function shownValue(e: NumericHindsightEntry, value: number | string): string {
-  if (e.value_kind === 'date') return DATE_VALUE_FORMAT.format(Date.parse(`${String(value)}T00:00:00Z`));
+function shownValue(q: { value_kind: ValueKind; unit: string }, value: NumericValue): string {
+  if (q.value_kind === 'date') return DATE_VALUE_FORMAT.format(Date.parse(`${String(value)}T00:00:00Z`));
   const n = NUMBER_FORMAT.format(value as number);
-  return e.unit ? `${n} ${e.unit}` : n;
+  return q.unit ? `${n} ${q.unit}` : n;
 }
 
 /** How far outside the range, in the question's unit: days for a date. */
@@ -545,6 +545,36 @@ function typedSections(ctx: Context): string {
   return parts.join('\n');
 }
 
+/**
+ * The question's standing number, compact: the latest forecast entered (same time →
+ * entered last) as a percentage, a choice question's top option with its percentage, or
+ * a numeric question's widest range.
+ */
+function lastForecastText(q: Question): string {
+  let last: Question['forecasts'][number] | null = null;
+  let lastAt = -Infinity;
+  for (const f of q.forecasts) {
+    const at = instant(f.at, `question ${q.id} forecast time`);
+    if (last === null || at > lastAt || (at === lastAt && f.seq > last.seq)) {
+      last = f;
+      lastAt = at;
+    }
+  }
+  if (last === null) return '—';
+  if (q.type === 'binary') return wholePercent((last as BinaryQuestion['forecasts'][number]).p);
+  if (q.type === 'choice') {
+    const probs = (last as { probs: number[] }).probs;
+    // The top choice: the highest probability, ties to the option listed first (SCORING.md).
+    let top = 0;
+    for (let k = 1; k < probs.length; k++) if (probs[k]! > probs[top]!) top = k;
+    return `${escapeHtml(q.options[top]!)} ${wholePercent(probs[top]!)}`;
+  }
+  const values = (last as { quantiles: NumericValue[] }).quantiles;
+  if (values.length === 1) return escapeHtml(shownValue(q, values[0]!));
+  const range = `P${Math.round(q.levels[0]! * 100)}–P${Math.round(q.levels[q.levels.length - 1]! * 100)}`;
+  return `${range} ${escapeHtml(shownValue(q, values[0]!))} – ${escapeHtml(shownValue(q, values[values.length - 1]!))}`;
+}
+
 function openQuestions(ctx: Context): string {
   const open = ctx.input.questions
     .filter((q) => q.resolution === null)
@@ -553,18 +583,9 @@ function openQuestions(ctx: Context): string {
   if (open.length === 0) return `<section id="open"><h2>Open questions</h2><p class="muted">No open questions.</p></section>`;
   const rows = open
     .map(({ q, closes }) => {
-      // The latest forecast entered, same time → entered last (the question's standing number).
-      let last: BinaryQuestion['forecasts'][number] | null = null;
-      let lastAt = -Infinity;
-      for (const f of q.forecasts) {
-        const at = instant(f.at, `question ${q.id} forecast time`);
-        if (last === null || at > lastAt || (at === lastAt && f.seq > last.seq)) {
-          last = f;
-          lastAt = at;
-        }
-      }
       const closed = closes <= ctx.input.generated_at ? ' <span class="muted">(closed, awaiting resolution)</span>' : '';
-      return `<tr><td>${escapeHtml(q.title)}</td><td>${escapeHtml(dateFormat(q.time_zone, 'close').format(closes))}${closed}</td><td class="num">${last ? wholePercent(last.p) : '—'}</td><td class="num">${q.base_rate === null ? '—' : wholePercent(q.base_rate)}</td></tr>`;
+      const base = q.type === 'binary' && q.base_rate !== null ? wholePercent(q.base_rate) : '—';
+      return `<tr><td>${escapeHtml(q.title)}</td><td>${escapeHtml(dateFormat(q.time_zone, 'close').format(closes))}${closed}</td><td class="num">${lastForecastText(q)}</td><td class="num">${base}</td></tr>`;
     })
     .join('\n');
   return `<section id="open"><h2>Open questions</h2>
@@ -604,10 +625,12 @@ export function renderBriefing(input: BriefingInput): string {
   }
   const tag = input.tag;
   const questions = tag === null ? input.questions : input.questions.filter((q) => q.tags.includes(tag));
-  const scoring = questions.map(toScoringQuestion);
+  // The scorecard, calibration and confident calls are yes/no questions'; the open table lists every type.
+  const binary = questions.filter(isBinary);
+  const scoring = binary.map(toScoringQuestion);
   // Costs do not enter any figure used here; the engine only requires them to be valid.
   const detail = computeScorecardDetail(scoring, { default_costs: { false_alarm: 1, miss: 1 } });
-  const byId = new Map(questions.map((q) => [q.id, q]));
+  const byId = new Map(binary.map((q) => [q.id, q]));
   const scoringById = new Map(scoring.map((q) => [q.id, q]));
   let withBaseRate = 0;
   let withReference = 0;

@@ -1158,7 +1158,7 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput({});
       const options = scoreOptions({ tag: req.tag });
       const t = now();
-      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t)).filter(isBinary);
+      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
       const typed = typedQuestions(t);
       const html = renderBriefing({
         tag: req.tag ?? null,
