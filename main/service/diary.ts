@@ -4,7 +4,7 @@
  * need the diary's state (does the question exist, is the close still after the opening).
  */
 import { randomUUID } from 'node:crypto';
-import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, UndoableOperation, ValidRequest } from '../../shared/contract';
+import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, ScoreJson, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
 import {
@@ -49,7 +49,17 @@ import {
 } from '../../shared/question-types';
 import { fromStoredValue, toStoredValue } from '../../shared/numeric-value';
 import { beforeOpeningProblem, earlyStateResolutionWarning, futureProblem, isEarlyStateResolution, onClock } from '../../shared/time-rules';
-import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
+import {
+  computeChoiceDetail,
+  computeChoiceReport,
+  computeNumericDetail,
+  computeNumericReport,
+  computeScoreReport,
+  computeScorecardDetail,
+  isStale,
+  type ScoreOptions,
+  type ScoringQuestion,
+} from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import * as v from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
@@ -58,7 +68,7 @@ import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
 import * as undoStore from '../store/undo';
 import { confidentCalls, referenceLeads } from './hindsight';
-import { choiceHindsight, numericHindsight, scoringChoiceQuestion, scoringNumericQuestion } from './hindsight-types';
+import { choiceHindsight, numericHindsight } from './hindsight-types';
 import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
@@ -68,7 +78,7 @@ import { exportBatches, exportedQuestionReader } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
-import { loadScoringQuestions } from './scoring-source';
+import { loadScoringInput, type ScoringInput } from './scoring-source';
 
 export interface DiaryContext {
   store: StoreHandles;
@@ -665,34 +675,32 @@ export function createDiary(ctx: DiaryContext) {
   // The engine's input is re-read only when the diary changed: SQLite's data_version on the
   // read handle moves whenever any other connection (our write handle, or another process)
   // commits. A filter change on the Scorecard then costs the engine's time alone.
-  let scoringCache: { version: number; questions: ScoringQuestion[] } | null = null;
+  let scoringCache: { version: number; input: ScoringInput } | null = null;
 
-  /** The questions as the engine sees them; "what if" costs replace each question's own. */
-  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {
+  /** Every question as the engine sees it, by type, re-read only when the diary changed. */
+  function typedScoringInput(): ScoringInput {
     const version = read.pragma('data_version', { simple: true }) as number;
-    if (scoringCache?.version !== version) scoringCache = { version, questions: loadScoringQuestions(read) };
-    const { questions } = scoringCache;
+    if (scoringCache?.version !== version) scoringCache = { version, input: loadScoringInput(read) };
+    return scoringCache.input;
+  }
+
+  /** The yes/no questions as the engine sees them; "what if" costs replace each question's own. */
+  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {
+    const questions = typedScoringInput().binary;
     const costs = req.costs;
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
   }
 
-  /**
-   * The diary's choice and numeric questions as the service returns them, and `details`
-   * picking some of them by id (Hindsight's entries show their notes and labels).
-   */
-  function typedQuestions(t: number) {
-    // Only the choice and numeric questions are loaded: a large diary of yes/no questions costs nothing here.
-    const ids = read.prepare("SELECT id FROM questions WHERE type <> 'binary'").pluck().all() as string[];
-    const all = ids.length ? qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)) : [];
-    const byId = new Map(all.map((q) => [q.id, q]));
-    return {
-      choice: all.filter(isChoice),
-      numeric: all.filter(isNumeric),
-      details:
-        <Q extends Question>(is: (q: Question) => q is Q) =>
-        (ids: string[]): Q[] =>
-          ids.map((id) => byId.get(id)).filter((q): q is Question => q !== undefined).filter(is),
-    };
+  /** The `score --json` object: the yes/no report with the choice and numeric members (INTERFACES.md §2). */
+  function scoreJson(req: ValidRequest<'score'>): ScoreJson {
+    const options = scoreOptions(req);
+    const { choice, numeric } = typedScoringInput();
+    return { ...computeScoreReport(scoringInput(req), options), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+  }
+
+  /** Some questions of one type by id, as the service returns them (Hindsight's entries show their notes and labels). */
+  function detailsOf<Q extends Question>(is: (q: Question) => q is Q, t: number): (ids: string[]) => Q[] {
+    return (ids) => (ids.length ? qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)).filter(is) : []);
   }
 
   const EXPORT_FILES: Record<ExportFormat, { name: string; extension: string; media_type: string }> = {
@@ -1134,21 +1142,26 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput(req);
       const options = scoreOptions(req);
       const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
-      return { report: computeScoreReport(questions, options), detail, leads: referenceLeads(questions, options) };
+      const { choice, numeric } = typedScoringInput();
+      return {
+        report: scoreJson(req),
+        detail,
+        leads: referenceLeads(questions, options),
+        choice_detail: computeChoiceDetail(choice, options),
+        numeric_detail: computeNumericDetail(numeric, options),
+      };
     },
 
     hindsight: (req) => {
       const questions = scoringInput({});
       const options = scoreOptions(req);
       const t = now();
-      // Confident calls are yes/no questions' (the scoring input holds no others).
-      const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)).filter(isBinary);
-      const typed = typedQuestions(t);
+      const typed = typedScoringInput();
       return {
         threshold: req.threshold,
-        entries: confidentCalls(questions, options, req.threshold, req.include_hits, details),
-        choice_entries: choiceHindsight(typed.choice.map(scoringChoiceQuestion), options, req.threshold, req.include_hits, typed.details(isChoice)),
-        numeric_surprises: numericHindsight(typed.numeric.map(scoringNumericQuestion), options, typed.details(isNumeric)),
+        entries: confidentCalls(questions, options, req.threshold, req.include_hits, detailsOf(isBinary, t)),
+        choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
+        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
         report: computeScoreReport(questions, options),
       };
     },
@@ -1159,7 +1172,7 @@ export function createDiary(ctx: DiaryContext) {
       const options = scoreOptions({ tag: req.tag });
       const t = now();
       const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
-      const typed = typedQuestions(t);
+      const typed = typedScoringInput();
       const html = renderBriefing({
         tag: req.tag ?? null,
         generated_at: now(),
@@ -1167,8 +1180,8 @@ export function createDiary(ctx: DiaryContext) {
         report: computeScoreReport(questions, options),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
-        choice_misses: choiceHindsight(typed.choice.map(scoringChoiceQuestion), options, req.threshold, false, typed.details(isChoice)),
-        numeric_surprises: numericHindsight(typed.numeric.map(scoringNumericQuestion), options, typed.details(isNumeric)),
+        choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)),
+        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
       });
       return { html, title: briefingTitle(req.tag ?? null) };
     },
@@ -1184,7 +1197,7 @@ export function createDiary(ctx: DiaryContext) {
     exportFile,
     importText,
     importFile,
-    scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)),
+    scoreReport: scoreJson,
   };
 }
 

@@ -7,7 +7,7 @@
  */
 import type { ChoiceQuestion, NumericQuestion } from '../../shared/domain';
 import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../shared/hindsight-entries';
-import { fromStoredValue, toStoredValue } from '../../shared/numeric-value';
+import { fromStoredValue } from '../../shared/numeric-value';
 import {
   computeChoiceConfidentCalls,
   computeNumericSurprises,
@@ -107,43 +107,3 @@ export function numericHindsight(
   });
 }
 
-/** A choice question as the scoring engine reads it (times in epoch ms). */
-export function scoringChoiceQuestion(q: ChoiceQuestion): ScoringChoiceQuestion {
-  return {
-    id: q.id,
-    title: q.title,
-    tags: q.tags,
-    closes_at: Date.parse(q.closes_at),
-    resolution:
-      q.resolution === null
-        ? null
-        : q.resolution.outcome === 'option'
-          ? { outcome: 'option', option: q.resolution.option, at: Date.parse(q.resolution.at) }
-          : { outcome: 'void', at: Date.parse(q.resolution.at) },
-    option_count: q.options.length,
-    ordered: q.ordered,
-    option_base_rates: q.option_base_rates,
-    forecasts: q.forecasts.map((f) => ({ at: Date.parse(f.at), probs: f.probs, seq: f.seq })),
-  };
-}
-
-/** A numeric question as the scoring engine reads it: times in epoch ms, dates as days since 1970-01-01. */
-export function scoringNumericQuestion(q: NumericQuestion): ScoringNumericQuestion {
-  const value = (x: number | string) => toStoredValue(x, q.value_kind);
-  return {
-    id: q.id,
-    title: q.title,
-    tags: q.tags,
-    closes_at: Date.parse(q.closes_at),
-    resolution:
-      q.resolution === null
-        ? null
-        : q.resolution.outcome === 'value'
-          ? { outcome: 'value', value: value(q.resolution.value), at: Date.parse(q.resolution.at) }
-          : { outcome: 'void', at: Date.parse(q.resolution.at) },
-    unit: q.unit,
-    value_kind: q.value_kind,
-    levels: q.levels,
-    forecasts: q.forecasts.map((f) => ({ at: Date.parse(f.at), quantiles: f.quantiles.map(value), seq: f.seq })),
-  };
-}

@@ -27,11 +27,8 @@ import os from 'node:os';
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import readline from 'node:readline';
-import { loadScoringQuestions } from '../../main/service/scoring-source';
+import { loadScoringInput, loadScoringQuestions } from '../../main/service/scoring-source';
 import { openDiary } from '../../main/service/index';
-import { scoringChoiceQuestion, scoringNumericQuestion } from '../../main/service/hindsight-types';
-import { loadBundles, toQuestion } from '../../main/store/questions';
-import { isChoice, isNumeric } from '../../shared/domain';
 import { computeChoiceReport, computeNumericReport, computeScoreReport, type ScoreReport } from '../../shared/scoring';
 import { BENCH_TAGS, buildDiaryFile, buildMixedDiaryFile } from './make-diary';
 
@@ -314,10 +311,9 @@ function measureMixed(put: (label: string, value: string) => void): void {
 
     const service = openDiary({ dbPath });
     try {
-      const binary = loadScoringQuestions(service.store.read);
-      const all = loadBundles(service.store.read).map((b) => toQuestion(b, Date.now()));
-      const choice = all.filter(isChoice).map(scoringChoiceQuestion);
-      const numeric = all.filter(isNumeric).map(scoringNumericQuestion);
+      const t0 = performance.now();
+      const { binary, choice, numeric } = loadScoringInput(service.store.read);
+      put('reading the diary for scoring, all three types (in process)', ms(performance.now() - t0));
       const costs = { default_costs: { false_alarm: 1, miss: 1 } };
       const spans: number[] = [];
       const parts = { binary: [] as number[], choice: [] as number[], numeric: [] as number[] };
