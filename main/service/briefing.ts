@@ -487,6 +487,13 @@ function shownValue(q: { value_kind: ValueKind; unit: string }, value: NumericVa
   return q.unit ? `${n} ${q.unit}` : n;
 }
 
+/** A range of a numeric question: "12–21 weeks", or two dates "1 Mar 2026 – 20 Mar 2026". */
+function shownRange(q: { value_kind: ValueKind; unit: string }, low: NumericValue, high: NumericValue): string {
+  if (q.value_kind === 'date') return `${shownValue(q, low)} – ${shownValue(q, high)}`;
+  const span = `${NUMBER_FORMAT.format(low as number)}–${NUMBER_FORMAT.format(high as number)}`;
+  return q.unit ? `${span} ${q.unit}` : span;
+}
+
 /** How far outside the range, in the question's unit: days for a date. */
 function shownDistance(e: NumericHindsightEntry): string {
   const n = NUMBER_FORMAT.format(e.distance);
@@ -504,7 +511,7 @@ function numericEntry(e: NumericHindsightEntry, timeZone: string): string {
   const size = e.size === null ? 'a range of zero width' : `${fixed(e.size, 2)} × the range's width`;
   return `<article class="entry miss">
 <h3>${escapeHtml(e.title)}</h3>
-<p class="verdict"><span class="marker">surprise</span><span class="said">${wholePercent(e.level)} range ${escapeHtml(shownValue(e, e.low))} – ${escapeHtml(shownValue(e, e.high))}</span>; the outcome <span class="outcome">${escapeHtml(shownValue(e, e.value))}</span> was ${escapeHtml(shownDistance(e))} (${escapeHtml(size)})</p>
+<p class="verdict"><span class="marker">surprise</span><span class="said">${wholePercent(e.level)} range ${escapeHtml(shownRange(e, e.low, e.high))}</span>; the outcome <span class="outcome">${escapeHtml(shownValue(e, e.value))}</span> was ${escapeHtml(shownDistance(e))} (${escapeHtml(size)})</p>
 <p class="tags">${e.tags.map(escapeHtml).join(' · ')}</p>
 <p><span class="label">Rule</span><span class="note">${e.rule.trim() ? escapeHtml(e.rule) : '<span class="muted">no rule written</span>'}</span></p>
 <table class="path"><caption>Forecast path: every revision that counts (${escapeHtml(levels)}), with the note written at the time</caption>
@@ -572,7 +579,7 @@ function lastForecastText(q: Question): string {
   const values = (last as { quantiles: NumericValue[] }).quantiles;
   if (values.length === 1) return escapeHtml(shownValue(q, values[0]!));
   const range = `P${Math.round(q.levels[0]! * 100)}–P${Math.round(q.levels[q.levels.length - 1]! * 100)}`;
-  return `${range} ${escapeHtml(shownValue(q, values[0]!))} – ${escapeHtml(shownValue(q, values[values.length - 1]!))}`;
+  return `${range} ${escapeHtml(shownRange(q, values[0]!, values[values.length - 1]!))}`;
 }
 
 function openQuestions(ctx: Context): string {

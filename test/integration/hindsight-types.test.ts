@@ -149,7 +149,7 @@ test('the briefing prints the choice misses and the surprises for its tag, user 
   assert.match(html, /panel chair says &quot;safe pair of hands&quot;/);
   assert.match(html, /<span class="label">Option base rates<\/span>Brackenfold &lt;Systems&gt; 45% · Orrin &amp; Co 35% · Neither 20% — 20 awards/);
   assert.match(html, /<section id="surprises">/);
-  assert.match(html, /80% range 12 weeks – 21 weeks<\/span>; the outcome <span class="outcome">29 weeks<\/span> was 8 weeks above it \(0\.89 × the range's width\)/);
+  assert.match(html, /80% range 12–21 weeks<\/span>; the outcome <span class="outcome">29 weeks<\/span> was 8 weeks above it \(0\.89 × the range&#39;s width\)/);
   assert.doesNotMatch(html, /When will the board sign/, 'client:b is not in this briefing');
   const other = (await d.call('briefing', { tag: 'client:b' })).html;
   assert.match(other, /the outcome <span class="outcome">25 Feb 2026<\/span> was 4 days before it/);
@@ -159,7 +159,7 @@ test('the briefing prints the choice misses and the surprises for its tag, user 
   await d.call('createQuestion', { title: 'Fee income for the half-year', closes_at: '2026-09-30T16:00:00.000Z', tags: ['client:a'], type: 'numeric', unit: '£k', first_forecast: { quantiles: [1350, 1480, 1600] } });
   const openHtml = (await d.call('briefing', { tag: 'client:a' })).html;
   assert.match(openHtml, /<td>Which vendor for fraud scoring\?<\/td><td>[^<]+<\/td><td class="num">Tarnwell 65%<\/td><td class="num">—<\/td>/);
-  assert.match(openHtml, /<td>Fee income for the half-year<\/td><td>[^<]+<\/td><td class="num">P10–P90 1,350 £k – 1,600 £k<\/td>/);
+  assert.match(openHtml, /<td>Fee income for the half-year<\/td><td>[^<]+<\/td><td class="num">P10–P90 1,350–1,600 £k<\/td>/);
   // A briefing of yes/no questions only has neither section.
   const none = (await d.call('briefing', { tag: 'nothing-here' })).html;
   assert.doesNotMatch(none, /id="choice-misses"|id="surprises"/);
