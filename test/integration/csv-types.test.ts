@@ -5,9 +5,12 @@
  * shared type rules (shared/question-types.ts, INTERFACES.md "Question types").
  */
 import assert from 'node:assert/strict';
+import fs from 'node:fs';
+import path from 'node:path';
 import { test } from 'node:test';
 import { CSV_ALL_COLUMNS, CSV_COLUMNS, CSV_HEADER, CsvError, diaryCsvText, readCsvDiary, type CsvColumn } from '../../main/service/csv';
 import type { ExportedQuestion, FileQuestion } from '../../shared/diary-file';
+import { openTestDiary } from '../support/temp-diary';
 
 const HEADER = CSV_ALL_COLUMNS.join(',');
 
@@ -291,4 +294,18 @@ test('export writes the type columns only when asked, and every type reads back 
   assert.deepEqual(n!.forecasts[0], { at: t('2026-05-01T09:05:00.000Z'), quantiles: [1e-7, 0.30000000000000004, 14, 20, 1e21], note: '' });
   assert.deepEqual([n!.unit, n!.levels, n!.resolution], ['£k, net', [0.05, 0.25, 0.5, 0.75, 0.95], { outcome: 'value', value: -0.5, at: t('2026-09-20T10:00:00.000Z'), note: '' }]);
   assert.deepEqual([d!.value_kind, d!.levels, d!.forecasts, d!.references], ['date', [0.1, 0.5, 0.9], [], []]);
+});
+
+test('the choice and numeric example in docs/csv-format.md imports as documented and exports the same rows', async () => {
+  const doc = fs.readFileSync(path.join(import.meta.dirname, '..', '..', 'docs', 'csv-format.md'), 'utf8');
+  const example = [...doc.matchAll(/```csv\n([\s\S]*?)```/g)][1]![1]!;
+  const d = openTestDiary();
+  assert.equal((await d.call('importText', { format: 'csv', text: example })).added, 2);
+  const choice = await d.call('getQuestion', { id: 'q2' });
+  assert.deepEqual([choice.type, choice.options, choice.option_base_rates, choice.forecasts[0].probs], ['choice', ['Brackenfold', 'Orrin', 'Neither'], [0.45, 0.35, 0.2], [0.55, 0.3, 0.15]]);
+  assert.deepEqual([choice.resolution.outcome, choice.resolution.option], ['option', 1]);
+  const numeric = await d.call('getQuestion', { id: 'q3' });
+  assert.deepEqual([numeric.unit, numeric.levels, numeric.forecasts[0].quantiles, numeric.references[0].quantiles], ['weeks', [0.1, 0.5, 0.9], [10, 14, 20], [11, 12, 14]]);
+  // The documentation shows what export writes, line for line (with CRLF line ends).
+  assert.equal((await d.call('exportText', { format: 'csv' })).text, example.replaceAll('\n', '\r\n'));
 });
