@@ -12,6 +12,7 @@ import { MIGRATIONS, SCHEMA_VERSION } from '../../main/store/migrations';
 import { migrate, openStore } from '../../main/store/open';
 import { callOrThrow } from '../../main/service/dispatch';
 import { openDiary } from '../../main/service/index';
+import type { Question } from '../../shared/domain';
 import { exportJson, tempDir } from '../support/temp-diary';
 
 const V4 = MIGRATIONS.filter((m) => m.version <= 4);
@@ -105,7 +106,7 @@ test('a migrated diary reads as before, exports its yes/no questions without a t
   makeV4Diary(file);
   const service = openDiary({ dbPath: file, now: () => 1760000000000, timeZone: 'UTC' });
   try {
-    const q1 = await callOrThrow(service.dispatch, 'getQuestion', { id: 'q1' });
+    const q1 = (await callOrThrow(service.dispatch, 'getQuestion', { id: 'q1' })) as Question;
     assert.equal(q1.type, 'binary');
     assert.deepEqual(
       q1.type === 'binary' ? q1.forecasts.map((f) => [f.id, f.p, f.seq, f.lenses.length]) : null,
@@ -116,13 +117,13 @@ test('a migrated diary reads as before, exports its yes/no questions without a t
     );
     const text = exportJson(service);
     assert.equal(text.includes('"type"'), false, 'a diary of yes/no questions exports as before');
-    const c = await callOrThrow(service.dispatch, 'createQuestion', {
+    const c = (await callOrThrow(service.dispatch, 'createQuestion', {
       type: 'choice',
       title: 'Which supplier?',
       options: ['A', 'B'],
       closes_at: '2030-01-01T00:00:00Z',
       first_forecast: { probs: [0.25, 0.75] },
-    });
+    })) as Question;
     assert.equal(c.type, 'choice');
     // The next revision continues the old counter (5, after the deleted 4).
     assert.equal(c.forecasts[0]!.seq, 5);
