@@ -4,10 +4,16 @@
  * ("Question types"; §2); import is all-or-nothing and a round trip is byte-identical.
  */
 import assert from 'node:assert/strict';
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
 import { test } from 'node:test';
 import ICAL from 'ical.js';
+import { loadScoringInput } from '../../main/service/scoring-source';
 import { ApiError } from '../../shared/contract';
-import { exportJson, openTestDiary, type TestDiary } from '../support/temp-diary';
+import { exportJson, openTestDiary, tempDir, type TestDiary } from '../support/temp-diary';
+
+const ROOT = path.resolve(import.meta.dirname, '..', '..');
 
 const NOW = Date.parse('2026-06-01T12:00:00Z');
 const DAY = 86_400_000;
@@ -225,4 +231,50 @@ test('nudges and the calendar export treat every type alike', async () => {
   assert.match(byTitle.get('Closes: Which venue?') ?? '', /Last forecast: North 50%, South 50%/);
   assert.match(byTitle.get('Closes: When will the board sign?') ?? '', /Last forecast: P25 2026-06-25 · P50 2026-07-05 · P75 2026-07-20 \(set/);
   assert.match(byTitle.get('Closes: Final headcount') ?? '', /Last forecast: P10 40 · P50 50 · P90 60 people/);
+});
+
+test('the command line imports, exports and scores every type (forelog import / export / score --json)', async () => {
+  const d = openTestDiary({ now: iso(NOW) });
+  const ids = await mixedDiary(d);
+  const text = exportJson(d.service);
+  const dir = tempDir();
+  const file = path.join(dir, 'mixed.json');
+  fs.writeFileSync(file, text);
+  const db = path.join(dir, 'cli.sqlite');
+  const run = (...args: string[]) => {
+    const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), ...args], { cwd: ROOT, encoding: 'utf8', env: { ...process.env, TZ: 'UTC' } });
+    assert.equal(r.status, 0, r.stderr);
+    return r.stdout;
+  };
+  run('import', file, '--db', db);
+  assert.equal(run('export', '--db', db), text, 'export → import → export is identical');
+  const score = JSON.parse(run('score', '--json', '--db', db));
+  assert.deepEqual(Object.keys(score).slice(-2), ['choice', 'numeric']);
+  assert.deepEqual([score.scored, score.choice.scored, score.numeric.scored, score.numeric.open], [1, 1, 1, 1]);
+  assert.deepEqual(score.choice.confident_misses.map((m: { id: string }) => m.id), [ids.choice]);
+  assert.deepEqual(score, JSON.parse(JSON.stringify(d.service.diary.scoreReport({}))), 'the same report as the app');
+});
+
+test('the scoring reader loads choice and numeric revisions as the numbers stored, dates as days', async () => {
+  const d = openTestDiary({ now: iso(NOW) });
+  const ids = await mixedDiary(d);
+  const awkward = [0.1 + 0.2, 1 / 3, 1 - (0.1 + 0.2) - 1 / 3];
+  await d.call('addForecast', { question_id: ids.choice, probs: awkward, at: iso(NOW - 15 * DAY) });
+  const input = loadScoringInput(d.service.store.read);
+  assert.deepEqual(input.binary.map((q) => q.id), [ids.yes]);
+  const choice = input.choice.find((q) => q.id === ids.choice)!;
+  assert.deepEqual([choice.option_count, choice.ordered, choice.option_base_rates, choice.resolution], [3, false, [0.45, 0.35, 0.2], { outcome: 'option', option: 2, at: NOW - 10 * DAY }]);
+  assert.deepEqual(
+    choice.forecasts.map((f) => [f.at, [...f.probs]]),
+    [
+      [NOW - 50 * DAY, [0.1, 0.2, 0.7]],
+      [NOW - 20 * DAY, [0.85, 0.1, 0.05]],
+      [NOW - 15 * DAY, awkward],
+    ],
+  );
+  const date = input.numeric.find((q) => q.id === ids.date)!;
+  // 2026-06-20 is day 20624 since 1970-01-01.
+  assert.deepEqual([date.value_kind, date.levels, [...date.forecasts[0]!.quantiles], date.resolution], ['date', [0.25, 0.5, 0.75], [20624, 20635, 20649], null]);
+  const weeks = input.numeric.find((q) => q.id === ids.weeks)!;
+  assert.deepEqual([weeks.unit, weeks.resolution], ['weeks', { outcome: 'value', value: 24.5, at: NOW - 3 * DAY }]);
 });
