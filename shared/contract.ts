@@ -28,9 +28,7 @@ const firstForecast = z.object({
   lenses: v.lenses.optional(),
 });
 
-const { questionFields } = v;
-
-const { typeFields } = v;
+const { questionFields, typeFields } = v;
 
 export const createQuestionRequest = z
   .object({ ...questionFields, ...typeFields, first_forecast: firstForecast.optional() })
@@ -99,22 +97,22 @@ const confirmed = z.boolean({ error: 'must be true or false' });
  */
 export const resolveRequest = z
   .object({
-  id,
-  /** yes, no or void (yes/no questions); option or void (choice); value or void (numeric). */
-  outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
-  /** With outcome option: the 0-based index of the option that came true. */
-  option: v.optionIndex.optional(),
-  /** With outcome value: the value the question took (a number, or a date YYYY-MM-DD). */
-  value: v.numericValue.optional(),
-  at: v.instant.optional(),
-  note: v.note.optional(),
-  /** Why the earlier resolution was wrong; only when correcting. */
-  correction_note: v.note.optional(),
-  /**
-   * The user saw the warning (error code `confirm`) and means it: a question about the
-   * state at its close resolved before that close.
-   */
-  confirm: confirmed.optional(),
+    id,
+    /** yes, no or void (yes/no questions); option or void (choice); value or void (numeric). */
+    outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
+    /** With outcome option: the 0-based index of the option that came true. */
+    option: v.optionIndex.optional(),
+    /** With outcome value: the value the question took (a number, or a date YYYY-MM-DD). */
+    value: v.numericValue.optional(),
+    at: v.instant.optional(),
+    note: v.note.optional(),
+    /** Why the earlier resolution was wrong; only when correcting. */
+    correction_note: v.note.optional(),
+    /**
+     * The user saw the warning (error code `confirm`) and means it: a question about the
+     * state at its close resolved before that close.
+     */
+    confirm: confirmed.optional(),
   })
   // Which outcomes fit is the question's business (the service checks its type); here: option and value go with their outcomes.
   .superRefine((r, ctx) => v.addIssues(ctx, resolutionPairingIssues(r)));

@@ -109,10 +109,13 @@ test('choice and numeric questions come back exactly as given, with their defaul
   assert.deepEqual(stored, [20635, 20644, 20654, 20666, 20726]);
 
   const list = await d.call('listQuestions', {});
-  const byId = new Map(list.questions.map((q: { id: string }) => [q.id, q]));
+  const byId = new Map<string, Record<string, unknown>>(list.questions.map((q: Record<string, unknown>) => [q.id as string, q]));
   assert.deepEqual(byId.get(c.id), { ...byId.get(c.id), type: 'choice', options: c.options, last_probs: [0.1, 0.2, 0.7], last_p: null, levels: null });
   assert.deepEqual(byId.get(n.id), { ...byId.get(n.id), type: 'numeric', unit: 'weeks', value_kind: 'number', levels: [0.1, 0.5, 0.9], last_quantiles: awkward, forecast_count: 2 });
   assert.deepEqual((byId.get(date.id) as { last_quantiles: unknown }).last_quantiles, date.forecasts[0]!.quantiles);
+  // Search finds a choice question by one of its options too.
+  const found = await d.call('listQuestions', { text: 'ambleDENE' });
+  assert.deepEqual(found.questions.map((q: { id: string }) => q.id), [c.id]);
 });
 
 test('a choice vector must sum to 100 % within 1e-6: the one-ulp neighbours of both edges', async () => {
@@ -271,10 +274,11 @@ test('time checks hold for every type: revisions before the opening or in the fu
   const d = openTestDiary();
   const c = await choiceQuestion(d, { first_forecast: undefined });
   const n = await numericQuestion(d, { first_forecast: undefined });
-  for (const [id, value] of [
+  const values: [string, { probs?: number[]; quantiles?: number[] }][] = [
     [c.id, { probs: [0.2, 0.3, 0.5] }],
     [n.id, { quantiles: [1, 2, 3] }],
-  ] as const) {
+  ];
+  for (const [id, value] of values) {
     const early = await refusal(d.call('addForecast', { question_id: id, ...value, at: iso(NOW - 31 * DAY) }));
     assert.match(early.fields[0]!, /^at: must not be before the question opened/);
     const future = await refusal(d.call('addForecast', { question_id: id, ...value, at: iso(NOW + DAY) }));
@@ -300,9 +304,9 @@ test('editing a revision and a reference, deleting a question, and undoing each,
   const start = dump(d);
   const withRef = await d.call('addReference', { question_id: c.id, probs: [0.6, 0.3, 0.1], source: 'client', at: iso(NOW - 40 * DAY) });
   assert.deepEqual(withRef.references.map((r: { probs: number[] }) => r.probs), [[0.6, 0.3, 0.1]]);
-  const edited: ChoiceQuestion = await d.call('updateForecast', { id: c.forecasts[0]!.id, probs: [0.25, 0.25, 0.5], note: 'rethought' });
+  const edited: ChoiceQuestion & { undo: string } = await d.call('updateForecast', { id: c.forecasts[0]!.id, probs: [0.25, 0.25, 0.5], note: 'rethought' });
   assert.deepEqual([edited.forecasts[0]!.probs, edited.forecasts[0]!.note], [[0.25, 0.25, 0.5], 'rethought']);
-  const noteOnly: NumericQuestion = await d.call('updateForecast', { id: n.forecasts[0]!.id, note: 'same range' });
+  const noteOnly: NumericQuestion & { undo: string } = await d.call('updateForecast', { id: n.forecasts[0]!.id, note: 'same range' });
   assert.deepEqual(noteOnly.forecasts[0]!.quantiles, [9, 13, 20], 'a value left out stays');
   const deleted = await d.call('deleteQuestion', { id: n.id });
   await d.call('undo', { token: deleted.undo });
