@@ -309,3 +309,24 @@ test('the choice and numeric example in docs/csv-format.md imports as documented
   // The documentation shows what export writes, line for line (with CRLF line ends).
   assert.equal((await d.call('exportText', { format: 'csv' })).text, example.replaceAll('\n', '\r\n'));
 });
+
+test('the example diary through CSV: merge skips every unchanged question of every type; a bad choice row imports nothing', async () => {
+  const d = openTestDiary();
+  await d.call('loadDemo', {});
+  const csv = (await d.call('exportText', { format: 'csv' })).text as string;
+  const before = (await d.call('exportDiary', {})) as { questions: { type?: string }[] };
+  assert.ok(before.questions.some((q) => q.type === 'choice') && before.questions.some((q) => q.type === 'numeric'));
+  assert.deepEqual(await d.call('importText', { format: 'csv', text: csv, merge: true }), { added: 0, skipped: before.questions.length });
+
+  // One choice revision that does not sum to 100 %, in the middle of the file: nothing is imported.
+  const fresh = openTestDiary();
+  const lines = csv.split('\r\n');
+  const at = lines.findIndex((l) => l.includes(',0.85 0.12 0.03,'));
+  assert.ok(at > 1, 'the example diary has the Wendlebrook revision at 85 %');
+  lines[at] = lines[at]!.replace(',0.85 0.12 0.03,', ',0.85 0.12 0.02,');
+  await assert.rejects(fresh.call('importText', { format: 'csv', text: lines.join('\r\n') }), (err: Error) => {
+    assert.equal(err.message, `Row ${at + 1}, column probs: must sum to 100 %, they sum to 99 %. Nothing was imported.`);
+    return true;
+  });
+  assert.equal((await fresh.call('listQuestions', {})).questions.length, 0);
+});
