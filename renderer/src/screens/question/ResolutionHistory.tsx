@@ -3,7 +3,7 @@
  * the question reopened (docs/api.md, "Correcting a resolution, reopening"), oldest first,
  * with when it changed and why. Shown only once there is something to show.
  */
-import type { Question, ResolutionChangeKind } from '../../../../shared/domain';
+import type { BinaryQuestion, ResolutionChangeKind } from '../../../../shared/domain';
 import { OutcomeIcon } from '../../components/OutcomeMark';
 import { OUTCOME_LABELS } from '../../components/StatusPill';
 import { formatInstant } from '../../dates';
@@ -14,7 +14,7 @@ const CHANGE_LABELS: Record<ResolutionChangeKind, string> = {
   reopened: 'Reopened',
 };
 
-export function ResolutionHistory({ question }: { question: Question }) {
+export function ResolutionHistory({ question }: { question: BinaryQuestion }) {
   const history = question.resolution_history;
   if (history.length === 0) return null;
   const zone = question.time_zone;
