@@ -20,14 +20,14 @@ test('the live total adds the filled boxes and lists the blank and the unreadabl
   assert.deepEqual(choiceTotal(['50', '', '30']), { sum: 0.8, blanks: [1], invalid: [], complete: false });
   assert.deepEqual(choiceTotal(['50', 'abc', '150']).invalid, [1, 2]);
   assert.equal(choiceTotal(['10', '20', '70']).complete, true, '0.1 + 0.2 + 0.7 is 1 within 1e-6, not exactly 1');
-  assert.equal(totalText(choiceTotal(['33.333', '33.333', '']).sum), '66.67 %');
+  assert.equal(totalText(choiceTotal(['33.333', '33.333', '']).sum), '66.67%');
 });
 
 test('a choice forecast must add to 100 %: the edge is 1e-6 either side, as the contract has it', () => {
   assert.deepEqual(readChoiceForecast(['50', '30', '20']), { ok: true, value: [0.5, 0.3, 0.2] });
   const short = readChoiceForecast(['50', '30', '10']);
   assert.equal(short.ok, false);
-  assert.equal(!short.ok && short.error, 'The chances must add to 100 %; they add to 90 %.');
+  assert.equal(!short.ok && short.error, 'The chances must add to 100%; they add to 90%.');
   // 1e-6 of a probability is 0.0001 of a percent; the edge itself is not a binary number
   // (0.499999 + 0.5 misses 1 − 1e-6 by rounding), so: 0.00009 % off is accepted, 0.00011 % refused.
   assert.equal(readChoiceForecast(['49.99991', '50']).ok, true);
@@ -62,7 +62,7 @@ test('spreading refuses with a reason: no blank box, a bad box, already over 100
   assert.deepEqual(spreadRest(['x', '']), { ok: false, reason: 'Fix option 1 first: must be a number of percent, e.g. 35.' });
   assert.deepEqual(spreadRest(['70', '40', '']), {
     ok: false,
-    reason: 'The filled options already add to 110 %; lower some so they add to at most 100 %.',
+    reason: 'The filled options already add to 110%; lower some so they add to at most 100%.',
   });
 });
 

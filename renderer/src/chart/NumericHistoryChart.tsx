@@ -63,19 +63,20 @@ export function numericLegend(input: NumericHistoryInput): LegendItem[] {
   const sources = [...new Set(input.references.map((r) => r.source))];
   const m = input.levels.length;
   return [
-    ...(m > 1 ? [{ label: `Your ${rangeName(input.levels)} range`, color: '--chart-band', dash: DOTTED, marker: 'none', lineWidth: 1 } satisfies LegendItem] : []),
-    ...(m >= 5 ? [{ label: `Your ${levelName(input.levels[1]!)}–${levelName(input.levels[m - 2]!)} range`, color: '--chart-band', dash: [], marker: 'none', lineWidth: 6 } satisfies LegendItem] : []),
+    ...(m > 1 ? [{ label: `Your ${rangeName(input.levels)} range`, color: '--chart-band-outer', dash: [], marker: 'none', lineWidth: 10 } satisfies LegendItem] : []),
+    ...(m >= 5 ? [{ label: `Your ${levelName(input.levels[1]!)}–${levelName(input.levels[m - 2]!)} range`, color: '--chart-band-inner', dash: [], marker: 'none', lineWidth: 10 } satisfies LegendItem] : []),
     { label: 'Your median', color: '--chart-own', dash: [], marker: 'circle', lineWidth: 2.5 },
     ...sources.map<LegendItem>((source, i) => ({ label: `Reference: ${source}`, color: '--chart-reference', dash: null, marker: REFERENCE_MARKERS[i % REFERENCE_MARKERS.length] ?? 'rectRot' })),
     ...(input.value !== null ? [{ label: `Outcome: ${formatValue(input.value, input.value_kind, input.unit)}`, color: '--color-success', dash: [10, 4], marker: 'none', lineWidth: 2 } satisfies LegendItem] : []),
   ];
 }
 
-/** Each reference's range as a capped vertical whisker behind its marker. */
+/** Each reference's range as a capped vertical whisker through its marker. */
 function whiskers(series: NumericSeries, color: string): Plugin<'line'> {
   return {
     id: 'forelogReferenceWhiskers',
-    beforeDatasetsDraw(chart) {
+    // After the datasets, so the range bands do not hide the whiskers.
+    afterDatasetsDraw(chart) {
       const { ctx, scales } = chart;
       const x = scales.x;
       const y = scales.y;
@@ -115,16 +116,17 @@ export function NumericHistoryChart({ input, timeZone }: { input: NumericHistory
     const series = numericSeries(input, Date.now());
     const band = cssColor('--chart-band');
     const show = (v: number) => formatValue(v, input.value_kind, input.unit);
-    const edge = { borderColor: withAlpha(band, 0.6), borderWidth: 1, borderDash: DOTTED, pointRadius: 0, pointHoverRadius: 3, stepped: 'before' as const };
+    // Chart.js draws a higher `order` first: the bands lie under the median, the references and the outcome.
+    const edge = { borderColor: withAlpha(band, 0.6), borderWidth: 1, borderDash: DOTTED, pointRadius: 0, pointHoverRadius: 3, stepped: 'before' as const, order: 10 };
     const datasets: ChartDataset<'line', TimeXY[]>[] = [];
     const m = input.levels.length;
     if (series.low.length) {
       datasets.push({ ...edge, label: levelName(input.levels[0]!), data: series.low, fill: false });
-      datasets.push({ ...edge, label: levelName(input.levels[m - 1]!), data: series.high, fill: '-1', backgroundColor: withAlpha(band, 0.16) });
+      datasets.push({ ...edge, label: levelName(input.levels[m - 1]!), data: series.high, fill: '-1', backgroundColor: withAlpha(cssColor('--chart-band-outer'), 0.75) });
     }
     if (series.innerLow.length) {
       datasets.push({ ...edge, label: levelName(input.levels[1]!), data: series.innerLow, fill: false });
-      datasets.push({ ...edge, label: levelName(input.levels[m - 2]!), data: series.innerHigh, fill: '-1', backgroundColor: withAlpha(band, 0.22) });
+      datasets.push({ ...edge, label: levelName(input.levels[m - 2]!), data: series.innerHigh, fill: '-1', backgroundColor: withAlpha(cssColor('--chart-band-inner'), 0.75) });
     }
     const medianItem = legend.find((item) => item.label === 'Your median')!;
     datasets.push({
@@ -170,8 +172,8 @@ export function NumericHistoryChart({ input, timeZone }: { input: NumericHistory
           x: timeScale(series.axis, timeZone, colors),
           y: {
             type: 'linear',
-            min: series.yMin,
-            max: series.yMax,
+            suggestedMin: series.yMin,
+            suggestedMax: series.yMax,
             ticks: {
               color: colors.text,
               // A date axis ticks on whole days.

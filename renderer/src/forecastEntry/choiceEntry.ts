@@ -33,9 +33,9 @@ export function choiceTotal(texts: readonly string[]): ChoiceTotal {
   return { sum, blanks, invalid, complete: blanks.length === 0 && invalid.length === 0 && sumsToOne(sum) };
 }
 
-/** A share of 100 % as people read it: up to two decimals, no trailing zeros ("33.33 %", "90 %"). */
+/** A share of 100% as people read it: up to two decimals, no trailing zeros ("33.33%", "90%"). */
 export function totalText(sum: number): string {
-  return `${Number((sum * 100).toFixed(2))} %`;
+  return `${Number((sum * 100).toFixed(2))}%`;
 }
 
 /** Decimal places typed in a percent box ("12.5" → 1, "40" → 0, "1e-3" → 3). */
@@ -73,7 +73,7 @@ export function spreadRest(texts: readonly string[]): SpreadResult {
     if (!total.blanks.includes(k)) filledUnits += Math.round(Number(text.trim()) * unit);
   });
   const left = 100 * unit - filledUnits;
-  if (left < 0) return { ok: false, reason: `The filled options already add to ${totalText(total.sum)}; lower some so they add to at most 100 %.` };
+  if (left < 0) return { ok: false, reason: `The filled options already add to ${totalText(total.sum)}; lower some so they add to at most 100%.` };
   const count = total.blanks.length;
   const each = Math.floor(left / count);
   const extra = left - each * count;
@@ -125,7 +125,7 @@ export function readChoiceForecast(texts: readonly string[]): Parsed<number[]> &
   let sum = 0;
   for (const p of probs) sum += p;
   if (!sumsToOne(sum)) {
-    const total = `The chances must add to 100 %; they add to ${totalText(sum)}.`;
+    const total = `The chances must add to 100%; they add to ${totalText(sum)}.`;
     return { ok: false, error: total, problems: { options, total } };
   }
   return { ok: true, value: probs };

@@ -30,7 +30,8 @@ export function levelsHint(levels: readonly number[], unit: string): string {
   const inUnit = unit ? ` in ${unit}` : '';
   if (low === undefined || high === undefined || low === high) return `Your median${inUnit}: as likely above as below.`;
   const width = Math.round((high - low) * 100);
-  return `${levelName(low)}: only a ${Math.round(low * 100)} % chance the outcome is lower; ${levelName(high)}: only a ${Math.round((1 - high) * 100)} % chance it is higher. Together a ${width} % range${inUnit}.`;
+  const article = width === 80 || width === 8 || width === 18 ? 'an' : 'a';
+  return `${levelName(low)}: only a ${Math.round(low * 100)}% chance the outcome is lower; ${levelName(high)}: only a ${Math.round((1 - high) * 100)}% chance it is higher. Together ${article} ${width}% range${inUnit}.`;
 }
 
 /** "YYYY-MM-DD" → whole days since 1970-01-01 (UTC calendar), or null when not a real date. */

@@ -73,7 +73,8 @@ export function choiceSkillSentence(key: keyof ChoiceSkillScores, value: number 
 /** "Revising helped: your final ranges scored 0.80 times your first ones (12 questions)." */
 export function revisingSentence(ratio: number | null, n: number): string {
   if (ratio === null) return `No question here has both a first and a final range with a score above 0 (${questions(n)} scored).`;
-  const verdict = ratio < 1 ? 'Revising helped' : ratio > 1 ? 'Revising hurt' : 'Revising changed nothing';
+  // Two decimals are shown, so a ratio that rounds to 1.00 reads as no change.
+  const verdict = ratio < 0.995 ? 'Revising helped' : ratio >= 1.005 ? 'Revising hurt' : 'Revising made little difference';
   return `${verdict}: your final ranges scored ${score2(ratio)} times your first ones (geometric mean over questions where both score above 0; ${questions(n)} scored).`;
 }
 
