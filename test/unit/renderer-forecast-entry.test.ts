@@ -2,7 +2,8 @@
  * How a choice or numeric forecast is typed (renderer/src/forecastEntry): the live total
  * and its edge at 100 % ± 1e-6 (the contract's tolerance, shared/choice-vector.ts), spreading
  * the rest over blank options, and refusing a numeric set that decreases with the level
- * with a message that names the two levels.
+ * with a message that names the two levels; a question's options and levels as typed; the
+ * few words lists show for a choice or numeric forecast.
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
@@ -15,6 +16,9 @@ import {
   readNumericForecast,
   readValue,
 } from '../../renderer/src/forecastEntry/numericEntry';
+import { LEVEL_PRESETS, levelsText, readOptionBaseRates, readOptions } from '../../renderer/src/questionTypes/definition';
+import { choiceSummary, numericSummary } from '../../renderer/src/questionTypes/summaries';
+import { quantileLevelsProblem } from '../../shared/quantile-levels';
 
 test('the live total adds the filled boxes and lists the blank and the unreadable ones', () => {
   assert.deepEqual(choiceTotal(['50', '', '30']), { sum: 0.8, blanks: [1], invalid: [], complete: false });
@@ -99,4 +103,32 @@ test('a date question reads calendar days and says "before" for a decreasing set
   });
   const back = readNumericForecast(['2026-03-31', '2026-03-30', '2026-05-01'], levels, 'date', '');
   assert.equal(!back.ok && back.error, 'P50 (2026-03-30) is before P10 (2026-03-31); each value must be at least the one before it.');
+});
+
+test('a choice question needs 2 to 12 distinct, non-empty options', () => {
+  assert.deepEqual(readOptions([' Kestrowe ', 'Ambledene', 'Neither']), { ok: true, value: ['Kestrowe', 'Ambledene', 'Neither'] });
+  const repeat = readOptions(['Kestrowe', 'Ambledene', 'Kestrowe ']);
+  assert.equal(!repeat.ok && repeat.error, 'Option 3: repeats option 1; each option must differ.');
+  const empty = readOptions(['Kestrowe', ' ']);
+  assert.equal(!empty.ok && empty.error, 'Option 2: write the option, or remove it.');
+  assert.equal(readOptions(['Only']).ok, false);
+  assert.equal(readOptions(Array.from({ length: 12 }, (_, k) => `o${k}`)).ok, true);
+  const thirteen = readOptions(Array.from({ length: 13 }, (_, k) => `o${k}`));
+  assert.equal(!thirteen.ok && thirteen.error, 'A choice question has 2 to 12 options; this one has 13.');
+  assert.deepEqual(readOptionBaseRates(['', '', '']), { ok: true, value: null });
+  assert.equal(readOptionBaseRates(['50', '', '']).ok, false, 'base rates are all given or none');
+});
+
+test('every level set offered is one the diary accepts', () => {
+  for (const preset of LEVEL_PRESETS) assert.equal(quantileLevelsProblem(preset.levels), null, preset.value);
+  assert.equal(levelsText([0.1, 0.5, 0.9]), 'P10 / P50 / P90 (an 80% range)');
+  assert.equal(levelsText([0.5]), 'P50 (the median only)');
+});
+
+test('a choice or numeric forecast in a few words for lists', () => {
+  assert.equal(choiceSummary(['Kestrowe', 'Ambledene', 'Neither'], [0.3, 0.6, 0.1]), 'Ambledene 60%');
+  assert.equal(choiceSummary(['A', 'B'], [0.5, 0.5]), 'A 50%', 'a tie goes to the first option');
+  assert.equal(numericSummary([0.1, 0.5, 0.9], [9, 13, 20], 'number', 'weeks'), '13 weeks (9 – 20)');
+  assert.equal(numericSummary([0.5], [13], 'number', ''), '13');
+  assert.equal(numericSummary([0.1, 0.5, 0.9], [20513, 20543, 20574], 'date', ''), '2026-03-31 (2026-03-01 – 2026-05-01)');
 });
