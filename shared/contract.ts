@@ -6,14 +6,31 @@
  */
 import { z } from 'zod';
 import type { DueNudge, NudgeKind, Question, QuestionSummary, Settings, SnoozedNudge } from './domain';
-import { NUDGE_KINDS, OUTCOMES, QUESTION_STATUSES } from './domain';
+import { ANY_OUTCOMES, NUDGE_KINDS, QUESTION_STATUSES } from './domain';
+import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf, type TypeIssue } from './question-types';
 import type { ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
 
 const id = v.id('must be an id');
 
+/** Reports type-rule issues (shared/question-types.ts) on a zod refinement, under `prefix`. */
+function addTypeIssues(ctx: z.RefinementCtx, issues: TypeIssue[], prefix: (string | number)[] = []): void {
+  for (const issue of issues) ctx.addIssue({ code: 'custom', message: issue.message, path: [...prefix, ...issue.path] });
+}
+
+/**
+ * A forecast's value: `p` for a yes/no question, `probs` (one probability per option,
+ * summing to 100 % within 1e-6) for a choice question, `quantiles` (one value per level,
+ * non-decreasing; dates as YYYY-MM-DD) for a numeric question. Lenses: yes/no only.
+ */
+const forecastValue = {
+  p: v.probability.optional(),
+  probs: v.probs.optional(),
+  quantiles: v.quantiles.optional(),
+};
+
 const firstForecast = z.object({
-  p: v.probability,
+  ...forecastValue,
   note: v.note.optional(),
   at: v.instant.optional(),
   lenses: v.lenses.optional(),
@@ -21,10 +38,37 @@ const firstForecast = z.object({
 
 const { questionFields } = v;
 
-export const createQuestionRequest = z
-  .object({ ...questionFields, first_forecast: firstForecast.optional() })
-  .refine(...v.closesAfterOpens);
+/**
+ * The type's own fields: `type` (binary when absent; fixed at creation); a choice
+ * question's `options` (required), `ordered` and `option_base_rates`; a numeric
+ * question's `unit` (default ''), `value_kind` (default number) and `levels` (default
+ * [0.1, 0.5, 0.9]). `base_rate` and `costs` are yes/no only.
+ */
+const typeFields = {
+  type: v.questionType.optional(),
+  options: v.options.optional(),
+  ordered: v.ordered.optional(),
+  option_base_rates: v.probs.nullable().optional(),
+  unit: v.unit.optional(),
+  value_kind: v.valueKind.optional(),
+  levels: v.levels.optional(),
+};
 
+export const createQuestionRequest = z
+  .object({ ...questionFields, ...typeFields, first_forecast: firstForecast.optional() })
+  .refine(...v.closesAfterOpens)
+  .superRefine((r, ctx) => {
+    const issues = questionTypeIssues(r);
+    addTypeIssues(ctx, issues);
+    if (issues.length === 0 && r.first_forecast) addTypeIssues(ctx, entryIssues(shapeOf(r), r.first_forecast), ['first_forecast']);
+  });
+
+/**
+ * Changes to a question. Its type, a numeric question's `value_kind` and `levels` and the
+ * number of a choice question's options are fixed at creation (the revisions depend on
+ * them): giving them unchanged is fine, changing them is refused by the service with a
+ * message naming the field. Options may be relabelled.
+ */
 export const updateQuestionRequest = z.object({
   id,
   changes: z
@@ -40,13 +84,15 @@ export const updateQuestionRequest = z.object({
       base_rate_note: questionFields.base_rate_note,
       costs: questionFields.costs,
       checkin_days: questionFields.checkin_days,
+      ...typeFields,
     })
     .strict(),
 });
 
+/** A new revision: the value its question's type takes (see `forecastValue`); the service checks it against the question. */
 export const forecastRequest = z.object({
   question_id: id,
-  p: v.probability,
+  ...forecastValue,
   note: v.note.optional(),
   at: v.instant.optional(),
   lenses: v.lenses.optional(),
@@ -54,7 +100,7 @@ export const forecastRequest = z.object({
 
 export const updateForecastRequest = z.object({
   id,
-  p: v.probability.optional(),
+  ...forecastValue,
   note: v.note.optional(),
   at: v.instant.optional(),
   lenses: v.lenses.optional(),
@@ -62,7 +108,7 @@ export const updateForecastRequest = z.object({
 
 export const referenceRequest = z.object({
   question_id: id,
-  p: v.probability,
+  ...forecastValue,
   source: v.source,
   at: v.instant.optional(),
 });
@@ -73,19 +119,27 @@ const confirmed = z.boolean({ error: 'must be true or false' });
  * Resolving a resolved question again is a correction: the resolution it replaces is kept
  * in the question's `resolution_history`, with `correction_note` as the reason.
  */
-export const resolveRequest = z.object({
+export const resolveRequest = z
+  .object({
   id,
-  outcome: z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' }),
+  /** yes, no or void (yes/no questions); option or void (choice); value or void (numeric). */
+  outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
+  /** With outcome option: the 0-based index of the option that came true. */
+  option: v.optionIndex.optional(),
+  /** With outcome value: the value the question took (a number, or a date YYYY-MM-DD). */
+  value: v.numericValue.optional(),
   at: v.instant.optional(),
   note: v.note.optional(),
   /** Why the earlier resolution was wrong; only when correcting. */
   correction_note: v.note.optional(),
   /**
    * The user saw the warning (error code `confirm`) and means it: a question about the
-   * state at its close resolved Yes or No before that close.
+   * state at its close resolved before that close.
    */
   confirm: confirmed.optional(),
-});
+  })
+  // Which outcomes fit is the question's business (the service checks its type); here: option and value go with their outcomes.
+  .superRefine((r, ctx) => addTypeIssues(ctx, resolutionPairingIssues(r)));
 
 /** Reopening keeps the resolution it removes in the history, with `note` as the reason. */
 export const reopenRequest = z.object({ id, note: v.note.optional() });

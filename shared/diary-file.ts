@@ -10,7 +10,17 @@
  * times as epoch milliseconds, parsed once.
  */
 import { z } from 'zod';
-import { OUTCOMES, RESOLUTION_CHANGE_KINDS, type Forecast, type Question, type ReferenceForecast, type Settings } from './domain';
+import {
+  OUTCOMES,
+  RESOLUTION_CHANGE_KINDS,
+  type AnyResolution,
+  type BinaryQuestion,
+  type ChoiceQuestion,
+  type NumericQuestion,
+  type Question,
+  type ResolutionChange,
+  type Settings,
+} from './domain';
 import { JsonStreamError, readObjectStream } from './json-stream';
 import * as v from './validation';
 
@@ -229,16 +239,34 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   if (!seen.questions) throw questionsNotAList();
 }
 
-/** What the export writes of a question: the question without its internal ids and stamps. */
-export type ExportedQuestion = Omit<Question, 'forecasts' | 'references' | 'snoozes' | 'created_at' | 'updated_at'> & {
-  forecasts: Omit<Forecast, 'id' | 'seq'>[];
-  references: Omit<ReferenceForecast, 'id'>[];
+/** What the export writes of a question of one type: the question without its internal ids and stamps. */
+type Exported<Q extends Question> = Omit<Q, 'forecasts' | 'references' | 'snoozes' | 'created_at' | 'updated_at'> & {
+  forecasts: Omit<Q['forecasts'][number], 'id' | 'seq'>[];
+  references: Omit<Q['references'][number], 'id'>[];
 };
 
-/** The export shape of one question; optional fields are written only when set. */
+/** What the export writes of a question, of any type. */
+export type ExportedQuestion = Exported<BinaryQuestion> | Exported<ChoiceQuestion> | Exported<NumericQuestion>;
+
+/** A resolution as the file writes it: the outcome, a choice question's option or a numeric question's value, then when and the note. */
+function fileResolutionOf(r: AnyResolution): Record<string, unknown> {
+  const out: Record<string, unknown> = { outcome: r.outcome };
+  if (r.outcome === 'option') out.option = r.option;
+  if (r.outcome === 'value') out.value = r.value;
+  out.at = r.at;
+  out.note = r.note;
+  return out;
+}
+
+/**
+ * The export shape of one question; optional fields are written only when set. A yes/no
+ * question is written exactly as before question types existed (no `type` field), so a
+ * diary of yes/no questions exports byte for byte as it did.
+ */
 export function toFileQuestion(q: ExportedQuestion): Record<string, unknown> {
-  const out: Record<string, unknown> = {
-    id: q.id,
+  const out: Record<string, unknown> = { id: q.id };
+  if (q.type !== 'binary') out.type = q.type;
+  Object.assign(out, {
     title: q.title,
     rule: q.rule,
     kind: q.kind,
@@ -246,24 +274,40 @@ export function toFileQuestion(q: ExportedQuestion): Record<string, unknown> {
     opened_at: q.opened_at,
     closes_at: q.closes_at,
     time_zone: q.time_zone,
-  };
-  if (q.base_rate !== null) out.base_rate = q.base_rate;
-  if (q.base_rate_note) out.base_rate_note = q.base_rate_note;
-  if (q.costs) out.costs = { false_alarm: q.costs.false_alarm, miss: q.costs.miss };
-  if (q.checkin_days !== null) out.checkin_days = q.checkin_days;
-  out.forecasts = q.forecasts.map((f) => {
-    const item: Record<string, unknown> = { at: f.at, p: f.p, note: f.note };
-    if (f.lenses.length) item.lenses = f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight }));
-    return item;
   });
-  out.references = q.references.map((r) => ({ at: r.at, p: r.p, source: r.source }));
-  out.resolution = q.resolution ? { outcome: q.resolution.outcome, at: q.resolution.at, note: q.resolution.note } : null;
+  if (q.type === 'binary' && q.base_rate !== null) out.base_rate = q.base_rate;
+  if (q.type === 'choice') {
+    out.options = q.options;
+    out.ordered = q.ordered;
+    if (q.option_base_rates) out.option_base_rates = q.option_base_rates;
+  }
+  if (q.type === 'numeric') {
+    out.unit = q.unit;
+    out.value_kind = q.value_kind;
+    out.levels = q.levels;
+  }
+  if (q.base_rate_note) out.base_rate_note = q.base_rate_note;
+  if (q.type === 'binary' && q.costs) out.costs = { false_alarm: q.costs.false_alarm, miss: q.costs.miss };
+  if (q.checkin_days !== null) out.checkin_days = q.checkin_days;
+  if (q.type === 'binary') {
+    out.forecasts = q.forecasts.map((f) => {
+      const item: Record<string, unknown> = { at: f.at, p: f.p, note: f.note };
+      if (f.lenses.length) item.lenses = f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight }));
+      return item;
+    });
+    out.references = q.references.map((r) => ({ at: r.at, p: r.p, source: r.source }));
+  } else if (q.type === 'choice') {
+    out.forecasts = q.forecasts.map((f) => ({ at: f.at, probs: f.probs, note: f.note }));
+    out.references = q.references.map((r) => ({ at: r.at, probs: r.probs, source: r.source }));
+  } else {
+    out.forecasts = q.forecasts.map((f) => ({ at: f.at, quantiles: f.quantiles, note: f.note }));
+    out.references = q.references.map((r) => ({ at: r.at, quantiles: r.quantiles, source: r.source }));
+  }
+  out.resolution = q.resolution ? fileResolutionOf(q.resolution) : null;
   // Only when there is one: a file of questions never corrected reads as before.
   if (q.resolution_history.length) {
-    out.resolution_history = q.resolution_history.map((h) => ({
-      outcome: h.outcome,
-      at: h.at,
-      note: h.note,
+    out.resolution_history = q.resolution_history.map((h: ResolutionChange<AnyResolution>) => ({
+      ...fileResolutionOf(h),
       recorded_at: h.recorded_at,
       replaced_at: h.replaced_at,
       change: h.change,

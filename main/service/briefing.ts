@@ -13,7 +13,7 @@
  * `computeScorecardDetail`, so the briefing and the Scorecard cannot disagree.
  */
 import { BRIEFING_CSS } from './briefing-style';
-import type { Question } from '../../shared/domain';
+import type { BinaryQuestion } from '../../shared/domain';
 import {
   confidentVerdict,
   computeScorecardDetail,
@@ -44,7 +44,7 @@ export interface BriefingInput {
   /** The scorecard for the same tag (`score` with `{ tag }`). */
   report: ScoreReport;
   /** Every question carrying the tag (all when tag is null), resolved and open. */
-  questions: Question[];
+  questions: BinaryQuestion[];
   /**
    * Confident = final forecast ≥ threshold on a No, or ≤ 1 − threshold on a Yes (a miss),
    * and the mirror image for a hit. From 0.5 to 1; INTERFACES.md §2 uses 0.8. At 0.5 a
@@ -120,7 +120,7 @@ function instant(iso: string, what: string): number {
 
 // ── Selecting the confident calls ───────────────────────────────────────────────────────
 
-function toScoringQuestion(q: Question): ScoringQuestion {
+function toScoringQuestion(q: BinaryQuestion): ScoringQuestion {
   return {
     id: q.id,
     title: q.title,
@@ -137,7 +137,7 @@ function toScoringQuestion(q: Question): ScoringQuestion {
 
 interface ConfidentCall {
   row: ScoredQuestionRow;
-  question: Question;
+  question: BinaryQuestion;
 }
 
 /** How far the final forecast was from the outcome, |p − o|. */
@@ -148,7 +148,7 @@ const error = (row: ScoredQuestionRow): number => Math.abs(row.p - (row.outcome 
  * of `ScoreReport.confident_misses`) and confident hits (most recent window end first).
  * Which calls are confident, and misses or hits, is `confidentVerdict`'s rule.
  */
-function confidentCalls(rows: readonly ScoredQuestionRow[], byId: ReadonlyMap<string, Question>, threshold: number) {
+function confidentCalls(rows: readonly ScoredQuestionRow[], byId: ReadonlyMap<string, BinaryQuestion>, threshold: number) {
   const misses: ConfidentCall[] = [];
   const hits: ConfidentCall[] = [];
   for (const row of rows) {
@@ -433,7 +433,7 @@ function openQuestions(ctx: Context): string {
   const rows = open
     .map(({ q, closes }) => {
       // The latest forecast entered, same time → entered last (the question's standing number).
-      let last: Question['forecasts'][number] | null = null;
+      let last: BinaryQuestion['forecasts'][number] | null = null;
       let lastAt = -Infinity;
       for (const f of q.forecasts) {
         const at = instant(f.at, `question ${q.id} forecast time`);

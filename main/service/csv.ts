@@ -14,6 +14,7 @@
 import type { z } from 'zod';
 import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
 import * as v from '../../shared/validation';
+import { ApiError } from '../../shared/contract';
 import { CsvSyntaxError, readCsvRecords } from '../files/csv-records';
 
 /** The columns, in the order export writes them. */
@@ -110,11 +111,13 @@ function around(columns: readonly PointColumn[]): (cells: Record<QuestionColumn,
   });
 }
 
+type BinaryExport = Extract<ExportedQuestion, { type: 'binary' }>;
+
 const aroundForecast = around(FORECAST_COLUMNS);
 const aroundReference = around(REFERENCE_COLUMNS);
 
 /** The question's own cells, repeated on each of its rows (as the JSON export writes the fields). */
-function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
+function questionCells(q: BinaryExport): Record<QuestionColumn, string> {
   return {
     question_id: q.id,
     title: q.title,
@@ -140,6 +143,12 @@ function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
  * it has neither. Times and numbers never need quoting; text does (csvField).
  */
 function questionRows(q: ExportedQuestion): string {
+  if (q.type !== 'binary') {
+    throw new ApiError(
+      'invalid',
+      `The CSV format holds yes/no questions only, and "${q.title}" is a ${q.type} question. Nothing was exported; export the diary as JSON to keep every question.`,
+    );
+  }
   const cells = questionCells(q);
   let out = '';
   if (q.forecasts.length) {

@@ -21,6 +21,7 @@ import {
 } from '../../shared/diary-file';
 import {
   NUDGE_KIND_NAMES,
+  isBinary,
   questionStatus,
   type Lens,
   type NudgeKind,
@@ -31,6 +32,7 @@ import {
   type ResolutionChangeKind,
   type Settings,
 } from '../../shared/domain';
+import { entryIssues, type EntryFields, type TypeIssue } from '../../shared/question-types';
 import { beforeOpeningProblem, earlyStateResolutionWarning, futureProblem, isEarlyStateResolution, onClock } from '../../shared/time-rules';
 import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
@@ -73,6 +75,20 @@ function invalid(field: string, reason: string): ApiError {
 /** Every `field: reason` line a request broke, refused at once (a form shows them all), or nothing. */
 function refuseAll(lines: string[]): void {
   if (lines.length) throw new ApiError('invalid', `The request was not accepted: ${lines.join('; ')}. Nothing was changed.`, lines);
+}
+
+/** Type-rule issues (shared/question-types.ts) as `field: reason` lines, the fields under `prefix`. */
+function issueLines(issues: TypeIssue[], prefix = ''): string[] {
+  return issues.map((i) => {
+    const path = v.formatPath(i.path);
+    return `${prefix && path ? `${prefix}.${path}` : prefix || path}: ${i.message}`;
+  });
+}
+
+/** The probability of a yes/no question's entry, refused (naming the field) when the entry gives another type's value. */
+function yesNoP(entry: EntryFields, prefix = ''): number {
+  refuseAll(issueLines(entryIssues({ type: 'binary' }, entry), prefix));
+  return entry.p!;
 }
 
 /**
@@ -276,6 +292,7 @@ export function createDiary(ctx: DiaryContext) {
       questions.push({
         id: r.id,
         title: r.title,
+        type: 'binary',
         kind: r.kind,
         tags: JSON.parse(r.tags) as string[],
         opened_at: toIso(r.opened_at),
@@ -283,6 +300,12 @@ export function createDiary(ctx: DiaryContext) {
         time_zone: r.time_zone,
         base_rate: r.base_rate,
         last_p: r.last_p,
+        options: null,
+        last_probs: null,
+        unit: null,
+        value_kind: null,
+        levels: null,
+        last_quantiles: null,
         last_forecast_at: r.last_at === null ? null : toIso(r.last_at),
         forecast_count: r.forecast_count,
         status,
@@ -636,7 +659,7 @@ export function createDiary(ctx: DiaryContext) {
           id,
           opened_at: opened,
           closes_at: closes,
-          forecasts: first ? [{ at: firstAt, p: first.p, note: first.note, lenses: first.lenses }] : [],
+          forecasts: first ? [{ at: firstAt, p: yesNoP(first, 'first_forecast'), note: first.note, lenses: first.lenses }] : [],
         };
         undo = tracked('createQuestion', id, () => insertWhole(question, s, stamp));
       });
@@ -707,7 +730,7 @@ export function createDiary(ctx: DiaryContext) {
             id: randomUUID(),
             question_id: row.id,
             at,
-            p: req.p,
+            p: yesNoP(req),
             note: req.note ?? '',
             lenses: (req.lenses ?? []) as Lens[],
           });
@@ -763,7 +786,7 @@ export function createDiary(ctx: DiaryContext) {
         // An outside view may be older than the question (the client's number from last year): only the future is refused.
         if (req.at !== undefined) refuseAll(pastLine(at, 'at', 'a reference forecast'));
         undo = tracked('addReference', req.question_id, () => {
-          qs.insertReference(write, { id: randomUUID(), question_id: req.question_id, at, p: req.p, source: req.source });
+          qs.insertReference(write, { id: randomUUID(), question_id: req.question_id, at, p: yesNoP(req), source: req.source });
           qs.touchQuestion(write, req.question_id, now());
         });
       });
@@ -876,6 +899,7 @@ export function createDiary(ctx: DiaryContext) {
           due_at: toIso(n.due_at),
           closes_at: toIso(q.closes_at),
           time_zone: q.time_zone,
+          type: 'binary' as const,
           last_p: last?.p ?? null,
           last_forecast_at: last ? toIso(last.at) : null,
           stale: stale(q, last, s, at),
@@ -964,7 +988,8 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput({});
       const options = scoreOptions(req);
       const t = now();
-      const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t));
+      // Confident calls are yes/no questions' (the scoring input holds no others).
+      const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)).filter(isBinary);
       return {
         threshold: req.threshold,
         entries: confidentCalls(questions, options, req.threshold, req.include_hits, details),
@@ -977,7 +1002,7 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput({});
       const options = scoreOptions({ tag: req.tag });
       const t = now();
-      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
+      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t)).filter(isBinary);
       const html = renderBriefing({
         tag: req.tag ?? null,
         generated_at: now(),

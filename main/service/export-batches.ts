@@ -55,7 +55,9 @@ export function isoFormatter(): (ms: number) => string {
 const NO_LENSES: Lens[] = [];
 
 /** Likewise the history of a question never corrected or reopened (replaced, never pushed to). */
-const NO_HISTORY: ExportedQuestion['resolution_history'] = [];
+const NO_HISTORY: BinaryExport['resolution_history'] = [];
+
+type BinaryExport = Extract<ExportedQuestion, { type: 'binary' }>;
 
 /**
  * Reads questions as the export writes them. `always` reads lenses and resolution
@@ -88,7 +90,8 @@ function exportReader(db: Db, always: boolean) {
   return (rows: QuestionTuple[]): ExportedQuestion[] => {
     const ids = JSON.stringify(rows.map((r) => r[0]));
     const batch = rows.map(
-      ([id, title, rule, kind, opened, closes, time_zone, base_rate, base_rate_note, falseAlarm, miss, checkin_days]): ExportedQuestion => ({
+      ([id, title, rule, kind, opened, closes, time_zone, base_rate, base_rate_note, falseAlarm, miss, checkin_days]): BinaryExport => ({
+        type: 'binary',
         id,
         title,
         rule,

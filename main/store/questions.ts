@@ -307,6 +307,7 @@ export function toQuestion(b: QuestionBundle, now: number): Question {
   }));
   const references: ReferenceForecast[] = b.references.map((r) => ({ id: r.id, at: toIso(r.at), p: r.p, source: r.source }));
   return {
+    type: 'binary',
     id: row.id,
     title: row.title,
     rule: row.rule,

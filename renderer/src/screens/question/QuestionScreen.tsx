@@ -3,7 +3,7 @@
  * and everything that can be done to it. Each change reloads the page's data and says so.
  */
 import { useState } from 'react';
-import type { Question, Settings } from '../../../../shared/domain';
+import type { BinaryQuestion, Settings } from '../../../../shared/domain';
 import { questionStatus } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
@@ -58,10 +58,19 @@ export function QuestionScreen({ params }: ScreenProps) {
     );
   }
   if (!loaded.data || !question || question.id !== id) return <div className="screen" aria-busy="true" />;
+  if (question.type !== 'binary') {
+    return (
+      <div className="screen">
+        <EmptyState title={question.title} actions={<a href={hrefTo('questions')}>Back to Questions</a>}>
+          <p>This is a {question.type === 'choice' ? 'multiple-choice' : 'numeric'} question. Its forecasts are kept in the diary and in every export; this page draws yes/no questions.</p>
+        </EmptyState>
+      </div>
+    );
+  }
   return <QuestionPage question={question} settings={loaded.data[1]} />;
 }
 
-function QuestionPage({ question: q, settings }: { question: Question; settings: Settings }) {
+function QuestionPage({ question: q, settings }: { question: BinaryQuestion; settings: Settings }) {
   const toast = useToast();
   const [dialog, setDialog] = useState<DialogName | null>(null);
   const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);

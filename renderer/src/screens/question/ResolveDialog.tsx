@@ -4,7 +4,7 @@
  */
 import { useState, type FormEvent } from 'react';
 import { resolveRequest } from '../../../../shared/contract';
-import type { Outcome, Question } from '../../../../shared/domain';
+import type { Outcome, BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { ChoiceGroup } from '../../components/ChoiceGroup';
@@ -18,7 +18,7 @@ import { isoToLocal, localToIso } from '../../dates';
 import { useForm } from '../../forms';
 
 interface Props {
-  question: Question;
+  question: BinaryQuestion;
   open: boolean;
   onClose: () => void;
   onSaved: (message: string) => void;

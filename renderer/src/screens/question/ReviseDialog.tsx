@@ -5,7 +5,7 @@
  */
 import { useState, type FormEvent } from 'react';
 import { forecastRequest } from '../../../../shared/contract';
-import type { Question } from '../../../../shared/domain';
+import type { BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
@@ -22,7 +22,7 @@ import { RecalibrationHint } from '../../tools/RecalibrationHint';
 import { lastForecast } from './questionFacts';
 
 interface Props {
-  question: Question;
+  question: BinaryQuestion;
   open: boolean;
   onClose: () => void;
   onSaved: (message: string) => void;
