@@ -9,8 +9,6 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { choiceTotal, readChoiceForecast, spreadRest, totalText } from '../../renderer/src/forecastEntry/choiceEntry';
 import {
-  daysToIsoDay,
-  isoDayToDays,
   levelLabel,
   levelName,
   readNumericForecast,
@@ -92,10 +90,8 @@ test('a numeric forecast must not decrease with the level; the message names the
 });
 
 test('a date question reads calendar days and says "before" for a decreasing set', () => {
-  assert.equal(isoDayToDays('1970-01-01'), 0);
-  assert.equal(isoDayToDays('2026-03-31'), 20543);
-  assert.equal(daysToIsoDay(20543), '2026-03-31');
-  assert.equal(isoDayToDays('2026-02-30'), null);
+  assert.deepEqual(readValue('2026-03-31', 'date'), { ok: true, value: 20543 });
+  assert.deepEqual(readValue('2026-02-30', 'date'), { ok: false, error: 'must be a calendar date' });
   const levels = [0.1, 0.5, 0.9];
   assert.deepEqual(readNumericForecast(['2026-03-01', '2026-03-31', '2026-05-01'], levels, 'date', ''), {
     ok: true,

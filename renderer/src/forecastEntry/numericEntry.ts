@@ -5,17 +5,15 @@
  * the level, saying which two values are the wrong way round. The rule itself (one finite
  * value per level, non-decreasing) lives in shared/quantile-levels.ts.
  */
+import type { ValueKind } from '../../../shared/domain';
+import { levelName } from '../../../shared/forecast-text';
+import { dateToDays, daysToDate } from '../../../shared/numeric-value';
 import { quantilesProblem } from '../../../shared/quantile-levels';
 import type { Parsed } from '../percent';
 
-export type ValueKind = 'number' | 'date';
+export type { ValueKind };
 
-const DAY_MS = 86_400_000;
-
-/** "P10" for 0.1, "P5" for 0.05: the percentile a level stands for. */
-export function levelName(level: number): string {
-  return `P${Math.round(level * 100)}`;
-}
+export { levelName };
 
 /** The box label: "P10 (low)", "P50 (median)", "P90 (high)". */
 export function levelLabel(level: number): string {
@@ -34,27 +32,9 @@ export function levelsHint(levels: readonly number[], unit: string): string {
   return `${levelName(low)}: only a ${Math.round(low * 100)}% chance the outcome is lower; ${levelName(high)}: only a ${Math.round((1 - high) * 100)}% chance it is higher. Together ${article} ${width}% range${inUnit}.`;
 }
 
-/** "YYYY-MM-DD" → whole days since 1970-01-01 (UTC calendar), or null when not a real date. */
-export function isoDayToDays(text: string): number | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text.trim());
-  if (!m) return null;
-  const year = Number(m[1]);
-  const month = Number(m[2]);
-  const day = Number(m[3]);
-  const ms = Date.UTC(year, month - 1, day);
-  const back = new Date(ms);
-  if (back.getUTCFullYear() !== year || back.getUTCMonth() !== month - 1 || back.getUTCDate() !== day) return null;
-  return Math.round(ms / DAY_MS);
-}
-
-/** Whole days since 1970-01-01 → "YYYY-MM-DD". */
-export function daysToIsoDay(days: number): string {
-  return new Date(days * DAY_MS).toISOString().slice(0, 10);
-}
-
 /** A value as the boxes and readings show it: "13.5 weeks", "2026-03-31". */
 export function formatValue(value: number, kind: ValueKind, unit: string): string {
-  if (kind === 'date') return daysToIsoDay(value);
+  if (kind === 'date') return daysToDate(value);
   const text = String(Number(value.toPrecision(12)));
   return unit ? `${text} ${unit}` : text;
 }
@@ -64,7 +44,7 @@ export function readValue(text: string, kind: ValueKind): Parsed<number | null> 
   const trimmed = text.trim();
   if (trimmed === '') return { ok: true, value: null };
   if (kind === 'date') {
-    const days = isoDayToDays(trimmed);
+    const days = dateToDays(trimmed);
     return days === null ? { ok: false, error: 'must be a calendar date' } : { ok: true, value: days };
   }
   const n = Number(trimmed);
