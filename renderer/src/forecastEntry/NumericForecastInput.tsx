@@ -6,6 +6,7 @@
  */
 import { useId } from 'react';
 import { DateField } from '../components/DateField';
+import { FieldError } from '../components/FieldError';
 import { NumberField } from '../components/NumberField';
 import { levelLabel, levelsHint, type NumericProblems, type ValueKind } from './numericEntry';
 import './forecastEntry.css';
@@ -60,6 +61,8 @@ export function NumericForecastInput({ label, levels, kind, unit, value, onChang
           ),
         )}
       </div>
+      {/* A reason for the set as a whole (from the diary) that no single box carries. */}
+      <FieldError id={`${id}-order`} message={problems?.order && !Object.values(problems.levels).includes(problems.order) ? problems.order : undefined} />
     </fieldset>
   );
 }
