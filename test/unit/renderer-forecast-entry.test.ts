@@ -15,7 +15,7 @@ import {
   readValue,
 } from '../../renderer/src/forecastEntry/numericEntry';
 import { LEVEL_PRESETS, levelsText, readOptionBaseRates, readOptions } from '../../renderer/src/questionTypes/definition';
-import { choiceSummary, numericSummary } from '../../renderer/src/questionTypes/summaries';
+import { choiceSummary, lastForecastText, numericSummary } from '../../renderer/src/questionTypes/summaries';
 import { quantileLevelsProblem } from '../../shared/quantile-levels';
 
 test('the live total adds the filled boxes and lists the blank and the unreadable ones', () => {
@@ -127,4 +127,15 @@ test('a choice or numeric forecast in a few words for lists', () => {
   assert.equal(numericSummary([0.1, 0.5, 0.9], [9, 13, 20], 'number', 'weeks'), '13 weeks (9 – 20)');
   assert.equal(numericSummary([0.5], [13], 'number', ''), '13');
   assert.equal(numericSummary([0.1, 0.5, 0.9], [20513, 20543, 20574], 'date', ''), '2026-03-31 (2026-03-01 – 2026-05-01)');
+});
+
+test('the Questions list shows the last forecast of every type', () => {
+  const none = { options: null, last_probs: null, levels: null, last_quantiles: null, value_kind: null, unit: null };
+  assert.equal(lastForecastText({ ...none, type: 'binary', last_p: 0.35 }), '35%');
+  assert.equal(lastForecastText({ ...none, type: 'choice', last_p: null, options: ['A', 'B'], last_probs: [0.2, 0.8] }), 'B 80%');
+  assert.equal(lastForecastText({ ...none, type: 'choice', last_p: null, options: ['A', 'B'] }), '—');
+  assert.equal(
+    lastForecastText({ ...none, type: 'numeric', last_p: null, levels: [0.1, 0.5, 0.9], last_quantiles: ['2026-03-01', '2026-03-31', '2026-05-01'], value_kind: 'date', unit: '' }),
+    '2026-03-31 (2026-03-01 – 2026-05-01)',
+  );
 });

@@ -2,6 +2,8 @@
  * A choice or numeric forecast in a few words, for lists and cards where the yes/no ones show
  * a percent: the top option and its chance, or the median with the range.
  */
+import type { QuestionSummary } from '../../../shared/domain';
+import { toStoredValue } from '../../../shared/numeric-value';
 import { formatPercent } from '../percent';
 import { formatValue, type ValueKind } from '../forecastEntry/numericEntry';
 
@@ -22,4 +24,15 @@ export function numericSummary(levels: readonly number[], quantiles: readonly nu
   const low = formatValue(quantiles[0]!, kind, '');
   const high = formatValue(quantiles[m - 1]!, kind, '');
   return `${centre} (${low} – ${high})`;
+}
+
+/** The Questions list's "last forecast" cell for a question of any type; "—" with none. */
+export function lastForecastText(q: Pick<QuestionSummary, 'type' | 'last_p' | 'options' | 'last_probs' | 'levels' | 'last_quantiles' | 'value_kind' | 'unit'>): string {
+  if (q.type === 'choice') return q.options && q.last_probs ? choiceSummary(q.options, q.last_probs) : '—';
+  if (q.type === 'numeric') {
+    if (!q.levels || !q.last_quantiles || !q.value_kind) return '—';
+    const kind = q.value_kind;
+    return numericSummary(q.levels, q.last_quantiles.map((v) => toStoredValue(v, kind)), kind, q.unit ?? '');
+  }
+  return formatPercent(q.last_p);
 }
