@@ -7,27 +7,18 @@
 import { z } from 'zod';
 import type { DueNudge, NudgeKind, Question, QuestionSummary, Settings, SnoozedNudge } from './domain';
 import { ANY_OUTCOMES, NUDGE_KINDS, QUESTION_STATUSES } from './domain';
-import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf, type TypeIssue } from './question-types';
+import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf } from './question-types';
 import type { ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
 
 const id = v.id('must be an id');
-
-/** Reports type-rule issues (shared/question-types.ts) on a zod refinement, under `prefix`. */
-function addTypeIssues(ctx: z.RefinementCtx, issues: TypeIssue[], prefix: (string | number)[] = []): void {
-  for (const issue of issues) ctx.addIssue({ code: 'custom', message: issue.message, path: [...prefix, ...issue.path] });
-}
 
 /**
  * A forecast's value: `p` for a yes/no question, `probs` (one probability per option,
  * summing to 100 % within 1e-6) for a choice question, `quantiles` (one value per level,
  * non-decreasing; dates as YYYY-MM-DD) for a numeric question. Lenses: yes/no only.
  */
-const forecastValue = {
-  p: v.probability.optional(),
-  probs: v.probs.optional(),
-  quantiles: v.quantiles.optional(),
-};
+const forecastValue = v.entryValue;
 
 const firstForecast = z.object({
   ...forecastValue,
@@ -38,29 +29,15 @@ const firstForecast = z.object({
 
 const { questionFields } = v;
 
-/**
- * The type's own fields: `type` (binary when absent; fixed at creation); a choice
- * question's `options` (required), `ordered` and `option_base_rates`; a numeric
- * question's `unit` (default ''), `value_kind` (default number) and `levels` (default
- * [0.1, 0.5, 0.9]). `base_rate` and `costs` are yes/no only.
- */
-const typeFields = {
-  type: v.questionType.optional(),
-  options: v.options.optional(),
-  ordered: v.ordered.optional(),
-  option_base_rates: v.probs.nullable().optional(),
-  unit: v.unit.optional(),
-  value_kind: v.valueKind.optional(),
-  levels: v.levels.optional(),
-};
+const { typeFields } = v;
 
 export const createQuestionRequest = z
   .object({ ...questionFields, ...typeFields, first_forecast: firstForecast.optional() })
   .refine(...v.closesAfterOpens)
   .superRefine((r, ctx) => {
     const issues = questionTypeIssues(r);
-    addTypeIssues(ctx, issues);
-    if (issues.length === 0 && r.first_forecast) addTypeIssues(ctx, entryIssues(shapeOf(r), r.first_forecast), ['first_forecast']);
+    v.addIssues(ctx, issues);
+    if (issues.length === 0 && r.first_forecast) v.addIssues(ctx, entryIssues(shapeOf(r), r.first_forecast), ['first_forecast']);
   });
 
 /**
@@ -139,7 +116,7 @@ export const resolveRequest = z
   confirm: confirmed.optional(),
   })
   // Which outcomes fit is the question's business (the service checks its type); here: option and value go with their outcomes.
-  .superRefine((r, ctx) => addTypeIssues(ctx, resolutionPairingIssues(r)));
+  .superRefine((r, ctx) => v.addIssues(ctx, resolutionPairingIssues(r)));
 
 /** Reopening keeps the resolution it removes in the history, with `note` as the reason. */
 export const reopenRequest = z.object({ id, note: v.note.optional() });

@@ -10,8 +10,9 @@
  * times as epoch milliseconds, parsed once.
  */
 import { z } from 'zod';
+import { entryIssues, questionTypeIssues, resolutionIssues, shapeOf } from './question-types';
 import {
-  OUTCOMES,
+  ANY_OUTCOMES,
   RESOLUTION_CHANGE_KINDS,
   type AnyResolution,
   type BinaryQuestion,
@@ -27,21 +28,25 @@ import * as v from './validation';
 export const DIARY_FORMAT = 'forelog-diary';
 export const DIARY_VERSION = 1;
 
+/** A revision: `p` (yes/no, with optional lenses), `probs` (choice) or `quantiles` (numeric), as its question's type says. */
 const fileForecast = z.object({
   at: v.instantMs,
-  p: v.probability,
+  ...v.entryValue,
   note: v.note.optional(),
   lenses: v.lenses.optional(),
 });
 
 const fileReference = z.object({
   at: v.instantMs,
-  p: v.probability,
+  ...v.entryValue,
   source: v.source,
 });
 
+/** How the question resolved: yes, no or void; option (with `option`) or void for choice; value (with `value`) or void for numeric. */
 const fileResolution = z.object({
-  outcome: z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' }),
+  outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
+  option: v.optionIndex.optional(),
+  value: v.numericValue.optional(),
   at: v.instantMs,
   note: v.note.optional(),
 });
@@ -49,6 +54,8 @@ const fileResolution = z.object({
 /** An earlier resolution, replaced by a correction or a reopening (docs/diary-file.md, "Resolution history"). */
 const fileResolutionChange = z.object({
   outcome: fileResolution.shape.outcome,
+  option: fileResolution.shape.option,
+  value: fileResolution.shape.value,
   at: v.instantMs,
   note: v.note.optional(),
   recorded_at: v.instantMs,
@@ -61,6 +68,7 @@ export const fileQuestion = z
   .object({
     id: v.id().optional(),
     ...v.questionFields,
+    ...v.typeFields,
     opened_at: v.instantMs.optional(),
     closes_at: v.instantMs,
     forecasts: z.array(fileForecast, { error: 'must be a list of forecasts' }),
@@ -68,7 +76,18 @@ export const fileQuestion = z
     resolution: fileResolution.nullable().optional(),
     resolution_history: z.array(fileResolutionChange, { error: 'must be a list of earlier resolutions' }).optional(),
   })
-  .refine(...v.closesAfterOpens);
+  .refine(...v.closesAfterOpens)
+  .superRefine((q, ctx) => {
+    // A field of another type is an error naming the record and the field (INTERFACES.md "Question types").
+    const issues = questionTypeIssues(q);
+    v.addIssues(ctx, issues);
+    if (issues.length > 0) return;
+    const shape = shapeOf(q);
+    q.forecasts.forEach((f, i) => v.addIssues(ctx, entryIssues(shape, f), ['forecasts', i]));
+    (q.references ?? []).forEach((r, i) => v.addIssues(ctx, entryIssues(shape, r), ['references', i]));
+    if (q.resolution) v.addIssues(ctx, resolutionIssues(shape, q.resolution), ['resolution']);
+    (q.resolution_history ?? []).forEach((h, i) => v.addIssues(ctx, resolutionIssues(shape, h), ['resolution_history', i]));
+  });
 
 /** A validated question record; every time in it is epoch milliseconds. */
 export type FileQuestion = z.output<typeof fileQuestion>;

@@ -236,6 +236,39 @@ export const quantiles = z
     });
   });
 
+/**
+ * The type's own fields, the same in the API and the diary file: `type` (binary when
+ * absent; fixed at creation); a choice question's `options` (required), `ordered` and
+ * `option_base_rates`; a numeric question's `unit` (default ''), `value_kind` (default
+ * number) and `levels` (default [0.1, 0.5, 0.9]). Which go with which type is checked by
+ * shared/question-types.ts.
+ */
+export const typeFields = {
+  type: questionType.optional(),
+  options: options.optional(),
+  ordered: ordered.optional(),
+  option_base_rates: probs.nullable().optional(),
+  unit: unit.optional(),
+  value_kind: valueKind.optional(),
+  levels: levels.optional(),
+};
+
+/**
+ * A forecast's or a reference's value: `p` for a yes/no question, `probs` for a choice
+ * question, `quantiles` for a numeric question; which one a record must give is checked
+ * against its question (shared/question-types.ts).
+ */
+export const entryValue = {
+  p: probability.optional(),
+  probs: probs.optional(),
+  quantiles: quantiles.optional(),
+};
+
+/** Reports issues `{ path, message }` on a zod refinement, under `prefix`. */
+export function addIssues(ctx: z.RefinementCtx, issues: { path: (string | number)[]; message: string }[], prefix: (string | number)[] = []): void {
+  for (const issue of issues) ctx.addIssue({ code: 'custom', message: issue.message, path: [...prefix, ...issue.path] });
+}
+
 /** The fields of a question a user writes: the same in the API and in the diary file. */
 export const questionFields = {
   title,

@@ -83,12 +83,22 @@ export function migrate(db: Db, migrations: readonly Migration[] = MIGRATIONS): 
   if (current > latest) throw new NewerDatabaseError(db.name, current);
   for (const m of migrations) {
     if (m.version <= current) continue;
-    writeTransaction(db, () => {
-      // Another process opening the same new file may have applied it while we waited.
-      if ((db.pragma('user_version', { simple: true }) as number) >= m.version) return;
-      db.exec(m.sql);
-      db.pragma(`user_version = ${m.version}`);
-    });
+    // foreign_keys can be switched only outside a transaction (SQLite's table-rebuild procedure).
+    if (m.rebuildsTables) db.pragma('foreign_keys = OFF');
+    try {
+      writeTransaction(db, () => {
+        // Another process opening the same new file may have applied it while we waited.
+        if ((db.pragma('user_version', { simple: true }) as number) >= m.version) return;
+        db.exec(m.sql);
+        if (m.rebuildsTables) {
+          const broken = db.pragma('foreign_key_check') as { table: string }[];
+          if (broken.length) throw new Error(`migration ${m.version} left ${broken.length} rows whose parent is missing (first in ${broken[0]!.table}); nothing was changed`);
+        }
+        db.pragma(`user_version = ${m.version}`);
+      });
+    } finally {
+      if (m.rebuildsTables) db.pragma('foreign_keys = ON');
+    }
   }
   return db.pragma('user_version', { simple: true }) as number;
 }
