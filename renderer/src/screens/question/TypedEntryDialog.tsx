@@ -150,7 +150,7 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
       <div className="form__actions">
         <Button onClick={cancel}>Cancel</Button>
         <Button type="submit" variant="primary" busy={form.busy}>
-          {mode === 'forecast' ? 'Save revision' : 'Save reference'}
+          {mode === 'forecast' ? 'Save revision' : 'Add reference'}
         </Button>
       </div>
     </Form>
