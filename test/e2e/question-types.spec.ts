@@ -12,6 +12,8 @@ import { openApp, useDiaryServer, type AppPage } from './serve';
 
 const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
+// Each test takes axe scans and screenshots in two schemes at two widths.
+test.setTimeout(120_000);
 
 let app: AppPage;
 test.beforeEach(async ({ browser }) => {

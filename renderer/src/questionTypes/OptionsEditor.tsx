@@ -49,7 +49,7 @@ export function OptionsEditor({ value, onChange, problems, error, fixedCount = f
                 onChange={(event) => set(k, event.target.value)}
               />
               {!fixedCount ? (
-                <Button size="sm" variant="ghost" disabled={value.length <= MIN_OPTIONS} onClick={() => onChange(value.filter((_, i) => i !== k))} aria-label={`Remove option ${k + 1}`}>
+                <Button size="sm" disabled={value.length <= MIN_OPTIONS} onClick={() => onChange(value.filter((_, i) => i !== k))} aria-label={`Remove option ${k + 1}`}>
                   Remove
                 </Button>
               ) : null}
