@@ -27,6 +27,7 @@ import { TypedEntryDialog, type TypedQuestion } from './TypedEntryDialog';
 import { TypedHistoryTables } from './TypedHistoryTables';
 import { TypedResolveDialog, outcomeText } from './TypedResolveDialog';
 import { choiceHistoryInput, latestEntry, numericHistoryInput } from './typedFacts';
+import './typedQuestion.css';
 
 type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
 type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
@@ -156,7 +157,7 @@ export function TypedQuestionPage({ question: q, settings }: { question: TypedQu
               </>
             ) : (
               <>
-                {q.value_kind === 'date' ? 'A date' : `A number${q.unit ? ` in ${q.unit}` : ''}`} <span className="muted">({levelsText(q.levels)})</span>
+                {q.value_kind === 'date' ? 'A date' : `A number${q.unit ? ` in ${q.unit}` : ''}`}, forecast as <span className="muted">{levelsText(q.levels)}</span>
               </>
             )}
           </dd>
