@@ -8,7 +8,7 @@ import { z } from 'zod';
 import type { DueNudge, NudgeKind, Question, QuestionSummary, Settings, SnoozedNudge } from './domain';
 import { ANY_OUTCOMES, NUDGE_KINDS, QUESTION_STATUSES } from './domain';
 import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf } from './question-types';
-import type { ScorecardDetail, ScoreReport } from './scoring/types';
+import type { ChoiceDetail, ChoiceReport, NumericDetail, NumericReport, ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
 
 const id = v.id('must be an id');
@@ -404,9 +404,19 @@ export interface DueCount {
   count: number;
 }
 
+/**
+ * The `score --json` object (INTERFACES.md §2): the yes/no figures at the top level (their
+ * counts included), and the `choice` and `numeric` members, always present (counts 0 and
+ * figures null when the filter holds no such questions).
+ */
+export type ScoreJson = ScoreReport & { choice: ChoiceReport; numeric: NumericReport };
+
 /** The scorecard: the `score --json` report plus what the Scorecard screen draws. */
 export interface Scorecard {
-  report: ScoreReport;
+  report: ScoreJson;
+  /** Per scored choice and numeric question, sorted by window end (ties by id): what their sections draw. */
+  choice_detail: ChoiceDetail;
+  numeric_detail: NumericDetail;
   /** What the charts need; the per-question rows stay on the server (the briefing uses them). */
   detail: Omit<ScorecardDetail, 'per_question'>;
   /** Days the user's calls got to the right side of 50% before the reference's, per tag. */

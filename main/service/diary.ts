@@ -4,7 +4,7 @@
  * need the diary's state (does the question exist, is the close still after the opening).
  */
 import { randomUUID } from 'node:crypto';
-import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, UndoableOperation, ValidRequest } from '../../shared/contract';
+import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, ScoreJson, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
 import {
@@ -47,7 +47,17 @@ import {
 } from '../../shared/question-types';
 import { fromStoredValue, toStoredValue } from '../../shared/numeric-value';
 import { beforeOpeningProblem, earlyStateResolutionWarning, futureProblem, isEarlyStateResolution, onClock } from '../../shared/time-rules';
-import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
+import {
+  computeChoiceDetail,
+  computeChoiceReport,
+  computeNumericDetail,
+  computeNumericReport,
+  computeScoreReport,
+  computeScorecardDetail,
+  isStale,
+  type ScoreOptions,
+  type ScoringQuestion,
+} from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import * as v from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
@@ -65,7 +75,7 @@ import { exportBatches, exportedQuestionReader } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
-import { loadScoringQuestions } from './scoring-source';
+import { loadScoringInput, type ScoringInput } from './scoring-source';
 
 export interface DiaryContext {
   store: StoreHandles;
@@ -656,15 +666,27 @@ export function createDiary(ctx: DiaryContext) {
   // The engine's input is re-read only when the diary changed: SQLite's data_version on the
   // read handle moves whenever any other connection (our write handle, or another process)
   // commits. A filter change on the Scorecard then costs the engine's time alone.
-  let scoringCache: { version: number; questions: ScoringQuestion[] } | null = null;
+  let scoringCache: { version: number; input: ScoringInput } | null = null;
 
-  /** The questions as the engine sees them; "what if" costs replace each question's own. */
-  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {
+  /** Every question as the engine sees it, by type, re-read only when the diary changed. */
+  function typedScoringInput(): ScoringInput {
     const version = read.pragma('data_version', { simple: true }) as number;
-    if (scoringCache?.version !== version) scoringCache = { version, questions: loadScoringQuestions(read) };
-    const { questions } = scoringCache;
+    if (scoringCache?.version !== version) scoringCache = { version, input: loadScoringInput(read) };
+    return scoringCache.input;
+  }
+
+  /** The yes/no questions as the engine sees them; "what if" costs replace each question's own. */
+  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {
+    const questions = typedScoringInput().binary;
     const costs = req.costs;
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
+  }
+
+  /** The `score --json` object: the yes/no report with the choice and numeric members (INTERFACES.md §2). */
+  function scoreJson(req: ValidRequest<'score'>): ScoreJson {
+    const options = scoreOptions(req);
+    const { choice, numeric } = typedScoringInput();
+    return { ...computeScoreReport(scoringInput(req), options), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
   }
 
   const EXPORT_FILES: Record<ExportFormat, { name: string; extension: string; media_type: string }> = {
@@ -1106,7 +1128,14 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput(req);
       const options = scoreOptions(req);
       const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
-      return { report: computeScoreReport(questions, options), detail, leads: referenceLeads(questions, options) };
+      const { choice, numeric } = typedScoringInput();
+      return {
+        report: scoreJson(req),
+        detail,
+        leads: referenceLeads(questions, options),
+        choice_detail: computeChoiceDetail(choice, options),
+        numeric_detail: computeNumericDetail(numeric, options),
+      };
     },
 
     hindsight: (req) => {
@@ -1150,7 +1179,7 @@ export function createDiary(ctx: DiaryContext) {
     exportFile,
     importText,
     importFile,
-    scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)),
+    scoreReport: scoreJson,
   };
 }
 
