@@ -8,7 +8,7 @@
  * Each check returns issues `{ path, message }`; the message reads after the field's name
  * ("probs: must give one probability per option (3), not 2").
  */
-import { choiceVectorProblem, optionIndexProblem } from './choice-vector';
+import { optionIndexProblem } from './choice-vector';
 import type { AnyOutcome, QuestionType, ValueKind } from './domain';
 import { numericValueProblem } from './numeric-value';
 import { DEFAULT_QUANTILE_LEVELS, quantilesProblem } from './quantile-levels';
@@ -71,9 +71,8 @@ export function questionTypeIssues(q: TypeFields): TypeIssue[] {
   }
   if (type === 'choice') {
     if (q.options === undefined) issues.push({ path: ['options'], message: 'are required for a choice question: 2 to 12 labels' });
-    else if (q.option_base_rates) {
-      const problem = choiceVectorProblem(q.option_base_rates, q.options.length);
-      if (problem) issues.push({ path: ['option_base_rates'], message: problem });
+    else if (q.option_base_rates && q.option_base_rates.length !== q.options.length) {
+      issues.push({ path: ['option_base_rates'], message: `must give one base rate per option (${q.options.length}), not ${q.option_base_rates.length}` });
     }
   }
   return issues;
@@ -122,8 +121,10 @@ export function entryIssues(shape: TypeShape, entry: EntryFields, required = tru
     return issues;
   }
   if (shape.type === 'choice') {
-    const problem = choiceVectorProblem(entry.probs!, shape.option_count);
-    if (problem) issues.push({ path: ['probs'], message: problem });
+    // The count against the question; each entry and the sum are the field's own rule (shared/validation.ts probs).
+    if (entry.probs!.length !== shape.option_count) {
+      issues.push({ path: ['probs'], message: `must give one probability per option (${shape.option_count}), not ${entry.probs!.length}` });
+    }
   } else if (shape.type === 'numeric') {
     issues.push(...quantileIssues(shape, entry.quantiles!));
   }
@@ -136,10 +137,20 @@ function quantileIssues(shape: Extract<TypeShape, { type: 'numeric' }>, values: 
   }
   const issues: TypeIssue[] = [];
   values.forEach((value, i) => {
-    const problem = numericValueProblem(value, shape.value_kind);
+    const problem = kindProblem(value, shape.value_kind);
     if (problem) issues.push({ path: ['quantiles', i], message: problem });
   });
   return issues;
+}
+
+/**
+ * Whether a value is of the question's kind: a number for `number`, a `YYYY-MM-DD` text for
+ * `date`. That the number is finite and the date real is the field's own rule
+ * (shared/validation.ts numericValue), checked before this.
+ */
+function kindProblem(value: unknown, kind: ValueKind): string | null {
+  const want = kind === 'date' ? 'string' : 'number';
+  return typeof value === want ? null : numericValueProblem(value, kind);
 }
 
 /** A resolution as given: the outcome and, for its type, the option or the value. */
@@ -172,7 +183,7 @@ export function resolutionIssues(shape: TypeShape, r: ResolutionFields): TypeIss
     if (problem) issues.push({ path: ['option'], message: problem });
   }
   if (shape.type === 'numeric' && r.outcome === 'value') {
-    const problem = numericValueProblem(r.value, shape.value_kind);
+    const problem = kindProblem(r.value, shape.value_kind);
     if (problem) issues.push({ path: ['value'], message: problem });
   }
   return issues;
