@@ -116,6 +116,16 @@ test('a choice question: spread the rest, a total other than 100% refused, revis
   expect((data.references as { probs: number[] }[])[0]!.probs).toEqual([0.7, 0.15, 0.15]);
   expect(data.outcome_option).toBe(1);
   await expect(page.getByTestId('history-chart').getByTestId('chart-legend')).toContainText('Ambledene (came true)');
+
+  // Edit: the type and the number of options are fixed; a label can be reworded.
+  await page.getByRole('button', { name: 'Edit' }).click();
+  const edit = page.getByRole('dialog', { name: 'Edit question' });
+  await expect(edit.getByTestId('type-fixed')).toContainText('the number of options are fixed');
+  await expect(edit.getByRole('button', { name: 'Add an option' })).toHaveCount(0);
+  await edit.getByRole('textbox', { name: 'Option 3', exact: true }).fill('Neither of them');
+  await edit.getByRole('button', { name: 'Save changes' }).click();
+  await expect(edit).toBeHidden();
+  await expect(page.getByTestId('options-list')).toContainText('Neither of them');
   await shoot(page, 'choice-page');
 });
 
@@ -132,6 +142,7 @@ test('a numeric question: a decreasing range refused by name, revise, resolve wi
   await dialog.getByRole('button', { name: 'Save question' }).click();
   await expect(dialog.getByText('P90 (12 weeks) is below P50 (13 weeks); each value must be at least the one before it.')).toBeVisible();
   await range.getByRole('spinbutton', { name: 'P90 (high)' }).fill('20');
+  await expect(dialog.getByText('is below P50'), 'the reason goes once the box is changed').toHaveCount(0);
   await shoot(page, 'quick-add-numeric');
   await dialog.getByRole('button', { name: 'Save question' }).click();
   await expect(dialog).toBeHidden();

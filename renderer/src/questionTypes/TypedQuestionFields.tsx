@@ -48,6 +48,8 @@ export function useTypedDraft() {
   const [valueKind, setValueKind] = useState<ValueKind>('number');
   const [levelsKey, setLevelsKey] = useState(LEVEL_PRESETS[0]!.value);
   const [values, setValues] = useState<string[]>([]);
+  // Typed into since the last save attempt: the form's own reasons for the boxes are stale then.
+  const [edited, setEdited] = useState(false);
   const [problems, setProblems] = useState<{ options?: Record<number, string>; rates?: ChoiceProblems; chances?: ChoiceProblems; values?: NumericProblems }>({});
   const levels = (LEVEL_PRESETS.find((p) => p.value === levelsKey) ?? LEVEL_PRESETS[0]!).levels;
 
@@ -61,6 +63,7 @@ export function useTypedDraft() {
    */
   function read(found: Record<string, string>): { fields: TypedRequestFields; first: TypedFirstForecast | null } {
     if (type === 'binary') return { fields: {}, first: null };
+    setEdited(false);
     if (type === 'choice') {
       const labels = readOptions(options);
       const base = readOptionBaseRates(fit(rates, options.length));
@@ -93,14 +96,18 @@ export function useTypedDraft() {
     read,
     fields: (error: (field: string) => string | undefined) => (
       <TypedQuestionFields
-        {...{ type, setType, options, setOptions, ordered, setOrdered, unit, setUnit, valueKind, setValueKind, levelsKey, setLevelsKey, levels, problems, error }}
+        {...{ type, setType, options, setOptions, ordered, setOrdered, unit, setUnit, valueKind, setValueKind, levelsKey, setLevelsKey, levels, problems }}
+        error={(field) => (edited && (field === 'option_base_rates' || field.startsWith('first_forecast.')) ? undefined : error(field))}
         rates={fit(rates, options.length)}
         setRates={setRates}
         chances={fit(chances, options.length)}
         setChances={setChances}
         values={fit(values, levels.length)}
         setValues={setValues}
-        clearProblems={() => setProblems({})}
+        clearProblems={() => {
+          setProblems({});
+          setEdited(true);
+        }}
       />
     ),
     typeChoice: (error: string | undefined) => (
@@ -187,6 +194,8 @@ function TypedQuestionFields(p: FieldsProps) {
         {p.valueKind === 'number' ? (
           <TextField label="Unit" value={p.unit} onChange={p.setUnit} placeholder="e.g. weeks, £k" error={p.error('unit')} />
         ) : null}
+      </div>
+      <div className="form__row">
         <Select
           label="Levels"
           value={p.levelsKey}

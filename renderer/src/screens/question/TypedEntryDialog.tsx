@@ -67,6 +67,8 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
   const [source, setSource] = useState('');
   const [atLocal, setAtLocal] = useState('');
   const [problems, setProblems] = useState<ChoiceProblems | NumericProblems | undefined>(undefined);
+  // Typed into since the last save attempt: the form's reason for the boxes is stale then.
+  const [edited, setEdited] = useState(false);
   const valueField = question.type === 'choice' ? 'probs' : 'quantiles';
   const labels = { [valueField]: mode === 'forecast' ? 'Your forecast' : 'Their forecast', note: 'What changed', source: 'Source', at: 'As of' };
   const placement = { fields: Object.keys(labels), labels };
@@ -74,6 +76,7 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
+    setEdited(false);
     const found: Record<string, string> = {};
     const at = atLocal ? localToIso(atLocal, question.time_zone) : null;
     if (atLocal && !at) found.at = 'enter a complete date and time, or leave it empty for now';
@@ -102,7 +105,7 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
   }
 
   // The contract's or the service's reason for the whole vector shows under the boxes.
-  const shownProblems = problems ?? (form.error(valueField) ? { options: {}, levels: {}, total: form.error(valueField), order: form.error(valueField) } : undefined);
+  const shownProblems = problems ?? (!edited && form.error(valueField) ? { options: {}, levels: {}, total: form.error(valueField), order: form.error(valueField) } : undefined);
   return (
     <Form form={form} label={mode === 'forecast' ? 'Revise your forecast' : 'Reference forecast'} onSubmit={onSubmit} dirty={dirty}>
       {mode === 'reference' ? (
@@ -115,6 +118,7 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
           value={texts}
           onChange={(next) => {
             setProblems(undefined);
+            setEdited(true);
             setTexts(next);
           }}
           problems={shownProblems as ChoiceProblems | undefined}
@@ -130,6 +134,7 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
           value={texts}
           onChange={(next) => {
             setProblems(undefined);
+            setEdited(true);
             setTexts(next);
           }}
           problems={shownProblems as NumericProblems | undefined}
