@@ -13,6 +13,7 @@ import { choiceSummary, numericSummary } from '../../questionTypes/summaries';
 import { TypedEntryDialog, type TypedQuestion } from '../question/TypedEntryDialog';
 import { TypedResolveDialog } from '../question/TypedResolveDialog';
 import { latestEntry } from '../question/typedFacts';
+import type { Done } from './DeskItemCard';
 import type { DeskItem } from './items';
 
 function lastText(q: TypedQuestion): string | null {
@@ -24,14 +25,14 @@ function lastText(q: TypedQuestion): string | null {
   return last ? numericSummary(q.levels, last.quantiles.map((v) => toStoredValue(v, q.value_kind)), q.value_kind, q.unit) : null;
 }
 
-export function TypedDeskActions({ item, toResolve, disabled, onDone }: { item: DeskItem; toResolve: boolean; disabled: boolean; onDone: (message: string) => void }) {
+export function TypedDeskActions({ item, toResolve, disabled, onDone }: { item: DeskItem; toResolve: boolean; disabled: boolean; onDone: (done: Done) => void }) {
   const loaded = useLoad(() => api.getQuestion({ id: item.id }), [item.id]);
   const [dialog, setDialog] = useState<'revise' | 'resolve' | null>(null);
   const q = loaded.data && loaded.data.type !== 'binary' ? loaded.data : undefined;
   const last = q ? lastText(q) : null;
-  const saved = (message: string) => {
+  const saved = (message: string, undo: string) => {
     setDialog(null);
-    onDone(`“${item.title}”: ${message}`);
+    onDone({ message: `“${item.title}”: ${message}`, undo: [undo] });
   };
   return (
     <>

@@ -27,7 +27,8 @@ interface Props {
   question: TypedQuestion;
   open: boolean;
   onClose: () => void;
-  onSaved: (message: string) => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
 }
 
 type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
@@ -113,10 +114,11 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
       onClose();
       return;
     }
+    let undo = '';
     const ok = await form.submit(async () => {
-      await api.updateQuestion(request);
+      undo = (await api.updateQuestion(request)).undo;
     }, PLACEMENT);
-    if (ok) onSaved('Question updated.');
+    if (ok) onSaved('Question saved.', undo);
   }
 
   return (

@@ -16,6 +16,7 @@ import { Form } from '../../components/Form';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { localToIso } from '../../dates';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import { percentText } from '../../percent';
 import { ChoiceForecastInput } from '../../forecastEntry/ChoiceForecastInput';
@@ -33,7 +34,8 @@ interface Props {
   mode: 'forecast' | 'reference';
   open: boolean;
   onClose: () => void;
-  onSaved: (message: string) => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
 }
 
 export function TypedEntryDialog({ question, mode, open, onClose, onSaved }: Props) {
@@ -80,6 +82,8 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
     const found: Record<string, string> = {};
     const at = atLocal ? localToIso(atLocal, question.time_zone) : null;
     if (atLocal && !at) found.at = 'enter a complete date and time, or leave it empty for now';
+    const atProblem = at ? typedTimeProblem(at, mode === 'forecast' ? 'a revision' : 'a reference forecast', question) : null;
+    if (atProblem) found.at = atProblem;
     if (mode === 'reference' && source.trim() === '') found.source = 'name the source, e.g. “client’s view”';
     let value: { probs: number[] } | { quantiles: (number | string)[] } | null = null;
     if (question.type === 'choice') {
@@ -97,11 +101,11 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
     const request = mode === 'forecast' ? { ...common, note } : { ...common, source };
     const schema = mode === 'forecast' ? forecastRequest : referenceRequest;
     if (!form.check(found, { schema, request, placement }) || value === null) return;
+    let undo = '';
     const ok = await form.submit(async () => {
-      if (mode === 'forecast') await api.addForecast({ ...common, note });
-      else await api.addReference({ ...common, source });
+      undo = (mode === 'forecast' ? await api.addForecast({ ...common, note }) : await api.addReference({ ...common, source })).undo;
     }, placement);
-    if (ok) onSaved(`${mode === 'forecast' ? 'Revised to' : `Reference from ${source.trim()}:`} ${entryText(question, value)}.`);
+    if (ok) onSaved(`${mode === 'forecast' ? 'Revised to' : `Reference from ${source.trim()}:`} ${entryText(question, value)}.`, undo);
   }
 
   // The contract's or the service's reason for the whole vector shows under the boxes.

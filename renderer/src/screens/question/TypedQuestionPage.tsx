@@ -16,12 +16,15 @@ import { Badge } from '../../components/Badge';
 import { Button } from '../../components/Button';
 import { ConfirmDialog } from '../../components/ConfirmDialog';
 import { StatusPill } from '../../components/StatusPill';
-import { useToast } from '../../components/Toast';
+import { TextArea } from '../../components/TextArea';
 import { formatInstant, zoneName } from '../../dates';
 import { formatPercent } from '../../percent';
 import { levelsText } from '../../questionTypes/definition';
 import { choiceSummary, numericSummary } from '../../questionTypes/summaries';
-import { hrefTo, navigate } from '../../routing';
+import { useUndoToast } from '../../forgiving/undo';
+import { hrefTo, navigate, questionPath } from '../../routing';
+import { ResolutionHistory } from './ResolutionHistory';
+import { SnoozeNote } from './SnoozeNote';
 import { TypedEditDialog } from './TypedEditDialog';
 import { TypedEntryDialog, type TypedQuestion } from './TypedEntryDialog';
 import { TypedHistoryTables } from './TypedHistoryTables';
@@ -43,9 +46,10 @@ function latestText(q: TypedQuestion, of: 'forecasts' | 'references'): string {
 }
 
 export function TypedQuestionPage({ question: q, settings }: { question: TypedQuestion; settings: Settings }) {
-  const toast = useToast();
+  const undoToast = useUndoToast();
   const [dialog, setDialog] = useState<DialogName | null>(null);
   const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);
+  const [reopenNote, setReopenNote] = useState('');
   const close = () => setDialog(null);
   const status = questionStatus(Date.parse(q.closes_at), q.resolution?.outcome ?? null, Date.now(), settings.closing_soon_hours);
   const zone = q.time_zone;
@@ -53,30 +57,31 @@ export function TypedQuestionPage({ question: q, settings }: { question: TypedQu
   const lastReference = [...q.references].sort((a, b) => Date.parse(a.at) - Date.parse(b.at)).at(-1);
   const resolvedText = q.resolution ? outcomeText(q, q.resolution) : '';
 
-  function saved(message: string) {
+  // As on the yes/no page: every change says what it did in a toast whose Undo takes it back.
+  function saved(message: string, undo: string) {
     setDialog(null);
     setPendingDelete(null);
     diaryChanged();
-    toast.show({ message });
+    undoToast({ message, undo, title: q.title });
   }
 
   async function deleteQuestion() {
-    await api.deleteQuestion({ id: q.id });
+    const { undo } = await api.deleteQuestion({ id: q.id });
     navigate('questions');
     diaryChanged();
-    toast.show({ message: `Deleted “${q.title}”.` });
+    undoToast({ message: `Deleted “${q.title}”.`, undo, title: q.title, afterUndo: () => navigate(questionPath(q.id)) });
   }
 
   async function deletePending() {
     if (!pendingDelete) return;
-    if (pendingDelete.kind === 'forecast') await api.deleteForecast({ id: pendingDelete.id });
-    else await api.deleteReference({ id: pendingDelete.id });
-    saved(pendingDelete.kind === 'forecast' ? 'Revision deleted.' : 'Reference forecast deleted.');
+    const { undo } = pendingDelete.kind === 'forecast' ? await api.deleteForecast({ id: pendingDelete.id }) : await api.deleteReference({ id: pendingDelete.id });
+    saved(pendingDelete.kind === 'forecast' ? 'Revision deleted.' : 'Reference forecast deleted.', undo);
   }
 
   async function reopen() {
-    await api.reopenQuestion({ id: q.id });
-    saved('Reopened; the question awaits a resolution again.');
+    const { undo } = await api.reopenQuestion({ id: q.id, ...(reopenNote.trim() ? { note: reopenNote } : {}) });
+    setReopenNote('');
+    saved('Reopened; the question awaits a resolution again.', undo);
   }
 
   return (
@@ -122,6 +127,10 @@ export function TypedQuestionPage({ question: q, settings }: { question: TypedQu
           </div>
         </section>
       ) : null}
+
+      <ResolutionHistory question={q} />
+
+      <SnoozeNote question={q} />
 
       <section className="figures" aria-label="Key figures">
         <Figure
@@ -231,11 +240,15 @@ export function TypedQuestionPage({ question: q, settings }: { question: TypedQu
       <ConfirmDialog open={dialog === 'delete'} title="Delete this question?" confirmLabel="Delete question" onConfirm={deleteQuestion} onClose={close}>
         <p>
           “{q.title}” will be removed with its {q.forecasts.length} forecast{q.forecasts.length === 1 ? '' : 's'} and {q.references.length} reference
-          forecast{q.references.length === 1 ? '' : 's'}. This cannot be undone.
+          forecast{q.references.length === 1 ? '' : 's'}. You can take it back with Undo in the message that follows.
         </p>
       </ConfirmDialog>
       <ConfirmDialog open={dialog === 'reopen'} title="Reopen this question?" confirmLabel="Reopen" tone="primary" onConfirm={reopen} onClose={close}>
-        <p>The recorded resolution ({resolvedText || 'Void'}) and its note are removed, and the question waits for a resolution again.</p>
+        <p>
+          The recorded resolution ({resolvedText || 'Void'}) is moved to the question’s resolution history, and the question waits for a resolution
+          again.
+        </p>
+        <TextArea label="Why reopen" value={reopenNote} onChange={setReopenNote} rows={2} hint="Optional; kept in the history beside the resolution it removes." />
       </ConfirmDialog>
       <ConfirmDialog
         open={pendingDelete !== null}
@@ -244,7 +257,7 @@ export function TypedQuestionPage({ question: q, settings }: { question: TypedQu
         onConfirm={deletePending}
         onClose={() => setPendingDelete(null)}
       >
-        <p>It will be removed from the history. This cannot be undone.</p>
+        <p>It will be removed from the history. Undo in the message that follows brings it back.</p>
       </ConfirmDialog>
     </div>
   );

@@ -1,7 +1,9 @@
 /**
  * How a choice question came out (pick the option that came true) or a numeric one (enter
  * the value), or Void (cannot be resolved fairly; never scored), when, and a note. Also used
- * to correct a resolution already recorded.
+ * to correct a resolution already recorded: the one it replaces is kept in the question's
+ * history with the reason given here. As in the yes/no dialog, a resolution the diary finds
+ * unusual is sent again only once the user has read why and agreed.
  */
 import { useState, type FormEvent } from 'react';
 import { resolveRequest } from '../../../../shared/contract';
@@ -17,6 +19,8 @@ import { NumberField } from '../../components/NumberField';
 import { TextArea } from '../../components/TextArea';
 import { isoToLocal, localToIso } from '../../dates';
 import { formatValue, readValue } from '../../forecastEntry/numericEntry';
+import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import type { TypedQuestion } from './TypedEntryDialog';
 
@@ -24,10 +28,11 @@ interface Props {
   question: TypedQuestion;
   open: boolean;
   onClose: () => void;
-  onSaved: (message: string) => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
 }
 
-const LABELS = { outcome: 'Outcome', option: 'Outcome', value: 'Value', at: 'Resolved at', note: 'Note' };
+const LABELS = { outcome: 'Outcome', option: 'Outcome', value: 'Value', at: 'Resolved at', note: 'Note', correction_note: 'Why the correction' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
 export function TypedResolveDialog({ question, open, onClose, onSaved }: Props) {
@@ -49,6 +54,7 @@ function initialChoice(question: TypedQuestion): string {
 
 function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
   const form = useForm();
+  const ask = useAskFirst();
   const cancel = useCloseRequest(onClose);
   const current = question.resolution;
   const [initial] = useState(() => ({
@@ -60,7 +66,8 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
   const [valueText, setValueText] = useState(initial.value);
   const [atLocal, setAtLocal] = useState(initial.local);
   const [note, setNote] = useState(current?.note ?? '');
-  const dirty = choice !== initial.choice || valueText !== initial.value || atLocal !== initial.local || note !== (current?.note ?? '');
+  const [why, setWhy] = useState('');
+  const dirty = choice !== initial.choice || valueText !== initial.value || atLocal !== initial.local || note !== (current?.note ?? '') || why !== '';
 
   const choices =
     question.type === 'choice'
@@ -77,6 +84,8 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
     const at = untouched ? (current?.at ?? null) : localToIso(atLocal, question.time_zone);
     const found: Record<string, string> = {};
     if (!untouched && !at) found.at = 'enter when it resolved';
+    const atProblem = at && !untouched ? typedTimeProblem(at, 'a resolution', question) : null;
+    if (atProblem) found.at = atProblem;
     let outcome: { outcome: 'void' } | { outcome: 'option'; option: number } | { outcome: 'value'; value: number | string } | null = null;
     if (choice === 'void') outcome = { outcome: 'void' };
     else if (question.type === 'choice') {
@@ -88,13 +97,19 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
       else if (read.value === null) found.value = question.value_kind === 'date' ? 'pick the date it happened' : 'enter the value it took';
       else outcome = { outcome: 'value', value: fromStoredValue(read.value, question.value_kind) };
     }
-    const request = { id: question.id, ...(outcome ?? { outcome: '' }), note, ...(at ? { at } : {}) };
+    const extra = { note, ...(at ? { at } : {}), ...(current && why.trim() ? { correction_note: why } : {}) };
+    const request = { id: question.id, ...(outcome ?? { outcome: '' }), ...extra };
     if (!form.check(found, { schema: resolveRequest, request, placement: PLACEMENT }) || outcome === null) return;
     const chosen = outcome;
+    let undo: string | null = null;
     const ok = await form.submit(async () => {
-      await api.resolveQuestion({ id: question.id, ...chosen, note, ...(at ? { at } : {}) });
+      const answer = await sendAskingFirst(ask, { confirmLabel: `Resolve ${outcomeText(question, chosen)} anyway` }, (confirm) =>
+        api.resolveQuestion({ id: question.id, ...chosen, ...extra, ...(confirm ? { confirm } : {}) }),
+      );
+      undo = answer?.undo ?? null;
     }, PLACEMENT);
-    if (ok) onSaved(`${current ? 'Resolution corrected to' : 'Resolved:'} ${outcomeText(question, chosen)}.`);
+    // Declined at the warning: nothing changed, and the form stays as typed.
+    if (ok && undo !== null) onSaved(`${current ? 'Resolution corrected to' : 'Resolved:'} ${outcomeText(question, chosen)}.`, undo);
   }
 
   return (
@@ -116,6 +131,16 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
       {choice === 'void' ? <p className="field__hint">Void questions are never scored.</p> : null}
       <DateTimeField label="Resolved at" local={atLocal} onLocalChange={setAtLocal} timeZone={question.time_zone} required error={form.error('at')} />
       <TextArea label="Note" value={note} onChange={setNote} hint="What happened, and where you can check it." error={form.error('note')} />
+      {current ? (
+        <TextArea
+          label="Why the correction"
+          value={why}
+          onChange={setWhy}
+          rows={2}
+          hint="Optional. The resolution it replaces is kept in the question’s history with this reason."
+          error={form.error('correction_note')}
+        />
+      ) : null}
       <div className="form__actions">
         <Button onClick={cancel}>Cancel</Button>
         <Button type="submit" variant="primary" busy={form.busy}>
