@@ -83,6 +83,7 @@ test('the snoozed section lists each question once, back at its first snooze’s
   const nudge = (id: string, kind: SnoozedNudge['kind'], until: string): SnoozedNudge => ({
     id,
     title: `Question ${id}`,
+    type: 'binary',
     kind,
     due_at: '2026-12-01T09:00:00.000Z',
     closes_at: '2027-01-01T00:00:00.000Z',
