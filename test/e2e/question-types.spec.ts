@@ -151,14 +151,23 @@ test('a numeric question: a decreasing range refused by name, revise, resolve wi
   await expect(row.getByRole('cell').nth(3)).toHaveText('13 weeks (9 – 20)');
   await row.getByRole('link').click();
 
-  await page.getByRole('button', { name: 'Revise' }).click();
-  const revise = page.getByRole('dialog', { name: 'Revise your forecast' });
-  await expect(revise.getByRole('spinbutton', { name: 'P50 (median)' })).toHaveValue('13');
-  await revise.getByRole('spinbutton', { name: 'P10 (low)' }).fill('11');
-  await revise.getByRole('spinbutton', { name: 'P90 (high)' }).fill('17');
-  await revise.getByRole('button', { name: 'Save revision' }).click();
-  await expect(revise).toBeHidden();
-  await expect(page.getByTestId('toast').filter({ hasText: 'Revised to median 13 weeks.' })).toBeVisible();
+  // Revised twice: the first revision is taken back with the Undo in its toast.
+  for (const undo of [true, false]) {
+    await page.getByRole('button', { name: 'Revise' }).click();
+    const revise = page.getByRole('dialog', { name: 'Revise your forecast' });
+    await expect(revise.getByRole('spinbutton', { name: 'P50 (median)' })).toHaveValue('13');
+    await revise.getByRole('spinbutton', { name: 'P10 (low)' }).fill('11');
+    await revise.getByRole('spinbutton', { name: 'P90 (high)' }).fill('17');
+    await revise.getByRole('button', { name: 'Save revision' }).click();
+    await expect(revise).toBeHidden();
+    const toast = page.getByTestId('toast').filter({ hasText: 'Revised to median 13 weeks.' });
+    await expect(toast).toBeVisible();
+    await expect(page.getByTestId('revisions-table').getByTestId('revision-row')).toHaveCount(2);
+    if (undo) {
+      await toast.getByRole('button', { name: 'Undo' }).click();
+      await expect(page.getByTestId('revisions-table').getByTestId('revision-row')).toHaveCount(1);
+    }
+  }
 
   await page.getByRole('button', { name: 'Resolve' }).click();
   const resolve = page.getByRole('dialog', { name: 'Resolve the question' });
