@@ -12,12 +12,12 @@ export const QUESTION_KINDS: readonly QuestionKind[] = ['event_by_deadline', 'st
  * fixed when the question is created: `binary` (yes/no, the default), `choice` (exactly one
  * of 2–12 options comes true) or `numeric` (a quantity in a unit, or a calendar date).
  */
-export type QuestionType = 'binary' | 'choice' | 'numeric';
-export const QUESTION_TYPES: readonly QuestionType[] = ['binary', 'choice', 'numeric'];
+export const QUESTION_TYPES = ['binary', 'choice', 'numeric'] as const;
+export type QuestionType = (typeof QUESTION_TYPES)[number];
 
 /** A numeric question's values are plain numbers, or calendar dates (`YYYY-MM-DD` across the API and in files). */
-export type ValueKind = 'number' | 'date';
-export const VALUE_KINDS: readonly ValueKind[] = ['number', 'date'];
+export const VALUE_KINDS = ['number', 'date'] as const;
+export type ValueKind = (typeof VALUE_KINDS)[number];
 
 /**
  * A numeric question's value as the API and the diary file carry it: a finite number, or

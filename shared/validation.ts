@@ -142,7 +142,7 @@ export const kind = z.enum(['event_by_deadline', 'state_at_deadline'], { error: 
 
 // ---- question types (INTERFACES.md "Question types"; SCORING.md) ---------------------
 
-export const questionType = z.enum(QUESTION_TYPES as [string, ...string[]], { error: 'must be binary, choice or numeric' });
+export const questionType = z.enum(QUESTION_TYPES, { error: 'must be binary, choice or numeric' });
 
 /** A sum of probabilities as a percentage a user reads: 0.9 → "90 %", 1.0000011 → "100.00011 %". */
 export function sumAsPercent(sum: number): string {
@@ -194,7 +194,7 @@ export const ordered = z.boolean({ error: 'must be true or false' });
 /** Shown beside a numeric question's values ("weeks", "£k"); may be empty. */
 export const unit = text('one').trim().max(40, { message: 'must be at most 40 characters' });
 
-export const valueKind = z.enum(VALUE_KINDS as [string, ...string[]], { error: 'must be number or date' });
+export const valueKind = z.enum(VALUE_KINDS, { error: 'must be number or date' });
 
 export const levels = z
   .array(z.number({ error: 'must be a number' }), { error: 'must be a list of quantile levels such as [0.1, 0.5, 0.9]' })

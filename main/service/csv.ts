@@ -11,7 +11,8 @@
  * at a time and hands each question over at its first row, with the rows that follow as
  * additions to it, so neither holds the file or the diary in memory.
  */
-import type { z } from 'zod';
+import { z } from 'zod';
+import { OUTCOMES } from '../../shared/domain';
 import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
 import * as v from '../../shared/validation';
 import { ApiError } from '../../shared/contract';
@@ -63,6 +64,8 @@ const Q = fileQuestion.shape;
 const F = Q.forecasts.element.shape;
 const REF = Q.references.unwrap().element.shape;
 const RES = Q.resolution.unwrap().unwrap().shape;
+/** The CSV columns hold yes/no questions, so their outcomes: yes, no or void. */
+const YES_NO_OUTCOME = z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' });
 const COST = v.costs.shape;
 
 /** The columns that describe a revision or a reference forecast, not the question. */
@@ -274,7 +277,7 @@ function readQuestionCells(cell: Cell, row: number): Record<QuestionColumn, unkn
     false_alarm_cost: optional('false_alarm_cost', COST.false_alarm, num('false_alarm_cost')),
     miss_cost: optional('miss_cost', COST.miss, num('miss_cost')),
     checkin_days: optional('checkin_days', Q.checkin_days, num('checkin_days')),
-    outcome: optional('outcome', RES.outcome, (t) => t.toLowerCase()),
+    outcome: optional('outcome', YES_NO_OUTCOME, (t) => t.toLowerCase()),
     resolved_at: optional('resolved_at', RES.at),
     resolution_note: text('resolution_note', RES.note),
   };

@@ -343,15 +343,16 @@ export function createDiary(ctx: DiaryContext) {
     }
     const text = req.text?.trim();
     if (text) {
-      // Search title, rule, tags and the notes written with revisions; LIKE's own wildcards
+      // Search title, rule, tags, a choice question's options and the notes written with revisions; LIKE's own wildcards
       // in the text are taken literally.
       const like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
       where.push(
         `(lower(q.title) LIKE ? ESCAPE '\\' OR lower(q.rule) LIKE ? ESCAPE '\\'
           OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE ? ESCAPE '\\')
+          OR q.id IN (SELECT question_id FROM question_options WHERE lower(label) LIKE ? ESCAPE '\\')
           OR q.id IN (SELECT question_id FROM forecasts WHERE lower(note) LIKE ? ESCAPE '\\'))`,
       );
-      args.push(like, like, like, like);
+      args.push(like, like, like, like, like);
     }
     const rows = read
       .prepare(

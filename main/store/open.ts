@@ -84,6 +84,7 @@ export function migrate(db: Db, migrations: readonly Migration[] = MIGRATIONS): 
   for (const m of migrations) {
     if (m.version <= current) continue;
     // foreign_keys can be switched only outside a transaction (SQLite's table-rebuild procedure).
+    const keys = db.pragma('foreign_keys', { simple: true }) as number;
     if (m.rebuildsTables) db.pragma('foreign_keys = OFF');
     try {
       writeTransaction(db, () => {
@@ -97,7 +98,7 @@ export function migrate(db: Db, migrations: readonly Migration[] = MIGRATIONS): 
         db.pragma(`user_version = ${m.version}`);
       });
     } finally {
-      if (m.rebuildsTables) db.pragma('foreign_keys = ON');
+      if (m.rebuildsTables) db.pragma(`foreign_keys = ${keys ? 'ON' : 'OFF'}`);
     }
   }
   return db.pragma('user_version', { simple: true }) as number;

@@ -113,6 +113,9 @@ test('choice and numeric questions come back exactly as given, with their defaul
   assert.deepEqual(byId.get(c.id), { ...byId.get(c.id), type: 'choice', options: c.options, last_probs: [0.1, 0.2, 0.7], last_p: null, levels: null });
   assert.deepEqual(byId.get(n.id), { ...byId.get(n.id), type: 'numeric', unit: 'weeks', value_kind: 'number', levels: [0.1, 0.5, 0.9], last_quantiles: awkward, forecast_count: 2 });
   assert.deepEqual((byId.get(date.id) as { last_quantiles: unknown }).last_quantiles, date.forecasts[0]!.quantiles);
+  // Search finds a choice question by one of its options too.
+  const found = await d.call('listQuestions', { text: 'ambleDENE' });
+  assert.deepEqual(found.questions.map((q: { id: string }) => q.id), [c.id]);
 });
 
 test('a choice vector must sum to 100 % within 1e-6: the one-ulp neighbours of both edges', async () => {

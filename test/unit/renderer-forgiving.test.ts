@@ -83,11 +83,11 @@ test('the snoozed section lists each question once, back at its first snooze’s
   const nudge = (id: string, kind: SnoozedNudge['kind'], until: string): SnoozedNudge => ({
     id,
     title: `Question ${id}`,
-    type: 'binary',
     kind,
     due_at: '2026-12-01T09:00:00.000Z',
     closes_at: '2027-01-01T00:00:00.000Z',
     time_zone: 'Europe/London',
+    type: 'binary',
     last_p: 0.5,
     last_forecast_at: null,
     stale: false,
