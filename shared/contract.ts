@@ -7,6 +7,7 @@
 import { z } from 'zod';
 import type { DueNudge, NudgeKind, Question, QuestionSummary, Settings, SnoozedNudge } from './domain';
 import { ANY_OUTCOMES, NUDGE_KINDS, QUESTION_STATUSES } from './domain';
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from './hindsight-entries';
 import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf } from './question-types';
 import type { ChoiceDetail, ChoiceReport, NumericDetail, NumericReport, ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
@@ -27,9 +28,7 @@ const firstForecast = z.object({
   lenses: v.lenses.optional(),
 });
 
-const { questionFields } = v;
-
-const { typeFields } = v;
+const { questionFields, typeFields } = v;
 
 export const createQuestionRequest = z
   .object({ ...questionFields, ...typeFields, first_forecast: firstForecast.optional() })
@@ -98,22 +97,22 @@ const confirmed = z.boolean({ error: 'must be true or false' });
  */
 export const resolveRequest = z
   .object({
-  id,
-  /** yes, no or void (yes/no questions); option or void (choice); value or void (numeric). */
-  outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
-  /** With outcome option: the 0-based index of the option that came true. */
-  option: v.optionIndex.optional(),
-  /** With outcome value: the value the question took (a number, or a date YYYY-MM-DD). */
-  value: v.numericValue.optional(),
-  at: v.instant.optional(),
-  note: v.note.optional(),
-  /** Why the earlier resolution was wrong; only when correcting. */
-  correction_note: v.note.optional(),
-  /**
-   * The user saw the warning (error code `confirm`) and means it: a question about the
-   * state at its close resolved before that close.
-   */
-  confirm: confirmed.optional(),
+    id,
+    /** yes, no or void (yes/no questions); option or void (choice); value or void (numeric). */
+    outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
+    /** With outcome option: the 0-based index of the option that came true. */
+    option: v.optionIndex.optional(),
+    /** With outcome value: the value the question took (a number, or a date YYYY-MM-DD). */
+    value: v.numericValue.optional(),
+    at: v.instant.optional(),
+    note: v.note.optional(),
+    /** Why the earlier resolution was wrong; only when correcting. */
+    correction_note: v.note.optional(),
+    /**
+     * The user saw the warning (error code `confirm`) and means it: a question about the
+     * state at its close resolved before that close.
+     */
+    confirm: confirmed.optional(),
   })
   // Which outcomes fit is the question's business (the service checks its type); here: option and value go with their outcomes.
   .superRefine((r, ctx) => v.addIssues(ctx, resolutionPairingIssues(r)));
@@ -386,7 +385,12 @@ export interface HindsightEntry {
 
 export interface Hindsight {
   threshold: number;
+  /** Yes/no questions. */
   entries: HindsightEntry[];
+  /** Choice questions whose top choice was held at the threshold: misses, and hits with include_hits (shared/hindsight-entries.ts). */
+  choice_entries: ChoiceHindsightEntry[];
+  /** Numeric questions whose outcome fell outside the final forecast's widest range, the largest surprise first. */
+  numeric_surprises: NumericHindsightEntry[];
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;
 }
