@@ -1,7 +1,8 @@
 /**
  * The plain readings of the Scorecard's choice and numeric sections
  * (renderer/src/screens/scorecard/typedReadings.ts), built from the engine's own rows:
- * every sentence gives its count and sample size, and the Wilson interval where the figure has one.
+ * every sentence gives its count and sample size, and the Wilson interval where the figure has one;
+ * and Hindsight's readings of a choice miss and a numeric surprise (screens/hindsight/typedWording.ts).
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
@@ -15,6 +16,7 @@ import {
   revisingSentence,
   topChoiceSentence,
 } from '../../renderer/src/screens/scorecard/typedReadings';
+import { choiceVerdictSentence, surpriseSentence } from '../../renderer/src/screens/hindsight/typedWording';
 
 function row(successes: number, n: number) {
   const [wilson_low, wilson_high] = wilsonInterval(successes, n);
@@ -68,4 +70,19 @@ test('where outcomes landed: each gap with its count, share and expected share',
   assert.equal(gapSentence([0.1, 0.5, 0.9], gaps, 0), '6 of 20 landed below P10 (30%; expected 10%).');
   assert.equal(gapSentence([0.1, 0.5, 0.9], gaps, 1), '4 of 20 landed between P10 and P50 (20%; expected 40%).');
   assert.equal(gapSentence([0.1, 0.5, 0.9], gaps, 3), '6 of 20 landed above P90 (30%; expected 10%).');
+});
+
+test('Hindsight reads a choice miss and a numeric surprise in one sentence each', () => {
+  assert.equal(
+    choiceVerdictSentence({ options: ['Kestrowe', 'Ambledene', 'Neither'], top_option: 0, top_p: 0.85, outcome_option: 1, outcome_p: 0.1, verdict: 'miss' }),
+    'You gave Kestrowe 85%; Ambledene came true, at 10%.',
+  );
+  assert.equal(
+    surpriseSentence({ value: 26, low: 10, high: 16, levels: [0.1, 0.5, 0.9], side: 'above', distance: 10, size: 10 / 6, unit: 'weeks', value_kind: 'number' }),
+    '26 weeks: 10 weeks above your P10–P90 range (10 weeks – 16 weeks); 1.7 times its width outside.',
+  );
+  assert.equal(
+    surpriseSentence({ value: '2026-12-20', low: '2026-11-20', high: '2026-12-15', levels: [0.05, 0.5, 0.95], side: 'above', distance: 5, size: 5 / 25, unit: '', value_kind: 'date' }),
+    '2026-12-20: 5 days above your P5–P95 range (2026-11-20 – 2026-12-15); 0.2 times its width outside.',
+  );
 });
