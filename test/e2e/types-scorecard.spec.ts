@@ -2,10 +2,12 @@
  * The Scorecard's sections for choice and numeric questions (issue 9) against a real diary:
  * each section appears only when the view holds questions of its type, its readings are the
  * diary's own `score` answer for the same filter (fetched over the same API), the tag filter
- * applies to every section, and axe scans and screenshots in light and dark at 1024 and 1920.
+ * applies to every section; Hindsight lists the choice confident misses and the numeric
+ * surprises with the notes of the time. Axe scans and screenshots in light and dark at 1024
+ * and 1920.
  */
 import { expect, test, type Page } from '@playwright/test';
-import type { Scorecard } from '../../shared/contract';
+import type { Hindsight, Scorecard } from '../../shared/contract';
 import { apiCall, expectNoSeriousViolations } from './helpers';
 import { openApp, useDiaryServer, type AppPage } from './serve';
 
@@ -40,9 +42,10 @@ async function seed(): Promise<void> {
       options,
       ordered: i % 2 === 0,
       option_base_rates: [0.4, 0.4, 0.2],
-      first_forecast: { at: iso(59), probs: i % 3 === 0 ? [0.85, 0.1, 0.05] : [0.5, 0.3, 0.2] },
+      first_forecast: { at: iso(59), probs: i % 3 === 0 ? [0.85, 0.1, 0.05] : [0.5, 0.3, 0.2], note: `First read ${i + 1}` },
     });
-    await apiCall(url, 'resolveQuestion', { id: q.id, outcome: 'option', option: i % 3, at: iso(5) });
+    // Supplier pick 7 was called at 85% for Kestrowe and went to Ambledene: a confident miss.
+    await apiCall(url, 'resolveQuestion', { id: q.id, outcome: 'option', option: i === 6 ? 1 : i % 3, at: iso(5), note: `Decision letter ${i + 1}` });
   }
   for (let i = 0; i < 10; i++) {
     const q = await apiCall<{ id: string }>(url, 'createQuestion', {
@@ -104,4 +107,34 @@ test('choice and numeric sections show the diary’s own figures, with sample si
   await expect(choice.getByTestId('headline-choice-brier-value')).toHaveText(tagged.report.choice.brier!.toFixed(3));
   await expect(page.getByTestId('numeric-section')).toHaveCount(0);
   await expect(page.getByRole('heading', { level: 2, name: 'Numeric questions' })).toHaveCount(0);
+});
+
+test('Hindsight lists the choice confident miss and the numeric surprises with the notes written at the time', async () => {
+  const { page } = app;
+  const answer = await apiCall<Hindsight>(server().url, 'hindsight', {});
+  const misses = answer.choice_entries.filter((e) => e.verdict === 'miss');
+  expect(misses.map((e) => e.title)).toEqual(['Supplier pick 7']);
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  const choice = page.getByTestId('hs-choice-misses');
+  await expect(choice.getByRole('heading', { level: 2 })).toHaveText('Multiple choice: confident misses (1)');
+  const card = choice.getByTestId('hindsight-choice-entry');
+  await expect(card.getByTestId('verdict-sentence')).toHaveText('You gave Kestrowe 85%; Ambledene came true, at 10%.');
+  await expect(card.getByTestId('revision-note')).toHaveText('First read 7');
+  await expect(card.getByTestId('resolution-note')).toHaveText('Decision letter 7');
+
+  const surprises = page.getByTestId('hs-surprises').getByTestId('hindsight-numeric-entry');
+  await expect(surprises).toHaveCount(answer.numeric_surprises.length);
+  // The largest surprise first: 26 weeks against a final P10–P90 (an 80% range) of 10 to 16 weeks.
+  await expect(surprises.first().getByTestId('verdict-sentence')).toHaveText(
+    '26 weeks: 10 weeks above your 80% range (10 weeks – 16 weeks); 1.7 times its width outside.',
+  );
+  await expect(surprises.first()).toContainText('13 weeks (10 – 16)');
+  for (const scheme of ['light', 'dark'] as const) {
+    await page.emulateMedia({ colorScheme: scheme });
+    await expectNoSeriousViolations(page, `Hindsight with choice and numeric entries (${scheme})`);
+    for (const width of [1024, 1920]) {
+      await page.setViewportSize({ width, height: 900 });
+      await page.screenshot({ path: `test/e2e/artifacts/types-hindsight-${scheme}-${width}.png`, fullPage: true });
+    }
+  }
 });

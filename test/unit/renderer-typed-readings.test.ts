@@ -78,11 +78,11 @@ test('Hindsight reads a choice miss and a numeric surprise in one sentence each'
     'You gave Kestrowe 85%; Ambledene came true, at 10%.',
   );
   assert.equal(
-    surpriseSentence({ value: 26, low: 10, high: 16, levels: [0.1, 0.5, 0.9], side: 'above', distance: 10, size: 10 / 6, unit: 'weeks', value_kind: 'number' }),
-    '26 weeks: 10 weeks above your P10–P90 range (10 weeks – 16 weeks); 1.7 times its width outside.',
+    surpriseSentence({ value: 26, low: 10, high: 16, level: 0.8, side: 'above', distance: 10, size: 10 / 6, unit: 'weeks', value_kind: 'number' }),
+    '26 weeks: 10 weeks above your 80% range (10 weeks – 16 weeks); 1.7 times its width outside.',
   );
   assert.equal(
-    surpriseSentence({ value: '2026-12-20', low: '2026-11-20', high: '2026-12-15', levels: [0.05, 0.5, 0.95], side: 'above', distance: 5, size: 5 / 25, unit: '', value_kind: 'date' }),
-    '2026-12-20: 5 days above your P5–P95 range (2026-11-20 – 2026-12-15); 0.2 times its width outside.',
+    surpriseSentence({ value: '2026-12-20', low: '2026-11-20', high: '2026-12-15', level: 0.9, side: 'above', distance: 5, size: 5 / 25, unit: '', value_kind: 'date' }),
+    '2026-12-20: 5 days above your 90% range (2026-11-20 – 2026-12-15); 0.2 times its width outside.',
   );
 });

@@ -76,7 +76,7 @@ interface CardFrameProps {
 function CardFrame(p: CardFrameProps) {
   const headingId = useId();
   return (
-    <article className={`hs-entry hs-entry--${p.verdict}`} aria-labelledby={headingId} data-testid="hindsight-entry" data-id={p.id} data-verdict={p.verdict} data-kind={p.kind}>
+    <article className={`hs-entry hs-entry--${p.verdict}`} aria-labelledby={headingId} data-testid={`hindsight-${p.kind}-entry`} data-id={p.id} data-verdict={p.verdict}>
       <header className="hs-entry__head">
         {p.badge}
         <h3 id={headingId} className="hs-entry__title">
