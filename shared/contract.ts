@@ -7,6 +7,7 @@
 import { z } from 'zod';
 import type { DueNudge, NudgeKind, Question, QuestionSummary, Settings, SnoozedNudge } from './domain';
 import { ANY_OUTCOMES, NUDGE_KINDS, QUESTION_STATUSES } from './domain';
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from './hindsight-entries';
 import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf } from './question-types';
 import type { ChoiceDetail, ChoiceReport, NumericDetail, NumericReport, ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
@@ -384,7 +385,12 @@ export interface HindsightEntry {
 
 export interface Hindsight {
   threshold: number;
+  /** Yes/no questions. */
   entries: HindsightEntry[];
+  /** Choice questions whose top choice was held at the threshold: misses, and hits with include_hits (shared/hindsight-entries.ts). */
+  choice_entries: ChoiceHindsightEntry[];
+  /** Numeric questions whose outcome fell outside the final forecast's widest range, the largest surprise first. */
+  numeric_surprises: NumericHindsightEntry[];
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;
 }

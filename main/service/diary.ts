@@ -22,6 +22,8 @@ import {
 import {
   NUDGE_KIND_NAMES,
   isBinary,
+  isChoice,
+  isNumeric,
   questionStatus,
   type Lens,
   type NudgeKind,
@@ -66,6 +68,7 @@ import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
 import * as undoStore from '../store/undo';
 import { confidentCalls, referenceLeads } from './hindsight';
+import { choiceHindsight, numericHindsight } from './hindsight-types';
 import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
@@ -642,7 +645,13 @@ export function createDiary(ctx: DiaryContext) {
     read.exec('BEGIN');
     try {
       const batches = exportBatches(read, EXPORT_BATCH);
-      yield* format === 'csv' ? diaryCsvText(batches) : diaryFileText(settings(), batches);
+      if (format === 'csv') {
+        // The CSV header comes first: it has the type columns only when some question needs them (docs/csv-format.md).
+        const withTypes = read.prepare("SELECT EXISTS (SELECT 1 FROM questions WHERE type <> 'binary')").pluck().get() === 1;
+        yield* diaryCsvText(batches, withTypes);
+      } else {
+        yield* diaryFileText(settings(), batches);
+      }
     } finally {
       read.exec('COMMIT');
     }
@@ -688,6 +697,11 @@ export function createDiary(ctx: DiaryContext) {
     const options = scoreOptions(req);
     const { choice, numeric } = typedScoringInput();
     return { ...computeScoreReport(scoringInput(req), options), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+  }
+
+  /** Some questions of one type by id, as the service returns them (Hindsight's entries show their notes and labels). */
+  function detailsOf<Q extends Question>(is: (q: Question) => q is Q, t: number): (ids: string[]) => Q[] {
+    return (ids) => (ids.length ? qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)).filter(is) : []);
   }
 
   const EXPORT_FILES: Record<ExportFormat, { name: string; extension: string; media_type: string }> = {
@@ -1143,11 +1157,12 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput({});
       const options = scoreOptions(req);
       const t = now();
-      // Confident calls are yes/no questions' (the scoring input holds no others).
-      const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)).filter(isBinary);
+      const typed = typedScoringInput();
       return {
         threshold: req.threshold,
-        entries: confidentCalls(questions, options, req.threshold, req.include_hits, details),
+        entries: confidentCalls(questions, options, req.threshold, req.include_hits, detailsOf(isBinary, t)),
+        choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
+        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
         report: computeScoreReport(questions, options),
       };
     },
@@ -1157,7 +1172,8 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput({});
       const options = scoreOptions({ tag: req.tag });
       const t = now();
-      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t)).filter(isBinary);
+      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
+      const typed = typedScoringInput();
       const html = renderBriefing({
         tag: req.tag ?? null,
         generated_at: now(),
@@ -1165,6 +1181,8 @@ export function createDiary(ctx: DiaryContext) {
         report: computeScoreReport(questions, options),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
+        choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)),
+        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
       });
       return { html, title: briefingTitle(req.tag ?? null) };
     },

@@ -67,6 +67,8 @@ function input(loaded: Loaded, tag: string | null, extra: Partial<BriefingInput>
     report: loaded.report,
     questions: loaded.questions,
     threshold: THRESHOLD,
+    choice_misses: [],
+    numeric_surprises: [],
     ...extra,
   };
 }
