@@ -33,6 +33,7 @@ import { lastForecast } from './questionFacts';
 import { ReferenceDialog } from './ReferenceDialog';
 import { ResolutionHistory } from './ResolutionHistory';
 import { ResolveDialog } from './ResolveDialog';
+import { TypedQuestionPage } from './TypedQuestionPage';
 import { ReviseDialog } from './ReviseDialog';
 import { SnoozeNote } from './SnoozeNote';
 
@@ -62,15 +63,7 @@ export function QuestionScreen({ params }: ScreenProps) {
     );
   }
   if (!loaded.data || !question || question.id !== id) return <div className="screen" aria-busy="true" />;
-  if (question.type !== 'binary') {
-    return (
-      <div className="screen">
-        <EmptyState title={question.title} actions={<a href={hrefTo('questions')}>Back to Questions</a>}>
-          <p>This is a {question.type === 'choice' ? 'multiple-choice' : 'numeric'} question. Its forecasts are kept in the diary and in every export; this page draws yes/no questions.</p>
-        </EmptyState>
-      </div>
-    );
-  }
+  if (question.type !== 'binary') return <TypedQuestionPage question={question} settings={loaded.data[1]} />;
   return <QuestionPage question={question} settings={loaded.data[1]} />;
 }
 
