@@ -494,6 +494,13 @@ function shownRange(q: { value_kind: ValueKind; unit: string }, low: NumericValu
   return q.unit ? `${span} ${q.unit}` : span;
 }
 
+/** A forecast's values in level order: "10 / 14 / 20 weeks", or dates each in full. */
+function shownValues(q: { value_kind: ValueKind; unit: string }, values: readonly NumericValue[]): string {
+  if (q.value_kind === 'date') return values.map((x) => shownValue(q, x)).join(' / ');
+  const list = values.map((x) => NUMBER_FORMAT.format(x as number)).join(' / ');
+  return q.unit ? `${list} ${q.unit}` : list;
+}
+
 /** How far outside the range, in the question's unit: days for a date. */
 function shownDistance(e: NumericHindsightEntry): string {
   const n = NUMBER_FORMAT.format(e.distance);
@@ -506,7 +513,7 @@ function numericEntry(e: NumericHindsightEntry, timeZone: string): string {
   const counting = e.forecasts.filter((f) => f.counted);
   const levels = e.levels.map((l) => `P${Math.round(l * 100)}`).join(' / ');
   const path = counting
-    .map((f) => `<tr><td class="date">${escapeHtml(when.format(instant(f.at, `question ${e.id} forecast time`)))}</td><td class="values">${f.quantiles.map((q) => escapeHtml(shownValue(e, q))).join(' / ')}</td><td class="note">${noteCell(f.note)}</td></tr>`)
+    .map((f) => `<tr><td class="date">${escapeHtml(when.format(instant(f.at, `question ${e.id} forecast time`)))}</td><td class="values">${escapeHtml(shownValues(e, f.quantiles))}</td><td class="note">${noteCell(f.note)}</td></tr>`)
     .join('\n');
   const size = e.size === null ? 'a range of zero width' : `${fixed(e.size, 2)} × the range's width`;
   return `<article class="entry miss">

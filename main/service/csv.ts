@@ -189,7 +189,7 @@ function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
     opened_at: q.opened_at,
     closes_at: q.closes_at,
     time_zone: q.time_zone,
-    base_rate: binary?.base_rate == null ? '' : String(binary.base_rate),
+    base_rate: binary === null || binary.base_rate === null ? '' : String(binary.base_rate),
     base_rate_note: q.base_rate_note,
     false_alarm_cost: binary?.costs ? String(binary.costs.false_alarm) : '',
     miss_cost: binary?.costs ? String(binary.costs.miss) : '',

@@ -253,6 +253,11 @@ test('the command line imports, exports and scores every type (forelog import / 
   assert.deepEqual([score.scored, score.choice.scored, score.numeric.scored, score.numeric.open], [1, 1, 1, 1]);
   assert.deepEqual(score.choice.confident_misses.map((m: { id: string }) => m.id), [ids.choice]);
   assert.deepEqual(score, JSON.parse(JSON.stringify(d.service.diary.scoreReport({}))), 'the same report as the app');
+  // The readable form has a section per type present.
+  const table = run('score', '--db', db);
+  for (const line of ['Yes/no questions', 'Multiple-choice questions', 'Top choice came true', 'Numeric questions', '80% ranges (n=1)']) {
+    assert.ok(table.includes(line), `${line} in:\n${table}`);
+  }
 });
 
 test('the scoring reader loads choice and numeric revisions as the numbers stored, dates as days', async () => {

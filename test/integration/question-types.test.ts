@@ -310,6 +310,9 @@ test('editing a revision and a reference, deleting a question, and undoing each,
   assert.deepEqual(noteOnly.forecasts[0]!.quantiles, [9, 13, 20], 'a value left out stays');
   const deleted = await d.call('deleteQuestion', { id: n.id });
   await d.call('undo', { token: deleted.undo });
+  const deletedChoice = await d.call('deleteQuestion', { id: c.id });
+  assert.equal(d.service.store.read.prepare('SELECT count(*) FROM question_options').pluck().get(), 0, 'the options go with the question');
+  await d.call('undo', { token: deletedChoice.undo });
   await d.call('undo', { token: noteOnly.undo });
   await d.call('undo', { token: edited.undo });
   await d.call('undo', { token: withRef.undo });
