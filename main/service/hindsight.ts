@@ -4,7 +4,7 @@
  * forecasts count, the final forecast, the window end) come from shared/scoring, once.
  */
 import type { HindsightEntry, ReferenceLeadSummary } from '../../shared/contract';
-import type { Question } from '../../shared/domain';
+import type { BinaryQuestion } from '../../shared/domain';
 import { confidentVerdict, prepareScoredSet, referenceLead, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { toIso } from '../../shared/time';
 
@@ -13,7 +13,7 @@ export function confidentCalls(
   options: ScoreOptions,
   threshold: number,
   includeHits: boolean,
-  details: (ids: string[]) => Question[],
+  details: (ids: string[]) => BinaryQuestion[],
 ): HindsightEntry[] {
   const set = prepareScoredSet(scoring, options);
   const picked: { i: number; verdict: 'miss' | 'hit' }[] = [];

@@ -25,6 +25,7 @@ import type {
   ScoreFilter,
   ScoringNumericQuestion,
   Surprise,
+  SurpriseDetail,
 } from './types';
 import { assertFinite, describeQuestion, failQuestion } from './validate';
 
@@ -279,10 +280,11 @@ function relativeWisVsFirst(s: NumericScores): number | null {
 /**
  * Surprises (SCORING.md): the outcome fell outside the widest central interval; size =
  * distance outside / width, null for a zero-width interval. Zero-width ones first, then
- * largest size; ties by id in code units so the output is stable.
+ * largest size; ties by id in code units so the output is stable. `extra` adds fields to
+ * each (Hindsight's details) from the question's index in the set.
  */
-function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
-  const out: Surprise[] = [];
+function collectSurprises<S extends Surprise>(set: NumericScoredSet, s: NumericScores, extra: (i: number, surprise: Surprise) => S): S[] {
+  const out: S[] = [];
   for (let i = 0; i < set.n; i++) {
     const c = s.intervals[i]![0];
     if (c === undefined) continue;
@@ -293,15 +295,8 @@ function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
     if (y >= low && y <= high) continue;
     const width = high - low;
     const q = set.questions[i]!;
-    out.push({
-      id: q.id,
-      title: q.title,
-      value: y,
-      low,
-      high,
-      level: c.level,
-      size: width === 0 ? null : (y < low ? low - y : y - high) / width,
-    });
+    const surprise: Surprise = { id: q.id, title: q.title, value: y, low, high, level: c.level, size: width === 0 ? null : (y < low ? low - y : y - high) / width };
+    out.push(extra(i, surprise));
   }
   return out.sort((a, b) => {
     if (a.size === null || b.size === null) {
@@ -309,6 +304,34 @@ function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
       return byId(a, b);
     }
     return b.size - a.size || byId(a, b);
+  });
+}
+
+/** The surprises of `score --json`, in its members. */
+function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
+  return collectSurprises(set, s, (_, surprise) => surprise);
+}
+
+/**
+ * Hindsight's and the briefing's numeric surprises: the `surprises` of
+ * `computeNumericReport` (same filters, counting rules and order) with how far outside
+ * the range each outcome fell, in the question's unit, and the final forecast's values.
+ *
+ * @param questions numeric questions (forecasts in any order)
+ * @param filter tag and inclusive bounds on the window end T (epoch ms)
+ * @throws RangeError naming the question and field for any invalid input
+ */
+export function computeNumericSurprises(questions: readonly ScoringNumericQuestion[], filter: ScoreFilter): SurpriseDetail[] {
+  const set = prepareNumericSet(questions, filter);
+  return collectSurprises(set, scoreNumericSet(set), (i, surprise): SurpriseDetail => {
+    const below = surprise.value < surprise.low;
+    return {
+      ...surprise,
+      distance: below ? surprise.low - surprise.value : surprise.value - surprise.high,
+      side: below ? 'below' : 'above',
+      quantiles: Array.from(set.q.subarray(set.offset[i]!, set.offset[i + 1]!)),
+      T: set.T[i]!,
+    };
   });
 }
 

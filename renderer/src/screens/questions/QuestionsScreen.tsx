@@ -22,6 +22,7 @@ import { useDebounced, useDocumentTitle } from '../../hooks';
 import { formatPercent } from '../../percent';
 import { hrefTo, navigate, questionPath } from '../../routing';
 import { QUICK_ADD_ARIA_SHORTCUTS, QUICK_ADD_SHORTCUT_TEXT, useQuickAdd } from './quickAdd';
+import { lastForecastText } from '../../questionTypes/summaries';
 
 type StatusFilter = QuestionStatus | 'all';
 
@@ -188,7 +189,7 @@ function QuestionTable({ questions, total, busy }: { questions: QuestionSummary[
               <td className="nowrap">
                 <time dateTime={q.closes_at}>{formatInstant(q.closes_at, q.time_zone)}</time>
               </td>
-              <td className="num">{formatPercent(q.last_p)}</td>
+              <td className="num">{lastForecastText(q)}</td>
               <td className="num">{formatPercent(q.base_rate)}</td>
             </tr>
           ))}
