@@ -349,6 +349,69 @@ export function toDiaryFile(settings: Settings, questions: Question[]): Record<s
 const LIST_OPEN = '{\n  "questions": [\n';
 const LIST_CLOSE = '\n  ]\n}';
 
+// A record's empty revision list as JSON.stringify lays it out: a key at the record's own
+// depth (six spaces) after a line break, which no string value can hold unescaped.
+const EMPTY_FORECASTS = '\n      "forecasts": []';
+
+/** A revision toFileQuestion writes as `{ at, p, note }`: a probability and no lenses. */
+interface PlainRevision {
+  at: string;
+  p: number;
+  note: string;
+}
+
+function isPlainRevision(f: object): f is PlainRevision {
+  return 'p' in f && typeof f.p === 'number' && 'lenses' in f && Array.isArray(f.lenses) && f.lenses.length === 0;
+}
+
+/**
+ * A revision list as JSON.stringify(…, null, 2) writes it inside a record of the file:
+ * `{ at, p, note }` per revision (toFileQuestion's item for a revision without lenses).
+ * Written by hand because revisions are nearly all of an export, and a text per revision
+ * costs far less than an object per revision for JSON.stringify to walk.
+ */
+function revisionsText(forecasts: readonly PlainRevision[]): string {
+  let out = '[';
+  for (let i = 0; i < forecasts.length; i++) {
+    const f = forecasts[i]!;
+    // A finite number's JSON text is its String(); p is always finite.
+    out += `${i ? ',' : ''}\n        {\n          "at": ${JSON.stringify(f.at)},\n          "p": ${String(f.p)},\n          "note": ${JSON.stringify(f.note)}\n        }`;
+  }
+  return `${out}\n      ]`;
+}
+
+/**
+ * A batch's records, laid out as JSON.stringify lays out the `questions` list one level
+ * down. Revision lists without lenses (nearly all) are left empty for JSON.stringify and
+ * written into its text by `revisionsText`; any other list (with lenses, or revisions of
+ * another shape) JSON.stringify writes itself.
+ */
+function batchText(batch: ExportedQuestion[]): string {
+  const byHand: (string | null)[] = [];
+  const records = batch.map((q) => {
+    const revisions: readonly object[] = q.forecasts;
+    const plain = revisions.length > 0 && revisions.every(isPlainRevision);
+    byHand.push(plain ? revisionsText(revisions as PlainRevision[]) : null);
+    return toFileQuestion(plain ? { ...q, forecasts: [] } : q);
+  });
+  const framed = JSON.stringify({ questions: records }, null, 2);
+  const pieces: string[] = [];
+  let from = LIST_OPEN.length;
+  let search = from;
+  for (let i = 0; i < batch.length; i++) {
+    if (batch[i]!.forecasts.length > 0 && byHand[i] === null) continue; // written by JSON.stringify
+    // The "[]" of this record's revision list (the records come in order, one list each).
+    const at = framed.indexOf(EMPTY_FORECASTS, search) + EMPTY_FORECASTS.length - 2;
+    search = at + 2;
+    const text = byHand[i];
+    if (text == null) continue; // no revisions: "[]" is right
+    pieces.push(framed.slice(from, at), text);
+    from = at + 2;
+  }
+  pieces.push(framed.slice(from, framed.length - LIST_CLOSE.length));
+  return pieces.join('');
+}
+
 /**
  * The diary file's text in pieces, one per batch of questions, so an export of any size
  * is written without holding the diary in memory. The bytes are exactly those of
@@ -361,10 +424,8 @@ export function* diaryFileText(settings: Settings, batches: Iterable<ExportedQue
   let first = true;
   for (const batch of batches) {
     if (batch.length === 0) continue;
-    const framed = JSON.stringify({ questions: batch.map(toFileQuestion) }, null, 2);
-    // Handed over as they are, not joined: a join would copy the batch's text once more.
     yield first ? `${head}[\n` : ',\n';
-    yield framed.slice(LIST_OPEN.length, framed.length - LIST_CLOSE.length);
+    yield batchText(batch);
     first = false;
   }
   yield first ? `${empty}\n` : `${LIST_CLOSE}\n`;

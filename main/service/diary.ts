@@ -296,16 +296,10 @@ export function createDiary(ctx: DiaryContext) {
         levels: shape.type === 'numeric' ? [...shape.levels] : [],
       },
     );
-    for (const f of q.forecasts) {
-      qs.insertForecast(write, {
-        id: orderedId(),
-        question_id: id,
-        at: f.at,
-        ...storedValuesOf(shape, f),
-        note: f.note ?? '',
-        lenses: (f.lenses ?? []) as Lens[],
-      });
-    }
+    qs.insertForecasts(
+      write,
+      q.forecasts.map((f) => ({ id: orderedId(), question_id: id, at: f.at, ...storedValuesOf(shape, f), note: f.note ?? '', lenses: (f.lenses ?? []) as Lens[] })),
+    );
     for (const r of q.references ?? []) {
       qs.insertReference(write, { id: orderedId(), question_id: id, at: r.at, ...storedValuesOf(shape, r), source: r.source });
     }

@@ -33,26 +33,6 @@ type QuestionTuple = [
 const forBatch = (columns: string, table: string, order: string) =>
   `SELECT j.key, ${columns} FROM json_each(?) j JOIN ${table} ON question_id = j.value ORDER BY j.key${order ? `, ${order}` : ''}`;
 
-/**
- * `toIso` for the many times of one export, faster: the date part comes from toIso itself,
- * once per day (a diary's times fall on a few thousand days), and the time of day is plain
- * arithmetic.
- */
-export function isoFormatter(): (ms: number) => string {
-  const DAY = 86_400_000;
-  const two = Array.from({ length: 100 }, (_, i) => String(i).padStart(2, '0'));
-  const three = Array.from({ length: 1000 }, (_, i) => String(i).padStart(3, '0'));
-  const dates = new Map<number, string>();
-  return (ms) => {
-    if (!Number.isInteger(ms)) return toIso(ms);
-    const d = Math.floor(ms / DAY);
-    let date = dates.get(d);
-    if (date === undefined) dates.set(d, (date = toIso(d * DAY).slice(0, -13)));
-    const t = ms - d * DAY;
-    return `${date}${two[Math.floor(t / 3_600_000)]}:${two[Math.floor(t / 60_000) % 60]}:${two[Math.floor(t / 1000) % 60]}.${three[t % 1000]}Z`;
-  };
-}
-
 /** The lenses of a revision without any: one shared empty list, not two million. */
 const NO_LENSES: Lens[] = [];
 
@@ -60,6 +40,32 @@ const NO_LENSES: Lens[] = [];
 const NO_HISTORY: BinaryExport['resolution_history'] = [];
 
 type BinaryExport = Extract<ExportedQuestion, { type: 'binary' }>;
+
+/** What the revision-collecting SQL function hands each revision to; see `revisionReader`. */
+type RevisionSink = (k: number, at: number, p: number, note: string, seq: number) => void;
+
+const REVISION_FN = 'forelog_export_revision';
+const revisionSinks = new WeakMap<Db, { current: RevisionSink | null }>();
+
+/**
+ * Revisions are nearly all of an export's rows, and better-sqlite3 builds a JavaScript
+ * array per row it returns, which costs several times SQLite's own reading. So they come
+ * through a function SQL calls once per row (as main/service/scoring-source.ts reads them
+ * for scoring): each value arrives as SQLite holds it, with no row array in between.
+ * Registered once per connection; directOnly, so no view or trigger can call it.
+ */
+function revisionSinkOf(db: Db): { current: RevisionSink | null } {
+  const known = revisionSinks.get(db);
+  if (known) return known;
+  const holder: { current: RevisionSink | null } = { current: null };
+  db.function(REVISION_FN, { directOnly: true }, (k: unknown, at: unknown, p: unknown, note: unknown, seq: unknown) => {
+    if (holder.current === null) throw new Error(`${REVISION_FN} belongs to the export reader and cannot be called on its own`);
+    holder.current(k as number, at as number, p as number, note as string, seq as number);
+    return null;
+  });
+  revisionSinks.set(db, holder);
+  return holder;
+}
 
 /**
  * Reads questions as the export writes them. `always` reads lenses and resolution
@@ -69,9 +75,14 @@ type BinaryExport = Extract<ExportedQuestion, { type: 'binary' }>;
  */
 function exportReader(db: Db, always: boolean) {
   const tags = db.prepare(forBatch('tag', 'question_tags', 'position')).raw();
-  // The revision's seq matters only to attach lenses, so it is read only when there are lenses.
-  const forecasts = db.prepare(forBatch('at, p, note, seq', 'forecasts', 'at, seq')).raw();
-  const forecastsOnly = db.prepare(forBatch('at, p, note', 'forecasts', 'at, seq')).raw();
+  const sink = revisionSinkOf(db);
+  // No ORDER BY: SQLite walks the batch's ids in order and each question's revisions by the
+  // index on (question_id, at, seq), which is the file's order; the sink checks that it was,
+  // and a batch that came otherwise is read again with the order spelled out.
+  const collect = db.prepare(
+    `SELECT count(${REVISION_FN}(j.key, f.at, f.p, f.note, f.seq)) FROM json_each(?) j JOIN forecasts f ON f.question_id = j.value`,
+  );
+  const ordered = db.prepare(forBatch('at, p, note, seq', 'forecasts', 'at, seq')).raw();
   const references = db.prepare(forBatch('at, p, source', 'reference_forecasts', 'at, seq')).raw();
   const resolutions = db.prepare(forBatch('outcome, at, note', 'resolutions', '')).raw();
   const history = db
@@ -86,7 +97,31 @@ function exportReader(db: Db, always: boolean) {
        JOIN forecast_lenses l ON l.forecast_id = f.id ORDER BY f.seq, l.position`,
     )
     .raw();
-  const iso = isoFormatter();
+
+  /** Fills in the batch's revisions, in time order then entry order, each with its lenses. */
+  function readRevisions(batch: BinaryExport[], ids: string, lensesOf: Map<number, Lens[]>): void {
+    let inOrder = true;
+    let lastK = -1;
+    let lastAt = 0;
+    let lastSeq = 0;
+    sink.current = (k, at, p, note, seq) => {
+      if (k === lastK ? at < lastAt || (at === lastAt && seq < lastSeq) : batch[k]!.forecasts.length > 0) inOrder = false;
+      lastK = k;
+      lastAt = at;
+      lastSeq = seq;
+      batch[k]!.forecasts.push({ at: toIso(at), p, note, lenses: lensesOf.get(seq) ?? NO_LENSES });
+    };
+    try {
+      collect.get(ids);
+    } finally {
+      sink.current = null;
+    }
+    if (inOrder) return;
+    for (const q of batch) q.forecasts = [];
+    for (const [k, at, p, note, seq] of ordered.all(ids) as [number, number, number, string, number][]) {
+      batch[k]!.forecasts.push({ at: toIso(at), p, note, lenses: lensesOf.get(seq) ?? NO_LENSES });
+    }
+  }
 
   /** The questions of `rows` (in that order), whole. */
   return (rows: QuestionTuple[]): ExportedQuestion[] => {
@@ -100,8 +135,8 @@ function exportReader(db: Db, always: boolean) {
         rule,
         kind,
         tags: [],
-        opened_at: iso(opened),
-        closes_at: iso(closes),
+        opened_at: toIso(opened),
+        closes_at: toIso(closes),
         time_zone,
         base_rate,
         base_rate_note,
@@ -122,17 +157,15 @@ function exportReader(db: Db, always: boolean) {
         else lensesOf.set(seq, [{ name, p, weight }]);
       }
     }
-    for (const [k, at, p, note, seq] of (anyLenses ? forecasts : forecastsOnly).all(ids) as [number, number, number, string, number?][]) {
-      batch[k]!.forecasts.push({ at: iso(at), p, note, lenses: (seq !== undefined && lensesOf.get(seq)) || NO_LENSES });
-    }
-    for (const [k, at, p, source] of references.all(ids) as [number, number, number, string][]) batch[k]!.references.push({ at: iso(at), p, source });
-    for (const [k, outcome, at, note] of resolutions.all(ids) as [number, Outcome, number, string][]) batch[k]!.resolution = { outcome, at: iso(at), note };
+    readRevisions(batch, ids, lensesOf);
+    for (const [k, at, p, source] of references.all(ids) as [number, number, number, string][]) batch[k]!.references.push({ at: toIso(at), p, source });
+    for (const [k, outcome, at, note] of resolutions.all(ids) as [number, Outcome, number, string][]) batch[k]!.resolution = { outcome, at: toIso(at), note };
     if (anyHistory) {
       type HistoryTuple = [number, Outcome, number, string, number, number, ResolutionChangeKind, string];
       for (const [k, outcome, at, note, recorded, replaced, change, change_note] of history.all(ids) as HistoryTuple[]) {
         const q = batch[k]!;
         if (q.resolution_history === NO_HISTORY) q.resolution_history = [];
-        q.resolution_history.push({ outcome, at: iso(at), note, recorded_at: iso(recorded), replaced_at: iso(replaced), change, change_note });
+        q.resolution_history.push({ outcome, at: toIso(at), note, recorded_at: toIso(recorded), replaced_at: toIso(replaced), change, change_note });
       }
     }
     // Choice and numeric questions (fewer, and with values in their own tables) are read whole,

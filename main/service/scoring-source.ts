@@ -69,8 +69,8 @@ function collectorFor(db: Db): { current: Collector | null } {
 }
 
 /**
- * Every revision of the diary, in table order (the engine orders each question's own by time,
- * then seq). The question is named by its rowid, so no text crosses per revision.
+ * Every revision of the diary, question by question (the engine orders each question's own
+ * by time, then seq). The question is named by its rowid, so no text crosses per revision.
  */
 function readRevisions(db: Db, slotOfRowid: Int32Array): RevisionRows {
   const holder = collectorFor(db);
@@ -78,7 +78,9 @@ function readRevisions(db: Db, slotOfRowid: Int32Array): RevisionRows {
   const rows = emptyRows(((db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null) ?? 0) + 1);
   holder.current = { slotOfRowid, rows };
   try {
-    db.prepare(`SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM forecasts f JOIN questions q ON q.id = f.question_id WHERE q.type = 'binary'`)
+    // Question by question (CROSS JOIN keeps questions the outer loop), each one's revisions
+    // from the (question_id, at, seq, p) index alone: no lookup per revision.
+    db.prepare(`SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id WHERE q.type = 'binary'`)
       .pluck()
       .get();
   } finally {
@@ -88,9 +90,10 @@ function readRevisions(db: Db, slotOfRowid: Int32Array): RevisionRows {
 }
 
 /**
- * One column range per question. When each question's revisions already sit together in
- * table order (as after an import) the rows are used as they are; otherwise they are
- * regrouped by a counting sort that keeps table order within each question.
+ * One column range per question. When each question's revisions already sit together (as
+ * readRevisions' plan gives them) the rows are used as they are; otherwise (a plan SQLite
+ * chose differently) they are regrouped by a counting sort that keeps their order within
+ * each question.
  */
 function columnsByQuestion(rows: RevisionRows, questionCount: number): ForecastColumns[] {
   const start = new Int32Array(questionCount).fill(-1);

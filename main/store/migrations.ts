@@ -256,6 +256,16 @@ export const MIGRATIONS: readonly Migration[] = [
       ALTER TABLE resolution_history ADD COLUMN value REAL;
     `,
   },
+  {
+    version: 6,
+    description: "each question's revisions indexed with their probability, so reading them for scoring and the due list needs no row lookups",
+    sql: `
+      -- The same order as before (question, then time, then entry order) with p beside it:
+      -- the scoring reader and the due list's latest revision read the index alone.
+      DROP INDEX forecasts_question;
+      CREATE INDEX forecasts_question ON forecasts (question_id, at, seq, p);
+    `,
+  },
 ];
 
 export const SCHEMA_VERSION = MIGRATIONS[MIGRATIONS.length - 1]!.version;

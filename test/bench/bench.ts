@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: how long the things a user waits for take on this machine, on synthetic
- * diaries of 1,000 and 10,000 questions (`npm run bench -- --large` adds 100,000), 20
+ * diaries of 1,000 and 10,000 questions (`npm run bench -- --large` adds 100,000;
+ * `-- --no-browser` leaves out browser mode and the `serve` calls), 20
  * revisions each, from a seeded PRNG (test/bench/make-diary.ts). For each size it prints:
  *   - import, export (JSON, CSV), `score --json` and `due`, each as a whole process of the
  *     built command line (dist/main/cli.cjs), the way a user or a script runs them;
@@ -276,6 +277,7 @@ async function measure(questions: number, rows: Map<string, Row>): Promise<void>
     const due = repeat(times, () => forelog('due', '--json', '--db', dbPath));
     put('due --json (whole process)', `${ms(due.median)} (${(JSON.parse(due.last.stdout) as { nudges: unknown[] }).nudges.length.toLocaleString('en')} due)`);
 
+    if (process.argv.includes('--no-browser')) return;
     if (!fs.existsSync(CHROMIUM)) {
       put('browser mode', `not measured (no ${CHROMIUM})`);
       return;

@@ -2,8 +2,9 @@
  * `npx tsx test/bench/files-bench.ts [--questions N] [--revisions R] [--keep DIR]`:
  * the diary files at scale. Writes a synthetic diary file (default 100,000 questions with
  * 20 revisions each, from make-diary.ts's seeded PRNG) a record at a time, then runs the
- * built `forelog` command as a user would and prints, for each step, the wall time and the
- * process's peak resident memory (from /usr/bin/time):
+ * built `forelog` command as a user would and prints, for each step, the wall time, the CPU
+ * time (user + system; on a shared machine it grows less with other work than the wall
+ * time does) and the process's peak resident memory (from /usr/bin/time):
  *   - import of the JSON file into an empty diary,
  *   - export as JSON and as CSV to files,
  *   - the round trips: import each export into a fresh diary, export again, and compare
@@ -50,19 +51,21 @@ function writeDiary(file: string): void {
 interface Step {
   what: string;
   seconds: number;
+  cpuSeconds: number;
   peakMb: number;
 }
 
 const steps: Step[] = [];
 
-/** Runs `forelog …args`, recording wall time and peak RSS as /usr/bin/time reports them. */
+/** Runs `forelog …args`, recording wall time, CPU time and peak RSS as /usr/bin/time reports them. */
 function forelog(what: string, ...args: string[]): void {
-  const r = spawnSync('/usr/bin/time', ['-f', '%e %M', process.execPath, CLI, ...args], { encoding: 'utf8', stdio: ['ignore', 'ignore', 'pipe'] });
+  const r = spawnSync('/usr/bin/time', ['-f', '%e %M %U %S', process.execPath, CLI, ...args], { encoding: 'utf8', stdio: ['ignore', 'ignore', 'pipe'] });
   const last = r.stderr.trim().split('\n').pop() ?? '';
   if (r.status !== 0) throw new Error(`forelog ${args.join(' ')} failed:\n${r.stderr}`);
-  const [seconds, kb] = last.split(' ').map(Number);
-  steps.push({ what, seconds: seconds!, peakMb: kb! / 1024 });
-  process.stderr.write(`${what}: ${seconds!.toFixed(1)} s, peak ${(kb! / 1024).toFixed(0)} MB\n`);
+  const [seconds, kb, user, system] = last.split(' ').map(Number);
+  const step = { what, seconds: seconds!, cpuSeconds: user! + system!, peakMb: kb! / 1024 };
+  steps.push(step);
+  process.stderr.write(`${what}: ${step.seconds.toFixed(1)} s (CPU ${step.cpuSeconds.toFixed(1)} s), peak ${step.peakMb.toFixed(0)} MB\n`);
 }
 
 function sha256(file: string): string {
@@ -104,9 +107,9 @@ function main(): void {
     const lines = [
       `${QUESTIONS.toLocaleString('en')} questions × ${REVISIONS} revisions on ${os.cpus().length} cores (load ${os.loadavg()[0]!.toFixed(1)}); JSON export ${mb(at('a.json'))}, CSV export ${mb(at('a.csv'))}`,
       '',
-      '| step | wall time | peak RSS |',
-      '| --- | --- | --- |',
-      ...steps.map((s) => `| ${s.what} | ${s.seconds.toFixed(1)} s | ${s.peakMb.toFixed(0)} MB |`),
+      '| step | wall time | CPU time | peak RSS |',
+      '| --- | --- | --- | --- |',
+      ...steps.map((s) => `| ${s.what} | ${s.seconds.toFixed(1)} s | ${s.cpuSeconds.toFixed(1)} s | ${s.peakMb.toFixed(0)} MB |`),
       '',
       `export → import → export, JSON: ${jsonSame ? 'identical bytes' : 'DIFFERENT'}`,
       `export → import → export, CSV: ${csvSame ? 'identical bytes' : 'DIFFERENT'}`,

@@ -8,12 +8,12 @@
  */
 import assert from 'node:assert/strict';
 import { spawnSync } from 'node:child_process';
+import Database from 'better-sqlite3';
 import { after, test } from 'node:test';
 import { openDiary } from '../../main/service/index';
 import type { QuestionList } from '../../shared/contract';
 import { buildDemoDiary } from '../../main/service/demo';
 import { CSV_ALL_COLUMNS, CSV_COLUMNS } from '../../main/service/csv';
-import { isoFormatter } from '../../main/service/export-batches';
 import { toIso } from '../../shared/time';
 import { randomDiaryFile } from '../support/random-diary';
 import { openTestDiary, type TestDiary } from '../support/temp-diary';
@@ -158,13 +158,29 @@ test('an export is one snapshot: a change committed while it streams is not half
   assert.notEqual(d.service.diary.exportText('json').text, before, 'the changes are there for the next export');
 });
 
-test('the export’s fast time formatter writes exactly what toIso writes', () => {
-  const iso = isoFormatter();
+test('the fast time formatter (toIso) writes exactly what Date’s toISOString writes', () => {
+  const iso = toIso;
   const DAY = 86_400_000;
-  const edges = [0, -1, 1, DAY - 1, DAY, -DAY, -DAY - 1, Date.UTC(1900, 0, 1), Date.UTC(2199, 11, 31, 23, 59, 59, 999), Date.UTC(2000, 1, 29, 12), Date.UTC(2024, 1, 29, 23, 59, 59, 999)];
+  const edges = [0, -0, -1, 1, DAY - 1, DAY, -DAY, -DAY - 1, Date.UTC(1900, 0, 1), Date.UTC(2199, 11, 31, 23, 59, 59, 999), Date.UTC(2000, 1, 29, 12), Date.UTC(2024, 1, 29, 23, 59, 59, 999)];
   let seed = 3;
   const next = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
   const random = Array.from({ length: 20_000 }, () => Math.floor((next() - 0.3) * 7e12));
   // Sorted and shuffled: the formatter keeps the last day's date, so both orders matter.
-  for (const ms of [...edges, ...random, ...[...random].sort((a, b) => a - b), 1.5, -0.5]) assert.equal(iso(ms), toIso(ms), String(ms));
+  for (const ms of [...edges, ...random, ...[...random].sort((a, b) => a - b), 1.5, -0.5]) assert.equal(iso(ms), new Date(ms).toISOString(), String(ms));
+  // More days than it remembers (it forgets them all at 100,000 and starts again).
+  for (let d = -60_000; d < 60_000; d++) assert.equal(iso(d * DAY + 1234), new Date(d * DAY + 1234).toISOString(), String(d));
+});
+
+test('an export keeps each question’s revisions in time order even when SQLite finds them in another order', async () => {
+  // The random file lists revisions out of time order, so entry order (seq) differs from time
+  // order. Without the index on (question_id, at, seq) SQLite finds them in entry order, and
+  // the export must notice and read them again in the file's order.
+  const d = openTestDiary();
+  await d.call('importDiary', { diary: randomDiaryFile(600, 17) });
+  const before = { json: d.service.diary.exportText('json').text, csv: d.service.diary.exportText('csv').text };
+  const other = new Database(d.dbPath);
+  other.exec('DROP INDEX forecasts_question');
+  other.close();
+  assert.equal(d.service.diary.exportText('json').text, before.json, 'JSON');
+  assert.equal(d.service.diary.exportText('csv').text, before.csv, 'CSV');
 });

@@ -230,3 +230,21 @@ test('a setting in a file is held to the app’s rules in the app’s words', as
     await assert.rejects(d.call('updateSettings', settings as never), (err: unknown) => err instanceof ApiError && err.fields[0] === reason);
   }
 });
+
+test('a long history imports whole and in order: revisions at the same time keep the order the file gives them', async () => {
+  // 75 revisions: more than one statement's worth (main/store/questions.ts writes 32 at a time),
+  // with runs of equal times across the statements' boundaries, and lenses on some.
+  const forecasts = Array.from({ length: 75 }, (_, i) => ({
+    at: new Date(Date.UTC(2026, 0, 5) + Math.floor(i / 5) * 3_600_000).toISOString(),
+    p: (i % 10) / 10 + 0.05,
+    note: `revision ${i}`,
+    ...(i % 7 === 0 ? { lenses: [{ name: `lens ${i}`, p: 0.5, weight: 1 }] } : {}),
+  }));
+  const d = openTestDiary({ now: '2026-06-01T00:00:00Z' });
+  await d.call('importDiary', { diary: { ...DIARY, questions: [question(1, { forecasts })] } });
+  const exported = JSON.parse(d.service.diary.exportText('json').text);
+  assert.deepEqual(
+    exported.questions[0].forecasts.map((f: { note: string; lenses?: unknown[] }) => [f.note, f.lenses?.length ?? 0]),
+    forecasts.map((f) => [f.note, f.lenses ? 1 : 0]),
+  );
+});

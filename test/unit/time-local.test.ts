@@ -4,7 +4,7 @@
  */
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { formatLocal, parseLocalInZone } from '../../shared/time';
+import { formatLocal, parseInstant, parseLocalInZone, toIso, wallTimeAt } from '../../shared/time';
 
 test('a date and time without offset is read on the given clock, by RFC 5545 in a gap or a repeat', () => {
   const at = (text: string, zone = 'Europe/London') => {
@@ -27,4 +27,39 @@ test('a time in a sentence is on the clock to the minute, with seconds only when
   assert.equal(formatLocal(ms + 1000, 'Europe/London'), '2026-07-08 09:00:01');
   assert.equal(formatLocal(ms + 999, 'Europe/London'), '2026-07-08 09:00', 'milliseconds are not shown');
   assert.equal(formatLocal(Date.parse('2026-12-31T23:59:59Z'), 'Pacific/Kiritimati'), '2027-01-01 13:59:59');
+});
+
+test('the wall-clock reading is the one the formatter’s parts give, in every zone and era', () => {
+  // The reference: the parts of the same formatter wallTimeAt uses (shared/time.ts).
+  const byParts = (ms: number, zone: string) => {
+    const parts = new Intl.DateTimeFormat('en-US', { timeZone: zone, hourCycle: 'h23', year: 'numeric', month: 'numeric', day: 'numeric', hour: 'numeric', minute: 'numeric', second: 'numeric' }).formatToParts(new Date(ms));
+    const get = (type: string) => Number(parts.find((p) => p.type === type)!.value);
+    return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour') % 24, minute: get('minute'), second: get('second') };
+  };
+  const zones = ['UTC', 'Europe/London', 'America/New_York', 'Asia/Kolkata', 'Australia/Lord_Howe', 'Pacific/Kiritimati', 'America/St_Johns', 'Asia/Kathmandu'];
+  let seed = 11;
+  const next = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
+  // One-millisecond neighbours of midnight and of a DST change, the ends of the Date range, and random instants 1600–2400.
+  const instants = [0, -1, 1, Date.UTC(2026, 2, 29, 1) - 1, Date.UTC(2026, 2, 29, 1), Date.UTC(2026, 9, 25, 1), -8.64e15, 8.64e15, Date.UTC(1, 0, 1), -62198755200000];
+  for (let i = 0; i < 3000; i++) instants.push(Math.floor(Date.UTC(1600, 0, 1) + next() * (Date.UTC(2400, 0, 1) - Date.UTC(1600, 0, 1))));
+  for (const zone of zones) for (const ms of instants) assert.deepEqual(wallTimeAt(ms, zone), byParts(ms, zone), `${zone} ${ms}`);
+});
+
+test('an instant in the export’s own spelling reads as the same instant spelled with an offset', () => {
+  // "+00:00" takes the general reading (regular expressions, Date.parse); "Z" with milliseconds the short one.
+  const general = (text: string) => parseInstant(text.replace(/Z$/, '+00:00'));
+  const texts = [
+    '2026-03-31T16:00:00.000Z', '1900-01-01T00:00:00.000Z', '2199-12-31T23:59:59.999Z', '1000-01-01T00:00:00.000Z', '0999-12-31T23:59:59.999Z',
+    '2024-02-29T12:00:00.000Z', '2023-02-29T12:00:00.000Z', '2100-02-29T12:00:00.000Z', '2000-02-29T12:00:00.000Z', '2026-04-31T00:00:00.000Z',
+    '2026-13-01T00:00:00.000Z', '2026-00-01T00:00:00.000Z', '2026-01-00T00:00:00.000Z', '2026-01-32T00:00:00.000Z',
+    '2026-01-01T24:00:00.000Z', '2026-01-01T23:60:00.000Z', '2026-01-01T23:59:60.000Z', '2026-01-01T23:59:59.99Z', '2026-01-01t23:59:59.999Z',
+    '2026-01-01T23:59:59.999z', '2026-1-01T23:59:59.999ZZ', '2026-01-01 23:59:59.999Z', '+026-01-01T23:59:59.999Z', '2026-01-01T23:59:59,999Z',
+  ];
+  let seed = 5;
+  const next = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
+  for (let i = 0; i < 5000; i++) texts.push(toIso(Math.floor(Date.UTC(1000, 0, 1) + next() * (Date.UTC(2400, 0, 1) - Date.UTC(1000, 0, 1)))));
+  for (const text of texts) assert.equal(parseInstant(text), general(text), text);
+  assert.equal(parseInstant('2024-02-29T12:00:00.000Z'), Date.UTC(2024, 1, 29, 12));
+  assert.equal(parseInstant('2023-02-29T12:00:00.000Z'), null);
+  assert.equal(parseInstant('2026-01-01T23:59:59.999z'), Date.UTC(2026, 0, 1, 23, 59, 59, 999), 'a lower-case z, read the general way');
 });
