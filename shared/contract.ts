@@ -90,10 +90,28 @@ export const resolveRequest = z.object({
 /** Reopening keeps the resolution it removes in the history, with `note` as the reason. */
 export const reopenRequest = z.object({ id, note: v.note.optional() });
 
+/**
+ * How the question list can be ordered. `attention` (the default) puts first what needs the
+ * user: closed questions waiting for their outcome, then check-ins due, then windows closing
+ * soon, then the other open questions, then resolved and void ones (see docs/api.md).
+ */
+export const LIST_SORTS = ['attention', 'title', 'status', 'closes', 'last_p', 'base_rate'] as const;
+export type ListSort = (typeof LIST_SORTS)[number];
+export const SORT_DIRECTIONS = ['asc', 'desc'] as const;
+export type SortDirection = (typeof SORT_DIRECTIONS)[number];
+/** The most questions one `listQuestions` page holds. */
+export const LIST_PAGE_MAX = 1000;
+
 export const listRequest = z.object({
   status: z.enum(QUESTION_STATUSES as [string, ...string[]], { error: `must be one of ${QUESTION_STATUSES.join(', ')}` }).optional(),
   tag: v.tag.optional(),
   text: v.searchText.optional(),
+  sort: z.enum(LIST_SORTS, { error: `must be one of ${LIST_SORTS.join(', ')}` }).optional(),
+  direction: z.enum(SORT_DIRECTIONS, { error: 'must be asc or desc' }).optional(),
+  /** How many matching questions to skip (paging); 0 when left out. */
+  offset: v.count(Number.MAX_SAFE_INTEGER).optional(),
+  /** The most questions to return, 1 to LIST_PAGE_MAX; every match when left out. */
+  limit: v.count(LIST_PAGE_MAX, 1).optional(),
 });
 
 export const settingsPatch = z.object(v.settingsFields).partial().strict();
@@ -192,10 +210,18 @@ export interface TagCount {
 }
 
 export interface QuestionList {
+  /** The page asked for: `limit` questions (all when no limit) from `offset`, in the order asked for. */
   questions: QuestionSummary[];
   tags: TagCount[];
   /** Number of questions in the whole diary, before filters. */
   total: number;
+  /** Number of questions the filters match, over all pages. */
+  matched: number;
+  /** Where this page starts among the matches (0: the first). */
+  offset: number;
+  /** The order the page is in (the default filled in). */
+  sort: ListSort;
+  direction: SortDirection;
 }
 
 /** A whole-diary export as text, ready to save: JSON v1, CSV (one row per revision) or iCalendar. */

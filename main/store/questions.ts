@@ -336,3 +336,27 @@ export function toQuestion(b: QuestionBundle, now: number): Question {
     updated_at: toIso(row.updated_at),
   };
 }
+
+/** The tags of each question asked for, in their order. */
+export function tagsOf(db: Db, ids: readonly string[]): Map<string, string[]> {
+  const byId = new Map<string, string[]>();
+  if (!ids.length) return byId;
+  const rows = stmt(db, 'SELECT question_id, tag FROM question_tags WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position')
+    .raw()
+    .all(JSON.stringify(ids)) as [string, string][];
+  for (const [id, tag] of rows) {
+    const list = byId.get(id);
+    if (list) list.push(tag);
+    else byId.set(id, [tag]);
+  }
+  return byId;
+}
+
+/** How many revisions each question asked for has (absent: none). */
+export function forecastCountsOf(db: Db, ids: readonly string[]): Map<string, number> {
+  if (!ids.length) return new Map();
+  const rows = stmt(db, 'SELECT question_id, count(*) FROM forecasts WHERE question_id IN (SELECT value FROM json_each(?)) GROUP BY question_id')
+    .raw()
+    .all(JSON.stringify(ids)) as [string, number][];
+  return new Map(rows);
+}

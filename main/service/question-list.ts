@@ -1,0 +1,178 @@
+/**
+ * The question list, a page at a time: filtering, counting, ordering and paging are done by
+ * SQLite over the indexed tables, so a page of a 100,000-question diary costs about what a
+ * page of a small one does, and only the questions on the page are read in full (tags, number
+ * of revisions, the stale flag).
+ *
+ * Status is worked out in SQL with exactly the arithmetic of `questionStatus` (shared/domain):
+ * both sides compute `closes_at − closing_soon_hours × 3,600,000` in doubles. Whether a
+ * check-in is due (for the `attention` order) is the nudge planner's own `checkinAt`, called
+ * from SQL, so the list and the Desk agree on it.
+ */
+import type { ListSort, QuestionList, SortDirection, ValidRequest } from '../../shared/contract';
+import type { Outcome, QuestionKind, QuestionStatus, QuestionSummary, Settings } from '../../shared/domain';
+import { QUESTION_STATUSES } from '../../shared/domain';
+import { toIso } from '../../shared/time';
+import { checkinAt } from '../nudges/plan';
+import { readSnapshot, type Db } from '../store/open';
+import * as qs from '../store/questions';
+
+const CHECKIN_FN = 'forelog_checkin_at';
+const planners = new WeakMap<Db, { settings: Settings | null }>();
+
+/** Registers the check-in function on this connection once (directOnly: no view or trigger can call it). */
+function plannerFor(db: Db): { settings: Settings | null } {
+  const known = planners.get(db);
+  if (known) return known;
+  const holder: { settings: Settings | null } = { settings: null };
+  db.function(CHECKIN_FN, { directOnly: true, deterministic: false }, (opened: unknown, lastAt: unknown, days: unknown, zone: unknown) => {
+    const settings = holder.settings;
+    if (settings === null) throw new Error(`${CHECKIN_FN} belongs to the question list and cannot be called on its own`);
+    return checkinAt(
+      {
+        id: '',
+        title: '',
+        opened_at: opened as number,
+        closes_at: Number.POSITIVE_INFINITY,
+        time_zone: zone as string,
+        checkin_days: days as number | null,
+        last_forecast_at: lastAt as number | null,
+      },
+      settings,
+    );
+  });
+  planners.set(db, holder);
+  return holder;
+}
+
+/** Index into QUESTION_STATUSES: 0 open, 1 closing, 2 awaiting, 3 resolved, 4 void. */
+const STATUS_SQL = `CASE WHEN r.outcome = 'void' THEN 4 WHEN r.outcome IS NOT NULL THEN 3
+  WHEN @now >= q.closes_at THEN 2 WHEN @now >= q.closes_at - @soon THEN 1 ELSE 0 END`;
+
+/**
+ * Attention rank: 0 closed and waiting for an outcome, 1 a check-in due (window still open),
+ * 2 closing soon, 3 other open questions, 4 resolved or void.
+ */
+const ATTENTION_SQL = `CASE WHEN status = 2 THEN 0 WHEN status >= 3 THEN 4
+  WHEN checkin <= @now AND checkin < closes_at THEN 1 WHEN status = 1 THEN 2 ELSE 3 END`;
+
+/** The ORDER BY for each sort key, ascending; every one ends in `id` so pages never overlap. */
+function orderBy(sort: ListSort, direction: SortDirection): string {
+  const d = direction === 'asc' ? 'ASC' : 'DESC';
+  // Unknown values (no forecast, no base rate) go last whichever the direction.
+  const nullsLast = (column: string) => `(${column} IS NULL), ${column} ${d}`;
+  const then = `closes_at ${d}, title COLLATE NOCASE ${d}, id ${d}`;
+  switch (sort) {
+    case 'title':
+      return `title COLLATE NOCASE ${d}, closes_at ${d}, id ${d}`;
+    case 'status':
+      return `status ${d}, ${then}`;
+    case 'closes':
+      return `closes_at ${d}, title COLLATE NOCASE ${d}, id ${d}`;
+    case 'last_p':
+      return `${nullsLast('last_p')}, ${then}`;
+    case 'base_rate':
+      return `${nullsLast('base_rate')}, ${then}`;
+    case 'attention':
+      // Within a rank the longest-waiting first; resolved ones most recently closed first.
+      return `attention ${d}, (CASE WHEN attention = 4 THEN -closes_at ELSE closes_at END) ${d}, title COLLATE NOCASE ${d}, id ${d}`;
+  }
+}
+
+interface PageRow {
+  id: string;
+  title: string;
+  kind: QuestionKind;
+  opened_at: number;
+  closes_at: number;
+  time_zone: string;
+  base_rate: number | null;
+  checkin_days: number | null;
+  outcome: Outcome | null;
+  last_p: number | null;
+  last_at: number | null;
+  status: number;
+}
+
+export interface ListContext {
+  read: Db;
+  settings: Settings;
+  now: number;
+  /** The stale flag (glide path) of an unresolved question's latest forecast. */
+  stale: (q: PageRow, last: { p: number; at: number } | null) => boolean;
+}
+
+export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuestions'>): QuestionList {
+  const { read, settings, now } = ctx;
+  const sort: ListSort = req.sort ?? 'attention';
+  const direction: SortDirection = req.direction ?? 'asc';
+  const offset = req.offset ?? 0;
+  const where: string[] = [];
+  const params: Record<string, unknown> = { now, soon: settings.closing_soon_hours * 3_600_000 };
+  if (req.tag) {
+    where.push('q.id IN (SELECT question_id FROM question_tags WHERE tag = @tag)');
+    params.tag = req.tag;
+  }
+  const text = req.text?.trim();
+  if (text) {
+    // Title, rule, tags and the notes written with revisions; LIKE's own wildcards in the
+    // text are taken literally.
+    params.like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    where.push(
+      `(lower(q.title) LIKE @like ESCAPE '\\' OR lower(q.rule) LIKE @like ESCAPE '\\'
+        OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE @like ESCAPE '\\')
+        OR q.id IN (SELECT question_id FROM forecasts WHERE lower(note) LIKE @like ESCAPE '\\'))`,
+    );
+  }
+  if (req.status) {
+    where.push(`(${STATUS_SQL}) = @status`);
+    params.status = QUESTION_STATUSES.indexOf(req.status as QuestionStatus);
+  }
+  const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
+  const from = `FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id ${filter}`;
+
+  const holder = plannerFor(read);
+  holder.settings = settings;
+  try {
+    return readSnapshot(read, () => {
+      const matched = read.prepare(`SELECT count(*) ${from}`).pluck().get(params) as number;
+      // Only the attention order needs the planner's check-in per row.
+      const attention = sort === 'attention' ? `, ${ATTENTION_SQL} AS attention` : '';
+      const rows = read
+        .prepare(
+          `WITH b AS (
+             SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome,
+               f.p AS last_p, f.at AS last_at, ${STATUS_SQL} AS status
+             FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id
+             LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
+             ${filter})
+           ${sort === 'attention' ? `, c AS (SELECT b.*, CASE WHEN status < 2 THEN ${CHECKIN_FN}(opened_at, last_at, checkin_days, time_zone) END AS checkin FROM b)` : ''}
+           SELECT *${attention} FROM ${sort === 'attention' ? 'c' : 'b'} ORDER BY ${orderBy(sort, direction)}
+           ${req.limit !== undefined ? 'LIMIT @limit OFFSET @offset' : 'LIMIT -1 OFFSET @offset'}`,
+        )
+        .all({ ...params, offset, ...(req.limit !== undefined ? { limit: req.limit } : {}) }) as PageRow[];
+      const ids = rows.map((r) => r.id);
+      const tags = qs.tagsOf(read, ids);
+      const counts = qs.forecastCountsOf(read, ids);
+      const questions = rows.map((r): QuestionSummary => ({
+        id: r.id,
+        title: r.title,
+        kind: r.kind,
+        tags: tags.get(r.id) ?? [],
+        opened_at: toIso(r.opened_at),
+        closes_at: toIso(r.closes_at),
+        time_zone: r.time_zone,
+        base_rate: r.base_rate,
+        last_p: r.last_p,
+        last_forecast_at: r.last_at === null ? null : toIso(r.last_at),
+        forecast_count: counts.get(r.id) ?? 0,
+        status: QUESTION_STATUSES[r.status]!,
+        outcome: r.outcome,
+        stale: !r.outcome && ctx.stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null),
+      }));
+      return { questions, tags: qs.allTagCounts(read), total: qs.questionCount(read), matched, offset, sort, direction };
+    });
+  } finally {
+    holder.settings = null;
+  }
+}
