@@ -137,6 +137,10 @@ export const hindsightRequest = z
       .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
       .default(0.8),
     include_hits: z.boolean({ error: 'must be true or false' }).default(false),
+    /** How many entries to skip (paging); 0 when left out. */
+    offset: v.count(Number.MAX_SAFE_INTEGER).optional(),
+    /** The most entries to return, 1 to LIST_PAGE_MAX; every one when left out. */
+    limit: v.count(LIST_PAGE_MAX, 1).optional(),
   })
   .refine(...v.toNotBeforeFrom);
 
@@ -381,7 +385,14 @@ export interface HindsightEntry {
 
 export interface Hindsight {
   threshold: number;
+  /** The page asked for (all when no limit): misses first, the most confident first; then hits. */
   entries: HindsightEntry[];
+  /** Where `entries` starts in the whole list (0: the first). */
+  offset: number;
+  /** Confident misses in the whole selection, over all pages. */
+  misses: number;
+  /** Confident hits in the whole selection (0 unless `include_hits`). */
+  hits: number;
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;
 }

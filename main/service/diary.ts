@@ -899,11 +899,9 @@ export function createDiary(ctx: DiaryContext) {
       const options = scoreOptions(req);
       const t = now();
       const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t));
-      return {
-        threshold: req.threshold,
-        entries: confidentCalls(questions, options, req.threshold, req.include_hits, details),
-        report: computeScoreReport(questions, options),
-      };
+      const offset = req.offset ?? 0;
+      const page = confidentCalls(questions, options, req.threshold, req.include_hits, details, { offset, limit: req.limit });
+      return { threshold: req.threshold, offset, ...page, report: computeScoreReport(questions, options) };
     },
 
     briefing: (req) => {
