@@ -72,7 +72,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   const [knownTags, setKnownTags] = useState<string[]>([]);
 
   useEffect(() => {
-    api.listQuestions({}).then(
+    api.listTags({}).then(
       (list) => setKnownTags(list.tags.map((t) => t.tag)),
       () => setKnownTags([]),
     );
