@@ -7,8 +7,8 @@
  *
  * Column headers are buttons that sort (again: reverse), with `aria-sort` on the sorted one.
  */
-import { useLayoutEffect, useRef, useState, type MouseEvent } from 'react';
-import { useWindowVirtualizer } from '@tanstack/react-virtual';
+import { useEffect, useLayoutEffect, useRef, useState, type MouseEvent } from 'react';
+import { useWindowVirtualizer, type VirtualItem } from '@tanstack/react-virtual';
 import type { ListSort } from '../../../../shared/contract';
 import { StatusPill } from '../../components/StatusPill';
 import { formatInstant } from '../../dates';
@@ -18,7 +18,14 @@ import type { ListQuery } from './listQuery';
 import type { QuestionPages } from './useQuestionPages';
 
 /** A row's height before it is measured (one line of title and one of tags). */
-const ESTIMATED_ROW_PX = 58;
+const ESTIMATED_ROW_PX = 66;
+
+/**
+ * The row heights measured when the table last went away, for the list it showed: coming back
+ * to the same list draws every row at the height it had, so the remembered scroll offset
+ * lands on the same rows.
+ */
+let measured: { key: string; cache: VirtualItem[] } | null = null;
 
 const COLUMNS: readonly { sort: ListSort; label: string; className?: string }[] = [
   { sort: 'title', label: 'Question' },
@@ -42,13 +49,20 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
     const body = bodyRef.current;
     if (body) setMargin(body.getBoundingClientRect().top + window.scrollY);
   });
+  const [initial] = useState(() => (measured?.key === pages.key ? measured.cache : undefined));
   const virtualizer = useWindowVirtualizer({
     count: pages.matched,
+    initialMeasurementsCache: initial,
     estimateSize: () => ESTIMATED_ROW_PX,
     overscan: 8,
     scrollMargin: margin,
     getItemKey: (index) => pages.rowAt(index)?.id ?? `row-${index}`,
   });
+  const keyRef = useRef(pages.key);
+  keyRef.current = pages.key;
+  useEffect(() => () => {
+    if (keyRef.current !== null) measured = { key: keyRef.current, cache: virtualizer.measurementsCache };
+  }, [virtualizer]);
   const items = virtualizer.getVirtualItems();
   const first = items[0]?.index ?? 0;
   const last = items[items.length - 1]?.index ?? 0;

@@ -17,7 +17,7 @@ import { TextField } from '../../components/TextField';
 import { useToast } from '../../components/Toast';
 import { useDiaryInfo } from '../../diaryInfo';
 import { useDocumentTitle } from '../../hooks';
-import { replaceQuery, useQueryState, useRoute } from '../../routing';
+import { parseRoute, replaceQuery, useQueryState, useRoute } from '../../routing';
 import { decodeListQuery, encodeListQuery, isFiltered, nextSort, rememberList, rememberedList, type StatusFilter } from './listQuery';
 import { QuestionTable } from './QuestionTable';
 import { useQuestionPages } from './useQuestionPages';
@@ -177,7 +177,19 @@ function useListMemory(ready: boolean) {
   }, [ready]);
   const latest = useRef(search);
   latest.current = search;
-  useEffect(() => () => rememberList(latest.current, window.scrollY), []);
+  useEffect(() => {
+    // Kept as the user scrolls: by the time the list unmounts, following a link to a question
+    // has already moved the window to the top. Scrolls after the address left the list are not its own.
+    let scrollY = window.scrollY;
+    const onScroll = () => {
+      if (parseRoute(window.location.hash).path === 'questions') scrollY = window.scrollY;
+    };
+    window.addEventListener('scroll', onScroll, { passive: true });
+    return () => {
+      window.removeEventListener('scroll', onScroll);
+      rememberList(latest.current, scrollY);
+    };
+  }, []);
 }
 
 function replaceQueryString(search: string) {
