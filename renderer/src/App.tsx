@@ -7,6 +7,7 @@ import { currentToken } from './api/token';
 import { EmptyState } from './components/EmptyState';
 import { ToastProvider } from './components/Toast';
 import { DiaryInfoProvider } from './diaryInfo';
+import { AskFirstProvider } from './forgiving/AskFirst';
 import { useDocumentTitle, useTitleCount } from './hooks';
 import { hrefTo, navigate, questionPath, useRoute } from './routing';
 import { NoTokenPage } from './NoTokenPage';
@@ -27,9 +28,11 @@ export function App() {
   return (
     <ToastProvider>
       <DiaryInfoProvider>
-        <QuickAddProvider>
-          <Shell />
-        </QuickAddProvider>
+        <AskFirstProvider>
+          <QuickAddProvider>
+            <Shell />
+          </QuickAddProvider>
+        </AskFirstProvider>
       </DiaryInfoProvider>
     </ToastProvider>
   );

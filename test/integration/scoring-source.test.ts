@@ -173,3 +173,31 @@ test('revisions written to several questions in turn each reach their own questi
   assert.deepEqual(input.get(qs[3]!.id)!.forecasts, []);
   assert.equal(input.get(qs[0]!.id)!.forecasts.length, 5);
 });
+
+// Issue-level checks of the one-ulp defect: values one ulp from an edge, written to a real
+// diary file and scored from it, land on the side the rule's own inequality puts them.
+test('one ulp above the cost threshold α = 0.2 is a false alarm; α itself is not (p > α acts)', async () => {
+  const d = openTestDiary({ now: '2026-04-10T12:00:00Z' });
+  const costs = { false_alarm: 1, miss: 4 }; // α = 1 / (1 + 4) = 0.2
+  for (const [title, p] of [['Just above', 0.20000000000000004], ['Exactly α', 0.2]] as const) {
+    const q = await d.call('createQuestion', { ...base, title, costs, first_forecast: { p, at: '2026-01-10T09:00:00Z' } });
+    await d.call('resolveQuestion', { id: q.id, outcome: 'no', at: '2026-04-01T09:00:00Z' });
+  }
+  const report = computeScoreReport(loadScoringQuestions(d.service.store.read), { default_costs: costs });
+  assert.equal(report.decisions.false_alarms, 1);
+  assert.equal(report.decisions.correct_rejections, 1);
+});
+
+test('AUC sees 0.14999999999999997 (Yes) below 0.15 (No): 0, as scikit-learn roc_auc_score gives', async () => {
+  // scikit-learn: roc_auc_score([1, 0], [0.14999999999999997, 0.15]) == 0.0 (the value
+  // stated with the defect report; recomputable with /usr/bin/python3).
+  const d = openTestDiary({ now: '2026-04-10T12:00:00Z' });
+  for (const [title, p, outcome] of [['Yes one ulp lower', 0.14999999999999997, 'yes'], ['No at 0.15', 0.15, 'no']] as const) {
+    const q = await d.call('createQuestion', { ...base, title, first_forecast: { p, at: '2026-01-10T09:00:00Z' } });
+    await d.call('resolveQuestion', { id: q.id, outcome, at: '2026-04-01T09:00:00Z' });
+  }
+  const report = computeScoreReport(loadScoringQuestions(d.service.store.read), { default_costs: { false_alarm: 1, miss: 1 } });
+  assert.equal(report.auc, 0);
+  // The two sit on either side of the bin edge 0.15 (bin of p = number of edges ≤ p).
+  assert.deepEqual(report.bins.map((b) => [b.index, b.n]), [[1, 1], [2, 1]]);
+});

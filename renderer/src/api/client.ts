@@ -55,8 +55,8 @@ async function call(operation: OperationName, request: unknown): Promise<unknown
   const bridge = window.forelog;
   const envelope = bridge ? await bridge.call(operation, request ?? {}) : await viaHttp(operation, request);
   if (envelope.ok) return envelope.value;
-  const { code, message, fields } = envelope.error;
-  throw new RequestError(code, message, fields ?? [], operation);
+  const { code, message, fields, conflicts } = envelope.error;
+  throw new RequestError(code, message, fields ?? [], operation, conflicts ?? []);
 }
 
 function buildApi(): Api {

@@ -1,8 +1,9 @@
 /**
  * The error the renderer throws when the diary refuses or cannot answer a call. It keeps the
- * service's code and its `field: reason` lines so a form can put each reason beside its field.
+ * service's code and its `field: reason` lines so a form can put each reason beside its field,
+ * and a merging import's list of conflicting questions.
  */
-import type { ApiErrorCode } from '../../../shared/contract';
+import type { ApiErrorCode, ImportConflict } from '../../../shared/contract';
 
 export type RequestErrorCode = ApiErrorCode | 'unreachable' | 'unauthorized';
 
@@ -12,6 +13,7 @@ export class RequestError extends Error {
     message: string,
     readonly fields: string[] = [],
     readonly operation = '',
+    readonly conflicts: readonly ImportConflict[] = [],
   ) {
     super(message);
     this.name = 'RequestError';

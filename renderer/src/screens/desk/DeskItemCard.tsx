@@ -1,10 +1,12 @@
 /**
  * One question on the Desk: why it is due, the last number, and the one-click answers —
  * an outcome for a closed question, a revision for an open one, a snooze for either.
- * Panels (note, revision, snooze choices) open in place; Escape closes them.
+ * Panels (note, revision, snooze choices) open in place; Escape closes them. Every answer
+ * hands its undo token(s) to the Desk, whose toast offers Undo.
  */
 import { useEffect, useId, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
 import type { Outcome } from '../../../../shared/domain';
+import { extent } from '../../../../shared/extent';
 import { api } from '../../api/client';
 import { describeError } from '../../api/errors';
 import { Badge } from '../../components/Badge';
@@ -17,16 +19,17 @@ import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { useForm } from '../../forms';
 import { formatPercent, percentText, percentToProbability } from '../../percent';
+import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
 import { hrefTo, questionPath } from '../../routing';
 import { dueKinds, type DeskItem } from './items';
 import { ago, checkinPhrase, closedPhrase, closingPhrase, dayWord, clockTime, overduePhrase } from './wording';
 
 const STALE_EXPLANATION = 'well above its glide path and not revised for longer than its check-in cadence';
 
-/** What an action did, for the toast; `href` links to the question. */
+/** What an action did, for the toast, and the tokens that undo it (in the order its steps were made). */
 export interface Done {
   message: string;
-  href: string;
+  undo: string[];
 }
 
 interface Props {
@@ -55,23 +58,25 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
   // leaves, moves, or stays with new facts), so a second click cannot repeat the action.
   useEffect(() => setBusy(false), [item]);
 
-  function finish(message: string) {
+  function finish(done: Done) {
     setBusy(true);
     setPanel('none');
-    onDone(item, { message, href });
+    onDone(item, done);
   }
 
-  async function run(action: () => Promise<string>): Promise<void> {
+  /** Runs an answer; null from it means the user stopped at a warning, and nothing changed. */
+  async function run(action: () => Promise<Done | null>): Promise<void> {
     setBusy(true);
-    let message: string;
+    let done: Done | null;
     try {
-      message = await action();
+      done = await action();
     } catch (error) {
       setBusy(false);
       onFailed(describeError(error));
       return;
     }
-    finish(message);
+    if (done) finish(done);
+    else setBusy(false);
   }
 
   /** Escape closes an open panel and gives focus back to the button that opened it. */
@@ -203,14 +208,19 @@ function ResolveButtons({
   noteOpen: boolean;
   noteId: string;
   onToggleNote: () => void;
-  run: (action: () => Promise<string>) => Promise<void>;
+  run: (action: () => Promise<Done | null>) => Promise<void>;
 }) {
   const groupId = useId();
+  const ask = useAskFirst();
 
   function resolve(outcome: Outcome) {
     void run(async () => {
-      await api.resolveQuestion({ id: item.id, outcome, ...(note.trim() ? { note: note.trim() } : {}) });
-      return `Resolved “${item.title}”: ${OUTCOME_LABELS[outcome]}${note.trim() ? ', with your note' : ''}.`;
+      const request = { id: item.id, outcome, ...(note.trim() ? { note: note.trim() } : {}) };
+      const answer = await sendAskingFirst(ask, { confirmLabel: `Resolve ${OUTCOME_LABELS[outcome]} anyway` }, (confirm) =>
+        api.resolveQuestion({ ...request, ...(confirm ? { confirm } : {}) }),
+      );
+      if (!answer) return null;
+      return { message: `Resolved “${item.title}”: ${OUTCOME_LABELS[outcome]}${note.trim() ? ', with your note' : ''}.`, undo: [answer.undo] };
     });
   }
 
@@ -260,7 +270,7 @@ function ReviseForm({
   draft: RevisionDraft;
   onDraftChange: (draft: RevisionDraft) => void;
   onCancel: () => void;
-  onSaved: (message: string) => void;
+  onSaved: (done: Done) => void;
 }) {
   const form = useForm();
   const { p, note } = draft;
@@ -279,15 +289,19 @@ function ReviseForm({
     if (!form.check({})) return;
     const value = parsed.value;
     const unchanged = item.last_p !== null && value === item.last_p;
+    let undo = '';
     const ok = await form.submit(
       async () => {
-        await api.addForecast({ question_id: item.id, p: value, ...(note.trim() ? { note: note.trim() } : {}) });
+        undo = (await api.addForecast({ question_id: item.id, p: value, ...(note.trim() ? { note: note.trim() } : {}) })).undo;
       },
       { fields: ['p', 'note'] },
     );
     if (!ok) return;
     onDraftChange({ p, note: '' });
-    onSaved(unchanged ? `Kept “${item.title}” at ${formatPercent(value)}; check-in done.` : `Revised “${item.title}” to ${formatPercent(value)}.`);
+    onSaved({
+      message: unchanged ? `Kept “${item.title}” at ${formatPercent(value)}; check-in done.` : `Revised “${item.title}” to ${formatPercent(value)}.`,
+      undo: [undo],
+    });
   }
 
   return (
@@ -319,7 +333,7 @@ function SnoozeChoices({
   item: DeskItem;
   diaryTimeZone: string;
   busy: boolean;
-  run: (action: () => Promise<string>) => Promise<void>;
+  run: (action: () => Promise<Done | null>) => Promise<void>;
 }) {
   const groupId = useId();
   const ref = useRef<HTMLDivElement>(null);
@@ -330,11 +344,13 @@ function SnoozeChoices({
 
   function snooze(preset: (typeof SNOOZE_CHOICES)[number]['preset']) {
     void run(async () => {
-      // Every kind due for the question, so the whole item leaves the Desk until then.
-      const answers = await Promise.all(dueKinds(item).map((kind) => api.snooze({ question_id: item.id, kind, preset })));
-      const until = Math.max(...answers.map((a) => Date.parse(a.until)));
+      // Every kind due for the question, so the whole item leaves the Desk until then; one
+      // after another, so their undo tokens are known in order (Undo takes them back newest first).
+      const answers = [];
+      for (const kind of dueKinds(item)) answers.push(await api.snooze({ question_id: item.id, kind, preset }));
+      const until = extent(answers.map((a) => Date.parse(a.until))).max;
       const when = `${dayWord(until, Date.now(), diaryTimeZone)} ${clockTime(until, diaryTimeZone)}`;
-      return `Snoozed “${item.title}” until ${when}.`;
+      return { message: `Snoozed “${item.title}” until ${when}.`, undo: answers.map((a) => a.undo) };
     });
   }
 

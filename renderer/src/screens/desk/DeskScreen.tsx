@@ -13,12 +13,14 @@ import { EmptyState } from '../../components/EmptyState';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { useToast } from '../../components/Toast';
 import { useDiaryInfo } from '../../diaryInfo';
+import { useUndoToast } from '../../forgiving/undo';
 import { useDocumentTitle } from '../../hooks';
 import { hrefTo } from '../../routing';
 import { QUICK_ADD_ARIA_SHORTCUTS, QUICK_ADD_SHORTCUT_TEXT, useQuickAdd } from '../questions/quickAdd';
 import { DeskGroupList } from './DeskGroupList';
 import { DeskItemCard, type Done } from './DeskItemCard';
 import { GROUPS, deskItems, summary, type DeskItem } from './items';
+import { SnoozedSection } from './SnoozedSection';
 import { useDue } from './useDueCount';
 import './desk.css';
 
@@ -26,6 +28,7 @@ export function DeskScreen() {
   // The window title is "Forelog", with the due count in front (App adds it).
   useDocumentTitle(null);
   const toast = useToast();
+  const undoToast = useUndoToast();
   const info = useDiaryInfo();
   const due = useDue();
   const items = useMemo(() => (due.data ? deskItems(due.data.nudges) : []), [due.data]);
@@ -49,10 +52,10 @@ export function DeskScreen() {
       const index = items.findIndex((i) => i.id === item.id);
       const next = items[index + 1] ?? items[index - 1] ?? null;
       focusPlan.current = { id: item.id, next: next?.id ?? null };
-      toast.show({ message: done.message, action: { label: 'Open question', href: done.href } });
+      undoToast({ message: done.message, undo: done.undo, title: item.title });
       diaryChanged();
     },
-    [items, toast],
+    [items, undoToast],
   );
   const onFailed = useCallback((message: string) => toast.show({ tone: 'error', message }), [toast]);
 
@@ -98,6 +101,7 @@ export function DeskScreen() {
           })
         )
       ) : null}
+      {due.data ? <SnoozedSection snoozed={due.data.snoozed} now={now} diaryTimeZone={diaryTimeZone} /> : null}
     </div>
   );
 }

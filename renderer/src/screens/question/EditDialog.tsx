@@ -17,6 +17,7 @@ import { TagInput } from '../../components/TagInput';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { isoToLocal, localToIso, timeZoneNames, zoneName } from '../../dates';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
@@ -26,7 +27,8 @@ interface Props {
   question: Question;
   open: boolean;
   onClose: () => void;
-  onSaved: (message: string) => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
 }
 
 type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
@@ -110,6 +112,8 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
       const iso = localToIso(openedLocal, timeZone);
       if (iso) changes.opened_at = iso;
       else found.opened_at = 'enter when the question opened';
+      const problem = iso ? typedTimeProblem(iso, 'the opening time (when the question was posed)') : null;
+      if (problem) found.opened_at = problem;
     }
     if (zoneChanged || closesLocal !== initialCloses) {
       const iso = localToIso(closesLocal, timeZone);
@@ -150,10 +154,11 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
       onClose();
       return;
     }
+    let undo = '';
     const ok = await form.submit(async () => {
-      await api.updateQuestion(request);
+      undo = (await api.updateQuestion(request)).undo;
     }, PLACEMENT);
-    if (ok) onSaved('Question saved.');
+    if (ok) onSaved('Question saved.', undo);
   }
 
   return (

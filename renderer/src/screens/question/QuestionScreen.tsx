@@ -1,6 +1,7 @@
 /**
  * One question: its definition, where it stands, its probability history (chart and tables),
- * and everything that can be done to it. Each change reloads the page's data and says so.
+ * the history of its resolution, and everything that can be done to it. Each change reloads
+ * the page's data and says so in a toast whose Undo takes it back.
  */
 import { useState } from 'react';
 import type { Question, Settings } from '../../../../shared/domain';
@@ -16,11 +17,12 @@ import { ConfirmDialog } from '../../components/ConfirmDialog';
 import { EmptyState } from '../../components/EmptyState';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { OUTCOME_LABELS, StatusPill } from '../../components/StatusPill';
-import { useToast } from '../../components/Toast';
+import { TextArea } from '../../components/TextArea';
 import { formatInstant, zoneName } from '../../dates';
+import { useUndoToast } from '../../forgiving/undo';
 import { useDocumentTitle } from '../../hooks';
 import { formatPercent } from '../../percent';
-import { hrefTo, navigate } from '../../routing';
+import { hrefTo, navigate, questionPath } from '../../routing';
 import { ReferenceLeadNote } from '../../tools/ReferenceLeadNote';
 import { StaleNotice } from '../../tools/StaleNotice';
 import type { ScreenProps } from '../registry';
@@ -29,8 +31,10 @@ import { HistoryTables } from './HistoryTables';
 import { KIND_HINTS, KIND_LABELS } from './labels';
 import { lastForecast } from './questionFacts';
 import { ReferenceDialog } from './ReferenceDialog';
+import { ResolutionHistory } from './ResolutionHistory';
 import { ResolveDialog } from './ResolveDialog';
 import { ReviseDialog } from './ReviseDialog';
+import { SnoozeNote } from './SnoozeNote';
 
 type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
 type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
@@ -62,9 +66,10 @@ export function QuestionScreen({ params }: ScreenProps) {
 }
 
 function QuestionPage({ question: q, settings }: { question: Question; settings: Settings }) {
-  const toast = useToast();
+  const undoToast = useUndoToast();
   const [dialog, setDialog] = useState<DialogName | null>(null);
   const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);
+  const [reopenNote, setReopenNote] = useState('');
   const close = () => setDialog(null);
 
   const status = questionStatus(Date.parse(q.closes_at), q.resolution?.outcome ?? null, Date.now(), settings.closing_soon_hours);
@@ -72,31 +77,32 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
   const lastReference = [...q.references].sort((a, b) => Date.parse(a.at) - Date.parse(b.at)).at(-1);
   const zone = q.time_zone;
 
-  function saved(message: string) {
+  function saved(message: string, undo: string) {
     setDialog(null);
     setPendingDelete(null);
     diaryChanged();
-    toast.show({ message });
+    undoToast({ message, undo, title: q.title });
   }
 
   async function deleteQuestion() {
-    await api.deleteQuestion({ id: q.id });
+    const { undo } = await api.deleteQuestion({ id: q.id });
     // Leave the page before announcing the change, so it does not reload a deleted question.
     navigate('questions');
     diaryChanged();
-    toast.show({ message: `Deleted “${q.title}”.` });
+    // Undo brings the question back whole; the page it was deleted from comes back with it.
+    undoToast({ message: `Deleted “${q.title}”.`, undo, title: q.title, afterUndo: () => navigate(questionPath(q.id)) });
   }
 
   async function deletePending() {
     if (!pendingDelete) return;
-    if (pendingDelete.kind === 'forecast') await api.deleteForecast({ id: pendingDelete.id });
-    else await api.deleteReference({ id: pendingDelete.id });
-    saved(pendingDelete.kind === 'forecast' ? 'Revision deleted.' : 'Reference forecast deleted.');
+    const { undo } = pendingDelete.kind === 'forecast' ? await api.deleteForecast({ id: pendingDelete.id }) : await api.deleteReference({ id: pendingDelete.id });
+    saved(pendingDelete.kind === 'forecast' ? 'Revision deleted.' : 'Reference forecast deleted.', undo);
   }
 
   async function reopen() {
-    await api.reopenQuestion({ id: q.id });
-    saved('Reopened; the question awaits a resolution again.');
+    const { undo } = await api.reopenQuestion({ id: q.id, ...(reopenNote.trim() ? { note: reopenNote } : {}) });
+    setReopenNote('');
+    saved('Reopened; the question awaits a resolution again.', undo);
   }
 
   const pendingForecast = pendingDelete?.kind === 'forecast' ? q.forecasts.find((f) => f.id === pendingDelete.id) : undefined;
@@ -145,6 +151,10 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
           </div>
         </section>
       ) : null}
+
+      <ResolutionHistory question={q} />
+
+      <SnoozeNote question={q} />
 
       <StaleNotice question={q} settings={settings} onRevise={() => setDialog('revise')} />
 
@@ -240,11 +250,15 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
       <ConfirmDialog open={dialog === 'delete'} title="Delete this question?" confirmLabel="Delete question" onConfirm={deleteQuestion} onClose={close}>
         <p>
           “{q.title}” will be removed with its {q.forecasts.length} forecast{q.forecasts.length === 1 ? '' : 's'} and {q.references.length} reference
-          forecast{q.references.length === 1 ? '' : 's'}. This cannot be undone.
+          forecast{q.references.length === 1 ? '' : 's'}. You can take it back with Undo in the message that follows.
         </p>
       </ConfirmDialog>
       <ConfirmDialog open={dialog === 'reopen'} title="Reopen this question?" confirmLabel="Reopen" tone="primary" onConfirm={reopen} onClose={close}>
-        <p>The recorded resolution ({q.resolution ? OUTCOME_LABELS[q.resolution.outcome] : ''}) and its note are removed, and the question waits for a resolution again.</p>
+        <p>
+          The recorded resolution ({q.resolution ? OUTCOME_LABELS[q.resolution.outcome] : ''}) is moved to the question’s resolution history, and the question waits
+          for a resolution again.
+        </p>
+        <TextArea label="Why reopen" value={reopenNote} onChange={setReopenNote} rows={2} hint="Optional; kept in the history beside the resolution it removes." />
       </ConfirmDialog>
       <ConfirmDialog
         open={pendingDelete !== null}
@@ -255,9 +269,9 @@ function QuestionPage({ question: q, settings }: { question: Question; settings:
       >
         <p>
           {pendingForecast
-            ? `Your ${formatPercent(pendingForecast.p)} of ${formatInstant(pendingForecast.at, zone)} will be removed from the history. This cannot be undone.`
+            ? `Your ${formatPercent(pendingForecast.p)} of ${formatInstant(pendingForecast.at, zone)} will be removed from the history. Undo in the message that follows brings it back.`
             : pendingReference
-              ? `${pendingReference.source}’s ${formatPercent(pendingReference.p)} of ${formatInstant(pendingReference.at, zone)} will be removed. This cannot be undone.`
+              ? `${pendingReference.source}’s ${formatPercent(pendingReference.p)} of ${formatInstant(pendingReference.at, zone)} will be removed. Undo in the message that follows brings it back.`
               : ''}
         </p>
       </ConfirmDialog>

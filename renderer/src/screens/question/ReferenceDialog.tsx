@@ -10,6 +10,7 @@ import { Form } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextField } from '../../components/TextField';
 import { localToIso } from '../../dates';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import { percentToProbability } from '../../percent';
 
@@ -17,7 +18,8 @@ interface Props {
   question: Question;
   open: boolean;
   onClose: () => void;
-  onSaved: (message: string) => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
 }
 
 export function ReferenceDialog({ question, open, onClose, onSaved }: Props) {
@@ -50,12 +52,15 @@ function ReferenceForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
     else if (parsed.value === null) found.p = 'enter the source’s probability in percent, e.g. 60';
     if (source.trim() === '') found.source = 'name the source, e.g. client’s view';
     if (atLocal && !at) found.at = 'enter a complete date and time, or leave it empty for now';
+    const atProblem = at ? typedTimeProblem(at, 'a reference forecast') : null;
+    if (atProblem) found.at = atProblem;
     const request = { question_id: question.id, p: parsed.ok && parsed.value !== null ? parsed.value : Number.NaN, source, ...(at ? { at } : {}) };
     if (!form.check(found, { schema: referenceRequest, request, placement: PLACEMENT })) return;
+    let undo = '';
     const ok = await form.submit(async () => {
-      await api.addReference(request);
+      undo = (await api.addReference(request)).undo;
     }, PLACEMENT);
-    if (ok) onSaved(`Added ${source.trim()}’s ${p.trim()}%.`);
+    if (ok) onSaved(`Added ${source.trim()}’s ${p.trim()}%.`, undo);
   }
 
   return (

@@ -14,6 +14,7 @@ import { Form } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextArea } from '../../components/TextArea';
 import { localToIso } from '../../dates';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import { percentText, percentToProbability } from '../../percent';
 import { LensesEditor } from '../../tools/LensesEditor';
@@ -25,7 +26,8 @@ interface Props {
   question: Question;
   open: boolean;
   onClose: () => void;
-  onSaved: (message: string) => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
 }
 
 export function ReviseDialog({ question, open, onClose, onSaved }: Props) {
@@ -59,6 +61,8 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
     if (!parsed.ok) found.p = parsed.error;
     else if (parsed.value === null) found.p = 'enter your probability in percent, e.g. 35';
     if (atLocal && !at) found.at = 'enter a complete date and time, or leave it empty for now';
+    const atProblem = at ? typedTimeProblem(at, 'a revision', question) : null;
+    if (atProblem) found.at = atProblem;
     const checked = checkLenses(lenses);
     Object.assign(found, checked.errors);
     const request = {
@@ -69,10 +73,11 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
       ...(checked.lenses.length ? { lenses: checked.lenses } : {}),
     };
     if (!form.check(found, { schema: forecastRequest, request, placement: PLACEMENT })) return;
+    let undo = '';
     const ok = await form.submit(async () => {
-      await api.addForecast(request);
+      undo = (await api.addForecast(request)).undo;
     }, PLACEMENT);
-    if (ok) onSaved(`Revised to ${p.trim()}%.`);
+    if (ok) onSaved(`Revised to ${p.trim()}%.`, undo);
   }
 
   return (

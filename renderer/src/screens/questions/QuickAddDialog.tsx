@@ -1,6 +1,8 @@
 /**
- * The one-minute question: title, rule, close, base rate, a first probability and tags.
- * The rest (costs, check-in cadence, opening time) can be filled in later from Edit.
+ * The one-minute question: title, rule, close, base rate, a first probability and tags, and
+ * (optional) when it was posed, so a call already made, or a window already closed, is
+ * recorded honestly; left empty, the question opens now. The rest (costs, check-in
+ * cadence) can be filled in later from Edit.
  */
 import { useEffect, useState, type FormEvent } from 'react';
 import { createQuestionRequest } from '../../../../shared/contract';
@@ -18,6 +20,7 @@ import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { useToast } from '../../components/Toast';
 import { localToIso } from '../../dates';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useDefaultTimeZone } from '../../diaryInfo';
 import { useForm } from '../../forms';
 import { percentToProbability } from '../../percent';
@@ -35,10 +38,12 @@ const LABELS = {
   base_rate: 'Base rate',
   base_rate_note: 'Reference class',
   'first_forecast.p': 'Your probability',
+  'first_forecast.at': 'Opened',
   'first_forecast.note': 'Reasoning',
   tags: 'Tags',
 };
-const PLACEMENT = { fields: Object.keys(LABELS).filter((f) => f !== 'opened_at'), labels: LABELS, aliases: { opened_at: 'closes_at' } };
+// The first forecast is dated at the opening typed, so a reason about its time is one about "Opened".
+const PLACEMENT = { fields: Object.keys(LABELS).filter((f) => f !== 'first_forecast.at'), labels: LABELS, aliases: { 'first_forecast.at': 'opened_at' } };
 
 export function QuickAddDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
   return (
@@ -63,6 +68,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   const [rule, setRule] = useState('');
   const [kind, setKind] = useState<QuestionKind>('event_by_deadline');
   const [closesLocal, setClosesLocal] = useState('');
+  const [openedLocal, setOpenedLocal] = useState('');
   const [timeZone, setTimeZone] = useState(defaultZone);
   const [baseRate, setBaseRate] = useState('');
   const [baseRateNote, setBaseRateNote] = useState('');
@@ -79,18 +85,25 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   }, []);
 
   const dirty =
-    title !== '' || rule !== '' || kind !== 'event_by_deadline' || closesLocal !== '' || timeZone !== defaultZone ||
+    title !== '' || rule !== '' || kind !== 'event_by_deadline' || closesLocal !== '' || openedLocal !== '' || timeZone !== defaultZone ||
     baseRate !== '' || baseRateNote !== '' || firstP !== '' || firstNote !== '' || tags.length > 0;
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
-    // Stated explicitly so a close in the past is refused beside the close field.
-    const openedAt = new Date().toISOString();
+    // Stated explicitly (now, when left empty) so a close before it is refused beside the close field.
+    const typedOpening = openedLocal !== '';
+    const openedAt = typedOpening ? localToIso(openedLocal, timeZone) : new Date().toISOString();
     if (title.trim() === '') found.title = 'write the question you are forecasting, e.g. “Northgate signs phase 2 by 31 March”';
+    if (!openedAt) found.opened_at = 'enter a complete date and time, or leave it empty for now';
+    else if (typedOpening) {
+      const problem = typedTimeProblem(openedAt, 'the opening time (when the question was posed)');
+      if (problem) found.opened_at = problem;
+    }
     const closesAt = localToIso(closesLocal, timeZone);
     if (!closesAt) found.closes_at = 'choose the date and time the window closes';
-    else if (Date.parse(closesAt) <= Date.parse(openedAt)) found.closes_at = 'must be after the opening time: the question opens now, so the close must be in the future';
+    else if (openedAt && Date.parse(closesAt) <= Date.parse(openedAt))
+      found.closes_at = typedOpening ? 'must be after the opening time (“Opened”)' : 'must be after the opening time: the question opens now, so the close must be in the future (for a call made earlier, fill in “Opened”)';
     const base = percentToProbability(baseRate);
     if (!base.ok) found.base_rate = base.error;
     const first = percentToProbability(firstP);
@@ -101,12 +114,13 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
       rule,
       kind,
       tags,
-      opened_at: openedAt,
+      opened_at: openedAt ?? '',
       closes_at: closesAt ?? '',
       time_zone: timeZone,
       base_rate: base.ok ? base.value : null,
       base_rate_note: baseRateNote,
-      ...(first.ok && first.value !== null ? { first_forecast: { p: first.value, note: firstNote } } : {}),
+      // A call made earlier was made when it was posed: the first forecast is dated then too.
+      ...(first.ok && first.value !== null ? { first_forecast: { p: first.value, note: firstNote, ...(typedOpening && openedAt ? { at: openedAt } : {}) } } : {}),
     };
     if (!form.check(found, { schema: createQuestionRequest, request, placement: PLACEMENT })) return;
 
@@ -145,6 +159,14 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
         onTimeZoneChange={setTimeZone}
         required
         error={form.error('closes_at') ?? form.error('time_zone')}
+      />
+      <DateTimeField
+        label="Opened"
+        local={openedLocal}
+        onLocalChange={setOpenedLocal}
+        timeZone={timeZone}
+        hint="Leave empty if you are posing it now. For a call you made earlier, give when you made it: your first probability is dated then too."
+        error={form.error('opened_at')}
       />
       <div className="form__row">
         <ProbabilityInput

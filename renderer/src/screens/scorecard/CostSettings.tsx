@@ -10,7 +10,7 @@ import { diaryChanged } from '../../api/changes';
 import { Button } from '../../components/Button';
 import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
-import { useToast } from '../../components/Toast';
+import { replacedValues, useSettingsUndoToast } from '../../forgiving/settingsUndo';
 import { useForm } from '../../forms';
 
 const LABELS = { default_false_alarm_cost: 'False-alarm cost', default_miss_cost: 'Miss cost' };
@@ -23,7 +23,7 @@ function costProblem(text: string): string | undefined {
 }
 
 export function CostSettings({ settings }: { settings: Settings }) {
-  const toast = useToast();
+  const settingsUndo = useSettingsUndoToast();
   const form = useForm();
   const [falseAlarm, setFalseAlarm] = useState(String(settings.default_false_alarm_cost));
   const [miss, setMiss] = useState(String(settings.default_miss_cost));
@@ -45,12 +45,15 @@ export function CostSettings({ settings }: { settings: Settings }) {
     if (mi) found.default_miss_cost = mi;
     const request = { default_false_alarm_cost: Number(falseAlarm), default_miss_cost: Number(miss) };
     if (!form.check(found, { schema: settingsPatch, request, placement: PLACEMENT })) return;
+    let before: Settings | undefined;
     const ok = await form.submit(async () => {
+      // What the diary holds just before the save is what Undo puts back.
+      before = await api.getSettings({});
       await api.updateSettings(request);
     }, PLACEMENT);
-    if (ok) {
+    if (ok && before) {
       diaryChanged();
-      toast.show({ message: 'Saved the default costs. The scorecard now uses them for questions without their own.' });
+      settingsUndo('Saved the default costs. The scorecard now uses them for questions without their own.', replacedValues(before, request));
     }
   }
 

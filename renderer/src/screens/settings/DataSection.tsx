@@ -1,6 +1,7 @@
 /**
  * Your data: the whole diary out as a file (JSON v1, CSV one row per revision, or the open
- * questions' closes as an iCalendar file) and a diary file in (JSON or CSV, all or nothing).
+ * questions' closes as an iCalendar file) and a diary file in (JSON or CSV, all or nothing;
+ * a file that overlaps the diary is offered the merge, ImportOverlap.tsx).
  * The same in the desktop app and in browser mode: the files go through the API as text,
  * decoded here from the file's bytes; files above the app's 64 MB cap go to `forelog import`.
  */
@@ -9,11 +10,12 @@ import { APP_IMPORT_MAX_BYTES, APP_IMPORT_TOO_LARGE, type EXPORT_FORMATS } from 
 import { decodeText, TextDecodingError } from '../../../../shared/text-decoding';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
-import { describeError } from '../../api/errors';
+import { RequestError, describeError } from '../../api/errors';
 import { Button } from '../../components/Button';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { FilePicker } from '../../components/FilePicker';
 import { useToast } from '../../components/Toast';
+import { ImportOverlap, type OverlappingFile } from './ImportOverlap';
 
 type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
@@ -38,10 +40,15 @@ function saveAs(text: string, fileName: string, mediaType: string): void {
   window.setTimeout(() => URL.revokeObjectURL(url), REVOKE_AFTER_MS);
 }
 
+function plural(n: number, word: string): string {
+  return `${n} ${word}${n === 1 ? '' : 's'}`;
+}
+
 export function DataSection() {
   const toast = useToast();
   const [busy, setBusy] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
+  const [overlap, setOverlap] = useState<OverlappingFile | null>(null);
 
   async function exportAs(format: ExportFormat) {
     setBusy(format);
@@ -60,6 +67,7 @@ export function DataSection() {
   async function importFile(file: File) {
     setBusy('import');
     setProblem(null);
+    setOverlap(null);
     try {
       const format = /\.csv$/i.test(file.name) ? 'csv' : 'json';
       const tooLarge = `${file.name}: This file ${APP_IMPORT_TOO_LARGE}.`;
@@ -70,7 +78,14 @@ export function DataSection() {
       const text = decodeText(new Uint8Array(await file.arrayBuffer()));
       // The request carries the text escaped as JSON; its size is what the cap counts.
       if (new Blob([JSON.stringify({ format, text })]).size > APP_IMPORT_MAX_BYTES) return setProblem(tooLarge);
-      const { added } = await api.importText({ format, text });
+      let added: number;
+      try {
+        ({ added } = await api.importText({ format, text }));
+      } catch (error) {
+        // A question id already here: offer the merge rather than a dead end.
+        if (error instanceof RequestError && error.code === 'conflict') return setOverlap({ name: file.name, format, text, reason: error.message });
+        throw error;
+      }
       toast.show({ message: `Imported ${added} question${added === 1 ? '' : 's'} from ${file.name}.` });
       diaryChanged();
     } catch (error) {
@@ -105,6 +120,19 @@ export function DataSection() {
           note={busy === 'import' ? 'Importing…' : 'JSON (Forelog’s diary file) or CSV'}
         />
       </p>
+      {overlap ? (
+        <ImportOverlap
+          file={overlap}
+          onCancel={() => setOverlap(null)}
+          onMerged={({ added, skipped }) => {
+            setOverlap(null);
+            toast.show({
+              message: `Merged ${overlap.name}: ${plural(added, 'question')} added, ${plural(skipped, 'question')} already here unchanged and skipped.`,
+            });
+            diaryChanged();
+          }}
+        />
+      ) : null}
       <p className="muted">
         Imports add questions and never change the ones you have; a file with one bad record is refused whole and says which.
         The desktop app also keeps a copy of the diary every day (the newest seven), and <code>forelog backup FILE</code> makes one

@@ -18,9 +18,9 @@ import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { Select } from '../../components/Select';
 import { TextField } from '../../components/TextField';
-import { useToast } from '../../components/Toast';
 import { timeZoneNames, zoneName } from '../../dates';
 import { useDiaryInfo } from '../../diaryInfo';
+import { replacedValues, useSettingsUndoToast } from '../../forgiving/settingsUndo';
 import { useDocumentTitle } from '../../hooks';
 import { useForm } from '../../forms';
 import { useLeaveGuard } from '../../leaveGuard';
@@ -48,7 +48,7 @@ export function SettingsScreen() {
 
 function SettingsForm({ initial }: { initial: Settings }) {
   const form = useForm();
-  const toast = useToast();
+  const settingsUndo = useSettingsUndoToast();
   const [saved, setSaved] = useState(() => draftFrom(initial));
   const [draft, setDraft] = useState(saved);
   const dirty = !sameDraft(draft, saved);
@@ -62,14 +62,22 @@ function SettingsForm({ initial }: { initial: Settings }) {
     const built = patchFrom(draft);
     if (!form.check(built.errors, { schema: settingsPatch, request: built.patch, placement: PLACEMENT })) return;
     let answer: Settings | undefined;
+    let before: Settings | undefined;
     const ok = await form.submit(async () => {
+      // What the diary holds just before the save is what Undo puts back.
+      before = await api.getSettings({});
       answer = await api.updateSettings(built.patch);
     }, PLACEMENT);
-    if (ok && answer) {
+    if (ok && answer && before) {
       const next = draftFrom(answer);
       setSaved(next);
       setDraft(next);
-      toast.show({ message: 'Settings saved. Nudges and the Desk follow them from now on.' });
+      settingsUndo('Settings saved. Nudges and the Desk follow them from now on.', replacedValues(before, built.patch), (restored) => {
+        const back = draftFrom(restored);
+        setSaved(back);
+        // What was typed since the save stays in the form.
+        setDraft((d) => (sameDraft(d, next) ? back : d));
+      });
       diaryChanged();
     }
   }

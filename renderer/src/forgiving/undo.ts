@@ -1,0 +1,58 @@
+/**
+ * The Undo in a change's toast. Every change to a question answers with an undo token
+ * (docs/api.md, "Undo"); the toast's Undo hands it back to the diary's own `undo`
+ * operation, which puts the question back exactly as it was, then every screen reloads.
+ * A change made of several steps (a Desk snooze covers each kind due) is undone newest
+ * first, the only order the diary accepts.
+ */
+import { useCallback } from 'react';
+import type { UndoResult } from '../../../shared/contract';
+import { api } from '../api/client';
+import { diaryChanged } from '../api/changes';
+import { describeError } from '../api/errors';
+import { useToast } from '../components/Toast';
+import { hrefTo, questionPath } from '../routing';
+import { undoneMessage, undoSteps } from './undoSteps';
+
+export interface UndoableChange {
+  /** What was done, e.g. "Resolved “Northgate signs phase 2”: Yes." */
+  message: string;
+  /** The token(s) the change answered with, in the order the steps were made. */
+  undo: string | readonly string[];
+  /** What the question was called, for the message after undoing. */
+  title: string;
+  /** Runs after a successful undo, e.g. to go back to a question that was deleted. */
+  afterUndo?: (result: UndoResult) => void;
+}
+
+
+/**
+ * `show(change)`: a toast saying what was done, with an Undo button (reachable with F6 and
+ * announced with the toast). Undo reports its own outcome in a second toast; a refusal (the
+ * question changed since, or the change is too old) says why and that nothing changed.
+ */
+export function useUndoToast(): (change: UndoableChange) => void {
+  const toast = useToast();
+  return useCallback(
+    (change: UndoableChange) => {
+      const tokens = typeof change.undo === 'string' ? [change.undo] : [...change.undo];
+      async function undo() {
+        try {
+          const result = await undoSteps(tokens, (token) => api.undo({ token }));
+          change.afterUndo?.(result);
+          toast.show({
+            message: undoneMessage(result, change.title),
+            ...(result.question ? { action: { label: 'Open question', href: hrefTo(questionPath(result.question.id)) } } : {}),
+          });
+        } catch (error) {
+          toast.show({ tone: 'error', message: `Could not undo: ${describeError(error)}` });
+        } finally {
+          // Also after a partial undo of several steps: the screen shows what the diary holds.
+          diaryChanged();
+        }
+      }
+      toast.show({ message: change.message, action: { label: 'Undo', onClick: () => void undo() } });
+    },
+    [toast],
+  );
+}
