@@ -341,10 +341,11 @@ export function toQuestion(b: QuestionBundle, now: number): Question {
 export function tagsOf(db: Db, ids: readonly string[]): Map<string, string[]> {
   const byId = new Map<string, string[]>();
   if (!ids.length) return byId;
-  const rows = stmt(db, 'SELECT question_id, tag FROM question_tags WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position')
-    .raw()
-    .all(JSON.stringify(ids)) as [string, string][];
-  for (const [id, tag] of rows) {
+  // Row objects, not .raw(): statements are cached per SQL text and shared, and loadBundles runs this same text.
+  const rows = stmt(db, 'SELECT question_id, tag FROM question_tags WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position').all(
+    JSON.stringify(ids),
+  ) as { question_id: string; tag: string }[];
+  for (const { question_id: id, tag } of rows) {
     const list = byId.get(id);
     if (list) list.push(tag);
     else byId.set(id, [tag]);
@@ -355,8 +356,8 @@ export function tagsOf(db: Db, ids: readonly string[]): Map<string, string[]> {
 /** How many revisions each question asked for has (absent: none). */
 export function forecastCountsOf(db: Db, ids: readonly string[]): Map<string, number> {
   if (!ids.length) return new Map();
-  const rows = stmt(db, 'SELECT question_id, count(*) FROM forecasts WHERE question_id IN (SELECT value FROM json_each(?)) GROUP BY question_id')
-    .raw()
-    .all(JSON.stringify(ids)) as [string, number][];
-  return new Map(rows);
+  const rows = stmt(db, 'SELECT question_id, count(*) AS n FROM forecasts WHERE question_id IN (SELECT value FROM json_each(?)) GROUP BY question_id').all(
+    JSON.stringify(ids),
+  ) as { question_id: string; n: number }[];
+  return new Map(rows.map((r) => [r.question_id, r.n]));
 }

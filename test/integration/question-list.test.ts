@@ -116,6 +116,9 @@ test('search, status and tag filter before paging, and `matched` counts every pa
   assert.equal(resolved.matched, 1);
   assert.equal(resolved.questions[0]!.id, ids[0]);
   assert.equal((await list(d, { status: 'open' })).matched, 11);
+  // Reading a page leaves whole-question reads intact (they share cached statements).
+  assert.deepEqual((await d.call('getQuestion', { id: ids[3]! })).tags, ['client:northgate']);
+  assert.deepEqual((await list(d, { limit: 1, sort: 'title' })).questions[0]!.tags, ['client:northgate']);
 });
 
 test('status at the edges agrees with questionStatus, one millisecond either side', async () => {
