@@ -116,12 +116,13 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
   const text = req.text?.trim();
   if (text) {
     // Title, rule, tags and the notes written with revisions; LIKE's own wildcards in the
-    // text are taken literally.
+    // text are taken literally. SQLite's LIKE ignores case for A–Z as its lower() does, so
+    // the columns are compared as they are (no function call per row).
     params.like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     where.push(
-      `(lower(q.title) LIKE @like ESCAPE '\\' OR lower(q.rule) LIKE @like ESCAPE '\\'
+      `(q.title LIKE @like ESCAPE '\\' OR q.rule LIKE @like ESCAPE '\\'
         OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE @like ESCAPE '\\')
-        OR q.id IN (SELECT question_id FROM forecasts WHERE lower(note) LIKE @like ESCAPE '\\'))`,
+        OR q.id IN (SELECT question_id FROM forecasts WHERE note <> '' AND note LIKE @like ESCAPE '\\'))`,
     );
   }
   if (req.status) {
@@ -135,22 +136,39 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
   holder.settings = settings;
   try {
     return readSnapshot(read, () => {
-      const matched = read.prepare(`SELECT count(*) ${from}`).pluck().get(params) as number;
-      // Only the attention order needs the planner's check-in per row.
-      const attention = sort === 'attention' ? `, ${ATTENTION_SQL} AS attention` : '';
-      const rows = read
+      // One pass picks the page and counts the matches; the latest revision is looked up
+      // per row only when the order needs it (one index step each), and for the page.
+      const latest = (column: string) => `(SELECT ${column} FROM forecasts WHERE question_id = b.id ORDER BY at DESC, seq DESC LIMIT 1)`;
+      const extra =
+        sort === 'last_p'
+          ? `, ${latest('p')} AS last_p`
+          : sort === 'attention'
+            ? `, CASE WHEN status < 2 THEN ${CHECKIN_FN}(opened_at, ${latest('at')}, checkin_days, time_zone) END AS checkin`
+            : '';
+      const page = read
         .prepare(
-          `WITH b AS (
-             SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome,
-               f.p AS last_p, f.at AS last_at, ${STATUS_SQL} AS status
-             FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id
-             LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
-             ${filter})
-           ${sort === 'attention' ? `, c AS (SELECT b.*, CASE WHEN status < 2 THEN ${CHECKIN_FN}(opened_at, last_at, checkin_days, time_zone) END AS checkin FROM b)` : ''}
-           SELECT *${attention} FROM ${sort === 'attention' ? 'c' : 'b'} ORDER BY ${orderBy(sort, direction)}
+          `WITH b AS (SELECT q.id, q.title, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, ${STATUS_SQL} AS status ${from}),
+             c AS (SELECT b.*${extra} FROM b)
+           SELECT id, status, count(*) OVER () AS matched${sort === 'attention' ? `, ${ATTENTION_SQL} AS attention` : ''}
+           FROM c ORDER BY ${orderBy(sort, direction)}
            ${req.limit !== undefined ? 'LIMIT @limit OFFSET @offset' : 'LIMIT -1 OFFSET @offset'}`,
         )
-        .all({ ...params, offset, ...(req.limit !== undefined ? { limit: req.limit } : {}) }) as PageRow[];
+        .all({ ...params, offset, ...(req.limit !== undefined ? { limit: req.limit } : {}) }) as { id: string; status: number; matched: number }[];
+      // A page past the end has no row to carry the count.
+      const matched = page[0]?.matched ?? (offset > 0 ? (read.prepare(`SELECT count(*) ${from}`).pluck().get(params) as number) : 0);
+      const byId = new Map(
+        (
+          read
+            .prepare(
+              `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome, f.p AS last_p, f.at AS last_at
+               FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id
+               LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
+               WHERE q.id IN (SELECT value FROM json_each(?))`,
+            )
+            .all(JSON.stringify(page.map((r) => r.id))) as Omit<PageRow, 'status'>[]
+        ).map((r) => [r.id, r]),
+      );
+      const rows: PageRow[] = page.map((r) => ({ ...byId.get(r.id)!, status: r.status }));
       const ids = rows.map((r) => r.id);
       const tags = qs.tagsOf(read, ids);
       const counts = qs.forecastCountsOf(read, ids);
