@@ -17,6 +17,7 @@
  * Whole-process figures are medians of 5 (3 at 100,000), in-process and per-call ones of 5,
  * browser ones of 5 (1 at 100,000); the load average before and after is printed because
  * other work on the machine inflates them.
+ * `-- --screens FILE` measures only the per-call and browser figures on an existing diary.
  * Figures are printed, never asserted: timings do not belong in pass/fail tests.
  */
 import { spawn, spawnSync } from 'node:child_process';
@@ -292,14 +293,38 @@ async function measure(questions: number, rows: Map<string, Row>): Promise<void>
   }
 }
 
+/**
+ * `npm run bench -- --screens FILE`: only the per-call and browser figures, on a diary file
+ * already made (e.g. a 100,000-question one imported once, which takes minutes), one run each.
+ */
+async function measureScreens(dbPath: string, rows: Map<string, Row>): Promise<number> {
+  const service = openDiary({ dbPath });
+  const questions = service.diary.handlers.diaryInfo({}) as { question_count: number };
+  service.close();
+  const size = questions.question_count;
+  const put = (label: string, value: string) => {
+    if (!rows.has(label)) rows.set(label, new Map());
+    rows.get(label)!.set(size, value);
+  };
+  await browserFigures(dbPath, 1, 300_000, put);
+  return size;
+}
+
 async function main(): Promise<void> {
+  const screensAt = process.argv.indexOf('--screens');
   const sizes = process.argv.includes('--large') ? [1_000, 10_000, 100_000] : [1_000, 10_000];
   process.stderr.write('Building the command line and the screens (npm run build)…\n');
   const built = spawnSync('npm', ['run', '--silent', 'build'], { cwd: ROOT, stdio: ['ignore', 'ignore', 'inherit'] });
   if (built.status !== 0) throw new Error('npm run build failed (messages above)');
   const loadBefore = os.loadavg()[0]!;
   const rows = new Map<string, Row>();
-  for (const size of sizes) await measure(size, rows);
+  if (screensAt >= 0) {
+    const file = process.argv[screensAt + 1];
+    if (!file || !fs.existsSync(file)) throw new Error('--screens needs the path of an existing diary file');
+    sizes.splice(0, sizes.length, await measureScreens(path.resolve(file), rows));
+  } else {
+    for (const size of sizes) await measure(size, rows);
+  }
 
   const cpus = os.cpus();
   const header = ['', ...sizes.map((s) => `${s.toLocaleString('en')} questions`)];
