@@ -11,6 +11,10 @@ import { openApp, useDiaryServer, type AppPage } from './serve';
 
 const server = useDiaryServer();
 const COUNT = 240;
+/** Confident misses beyond Hindsight's first page of 20. */
+const MORE_MISSES = 22;
+/** Every question in the diary: the numbered calls, two resolved ones and the misses. */
+const ALL = COUNT + 2 + MORE_MISSES;
 const DAY = 86_400_000;
 
 /** "Call 007 …": three-digit numbers sort the same as text and as numbers. */
@@ -41,6 +45,17 @@ test.beforeAll(async () => {
     });
     await apiCall(url, 'resolveQuestion', { id: q.id, outcome, at: new Date(past + 30 * DAY).toISOString() });
   }
+  // More confident misses (at 82%) than Hindsight lists at first.
+  for (let i = 0; i < MORE_MISSES; i++) {
+    const q = await apiCall<{ id: string }>(url, 'createQuestion', {
+      title: `Westhaven call ${i + 1}`,
+      opened_at: new Date(past).toISOString(),
+      closes_at: new Date(past + 30 * DAY).toISOString(),
+      tags: ['client:westhaven'],
+      first_forecast: { p: 0.82, at: new Date(past).toISOString() },
+    });
+    await apiCall(url, 'resolveQuestion', { id: q.id, outcome: 'no', at: new Date(past + 30 * DAY).toISOString() });
+  }
 });
 
 let app: AppPage;
@@ -59,15 +74,15 @@ const firstTitle = (page: Page) => rows(page).first().getByRole('link');
 test('the table reads as the whole list but draws only what is on screen, and scrolls to the end', async () => {
   const { page } = app;
   const table = page.getByTestId('question-table');
-  await expect(table.locator('caption')).toContainText(`${COUNT + 2} questions`);
-  await expect(table).toHaveAttribute('aria-rowcount', String(COUNT + 3));
+  await expect(table.locator('caption')).toContainText(`${ALL} questions`);
+  await expect(table).toHaveAttribute('aria-rowcount', String(ALL + 1));
   const drawn = await rows(page).count();
   expect(drawn, 'rows in the document').toBeLessThan(60);
   expect(drawn).toBeGreaterThan(5);
   await expect(rows(page).first()).toHaveAttribute('aria-rowindex', '2');
   // The last row comes into the document when scrolled to (its page is fetched then).
   // Rows are measured as they are drawn, so the height grows towards the end: scroll until it stops.
-  const last = table.locator(`tr[aria-rowindex="${COUNT + 3}"]`).getByRole('link');
+  const last = table.locator(`tr[aria-rowindex="${ALL + 1}"]`).getByRole('link');
   await expect
     .poll(async () => {
       await page.evaluate(() => window.scrollTo(0, document.body.scrollHeight));
@@ -94,7 +109,7 @@ test('columns sort by click and by keyboard, with aria-sort, and the order is in
   await header('Question').getByRole('button').focus();
   await page.keyboard.press('Enter');
   await expect(header('Question')).toHaveAttribute('aria-sort', 'descending');
-  await expect(firstTitle(page)).toHaveText('Renewal signed');
+  await expect(firstTitle(page)).toHaveText('Westhaven call 9');
   expect(page.url()).toContain('dir=desc');
 
   await page.keyboard.press('Tab');
@@ -113,7 +128,7 @@ test('search, filters, order and scroll survive opening a question and coming ba
   const { page } = app;
   await page.getByLabel('Search').fill('northgate');
   await page.getByLabel('Order').selectOption('title:asc');
-  await expect(page.getByTestId('question-table').locator('caption')).toContainText(`of ${COUNT + 2} questions`);
+  await expect(page.getByTestId('question-table').locator('caption')).toContainText(`of ${ALL} questions`);
   await expect(firstTitle(page)).toHaveText('Board approves the case');
   await page.evaluate(() => window.scrollTo(0, 2500));
   // Rows measured on arrival may nudge the offset by a few pixels; take where it settled.
@@ -155,7 +170,7 @@ test('a newly added question appears in the list at once', async () => {
   const closes = new Date(Date.now() + 5 * DAY).toISOString().slice(0, 16);
   await quickAdd(page, { title: fresh, closes, probability: '40' });
   await expect(firstTitle(page)).toHaveText(fresh);
-  await expect(page.getByTestId('question-table').locator('caption')).toContainText(`${COUNT + 3} questions`);
+  await expect(page.getByTestId('question-table').locator('caption')).toContainText(`${ALL + 1} questions`);
 });
 
 test('Scorecard and Hindsight keep their filters in the address: reload, Back and Forward', async () => {
@@ -189,4 +204,19 @@ test('Scorecard and Hindsight keep their filters in the address: reload, Back an
   await page.reload();
   await expect(page.getByLabel('Show confident hits too')).toBeChecked();
   await expect(page.getByTestId('hindsight-count')).toContainText('1 confident hit');
+});
+
+test('Hindsight lists 20 calls at first and the rest with Show more, keeping the count of all', async () => {
+  const { page } = app;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  await page.locator('[data-hindsight-ready="true"]').waitFor();
+  const misses = MORE_MISSES + 1;
+  await expect(page.getByTestId('hindsight-count')).toContainText(`${misses} confident misses`);
+  await expect(page.getByTestId('hindsight-entry')).toHaveCount(20);
+  await expect(page.getByTestId('hs-misses').getByRole('heading', { level: 2 })).toHaveText(`Confident misses (${misses})`);
+  await page.getByRole('button', { name: `Show ${misses - 20} more` }).click();
+  await page.locator('[data-hindsight-ready="true"]').waitFor();
+  await expect(page.getByTestId('hindsight-entry')).toHaveCount(misses);
+  await expect(page.getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);
+  await expectNoSeriousViolations(page, 'Hindsight with every call listed');
 });
