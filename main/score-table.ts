@@ -2,18 +2,37 @@
  * The readable form of `forelog score` (without --json): the headline figures with their
  * sample sizes, in plain words, for a terminal.
  */
-import type { ScoreReport } from '../shared/scoring';
+import type { ChoiceReport, NumericReport, ScoreReport } from '../shared/scoring';
 
 const num = (v: number | null, digits = 3): string => (v === null ? '—' : v.toFixed(digits));
 const pct = (v: number | null): string => (v === null ? '—' : `${Math.round(v * 100)}%`);
 
-export function formatScoreTable(r: ScoreReport, filterNote: string): string {
+type Row = (label: string, value: string, note?: string) => void;
+
+const counted = (c: { scored: number; unscored: number; void: number; open: number }) => c.scored + c.unscored + c.void + c.open;
+const countsLine = (c: { scored: number; unscored: number; void: number; open: number }) =>
+  `  ${c.scored} scored · ${c.unscored} resolved without a counting forecast · ${c.void} void · ${c.open} open`;
+
+/**
+ * The scorecard for a terminal. The yes/no figures come first, as they always did; the
+ * multiple-choice and numeric sections follow when the selection holds such questions.
+ */
+export function formatScoreTable(r: ScoreReport & { choice?: ChoiceReport; numeric?: NumericReport }, filterNote: string): string {
   const lines: string[] = [];
-  const row = (label: string, value: string, note = '') => lines.push(`  ${label.padEnd(30)} ${value.padStart(9)}  ${note}`.trimEnd());
+  const row: Row = (label, value, note = '') => lines.push(`  ${label.padEnd(30)} ${value.padStart(9)}  ${note}`.trimEnd());
   lines.push(`Forelog scorecard${filterNote ? ` (${filterNote})` : ''}`);
-  lines.push(`  ${r.scored} scored · ${r.unscored} resolved without a counting forecast · ${r.void} void · ${r.open} open`);
+  const choice = r.choice && counted(r.choice) > 0 ? r.choice : null;
+  const numeric = r.numeric && counted(r.numeric) > 0 ? r.numeric : null;
+  const anyTyped = choice !== null || numeric !== null;
+  const onlyTyped = counted(r) === 0 && anyTyped;
+  if (!onlyTyped) {
+    if (anyTyped) lines.push('', 'Yes/no questions');
+    lines.push(countsLine(r));
+  }
   if (r.scored === 0) {
-    lines.push('', '  Nothing to score yet: resolve questions that have a forecast made before their window ended.');
+    if (!onlyTyped) lines.push('', '  Nothing to score yet: resolve questions that have a forecast made before their window ended.');
+    typedSections(lines, row, choice, numeric);
+    if (anyTyped) lines.push('', 'Scores describe past calls; with few questions the intervals are wide.');
     return `${lines.join('\n')}\n`;
   }
   lines.push('', 'Accuracy (lower is better)');
@@ -51,6 +70,28 @@ export function formatScoreTable(r: ScoreReport, filterNote: string): string {
     lines.push('', 'Confident misses');
     for (const m of r.confident_misses.slice(0, 10)) lines.push(`  ${pct(m.p).padStart(4)} → ${m.outcome.padEnd(3)}  ${m.title}`);
   }
+  typedSections(lines, row, choice, numeric);
   lines.push('', 'Scores describe past calls; with few questions the intervals are wide.');
   return `${lines.join('\n')}\n`;
+}
+
+/** The multiple-choice and numeric sections (SCORING.md), each only when given. */
+function typedSections(lines: string[], row: Row, choice: ChoiceReport | null, numeric: NumericReport | null): void {
+  if (choice) {
+    lines.push('', 'Multiple-choice questions', countsLine(choice));
+    if (choice.scored > 0) {
+      row('Brier score (multi-category)', num(choice.brier), '0 perfect · 2 worst');
+      row('Log score', num(choice.log_score), 'natural log');
+      if (choice.rps !== null) row(`Ranked probability score (n=${choice.rps_n})`, num(choice.rps), 'ordered questions');
+      row('Skill vs even odds', num(choice.skill.vs_uniform));
+      const t = choice.top_choice;
+      row('Top choice came true', pct(t.hit_rate), `you gave it ${pct(t.mean_confidence)} on average; 95% interval ${pct(t.wilson_low)}–${pct(t.wilson_high)}`);
+    }
+  }
+  if (numeric) {
+    lines.push('', 'Numeric questions', countsLine(numeric));
+    for (const c of numeric.coverage) {
+      row(`  ${pct(c.level)} ranges (n=${c.n})`, `${c.inside} of ${c.n}`, `caught the outcome (${pct(c.rate)}; 95% interval ${pct(c.wilson_low)}–${pct(c.wilson_high)})`);
+    }
+  }
 }

@@ -6,25 +6,45 @@
  */
 import { z } from 'zod';
 import type { DueNudge, NudgeKind, Question, QuestionSummary, Settings, SnoozedNudge } from './domain';
-import { NUDGE_KINDS, OUTCOMES, QUESTION_STATUSES } from './domain';
-import type { ScorecardDetail, ScoreReport } from './scoring/types';
+import { ANY_OUTCOMES, NUDGE_KINDS, QUESTION_STATUSES } from './domain';
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from './hindsight-entries';
+import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf } from './question-types';
+import type { ChoiceDetail, ChoiceReport, NumericDetail, NumericReport, ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
 
 const id = v.id('must be an id');
 
+/**
+ * A forecast's value: `p` for a yes/no question, `probs` (one probability per option,
+ * summing to 100 % within 1e-6) for a choice question, `quantiles` (one value per level,
+ * non-decreasing; dates as YYYY-MM-DD) for a numeric question. Lenses: yes/no only.
+ */
+const forecastValue = v.entryValue;
+
 const firstForecast = z.object({
-  p: v.probability,
+  ...forecastValue,
   note: v.note.optional(),
   at: v.instant.optional(),
   lenses: v.lenses.optional(),
 });
 
-const { questionFields } = v;
+const { questionFields, typeFields } = v;
 
 export const createQuestionRequest = z
-  .object({ ...questionFields, first_forecast: firstForecast.optional() })
-  .refine(...v.closesAfterOpens);
+  .object({ ...questionFields, ...typeFields, first_forecast: firstForecast.optional() })
+  .refine(...v.closesAfterOpens)
+  .superRefine((r, ctx) => {
+    const issues = questionTypeIssues(r);
+    v.addIssues(ctx, issues);
+    if (issues.length === 0 && r.first_forecast) v.addIssues(ctx, entryIssues(shapeOf(r), r.first_forecast), ['first_forecast']);
+  });
 
+/**
+ * Changes to a question. Its type, a numeric question's `value_kind` and `levels` and the
+ * number of a choice question's options are fixed at creation (the revisions depend on
+ * them): giving them unchanged is fine, changing them is refused by the service with a
+ * message naming the field. Options may be relabelled.
+ */
 export const updateQuestionRequest = z.object({
   id,
   changes: z
@@ -40,13 +60,15 @@ export const updateQuestionRequest = z.object({
       base_rate_note: questionFields.base_rate_note,
       costs: questionFields.costs,
       checkin_days: questionFields.checkin_days,
+      ...typeFields,
     })
     .strict(),
 });
 
+/** A new revision: the value its question's type takes (see `forecastValue`); the service checks it against the question. */
 export const forecastRequest = z.object({
   question_id: id,
-  p: v.probability,
+  ...forecastValue,
   note: v.note.optional(),
   at: v.instant.optional(),
   lenses: v.lenses.optional(),
@@ -54,7 +76,7 @@ export const forecastRequest = z.object({
 
 export const updateForecastRequest = z.object({
   id,
-  p: v.probability.optional(),
+  ...forecastValue,
   note: v.note.optional(),
   at: v.instant.optional(),
   lenses: v.lenses.optional(),
@@ -62,7 +84,7 @@ export const updateForecastRequest = z.object({
 
 export const referenceRequest = z.object({
   question_id: id,
-  p: v.probability,
+  ...forecastValue,
   source: v.source,
   at: v.instant.optional(),
 });
@@ -73,19 +95,27 @@ const confirmed = z.boolean({ error: 'must be true or false' });
  * Resolving a resolved question again is a correction: the resolution it replaces is kept
  * in the question's `resolution_history`, with `correction_note` as the reason.
  */
-export const resolveRequest = z.object({
-  id,
-  outcome: z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' }),
-  at: v.instant.optional(),
-  note: v.note.optional(),
-  /** Why the earlier resolution was wrong; only when correcting. */
-  correction_note: v.note.optional(),
-  /**
-   * The user saw the warning (error code `confirm`) and means it: a question about the
-   * state at its close resolved Yes or No before that close.
-   */
-  confirm: confirmed.optional(),
-});
+export const resolveRequest = z
+  .object({
+    id,
+    /** yes, no or void (yes/no questions); option or void (choice); value or void (numeric). */
+    outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
+    /** With outcome option: the 0-based index of the option that came true. */
+    option: v.optionIndex.optional(),
+    /** With outcome value: the value the question took (a number, or a date YYYY-MM-DD). */
+    value: v.numericValue.optional(),
+    at: v.instant.optional(),
+    note: v.note.optional(),
+    /** Why the earlier resolution was wrong; only when correcting. */
+    correction_note: v.note.optional(),
+    /**
+     * The user saw the warning (error code `confirm`) and means it: a question about the
+     * state at its close resolved before that close.
+     */
+    confirm: confirmed.optional(),
+  })
+  // Which outcomes fit is the question's business (the service checks its type); here: option and value go with their outcomes.
+  .superRefine((r, ctx) => v.addIssues(ctx, resolutionPairingIssues(r)));
 
 /** Reopening keeps the resolution it removes in the history, with `note` as the reason. */
 export const reopenRequest = z.object({ id, note: v.note.optional() });
@@ -385,14 +415,18 @@ export interface HindsightEntry {
 
 export interface Hindsight {
   threshold: number;
-  /** The page asked for (all when no limit): misses first, the most confident first; then hits. */
+  /** Yes/no questions: the page asked for (all when no limit), misses first, the most confident first; then hits. */
   entries: HindsightEntry[];
-  /** Where `entries` starts in the whole list (0: the first). */
+  /** Where `entries` starts in the whole yes/no list (0: the first). */
   offset: number;
-  /** Confident misses in the whole selection, over all pages. */
+  /** Yes/no confident misses in the whole selection, over all pages. */
   misses: number;
-  /** Confident hits in the whole selection (0 unless `include_hits`). */
+  /** Yes/no confident hits in the whole selection (0 unless `include_hits`). */
   hits: number;
+  /** Choice questions whose top choice was held at the threshold: misses, and hits with include_hits (shared/hindsight-entries.ts). Not paged. */
+  choice_entries: ChoiceHindsightEntry[];
+  /** Numeric questions whose outcome fell outside the final forecast's widest range, the largest surprise first. Not paged. */
+  numeric_surprises: NumericHindsightEntry[];
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;
 }
@@ -410,9 +444,19 @@ export interface DueCount {
   count: number;
 }
 
+/**
+ * The `score --json` object (INTERFACES.md §2): the yes/no figures at the top level (their
+ * counts included), and the `choice` and `numeric` members, always present (counts 0 and
+ * figures null when the filter holds no such questions).
+ */
+export type ScoreJson = ScoreReport & { choice: ChoiceReport; numeric: NumericReport };
+
 /** The scorecard: the `score --json` report plus what the Scorecard screen draws. */
 export interface Scorecard {
-  report: ScoreReport;
+  report: ScoreJson;
+  /** Per scored choice and numeric question, sorted by window end (ties by id): what their sections draw. */
+  choice_detail: ChoiceDetail;
+  numeric_detail: NumericDetail;
   /** What the charts need; the per-question rows stay on the server (the briefing uses them). */
   detail: Omit<ScorecardDetail, 'per_question'>;
   /** Days the user's calls got to the right side of 50% before the reference's, per tag. */

@@ -10,28 +10,43 @@
  * times as epoch milliseconds, parsed once.
  */
 import { z } from 'zod';
-import { OUTCOMES, RESOLUTION_CHANGE_KINDS, type Forecast, type Question, type ReferenceForecast, type Settings } from './domain';
+import { entryIssues, questionTypeIssues, resolutionIssues, shapeOf } from './question-types';
+import {
+  ANY_OUTCOMES,
+  RESOLUTION_CHANGE_KINDS,
+  type AnyResolution,
+  type BinaryQuestion,
+  type ChoiceQuestion,
+  type NumericQuestion,
+  type Question,
+  type ResolutionChange,
+  type Settings,
+} from './domain';
 import { JsonStreamError, readObjectStream } from './json-stream';
 import * as v from './validation';
 
 export const DIARY_FORMAT = 'forelog-diary';
 export const DIARY_VERSION = 1;
 
+/** A revision: `p` (yes/no, with optional lenses), `probs` (choice) or `quantiles` (numeric), as its question's type says. */
 const fileForecast = z.object({
   at: v.instantMs,
-  p: v.probability,
+  ...v.entryValue,
   note: v.note.optional(),
   lenses: v.lenses.optional(),
 });
 
 const fileReference = z.object({
   at: v.instantMs,
-  p: v.probability,
+  ...v.entryValue,
   source: v.source,
 });
 
+/** How the question resolved: yes, no or void; option (with `option`) or void for choice; value (with `value`) or void for numeric. */
 const fileResolution = z.object({
-  outcome: z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' }),
+  outcome: z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be yes, no, void, option or value' }),
+  option: v.optionIndex.optional(),
+  value: v.numericValue.optional(),
   at: v.instantMs,
   note: v.note.optional(),
 });
@@ -39,6 +54,8 @@ const fileResolution = z.object({
 /** An earlier resolution, replaced by a correction or a reopening (docs/diary-file.md, "Resolution history"). */
 const fileResolutionChange = z.object({
   outcome: fileResolution.shape.outcome,
+  option: fileResolution.shape.option,
+  value: fileResolution.shape.value,
   at: v.instantMs,
   note: v.note.optional(),
   recorded_at: v.instantMs,
@@ -51,6 +68,7 @@ export const fileQuestion = z
   .object({
     id: v.id().optional(),
     ...v.questionFields,
+    ...v.typeFields,
     opened_at: v.instantMs.optional(),
     closes_at: v.instantMs,
     forecasts: z.array(fileForecast, { error: 'must be a list of forecasts' }),
@@ -58,7 +76,18 @@ export const fileQuestion = z
     resolution: fileResolution.nullable().optional(),
     resolution_history: z.array(fileResolutionChange, { error: 'must be a list of earlier resolutions' }).optional(),
   })
-  .refine(...v.closesAfterOpens);
+  .refine(...v.closesAfterOpens)
+  .superRefine((q, ctx) => {
+    // A field of another type is an error naming the record and the field (INTERFACES.md "Question types").
+    const issues = questionTypeIssues(q);
+    v.addIssues(ctx, issues);
+    if (issues.length > 0) return;
+    const shape = shapeOf(q);
+    q.forecasts.forEach((f, i) => v.addIssues(ctx, entryIssues(shape, f), ['forecasts', i]));
+    (q.references ?? []).forEach((r, i) => v.addIssues(ctx, entryIssues(shape, r), ['references', i]));
+    if (q.resolution) v.addIssues(ctx, resolutionIssues(shape, q.resolution), ['resolution']);
+    (q.resolution_history ?? []).forEach((h, i) => v.addIssues(ctx, resolutionIssues(shape, h), ['resolution_history', i]));
+  });
 
 /** A validated question record; every time in it is epoch milliseconds. */
 export type FileQuestion = z.output<typeof fileQuestion>;
@@ -229,16 +258,34 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   if (!seen.questions) throw questionsNotAList();
 }
 
-/** What the export writes of a question: the question without its internal ids and stamps. */
-export type ExportedQuestion = Omit<Question, 'forecasts' | 'references' | 'snoozes' | 'created_at' | 'updated_at'> & {
-  forecasts: Omit<Forecast, 'id' | 'seq'>[];
-  references: Omit<ReferenceForecast, 'id'>[];
+/** What the export writes of a question of one type: the question without its internal ids and stamps. */
+type Exported<Q extends Question> = Omit<Q, 'forecasts' | 'references' | 'snoozes' | 'created_at' | 'updated_at'> & {
+  forecasts: Omit<Q['forecasts'][number], 'id' | 'seq'>[];
+  references: Omit<Q['references'][number], 'id'>[];
 };
 
-/** The export shape of one question; optional fields are written only when set. */
+/** What the export writes of a question, of any type. */
+export type ExportedQuestion = Exported<BinaryQuestion> | Exported<ChoiceQuestion> | Exported<NumericQuestion>;
+
+/** A resolution as the file writes it: the outcome, a choice question's option or a numeric question's value, then when and the note. */
+function fileResolutionOf(r: AnyResolution): Record<string, unknown> {
+  const out: Record<string, unknown> = { outcome: r.outcome };
+  if (r.outcome === 'option') out.option = r.option;
+  if (r.outcome === 'value') out.value = r.value;
+  out.at = r.at;
+  out.note = r.note;
+  return out;
+}
+
+/**
+ * The export shape of one question; optional fields are written only when set. A yes/no
+ * question is written exactly as before question types existed (no `type` field), so a
+ * diary of yes/no questions exports byte for byte as it did.
+ */
 export function toFileQuestion(q: ExportedQuestion): Record<string, unknown> {
-  const out: Record<string, unknown> = {
-    id: q.id,
+  const out: Record<string, unknown> = { id: q.id };
+  if (q.type !== 'binary') out.type = q.type;
+  Object.assign(out, {
     title: q.title,
     rule: q.rule,
     kind: q.kind,
@@ -246,24 +293,40 @@ export function toFileQuestion(q: ExportedQuestion): Record<string, unknown> {
     opened_at: q.opened_at,
     closes_at: q.closes_at,
     time_zone: q.time_zone,
-  };
-  if (q.base_rate !== null) out.base_rate = q.base_rate;
-  if (q.base_rate_note) out.base_rate_note = q.base_rate_note;
-  if (q.costs) out.costs = { false_alarm: q.costs.false_alarm, miss: q.costs.miss };
-  if (q.checkin_days !== null) out.checkin_days = q.checkin_days;
-  out.forecasts = q.forecasts.map((f) => {
-    const item: Record<string, unknown> = { at: f.at, p: f.p, note: f.note };
-    if (f.lenses.length) item.lenses = f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight }));
-    return item;
   });
-  out.references = q.references.map((r) => ({ at: r.at, p: r.p, source: r.source }));
-  out.resolution = q.resolution ? { outcome: q.resolution.outcome, at: q.resolution.at, note: q.resolution.note } : null;
+  if (q.type === 'binary' && q.base_rate !== null) out.base_rate = q.base_rate;
+  if (q.type === 'choice') {
+    out.options = q.options;
+    out.ordered = q.ordered;
+    if (q.option_base_rates) out.option_base_rates = q.option_base_rates;
+  }
+  if (q.type === 'numeric') {
+    out.unit = q.unit;
+    out.value_kind = q.value_kind;
+    out.levels = q.levels;
+  }
+  if (q.base_rate_note) out.base_rate_note = q.base_rate_note;
+  if (q.type === 'binary' && q.costs) out.costs = { false_alarm: q.costs.false_alarm, miss: q.costs.miss };
+  if (q.checkin_days !== null) out.checkin_days = q.checkin_days;
+  if (q.type === 'binary') {
+    out.forecasts = q.forecasts.map((f) => {
+      const item: Record<string, unknown> = { at: f.at, p: f.p, note: f.note };
+      if (f.lenses.length) item.lenses = f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight }));
+      return item;
+    });
+    out.references = q.references.map((r) => ({ at: r.at, p: r.p, source: r.source }));
+  } else if (q.type === 'choice') {
+    out.forecasts = q.forecasts.map((f) => ({ at: f.at, probs: f.probs, note: f.note }));
+    out.references = q.references.map((r) => ({ at: r.at, probs: r.probs, source: r.source }));
+  } else {
+    out.forecasts = q.forecasts.map((f) => ({ at: f.at, quantiles: f.quantiles, note: f.note }));
+    out.references = q.references.map((r) => ({ at: r.at, quantiles: r.quantiles, source: r.source }));
+  }
+  out.resolution = q.resolution ? fileResolutionOf(q.resolution) : null;
   // Only when there is one: a file of questions never corrected reads as before.
   if (q.resolution_history.length) {
-    out.resolution_history = q.resolution_history.map((h) => ({
-      outcome: h.outcome,
-      at: h.at,
-      note: h.note,
+    out.resolution_history = q.resolution_history.map((h: ResolutionChange<AnyResolution>) => ({
+      ...fileResolutionOf(h),
       recorded_at: h.recorded_at,
       replaced_at: h.replaced_at,
       change: h.change,

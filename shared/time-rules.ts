@@ -8,7 +8,7 @@
  * written on another machine's clock, so import keeps only the file's own rules and the
  * accepted instant range (docs/diary-file.md, "Times").
  */
-import type { Outcome, QuestionKind } from './domain';
+import type { AnyOutcome, QuestionKind } from './domain';
 import { formatLocal } from './time';
 
 /**
@@ -40,18 +40,19 @@ export function beforeOpeningProblem(at: number, openedAt: number, timeZone: str
 
 /**
  * True when resolving a question this way is unusual enough to ask first: a question about
- * the state of things at its close, resolved Yes or No at a time before that close. (The
+ * the state of things at its close, resolved (Yes, No, an option, a value) at a time before that close. (The
  * answer may be settled early — a contract ended, a system retired — so it is a warning,
  * not a refusal.) A void resolution is never unusual.
  */
-export function isEarlyStateResolution(kind: QuestionKind, outcome: Outcome, at: number, closesAt: number): boolean {
+export function isEarlyStateResolution(kind: QuestionKind, outcome: AnyOutcome, at: number, closesAt: number): boolean {
   return kind === 'state_at_deadline' && outcome !== 'void' && at < closesAt;
 }
 
 /** What the user is asked when `isEarlyStateResolution` holds. */
-export function earlyStateResolutionWarning(title: string, outcome: Outcome, closesAt: number, timeZone: string): string {
+export function earlyStateResolutionWarning(title: string, outcome: AnyOutcome, closesAt: number, timeZone: string): string {
+  const answer = outcome === 'yes' ? 'a Yes' : outcome === 'no' ? 'a No' : outcome === 'option' ? 'an option chosen' : 'a value given';
   return (
     `“${title}” asks about the state of things at its close, ${onClock(closesAt, timeZone)}, and the resolution time is before that close; ` +
-    `a ${outcome === 'yes' ? 'Yes' : 'No'} before the close is unusual. Nothing was changed. If the answer is already settled, resolve it again and confirm (the request's confirm: true).`
+    `${answer} before the close is unusual. Nothing was changed. If the answer is already settled, resolve it again and confirm (the request's confirm: true).`
   );
 }

@@ -3,6 +3,10 @@
  * probability, instant, tag, time zone and title are, each with the message a user sees.
  */
 import { z } from 'zod';
+import { MAX_OPTIONS, MIN_OPTIONS, sumsToOne } from './choice-vector';
+import { QUESTION_TYPES, VALUE_KINDS } from './domain';
+import { dateToDays } from './numeric-value';
+import { quantileLevelsProblem, quantilesProblem } from './quantile-levels';
 import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
 
 export const TAG_PATTERN = /^[a-z0-9][a-z0-9_\-:./]{0,63}$/;
@@ -143,6 +147,135 @@ export const lenses = z
   });
 
 export const kind = z.enum(['event_by_deadline', 'state_at_deadline'], { error: 'must be event_by_deadline or state_at_deadline' });
+
+// ---- question types (INTERFACES.md "Question types"; SCORING.md) ---------------------
+
+export const questionType = z.enum(QUESTION_TYPES, { error: 'must be binary, choice or numeric' });
+
+/** A sum of probabilities as a percentage a user reads: 0.9 → "90 %", 1.0000011 → "100.00011 %". */
+export function sumAsPercent(sum: number): string {
+  return `${Number((sum * 100).toPrecision(12))} %`;
+}
+
+/**
+ * A probability vector over a choice question's options, as the user gave it: each entry
+ * a probability, 2–12 entries, summing to 1 within 1e-6 (shared/choice-vector.ts holds the
+ * tolerance). Whether it has one entry per option is the service's check: only it knows
+ * the question.
+ */
+export const probs = z
+  .array(probability, { error: 'must be a list of probabilities, one per option' })
+  .superRefine((list, ctx) => {
+    if (list.length < MIN_OPTIONS || list.length > MAX_OPTIONS) {
+      ctx.addIssue({ code: 'custom', message: `must give one probability per option (${MIN_OPTIONS} to ${MAX_OPTIONS}), not ${list.length}` });
+      return;
+    }
+    let sum = 0;
+    for (const p of list) sum += p;
+    if (!Number.isNaN(sum) && !sumsToOne(sum)) ctx.addIssue({ code: 'custom', message: `must sum to 100 %, they sum to ${sumAsPercent(sum)}` });
+  });
+
+/** A choice question's option: one line, trimmed, not empty. */
+export const optionLabel = filledLine(200, 'must not be empty (every option needs a label)');
+
+export const options = z
+  .array(optionLabel, { error: 'must be a list of option labels' })
+  .min(MIN_OPTIONS, { message: `must list at least ${MIN_OPTIONS} options` })
+  .max(MAX_OPTIONS, { message: `must list at most ${MAX_OPTIONS} options` })
+  .superRefine((list, ctx) => {
+    const seen = new Map<string, number>();
+    list.forEach((label, i) => {
+      const first = seen.get(label);
+      if (first !== undefined) ctx.addIssue({ code: 'custom', message: `repeats option ${first} ("${label}"); each option must be different`, path: [i] });
+      else seen.set(label, i);
+    });
+  });
+
+/** A choice question's option, by its 0-based place in the list. */
+export const optionIndex = z
+  .number({ error: 'must be the 0-based index of an option' })
+  .int({ message: 'must be the 0-based index of an option (a whole number)' })
+  .min(0, { message: 'must be the 0-based index of an option (0 or more)' });
+
+export const ordered = z.boolean({ error: 'must be true or false' });
+
+/** Shown beside a numeric question's values ("weeks", "£k"); may be empty. */
+export const unit = text('one').trim().max(40, { message: 'must be at most 40 characters' });
+
+export const valueKind = z.enum(VALUE_KINDS, { error: 'must be number or date' });
+
+export const levels = z
+  .array(z.number({ error: 'must be a number' }), { error: 'must be a list of quantile levels such as [0.1, 0.5, 0.9]' })
+  .superRefine((list, ctx) => {
+    const problem = quantileLevelsProblem(list);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  });
+
+const NUMERIC_VALUE_TYPE = 'must be a number, or a date YYYY-MM-DD for a question about a date';
+
+/** One value of a numeric question: a finite number or a calendar date `YYYY-MM-DD`; which of the two the question takes is the service's check. */
+export const numericValue = z.union([z.number(), z.string()], { error: NUMERIC_VALUE_TYPE }).superRefine((value, ctx) => {
+  if (typeof value === 'number' && !Number.isFinite(value)) ctx.addIssue({ code: 'custom', message: 'must be a finite number' });
+  if (typeof value === 'string' && dateToDays(value) === null) ctx.addIssue({ code: 'custom', message: `must be a real calendar date YYYY-MM-DD (got "${value}")` });
+});
+
+/**
+ * A numeric forecast's quantiles: one value per level (the service checks the count
+ * against the question), all numbers or all dates, never decreasing from one level to the
+ * next (equal neighbours are allowed).
+ */
+export const quantiles = z
+  .array(numericValue, { error: 'must be a list of values, one per quantile level' })
+  .min(1, { message: 'must give one value per quantile level' })
+  .superRefine((list, ctx) => {
+    const dates = list.filter((x) => typeof x === 'string').length;
+    if (dates > 0 && dates < list.length) {
+      ctx.addIssue({ code: 'custom', message: 'must be all numbers or all dates YYYY-MM-DD, not a mix' });
+      return;
+    }
+    const values = list.map((x) => (typeof x === 'string' ? dateToDays(x) : x));
+    if (values.some((x) => x === null || !Number.isFinite(x))) return; // the entry's own issue says why
+    const problem = quantilesProblem(values as number[], values.length);
+    if (!problem) return;
+    const at = values.findIndex((x, i) => i > 0 && x! < values[i - 1]!);
+    ctx.addIssue({
+      code: 'custom',
+      message: at > 0 ? `must not decrease from one level to the next: entry ${at} (${String(list[at])}) is below entry ${at - 1} (${String(list[at - 1])})` : problem,
+    });
+  });
+
+/**
+ * The type's own fields, the same in the API and the diary file: `type` (binary when
+ * absent; fixed at creation); a choice question's `options` (required), `ordered` and
+ * `option_base_rates`; a numeric question's `unit` (default ''), `value_kind` (default
+ * number) and `levels` (default [0.1, 0.5, 0.9]). Which go with which type is checked by
+ * shared/question-types.ts.
+ */
+export const typeFields = {
+  type: questionType.optional(),
+  options: options.optional(),
+  ordered: ordered.optional(),
+  option_base_rates: probs.nullable().optional(),
+  unit: unit.optional(),
+  value_kind: valueKind.optional(),
+  levels: levels.optional(),
+};
+
+/**
+ * A forecast's or a reference's value: `p` for a yes/no question, `probs` for a choice
+ * question, `quantiles` for a numeric question; which one a record must give is checked
+ * against its question (shared/question-types.ts).
+ */
+export const entryValue = {
+  p: probability.optional(),
+  probs: probs.optional(),
+  quantiles: quantiles.optional(),
+};
+
+/** Reports issues `{ path, message }` on a zod refinement, under `prefix`. */
+export function addIssues(ctx: z.RefinementCtx, issues: { path: (string | number)[]; message: string }[], prefix: (string | number)[] = []): void {
+  for (const issue of issues) ctx.addIssue({ code: 'custom', message: issue.message, path: [...prefix, ...issue.path] });
+}
 
 /** The fields of a question a user writes: the same in the API and in the diary file. */
 export const questionFields = {

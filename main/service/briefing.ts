@@ -13,7 +13,7 @@
  * `computeScorecardDetail`, so the briefing and the Scorecard cannot disagree.
  */
 import { BRIEFING_CSS } from './briefing-style';
-import type { Question } from '../../shared/domain';
+import { isBinary, type BinaryQuestion, type NumericValue, type Question, type ValueKind } from '../../shared/domain';
 import {
   confidentVerdict,
   computeScorecardDetail,
@@ -24,6 +24,7 @@ import {
   type ScoredQuestionRow,
   type ScoringQuestion,
 } from '../../shared/scoring';
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../shared/hindsight-entries';
 import { isValidTimeZone, parseInstant } from '../../shared/time';
 
 /** Probability the calibration reading translates ("your 90% behaves like …", PRODUCT.md). */
@@ -51,6 +52,10 @@ export interface BriefingInput {
    * final 50 % is on both sides and so counts as a miss whatever happened, as the rule reads.
    */
   threshold: number;
+  /** Choice questions of the same tag whose top choice was held at the threshold and missed (hindsight-types.ts), worst first. */
+  choice_misses: ChoiceHindsightEntry[];
+  /** Numeric questions of the same tag whose outcome fell outside the final range (hindsight-types.ts), largest first. */
+  numeric_surprises: NumericHindsightEntry[];
 }
 
 /** Confident hits are shown after the misses and capped: the misses are what the briefing is for. */
@@ -120,7 +125,7 @@ function instant(iso: string, what: string): number {
 
 // ── Selecting the confident calls ───────────────────────────────────────────────────────
 
-function toScoringQuestion(q: Question): ScoringQuestion {
+function toScoringQuestion(q: BinaryQuestion): ScoringQuestion {
   return {
     id: q.id,
     title: q.title,
@@ -137,7 +142,7 @@ function toScoringQuestion(q: Question): ScoringQuestion {
 
 interface ConfidentCall {
   row: ScoredQuestionRow;
-  question: Question;
+  question: BinaryQuestion;
 }
 
 /** How far the final forecast was from the outcome, |p − o|. */
@@ -148,7 +153,7 @@ const error = (row: ScoredQuestionRow): number => Math.abs(row.p - (row.outcome 
  * of `ScoreReport.confident_misses`) and confident hits (most recent window end first).
  * Which calls are confident, and misses or hits, is `confidentVerdict`'s rule.
  */
-function confidentCalls(rows: readonly ScoredQuestionRow[], byId: ReadonlyMap<string, Question>, threshold: number) {
+function confidentCalls(rows: readonly ScoredQuestionRow[], byId: ReadonlyMap<string, BinaryQuestion>, threshold: number) {
   const misses: ConfidentCall[] = [];
   const hits: ConfidentCall[] = [];
   for (const row of rows) {
@@ -424,6 +429,166 @@ function confidentSections(ctx: Context, misses: ConfidentCall[], hits: Confiden
 ${entrySection('hits', 'Confident hits', hitLede, shown.map((c) => entry(c, 'hit', time_zone)), 'No confident hits.')}`;
 }
 
+// ── Choice and numeric questions ────────────────────────────────────────────────────────
+
+/** A revision's note, or a muted "no note". */
+function noteCell(note: string): string {
+  return note.trim() ? escapeHtml(note) : '<span class="muted">no note</span>';
+}
+
+/** Revisions made after the window end, which never count (SCORING.md "Which forecasts count"). */
+function lateLine(late: number): string {
+  return late > 0 ? `<p class="muted">${plural(late, 'revision was', 'revisions were')} made after the window ended and ${late === 1 ? 'does' : 'do'} not count.</p>\n` : '';
+}
+
+function resolutionLine(resolution: { at: string; note: string }, shown: string, id: string, timeZone: string): string {
+  const when = dateFormat(timeZone, 'entry').format(instant(resolution.at, `question ${id} resolution time`));
+  return `<p><span class="label">Resolution</span><strong>${escapeHtml(shown)}</strong>, ${escapeHtml(when)}${resolution.note.trim() ? ` — <span class="note">${escapeHtml(resolution.note)}</span>` : ''}</p>`;
+}
+
+/** A choice forecast as each option's label with its percentage, in option order. */
+function optionShares(options: readonly string[], probs: readonly number[]): string {
+  return options.map((label, k) => `${escapeHtml(label)} ${wholePercent(probs[k]!)}`).join(' · ');
+}
+
+function choiceEntry(e: ChoiceHindsightEntry, timeZone: string): string {
+  const when = dateFormat(timeZone, 'entry');
+  const counting = e.forecasts.filter((f) => f.counted);
+  const path = counting
+    .map((f) => `<tr><td class="date">${escapeHtml(when.format(instant(f.at, `question ${e.id} forecast time`)))}</td><td class="shares">${optionShares(e.options, f.probs)}</td><td class="note">${noteCell(f.note)}</td></tr>`)
+    .join('\n');
+  const top = e.options[e.top_option]!;
+  const happened = e.options[e.outcome_option]!;
+  const base =
+    e.option_base_rates === null
+      ? ''
+      : `<p><span class="label">Option base rates</span>${optionShares(e.options, e.option_base_rates)}${e.base_rate_note.trim() ? ` — ${escapeHtml(e.base_rate_note)}` : ''}</p>\n`;
+  return `<article class="entry miss">
+<h3>${escapeHtml(e.title)}</h3>
+<p class="verdict"><span class="marker">miss</span><span class="said">Top choice “${escapeHtml(top)}” at ${wholePercent(e.top_p)}</span>; what came true: <span class="outcome">${escapeHtml(happened)}</span>, given ${wholePercent(e.outcome_p)}</p>
+<p class="tags">${e.tags.map(escapeHtml).join(' · ')}</p>
+<p><span class="label">Rule</span><span class="note">${e.rule.trim() ? escapeHtml(e.rule) : '<span class="muted">no rule written</span>'}</span></p>
+${base}<table class="path"><caption>Forecast path: every revision that counts, with the note written at the time</caption>
+<thead><tr><th scope="col">When</th><th scope="col">Forecast</th><th scope="col">Note</th></tr></thead>
+<tbody>
+${path}
+</tbody></table>
+${lateLine(e.forecasts.length - counting.length)}${resolutionLine(e.resolution, happened, e.id, timeZone)}
+</article>`;
+}
+
+const NUMBER_FORMAT = new Intl.NumberFormat(LOCALE, { maximumFractionDigits: 4 });
+const DATE_VALUE_FORMAT = new Intl.DateTimeFormat(LOCALE, { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' });
+
+/** A numeric question's value as the reader sees it: a number with its unit, or a calendar date. */
+function shownValue(q: { value_kind: ValueKind; unit: string }, value: NumericValue): string {
+  if (q.value_kind === 'date') return DATE_VALUE_FORMAT.format(Date.parse(`${String(value)}T00:00:00Z`));
+  const n = NUMBER_FORMAT.format(value as number);
+  return q.unit ? `${n} ${q.unit}` : n;
+}
+
+/** A range of a numeric question: "12–21 weeks", or two dates "1 Mar 2026 – 20 Mar 2026". */
+function shownRange(q: { value_kind: ValueKind; unit: string }, low: NumericValue, high: NumericValue): string {
+  if (q.value_kind === 'date') return `${shownValue(q, low)} – ${shownValue(q, high)}`;
+  const span = `${NUMBER_FORMAT.format(low as number)}–${NUMBER_FORMAT.format(high as number)}`;
+  return q.unit ? `${span} ${q.unit}` : span;
+}
+
+/** A forecast's values in level order: "10 / 14 / 20 weeks", or dates each in full. */
+function shownValues(q: { value_kind: ValueKind; unit: string }, values: readonly NumericValue[]): string {
+  if (q.value_kind === 'date') return values.map((x) => shownValue(q, x)).join(' / ');
+  const list = values.map((x) => NUMBER_FORMAT.format(x as number)).join(' / ');
+  return q.unit ? `${list} ${q.unit}` : list;
+}
+
+/** How far outside the range, in the question's unit: days for a date. */
+function shownDistance(e: NumericHindsightEntry): string {
+  const n = NUMBER_FORMAT.format(e.distance);
+  if (e.value_kind === 'date') return `${n} ${e.distance === 1 ? 'day' : 'days'} ${e.side === 'below' ? 'before' : 'after'} it`;
+  return `${e.unit ? `${n} ${e.unit}` : n} ${e.side} it`;
+}
+
+function numericEntry(e: NumericHindsightEntry, timeZone: string): string {
+  const when = dateFormat(timeZone, 'entry');
+  const counting = e.forecasts.filter((f) => f.counted);
+  const levels = e.levels.map((l) => `P${Math.round(l * 100)}`).join(' / ');
+  const path = counting
+    .map((f) => `<tr><td class="date">${escapeHtml(when.format(instant(f.at, `question ${e.id} forecast time`)))}</td><td class="values">${escapeHtml(shownValues(e, f.quantiles))}</td><td class="note">${noteCell(f.note)}</td></tr>`)
+    .join('\n');
+  const size = e.size === null ? 'a range of zero width' : `${fixed(e.size, 2)} × the range's width`;
+  return `<article class="entry miss">
+<h3>${escapeHtml(e.title)}</h3>
+<p class="verdict"><span class="marker">surprise</span><span class="said">${wholePercent(e.level)} range ${escapeHtml(shownRange(e, e.low, e.high))}</span>; the outcome <span class="outcome">${escapeHtml(shownValue(e, e.value))}</span> was ${escapeHtml(shownDistance(e))} (${escapeHtml(size)})</p>
+<p class="tags">${e.tags.map(escapeHtml).join(' · ')}</p>
+<p><span class="label">Rule</span><span class="note">${e.rule.trim() ? escapeHtml(e.rule) : '<span class="muted">no rule written</span>'}</span></p>
+<table class="path"><caption>Forecast path: every revision that counts (${escapeHtml(levels)}), with the note written at the time</caption>
+<thead><tr><th scope="col">When</th><th scope="col">${escapeHtml(levels)}</th><th scope="col">Note</th></tr></thead>
+<tbody>
+${path}
+</tbody></table>
+${lateLine(e.forecasts.length - counting.length)}${resolutionLine(e.resolution, shownValue(e, e.value), e.id, timeZone)}
+</article>`;
+}
+
+/** The choice misses and the numeric surprises; a section only when the briefing has such entries. */
+function typedSections(ctx: Context): string {
+  const { choice_misses, numeric_surprises, threshold, time_zone } = ctx.input;
+  const parts: string[] = [];
+  if (choice_misses.length) {
+    parts.push(
+      entrySection(
+        'choice-misses',
+        'Choice questions: confident misses',
+        `The top choice held at ${wholePercent(threshold)} or more, and another option came true; the most confident first.`,
+        choice_misses.map((e) => choiceEntry(e, time_zone)),
+        '',
+      ),
+    );
+  }
+  if (numeric_surprises.length) {
+    parts.push(
+      entrySection(
+        'surprises',
+        'Numeric questions: surprises',
+        "The outcome fell outside the widest range of the final forecast; the largest first, measured as the distance outside divided by the range's width.",
+        numeric_surprises.map((e) => numericEntry(e, time_zone)),
+        '',
+      ),
+    );
+  }
+  return parts.join('\n');
+}
+
+/**
+ * The question's standing number, compact: the latest forecast entered (same time →
+ * entered last) as a percentage, a choice question's top option with its percentage, or
+ * a numeric question's widest range.
+ */
+function lastForecastText(q: Question): string {
+  let last: Question['forecasts'][number] | null = null;
+  let lastAt = -Infinity;
+  for (const f of q.forecasts) {
+    const at = instant(f.at, `question ${q.id} forecast time`);
+    if (last === null || at > lastAt || (at === lastAt && f.seq > last.seq)) {
+      last = f;
+      lastAt = at;
+    }
+  }
+  if (last === null) return '—';
+  if (q.type === 'binary') return wholePercent((last as BinaryQuestion['forecasts'][number]).p);
+  if (q.type === 'choice') {
+    const probs = (last as { probs: number[] }).probs;
+    // The top choice: the highest probability, ties to the option listed first (SCORING.md).
+    let top = 0;
+    for (let k = 1; k < probs.length; k++) if (probs[k]! > probs[top]!) top = k;
+    return `${escapeHtml(q.options[top]!)} ${wholePercent(probs[top]!)}`;
+  }
+  const values = (last as { quantiles: NumericValue[] }).quantiles;
+  if (values.length === 1) return escapeHtml(shownValue(q, values[0]!));
+  const range = `P${Math.round(q.levels[0]! * 100)}–P${Math.round(q.levels[q.levels.length - 1]! * 100)}`;
+  return `${range} ${escapeHtml(shownRange(q, values[0]!, values[values.length - 1]!))}`;
+}
+
 function openQuestions(ctx: Context): string {
   const open = ctx.input.questions
     .filter((q) => q.resolution === null)
@@ -432,18 +597,9 @@ function openQuestions(ctx: Context): string {
   if (open.length === 0) return `<section id="open"><h2>Open questions</h2><p class="muted">No open questions.</p></section>`;
   const rows = open
     .map(({ q, closes }) => {
-      // The latest forecast entered, same time → entered last (the question's standing number).
-      let last: Question['forecasts'][number] | null = null;
-      let lastAt = -Infinity;
-      for (const f of q.forecasts) {
-        const at = instant(f.at, `question ${q.id} forecast time`);
-        if (last === null || at > lastAt || (at === lastAt && f.seq > last.seq)) {
-          last = f;
-          lastAt = at;
-        }
-      }
       const closed = closes <= ctx.input.generated_at ? ' <span class="muted">(closed, awaiting resolution)</span>' : '';
-      return `<tr><td>${escapeHtml(q.title)}</td><td>${escapeHtml(dateFormat(q.time_zone, 'close').format(closes))}${closed}</td><td class="num">${last ? wholePercent(last.p) : '—'}</td><td class="num">${q.base_rate === null ? '—' : wholePercent(q.base_rate)}</td></tr>`;
+      const base = q.type === 'binary' && q.base_rate !== null ? wholePercent(q.base_rate) : '—';
+      return `<tr><td>${escapeHtml(q.title)}</td><td>${escapeHtml(dateFormat(q.time_zone, 'close').format(closes))}${closed}</td><td class="num">${lastForecastText(q)}</td><td class="num">${base}</td></tr>`;
     })
     .join('\n');
   return `<section id="open"><h2>Open questions</h2>
@@ -483,10 +639,12 @@ export function renderBriefing(input: BriefingInput): string {
   }
   const tag = input.tag;
   const questions = tag === null ? input.questions : input.questions.filter((q) => q.tags.includes(tag));
-  const scoring = questions.map(toScoringQuestion);
+  // The scorecard, calibration and confident calls are yes/no questions'; the open table lists every type.
+  const binary = questions.filter(isBinary);
+  const scoring = binary.map(toScoringQuestion);
   // Costs do not enter any figure used here; the engine only requires them to be valid.
   const detail = computeScorecardDetail(scoring, { default_costs: { false_alarm: 1, miss: 1 } });
-  const byId = new Map(questions.map((q) => [q.id, q]));
+  const byId = new Map(binary.map((q) => [q.id, q]));
   const scoringById = new Map(scoring.map((q) => [q.id, q]));
   let withBaseRate = 0;
   let withReference = 0;
@@ -505,6 +663,7 @@ export function renderBriefing(input: BriefingInput): string {
     withReference,
   };
   const { misses, hits } = confidentCalls(detail.per_question, byId, input.threshold);
+  const typed = typedSections(ctx);
   return `<!doctype html>
 <html lang="en">
 <head>
@@ -520,7 +679,7 @@ ${header(ctx)}
 ${scorecard(ctx)}
 ${calibration(ctx)}
 ${confidentSections(ctx, misses, hits)}
-${openQuestions(ctx)}
+${typed ? `${typed}\n` : ''}${openQuestions(ctx)}
 <footer>Forelog briefing for ${escapeHtml(subject)}, made from the diary on this computer. Figures as defined in Forelog's scoring notes; dates in ${escapeHtml(input.time_zone)} unless marked. Scores describe past calls, not future ones.</footer>
 </main>
 </body>

@@ -13,7 +13,8 @@
  *   per question, so re-importing updates events instead of duplicating them.
  * - §3.6.6: the VALARM has ACTION:DISPLAY with its required DESCRIPTION and TRIGGER.
  */
-import type { Forecast, Question } from '../../shared/domain';
+import type { Question } from '../../shared/domain';
+import { choiceForecastText, numericForecastText, percentText } from '../../shared/forecast-text';
 import { isValidTimeZone, parseInstant, toIso, toLocalInputValue } from '../../shared/time';
 
 export const DEFAULT_PRODID = '-//Forelog//Forelog diary//EN';
@@ -84,8 +85,8 @@ function triggerBefore(hours: number): string {
   return minutes % 60 === 0 ? `-PT${minutes / 60}H` : `-PT${minutes}M`;
 }
 
-function latestForecast(forecasts: readonly Forecast[]): { f: Forecast; at: number } | null {
-  let best: { f: Forecast; at: number } | null = null;
+function latestForecast<F extends { at: string; seq: number }>(forecasts: readonly F[]): { f: F; at: number } | null {
+  let best: { f: F; at: number } | null = null;
   for (const f of forecasts) {
     const at = parseInstant(f.at);
     if (at === null) continue;
@@ -94,21 +95,34 @@ function latestForecast(forecasts: readonly Forecast[]): { f: Forecast; at: numb
   return best;
 }
 
-/** Percent for reading, to at most one decimal (the stored probability is never changed). */
-function percent(p: number): string {
-  return `${Number((p * 100).toFixed(1))}%`;
-}
+
 
 function localTime(ms: number, zone: string): string {
   return `${toLocalInputValue(ms, zone).replace('T', ' ')} (${zone})`;
 }
 
+/** The standing forecast of a question of any type, as the description's line says it (null when none). */
+function lastForecastLine(q: Question, zone: string): string | null {
+  if (q.type === 'binary') {
+    const last = latestForecast(q.forecasts);
+    return last && `Last probability: ${percentText(last.f.p)} (set ${localTime(last.at, zone)})`;
+  }
+  if (q.type === 'choice') {
+    const last = latestForecast(q.forecasts);
+    return last && `Last forecast: ${choiceForecastText(q.options, last.f.probs)} (set ${localTime(last.at, zone)})`;
+  }
+  const last = latestForecast(q.forecasts);
+  return last && `Last forecast: ${numericForecastText(q.levels, last.f.quantiles, q.unit)} (set ${localTime(last.at, zone)})`;
+}
+
 function description(q: Question, close: number, zone: string): string {
   const lines = [`Resolution rule: ${q.rule}`, `Closes: ${localTime(close, zone)}`];
-  const last = latestForecast(q.forecasts);
-  lines.push(last ? `Last probability: ${percent(last.f.p)} (set ${localTime(last.at, zone)})` : 'Last probability: none yet');
-  if (q.base_rate !== null) {
-    lines.push(`Base rate: ${percent(q.base_rate)}${q.base_rate_note ? ` (${q.base_rate_note})` : ''}`);
+  lines.push(lastForecastLine(q, zone) ?? (q.type === 'binary' ? 'Last probability: none yet' : 'Last forecast: none yet'));
+  if (q.type === 'binary' && q.base_rate !== null) {
+    lines.push(`Base rate: ${percentText(q.base_rate)}${q.base_rate_note ? ` (${q.base_rate_note})` : ''}`);
+  }
+  if (q.type === 'choice' && q.option_base_rates) {
+    lines.push(`Base rates: ${choiceForecastText(q.options, q.option_base_rates)}${q.base_rate_note ? ` (${q.base_rate_note})` : ''}`);
   }
   return lines.join('\n');
 }

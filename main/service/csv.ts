@@ -5,18 +5,33 @@
  * with the JSON schema's own rules, so the schema stays the single home of every field
  * rule. Import is all-or-nothing and every error names the CSV row (the header is row 1,
  * as a spreadsheet numbers them) and the column, because a record index means nothing to
- * someone looking at a spreadsheet.
+ * someone looking at a spreadsheet. Choice and numeric questions have columns of their
+ * own, written only when the diary holds such a question (a diary of yes/no questions
+ * exports as it always did), and checked with the shared type rules
+ * (shared/question-types.ts), the JSON import's own.
  *
  * Both directions stream: export writes a batch of questions at a time, import reads a row
  * at a time and hands each question over at its first row, with the rows that follow as
  * additions to it, so neither holds the file or the diary in memory.
  */
-import type { z } from 'zod';
+import { z } from 'zod';
 import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
+import { ANY_OUTCOMES, OUTCOMES } from '../../shared/domain';
+import {
+  entryIssues,
+  questionTypeIssues,
+  resolutionIssues,
+  shapeOf,
+  typeOf,
+  type EntryFields,
+  type TypeFields,
+  type TypeIssue,
+  type TypeShape,
+} from '../../shared/question-types';
 import * as v from '../../shared/validation';
 import { CsvSyntaxError, readCsvRecords } from '../files/csv-records';
 
-/** The columns, in the order export writes them. */
+/** The columns, in the order export writes them: all of them for a diary of yes/no questions. */
 export const CSV_COLUMNS = [
   'question_id',
   'title',
@@ -43,7 +58,31 @@ export const CSV_COLUMNS = [
   'reference_source',
 ] as const;
 
-export type CsvColumn = (typeof CSV_COLUMNS)[number];
+/**
+ * The columns of choice and numeric questions (docs/csv-format.md), written after the
+ * others only when the diary holds such a question, so a diary of yes/no questions
+ * exports exactly as it did before question types existed.
+ */
+export const CSV_TYPE_COLUMNS = [
+  'type',
+  'options',
+  'ordered',
+  'option_base_rates',
+  'unit',
+  'value_kind',
+  'levels',
+  'outcome_option',
+  'outcome_value',
+  'probs',
+  'quantiles',
+  'reference_probs',
+  'reference_quantiles',
+] as const;
+
+/** Every column import knows, in the order export writes them. */
+export const CSV_ALL_COLUMNS = [...CSV_COLUMNS, ...CSV_TYPE_COLUMNS] as const;
+
+export type CsvColumn = (typeof CSV_ALL_COLUMNS)[number];
 
 /** A CSV file that cannot be imported; `row` counts the header as row 1. */
 export class CsvError extends Error {
@@ -63,22 +102,41 @@ const F = Q.forecasts.element.shape;
 const REF = Q.references.unwrap().element.shape;
 const RES = Q.resolution.unwrap().unwrap().shape;
 const COST = v.costs.shape;
+/** A yes/no question's outcomes, with the message a yes/no row has always had. */
+const YES_NO_OUTCOME = z.enum(OUTCOMES as [string, ...string[]], { error: 'must be yes, no or void' });
+/** Every type's outcomes; which fit the question is checked with its type (checkTypeRules). */
+const ANY_OUTCOME = z.enum(ANY_OUTCOMES as [string, ...string[]], { error: 'must be option or void (choice questions), or value or void (numeric questions)' });
 
 /** The columns that describe a revision or a reference forecast, not the question. */
-const POINT_COLUMNS = ['forecast_at', 'p', 'note', 'lenses', 'reference_at', 'reference_p', 'reference_source'] as const satisfies readonly CsvColumn[];
+const POINT_COLUMNS = [
+  'forecast_at',
+  'p',
+  'note',
+  'lenses',
+  'reference_at',
+  'reference_p',
+  'reference_source',
+  'probs',
+  'quantiles',
+  'reference_probs',
+  'reference_quantiles',
+] as const satisfies readonly CsvColumn[];
 type PointColumn = (typeof POINT_COLUMNS)[number];
 type QuestionColumn = Exclude<CsvColumn, PointColumn>;
 
 const isPointColumn = (c: CsvColumn): c is PointColumn => (POINT_COLUMNS as readonly CsvColumn[]).includes(c);
 
 /** The columns a question's rows must agree on: every other one, in export order. */
-const QUESTION_COLUMNS: readonly QuestionColumn[] = CSV_COLUMNS.filter((c): c is QuestionColumn => !isPointColumn(c));
+const QUESTION_COLUMNS: readonly QuestionColumn[] = CSV_ALL_COLUMNS.filter((c): c is QuestionColumn => !isPointColumn(c));
 
 // ---------------------------------------------------------------------------------------
 // Export
 
-/** The header row, as export writes it. */
+/** The header row of a diary of yes/no questions, as export writes it. */
 export const CSV_HEADER = `${CSV_COLUMNS.join(',')}\r\n`;
+
+/** The header row of a diary that holds a choice or numeric question. */
+export const CSV_TYPES_HEADER = `${CSV_ALL_COLUMNS.join(',')}\r\n`;
 
 /**
  * A field as RFC 4180 §2 rules 6 and 7 write it: enclosed in double quotes when it holds a
@@ -89,32 +147,39 @@ function csvField(text: string): string {
   return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
-/** A revision's cells, in the order questionRows writes them. */
-const FORECAST_COLUMNS = ['forecast_at', 'p', 'note', 'lenses'] as const satisfies readonly PointColumn[];
-const REFERENCE_COLUMNS = ['reference_at', 'reference_p', 'reference_source'] as const satisfies readonly PointColumn[];
-
 /**
- * A row as the text around a run of neighbouring point columns: the question's cells (and
- * empty point cells) before the run, and after it. Rows are written by the million, so the
- * surrounding text is made once per question and each row only adds its own cells.
+ * A row as the fixed text around the cells that change from row to row: `pieces[k]` stands
+ * before the k-th varying cell and `pieces[n]` after the last. Rows are written by the
+ * million, so the question's cells are joined once per question and each row only adds
+ * its own. `varying` must follow the order of `columns`.
  */
-function around(columns: readonly PointColumn[]): (cells: Record<QuestionColumn, string>) => { before: string; after: string } {
-  const first = CSV_COLUMNS.indexOf(columns[0]!);
-  if (columns.some((c, i) => CSV_COLUMNS[first + i] !== c)) throw new Error(`the CSV columns ${columns.join(', ')} must stand together`);
-  const cell = (cells: Record<QuestionColumn, string>, c: CsvColumn) => (isPointColumn(c) ? '' : csvField(cells[c]));
-  const before = CSV_COLUMNS.slice(0, first);
-  const after = CSV_COLUMNS.slice(first + columns.length);
-  return (cells) => ({
-    before: before.map((c) => `${cell(cells, c)},`).join(''),
-    after: after.map((c) => `,${cell(cells, c)}`).join(''),
-  });
+function rowPieces(columns: readonly CsvColumn[], cells: Record<QuestionColumn, string>, varying: readonly PointColumn[]): string[] {
+  const cell = (c: CsvColumn) => (isPointColumn(c) ? '' : csvField(cells[c]));
+  if (varying.length === 0) return [columns.map(cell).join(',')];
+  const at = varying.map((c) => columns.indexOf(c));
+  if (at.some((i, k) => i < 0 || (k > 0 && i <= at[k - 1]!))) throw new Error(`the CSV columns ${varying.join(', ')} are not in the header's order`);
+  const pieces = [columns.slice(0, at[0]).map((c) => `${cell(c)},`).join('')];
+  for (let k = 1; k < at.length; k++) pieces.push(`,${columns.slice(at[k - 1]! + 1, at[k]).map((c) => `${cell(c)},`).join('')}`);
+  pieces.push(columns.slice(at[at.length - 1]! + 1).map((c) => `,${cell(c)}`).join(''));
+  return pieces;
 }
 
-const aroundForecast = around(FORECAST_COLUMNS);
-const aroundReference = around(REFERENCE_COLUMNS);
+/** The row made of `pieces` (rowPieces) with `values` in the varying cells. */
+function fill(pieces: readonly string[], values: readonly string[]): string {
+  let out = pieces[0]!;
+  for (let k = 0; k < values.length; k++) out += values[k]! + pieces[k + 1]!;
+  return `${out}\r\n`;
+}
+
+/** A list of numbers (or dates) in one cell, separated by spaces; numbers in full precision. */
+const spaced = (values: readonly (number | string)[]): string => values.map(String).join(' ');
 
 /** The question's own cells, repeated on each of its rows (as the JSON export writes the fields). */
 function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
+  const binary = q.type === 'binary' ? q : null;
+  const choice = q.type === 'choice' ? q : null;
+  const numeric = q.type === 'numeric' ? q : null;
+  const r = q.resolution;
   return {
     question_id: q.id,
     title: q.title,
@@ -124,39 +189,69 @@ function questionCells(q: ExportedQuestion): Record<QuestionColumn, string> {
     opened_at: q.opened_at,
     closes_at: q.closes_at,
     time_zone: q.time_zone,
-    base_rate: q.base_rate === null ? '' : String(q.base_rate),
+    base_rate: binary === null || binary.base_rate === null ? '' : String(binary.base_rate),
     base_rate_note: q.base_rate_note,
-    false_alarm_cost: q.costs ? String(q.costs.false_alarm) : '',
-    miss_cost: q.costs ? String(q.costs.miss) : '',
+    false_alarm_cost: binary?.costs ? String(binary.costs.false_alarm) : '',
+    miss_cost: binary?.costs ? String(binary.costs.miss) : '',
     checkin_days: q.checkin_days === null ? '' : String(q.checkin_days),
-    outcome: q.resolution?.outcome ?? '',
-    resolved_at: q.resolution?.at ?? '',
-    resolution_note: q.resolution?.note ?? '',
+    outcome: r?.outcome ?? '',
+    resolved_at: r?.at ?? '',
+    resolution_note: r?.note ?? '',
+    type: q.type,
+    options: choice ? JSON.stringify(choice.options) : '',
+    ordered: choice ? String(choice.ordered) : '',
+    option_base_rates: choice?.option_base_rates ? spaced(choice.option_base_rates) : '',
+    unit: numeric ? numeric.unit : '',
+    value_kind: numeric ? numeric.value_kind : '',
+    levels: numeric ? spaced(numeric.levels) : '',
+    outcome_option: choice && r?.outcome === 'option' ? choice.options[r.option]! : '',
+    outcome_value: numeric && r?.outcome === 'value' ? String(r.value) : '',
   };
 }
+
+/** The cells a revision and a reference forecast fill, per type, in the header's order. */
+const VARYING: Record<ExportedQuestion['type'], { forecast: readonly PointColumn[]; reference: readonly PointColumn[] }> = {
+  binary: { forecast: ['forecast_at', 'p', 'note', 'lenses'], reference: ['reference_at', 'reference_p', 'reference_source'] },
+  choice: { forecast: ['forecast_at', 'note', 'probs'], reference: ['reference_at', 'reference_source', 'reference_probs'] },
+  numeric: { forecast: ['forecast_at', 'note', 'quantiles'], reference: ['reference_at', 'reference_source', 'reference_quantiles'] },
+};
 
 /**
  * One question's rows: one per revision, then one per reference forecast, or one row when
  * it has neither. Times and numbers never need quoting; text does (csvField).
  */
-function questionRows(q: ExportedQuestion): string {
+function questionRows(q: ExportedQuestion, columns: readonly CsvColumn[]): string {
+  if (q.type !== 'binary' && columns.length === CSV_COLUMNS.length) {
+    // The caller chose the header from the diary's types; reaching this is a bug, not a user's mistake.
+    throw new Error(`diaryCsvText: question ${q.id} is a ${q.type} question, but the export was started without the type columns`);
+  }
   const cells = questionCells(q);
+  const varying = VARYING[q.type];
   let out = '';
   if (q.forecasts.length) {
-    const { before, after } = aroundForecast(cells);
-    for (const f of q.forecasts) {
-      const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
-      out += `${before}${f.at},${String(f.p)},${csvField(f.note)},${lenses}${after}\r\n`;
+    const pieces = rowPieces(columns, cells, varying.forecast);
+    if (q.type === 'binary') {
+      for (const f of q.forecasts) {
+        const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
+        out += fill(pieces, [f.at, String(f.p), csvField(f.note), lenses]);
+      }
+    } else if (q.type === 'choice') {
+      for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.probs)]);
+    } else {
+      for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.quantiles)]);
     }
   }
   if (q.references.length) {
-    const { before, after } = aroundReference(cells);
-    for (const r of q.references) out += `${before}${r.at},${String(r.p)},${csvField(r.source)}${after}\r\n`;
+    const pieces = rowPieces(columns, cells, varying.reference);
+    if (q.type === 'binary') {
+      for (const r of q.references) out += fill(pieces, [r.at, String(r.p), csvField(r.source)]);
+    } else if (q.type === 'choice') {
+      for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.probs)]);
+    } else {
+      for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.quantiles)]);
+    }
   }
-  if (out === '') {
-    const { before, after } = aroundForecast(cells);
-    out = `${before}${','.repeat(FORECAST_COLUMNS.length - 1)}${after}\r\n`;
-  }
+  if (out === '') out = fill(rowPieces(columns, cells, []), []);
   return out;
 }
 
@@ -165,12 +260,18 @@ function questionRows(q: ExportedQuestion): string {
  * question one row per revision, then one row per reference forecast, or a single row when
  * it has neither. Numbers keep full precision (`String(number)` reads back to the same
  * double); every line ends in CRLF (RFC 4180 §2 rule 1).
+ *
+ * @param batches the questions, a batch at a time
+ * @param withTypes write the columns of choice and numeric questions: true when the diary
+ *   holds any (the header comes first, so the caller says); false keeps the columns a
+ *   diary of yes/no questions has always had
  */
-export function* diaryCsvText(batches: Iterable<ExportedQuestion[]>): Generator<string> {
-  yield CSV_HEADER;
+export function* diaryCsvText(batches: Iterable<ExportedQuestion[]>, withTypes = false): Generator<string> {
+  const columns: readonly CsvColumn[] = withTypes ? CSV_ALL_COLUMNS : CSV_COLUMNS;
+  yield withTypes ? CSV_TYPES_HEADER : CSV_HEADER;
   for (const batch of batches) {
     // Joined once, flat: a string grown row by row would be copied again to be written.
-    const text = batch.map(questionRows).join('');
+    const text = batch.map((q) => questionRows(q, columns)).join('');
     if (text) yield text;
   }
 }
@@ -212,14 +313,14 @@ function readHeader(header: string[] | undefined): Map<CsvColumn, number> {
       null,
     );
   }
-  const known = new Set<string>(CSV_COLUMNS);
+  const known = new Set<string>(CSV_ALL_COLUMNS);
   const positions = new Map<CsvColumn, number>();
   header.forEach((cell, index) => {
     const name = cell.trim().toLowerCase();
     if (!known.has(name)) {
       const hint = /[;\t]/.test(cell) ? ' The file seems to use semicolons or tabs between fields; save it as comma-separated CSV.' : '';
       const shown = name === '' ? `column ${index + 1} has no name` : `unknown column "${cell.trim()}"`;
-      throw new CsvError(`Row 1 (the header): ${shown}. The columns are: ${CSV_COLUMNS.join(', ')}.${hint} Nothing was imported.`, 1, cell.trim());
+      throw new CsvError(`Row 1 (the header): ${shown}. The columns are: ${CSV_ALL_COLUMNS.join(', ')}.${hint} Nothing was imported.`, 1, cell.trim());
     }
     if (positions.has(name as CsvColumn)) {
       throw new CsvError(`Row 1 (the header): column "${name}" appears twice; keep one of them. Nothing was imported.`, 1, name);
@@ -265,14 +366,17 @@ function readQuestionCells(cell: Cell, row: number): Record<QuestionColumn, unkn
     false_alarm_cost: optional('false_alarm_cost', COST.false_alarm, num('false_alarm_cost')),
     miss_cost: optional('miss_cost', COST.miss, num('miss_cost')),
     checkin_days: optional('checkin_days', Q.checkin_days, num('checkin_days')),
-    outcome: optional('outcome', RES.outcome, (t) => t.toLowerCase()),
+    // A yes/no row keeps the yes/no message; another type's outcome is checked against its type (checkTypeRules).
+    outcome: optional('outcome', ['', 'binary'].includes(cell('type').trim().toLowerCase()) ? YES_NO_OUTCOME : ANY_OUTCOME, (t) => t.toLowerCase()),
     resolved_at: optional('resolved_at', RES.at),
     resolution_note: text('resolution_note', RES.note),
+    ...readTypeCells(cell, row),
   };
   if ((question.false_alarm_cost === undefined) !== (question.miss_cost === undefined)) {
     const empty = question.false_alarm_cost === undefined ? 'false_alarm_cost' : 'miss_cost';
     throw nothingImported(row, empty, 'is empty but the other cost is given; give both costs or neither (neither uses the diary defaults)');
   }
+  checkTypeRules(question, row);
   if (question.outcome === undefined) {
     if (question.resolved_at !== undefined) throw nothingImported(row, 'resolved_at', 'is given but outcome is empty; give the outcome (yes, no or void) or clear resolved_at');
     if (question.resolution_note !== '') throw nothingImported(row, 'resolution_note', 'is given but outcome is empty; give the outcome (yes, no or void) or clear the note');
@@ -282,24 +386,161 @@ function readQuestionCells(cell: Cell, row: number): Record<QuestionColumn, unkn
   return question;
 }
 
-/** The revision or the reference forecast a row holds (or neither). */
-function readPoint(cell: Cell, row: number): { forecast: FileForecast | null; reference: FileReference | null } {
+// ── Choice and numeric questions ─────────────────────────────────────────────────────────
+
+/** A cell holding several numbers separated by spaces (docs/csv-format.md), each read as `numberCell` reads one. */
+function numberList(text: string, row: number, column: string): number[] {
+  return text
+    .trim()
+    .split(/\s+/)
+    .map((t) => {
+      if (!NUMBER.test(t)) {
+        throw nothingImported(row, column, `"${t}" is not a number; separate the numbers with spaces and write each with a decimal point, e.g. 0.5 0.3 0.2`);
+      }
+      return Number(t);
+    });
+}
+
+/** A cell of numeric values: numbers for a question about a number, dates YYYY-MM-DD for one about a date. */
+function valueList(text: string, row: number, column: string, shape: TypeShape): (number | string)[] {
+  if (shape.type === 'numeric' && shape.value_kind === 'number') return numberList(text, row, column);
+  const tokens = text.trim().split(/\s+/);
+  return shape.type === 'numeric' ? tokens : tokens.map((t) => (NUMBER.test(t) ? Number(t) : t));
+}
+
+/** The type columns of one row, each checked with the diary file's rule for the field; undefined when empty. */
+function readTypeCells(cell: Cell, row: number): Record<Extract<QuestionColumn, (typeof CSV_TYPE_COLUMNS)[number]>, unknown> {
   const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
-  const forecastGiven = trimmed('forecast_at') !== undefined || trimmed('p') !== undefined;
-  const referenceGiven = trimmed('reference_at') !== undefined || trimmed('reference_p') !== undefined || trimmed('reference_source') !== undefined;
+  const options = trimmed('options');
+  let optionList: unknown;
+  if (options !== undefined) {
+    try {
+      optionList = JSON.parse(options);
+    } catch (err) {
+      throw nothingImported(row, 'options', `is not valid JSON (${(err as Error).message}); write the labels as a list such as ["Brackenfold","Orrin","Neither"] or leave it empty`);
+    }
+  }
+  const ordered = trimmed('ordered')?.toLowerCase();
+  if (ordered !== undefined && ordered !== 'true' && ordered !== 'false') throw nothingImported(row, 'ordered', `"${cell('ordered').trim()}" is not true or false`);
+  const valueKind = trimmed('value_kind') === undefined ? undefined : check(v.valueKind, trimmed('value_kind')!.toLowerCase(), row, 'value_kind');
+  const outcomeValue = trimmed('outcome_value');
+  return {
+    type: trimmed('type') === undefined ? undefined : check(v.questionType, trimmed('type')!.toLowerCase(), row, 'type'),
+    options: options === undefined ? undefined : check(v.options, optionList, row, 'options'),
+    ordered: ordered === undefined ? undefined : ordered === 'true',
+    option_base_rates: trimmed('option_base_rates') === undefined ? undefined : check(v.probs, numberList(cell('option_base_rates'), row, 'option_base_rates'), row, 'option_base_rates'),
+    unit: cell('unit') === '' ? undefined : check(v.unit, cell('unit'), row, 'unit'),
+    value_kind: valueKind,
+    levels: trimmed('levels') === undefined ? undefined : check(v.levels, numberList(cell('levels'), row, 'levels'), row, 'levels'),
+    outcome_option: trimmed('outcome_option'),
+    outcome_value:
+      outcomeValue === undefined ? undefined : check(v.numericValue, valueKind === 'date' ? outcomeValue : numberCell(outcomeValue, row, 'outcome_value'), row, 'outcome_value'),
+  };
+}
+
+/** The columns a type rule's field is written in. */
+const COLUMN_OF_FIELD: Record<string, CsvColumn> = { costs: 'false_alarm_cost', option: 'outcome_option', value: 'outcome_value' };
+
+function typeIssue(issue: TypeIssue, row: number, columnOf: (field: string) => CsvColumn = (f) => COLUMN_OF_FIELD[f] ?? (f as CsvColumn)): CsvError {
+  const [field, ...rest] = issue.path;
+  return nothingImported(row, columnOf(String(field)), rest.length ? `${v.formatPath(rest)}: ${issue.message}` : issue.message);
+}
+
+/** The type fields of a row's question cells, as shared/question-types.ts reads them. */
+function typeFields(q: Record<QuestionColumn, unknown>): TypeFields {
+  return {
+    type: q.type as string | undefined,
+    base_rate: q.base_rate as number | undefined,
+    costs: q.false_alarm_cost === undefined ? undefined : { false_alarm: q.false_alarm_cost, miss: q.miss_cost },
+    options: q.options as string[] | undefined,
+    ordered: q.ordered as boolean | undefined,
+    option_base_rates: q.option_base_rates as number[] | undefined,
+    unit: q.unit as string | undefined,
+    value_kind: q.value_kind as string | undefined,
+    levels: q.levels as number[] | undefined,
+  };
+}
+
+/**
+ * The rules spanning a question's type columns (shared/question-types.ts, the JSON
+ * import's own): no field of another type, options and option base rates that agree, and
+ * an outcome of the question's type with its option (by label) or value.
+ */
+function checkTypeRules(q: Record<QuestionColumn, unknown>, row: number): void {
+  const fields = typeFields(q);
+  const issue = questionTypeIssues(fields)[0];
+  if (issue) throw typeIssue(issue, row);
+  const type = typeOf(fields);
+  if (q.outcome_option !== undefined && type !== 'choice') throw nothingImported(row, 'outcome_option', `applies to choice questions only; this is ${TYPE_WORDS[type]}`);
+  if (q.outcome_value !== undefined && type !== 'numeric') throw nothingImported(row, 'outcome_value', `applies to numeric questions only; this is ${TYPE_WORDS[type]}`);
+  if (q.outcome === undefined) {
+    for (const c of ['outcome_option', 'outcome_value'] as const) {
+      if (q[c] !== undefined) throw nothingImported(row, c, `is given but outcome is empty; give the outcome (${c === 'outcome_option' ? 'option' : 'value'} or void) or clear ${c}`);
+    }
+    return;
+  }
+  let option: number | undefined;
+  if (q.outcome_option !== undefined) {
+    const labels = q.options as string[];
+    option = labels.indexOf(q.outcome_option as string);
+    if (option < 0) {
+      throw nothingImported(row, 'outcome_option', `"${String(q.outcome_option)}" is not one of the options (${labels.map((l) => JSON.stringify(l)).join(', ')}); write the label exactly as in options`);
+    }
+  }
+  const resolutionIssue = resolutionIssues(shapeOf(fields), { outcome: q.outcome as string, option, value: q.outcome_value as number | string | undefined })[0];
+  if (resolutionIssue) throw typeIssue(resolutionIssue, row);
+}
+
+const TYPE_WORDS: Record<string, string> = { binary: 'a yes/no question', choice: 'a choice question', numeric: 'a numeric question' };
+
+/** The columns of a revision's or a reference forecast's value, per type, and how a message names the value. */
+const VALUE_COLUMNS = {
+  binary: { forecast: 'p', reference: 'reference_p', word: 'probability' },
+  choice: { forecast: 'probs', reference: 'reference_probs', word: 'probabilities' },
+  numeric: { forecast: 'quantiles', reference: 'reference_quantiles', word: 'values' },
+} as const satisfies Record<string, { forecast: PointColumn; reference: PointColumn; word: string }>;
+
+/** A revision's or a reference forecast's value cells, read (p, probs, quantiles); undefined when empty. */
+function readEntry(cell: Cell, row: number, shape: TypeShape, columns: { p: PointColumn; probs: PointColumn; quantiles: PointColumn }): EntryFields {
+  const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
+  const entry: EntryFields = {};
+  if (trimmed(columns.p) !== undefined) entry.p = check(F.p, numberCell(cell(columns.p), row, columns.p), row, columns.p) as number;
+  if (trimmed(columns.probs) !== undefined) entry.probs = check(v.probs, numberList(cell(columns.probs), row, columns.probs), row, columns.probs);
+  if (trimmed(columns.quantiles) !== undefined) {
+    entry.quantiles = check(v.quantiles, valueList(cell(columns.quantiles), row, columns.quantiles, shape), row, columns.quantiles);
+  }
+  return entry;
+}
+
+/**
+ * An entry's type issues in the order a person fixes them: a value of another type's
+ * column first, then `missing` (the cells a revision or a reference forecast needs), then
+ * the value's own problems (the count per option or level, the kind of value).
+ */
+function checkEntry(shape: TypeShape, entry: EntryFields, row: number, own: PointColumn, columnOf: (field: string) => CsvColumn, missing: () => void): void {
+  const issues = entryIssues(shape, entry);
+  const misplaced = issues.find((i) => columnOf(String(i.path[0])) !== own);
+  if (misplaced) throw typeIssue(misplaced, row, columnOf);
+  missing();
+  if (issues[0]) throw typeIssue(issues[0], row, columnOf);
+}
+
+/** The revision or the reference forecast a row holds (or neither), for a question of this shape. */
+function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileForecast | null; reference: FileReference | null } {
+  const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
+  const forecastGiven = (['forecast_at', 'p', 'probs', 'quantiles'] as const).some((c) => trimmed(c) !== undefined);
+  const referenceGiven = (['reference_at', 'reference_p', 'reference_source', 'reference_probs', 'reference_quantiles'] as const).some((c) => trimmed(c) !== undefined);
+  const value = VALUE_COLUMNS[shape.type];
   if (forecastGiven && referenceGiven) {
-    throw nothingImported(row, 'reference_at', 'a row holds either a revision (forecast_at, p) or a reference forecast (reference_at, reference_p, reference_source), not both; put the reference forecast on a row of its own');
+    throw nothingImported(
+      row,
+      'reference_at',
+      `a row holds either a revision (forecast_at, ${value.forecast}) or a reference forecast (reference_at, ${value.reference}, reference_source), not both; put the reference forecast on a row of its own`,
+    );
   }
   let forecast: FileForecast | null = null;
   if (forecastGiven) {
-    for (const c of ['forecast_at', 'p'] as const) {
-      if (trimmed(c) === undefined) throw nothingImported(row, c, 'is empty, but a revision needs both its time (forecast_at) and its probability (p)');
-    }
-    forecast = {
-      at: check(F.at, cell('forecast_at').trim(), row, 'forecast_at'),
-      p: check(F.p, numberCell(cell('p'), row, 'p'), row, 'p'),
-      note: check(F.note, cell('note'), row, 'note') ?? '',
-    };
+    const entry = readEntry(cell, row, shape, { p: 'p', probs: 'probs', quantiles: 'quantiles' });
     const lenses = trimmed('lenses');
     if (lenses !== undefined) {
       let raw: unknown;
@@ -309,38 +550,50 @@ function readPoint(cell: Cell, row: number): { forecast: FileForecast | null; re
         throw nothingImported(row, 'lenses', `is not valid JSON (${(err as Error).message}); write a list such as [{"name":"outside view","p":0.3,"weight":1}] or leave it empty`);
       }
       const list = check(F.lenses, raw, row, 'lenses') ?? [];
-      if (list.length) forecast.lenses = list;
+      if (list.length) entry.lenses = list;
     }
+    checkEntry(shape, entry, row, value.forecast, (f) => f as CsvColumn, () => {
+      for (const c of ['forecast_at', value.forecast] as const) {
+        if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a revision needs both its time (forecast_at) and its ${value.word} (${value.forecast})`);
+      }
+    });
+    forecast = { at: check(F.at, cell('forecast_at').trim(), row, 'forecast_at'), ...entry, note: check(F.note, cell('note'), row, 'note') ?? '' } as FileForecast;
   } else {
     for (const c of ['note', 'lenses'] as const) {
-      if (cell(c) !== '') throw nothingImported(row, c, 'belongs to a revision, but forecast_at and p are empty on this row; fill them in or clear this cell');
+      if (cell(c) !== '') throw nothingImported(row, c, `belongs to a revision, but forecast_at and ${value.forecast} are empty on this row; fill them in or clear this cell`);
     }
   }
   let reference: FileReference | null = null;
   if (referenceGiven) {
-    for (const c of ['reference_at', 'reference_p', 'reference_source'] as const) {
-      if (trimmed(c) === undefined) throw nothingImported(row, c, 'is empty, but a reference forecast needs its time, probability and source');
-    }
-    reference = {
-      at: check(REF.at, cell('reference_at').trim(), row, 'reference_at'),
-      p: check(REF.p, numberCell(cell('reference_p'), row, 'reference_p'), row, 'reference_p'),
-      source: check(REF.source, cell('reference_source'), row, 'reference_source'),
-    };
+    const entry = readEntry(cell, row, shape, { p: 'reference_p', probs: 'reference_probs', quantiles: 'reference_quantiles' });
+    const columnOf = (f: string) => (`reference_${f}` as CsvColumn);
+    checkEntry(shape, entry, row, value.reference, columnOf, () => {
+      for (const c of ['reference_at', value.reference, 'reference_source'] as const) {
+        if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a reference forecast needs its time, ${value.word} and source`);
+      }
+    });
+    reference = { at: check(REF.at, cell('reference_at').trim(), row, 'reference_at'), ...entry, source: check(REF.source, cell('reference_source'), row, 'reference_source') } as FileReference;
   }
   return { forecast, reference };
 }
 
 /** A question record from its first row's question columns and the revision or reference forecast on that row. */
 function toRecord(q: Record<QuestionColumn, unknown>, point: ReturnType<typeof readPoint>): FileQuestion {
-  const record: FileQuestion = {
+  let resolution: Record<string, unknown> | null = null;
+  if (q.outcome !== undefined) {
+    resolution = { outcome: q.outcome, at: q.resolved_at, note: q.resolution_note };
+    if (q.outcome === 'option') resolution.option = (q.options as string[]).indexOf(q.outcome_option as string);
+    if (q.outcome === 'value') resolution.value = q.outcome_value;
+  }
+  const record = {
     title: q.title as string,
     rule: q.rule as string,
     tags: q.tags as string[],
     closes_at: q.closes_at as number,
     forecasts: point.forecast ? [point.forecast] : [],
     references: point.reference ? [point.reference] : [],
-    resolution: q.outcome === undefined ? null : { outcome: q.outcome as string, at: q.resolved_at as number, note: q.resolution_note as string },
-  };
+    resolution,
+  } as FileQuestion;
   if (q.question_id !== undefined) record.id = q.question_id as string;
   if (q.kind !== undefined) record.kind = q.kind as FileQuestion['kind'];
   if (q.opened_at !== undefined) record.opened_at = q.opened_at as number;
@@ -349,6 +602,11 @@ function toRecord(q: Record<QuestionColumn, unknown>, point: ReturnType<typeof r
   if (q.base_rate_note !== undefined) record.base_rate_note = q.base_rate_note as string;
   if (q.checkin_days !== undefined) record.checkin_days = q.checkin_days as number;
   if (q.false_alarm_cost !== undefined) record.costs = { false_alarm: q.false_alarm_cost as number, miss: q.miss_cost as number };
+  // The type's own fields, as the JSON file spells them (absent: the default).
+  const typed = record as Record<string, unknown>;
+  for (const field of ['type', 'options', 'ordered', 'option_base_rates', 'unit', 'value_kind', 'levels'] as const) {
+    if (q[field] !== undefined) typed[field] = q[field];
+  }
   return record;
 }
 
@@ -386,6 +644,8 @@ interface Group {
   row: number;
   /** The first row's question cells as written (joinCells). */
   raw: string;
+  /** What the question's type makes of its revisions (the same on every row: `agree`). */
+  shape: TypeShape;
 }
 
 /**
@@ -427,17 +687,18 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
       const group = groups.get(key);
       if (!group) {
         const question = readQuestionCells(cell, row);
-        const record = toRecord(question, readPoint(cell, row));
+        const shape = shapeOf(typeFields(question));
+        const record = toRecord(question, readPoint(cell, row, shape));
         // The rule spanning the question's fields, at its first row (the file schema's own).
         if (!v.closesAfterOpening(record)) throw nothingImported(row, 'closes_at', v.CLOSES_AFTER_OPENS_RULE);
         const index = groups.size;
-        groups.set(key, { index, row, raw });
+        groups.set(key, { index, row, raw, shape });
         yield { kind: 'question', index, row, question: record };
         continue;
       }
       // Rows repeating the first row's cells exactly need no second reading.
       if (raw !== group.raw) agree(group, readQuestionCells(cell, row), row);
-      yield { kind: 'addition', index: group.index, row, ...readPoint(cell, row) };
+      yield { kind: 'addition', index: group.index, row, ...readPoint(cell, row, group.shape) };
     }
   } catch (err) {
     if (err instanceof CsvSyntaxError) throw new CsvError(`${err.message} Nothing was imported.`, err.row, null);

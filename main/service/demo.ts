@@ -14,11 +14,14 @@
  *
  * The record is written to look like a real, imperfect forecaster: a reasonably
  * calibrated majority, three confident misses with the notes written at the time, two
- * void questions, and open questions closing soon, overdue and further out.
+ * void questions, and open questions closing soon, overdue and further out. A handful of
+ * choice and numeric questions (demo-types.ts) fill the Scorecard's sections for those
+ * types, with a confident miss of a top choice and a wide miss of a range among them.
  */
 import { DIARY_FORMAT, DIARY_VERSION } from '../../shared/diary-file';
 import type { Outcome, QuestionKind } from '../../shared/domain';
 import { addCalendarDays, toIso, wallTimeAt, wallTimeToInstant, type WallTime } from '../../shared/time';
+import { TYPED_ROWS, buildTypedQuestion, type DiaryFileChoiceQuestion, type DiaryFileNumericQuestion } from './demo-types';
 
 /** A diary file (JSON v1) as a plain object, ready for `parseDiaryFile` or `JSON.stringify`. */
 export interface DiaryFileObject {
@@ -33,8 +36,11 @@ export interface DiaryFileObject {
     time_zone: string;
     quiet_hours: { start: string; end: string } | null;
   };
-  questions: DiaryFileQuestion[];
+  questions: DemoQuestion[];
 }
+
+/** Any question of the example diary: yes/no (no `type` field, as the file writes them), choice or numeric. */
+export type DemoQuestion = DiaryFileQuestion | DiaryFileChoiceQuestion | DiaryFileNumericQuestion;
 
 export interface DiaryFileQuestion {
   id: string;
@@ -794,6 +800,19 @@ export function buildDemoDiary(now: number): DiaryFileObject {
       resolution,
     };
   });
+  // After the yes/no rows, so their seeded minutes stay as they were.
+  const londonToday = todayIn(DIARY_ZONE);
+  const clock = {
+    at,
+    minuteIn,
+    closeAt: (day: number) => toIso(localInstant(londonToday, DIARY_ZONE, day, hhmmToMinutes('17:00'))),
+    date: (day: number) => {
+      const d = addCalendarDays(londonToday, day);
+      return `${String(d.year).padStart(4, '0')}-${String(d.month).padStart(2, '0')}-${String(d.day).padStart(2, '0')}`;
+    },
+    zone: DIARY_ZONE,
+  };
+  const typed = TYPED_ROWS.map((row) => buildTypedQuestion(row, clock));
 
   return {
     format: DIARY_FORMAT,
@@ -807,6 +826,6 @@ export function buildDemoDiary(now: number): DiaryFileObject {
       time_zone: DIARY_ZONE,
       quiet_hours: { start: '21:00', end: '07:30' },
     },
-    questions,
+    questions: [...questions, ...typed],
   };
 }

@@ -4,7 +4,7 @@
  * need the diary's state (does the question exist, is the close still after the opening).
  */
 import { randomUUID } from 'node:crypto';
-import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, UndoableOperation, ValidRequest } from '../../shared/contract';
+import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, ScoreJson, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
 import {
@@ -21,16 +21,42 @@ import {
 } from '../../shared/diary-file';
 import {
   NUDGE_KIND_NAMES,
+  isBinary,
+  isChoice,
+  isNumeric,
   type Lens,
   type NudgeKind,
-  type Outcome,
+  type AnyOutcome,
   type Question,
   type QuestionKind,
+  type QuestionType,
   type ResolutionChangeKind,
   type Settings,
 } from '../../shared/domain';
+import {
+  entryIssues,
+  questionTypeIssues,
+  resolutionIssues,
+  shapeOf,
+  typeOf,
+  type EntryFields,
+  type ResolutionFields,
+  type TypeIssue,
+  type TypeShape,
+} from '../../shared/question-types';
+import { toStoredValue } from '../../shared/numeric-value';
 import { beforeOpeningProblem, earlyStateResolutionWarning, futureProblem, isEarlyStateResolution, onClock } from '../../shared/time-rules';
-import { computeScoreReport, computeScorecardDetail, isStale, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
+import {
+  computeChoiceDetail,
+  computeChoiceReport,
+  computeNumericDetail,
+  computeNumericReport,
+  computeScoreReport,
+  computeScorecardDetail,
+  isStale,
+  type ScoreOptions,
+  type ScoringQuestion,
+} from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import * as v from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
@@ -40,6 +66,7 @@ import { readSettings, writeSettings } from '../store/settings';
 import * as undoStore from '../store/undo';
 import { confidentCalls, referenceLeads } from './hindsight';
 import { listQuestionPage } from './question-list';
+import { choiceHindsight, numericHindsight } from './hindsight-types';
 import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
@@ -49,7 +76,7 @@ import { exportBatches, exportedQuestionReader } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
-import { loadScoringQuestions } from './scoring-source';
+import { loadScoringInput, type ScoringInput } from './scoring-source';
 
 export interface DiaryContext {
   store: StoreHandles;
@@ -72,6 +99,70 @@ function invalid(field: string, reason: string): ApiError {
 /** Every `field: reason` line a request broke, refused at once (a form shows them all), or nothing. */
 function refuseAll(lines: string[]): void {
   if (lines.length) throw new ApiError('invalid', `The request was not accepted: ${lines.join('; ')}. Nothing was changed.`, lines);
+}
+
+/** Type-rule issues (shared/question-types.ts) as `field: reason` lines, the fields under `prefix`. */
+function issueLines(issues: TypeIssue[], prefix = ''): string[] {
+  return issues.map((i) => {
+    const path = v.formatPath(i.path);
+    return `${prefix && path ? `${prefix}.${path}` : prefix || path}: ${i.message}`;
+  });
+}
+
+/**
+ * A forecast's or reference's value as the store keeps it, once it fits the question
+ * (refused, naming the field, when it does not): `p` for a yes/no question; the
+ * probabilities, or the quantiles with dates as days, for the others.
+ */
+function storedEntry(shape: TypeShape, entry: EntryFields, prefix = ''): { p: number | null; values: number[] } {
+  refuseAll(issueLines(entryIssues(shape, entry), prefix));
+  return storedValuesOf(shape, entry);
+}
+
+/** `storedEntry` for an entry already checked (a validated diary file's). */
+function storedValuesOf(shape: TypeShape, entry: EntryFields): { p: number | null; values: number[] } {
+  if (shape.type === 'binary') return { p: entry.p!, values: [] };
+  if (shape.type === 'choice') return { p: null, values: entry.probs! };
+  return { p: null, values: entry.quantiles!.map((x) => toStoredValue(x, shape.value_kind)) };
+}
+
+/** A checked resolution's option and value as the store keeps them (a date as days). */
+function storedOutcome(shape: TypeShape, r: ResolutionFields): { option: number | null; value: number | null } {
+  return {
+    option: r.outcome === 'option' ? r.option! : null,
+    value: r.outcome === 'value' ? (shape.type === 'numeric' ? toStoredValue(r.value!, shape.value_kind) : null) : null,
+  };
+}
+
+const TYPE_WORDS: Record<QuestionType, string> = { binary: 'yes/no', choice: 'choice', numeric: 'numeric' };
+
+const sameList = (a: readonly unknown[], b: readonly unknown[]) => a.length === b.length && a.every((x, i) => x === b[i]);
+
+/**
+ * What an edit may not change, because the question's revisions depend on it: its type, a
+ * numeric question's value kind and levels, the number of a choice question's options.
+ * Giving them unchanged is fine (a form may send every field).
+ */
+function fixedFieldIssues(
+  row: qs.QuestionRow,
+  stored: qs.TypeRows,
+  c: { type?: string; value_kind?: string; levels?: number[]; options?: string[] },
+): TypeIssue[] {
+  const issues: TypeIssue[] = [];
+  const fixed = `is fixed when the question is created (this is a ${TYPE_WORDS[row.type]} question); to ask it another way, add a new question`;
+  if (c.type !== undefined && c.type !== row.type) issues.push({ path: ['type'], message: fixed });
+  if (row.type === 'choice' && c.options !== undefined && c.options.length !== stored.options.length) {
+    issues.push({
+      path: ['options'],
+      message: `must keep the question's ${stored.options.length} options (they may be relabelled): every revision gives one probability per option`,
+    });
+  }
+  if (row.type !== 'numeric') return issues;
+  if (c.value_kind !== undefined && c.value_kind !== row.value_kind) issues.push({ path: ['value_kind'], message: fixed.replace('is fixed', `is fixed (${row.value_kind})`) });
+  if (c.levels !== undefined && !sameList(c.levels, stored.levels)) {
+    issues.push({ path: ['levels'], message: `are fixed when the question is created (${stored.levels.join(', ')}): every revision gives one value per level` });
+  }
+  return issues;
 }
 
 /**
@@ -156,6 +247,14 @@ export function createDiary(ctx: DiaryContext) {
     return row;
   }
 
+  /** What stored question `row`'s type makes of its forecasts and resolution (its option count or levels). */
+  function shapeOfRow(row: qs.QuestionRow): TypeShape {
+    if (row.type === 'binary') return { type: 'binary' };
+    const rows = qs.typeRows(write, row.id);
+    if (row.type === 'choice') return { type: 'choice', option_count: rows.options.length };
+    return { type: 'numeric', levels: rows.levels, value_kind: row.value_kind ?? 'number' };
+  }
+
   /** Inserts one question with its history; the caller holds the transaction. */
   function insertWhole(q: FileQuestion, s: Settings, stamp: number): string {
     const id = q.id ?? randomUUID();
@@ -164,10 +263,17 @@ export function createDiary(ctx: DiaryContext) {
     const closes = q.closes_at;
     const opened = q.opened_at ?? defaultOpenedAt(firstAt, stamp, closes);
     if (closes <= opened) throw invalid('closes_at', 'must be after the opening time (opened_at)');
+    // The record passed the type rules (the contract or the diary file's schema): its fields fit its type.
+    const shape = shapeOf(q);
+    const type = typeOf(q);
     qs.insertQuestion(
       write,
       {
         id,
+        type,
+        ordered: type === 'choice' ? (q.ordered ? 1 : 0) : null,
+        unit: type === 'numeric' ? (q.unit ?? '') : null,
+        value_kind: shape.type === 'numeric' ? shape.value_kind : null,
         title: q.title,
         rule: q.rule ?? '',
         kind: (q.kind ?? 'event_by_deadline') as QuestionKind,
@@ -183,33 +289,39 @@ export function createDiary(ctx: DiaryContext) {
         updated_at: stamp,
       },
       q.tags ?? [],
+      {
+        options: (q.options ?? []).map((label, k) => ({ label, base_rate: q.option_base_rates?.[k] ?? null })),
+        levels: shape.type === 'numeric' ? [...shape.levels] : [],
+      },
     );
     for (const f of q.forecasts) {
       qs.insertForecast(write, {
         id: orderedId(),
         question_id: id,
         at: f.at,
-        p: f.p,
+        ...storedValuesOf(shape, f),
         note: f.note ?? '',
         lenses: (f.lenses ?? []) as Lens[],
       });
     }
     for (const r of q.references ?? []) {
-      qs.insertReference(write, { id: orderedId(), question_id: id, at: r.at, p: r.p, source: r.source });
+      qs.insertReference(write, { id: orderedId(), question_id: id, at: r.at, ...storedValuesOf(shape, r), source: r.source });
     }
     if (q.resolution) {
       qs.upsertResolution(write, {
         question_id: id,
-        outcome: q.resolution.outcome as Outcome,
+        outcome: q.resolution.outcome as AnyOutcome,
         at: q.resolution.at,
         note: q.resolution.note ?? '',
         recorded_at: stamp,
+        ...storedOutcome(shape, q.resolution),
       });
     }
     for (const h of q.resolution_history ?? []) {
       qs.insertResolutionHistory(write, {
         question_id: id,
-        outcome: h.outcome as Outcome,
+        ...storedOutcome(shape, h),
+        outcome: h.outcome as AnyOutcome,
         at: h.at,
         note: h.note ?? '',
         recorded_at: h.recorded_at,
@@ -310,7 +422,7 @@ export function createDiary(ctx: DiaryContext) {
       // the questions) named another one.
       const zoneDefaulted: string[] = [];
       // CSV only: each question's id and what its default opening time depends on, by index.
-      const csvQuestions: { id: string; closes: number; firstAt: number | null; openedGiven: boolean }[] = [];
+      const csvQuestions: { id: string; closes: number; firstAt: number | null; openedGiven: boolean; shape: TypeShape }[] = [];
       const setOpenedAt = write.prepare('UPDATE questions SET opened_at = ? WHERE id = ?');
       const merging = options.merge === true && !empty;
       const present = merging ? write.prepare('SELECT 1 FROM questions WHERE id = ?').pluck() : null;
@@ -377,14 +489,21 @@ export function createDiary(ctx: DiaryContext) {
           if (empty && !settingsRead && q.time_zone === undefined) zoneDefaulted.push(detached(id));
           if (csv) {
             const firstAt = q.forecasts[0]?.at ?? null;
-            csvQuestions[item.index] = { id: detached(id), closes: q.closes_at, firstAt, openedGiven: q.opened_at !== undefined };
+            csvQuestions[item.index] = { id: detached(id), closes: q.closes_at, firstAt, openedGiven: q.opened_at !== undefined, shape: shapeOf(q) };
           }
         } else {
           // A later CSV row of a question already inserted: its revision or reference forecast.
           const target = csvQuestions[item.index]!;
           if (item.forecast) {
             const f = item.forecast;
-            qs.insertForecast(write, { id: orderedId(), question_id: target.id, at: f.at, p: f.p, note: f.note ?? '', lenses: (f.lenses ?? []) as Lens[] });
+            qs.insertForecast(write, {
+              id: orderedId(),
+              question_id: target.id,
+              at: f.at,
+              ...storedValuesOf(target.shape, f),
+              note: f.note ?? '',
+              lenses: (f.lenses ?? []) as Lens[],
+            });
             if (!target.openedGiven && (target.firstAt === null || f.at < target.firstAt)) {
               target.firstAt = f.at;
               setOpenedAt.run(defaultOpenedAt(f.at, stamp, target.closes), target.id);
@@ -392,7 +511,7 @@ export function createDiary(ctx: DiaryContext) {
           }
           if (item.reference) {
             const r = item.reference;
-            qs.insertReference(write, { id: orderedId(), question_id: target.id, at: r.at, p: r.p, source: r.source });
+            qs.insertReference(write, { id: orderedId(), question_id: target.id, at: r.at, ...storedValuesOf(target.shape, r), source: r.source });
           }
         }
       }
@@ -444,7 +563,13 @@ export function createDiary(ctx: DiaryContext) {
     read.exec('BEGIN');
     try {
       const batches = exportBatches(read, EXPORT_BATCH);
-      yield* format === 'csv' ? diaryCsvText(batches) : diaryFileText(settings(), batches);
+      if (format === 'csv') {
+        // The CSV header comes first: it has the type columns only when some question needs them (docs/csv-format.md).
+        const withTypes = read.prepare("SELECT EXISTS (SELECT 1 FROM questions WHERE type <> 'binary')").pluck().get() === 1;
+        yield* diaryCsvText(batches, withTypes);
+      } else {
+        yield* diaryFileText(settings(), batches);
+      }
     } finally {
       read.exec('COMMIT');
     }
@@ -469,15 +594,32 @@ export function createDiary(ctx: DiaryContext) {
   // The engine's input is re-read only when the diary changed: SQLite's data_version on the
   // read handle moves whenever any other connection (our write handle, or another process)
   // commits. A filter change on the Scorecard then costs the engine's time alone.
-  let scoringCache: { version: number; questions: ScoringQuestion[] } | null = null;
+  let scoringCache: { version: number; input: ScoringInput } | null = null;
 
-  /** The questions as the engine sees them; "what if" costs replace each question's own. */
-  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {
+  /** Every question as the engine sees it, by type, re-read only when the diary changed. */
+  function typedScoringInput(): ScoringInput {
     const version = read.pragma('data_version', { simple: true }) as number;
-    if (scoringCache?.version !== version) scoringCache = { version, questions: loadScoringQuestions(read) };
-    const { questions } = scoringCache;
+    if (scoringCache?.version !== version) scoringCache = { version, input: loadScoringInput(read) };
+    return scoringCache.input;
+  }
+
+  /** The yes/no questions as the engine sees them; "what if" costs replace each question's own. */
+  function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {
+    const questions = typedScoringInput().binary;
     const costs = req.costs;
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
+  }
+
+  /** The `score --json` object: the yes/no report with the choice and numeric members (INTERFACES.md §2). */
+  function scoreJson(req: ValidRequest<'score'>): ScoreJson {
+    const options = scoreOptions(req);
+    const { choice, numeric } = typedScoringInput();
+    return { ...computeScoreReport(scoringInput(req), options), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+  }
+
+  /** Some questions of one type by id, as the service returns them (Hindsight's entries show their notes and labels). */
+  function detailsOf<Q extends Question>(is: (q: Question) => q is Q, t: number): (ids: string[]) => Q[] {
+    return (ids) => (ids.length ? qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t)).filter(is) : []);
   }
 
   const EXPORT_FILES: Record<ExportFormat, { name: string; extension: string; media_type: string }> = {
@@ -570,7 +712,8 @@ export function createDiary(ctx: DiaryContext) {
           id,
           opened_at: opened,
           closes_at: closes,
-          forecasts: first ? [{ at: firstAt, p: first.p, note: first.note, lenses: first.lenses }] : [],
+          // The contract checked the first forecast against the question's type.
+          forecasts: first ? [{ ...first, at: firstAt }] : [],
         };
         undo = tracked('createQuestion', id, () => insertWhole(question, s, stamp));
       });
@@ -596,8 +739,16 @@ export function createDiary(ctx: DiaryContext) {
           miss_cost: c.costs !== undefined ? (c.costs?.miss ?? null) : row.miss_cost,
           checkin_days: c.checkin_days !== undefined ? c.checkin_days : row.checkin_days,
           updated_at: now(),
+          ordered: row.type === 'choice' && c.ordered !== undefined ? (c.ordered ? 1 : 0) : row.ordered,
+          unit: row.type === 'numeric' && c.unit !== undefined ? c.unit : row.unit,
         };
-        const problems: string[] = [];
+        const stored = qs.typeRows(write, req.id);
+        const options = c.options ?? (row.type === 'choice' ? stored.options.map((o) => o.label) : undefined);
+        const storedRates = stored.options.map((o) => o.base_rate);
+        const rates = c.option_base_rates !== undefined ? c.option_base_rates : storedRates.every((r) => r !== null) ? (storedRates as number[]) : null;
+        const problems = issueLines(fixedFieldIssues(row, stored, c), 'changes');
+        // Fields of another type are refused as at creation; the options and their base rates must still agree.
+        problems.push(...issueLines(questionTypeIssues({ ...c, type: row.type, options, option_base_rates: c.options !== undefined || c.option_base_rates !== undefined ? rates : undefined }), 'changes'));
         if (c.opened_at !== undefined) {
           problems.push(...pastLine(next.opened_at, 'changes.opened_at', 'the opening time (when the question was posed)'));
           // The history must still start at or after the opening: a revision or a resolution before it could not have been made.
@@ -615,6 +766,9 @@ export function createDiary(ctx: DiaryContext) {
         undo = tracked('updateQuestion', req.id, () => {
           qs.updateQuestionRow(write, next);
           if (c.tags) qs.replaceTags(write, req.id, c.tags);
+          if (row.type === 'choice' && (c.options !== undefined || c.option_base_rates !== undefined)) {
+            qs.replaceOptions(write, req.id, options!.map((label, k) => ({ label, base_rate: rates?.[k] ?? null })));
+          }
         });
       });
       return { ...getQuestion(req.id), undo };
@@ -641,7 +795,7 @@ export function createDiary(ctx: DiaryContext) {
             id: randomUUID(),
             question_id: row.id,
             at,
-            p: req.p,
+            ...storedEntry(shapeOfRow(row), req),
             note: req.note ?? '',
             lenses: (req.lenses ?? []) as Lens[],
           });
@@ -661,12 +815,16 @@ export function createDiary(ctx: DiaryContext) {
         if (!f) throw notFound('revision', req.id);
         questionId = f.question_id;
         const at = req.at !== undefined ? ms(req.at) : f.at;
-        if (req.at !== undefined) {
-          const row = requireQuestionRow(f.question_id);
-          refuseAll([...pastLine(at, 'at', 'a revision'), ...openingLine(at, row.opened_at, row.time_zone, 'at')]);
-        }
+        const row = requireQuestionRow(f.question_id);
+        const shape = shapeOfRow(row);
+        const problems = issueLines(entryIssues(shape, req, false));
+        if (req.at !== undefined) problems.push(...pastLine(at, 'at', 'a revision'), ...openingLine(at, row.opened_at, row.time_zone, 'at'));
+        refuseAll(problems);
+        // A value left out stays as it was.
+        const given = req.p !== undefined || req.probs !== undefined || req.quantiles !== undefined;
+        const value = given ? storedValuesOf(shape, req) : { p: f.p, values: shape.type === 'binary' ? [] : qs.forecastValues(write, f.id) };
         undo = tracked('updateForecast', questionId, () => {
-          qs.updateForecastRow(write, { id: f.id, at, p: req.p ?? f.p, note: req.note ?? f.note });
+          qs.updateForecastRow(write, { id: f.id, at, ...value, note: req.note ?? f.note });
           if (req.lenses) qs.replaceLenses(write, f.id, req.lenses as Lens[]);
           qs.touchQuestion(write, f.question_id, now());
         });
@@ -692,12 +850,15 @@ export function createDiary(ctx: DiaryContext) {
     addReference: (req) => {
       let undo = '';
       transact(() => {
-        requireQuestionRow(req.question_id);
+        const row = requireQuestionRow(req.question_id);
         const at = req.at !== undefined ? ms(req.at) : now();
+        const problems = issueLines(entryIssues(shapeOfRow(row), req));
         // An outside view may be older than the question (the client's number from last year): only the future is refused.
-        if (req.at !== undefined) refuseAll(pastLine(at, 'at', 'a reference forecast'));
+        if (req.at !== undefined) problems.push(...pastLine(at, 'at', 'a reference forecast'));
+        refuseAll(problems);
+        const value = storedValuesOf(shapeOfRow(row), req);
         undo = tracked('addReference', req.question_id, () => {
-          qs.insertReference(write, { id: randomUUID(), question_id: req.question_id, at, p: req.p, source: req.source });
+          qs.insertReference(write, { id: randomUUID(), question_id: req.question_id, at, ...value, source: req.source });
           qs.touchQuestion(write, req.question_id, now());
         });
       });
@@ -725,10 +886,11 @@ export function createDiary(ctx: DiaryContext) {
         const row = requireQuestionRow(req.id);
         const stamp = now();
         const at = req.at !== undefined ? ms(req.at) : stamp;
-        const outcome = req.outcome as Outcome;
+        const outcome = req.outcome as AnyOutcome;
         const note = req.note ?? '';
         const current = qs.resolutionRow(write, req.id);
-        const problems: string[] = [];
+        const shape = shapeOfRow(row);
+        const problems = issueLines(resolutionIssues(shape, req));
         if (req.at !== undefined) problems.push(...pastLine(at, 'at', 'a resolution'));
         problems.push(...openingLine(at, row.opened_at, row.time_zone, 'at'));
         if (req.correction_note !== undefined && !current) {
@@ -742,11 +904,18 @@ export function createDiary(ctx: DiaryContext) {
         }
         undo = tracked('resolveQuestion', req.id, () => {
           // Resolving again with the same outcome, time and note and no reason changes nothing (a second click).
-          const same = current !== undefined && current.outcome === outcome && current.at === at && current.note === note;
+          const { option, value } = storedOutcome(shape, req);
+          const same =
+            current !== undefined &&
+            current.outcome === outcome &&
+            current.option === option &&
+            current.value === value &&
+            current.at === at &&
+            current.note === note;
           if (!same || req.correction_note) {
             // A correction keeps the resolution it replaces.
             if (current) qs.archiveResolution(write, req.id, 'corrected', req.correction_note ?? '', stamp);
-            qs.upsertResolution(write, { question_id: req.id, outcome, at, note, recorded_at: stamp });
+            qs.upsertResolution(write, { question_id: req.id, outcome, at, note, recorded_at: stamp, option, value });
           }
           nudgeStore.clearSnoozes(write, req.id);
           qs.touchQuestion(write, req.id, stamp);
@@ -810,6 +979,7 @@ export function createDiary(ctx: DiaryContext) {
           due_at: toIso(n.due_at),
           closes_at: toIso(q.closes_at),
           time_zone: q.time_zone,
+          type: q.type,
           last_p: last?.p ?? null,
           last_forecast_at: last ? toIso(last.at) : null,
           stale: stale(q, last, s, at),
@@ -891,17 +1061,31 @@ export function createDiary(ctx: DiaryContext) {
       const questions = scoringInput(req);
       const options = scoreOptions(req);
       const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
-      return { report: computeScoreReport(questions, options), detail, leads: referenceLeads(questions, options) };
+      const { choice, numeric } = typedScoringInput();
+      return {
+        report: scoreJson(req),
+        detail,
+        leads: referenceLeads(questions, options),
+        choice_detail: computeChoiceDetail(choice, options),
+        numeric_detail: computeNumericDetail(numeric, options),
+      };
     },
 
     hindsight: (req) => {
       const questions = scoringInput({});
       const options = scoreOptions(req);
       const t = now();
-      const details = (ids: string[]) => qs.loadBundles(read, ids).map((b) => qs.toQuestion(b, t));
+      const typed = typedScoringInput();
       const offset = req.offset ?? 0;
-      const page = confidentCalls(questions, options, req.threshold, req.include_hits, details, { offset, limit: req.limit });
-      return { threshold: req.threshold, offset, ...page, report: computeScoreReport(questions, options) };
+      const page = confidentCalls(questions, options, req.threshold, req.include_hits, detailsOf(isBinary, t), { offset, limit: req.limit });
+      return {
+        threshold: req.threshold,
+        offset,
+        ...page,
+        choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
+        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
+        report: computeScoreReport(questions, options),
+      };
     },
 
     briefing: (req) => {
@@ -910,6 +1094,7 @@ export function createDiary(ctx: DiaryContext) {
       const options = scoreOptions({ tag: req.tag });
       const t = now();
       const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
+      const typed = typedScoringInput();
       const html = renderBriefing({
         tag: req.tag ?? null,
         generated_at: now(),
@@ -917,6 +1102,8 @@ export function createDiary(ctx: DiaryContext) {
         report: computeScoreReport(questions, options),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
+        choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)),
+        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
       });
       return { html, title: briefingTitle(req.tag ?? null) };
     },
@@ -932,7 +1119,7 @@ export function createDiary(ctx: DiaryContext) {
     exportFile,
     importText,
     importFile,
-    scoreReport: (req: ValidRequest<'score'>) => computeScoreReport(scoringInput(req), scoreOptions(req)),
+    scoreReport: scoreJson,
   };
 }
 

@@ -7,10 +7,11 @@
  * Reads the tables of main/store/migrations.ts directly; a schema change must update these
  * queries too (and a table added for a question's data, the file format with them). The caller holds the read transaction that makes the batches one snapshot.
  */
-import type { Lens, Outcome, QuestionKind, ResolutionChangeKind } from '../../shared/domain';
+import type { Lens, Outcome, Question, QuestionKind, QuestionType, ResolutionChangeKind } from '../../shared/domain';
 import type { ExportedQuestion } from '../../shared/diary-file';
 import { toIso } from '../../shared/time';
 import type { Db } from '../store/open';
+import { loadBundles, toQuestion } from '../store/questions';
 
 type QuestionTuple = [
   id: string,
@@ -25,6 +26,7 @@ type QuestionTuple = [
   false_alarm_cost: number | null,
   miss_cost: number | null,
   checkin_days: number | null,
+  type: QuestionType,
 ];
 
 /** Rows of `table` for the batch's questions, each with its question's position in the batch. */
@@ -55,7 +57,9 @@ export function isoFormatter(): (ms: number) => string {
 const NO_LENSES: Lens[] = [];
 
 /** Likewise the history of a question never corrected or reopened (replaced, never pushed to). */
-const NO_HISTORY: ExportedQuestion['resolution_history'] = [];
+const NO_HISTORY: BinaryExport['resolution_history'] = [];
+
+type BinaryExport = Extract<ExportedQuestion, { type: 'binary' }>;
 
 /**
  * Reads questions as the export writes them. `always` reads lenses and resolution
@@ -86,9 +90,11 @@ function exportReader(db: Db, always: boolean) {
 
   /** The questions of `rows` (in that order), whole. */
   return (rows: QuestionTuple[]): ExportedQuestion[] => {
+    // Every question is first read as a yes/no one; the others are replaced below.
     const ids = JSON.stringify(rows.map((r) => r[0]));
-    const batch = rows.map(
-      ([id, title, rule, kind, opened, closes, time_zone, base_rate, base_rate_note, falseAlarm, miss, checkin_days]): ExportedQuestion => ({
+    const batch: BinaryExport[] = rows.map(
+      ([id, title, rule, kind, opened, closes, time_zone, base_rate, base_rate_note, falseAlarm, miss, checkin_days]): BinaryExport => ({
+        type: 'binary',
         id,
         title,
         rule,
@@ -129,12 +135,27 @@ function exportReader(db: Db, always: boolean) {
         q.resolution_history.push({ outcome, at: iso(at), note, recorded_at: iso(recorded), replaced_at: iso(replaced), change, change_note });
       }
     }
-    return batch;
+    // Choice and numeric questions (fewer, and with values in their own tables) are read whole,
+    // as the API reads them, in place of what the yes/no reading above made of them.
+    const typed = rows.filter((r) => r[12] !== 'binary').map((r) => r[0]);
+    if (typed.length === 0) return batch;
+    const whole = new Map(loadBundles(db, typed).map((b) => [b.row.id, exported(toQuestion(b, 0))]));
+    return rows.map((r, k) => whole.get(r[0]) ?? batch[k]!);
   };
 }
 
 const QUESTION_SELECT =
-  'SELECT id, title, rule, kind, opened_at, closes_at, time_zone, base_rate, base_rate_note, false_alarm_cost, miss_cost, checkin_days FROM questions';
+  'SELECT id, title, rule, kind, opened_at, closes_at, time_zone, base_rate, base_rate_note, false_alarm_cost, miss_cost, checkin_days, type FROM questions';
+
+/** A whole question as the export writes it: without its internal ids, entry order, snoozes and stamps. */
+function exported(q: Question): ExportedQuestion {
+  const { snoozes: _snoozes, created_at: _created, updated_at: _updated, ...rest } = q;
+  return {
+    ...rest,
+    forecasts: q.forecasts.map(({ id: _id, seq: _seq, ...f }) => f),
+    references: q.references.map(({ id: _id, ...r }) => r),
+  } as ExportedQuestion;
+}
 
 /** The questions in export order, `size` at a time. */
 export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion[]> {

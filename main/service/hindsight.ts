@@ -4,7 +4,7 @@
  * forecasts count, the final forecast, the window end) come from shared/scoring, once.
  */
 import type { HindsightEntry, ReferenceLeadSummary } from '../../shared/contract';
-import type { Question } from '../../shared/domain';
+import type { BinaryQuestion } from '../../shared/domain';
 import { confidentVerdict, prepareScoredSet, referenceLead, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { toIso } from '../../shared/time';
 
@@ -18,7 +18,7 @@ export function confidentCalls(
   options: ScoreOptions,
   threshold: number,
   includeHits: boolean,
-  details: (ids: string[]) => Question[],
+  details: (ids: string[]) => BinaryQuestion[],
   page: { offset: number; limit?: number } = { offset: 0 },
 ): { entries: HindsightEntry[]; misses: number; hits: number } {
   const set = prepareScoredSet(scoring, options);

@@ -2,7 +2,7 @@
  * The nudge planner and scheduler (main/nudges) wired to the diary file: which questions
  * are unresolved, what is snoozed, what was delivered.
  */
-import type { Question, QuestionKind, Settings } from '../../shared/domain';
+import type { Question, QuestionKind, QuestionType, Settings } from '../../shared/domain';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../shared/time';
 import { activeSnoozes, countDueQuestions, planNudges, type Nudge, type NudgeKind, type PlanQuestion, type Snooze } from '../nudges/plan';
 import { createScheduler, type Scheduler, type SchedulerPorts } from '../nudges/scheduler';
@@ -23,11 +23,15 @@ export function unresolvedQuestions(store: StoreHandles, now: number): Question[
 /** An unresolved question as planning and the due list see it: no history, only its latest revision. */
 export interface DueQuestion extends PlanQuestion {
   kind: QuestionKind;
-  /** Probability of the latest revision (latest time; same time: entered last), null when there is none. */
+  type: QuestionType;
+  /**
+   * Probability of the latest revision (latest time; same time: entered last), null when
+   * there is none or the question is not yes/no (check-ins count revisions of every type).
+   */
   last_p: number | null;
 }
 
-type DueRow = [string, string, QuestionKind, number, number, string, number | null, number | null, number | null];
+type DueRow = [string, string, QuestionKind, number, number, string, number | null, number | null, number | null, QuestionType];
 
 /**
  * Every unresolved question with its latest revision, in one query: the latest revision is
@@ -37,7 +41,7 @@ type DueRow = [string, string, QuestionKind, number, number, string, number | nu
 export function dueQuestions(db: Db): DueQuestion[] {
   const rows = db
     .prepare(
-      `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.p
+      `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.p, q.type
        FROM questions q
        LEFT JOIN resolutions r ON r.question_id = q.id
        LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
@@ -45,10 +49,11 @@ export function dueQuestions(db: Db): DueQuestion[] {
     )
     .raw()
     .all() as DueRow[];
-  return rows.map(([id, title, kind, opened, closes, zone, checkinDays, lastAt, lastP]) => ({
+  return rows.map(([id, title, kind, opened, closes, zone, checkinDays, lastAt, lastP, type]) => ({
     id,
     title,
     kind,
+    type,
     opened_at: opened,
     closes_at: closes,
     time_zone: zone,

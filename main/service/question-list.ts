@@ -10,7 +10,8 @@
  * from SQL, so the list and the Desk agree on it.
  */
 import type { ListSort, QuestionList, SortDirection, ValidRequest } from '../../shared/contract';
-import type { Outcome, QuestionKind, QuestionStatus, QuestionSummary, Settings } from '../../shared/domain';
+import type { AnyOutcome, QuestionKind, QuestionStatus, QuestionSummary, QuestionType, Settings, ValueKind } from '../../shared/domain';
+import { fromStoredValue } from '../../shared/numeric-value';
 import { QUESTION_STATUSES } from '../../shared/domain';
 import { toIso } from '../../shared/time';
 import { checkinAt } from '../nudges/plan';
@@ -82,13 +83,16 @@ function orderBy(sort: ListSort, direction: SortDirection): string {
 interface PageRow {
   id: string;
   title: string;
+  type: QuestionType;
+  unit: string | null;
+  value_kind: ValueKind | null;
   kind: QuestionKind;
   opened_at: number;
   closes_at: number;
   time_zone: string;
   base_rate: number | null;
   checkin_days: number | null;
-  outcome: Outcome | null;
+  outcome: AnyOutcome | null;
   last_p: number | null;
   last_at: number | null;
   status: number;
@@ -115,13 +119,14 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
   }
   const text = req.text?.trim();
   if (text) {
-    // Title, rule, tags and the notes written with revisions; LIKE's own wildcards in the
+    // Title, rule, tags, a choice question's options and the notes written with revisions; LIKE's own wildcards in the
     // text are taken literally. SQLite's LIKE ignores case for A–Z as its lower() does, so
     // the columns are compared as they are (no function call per row).
     params.like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     where.push(
       `(q.title LIKE @like ESCAPE '\\' OR q.rule LIKE @like ESCAPE '\\'
         OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE @like ESCAPE '\\')
+        OR q.id IN (SELECT question_id FROM question_options WHERE label LIKE @like ESCAPE '\\')
         OR q.id IN (SELECT question_id FROM forecasts WHERE note <> '' AND note LIKE @like ESCAPE '\\'))`,
     );
   }
@@ -160,7 +165,7 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
         (
           read
             .prepare(
-              `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome, f.p AS last_p, f.at AS last_at
+              `SELECT q.id, q.title, q.type, q.unit, q.value_kind, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome, f.p AS last_p, f.at AS last_at
                FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id
                LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
                WHERE q.id IN (SELECT value FROM json_each(?))`,
@@ -172,22 +177,35 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
       const ids = rows.map((r) => r.id);
       const tags = qs.tagsOf(read, ids);
       const counts = qs.forecastCountsOf(read, ids);
-      const questions = rows.map((r): QuestionSummary => ({
-        id: r.id,
-        title: r.title,
-        kind: r.kind,
-        tags: tags.get(r.id) ?? [],
-        opened_at: toIso(r.opened_at),
-        closes_at: toIso(r.closes_at),
-        time_zone: r.time_zone,
-        base_rate: r.base_rate,
-        last_p: r.last_p,
-        last_forecast_at: r.last_at === null ? null : toIso(r.last_at),
-        forecast_count: counts.get(r.id) ?? 0,
-        status: QUESTION_STATUSES[r.status]!,
-        outcome: r.outcome,
-        stale: !r.outcome && ctx.stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null),
-      }));
+      // Choice and numeric questions' options, levels and last values, for the page's.
+      const typed = qs.summaryTypeRows(read, rows.filter((r) => r.type !== 'binary').map((r) => r.id));
+      const questions = rows.map((r): QuestionSummary => {
+        const extra = typed.get(r.id);
+        const kind: ValueKind = r.value_kind ?? 'number';
+        return {
+          id: r.id,
+          title: r.title,
+          type: r.type,
+          kind: r.kind,
+          tags: tags.get(r.id) ?? [],
+          opened_at: toIso(r.opened_at),
+          closes_at: toIso(r.closes_at),
+          time_zone: r.time_zone,
+          base_rate: r.base_rate,
+          last_p: r.last_p,
+          options: r.type === 'choice' ? (extra?.options ?? []) : null,
+          last_probs: r.type === 'choice' && extra?.last.length ? extra.last : null,
+          unit: r.type === 'numeric' ? (r.unit ?? '') : null,
+          value_kind: r.type === 'numeric' ? kind : null,
+          levels: r.type === 'numeric' ? (extra?.levels ?? []) : null,
+          last_quantiles: r.type === 'numeric' && extra?.last.length ? extra.last.map((x) => fromStoredValue(x, kind)) : null,
+          last_forecast_at: r.last_at === null ? null : toIso(r.last_at),
+          forecast_count: counts.get(r.id) ?? 0,
+          status: QUESTION_STATUSES[r.status]!,
+          outcome: r.outcome,
+          stale: !r.outcome && ctx.stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null),
+        };
+      });
       return { questions, tags: qs.allTagCounts(read), total: qs.questionCount(read), matched, offset, sort, direction };
     });
   } finally {

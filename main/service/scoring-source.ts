@@ -11,7 +11,7 @@
  * 0.1 + 0.2 as 0.3). A function called once per row receives each value as the double
  * SQLite holds and writes it into typed arrays.
  */
-import type { ForecastColumns, ScoringForecast, ScoringQuestion } from '../../shared/scoring';
+import type { ForecastColumns, ScoringChoiceQuestion, ScoringForecast, ScoringNumericQuestion, ScoringQuestion } from '../../shared/scoring';
 import { readSnapshot, type Db } from '../store/open';
 
 /** Revisions as parallel columns; row i belongs to the question at index `slot[i]` of the answer. */
@@ -78,7 +78,9 @@ function readRevisions(db: Db, slotOfRowid: Int32Array): RevisionRows {
   const rows = emptyRows(((db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null) ?? 0) + 1);
   holder.current = { slotOfRowid, rows };
   try {
-    db.prepare(`SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM forecasts f JOIN questions q ON q.id = f.question_id`).pluck().get();
+    db.prepare(`SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM forecasts f JOIN questions q ON q.id = f.question_id WHERE q.type = 'binary'`)
+      .pluck()
+      .get();
   } finally {
     holder.current = null;
   }
@@ -187,36 +189,130 @@ type QuestionRow = [
 ];
 
 /**
- * The whole diary as the engine's questions, from one consistent snapshot of the file.
- * Tags come in the question's order; references in time order, because the engine lets
- * the later of two same-time references stand.
+ * The diary's yes/no questions as the engine's questions, from one consistent snapshot of
+ * the file. Tags come in the question's order; references in time order, because the
+ * engine lets the later of two same-time references stand.
  */
 export function loadScoringQuestions(db: Db): ScoringQuestion[] {
-  return readSnapshot(db, () => {
-    const rows = db
-      .prepare(
-        `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
-         FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id`,
-      )
-      .raw()
-      .all() as QuestionRow[];
-    let maxRowid = 0;
-    for (const row of rows) maxRowid = Math.max(maxRowid, row[0]);
-    const slotOfRowid = new Int32Array(maxRowid + 1);
-    rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
-    const columns = columnsByQuestion(readRevisions(db, slotOfRowid), rows.length);
-    const questions: ScoringQuestion[] = rows.map(
-      ([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt], i) =>
-        new StoredQuestion(id, title, kind, closes, baseRate, fa !== null && miss !== null ? { false_alarm: fa, miss } : null, outcome ? { outcome, at: resolvedAt! } : null, [], columns[i]),
-    );
+  return readSnapshot(db, () => readBinary(db));
+}
 
-    // Tags and references are few: joined to their question by id through a map, which costs
-    // less than a join in SQL.
-    const slotOfId = new Map(rows.map((row, i) => [row[1], i]));
-    const tags = db.prepare('SELECT question_id, tag FROM question_tags ORDER BY question_id, position').raw().all() as [string, string][];
-    for (const [qid, tag] of tags) questions[slotOfId.get(qid)!]!.tags.push(tag);
-    const references = db.prepare('SELECT question_id, at, p FROM reference_forecasts ORDER BY question_id, at, seq').raw().all() as [string, number, number][];
-    for (const [qid, at, p] of references) questions[slotOfId.get(qid)!]!.references.push({ at, p });
-    return questions;
-  });
+/** Every question of the diary as the engine reads it, by type, from one snapshot. */
+export interface ScoringInput {
+  binary: ScoringQuestion[];
+  choice: ScoringChoiceQuestion[];
+  numeric: ScoringNumericQuestion[];
+}
+
+export function loadScoringInput(db: Db): ScoringInput {
+  return readSnapshot(db, () => ({ binary: readBinary(db), ...readTyped(db) }));
+}
+
+/**
+ * The choice and numeric questions, with their revisions' values as numbers (a numeric
+ * date question's as days since 1970-01-01, as stored). They are few beside the yes/no
+ * revisions, so they are read as rows.
+ */
+function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringNumericQuestion[] } {
+  type Row = [id: string, title: string, type: 'choice' | 'numeric', closes: number, ordered: number | null, unit: string | null, kind: 'number' | 'date' | null, outcome: string | null, at: number | null, option: number | null, value: number | null];
+  const rows = db
+    .prepare(
+      `SELECT q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'`,
+    )
+    .raw()
+    .all() as Row[];
+  const choice: ScoringChoiceQuestion[] = [];
+  const numeric: ScoringNumericQuestion[] = [];
+  if (rows.length === 0) return { choice, numeric };
+  const tags = new Map<string, string[]>();
+  const rates = new Map<string, (number | null)[]>();
+  const levels = new Map<string, number[]>();
+  const forecasts = new Map<string, { at: number; seq: number; values: number[] }[]>();
+  const push = <T>(map: Map<string, T[]>, key: string, item: T) => {
+    const list = map.get(key);
+    if (list) list.push(item);
+    else map.set(key, [item]);
+  };
+  const typed = `(SELECT id FROM questions WHERE type <> 'binary')`;
+  for (const [qid, tag] of db.prepare(`SELECT question_id, tag FROM question_tags WHERE question_id IN ${typed} ORDER BY question_id, position`).raw().all() as [string, string][]) {
+    push(tags, qid, tag);
+  }
+  for (const [qid, rate] of db.prepare('SELECT question_id, base_rate FROM question_options ORDER BY question_id, position').raw().all() as [string, number | null][]) {
+    push(rates, qid, rate);
+  }
+  for (const [qid, level] of db.prepare('SELECT question_id, level FROM question_levels ORDER BY question_id, position').raw().all() as [string, number][]) {
+    push(levels, qid, level);
+  }
+  // One row per value, a revision's values together and in order.
+  let revision = { at: 0, seq: -1, values: [] as number[] };
+  for (const [qid, seq, at, value] of db
+    .prepare('SELECT f.question_id, f.seq, f.at, v.value FROM forecasts f JOIN forecast_values v ON v.forecast_id = f.id ORDER BY f.seq, v.position')
+    .raw()
+    .all() as [string, number, number, number][]) {
+    if (revision.seq !== seq) {
+      revision = { at, seq, values: [] };
+      push(forecasts, qid, revision);
+    }
+    revision.values.push(value);
+  }
+  for (const [id, title, type, closes, ordered, unit, kind, outcome, at, option, value] of rows) {
+    const base = { id, title, tags: tags.get(id) ?? [], closes_at: closes };
+    const revisions = forecasts.get(id) ?? [];
+    if (type === 'choice') {
+      const stated = rates.get(id) ?? [];
+      choice.push({
+        ...base,
+        resolution: outcome === null ? null : outcome === 'option' ? { outcome: 'option', option: option!, at: at! } : { outcome: 'void', at: at! },
+        option_count: stated.length,
+        ordered: ordered === 1,
+        option_base_rates: stated.length > 0 && stated.every((r) => r !== null) ? (stated as number[]) : null,
+        forecasts: revisions.map((f) => ({ at: f.at, probs: f.values, seq: f.seq })),
+      });
+    } else {
+      numeric.push({
+        ...base,
+        resolution: outcome === null ? null : outcome === 'value' ? { outcome: 'value', value: value!, at: at! } : { outcome: 'void', at: at! },
+        unit: unit ?? '',
+        value_kind: kind ?? 'number',
+        levels: levels.get(id) ?? [],
+        forecasts: revisions.map((f) => ({ at: f.at, quantiles: f.values, seq: f.seq })),
+      });
+    }
+  }
+  return { choice, numeric };
+}
+
+function readBinary(db: Db): ScoringQuestion[] {
+  const rows = db
+    .prepare(
+      `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'`,
+    )
+    .raw()
+    .all() as QuestionRow[];
+  let maxRowid = 0;
+  for (const row of rows) maxRowid = Math.max(maxRowid, row[0]);
+  const slotOfRowid = new Int32Array(maxRowid + 1);
+  rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
+  const columns = columnsByQuestion(readRevisions(db, slotOfRowid), rows.length);
+  const questions: ScoringQuestion[] = rows.map(
+    ([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt], i) =>
+      new StoredQuestion(id, title, kind, closes, baseRate, fa !== null && miss !== null ? { false_alarm: fa, miss } : null, outcome ? { outcome, at: resolvedAt! } : null, [], columns[i]),
+  );
+
+  // Tags and references are few: joined to their question by id through a map, which costs
+  // less than a join in SQL.
+  const slotOfId = new Map(rows.map((row, i) => [row[1], i]));
+  const tags = db.prepare('SELECT question_id, tag FROM question_tags ORDER BY question_id, position').raw().all() as [string, string][];
+  for (const [qid, tag] of tags) {
+    const slot = slotOfId.get(qid);
+    if (slot !== undefined) questions[slot]!.tags.push(tag);
+  }
+  const references = db
+    .prepare(`SELECT question_id, at, p FROM reference_forecasts WHERE question_id IN (SELECT id FROM questions WHERE type = 'binary') ORDER BY question_id, at, seq`)
+    .raw()
+    .all() as [string, number, number][];
+  for (const [qid, at, p] of references) questions[slotOfId.get(qid)!]!.references.push({ at, p });
+  return questions;
 }

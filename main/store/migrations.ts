@@ -7,6 +7,13 @@ export interface Migration {
   version: number;
   description: string;
   sql: string;
+  /**
+   * The migration rebuilds tables that others reference (SQLite's ALTER TABLE cannot
+   * loosen a column's NOT NULL or CHECK): foreign keys are switched off around it, as
+   * SQLite's documented procedure asks, so dropping the old table cascades to nothing;
+   * every key is checked before it commits (main/store/open.ts migrate).
+   */
+  rebuildsTables?: boolean;
 }
 
 export const MIGRATIONS: readonly Migration[] = [
@@ -106,8 +113,7 @@ export const MIGRATIONS: readonly Migration[] = [
       );
     `,
   },
-  // Number 3 belongs to the multiple-choice and numeric question types, which land from
-  // their own line of work; 4 depends on nothing they add.
+  // Number 3 was never shipped: the question types came after 4, as 5.
   {
     version: 4,
     description: 'resolution history (corrections and reopenings) and the undo log',
@@ -140,6 +146,114 @@ export const MIGRATIONS: readonly Migration[] = [
         after_hash  TEXT NOT NULL
       );
       CREATE INDEX undo_log_recorded ON undo_log (recorded_at);
+    `,
+  },
+  {
+    version: 5,
+    description: 'question types: multiple-choice options, numeric units and quantile levels, forecast vectors, option and value resolutions',
+    rebuildsTables: true,
+    sql: `
+      -- A question's type, fixed when it is created (the trigger below); every existing question is yes/no.
+      ALTER TABLE questions ADD COLUMN type TEXT NOT NULL DEFAULT 'binary' CHECK (type IN ('binary', 'choice', 'numeric'));
+      -- Choice questions only: whether the options are ordered categories (0 or 1).
+      ALTER TABLE questions ADD COLUMN ordered INTEGER CHECK (ordered IS NULL OR ordered IN (0, 1));
+      -- Numeric questions only: the unit shown beside values ('' for none) and whether values are numbers or dates.
+      ALTER TABLE questions ADD COLUMN unit TEXT;
+      ALTER TABLE questions ADD COLUMN value_kind TEXT CHECK (value_kind IS NULL OR value_kind IN ('number', 'date'));
+      CREATE TRIGGER questions_type_fixed BEFORE UPDATE OF type ON questions WHEN NEW.type IS NOT OLD.type
+      BEGIN SELECT RAISE(ABORT, 'a question''s type is fixed when it is created'); END;
+      CREATE TRIGGER questions_type_fields_insert BEFORE INSERT ON questions
+      WHEN (NEW.type = 'choice') <> (NEW.ordered IS NOT NULL) OR (NEW.type = 'numeric') <> (NEW.unit IS NOT NULL AND NEW.value_kind IS NOT NULL)
+        OR (NEW.type <> 'binary' AND (NEW.base_rate IS NOT NULL OR NEW.false_alarm_cost IS NOT NULL))
+      BEGIN SELECT RAISE(ABORT, 'a question carries the fields of its own type only'); END;
+      CREATE TRIGGER questions_type_fields_update BEFORE UPDATE ON questions
+      WHEN (NEW.type = 'choice') <> (NEW.ordered IS NOT NULL) OR (NEW.type = 'numeric') <> (NEW.unit IS NOT NULL AND NEW.value_kind IS NOT NULL)
+        OR (NEW.type <> 'binary' AND (NEW.base_rate IS NOT NULL OR NEW.false_alarm_cost IS NOT NULL))
+      BEGIN SELECT RAISE(ABORT, 'a question carries the fields of its own type only'); END;
+
+      -- A choice question's options in order, each with its stated base rate (all or none, summing to 1: the service checks).
+      CREATE TABLE question_options (
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        position    INTEGER NOT NULL CHECK (position >= 0 AND position < 12),
+        label       TEXT NOT NULL CHECK (length(trim(label)) > 0),
+        base_rate   REAL CHECK (base_rate IS NULL OR (base_rate >= 0 AND base_rate <= 1)),
+        PRIMARY KEY (question_id, position),
+        UNIQUE (question_id, label)
+      );
+
+      -- A numeric question's quantile levels, ascending (shared/quantile-levels.ts).
+      CREATE TABLE question_levels (
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        position    INTEGER NOT NULL CHECK (position >= 0 AND position < 7),
+        level       REAL NOT NULL CHECK (level IN (0.05, 0.1, 0.25, 0.5, 0.75, 0.9, 0.95)),
+        PRIMARY KEY (question_id, position)
+      );
+
+      -- Revisions and reference forecasts of choice and numeric questions have no single p:
+      -- both tables are rebuilt with p nullable, every row and the entry-order counter kept.
+      CREATE TABLE forecasts_v5 (
+        seq         INTEGER PRIMARY KEY AUTOINCREMENT,
+        id          TEXT NOT NULL UNIQUE,
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        at          INTEGER NOT NULL,
+        p           REAL CHECK (p IS NULL OR (p >= 0 AND p <= 1)),
+        note        TEXT NOT NULL DEFAULT ''
+      );
+      INSERT INTO forecasts_v5 (seq, id, question_id, at, p, note) SELECT seq, id, question_id, at, p, note FROM forecasts;
+      DELETE FROM sqlite_sequence WHERE name = 'forecasts_v5';
+      INSERT INTO sqlite_sequence (name, seq) SELECT 'forecasts_v5', seq FROM sqlite_sequence WHERE name = 'forecasts';
+      DROP TABLE forecasts;
+      ALTER TABLE forecasts_v5 RENAME TO forecasts;
+      CREATE INDEX forecasts_question ON forecasts (question_id, at, seq);
+
+      CREATE TABLE reference_forecasts_v5 (
+        seq         INTEGER PRIMARY KEY AUTOINCREMENT,
+        id          TEXT NOT NULL UNIQUE,
+        question_id TEXT NOT NULL REFERENCES questions (id) ON DELETE CASCADE,
+        at          INTEGER NOT NULL,
+        p           REAL CHECK (p IS NULL OR (p >= 0 AND p <= 1)),
+        source      TEXT NOT NULL
+      );
+      INSERT INTO reference_forecasts_v5 (seq, id, question_id, at, p, source) SELECT seq, id, question_id, at, p, source FROM reference_forecasts;
+      DELETE FROM sqlite_sequence WHERE name = 'reference_forecasts_v5';
+      INSERT INTO sqlite_sequence (name, seq) SELECT 'reference_forecasts_v5', seq FROM sqlite_sequence WHERE name = 'reference_forecasts';
+      DROP TABLE reference_forecasts;
+      ALTER TABLE reference_forecasts_v5 RENAME TO reference_forecasts;
+      CREATE INDEX reference_forecasts_question ON reference_forecasts (question_id, at, seq);
+
+      -- A choice revision's probabilities (one per option) or a numeric revision's quantiles
+      -- (one per level; dates as days since 1970-01-01), in order; as numbers, bit for bit.
+      CREATE TABLE forecast_values (
+        forecast_id TEXT NOT NULL REFERENCES forecasts (id) ON DELETE CASCADE,
+        position    INTEGER NOT NULL CHECK (position >= 0),
+        value       REAL NOT NULL,
+        PRIMARY KEY (forecast_id, position)
+      );
+      CREATE TABLE reference_values (
+        reference_id TEXT NOT NULL REFERENCES reference_forecasts (id) ON DELETE CASCADE,
+        position     INTEGER NOT NULL CHECK (position >= 0),
+        value        REAL NOT NULL,
+        PRIMARY KEY (reference_id, position)
+      );
+
+      -- Resolutions gain the option that came true (choice) and the value taken (numeric; dates as days).
+      CREATE TABLE resolutions_v5 (
+        question_id TEXT PRIMARY KEY REFERENCES questions (id) ON DELETE CASCADE,
+        outcome     TEXT NOT NULL CHECK (outcome IN ('yes', 'no', 'void', 'option', 'value')),
+        at          INTEGER NOT NULL,
+        note        TEXT NOT NULL DEFAULT '',
+        recorded_at INTEGER NOT NULL,
+        option      INTEGER CHECK (option IS NULL OR option >= 0),
+        value       REAL,
+        CHECK ((outcome = 'option') = (option IS NOT NULL)),
+        CHECK ((outcome = 'value') = (value IS NOT NULL))
+      );
+      INSERT INTO resolutions_v5 (question_id, outcome, at, note, recorded_at) SELECT question_id, outcome, at, note, recorded_at FROM resolutions;
+      DROP TABLE resolutions;
+      ALTER TABLE resolutions_v5 RENAME TO resolutions;
+
+      ALTER TABLE resolution_history ADD COLUMN option INTEGER;
+      ALTER TABLE resolution_history ADD COLUMN value REAL;
     `,
   },
 ];

@@ -17,6 +17,7 @@ import { forEachScored, type QuestionCounts } from './counting';
 import { wilsonInterval } from './intervals';
 import { skillScore } from './skill';
 import type {
+  ChoiceConfidentCall,
   ChoiceConfidentMiss,
   ChoiceDetail,
   ChoiceQuestionRow,
@@ -211,21 +212,64 @@ function optionBins(set: ChoiceScoredSet): ChoiceReport['bins'] {
 }
 
 /**
- * Confident misses (SCORING.md): the top choice had ≥ 0.8 (the yes/no threshold,
- * compared as stated) and did not come true. Worst first: highest p, ties by id in code
- * units (not locale) so the output is stable.
+ * Confident calls at `threshold` (SCORING.md "Confident miss": the top choice had ≥ 0.8,
+ * the threshold compared as stated, and did not come true; a hit when it did). Misses
+ * first, then hits; within each the highest p first, ties by id in code units (not
+ * locale) so the output is stable.
  */
-function choiceConfidentMisses(set: ChoiceScoredSet, s: ChoiceScores): ChoiceConfidentMiss[] {
-  const misses: ChoiceConfidentMiss[] = [];
+function choiceConfidentCalls(set: ChoiceScoredSet, s: ChoiceScores, threshold: number, includeHits: boolean): ChoiceConfidentCall[] {
+  const calls: ChoiceConfidentCall[] = [];
   for (let i = 0; i < set.n; i++) {
     const top = s.top[i]!;
     const p = s.topP[i]!;
-    if (p >= CONFIDENT_THRESHOLD && top !== set.outcome[i]) {
-      const q = set.questions[i]!;
-      misses.push({ id: q.id, title: q.title, option: top, p, outcome_option: set.outcome[i]! });
-    }
+    if (!(p >= threshold)) continue;
+    const verdict = top === set.outcome[i] ? 'hit' : 'miss';
+    if (verdict === 'hit' && !includeHits) continue;
+    const q = set.questions[i]!;
+    const off = set.offset[i]!;
+    calls.push({
+      id: q.id,
+      title: q.title,
+      option: top,
+      p,
+      outcome_option: set.outcome[i]!,
+      verdict,
+      outcome_p: set.p[off + set.outcome[i]!]!,
+      probs: Array.from(set.p.subarray(off, set.offset[i + 1]!)),
+      T: set.T[i]!,
+    });
   }
-  return misses.sort((a, b) => b.p - a.p || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  return calls.sort((a, b) => (a.verdict !== b.verdict ? (a.verdict === 'miss' ? -1 : 1) : b.p - a.p || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)));
+}
+
+/** The confident misses of `score --json`: the calls above at the threshold of INTERFACES.md, in its members. */
+function choiceConfidentMisses(set: ChoiceScoredSet, s: ChoiceScores): ChoiceConfidentMiss[] {
+  return choiceConfidentCalls(set, s, CONFIDENT_THRESHOLD, false).map(({ id, title, option, p, outcome_option }) => ({ id, title, option, p, outcome_option }));
+}
+
+/**
+ * Hindsight's and the briefing's confident calls on choice questions: the top choice's
+ * final probability at or above `threshold` and another option came true (a miss), or
+ * it came true (a hit, only with `includeHits`). Same filters and counting rules as
+ * `computeChoiceReport`; at the default threshold the misses are its `confident_misses`.
+ *
+ * @param questions choice questions (forecasts in any order)
+ * @param filter tag and inclusive bounds on the window end T (epoch ms)
+ * @param threshold from 0.5 to 1
+ * @param includeHits also list the confident calls that came true
+ * @throws RangeError for a threshold outside [0.5, 1] or any invalid question
+ */
+export function computeChoiceConfidentCalls(
+  questions: readonly ScoringChoiceQuestion[],
+  filter: ScoreFilter,
+  threshold: number = CONFIDENT_THRESHOLD,
+  includeHits = false,
+): ChoiceConfidentCall[] {
+  if (!(threshold >= 0.5 && threshold <= 1)) {
+    throw new RangeError(`computeChoiceConfidentCalls: threshold is ${String(threshold)}; give a probability from 0.5 to 1, such as 0.8.`);
+  }
+  const set = prepareChoiceSet(questions, filter);
+  return choiceConfidentCalls(set, scoreChoiceSet(set), threshold, includeHits);
 }
 
 /**

@@ -16,7 +16,7 @@ export {
   type ScoredSet,
 } from './counting';
 export { choiceLogScore, multiCategoryBrier, rankedProbabilityScore, topChoice } from './choice';
-export { computeChoiceDetail, computeChoiceReport, prepareChoiceSet, type ChoiceScoredSet } from './choice-report';
+export { computeChoiceConfidentCalls, computeChoiceDetail, computeChoiceReport, prepareChoiceSet, type ChoiceScoredSet } from './choice-report';
 export {
   centralIntervals,
   intervalScore,
@@ -26,7 +26,7 @@ export {
   weightedIntervalScore,
   type CentralInterval,
 } from './quantile';
-export { computeNumericDetail, computeNumericReport, prepareNumericSet, type NumericScoredSet } from './numeric-report';
+export { computeNumericDetail, computeNumericReport, computeNumericSurprises, prepareNumericSet, type NumericScoredSet } from './numeric-report';
 export {
   LOG_CLIP_HIGH,
   LOG_CLIP_LOW,

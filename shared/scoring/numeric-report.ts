@@ -25,6 +25,7 @@ import type {
   ScoreFilter,
   ScoringNumericQuestion,
   Surprise,
+  SurpriseDetail,
 } from './types';
 import { assertFinite, describeQuestion, failQuestion } from './validate';
 
@@ -281,8 +282,8 @@ function relativeWisVsFirst(s: NumericScores): number | null {
  * distance outside / width, null for a zero-width interval. Zero-width ones first, then
  * largest size; ties by id in code units so the output is stable.
  */
-function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
-  const out: Surprise[] = [];
+function surpriseDetails(set: NumericScoredSet, s: NumericScores): SurpriseDetail[] {
+  const out: SurpriseDetail[] = [];
   for (let i = 0; i < set.n; i++) {
     const c = s.intervals[i]![0];
     if (c === undefined) continue;
@@ -292,6 +293,7 @@ function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
     const y = set.y[i]!;
     if (y >= low && y <= high) continue;
     const width = high - low;
+    const distance = y < low ? low - y : y - high;
     const q = set.questions[i]!;
     out.push({
       id: q.id,
@@ -300,7 +302,11 @@ function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
       low,
       high,
       level: c.level,
-      size: width === 0 ? null : (y < low ? low - y : y - high) / width,
+      size: width === 0 ? null : distance / width,
+      distance,
+      side: y < low ? 'below' : 'above',
+      quantiles: Array.from(set.q.subarray(off, set.offset[i + 1]!)),
+      T: set.T[i]!,
     });
   }
   return out.sort((a, b) => {
@@ -310,6 +316,25 @@ function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
     }
     return b.size - a.size || byId(a, b);
   });
+}
+
+/** The surprises of `score --json`, in its members. */
+function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
+  return surpriseDetails(set, s).map(({ id, title, value, low, high, level, size }) => ({ id, title, value, low, high, level, size }));
+}
+
+/**
+ * Hindsight's and the briefing's numeric surprises: the `surprises` of
+ * `computeNumericReport` (same filters, counting rules and order) with how far outside
+ * the range each outcome fell, in the question's unit, and the final forecast's values.
+ *
+ * @param questions numeric questions (forecasts in any order)
+ * @param filter tag and inclusive bounds on the window end T (epoch ms)
+ * @throws RangeError naming the question and field for any invalid input
+ */
+export function computeNumericSurprises(questions: readonly ScoringNumericQuestion[], filter: ScoreFilter): SurpriseDetail[] {
+  const set = prepareNumericSet(questions, filter);
+  return surpriseDetails(set, scoreNumericSet(set));
 }
 
 /**

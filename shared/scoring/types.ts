@@ -244,6 +244,21 @@ export interface ChoiceConfidentMiss {
   outcome_option: number;
 }
 
+/**
+ * A confident call on a choice question at a chosen threshold, for Hindsight and the
+ * briefing (not part of the CLI JSON): a miss when the top choice did not come true, a
+ * hit when it did.
+ */
+export interface ChoiceConfidentCall extends ChoiceConfidentMiss {
+  verdict: 'miss' | 'hit';
+  /** The final probability of the option that came true. */
+  outcome_p: number;
+  /** The final counting forecast, one probability per option. */
+  probs: number[];
+  /** Window end T, epoch ms. */
+  T: number;
+}
+
 /** The `choice` member of `score --json` (INTERFACES.md §2). */
 export interface ChoiceReport {
   scored: number;
@@ -376,6 +391,21 @@ export interface Surprise {
   level: number;
   /** Distance outside the interval divided by its width; null for a zero-width interval. */
   size: number | null;
+}
+
+/**
+ * A surprise with what Hindsight and the briefing show beside it (not part of the CLI
+ * JSON): how far outside the range the outcome fell, in the question's unit (days for a
+ * date), on which side, and the final forecast's values.
+ */
+export interface SurpriseDetail extends Surprise {
+  /** y − high above the range, low − y below it; always > 0. */
+  distance: number;
+  side: 'below' | 'above';
+  /** The final counting forecast, one value per level. */
+  quantiles: number[];
+  /** Window end T, epoch ms. */
+  T: number;
 }
 
 /** The `numeric` member of `score --json` (INTERFACES.md §2). */

@@ -14,6 +14,10 @@
  *     keystroke until the list shows its answer, a Scorecard tag change, and the DOM node
  *     count of each screen. Targets (issue 11): each screen ≤ 300 ms and a keystroke
  *     ≤ 100 ms at 10,000 questions; every screen within 1 s at 100,000.
+ * Then a mixed diary of 10,000 questions (yes/no, choice and numeric; make-diary.ts
+ * buildMixedDiaryFile): import, export, `score --json`, and the engine's time for all three
+ * types' reports in process (issue 9's target: within 150 ms); `npm run bench -- --mixed`
+ * measures only that diary.
  * Whole-process figures are medians of 5 (3 at 100,000), in-process and per-call ones of 5,
  * browser ones of 5 (1 at 100,000); the load average before and after is printed because
  * other work on the machine inflates them.
@@ -27,10 +31,10 @@ import os from 'node:os';
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import readline from 'node:readline';
-import { loadScoringQuestions } from '../../main/service/scoring-source';
+import { loadScoringInput, loadScoringQuestions } from '../../main/service/scoring-source';
 import { openDiary } from '../../main/service/index';
-import { computeScoreReport, type ScoreReport } from '../../shared/scoring';
-import { BENCH_TAGS, buildDiaryFile } from './make-diary';
+import { computeChoiceReport, computeNumericReport, computeScoreReport, type ScoreReport } from '../../shared/scoring';
+import { BENCH_TAGS, buildDiaryFile, buildMixedDiaryFile } from './make-diary';
 
 // The little of the DOM the functions run inside the page use (this file is type-checked without the DOM library).
 declare const document: { querySelector(selector: string): { textContent: string | null } | null; querySelectorAll(selector: string): { length: number } };
@@ -310,9 +314,72 @@ async function measureScreens(dbPath: string, rows: Map<string, Row>): Promise<n
   return size;
 }
 
+/** The mixed diary's size: the engine must stay within 150 ms on it (issue 9). */
+const MIXED = 10_000;
+
+/**
+ * A mixed diary of 10,000 questions (a third each yes/no, choice and numeric; 20 revisions
+ * each): import, export, `score --json` as whole processes, and the scoring engine in
+ * process, all three types' reports (what `score --json` computes) on the same input.
+ */
+function measureMixed(put: (label: string, value: string) => void): void {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-bench-mixed-'));
+  const say = (what: string) => process.stderr.write(`[mixed ${MIXED.toLocaleString('en')}] ${what}…\n`);
+  try {
+    const dbPath = path.join(dir, 'mixed.sqlite');
+    const file = path.join(dir, 'mixed.json');
+    say('generating and importing');
+    fs.writeFileSync(file, JSON.stringify(buildMixedDiaryFile(MIXED, REVISIONS_PER_QUESTION)));
+    put('import JSON (whole process)', ms(forelog('import', file, '--db', dbPath).ms));
+    say('exporting');
+    put('export JSON (whole process)', ms(forelog('export', path.join(dir, 'export.json'), '--db', dbPath).ms));
+    put('export CSV (whole process)', ms(forelog('export', path.join(dir, 'export.csv'), '--format', 'csv', '--db', dbPath).ms));
+    say('scoring');
+    put('score --json (whole process)', ms(repeat(5, () => forelog('score', '--json', '--db', dbPath)).median));
+
+    const service = openDiary({ dbPath });
+    try {
+      const t0 = performance.now();
+      const { binary, choice, numeric } = loadScoringInput(service.store.read);
+      put('reading the diary for scoring, all three types (in process)', ms(performance.now() - t0));
+      const costs = { default_costs: { false_alarm: 1, miss: 1 } };
+      const spans: number[] = [];
+      const cpu: number[] = [];
+      const parts = { binary: [] as number[], choice: [] as number[], numeric: [] as number[] };
+      for (let i = 0; i < 5; i++) {
+        const c0 = process.cpuUsage();
+        const t0 = performance.now();
+        computeScoreReport(binary, costs);
+        const t1 = performance.now();
+        computeChoiceReport(choice, {});
+        const t2 = performance.now();
+        computeNumericReport(numeric, {});
+        const t3 = performance.now();
+        const used = process.cpuUsage(c0);
+        cpu.push((used.user + used.system) / 1000);
+        spans.push(t3 - t0);
+        parts.binary.push(t1 - t0);
+        parts.choice.push(t2 - t1);
+        parts.numeric.push(t3 - t2);
+      }
+      put(
+        `scoring engine, all three reports (in process; target ≤ 150 ms)`,
+        `${ms(median(spans))}, CPU ${ms(median(cpu))} (yes/no ${ms(median(parts.binary))}, choice ${ms(median(parts.choice))}, numeric ${ms(median(parts.numeric))}; ${binary.length.toLocaleString('en')} + ${choice.length.toLocaleString('en')} + ${numeric.length.toLocaleString('en')} questions)`,
+      );
+    } finally {
+      service.close();
+    }
+  } finally {
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 async function main(): Promise<void> {
+  // `--mixed` measures the mixed diary alone (a quick check of the engine on every type);
+  // `--screens FILE` only the screens on an existing diary.
+  const mixedOnly = process.argv.includes('--mixed');
   const screensAt = process.argv.indexOf('--screens');
-  const sizes = process.argv.includes('--large') ? [1_000, 10_000, 100_000] : [1_000, 10_000];
+  const sizes = mixedOnly ? [] : process.argv.includes('--large') ? [1_000, 10_000, 100_000] : [1_000, 10_000];
   process.stderr.write('Building the command line and the screens (npm run build)…\n');
   const built = spawnSync('npm', ['run', '--silent', 'build'], { cwd: ROOT, stdio: ['ignore', 'ignore', 'inherit'] });
   if (built.status !== 0) throw new Error('npm run build failed (messages above)');
@@ -326,6 +393,9 @@ async function main(): Promise<void> {
     for (const size of sizes) await measure(size, rows);
   }
 
+  const mixed = new Map<string, string>();
+  if (screensAt < 0) measureMixed((label, value) => mixed.set(label, value));
+
   const cpus = os.cpus();
   const header = ['', ...sizes.map((s) => `${s.toLocaleString('en')} questions`)];
   const body = [...rows].map(([label, values]) => [label, ...sizes.map((s) => values.get(s) ?? '—')]);
@@ -336,9 +406,14 @@ async function main(): Promise<void> {
       `Forelog benchmark, ${REVISIONS_PER_QUESTION} revisions per question`,
       `machine: ${cpus.length} × ${cpus[0]?.model ?? 'cpu'}, ${(os.totalmem() / 2 ** 30).toFixed(0)} GB, Node ${process.version}; load average ${loadBefore.toFixed(1)} before, ${os.loadavg()[0]!.toFixed(1)} after`,
       '',
-      line(header),
-      line(widths.map((w) => '-'.repeat(w))),
-      ...body.map(line),
+      ...(sizes.length ? [line(header), line(widths.map((w) => '-'.repeat(w))), ...body.map(line), ''] : []),
+      ...(mixed.size
+        ? [
+            `Mixed diary: ${MIXED.toLocaleString('en')} questions, a third each yes/no, choice (2–12 options) and numeric (3, 5 or 7 levels), ${REVISIONS_PER_QUESTION} revisions each`,
+            '',
+            ...[...mixed].map(([label, value]) => `- ${label}: ${value}`),
+          ]
+        : []),
     ].join('\n') + '\n',
   );
 }

@@ -12,7 +12,7 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import type { DueList } from '../../shared/contract';
-import type { Question } from '../../shared/domain';
+import type { BinaryQuestion, Question } from '../../shared/domain';
 import { openApp, useDiaryServer, type DiaryServer } from './serve';
 
 const server = useDiaryServer();
@@ -243,7 +243,7 @@ test('revising a check-in from the Desk saves the new number and clears the chec
     await expect(page.getByTestId('toast').filter({ hasText: `Revised “${TITLES.checkin}” to 60%.` })).toBeVisible();
     await expect(checkin).toHaveCount(0);
     await expectCount(page, 1);
-    const question = await call<Question>(server(), 'getQuestion', { id: ids.checkin });
+    const question = await call<BinaryQuestion>(server(), 'getQuestion', { id: ids.checkin });
     expect(question.forecasts.map((f) => f.p)).toEqual([0.9, 0.6]);
     expect(question.forecasts[1]?.note).toBe('The board moved the vote to next quarter.');
     expect(app.problems).toEqual([]);

@@ -8,7 +8,7 @@
  */
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import type { DueList } from '../../shared/contract';
-import type { Question } from '../../shared/domain';
+import type { BinaryQuestion, Question } from '../../shared/domain';
 import { apiCall, daysFromNow, expectNoSeriousViolations, fillQuickAdd } from './helpers';
 import { openApp, useDiaryServer } from './serve';
 
@@ -285,7 +285,7 @@ test('quick add records when a call was made: the opening and the first forecast
     await toast(page, 'Added “Client renews the support contract”.').getByRole('link', { name: 'Open the question' }).click();
     await expect(page.getByRole('heading', { level: 1 })).toHaveText('Client renews the support contract');
     const id = decodeURIComponent(page.url().split('#/questions/')[1]!);
-    const q = await call<Question>('getQuestion', { id });
+    const q = await call<BinaryQuestion>('getQuestion', { id });
     expect(q.opened_at).toBe(opened.toISOString());
     expect(q.forecasts.map((f) => [f.at, f.p])).toEqual([[opened.toISOString(), 0.65]]);
     expect(app.problems).toEqual([]);

@@ -9,7 +9,7 @@
  * is reached with F6.
  */
 import { expect, test, type Locator, type Page } from '@playwright/test';
-import type { Question, QuestionSummary } from '../../shared/domain';
+import type { BinaryQuestion, QuestionSummary } from '../../shared/domain';
 import { apiCall, expectNoSeriousViolations } from './helpers';
 import { openApp, useDiaryServer, type AppPage } from './serve';
 
@@ -123,7 +123,7 @@ test('0% and 100% are warned about and saved; 0.5 asks whether 50% was meant', a
   await dialog.getByRole('button', { name: 'Save question' }).click();
   await expect(dialog).toBeHidden();
   const list = await apiCall<{ questions: QuestionSummary[] }>(server().url, 'listQuestions', { text: 'ferry licence' });
-  const saved = await apiCall<Question>(server().url, 'getQuestion', { id: list.questions[0]!.id });
+  const saved = await apiCall<BinaryQuestion>(server().url, 'getQuestion', { id: list.questions[0]!.id });
   expect(saved.base_rate).toBe(1);
   expect(saved.forecasts.map((f) => f.p)).toEqual([0.005]);
 

@@ -14,7 +14,7 @@ import { briefingTitle, renderBriefing, wholePercent, escapeHtml, type BriefingI
 import { BRIEFING_STYLE_HASH } from '../../main/service/briefing-style';
 import { buildDemoDiary } from '../../main/service/demo';
 import { CONTENT_SECURITY_POLICY } from '../../main/shell/csp';
-import type { Question } from '../../shared/domain';
+import { isBinary, type BinaryQuestion } from '../../shared/domain';
 import type { ScoreReport, ScorecardDetail } from '../../shared/scoring';
 import { openTestDiary, type TestDiary } from '../support/temp-diary';
 
@@ -39,14 +39,17 @@ interface Loaded {
   diary: TestDiary;
   report: ScoreReport;
   detail: ScorecardDetail;
-  questions: Question[];
+  questions: BinaryQuestion[];
 }
 
 async function load(diary: TestDiary, tag: string | null): Promise<Loaded> {
   const { report, detail } = await diary.call('score', tag === null ? {} : { tag });
   const list = await diary.call('listQuestions', tag === null ? {} : { tag });
-  const questions: Question[] = [];
-  for (const q of list.questions) questions.push(await diary.call('getQuestion', { id: q.id }));
+  const questions: BinaryQuestion[] = [];
+  for (const q of list.questions) {
+    const question = await diary.call('getQuestion', { id: q.id });
+    if (isBinary(question)) questions.push(question);
+  }
   return { diary, report, detail, questions };
 }
 
@@ -64,6 +67,8 @@ function input(loaded: Loaded, tag: string | null, extra: Partial<BriefingInput>
     report: loaded.report,
     questions: loaded.questions,
     threshold: THRESHOLD,
+    choice_misses: [],
+    numeric_surprises: [],
     ...extra,
   };
 }
@@ -74,7 +79,7 @@ function escaped(text: string): string {
 }
 
 /** Window end T = min(close, resolution time) and the counting forecasts (SCORING.md "Which forecasts count"). */
-function counting(q: Question) {
+function counting(q: BinaryQuestion) {
   const T = Math.min(Date.parse(q.closes_at), Date.parse(q.resolution!.at));
   return q.forecasts.filter((f) => Date.parse(f.at) <= T).sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || a.seq - b.seq);
 }

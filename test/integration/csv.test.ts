@@ -10,7 +10,7 @@ import path from 'node:path';
 import { test } from 'node:test';
 import { ApiError } from '../../shared/contract';
 import { buildDemoDiary } from '../../main/service/demo';
-import { CSV_COLUMNS, CsvError, readCsvDiary, type CsvColumn } from '../../main/service/csv';
+import { CSV_ALL_COLUMNS, CSV_COLUMNS, CsvError, readCsvDiary, type CsvColumn } from '../../main/service/csv';
 import type { FileQuestion } from '../../shared/diary-file';
 import { openTestDiary, type TestDiary } from '../support/temp-diary';
 
@@ -117,7 +117,8 @@ test('export → CSV → import into a fresh diary → export gives identical qu
   // One header row, then one row per revision and per reference, or one row for a question with neither (docs/csv-format.md).
   const expectedRows = 1 + first.questions.reduce((n, q) => n + Math.max(1, q.forecasts.length + q.references.length), 0);
   assert.equal(pythonRows(csv).length, expectedRows);
-  assert.ok(csv.startsWith(`${HEADER}\r\n`), 'the header row comes first, in the documented order');
+  // The example diary holds choice and numeric questions, so the type columns follow the others.
+  assert.ok(csv.startsWith(`${CSV_ALL_COLUMNS.join(',')}\r\n`), 'the header row comes first, in the documented order');
   assert.ok(csv.endsWith('\r\n'), 'RFC 4180 §2 rule 1: each record ends in CRLF');
   // Full precision, derived from String(number): these read back to the same double.
   assert.ok(csv.includes(',0.123456789012345,'));
@@ -135,8 +136,8 @@ test('export → CSV → import into a fresh diary → export gives identical qu
 test('exported quoting reads back exactly with an independent RFC 4180 reader (Python csv)', async () => {
   const d = await fullDiary();
   const rows = pythonRows((await d.call('exportText', { format: 'csv' })).text);
-  assert.deepEqual(rows[0], [...CSV_COLUMNS]);
-  const col = (name: CsvColumn) => CSV_COLUMNS.indexOf(name);
+  assert.deepEqual(rows[0], [...CSV_ALL_COLUMNS]);
+  const col = (name: CsvColumn) => (CSV_ALL_COLUMNS as readonly CsvColumn[]).indexOf(name);
   const tricky = rows.filter((r) => r[col('title')] === 'Tender, "phase 3", won — Zürich office');
   assert.equal(tricky.length, 2, 'one row per revision');
   const [firstRev, secondRev] = tricky as [string[], string[]];

@@ -12,7 +12,7 @@ import { after, test } from 'node:test';
 import { openDiary } from '../../main/service/index';
 import type { QuestionList } from '../../shared/contract';
 import { buildDemoDiary } from '../../main/service/demo';
-import { CSV_COLUMNS } from '../../main/service/csv';
+import { CSV_ALL_COLUMNS, CSV_COLUMNS } from '../../main/service/csv';
 import { isoFormatter } from '../../main/service/export-batches';
 import { toIso } from '../../shared/time';
 import { randomDiaryFile } from '../support/random-diary';
@@ -31,14 +31,26 @@ interface FileQuestionJson {
   base_rate_note?: string;
   costs?: { false_alarm: number; miss: number };
   checkin_days?: number;
-  forecasts: { at: string; p: number; note: string; lenses?: { name: string; p: number; weight: number }[] }[];
-  references: { at: string; p: number; source: string }[];
-  resolution: { outcome: string; at: string; note: string } | null;
+  forecasts: { at: string; p?: number; probs?: number[]; quantiles?: (number | string)[]; note: string; lenses?: { name: string; p: number; weight: number }[] }[];
+  references: { at: string; p?: number; probs?: number[]; quantiles?: (number | string)[]; source: string }[];
+  resolution: { outcome: string; at: string; note: string; option?: number; value?: number | string } | null;
+  type?: 'choice' | 'numeric';
+  options?: string[];
+  ordered?: boolean;
+  option_base_rates?: number[];
+  unit?: string;
+  value_kind?: string;
+  levels?: number[];
 }
+
+/** A list cell: numbers (or dates) separated by spaces, each as String writes it (docs/csv-format.md). */
+const spaced = (xs: readonly (number | string)[] | undefined) => (xs ? xs.map(String).join(' ') : '');
 
 /** The CSV of the export object, written by Python's csv module (QUOTE_MINIMAL, CRLF), cells as docs/csv-format.md lays them out. */
 function pythonCsv(questions: FileQuestionJson[]): string {
-  const rows: string[][] = [[...CSV_COLUMNS]];
+  // The type columns follow the others when some question is not yes/no.
+  const columns: readonly string[] = questions.some((q) => q.type !== undefined) ? CSV_ALL_COLUMNS : CSV_COLUMNS;
+  const rows: string[][] = [[...columns]];
   for (const q of questions) {
     const base: Record<string, string> = {
       question_id: q.id,
@@ -57,13 +69,24 @@ function pythonCsv(questions: FileQuestionJson[]): string {
       outcome: q.resolution?.outcome ?? '',
       resolved_at: q.resolution?.at ?? '',
       resolution_note: q.resolution?.note ?? '',
+      type: q.type ?? 'binary',
+      options: q.options ? JSON.stringify(q.options) : '',
+      ordered: q.ordered === undefined ? '' : String(q.ordered),
+      option_base_rates: spaced(q.option_base_rates),
+      unit: q.unit ?? '',
+      value_kind: q.value_kind ?? '',
+      levels: spaced(q.levels),
+      outcome_option: q.resolution?.option === undefined ? '' : q.options![q.resolution.option]!,
+      outcome_value: q.resolution?.value === undefined ? '' : String(q.resolution.value),
     };
+    const value = (entry: { p?: number; probs?: number[]; quantiles?: (number | string)[] }, prefix: string) =>
+      entry.p !== undefined ? { [`${prefix}p`]: String(entry.p) } : entry.probs ? { [`${prefix}probs`]: spaced(entry.probs) } : { [`${prefix}quantiles`]: spaced(entry.quantiles) };
     const lines: Record<string, string>[] = [
-      ...q.forecasts.map((f) => ({ ...base, forecast_at: f.at, p: String(f.p), note: f.note, lenses: f.lenses ? JSON.stringify(f.lenses) : '' })),
-      ...q.references.map((r) => ({ ...base, reference_at: r.at, reference_p: String(r.p), reference_source: r.source })),
+      ...q.forecasts.map((f) => ({ ...base, forecast_at: f.at, ...value(f, ''), note: f.note, lenses: f.lenses ? JSON.stringify(f.lenses) : '' })),
+      ...q.references.map((r) => ({ ...base, reference_at: r.at, ...value(r, 'reference_'), reference_source: r.source })),
     ];
     if (lines.length === 0) lines.push(base);
-    for (const cells of lines) rows.push(CSV_COLUMNS.map((c) => cells[c] ?? ''));
+    for (const cells of lines) rows.push(columns.map((c) => cells[c] ?? ''));
   }
   const script =
     'import csv, io, json, sys\n' +

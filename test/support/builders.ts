@@ -1,5 +1,5 @@
 /** Whole domain objects for tests that work on questions without a diary file. */
-import type { Forecast, Question } from '../../shared/domain';
+import type { BinaryQuestion, Forecast } from '../../shared/domain';
 import type { PlanQuestion } from '../../main/nudges/plan';
 
 export function forecast(at: string, seq: number, p = 0.5): Forecast {
@@ -7,8 +7,9 @@ export function forecast(at: string, seq: number, p = 0.5): Forecast {
 }
 
 /** An open event-by-deadline question in UTC, opened 2025-01-06 09:00Z; override any field. */
-export function question(over: Partial<Question> & { id: string }): Question {
+export function question(over: Partial<BinaryQuestion> & { id: string }): BinaryQuestion {
   return {
+    type: 'binary',
     title: `Question ${over.id}`,
     rule: 'Resolves Yes if it happens.',
     kind: 'event_by_deadline',

@@ -6,12 +6,12 @@
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import ICAL from 'ical.js';
-import type { Question } from '../../shared/domain';
+import type { BinaryQuestion } from '../../shared/domain';
 import { forecast, question as baseQuestion } from '../support/builders';
 import { escapeText, foldLine, icalUtc, toICalendar } from '../../main/service/calendar';
 
 /** The calendar tests' question: closes 2025-03-31 17:00 London time. */
-function question(over: Partial<Question> & { id: string }): Question {
+function question(over: Partial<BinaryQuestion> & { id: string }): BinaryQuestion {
   return baseQuestion({ closes_at: '2025-03-31T16:00:00.000Z', time_zone: 'Europe/London', updated_at: '2025-02-01T10:00:00.000Z', ...over });
 }
 

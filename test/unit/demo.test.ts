@@ -5,10 +5,11 @@
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { buildDemoDiary, type DiaryFileObject, type DiaryFileQuestion } from '../../main/service/demo';
+import { buildDemoDiary, type DemoQuestion, type DiaryFileObject, type DiaryFileQuestion } from '../../main/service/demo';
 import { parseDiaryFile } from '../../shared/diary-file';
-import { computeScoreReport } from '../../shared/scoring';
-import type { ScoringQuestion } from '../../shared/scoring';
+import { computeChoiceReport, computeNumericReport, computeScoreReport } from '../../shared/scoring';
+import type { ScoringChoiceQuestion, ScoringNumericQuestion, ScoringQuestion } from '../../shared/scoring';
+import type { DiaryFileChoiceQuestion, DiaryFileNumericQuestion } from '../../main/service/demo-types';
 
 const DAY = 86_400_000;
 const NOW = Date.parse('2026-05-14T10:17:00Z');
@@ -37,7 +38,12 @@ const NOWS: number[] = [
 
 const ms = (iso: string) => Date.parse(iso);
 
-function windowEnd(q: DiaryFileQuestion): number {
+/** The yes/no questions (the file writes no `type` for them). */
+function yesNo(d: DiaryFileObject): DiaryFileQuestion[] {
+  return d.questions.filter((q: DemoQuestion): q is DiaryFileQuestion => !('type' in q));
+}
+
+function windowEnd(q: DemoQuestion): number {
   return q.resolution ? Math.min(ms(q.closes_at), ms(q.resolution.at)) : ms(q.closes_at);
 }
 
@@ -49,7 +55,7 @@ function finalForecast(q: DiaryFileQuestion): number {
 }
 
 function toScoring(d: DiaryFileObject): ScoringQuestion[] {
-  return d.questions.map((q) => ({
+  return yesNo(d).map((q) => ({
     id: q.id,
     title: q.title,
     tags: q.tags,
@@ -174,15 +180,17 @@ test('each question has 1–6 revisions, a rule, and most have a base rate with 
     assert.ok(q.rule.length > 30, `${q.id}: rule too thin`);
     for (const f of q.forecasts) assert.ok(f.note.length > 0, `${q.id}: revision without a note`);
   }
-  const withBase = d.questions.filter((q) => q.base_rate !== undefined && (q.base_rate_note ?? '').length > 10);
-  assert.ok(withBase.length / d.questions.length >= 0.75, `base rates on ${withBase.length}`);
-  const withCosts = d.questions.filter((q) => q.costs);
+  // Base rates and costs are yes/no questions' fields (INTERFACES.md "Question types").
+  const binary = yesNo(d);
+  const withBase = binary.filter((q) => q.base_rate !== undefined && (q.base_rate_note ?? '').length > 10);
+  assert.ok(withBase.length / binary.length >= 0.75, `base rates on ${withBase.length}`);
+  const withCosts = binary.filter((q) => q.costs);
   assert.ok(withCosts.length >= 5, `costs on ${withCosts.length}`);
 });
 
 test('lenses and reference forecasts from named sources appear on several questions', () => {
   const d = buildDemoDiary(NOW);
-  const lensed = d.questions.flatMap((q) => q.forecasts).filter((f) => f.lenses && f.lenses.length > 0);
+  const lensed = yesNo(d).flatMap((q) => q.forecasts).filter((f) => f.lenses && f.lenses.length > 0);
   assert.ok(lensed.length >= 4, `lenses on ${lensed.length} revisions`);
   const names = new Set(lensed.flatMap((f) => f.lenses!.map((l) => l.name)));
   assert.deepEqual([...names].sort(), ["devil's advocate", 'inside view', 'outside view']);
@@ -202,7 +210,7 @@ test('mostly Europe/London, with a couple of other zones', () => {
 
 test('the record reads like a real, imperfect forecaster', () => {
   const d = buildDemoDiary(NOW);
-  const scored = d.questions.filter((q) => q.resolution && q.resolution.outcome !== 'void');
+  const scored = yesNo(d).filter((q) => q.resolution && q.resolution.outcome !== 'void');
   const final = scored.map(finalForecast);
   const outcome: number[] = scored.map((q) => (q.resolution!.outcome === 'yes' ? 1 : 0));
   // Confident miss: final forecast ≥ 0.8 resolved No, or ≤ 0.2 resolved Yes (INTERFACES.md §2).
@@ -245,11 +253,93 @@ test('no text names a month, weekday or season, because every date moves with no
   const calendarWords =
     /\b(January|February|March|April|May|June|July|August|September|October|November|December|Monday|Tuesday|Wednesday|Thursday|Friday|Saturday|Sunday)\b|\b(spring|summer|autumn|winter|christmas|easter)\b/i;
   for (const q of d.questions) {
-    const texts = [q.title, q.rule, q.base_rate_note ?? '', ...q.forecasts.map((f) => f.note), q.resolution?.note ?? ''];
+    const texts = [q.title, q.rule, 'base_rate_note' in q ? (q.base_rate_note ?? '') : '', ...q.forecasts.map((f) => f.note), q.resolution?.note ?? ''];
+    if ('options' in q) texts.push(...q.options);
     for (const t of texts) {
       // "may" as a verb is fine; the month is only caught capitalised.
       const hit = calendarWords.exec(t.replace(/\bmay\b/g, ''));
       assert.equal(hit, null, `${q.id}: "${hit?.[0]}" in "${t}"`);
     }
   }
+});
+
+const choiceQuestions = (d: DiaryFileObject) => d.questions.filter((q): q is DiaryFileChoiceQuestion => 'type' in q && q.type === 'choice');
+const numericQuestions = (d: DiaryFileObject) => d.questions.filter((q): q is DiaryFileNumericQuestion => 'type' in q && q.type === 'numeric');
+
+/** A date question's values as the engine takes them: whole days since 1970-01-01 (SCORING.md "Numeric questions"). */
+const days = (v: number | string) => (typeof v === 'number' ? v : Date.parse(`${v}T00:00:00Z`) / DAY);
+
+function choiceScoring(d: DiaryFileObject): ScoringChoiceQuestion[] {
+  return choiceQuestions(d).map((q) => ({
+    id: q.id,
+    title: q.title,
+    tags: q.tags,
+    closes_at: ms(q.closes_at),
+    resolution: q.resolution ? { outcome: 'option', option: q.resolution.option, at: ms(q.resolution.at) } : null,
+    option_count: q.options.length,
+    ordered: q.ordered,
+    option_base_rates: q.option_base_rates ?? null,
+    forecasts: q.forecasts.map((f, seq) => ({ at: ms(f.at), probs: f.probs, seq })),
+  }));
+}
+
+function numericScoring(d: DiaryFileObject): ScoringNumericQuestion[] {
+  return numericQuestions(d).map((q) => ({
+    id: q.id,
+    title: q.title,
+    tags: q.tags,
+    closes_at: ms(q.closes_at),
+    resolution: q.resolution ? { outcome: 'value', value: days(q.resolution.value), at: ms(q.resolution.at) } : null,
+    unit: q.unit,
+    value_kind: q.value_kind,
+    levels: q.levels,
+    forecasts: q.forecasts.map((f, seq) => ({ at: ms(f.at), quantiles: f.quantiles.map(days), seq })),
+  }));
+}
+
+test('choice questions fill every choice figure: one ordered, one confident miss of the top choice, one open', () => {
+  for (const now of NOWS) {
+    const d = buildDemoDiary(now);
+    const report = computeChoiceReport(choiceScoring(d), {});
+    const at = new Date(now).toISOString();
+    assert.ok(report.scored >= 3, `choice scored ${report.scored} at ${at}`);
+    assert.ok(report.open >= 1, `open choice questions ${report.open} at ${at}`);
+    assert.ok(report.brier !== null && report.log_score !== null, 'Brier and log score computable');
+    assert.ok(report.rps_n >= 1 && report.rps !== null, 'an ordered question is scored by the RPS');
+    assert.ok(report.skill.vs_uniform !== null && report.skill.vs_base_rate !== null && report.skill.vs_first !== null, JSON.stringify(report.skill));
+    assert.ok(report.top_choice.n === report.scored && report.bins.length >= 3, 'top choice and option calibration drawn');
+    assert.deepEqual(
+      report.confident_misses.map((m) => m.id),
+      ['demo-wendlebrook-data-platform'],
+    );
+  }
+});
+
+test('numeric questions fill every numeric figure: a wide miss of a range, a date question, two level sets, one open', () => {
+  for (const now of NOWS) {
+    const d = buildDemoDiary(now);
+    const report = computeNumericReport(numericScoring(d), {});
+    const at = new Date(now).toISOString();
+    assert.ok(report.scored >= 4, `numeric scored ${report.scored} at ${at}`);
+    assert.ok(report.open >= 1, `open numeric questions ${report.open} at ${at}`);
+    const eighty = report.coverage.find((c) => c.level === 0.8);
+    assert.ok(eighty && eighty.n >= 3, `80 % ranges: ${JSON.stringify(eighty)}`);
+    assert.ok(report.coverage.some((c) => c.level === 0.9), 'a 90 % range from the five-level question');
+    assert.ok(report.landed.length >= 2, 'where outcomes landed, for two level sets');
+    assert.ok(report.quantile_calibration.length >= 5, 'quantile calibration over the levels');
+    assert.ok(report.relative_wis_vs_first !== null, 'revising helped? is computable');
+    for (const q of report.questions) assert.ok(Number.isFinite(q.wis), `${q.id}: WIS ${q.wis}`);
+    // The wide miss: 29 weeks against a final 80 % range of 12–21, (29 − 21) / 9 outside it.
+    const wide = report.surprises.find((s) => s.id === 'demo-norrowby-routing-weeks');
+    assert.ok(wide && wide.size !== null && wide.size > 0.5, JSON.stringify(report.surprises));
+    const dated = numericQuestions(d).filter((q) => q.value_kind === 'date');
+    assert.ok(dated.some((q) => q.resolution) && dated.some((q) => !q.resolution), 'a resolved and an open date question');
+  }
+});
+
+test('date values are calendar dates that move with now', () => {
+  const date = numericQuestions(buildDemoDiary(NOW)).find((q) => q.id === 'demo-wendlebrook-business-case-date')!;
+  const later = numericQuestions(buildDemoDiary(NOW + 30 * DAY)).find((q) => q.id === date.id)!;
+  for (const v of [...date.forecasts.flatMap((f) => f.quantiles), date.resolution!.value]) assert.match(String(v), /^\d{4}-\d{2}-\d{2}$/);
+  assert.equal(days(later.resolution!.value) - days(date.resolution!.value), 30);
 });

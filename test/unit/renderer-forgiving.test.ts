@@ -87,6 +87,7 @@ test('the snoozed section lists each question once, back at its first snooze’s
     due_at: '2026-12-01T09:00:00.000Z',
     closes_at: '2027-01-01T00:00:00.000Z',
     time_zone: 'Europe/London',
+    type: 'binary',
     last_p: 0.5,
     last_forecast_at: null,
     stale: false,

@@ -11,6 +11,7 @@ import {
 } from '../../shared/choice-vector';
 import {
   choiceLogScore,
+  computeChoiceConfidentCalls,
   computeChoiceDetail,
   computeChoiceReport,
   computeScoreReport,
@@ -211,6 +212,29 @@ test('confident misses: top choice ≥ 0.8 and wrong, worst first, ties by id', 
     { id: 'c', title: 'Question c', option: 1, p: 0.9, outcome_option: 2 },
     { id: 'd', title: 'Question d', option: 0, p: 0.8, outcome_option: 1 },
   ]);
+});
+
+test('confident calls at a chosen threshold: the report\'s misses at 0.8, more at 0.7, hits when asked', () => {
+  // SCORING.md "Confident miss" with Hindsight's threshold in place of 0.8 (PRODUCT.md Hindsight).
+  const below = nextDown(0.8);
+  const qs = [
+    choiceQuestion('d', 1, cf([0, [0.8, 0.2]])),
+    choiceQuestion('e', 1, cf([0, [below, 0.2]])),
+    choiceQuestion('c', 2, cf([0, [0.05, 0.9, 0.05]])),
+    choiceQuestion('a', 1, cf([0, [0.05, 0.95]])), // a hit
+    choiceQuestion('f', 0, cf([0, [0.1, 0.75, 0.15]])),
+  ];
+  const misses = (t: number) => computeChoiceConfidentCalls(qs, {}, t).map((c) => c.id);
+  assert.deepEqual(misses(0.8), computeChoiceReport(qs, {}).confident_misses.map((m) => m.id));
+  assert.deepEqual(misses(0.8), ['c', 'd']);
+  assert.deepEqual(misses(0.75), ['c', 'd', 'e', 'f']);
+  const withHits = computeChoiceConfidentCalls(qs, {}, 0.8, true);
+  assert.deepEqual(withHits.map((c) => [c.id, c.verdict]), [['c', 'miss'], ['d', 'miss'], ['a', 'hit']]);
+  const c = withHits[0]!;
+  assert.deepEqual([c.option, c.p, c.outcome_option, c.outcome_p, c.probs, c.T], [1, 0.9, 2, 0.05, [0.05, 0.9, 0.05], T0 + 10 * DAY]);
+  // Filters apply: a tag nobody carries leaves nothing.
+  assert.deepEqual(computeChoiceConfidentCalls(qs, { tag: 'nobody' }, 0.8, true), []);
+  assert.throws(() => computeChoiceConfidentCalls(qs, {}, nextDown(0.5)), /threshold is 0\.49999/);
 });
 
 test('counting: final and first forecasts, late forecasts, window end and filters as for yes/no', () => {

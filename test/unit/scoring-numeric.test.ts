@@ -10,6 +10,7 @@ import {
   centralIntervals,
   computeNumericDetail,
   computeNumericReport,
+  computeNumericSurprises,
   intervalScore,
   landedGap,
   nominalLevel,
@@ -450,4 +451,27 @@ test('scorecard detail lists numeric questions by window end, then id', () => {
       gap: 1,
     },
   );
+});
+
+test('surprise details: the report\'s surprises with the distance outside in the unit, the side and the final values', () => {
+  // SCORING.md "Surprise": size = distance outside / width of the widest central interval.
+  const qs = [
+    numericQuestion('above', 29, nf([0, [10, 14, 20]], [3, [12, 15, 21]])), // 8 above 12–21: size 8/9
+    numericQuestion('below', 4, nf([0, [10, 14, 20]])), // 6 below 10–20: size 0.6
+    numericQuestion('inside', 15, nf([0, [10, 14, 20]])),
+  ];
+  const details = computeNumericSurprises(qs, {});
+  const report = computeNumericReport(qs, {}).surprises;
+  assert.deepEqual(
+    details.map(({ id, title, value, low, high, level, size }) => ({ id, title, value, low, high, level, size })),
+    report,
+  );
+  assert.deepEqual(
+    details.map((d) => [d.id, d.distance, d.side, d.quantiles]),
+    [
+      ['above', 8, 'above', [12, 15, 21]],
+      ['below', 6, 'below', [10, 14, 20]],
+    ],
+  );
+  assert.deepEqual(computeNumericSurprises(qs, { tag: 'nobody' }), []);
 });

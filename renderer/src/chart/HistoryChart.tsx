@@ -15,7 +15,7 @@ import {
   type ChartDataset,
   type TooltipItem,
 } from 'chart.js';
-import type { Question } from '../../../shared/domain';
+import type { BinaryQuestion } from '../../../shared/domain';
 import { OUTCOME_LABELS } from '../components/StatusPill';
 import { formatInstant, formatTick } from '../dates';
 import { useColorScheme } from '../hooks';
@@ -97,7 +97,7 @@ export function historyLegend(data: HistoryData): LegendItem[] {
   ];
 }
 
-export function HistoryChart({ question }: { question: Question }) {
+export function HistoryChart({ question }: { question: BinaryQuestion }) {
   const scheme = useColorScheme();
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const data = useMemo(() => historyData(question), [question]);

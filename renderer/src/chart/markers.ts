@@ -32,9 +32,9 @@ export function verticalMarkers(markers: readonly VerticalMarker[], font: string
         ctx.stroke();
         ctx.setLineDash([]);
         ctx.font = `600 12px ${font}`;
-        // Labels near the right edge go on the line's left; a second label sits lower.
-        const onLeft = px > chartArea.right - 90;
+        // A label that would run past the right edge goes on the line's left; a second label sits lower.
         const width = ctx.measureText(marker.label).width;
+        const onLeft = px + 6 + width + 3 > chartArea.right;
         const textX = px + (onLeft ? -6 - width : 6);
         const baseline = chartArea.top + 14 + index * 18;
         ctx.fillStyle = background;

@@ -2,7 +2,7 @@
  * What the probability-history chart shows, computed apart from Chart.js so the same numbers
  * feed the chart, the table beside it and the figure's `data-points` attribute.
  */
-import type { Outcome, Question } from '../../../shared/domain';
+import type { Outcome, BinaryQuestion } from '../../../shared/domain';
 import { extent } from '../../../shared/extent';
 import { addCalendarDays, wallTimeAt, wallTimeToInstant } from '../../../shared/time';
 import { glideSeries } from '../tools/glide';
@@ -30,7 +30,7 @@ export interface HistoryData {
   glide: OwnPoint[];
 }
 
-export function historyData(question: Question): HistoryData {
+export function historyData(question: BinaryQuestion): HistoryData {
   const own = [...question.forecasts]
     .sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || a.seq - b.seq)
     .map((f) => ({ at: f.at, p: f.p }));

@@ -1,4 +1,4 @@
-import type { Outcome, QuestionStatus } from '../../../shared/domain';
+import type { AnyOutcome, Outcome, QuestionStatus } from '../../../shared/domain';
 import { Badge, type BadgeTone } from './Badge';
 
 const LABELS: Record<QuestionStatus, string> = {
@@ -23,9 +23,9 @@ export function statusLabel(status: QuestionStatus): string {
   return LABELS[status];
 }
 
-/** The question's status in words; a resolved question also says how it resolved. */
-export function StatusPill({ status, outcome }: { status: QuestionStatus; outcome?: Outcome | null | undefined }) {
-  const text = status === 'resolved' && outcome && outcome !== 'void' ? `Resolved · ${OUTCOME_LABELS[outcome]}` : LABELS[status];
+/** The question's status in words; a resolved yes/no question also says how it resolved. */
+export function StatusPill({ status, outcome }: { status: QuestionStatus; outcome?: AnyOutcome | null | undefined }) {
+  const text = status === 'resolved' && (outcome === 'yes' || outcome === 'no') ? `Resolved · ${OUTCOME_LABELS[outcome]}` : LABELS[status];
   return (
     <span className="status-pill" data-status={status}>
       <Badge tone={TONES[status]}>{text}</Badge>

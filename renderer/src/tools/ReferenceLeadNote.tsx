@@ -4,7 +4,7 @@
  * source did, by shared/scoring `referenceLead`. Sources are compared one at a time, since a
  * client's view and a consensus figure are different yardsticks.
  */
-import type { Question } from '../../../shared/domain';
+import type { BinaryQuestion } from '../../../shared/domain';
 import { referenceLead, type ReferenceLead } from '../../../shared/scoring';
 import { formatDay, plural } from './format';
 import './tools.css';
@@ -15,7 +15,7 @@ interface SourceLead {
 }
 
 /** Per reference source, for a question resolved Yes or No; empty otherwise. */
-export function sourceLeads(question: Question): SourceLead[] {
+export function sourceLeads(question: BinaryQuestion): SourceLead[] {
   const outcome = question.resolution?.outcome;
   if ((outcome !== 'yes' && outcome !== 'no') || !question.resolution) return [];
   // Window end T = min(close, resolution time): SCORING.md "Which forecasts count".
@@ -52,7 +52,7 @@ export function leadSentence({ source, lead }: SourceLead, timeZone: string): st
   return `Neither your forecast nor ${ref} settled on the right side of 50% before the window ended.`;
 }
 
-export function ReferenceLeadNote({ question }: { question: Question }) {
+export function ReferenceLeadNote({ question }: { question: BinaryQuestion }) {
   const leads = sourceLeads(question);
   if (leads.length === 0) return null;
   return (

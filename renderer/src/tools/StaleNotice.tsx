@@ -4,7 +4,7 @@
  * "Helpers"; the same rule that flags the question in the list). One line of explanation
  * and a way to revise.
  */
-import type { Question, Settings } from '../../../shared/domain';
+import type { BinaryQuestion, Settings } from '../../../shared/domain';
 import { Button } from '../components/Button';
 import { formatPercent } from '../percent';
 import { formatEstimate, plural } from './format';
@@ -12,7 +12,7 @@ import { staleness } from './glide';
 import './tools.css';
 
 interface Props {
-  question: Question;
+  question: BinaryQuestion;
   settings: Pick<Settings, 'default_checkin_days'>;
   onRevise: () => void;
 }

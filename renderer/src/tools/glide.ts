@@ -4,7 +4,7 @@
  * hazard, shared/scoring `glidePath`). The path starts at the later of the forecast and the
  * window's opening, as the staleness check does, since nothing can happen before the window.
  */
-import type { Question, Settings } from '../../../shared/domain';
+import type { BinaryQuestion, Settings } from '../../../shared/domain';
 import { glidePath, glidePathSeries, isStale } from '../../../shared/scoring';
 import { lastForecast } from '../screens/question/questionFacts';
 
@@ -21,7 +21,7 @@ export interface GlideStart {
 }
 
 /** The path's starting point, or null when the question has no glide path. */
-export function glideStart(question: Question): GlideStart | null {
+export function glideStart(question: BinaryQuestion): GlideStart | null {
   if (question.kind !== 'event_by_deadline' || question.resolution !== null) return null;
   const last = lastForecast(question);
   if (!last) return null;
@@ -33,7 +33,7 @@ export function glideStart(question: Question): GlideStart | null {
 }
 
 /** The path as chart points (ISO time, probability), from the start to exactly the close. */
-export function glideSeries(question: Question): { at: string; p: number }[] {
+export function glideSeries(question: BinaryQuestion): { at: string; p: number }[] {
   const start = glideStart(question);
   if (!start) return [];
   return glidePathSeries(start.p, start.from, start.closesAt, GLIDE_STEPS).map((g) => ({ at: new Date(g.t).toISOString(), p: g.p }));
@@ -51,7 +51,7 @@ export interface Staleness {
  * Whether the standing forecast has gone stale against its glide path (shared/scoring
  * `isStale`, with the question's check-in cadence or the diary's default), and by how much.
  */
-export function staleness(question: Question, settings: Pick<Settings, 'default_checkin_days'>, nowMs: number): Staleness | null {
+export function staleness(question: BinaryQuestion, settings: Pick<Settings, 'default_checkin_days'>, nowMs: number): Staleness | null {
   const start = glideStart(question);
   if (!start) return null;
   const stale = isStale({

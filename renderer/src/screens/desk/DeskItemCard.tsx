@@ -22,6 +22,7 @@ import { formatPercent, percentText, percentToProbability } from '../../percent'
 import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
 import { hrefTo, questionPath } from '../../routing';
 import { dueKinds, type DeskItem } from './items';
+import { TypedDeskActions } from './TypedDeskActions';
 import { ago, checkinPhrase, closedPhrase, closingPhrase, dayWord, clockTime, overduePhrase } from './wording';
 
 const STALE_EXPLANATION = 'well above its glide path and not revised for longer than its check-in cadence';
@@ -96,7 +97,9 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
         <Facts item={item} now={now} />
       </div>
       <div className="desk-item__actions">
-        {toResolve ? (
+        {item.type !== 'binary' ? (
+          <TypedDeskActions item={item} toResolve={toResolve} disabled={busy} onDone={finish} />
+        ) : toResolve ? (
           <ResolveButtons
             item={item}
             note={note}
@@ -149,18 +152,21 @@ function Facts({ item, now }: { item: DeskItem; now: number }) {
           {line}
         </p>
       ))}
-      <p className="desk-item__last">
-        {item.last_p === null || last === null ? (
-          'No forecast yet'
-        ) : (
-          <>
-            Last forecast <strong className="desk-item__p">{formatPercent(item.last_p)}</strong>,{' '}
-            <time dateTime={item.last_forecast_at ?? undefined} title={`${dayWord(last, now, zone)} ${clockTime(last, zone)}`}>
-              {ago(last, now)}
-            </time>
-          </>
-        )}
-      </p>
+      {/* A choice or numeric question's last forecast is shown beside its actions (TypedDeskActions). */}
+      {item.type === 'binary' ? (
+        <p className="desk-item__last">
+          {item.last_p === null || last === null ? (
+            'No forecast yet'
+          ) : (
+            <>
+              Last forecast <strong className="desk-item__p">{formatPercent(item.last_p)}</strong>,{' '}
+              <time dateTime={item.last_forecast_at ?? undefined} title={`${dayWord(last, now, zone)} ${clockTime(last, zone)}`}>
+                {ago(last, now)}
+              </time>
+            </>
+          )}
+        </p>
+      ) : null}
       {item.stale ? (
         <p className="desk-item__stale">
           <Badge tone="amber">Stale</Badge> <span>Its forecast is {STALE_EXPLANATION}.</span>

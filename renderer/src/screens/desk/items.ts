@@ -4,7 +4,7 @@
  * the group of its most pressing nudge, and carries every kind due for it (a snooze hides
  * them all; a revision clears the check-in and may leave it under "Closing soon").
  */
-import type { DueNudge, NudgeKind } from '../../../../shared/domain';
+import type { DueNudge, NudgeKind, QuestionType } from '../../../../shared/domain';
 
 export type DeskGroup = 'resolve' | 'closing' | 'checkin';
 
@@ -22,6 +22,8 @@ export interface DeskItem {
   due: Partial<Record<NudgeKind, string>>;
   closes_at: string;
   time_zone: string;
+  /** yes/no, choice or numeric: a choice or numeric item is revised and resolved in its own dialogs. */
+  type: QuestionType;
   last_p: number | null;
   last_forecast_at: string | null;
   stale: boolean;
@@ -58,6 +60,7 @@ export function deskItems(nudges: readonly DueNudge[]): DeskItem[] {
       due: { [n.kind]: n.due_at },
       closes_at: n.closes_at,
       time_zone: n.time_zone,
+      type: n.type,
       last_p: n.last_p,
       last_forecast_at: n.last_forecast_at,
       stale: n.stale,

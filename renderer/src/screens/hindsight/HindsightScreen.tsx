@@ -21,6 +21,7 @@ import { BriefingPreview } from './BriefingPreview';
 import { CalibrationSummary } from './CalibrationSummary';
 import { EntryCard } from './EntryCard';
 import { HindsightFilters } from './HindsightFilters';
+import { TypedEntrySections } from './TypedEntryCards';
 import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, decodeSelection, encodeSelection, type HindsightSelection } from './selection';
 import { confidentMeaning, plural, wholePercent } from './wording';
 import './hindsight.css';
@@ -145,7 +146,9 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
       </div>
     ) : null;
   const filtered = selection.tag !== '' || selection.from !== '' || selection.to !== '';
-  if (report.scored === 0) {
+  // The counts are yes/no counts; choice and numeric questions bring their own entries.
+  const typedEntries = hindsight.choice_entries.length + hindsight.numeric_surprises.length;
+  if (report.scored === 0 && typedEntries === 0) {
     return (
       <EmptyState title={filtered ? 'Nothing scored in this selection' : 'Nothing scored yet'} actions={<a href={hrefTo('questions')}>Go to Questions</a>}>
         <p data-testid="nothing-scored">
@@ -164,38 +167,43 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
   return (
     <div className="hs-layout">
       <div className="hs-list">
-        <p className="hs-count" data-testid="hindsight-count">
-          <strong>{plural(hindsight.misses, 'confident miss', 'confident misses')}</strong>
-          {selection.includeHits ? (
-            <>
-              {' '}
-              and <strong>{plural(hindsight.hits, 'confident hit', 'confident hits')}</strong>
-            </>
-          ) : null}{' '}
-          among n = {report.scored} scored questions. Confident at {at}: a {confidentMeaning(threshold)}.
-        </p>
-        <EntrySection
-          id="hs-misses"
-          title="Confident misses"
-          entries={misses}
-          count={hindsight.misses}
-          threshold={threshold}
-          timeZone={timeZone}
-          more={misses.length < hindsight.misses ? moreButton : null}
-          empty={`No confident misses at ${at} in this selection — that is good news, or a small sample: n = ${report.scored}.`}
-        />
-        {selection.includeHits ? (
-          <EntrySection
-            id="hs-hits"
-            title="Confident hits"
-            entries={hits}
-            count={hindsight.hits}
-            threshold={threshold}
-            timeZone={timeZone}
-            more={misses.length === hindsight.misses ? moreButton : null}
-            empty={`No confident hits at ${at} in this selection (n = ${report.scored}).`}
-          />
+        {report.scored > 0 ? (
+          <>
+            <p className="hs-count" data-testid="hindsight-count">
+              <strong>{plural(hindsight.misses, 'confident miss', 'confident misses')}</strong>
+              {selection.includeHits ? (
+                <>
+                  {' '}
+                  and <strong>{plural(hindsight.hits, 'confident hit', 'confident hits')}</strong>
+                </>
+              ) : null}{' '}
+              among n = {report.scored} scored questions. Confident at {at}: a {confidentMeaning(threshold)}.
+            </p>
+            <EntrySection
+              id="hs-misses"
+              title="Confident misses"
+              entries={misses}
+              count={hindsight.misses}
+              threshold={threshold}
+              timeZone={timeZone}
+              more={misses.length < hindsight.misses ? moreButton : null}
+              empty={`No confident misses at ${at} in this selection — that is good news, or a small sample: n = ${report.scored}.`}
+            />
+            {selection.includeHits ? (
+              <EntrySection
+                id="hs-hits"
+                title="Confident hits"
+                entries={hits}
+                count={hindsight.hits}
+                threshold={threshold}
+                timeZone={timeZone}
+                more={misses.length === hindsight.misses ? moreButton : null}
+                empty={`No confident hits at ${at} in this selection (n = ${report.scored}).`}
+              />
+            ) : null}
+          </>
         ) : null}
+        <TypedEntrySections hindsight={hindsight} includeHits={selection.includeHits} timeZone={timeZone} />
       </div>
       <aside className="hs-aside">
         <CalibrationSummary report={report} subject={describeSelection(selection)} />

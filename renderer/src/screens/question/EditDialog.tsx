@@ -4,7 +4,7 @@
  */
 import { useMemo, useState, type FormEvent } from 'react';
 import { updateQuestionRequest } from '../../../../shared/contract';
-import type { Costs, Question, QuestionKind } from '../../../../shared/domain';
+import type { Costs, BinaryQuestion, QuestionKind } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
@@ -24,7 +24,7 @@ import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from './labels';
 
 interface Props {
-  question: Question;
+  question: BinaryQuestion;
   open: boolean;
   onClose: () => void;
   /** What was done, and the token that undoes it. */

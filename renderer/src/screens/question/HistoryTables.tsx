@@ -1,13 +1,13 @@
 /** Every point of the history chart as rows: the user's revisions and the reference forecasts. */
 import type { ReactNode } from 'react';
-import type { Question } from '../../../../shared/domain';
+import type { BinaryQuestion } from '../../../../shared/domain';
 import { Button } from '../../components/Button';
 import { formatInstant } from '../../dates';
 import { formatPercent } from '../../percent';
 import { sortedForecasts } from './questionFacts';
 
 interface Props {
-  question: Question;
+  question: BinaryQuestion;
   onDeleteForecast: (id: string) => void;
   onDeleteReference: (id: string) => void;
 }

@@ -4,7 +4,7 @@
  * the page's data and says so in a toast whose Undo takes it back.
  */
 import { useState } from 'react';
-import type { Question, Settings } from '../../../../shared/domain';
+import type { BinaryQuestion, Settings } from '../../../../shared/domain';
 import { questionStatus } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
@@ -33,6 +33,7 @@ import { lastForecast } from './questionFacts';
 import { ReferenceDialog } from './ReferenceDialog';
 import { ResolutionHistory } from './ResolutionHistory';
 import { ResolveDialog } from './ResolveDialog';
+import { TypedQuestionPage } from './TypedQuestionPage';
 import { ReviseDialog } from './ReviseDialog';
 import { SnoozeNote } from './SnoozeNote';
 
@@ -62,10 +63,11 @@ export function QuestionScreen({ params }: ScreenProps) {
     );
   }
   if (!loaded.data || !question || question.id !== id) return <div className="screen" aria-busy="true" />;
+  if (question.type !== 'binary') return <TypedQuestionPage question={question} settings={loaded.data[1]} />;
   return <QuestionPage question={question} settings={loaded.data[1]} />;
 }
 
-function QuestionPage({ question: q, settings }: { question: Question; settings: Settings }) {
+function QuestionPage({ question: q, settings }: { question: BinaryQuestion; settings: Settings }) {
   const undoToast = useUndoToast();
   const [dialog, setDialog] = useState<DialogName | null>(null);
   const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);

@@ -3,16 +3,25 @@
  * the question reopened (docs/api.md, "Correcting a resolution, reopening"), oldest first,
  * with when it changed and why. Shown only once there is something to show.
  */
-import type { Question, ResolutionChangeKind } from '../../../../shared/domain';
+import type { AnyResolution, Question, ResolutionChangeKind } from '../../../../shared/domain';
+import { toStoredValue } from '../../../../shared/numeric-value';
 import { OutcomeIcon } from '../../components/OutcomeMark';
 import { OUTCOME_LABELS } from '../../components/StatusPill';
 import { formatInstant } from '../../dates';
+import { formatValue } from '../../forecastEntry/numericEntry';
 import '../../forgiving/forgiving.css';
 
 const CHANGE_LABELS: Record<ResolutionChangeKind, string> = {
   corrected: 'Corrected',
   reopened: 'Reopened',
 };
+
+/** What an earlier resolution said: Yes, No, Void, the option that came true, or the value. */
+function pastOutcomeText(question: Question, entry: AnyResolution): string {
+  if (entry.outcome === 'option') return question.type === 'choice' ? (question.options[entry.option] ?? `option ${entry.option + 1}`) : '';
+  if (entry.outcome === 'value') return question.type === 'numeric' ? formatValue(toStoredValue(entry.value, question.value_kind), question.value_kind, question.unit) : '';
+  return OUTCOME_LABELS[entry.outcome];
+}
 
 export function ResolutionHistory({ question }: { question: Question }) {
   const history = question.resolution_history;
@@ -42,8 +51,8 @@ export function ResolutionHistory({ question }: { question: Question }) {
               <tr key={i} data-testid="resolution-history-row">
                 <td className="nowrap">
                   <span className={`resolution-history__outcome resolution-history__outcome--${entry.outcome}`}>
-                    <OutcomeIcon outcome={entry.outcome} />
-                    {OUTCOME_LABELS[entry.outcome]}
+                    {entry.outcome === 'option' || entry.outcome === 'value' ? null : <OutcomeIcon outcome={entry.outcome} />}
+                    {pastOutcomeText(question, entry)}
                   </span>
                 </td>
                 <td className="nowrap">

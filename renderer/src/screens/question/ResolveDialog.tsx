@@ -7,7 +7,7 @@
  */
 import { useState, type FormEvent } from 'react';
 import { resolveRequest } from '../../../../shared/contract';
-import type { Outcome, Question } from '../../../../shared/domain';
+import type { Outcome, BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { ChoiceGroup } from '../../components/ChoiceGroup';
@@ -23,7 +23,7 @@ import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 
 interface Props {
-  question: Question;
+  question: BinaryQuestion;
   open: boolean;
   onClose: () => void;
   /** What was done, and the token that undoes it. */

@@ -5,7 +5,7 @@
  */
 import { useState, type FormEvent } from 'react';
 import { forecastRequest } from '../../../../shared/contract';
-import type { Question } from '../../../../shared/domain';
+import type { BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
@@ -23,7 +23,7 @@ import { RecalibrationHint } from '../../tools/RecalibrationHint';
 import { lastForecast } from './questionFacts';
 
 interface Props {
-  question: Question;
+  question: BinaryQuestion;
   open: boolean;
   onClose: () => void;
   /** What was done, and the token that undoes it. */

@@ -13,6 +13,7 @@ import type { ListSort } from '../../../../shared/contract';
 import { StatusPill } from '../../components/StatusPill';
 import { formatInstant } from '../../dates';
 import { formatPercent } from '../../percent';
+import { lastForecastText } from '../../questionTypes/summaries';
 import { hrefTo, navigate, questionPath } from '../../routing';
 import type { ListQuery } from './listQuery';
 import type { QuestionPages } from './useQuestionPages';
@@ -148,7 +149,7 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
                 <td className="nowrap">
                   <time dateTime={q.closes_at}>{formatInstant(q.closes_at, q.time_zone)}</time>
                 </td>
-                <td className="num">{formatPercent(q.last_p)}</td>
+                <td className="num">{lastForecastText(q)}</td>
                 <td className="num">{formatPercent(q.base_rate)}</td>
               </tr>
             );

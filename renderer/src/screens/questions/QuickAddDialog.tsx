@@ -27,6 +27,7 @@ import { percentToProbability } from '../../percent';
 import { hrefTo, questionPath } from '../../routing';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from '../question/labels';
+import { useTypedDraft } from '../../questionTypes/TypedQuestionFields';
 
 const LABELS = {
   title: 'Question',
@@ -38,6 +39,14 @@ const LABELS = {
   base_rate: 'Base rate',
   base_rate_note: 'Reference class',
   'first_forecast.p': 'Your probability',
+  type: 'Type of answer',
+  options: 'Options',
+  option_base_rates: 'Option base rates (optional)',
+  'first_forecast.probs': 'Your chances',
+  unit: 'Unit',
+  value_kind: 'Value',
+  levels: 'Levels',
+  'first_forecast.quantiles': 'Your range',
   'first_forecast.at': 'Opened',
   'first_forecast.note': 'Reasoning',
   tags: 'Tags',
@@ -76,6 +85,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   const [firstNote, setFirstNote] = useState('');
   const [tags, setTags] = useState<string[]>([]);
   const [knownTags, setKnownTags] = useState<string[]>([]);
+  const typed = useTypedDraft();
 
   useEffect(() => {
     api.listTags({}).then(
@@ -86,7 +96,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
 
   const dirty =
     title !== '' || rule !== '' || kind !== 'event_by_deadline' || closesLocal !== '' || openedLocal !== '' || timeZone !== defaultZone ||
-    baseRate !== '' || baseRateNote !== '' || firstP !== '' || firstNote !== '' || tags.length > 0;
+    baseRate !== '' || baseRateNote !== '' || firstP !== '' || firstNote !== '' || tags.length > 0 || typed.dirty;
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
@@ -104,12 +114,19 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
     if (!closesAt) found.closes_at = 'choose the date and time the window closes';
     else if (openedAt && Date.parse(closesAt) <= Date.parse(openedAt))
       found.closes_at = typedOpening ? 'must be after the opening time (“Opened”)' : 'must be after the opening time: the question opens now, so the close must be in the future (for a call made earlier, fill in “Opened”)';
-    const base = percentToProbability(baseRate);
+    // A choice or numeric question takes its own fields; the yes/no base rate and probability do not apply.
+    const binary = typed.type === 'binary';
+    const base = binary ? percentToProbability(baseRate) : ({ ok: true, value: null } as const);
     if (!base.ok) found.base_rate = base.error;
-    const first = percentToProbability(firstP);
+    const first = binary ? percentToProbability(firstP) : ({ ok: true, value: null } as const);
     if (!first.ok) found['first_forecast.p'] = first.error;
-    else if (first.value === null && firstNote.trim() !== '') found['first_forecast.p'] = 'give the probability your reasoning is for, or clear the reasoning';
+    else if (binary && first.value === null && firstNote.trim() !== '') found['first_forecast.p'] = 'give the probability your reasoning is for, or clear the reasoning';
+    const own = typed.read(found);
+    if (!binary && own.first === null && firstNote.trim() !== '') {
+      found[typed.type === 'choice' ? 'first_forecast.probs' : 'first_forecast.quantiles'] = 'give the forecast your reasoning is for, or clear the reasoning';
+    }
     const request = {
+      ...own.fields,
       title,
       rule,
       kind,
@@ -121,6 +138,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
       base_rate_note: baseRateNote,
       // A call made earlier was made when it was posed: the first forecast is dated then too.
       ...(first.ok && first.value !== null ? { first_forecast: { p: first.value, note: firstNote, ...(typedOpening && openedAt ? { at: openedAt } : {}) } } : {}),
+      ...(own.first ? { first_forecast: { ...own.first, note: firstNote, ...(typedOpening && openedAt ? { at: openedAt } : {}) } } : {}),
     };
     if (!form.check(found, { schema: createQuestionRequest, request, placement: PLACEMENT })) return;
 
@@ -165,42 +183,50 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
         local={openedLocal}
         onLocalChange={setOpenedLocal}
         timeZone={timeZone}
-        hint="Leave empty if you are posing it now. For a call you made earlier, give when you made it: your first probability is dated then too."
+        hint="Leave empty if you are posing it now. For a call you made earlier, give when you made it: your first forecast is dated then too."
         error={form.error('opened_at')}
       />
-      <div className="form__row">
-        <ProbabilityInput
-          label="Base rate"
-          value={baseRate}
-          onChange={setBaseRate}
-          hint="How often comparable cases came out Yes."
-          error={form.error('base_rate')}
-        />
-        <TextField
-          label="Reference class"
-          value={baseRateNote}
-          onChange={setBaseRateNote}
-          placeholder="e.g. 6 of 20 comparable renewals slipped"
-          error={form.error('base_rate_note')}
-        />
-      </div>
-      <BaseRateHelper
-        windowDays={windowDays(closesLocal, timeZone)}
-        onUse={(rate, note) => {
-          setBaseRate(rate);
-          setBaseRateNote(note);
-        }}
-      />
-      <div className="form__row">
-        <ProbabilityInput
-          label="Your probability"
-          value={firstP}
-          onChange={setFirstP}
-          hint="Your first forecast; revise it as evidence arrives."
-          error={form.error('first_forecast.p')}
-        />
+      {typed.typeChoice(form.error('type'))}
+      {typed.fields(form.error)}
+      {typed.type === 'binary' ? (
+        <>
+          <div className="form__row">
+            <ProbabilityInput
+              label="Base rate"
+              value={baseRate}
+              onChange={setBaseRate}
+              hint="How often comparable cases came out Yes."
+              error={form.error('base_rate')}
+            />
+            <TextField
+              label="Reference class"
+              value={baseRateNote}
+              onChange={setBaseRateNote}
+              placeholder="e.g. 6 of 20 comparable renewals slipped"
+              error={form.error('base_rate_note')}
+            />
+          </div>
+          <BaseRateHelper
+            windowDays={windowDays(closesLocal, timeZone)}
+            onUse={(rate, note) => {
+              setBaseRate(rate);
+              setBaseRateNote(note);
+            }}
+          />
+          <div className="form__row">
+            <ProbabilityInput
+              label="Your probability"
+              value={firstP}
+              onChange={setFirstP}
+              hint="Your first forecast; revise it as evidence arrives."
+              error={form.error('first_forecast.p')}
+            />
+            <TextField label="Reasoning" value={firstNote} onChange={setFirstNote} error={form.error('first_forecast.note')} />
+          </div>
+        </>
+      ) : (
         <TextField label="Reasoning" value={firstNote} onChange={setFirstNote} error={form.error('first_forecast.note')} />
-      </div>
+      )}
       <div className="form__row">
         <Select
           label="Kind"

@@ -3,7 +3,7 @@
  * questions came true, with the Wilson 95% interval as a vertical bar, the point's size
  * growing with the number of questions in the bin, and the diagonal where the two agree.
  */
-import { memo, useRef } from 'react';
+import { memo, useRef, type ReactNode } from 'react';
 import type { Chart, ChartConfiguration, Plugin } from 'chart.js';
 import type { ReportBin } from '../../../../shared/scoring/types';
 import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
@@ -76,7 +76,14 @@ function describe(bins: readonly ReportBin[]): string {
   return `Calibration diagram, forecast against how often it came true. ${parts.join('; ')}. The table below has the intervals.`;
 }
 
-export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins: ReportBin[] }) {
+export interface CalibrationChartProps {
+  bins: ReportBin[];
+  /** Another use of the same diagram (choice options, one-vs-rest) gets its own test id and caption. */
+  testId?: string;
+  caption?: ReactNode;
+}
+
+export const CalibrationChart = memo(function CalibrationChart({ bins, testId = 'calibration-chart', caption }: CalibrationChartProps) {
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const holder = useRef<Holder>({ bins }).current;
 
@@ -149,13 +156,13 @@ export const CalibrationChart = memo(function CalibrationChart({ bins }: { bins:
 
   return (
     <ChartFigure
-      testId="calibration-chart"
+      testId={testId}
       canvasRef={canvasRef}
       points={bins}
       description={describe(bins)}
       legend={LEGEND}
       caption={
-        <>
+        caption ?? <>
           Calibration diagram: each dot is a 10-point probability bin; bars are 95% Wilson intervals; bigger dots hold more
           questions. Dots on the dashed diagonal came true exactly as often as stated.
         </>

@@ -8,7 +8,7 @@ import type { Scorecard } from '../../../../shared/contract';
 import type { ReportBin, ScoreReport } from '../../../../shared/scoring/types';
 import { binLabel, pct, pctInterval, questions, score2, score3, scoreInterval } from './format';
 
-interface TileProps {
+export interface TileProps {
   id: string;
   label: string;
   value: string;
@@ -18,7 +18,7 @@ interface TileProps {
   children: ReactNode;
 }
 
-function Tile({ id, label, value, n, interval, tone = 'plain', children }: TileProps) {
+export function Tile({ id, label, value, n, interval, tone = 'plain', children }: TileProps) {
   const headingId = `headline-${id}-label`;
   return (
     <section className={`sc-tile sc-tile--${tone}`} aria-labelledby={headingId} data-testid={`headline-${id}`}>

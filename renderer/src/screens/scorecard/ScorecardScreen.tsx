@@ -2,7 +2,8 @@
  * Scorecard: every figure SCORING.md defines, for the questions the filters pick — headline
  * figures with their n and intervals, calibration, the Brier decomposition, skill against
  * baselines, the running score, discrimination, consequences of acting on the calls, and the
- * lead over reference forecasts.
+ * lead over reference forecasts; then a section for each other question type the view holds
+ * (multiple choice, numeric), built from the report's `choice` and `numeric` members.
  *
  * The root carries `data-scorecard-ready` ("true" once the latest filter's answer is drawn,
  * "false" while one is on its way; written by useScorecard) and `data-scorecard-tag` (the tag
@@ -20,11 +21,13 @@ import { useDefaultTimeZone } from '../../diaryInfo';
 import { useDocumentTitle } from '../../hooks';
 import { hrefTo, useQueryState } from '../../routing';
 import { CalibrationChart } from './CalibrationChart';
+import { ChoiceSection } from './ChoiceSection';
 import { Consequences } from './Consequences';
 import { Decomposition } from './Decomposition';
 import { Filters } from './Filters';
 import { buildRequest, decodeFilter, encodeFilter, type FilterProblems, type ScorecardFilter } from './filterRequest';
 import { Headline } from './Headline';
+import { NumericSection } from './NumericSection';
 import { ReferenceLeads } from './ReferenceLeads';
 import { RocChart } from './RocChart';
 import { RunningBrierChart } from './RunningBrierChart';
@@ -88,7 +91,25 @@ interface BodyProps {
 
 function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, whatIf, onWhatIf }: BodyProps) {
   const { report, detail, leads } = card;
-  if (report.scored === 0) {
+  const inView = (r: { scored: number; unscored: number; void: number; open: number }) => r.scored + r.unscored + r.void + r.open > 0;
+  const all = [report, report.choice, report.numeric];
+  const total = (key: 'scored' | 'unscored' | 'void' | 'open') => all.reduce((sum, r) => sum + r[key], 0);
+  // Each type gets its sections when the view holds questions of it; yes/no comes first.
+  const typed = (
+    <>
+      {inView(report.choice) ? (
+        <Section id="sc-choice" title="Multiple-choice questions">
+          <ChoiceSection report={report.choice} />
+        </Section>
+      ) : null}
+      {inView(report.numeric) ? (
+        <Section id="sc-numeric" title="Numeric questions">
+          <NumericSection report={report.numeric} rows={card.numeric_detail.per_question} />
+        </Section>
+      ) : null}
+    </>
+  );
+  if (total('scored') === 0) {
     return (
       <EmptyState
         title={filtered ? 'Nothing scored in this view' : 'Nothing scored yet'}
@@ -99,9 +120,22 @@ function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, w
           window closed.
         </p>
         <p>
-          Here: {report.open} open, {report.unscored} resolved without a forecast before the window ended, {report.void} void.
+          Here: {total('open')} open, {total('unscored')} resolved without a forecast before the window ended, {total('void')} void.
         </p>
       </EmptyState>
+    );
+  }
+  if (report.scored === 0) {
+    return (
+      <>
+        {inView(report) ? (
+          <p className="sc-note" data-testid="binary-nothing-scored">
+            No yes/no question is scored in this view: {report.open} open, {report.unscored} resolved without a forecast before the window ended,{' '}
+            {report.void} void.
+          </p>
+        ) : null}
+        {typed}
+      </>
     );
   }
   return (
@@ -142,6 +176,7 @@ function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, w
       <Section id="sc-leads" title="Lead over reference forecasts">
         <ReferenceLeads leads={leads} />
       </Section>
+      {typed}
     </>
   );
 }

@@ -1,0 +1,109 @@
+/**
+ * Hindsight for choice and numeric questions: confident calls on the top choice and
+ * surprises of a range, each with every revision and the note written at the time. Which
+ * questions count, their final forecasts and the selection itself come from
+ * shared/scoring (`computeChoiceConfidentCalls`, `computeNumericSurprises`), the one home
+ * of those rules; this module only adds what the user wrote.
+ */
+import type { ChoiceQuestion, NumericQuestion } from '../../shared/domain';
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../shared/hindsight-entries';
+import { fromStoredValue } from '../../shared/numeric-value';
+import {
+  computeChoiceConfidentCalls,
+  computeNumericSurprises,
+  type ScoreFilter,
+  type ScoringChoiceQuestion,
+  type ScoringNumericQuestion,
+} from '../../shared/scoring';
+import { toIso } from '../../shared/time';
+
+/** Revisions oldest first (same time: entered first), each marked counted when made at or before the window end T. */
+function revisions<F extends { at: string; seq: number; note: string }>(forecasts: readonly F[], T: number): (F & { counted: boolean })[] {
+  return forecasts
+    .map((f) => ({ f, at: Date.parse(f.at) }))
+    .sort((a, b) => a.at - b.at || a.f.seq - b.f.seq)
+    .map(({ f, at }) => ({ ...f, counted: at <= T }));
+}
+
+/**
+ * Choice questions whose top choice was held at `threshold` or more: misses (another
+ * option came true), and hits when `includeHits`; misses first, the most confident first.
+ *
+ * @param scoring the choice questions as the engine reads them
+ * @param filter tag and window-end bounds, as for the Scorecard
+ * @param details the full questions for some ids (notes, options, rule)
+ */
+export function choiceHindsight(
+  scoring: readonly ScoringChoiceQuestion[],
+  filter: ScoreFilter,
+  threshold: number,
+  includeHits: boolean,
+  details: (ids: string[]) => ChoiceQuestion[],
+): ChoiceHindsightEntry[] {
+  const calls = computeChoiceConfidentCalls(scoring, filter, threshold, includeHits);
+  const byId = new Map(details(calls.map((c) => c.id)).map((q) => [q.id, q]));
+  return calls.map((c): ChoiceHindsightEntry => {
+    const q = byId.get(c.id)!;
+    return {
+      id: q.id,
+      title: q.title,
+      rule: q.rule,
+      tags: q.tags,
+      verdict: c.verdict,
+      options: q.options,
+      ordered: q.ordered,
+      top_option: c.option,
+      top_p: c.p,
+      outcome_option: c.outcome_option,
+      outcome_p: c.outcome_p,
+      final_probs: c.probs,
+      window_end: toIso(c.T),
+      option_base_rates: q.option_base_rates,
+      base_rate_note: q.base_rate_note,
+      resolution: { at: q.resolution!.at, note: q.resolution!.note },
+      forecasts: revisions(q.forecasts, c.T).map((f) => ({ at: f.at, probs: f.probs, note: f.note, counted: f.counted })),
+    };
+  });
+}
+
+/**
+ * Numeric questions whose outcome fell outside the widest range of the final forecast,
+ * the largest surprise (distance outside ÷ width) first, ranges of zero width before them.
+ *
+ * @param scoring the numeric questions as the engine reads them (dates as days)
+ * @param filter tag and window-end bounds, as for the Scorecard
+ * @param details the full questions for some ids (notes, unit, rule)
+ */
+export function numericHindsight(
+  scoring: readonly ScoringNumericQuestion[],
+  filter: ScoreFilter,
+  details: (ids: string[]) => NumericQuestion[],
+): NumericHindsightEntry[] {
+  const surprises = computeNumericSurprises(scoring, filter);
+  const byId = new Map(details(surprises.map((s) => s.id)).map((q) => [q.id, q]));
+  return surprises.map((s): NumericHindsightEntry => {
+    const q = byId.get(s.id)!;
+    const value = (x: number) => fromStoredValue(x, q.value_kind);
+    return {
+      id: q.id,
+      title: q.title,
+      rule: q.rule,
+      tags: q.tags,
+      unit: q.unit,
+      value_kind: q.value_kind,
+      levels: q.levels,
+      value: value(s.value),
+      low: value(s.low),
+      high: value(s.high),
+      level: s.level,
+      side: s.side,
+      distance: s.distance,
+      size: s.size,
+      final_quantiles: s.quantiles.map(value),
+      window_end: toIso(s.T),
+      resolution: { at: q.resolution!.at, note: q.resolution!.note },
+      forecasts: revisions(q.forecasts, s.T).map((f) => ({ at: f.at, quantiles: f.quantiles, note: f.note, counted: f.counted })),
+    };
+  });
+}
+

@@ -1,0 +1,111 @@
+/**
+ * A choice forecast typed as a percentage per option, with the live total under the boxes
+ * and a button that spreads what is left of 100 % evenly over the options left blank. The
+ * value is the box texts; `readChoiceForecast` (choiceEntry.ts) turns them into the stored
+ * probabilities on submit.
+ */
+import { useId, useState } from 'react';
+import { Button } from '../components/Button';
+import { FieldError } from '../components/FieldError';
+import { choiceTotal, spreadRest, totalText, type ChoiceProblems } from './choiceEntry';
+import './forecastEntry.css';
+
+export interface ChoiceForecastInputProps {
+  /** The group's name, e.g. "Your chances". */
+  label: string;
+  options: readonly string[];
+  /** One percent text per option. */
+  value: readonly string[];
+  onChange: (texts: string[]) => void;
+  problems?: ChoiceProblems | undefined;
+  hint?: string | undefined;
+  /** Take focus when its dialog opens (the first box). */
+  autoFocus?: boolean | undefined;
+}
+
+export function ChoiceForecastInput({ label, options, value, onChange, problems, hint, autoFocus }: ChoiceForecastInputProps) {
+  const id = useId();
+  const [spreadNote, setSpreadNote] = useState<string | null>(null);
+  const total = choiceTotal(value);
+  const totalId = `${id}-total`;
+  const hintId = `${id}-hint`;
+  const totalError = problems?.total;
+
+  function set(k: number, text: string) {
+    setSpreadNote(null);
+    const next = value.slice();
+    next[k] = text;
+    onChange(next);
+  }
+
+  function spread() {
+    const result = spreadRest(value);
+    if (result.ok) {
+      setSpreadNote(null);
+      onChange(result.texts);
+    } else {
+      setSpreadNote(result.reason);
+    }
+  }
+
+  const totalState = total.invalid.length ? 'invalid' : total.complete ? 'complete' : 'open';
+  return (
+    <fieldset className={['choice-entry', totalError ? 'choice-entry--invalid' : ''].filter(Boolean).join(' ')} aria-describedby={[hint ? hintId : '', totalId].filter(Boolean).join(' ')}>
+      <legend className="field__label">{label}</legend>
+      {hint ? (
+        <p className="field__hint" id={hintId}>
+          {hint}
+        </p>
+      ) : null}
+      <ol className="choice-entry__options">
+        {options.map((option, k) => {
+          const boxId = `${id}-${k}`;
+          const error = problems?.options[k];
+          return (
+            <li key={k} className={['choice-entry__option', error ? 'field--invalid' : ''].filter(Boolean).join(' ')}>
+              <label htmlFor={boxId} className="choice-entry__label">
+                {option}
+              </label>
+              <span className="input-with-suffix">
+                <input
+                  type="number"
+                  inputMode="decimal"
+                  id={boxId}
+                  className="input input--number input--percent"
+                  min={0}
+                  max={100}
+                  step="any"
+                  value={value[k] ?? ''}
+                  data-autofocus={autoFocus && k === 0 ? '' : undefined}
+                  aria-invalid={error ? true : undefined}
+                  aria-describedby={error ? `${boxId}-error` : undefined}
+                  onChange={(event) => set(k, event.target.value)}
+                />
+                <span className="input-suffix" aria-hidden="true">
+                  %
+                </span>
+              </span>
+              <FieldError id={`${boxId}-error`} message={error} />
+            </li>
+          );
+        })}
+      </ol>
+      <div className="choice-entry__footer">
+        <p className={`choice-entry__total choice-entry__total--${totalState}`} id={totalId} role="status" data-testid="choice-total">
+          Total {totalText(total.sum)}
+          {total.blanks.length ? ` · ${total.blanks.length} blank` : ''}
+          {total.complete ? ' ✓' : ''}
+        </p>
+        <Button size="sm" onClick={spread}>
+          Spread the rest
+        </Button>
+      </div>
+      {spreadNote ? (
+        <p className="field__hint" role="status" data-testid="spread-note">
+          {spreadNote}
+        </p>
+      ) : null}
+      <FieldError id={`${id}-total-error`} message={totalError} />
+    </fieldset>
+  );
+}

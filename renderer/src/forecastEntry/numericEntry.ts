@@ -1,0 +1,97 @@
+/**
+ * A numeric forecast as typed: one box per quantile level of the question (P10 / P50 / P90
+ * by default), holding a number in the question's unit or, for a date question, a calendar
+ * date. This module names the levels, reads the boxes and refuses a set that decreases with
+ * the level, saying which two values are the wrong way round. The rule itself (one finite
+ * value per level, non-decreasing) lives in shared/quantile-levels.ts.
+ */
+import type { ValueKind } from '../../../shared/domain';
+import { levelName } from '../../../shared/forecast-text';
+import { dateToDays, daysToDate } from '../../../shared/numeric-value';
+import { quantilesProblem } from '../../../shared/quantile-levels';
+import type { Parsed } from '../percent';
+
+export type { ValueKind };
+
+export { levelName };
+
+/** The box label: "P10 (low)", "P50 (median)", "P90 (high)". */
+export function levelLabel(level: number): string {
+  if (level === 0.5) return `${levelName(level)} (median)`;
+  return `${levelName(level)} (${level < 0.5 ? 'low' : 'high'})`;
+}
+
+/** One sentence on what a level means, for the hint under the boxes. */
+export function levelsHint(levels: readonly number[], unit: string): string {
+  const low = levels[0];
+  const high = levels[levels.length - 1];
+  const inUnit = unit ? ` in ${unit}` : '';
+  if (low === undefined || high === undefined || low === high) return `Your median${inUnit}: as likely above as below.`;
+  const width = Math.round((high - low) * 100);
+  const article = width === 80 || width === 8 || width === 18 ? 'an' : 'a';
+  return `${levelName(low)}: only a ${Math.round(low * 100)}% chance the outcome is lower; ${levelName(high)}: only a ${Math.round((1 - high) * 100)}% chance it is higher. Together ${article} ${width}% range${inUnit}.`;
+}
+
+/** A value as the boxes and readings show it: "13.5 weeks", "2026-03-31". */
+export function formatValue(value: number, kind: ValueKind, unit: string): string {
+  if (kind === 'date') return daysToDate(value);
+  const text = String(Number(value.toPrecision(12)));
+  return unit ? `${text} ${unit}` : text;
+}
+
+/** One box's text as a value: a number, or for a date question a day from a date box ("YYYY-MM-DD"). */
+export function readValue(text: string, kind: ValueKind): Parsed<number | null> {
+  const trimmed = text.trim();
+  if (trimmed === '') return { ok: true, value: null };
+  if (kind === 'date') {
+    const days = dateToDays(trimmed);
+    return days === null ? { ok: false, error: 'must be a calendar date' } : { ok: true, value: days };
+  }
+  const n = Number(trimmed);
+  return Number.isFinite(n) ? { ok: true, value: n } : { ok: false, error: 'must be a number, e.g. 12.5' };
+}
+
+export interface NumericProblems {
+  /** A problem with one level's box, by level index. */
+  levels: Record<number, string>;
+  /** A problem with the set as a whole (the order). */
+  order?: string;
+}
+
+/**
+ * The boxes as one value per level, or what is wrong: a box that is empty or not a value,
+ * or a set that decreases with the level — "P90 (12 weeks) is below P50 (13 weeks)".
+ *
+ * @param texts the boxes in the order of `levels`
+ * @param levels the question's quantile levels, ascending
+ */
+export function readNumericForecast(
+  texts: readonly string[],
+  levels: readonly number[],
+  kind: ValueKind,
+  unit: string,
+): Parsed<number[]> & { problems?: NumericProblems } {
+  const problems: Record<number, string> = {};
+  const values: number[] = [];
+  texts.forEach((text, k) => {
+    const read = readValue(text, kind);
+    if (!read.ok) problems[k] = read.error;
+    else if (read.value === null) problems[k] = kind === 'date' ? 'pick a date' : 'enter a value';
+    else values.push(read.value);
+  });
+  const firstBad = Object.keys(problems)[0];
+  if (firstBad !== undefined) {
+    const k = Number(firstBad);
+    return { ok: false, error: `${levelName(levels[k]!)}: ${problems[k]}.`, problems: { levels: problems } };
+  }
+  const problem = quantilesProblem(values, levels.length);
+  if (problem !== null) {
+    const k = values.findIndex((v, i) => i > 0 && v < values[i - 1]!);
+    if (k < 0) return { ok: false, error: `The values ${problem}.`, problems: { levels: {}, order: problem } };
+    const order =
+      `${levelName(levels[k]!)} (${formatValue(values[k]!, kind, unit)}) is ${kind === 'date' ? 'before' : 'below'} ` +
+      `${levelName(levels[k - 1]!)} (${formatValue(values[k - 1]!, kind, unit)}); each value must be at least the one before it.`;
+    return { ok: false, error: order, problems: { levels: { [k]: order }, order } };
+  }
+  return { ok: true, value: values };
+}

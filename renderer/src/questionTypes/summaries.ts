@@ -1,0 +1,38 @@
+/**
+ * A choice or numeric forecast in a few words, for lists and cards where the yes/no ones show
+ * a percent: the top option and its chance, or the median with the range.
+ */
+import type { QuestionSummary } from '../../../shared/domain';
+import { toStoredValue } from '../../../shared/numeric-value';
+import { formatPercent } from '../percent';
+import { formatValue, type ValueKind } from '../forecastEntry/numericEntry';
+
+/** "Ambledene 60%" — the option with the highest chance (ties: the first), as SCORING.md's top choice. */
+export function choiceSummary(options: readonly string[], probs: readonly number[]): string {
+  let top = 0;
+  for (let k = 1; k < probs.length; k++) if (probs[k]! > probs[top]!) top = k;
+  return `${options[top] ?? `Option ${top + 1}`} ${formatPercent(probs[top])}`;
+}
+
+/** "13 weeks (9 – 20)": the median with the outermost quantiles, dates likewise. */
+export function numericSummary(levels: readonly number[], quantiles: readonly number[], kind: ValueKind, unit: string): string {
+  const median = quantiles[levels.indexOf(0.5)];
+  if (median === undefined) return '—';
+  const m = quantiles.length;
+  const centre = formatValue(median, kind, unit);
+  if (m < 2) return centre;
+  const low = formatValue(quantiles[0]!, kind, '');
+  const high = formatValue(quantiles[m - 1]!, kind, '');
+  return `${centre} (${low} – ${high})`;
+}
+
+/** The Questions list's "last forecast" cell for a question of any type; "—" with none. */
+export function lastForecastText(q: Pick<QuestionSummary, 'type' | 'last_p' | 'options' | 'last_probs' | 'levels' | 'last_quantiles' | 'value_kind' | 'unit'>): string {
+  if (q.type === 'choice') return q.options && q.last_probs ? choiceSummary(q.options, q.last_probs) : '—';
+  if (q.type === 'numeric') {
+    if (!q.levels || !q.last_quantiles || !q.value_kind) return '—';
+    const kind = q.value_kind;
+    return numericSummary(q.levels, q.last_quantiles.map((v) => toStoredValue(v, kind)), kind, q.unit ?? '');
+  }
+  return formatPercent(q.last_p);
+}

@@ -1,0 +1,215 @@
+/**
+ * Hindsight's cards for choice and numeric questions, beside the yes/no ones (EntryCard):
+ * a choice question whose top choice was held at the threshold (a confident miss, or a hit
+ * when asked for) and a numeric question whose outcome fell outside the widest range of the
+ * final forecast (a surprise). Each shows the final forecast against what happened, and
+ * every revision with the note written at the time; late revisions are marked, never scored.
+ */
+import { useId, type ReactNode } from 'react';
+import type { Hindsight } from '../../../../shared/contract';
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../../../shared/hindsight-entries';
+import { toStoredValue } from '../../../../shared/numeric-value';
+import { Badge } from '../../components/Badge';
+import { formatInstant } from '../../dates';
+import { formatValue } from '../../forecastEntry/numericEntry';
+import { choiceSummary, numericSummary } from '../../questionTypes/summaries';
+import { hrefTo, questionPath } from '../../routing';
+import { choiceVerdictSentence, surpriseSentence } from './typedWording';
+import { wholePercent } from './wording';
+
+interface Revision {
+  at: string;
+  note: string;
+  counted: boolean;
+  said: string;
+}
+
+function Revisions({ revisions, timeZone }: { revisions: Revision[]; timeZone: string }) {
+  return (
+    <table className="hs-revisions" data-testid="revisions">
+      <caption className="hs-revisions__caption">Every revision, with what you wrote at the time</caption>
+      <thead>
+        <tr>
+          <th scope="col">When</th>
+          <th scope="col">You said</th>
+          <th scope="col">Note</th>
+        </tr>
+      </thead>
+      <tbody>
+        {revisions.map((f, i) => (
+          <tr key={i} className={f.counted ? undefined : 'hs-revisions__late'} data-counted={f.counted ? 'true' : 'false'}>
+            <td className="nowrap">
+              {formatInstant(f.at, timeZone, false)}
+              {f.counted ? null : (
+                <span className="hs-revisions__late-mark">
+                  <Badge tone="amber">late, not scored</Badge>
+                </span>
+              )}
+            </td>
+            <td className="hs-revisions__p">{f.said}</td>
+            <td className="hs-revisions__note note" data-testid="revision-note">
+              {f.note ? f.note : <span className="muted">No note written.</span>}
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+interface CardFrameProps {
+  id: string;
+  title: string;
+  tags: string[];
+  badge: ReactNode;
+  verdict: string;
+  kind: 'choice' | 'numeric';
+  sentence: string;
+  facts: [string, string][];
+  rule: string;
+  revisions: Revision[];
+  resolved: string;
+  resolution: { at: string; note: string };
+  timeZone: string;
+}
+
+function CardFrame(p: CardFrameProps) {
+  const headingId = useId();
+  return (
+    <article className={`hs-entry hs-entry--${p.verdict}`} aria-labelledby={headingId} data-testid={`hindsight-${p.kind}-entry`} data-id={p.id} data-verdict={p.verdict}>
+      <header className="hs-entry__head">
+        {p.badge}
+        <h3 id={headingId} className="hs-entry__title">
+          <a href={hrefTo(questionPath(p.id))}>{p.title}</a>
+        </h3>
+        {p.tags.length ? <p className="hs-entry__tags">{p.tags.join(' · ')}</p> : null}
+      </header>
+      <p className="hs-entry__sentence" data-testid="verdict-sentence">
+        {p.sentence}
+      </p>
+      <dl className="hs-entry__facts">
+        {p.facts.map(([term, value]) => (
+          <div key={term}>
+            <dt>{term}</dt>
+            <dd>{value}</dd>
+          </div>
+        ))}
+      </dl>
+      {p.rule ? (
+        <p className="hs-entry__rule">
+          <span className="hs-label">Rule</span> {p.rule}
+        </p>
+      ) : null}
+      <Revisions revisions={p.revisions} timeZone={p.timeZone} />
+      <div className="hs-entry__resolution">
+        <p className="hs-entry__resolved">
+          <span className="hs-label">Resolved: {p.resolved}</span> {formatInstant(p.resolution.at, p.timeZone)}
+        </p>
+        {p.resolution.note ? (
+          <p className="note" data-testid="resolution-note">
+            {p.resolution.note}
+          </p>
+        ) : (
+          <p className="muted">No resolution note.</p>
+        )}
+      </div>
+    </article>
+  );
+}
+
+export function ChoiceEntryCard({ entry: e, timeZone }: { entry: ChoiceHindsightEntry; timeZone: string }) {
+  return (
+    <CardFrame
+      id={e.id}
+      title={e.title}
+      tags={e.tags}
+      kind="choice"
+      verdict={e.verdict}
+      badge={<Badge tone={e.verdict === 'miss' ? 'danger' : 'success'}>{e.verdict === 'miss' ? 'Confident miss' : 'Confident hit'}</Badge>}
+      sentence={choiceVerdictSentence(e)}
+      facts={[
+        ['Window ended', formatInstant(e.window_end, timeZone)],
+        ['Option base rates', e.option_base_rates ? choiceSummary(e.options, e.option_base_rates) : 'not stated'],
+        ['Final forecast', e.options.map((o, k) => `${o} ${wholePercent(e.final_probs[k] ?? 0)}`).join(', ')],
+        ['Came true', e.options[e.outcome_option] ?? ''],
+      ]}
+      rule={e.rule}
+      revisions={e.forecasts.map((f) => ({ ...f, said: e.options.map((o, k) => `${o} ${wholePercent(f.probs[k] ?? 0)}`).join(', ') }))}
+      resolved={e.options[e.outcome_option] ?? ''}
+      resolution={e.resolution}
+      timeZone={timeZone}
+    />
+  );
+}
+
+export function SurpriseCard({ entry: e, timeZone }: { entry: NumericHindsightEntry; timeZone: string }) {
+  const stored = (values: (number | string)[]) => values.map((v) => toStoredValue(v, e.value_kind));
+  const show = (v: number | string) => formatValue(toStoredValue(v, e.value_kind), e.value_kind, e.unit);
+  return (
+    <CardFrame
+      id={e.id}
+      title={e.title}
+      tags={e.tags}
+      kind="numeric"
+      verdict="miss"
+      badge={<Badge tone="danger">Surprise</Badge>}
+      sentence={surpriseSentence(e)}
+      facts={[
+        ['Window ended', formatInstant(e.window_end, timeZone)],
+        ['Final forecast', numericSummary(e.levels, stored(e.final_quantiles), e.value_kind, e.unit)],
+        ['Outcome', show(e.value)],
+      ]}
+      rule={e.rule}
+      revisions={e.forecasts.map((f) => ({ ...f, said: numericSummary(e.levels, stored(f.quantiles), e.value_kind, e.unit) }))}
+      resolved={show(e.value)}
+      resolution={e.resolution}
+      timeZone={timeZone}
+    />
+  );
+}
+
+function TypedSection({ id, title, children, n }: { id: string; title: string; n: number; children: ReactNode }) {
+  return (
+    <section className="hs-section" aria-labelledby={id} data-testid={id}>
+      <h2 id={id} className="hs-section__title">
+        {title} <span className="hs-section__n">({n})</span>
+      </h2>
+      {children}
+    </section>
+  );
+}
+
+/**
+ * The choice and numeric sections, after the yes/no ones: each appears only when it has an
+ * entry, since the filter's counts of scored questions are yes/no counts.
+ */
+export function TypedEntrySections({ hindsight, includeHits, timeZone }: { hindsight: Hindsight; includeHits: boolean; timeZone: string }) {
+  const misses = hindsight.choice_entries.filter((e) => e.verdict === 'miss');
+  const hits = includeHits ? hindsight.choice_entries.filter((e) => e.verdict === 'hit') : [];
+  const surprises = hindsight.numeric_surprises;
+  return (
+    <>
+      {misses.length ? (
+        <TypedSection id="hs-choice-misses" title="Multiple choice: confident misses" n={misses.length}>
+          {misses.map((e) => (
+            <ChoiceEntryCard key={e.id} entry={e} timeZone={timeZone} />
+          ))}
+        </TypedSection>
+      ) : null}
+      {hits.length ? (
+        <TypedSection id="hs-choice-hits" title="Multiple choice: confident hits" n={hits.length}>
+          {hits.map((e) => (
+            <ChoiceEntryCard key={e.id} entry={e} timeZone={timeZone} />
+          ))}
+        </TypedSection>
+      ) : null}
+      {surprises.length ? (
+        <TypedSection id="hs-surprises" title="Numbers and dates: surprises (outside your widest range)" n={surprises.length}>
+          {surprises.map((e) => (
+            <SurpriseCard key={e.id} entry={e} timeZone={timeZone} />
+          ))}
+        </TypedSection>
+      ) : null}
+    </>
+  );
+}

@@ -1,0 +1,25 @@
+/**
+ * Hindsight's one-sentence readings of a choice question's confident call and a numeric
+ * question's surprise (SCORING.md "Confident miss", "Surprise"). Pure, so tests read the
+ * sentences the user does.
+ */
+import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../../../shared/hindsight-entries';
+import { toStoredValue } from '../../../../shared/numeric-value';
+import { formatValue } from '../../forecastEntry/numericEntry';
+import { wholePercent } from './wording';
+
+/** "You gave Kestrowe 85%; Ambledene came true, at 10%." */
+export function choiceVerdictSentence(e: Pick<ChoiceHindsightEntry, 'options' | 'top_option' | 'top_p' | 'outcome_option' | 'outcome_p' | 'verdict'>): string {
+  const top = e.options[e.top_option] ?? `option ${e.top_option + 1}`;
+  if (e.verdict === 'hit') return `You gave ${top} ${wholePercent(e.top_p)}, and it came true.`;
+  return `You gave ${top} ${wholePercent(e.top_p)}; ${e.options[e.outcome_option] ?? `option ${e.outcome_option + 1}`} came true, at ${wholePercent(e.outcome_p)}.`;
+}
+
+/** "26 weeks: 10 weeks above your 80% range (10 weeks – 16 weeks); 1.7 times its width outside." */
+export function surpriseSentence(e: Pick<NumericHindsightEntry, 'value' | 'low' | 'high' | 'level' | 'side' | 'distance' | 'size' | 'unit' | 'value_kind'>): string {
+  const show = (v: number | string) => formatValue(toStoredValue(v, e.value_kind), e.value_kind, e.unit);
+  const range = `${Math.round(e.level * 100)}%`;
+  const distance = e.value_kind === 'date' ? `${e.distance} day${e.distance === 1 ? '' : 's'}` : formatValue(e.distance, 'number', e.unit);
+  const width = e.size === null ? 'a range of zero width' : `${Number(e.size.toPrecision(2))} times its width outside`;
+  return `${show(e.value)}: ${distance} ${e.side} your ${range} range (${show(e.low)} – ${show(e.high)}); ${width}.`;
+}

@@ -1,0 +1,174 @@
+/**
+ * Editing a choice or numeric question: its wording, close, tags, a choice question's option
+ * labels (the number of options is fixed), ordering and option base rates, a numeric
+ * question's unit. The type, a numeric question's value kind and levels are fixed at
+ * creation, because every revision is written over them; the dialog says so.
+ */
+import { useState, type FormEvent } from 'react';
+import { updateQuestionRequest } from '../../../../shared/contract';
+import { api } from '../../api/client';
+import { Button } from '../../components/Button';
+import { DateTimeField } from '../../components/DateTimeField';
+import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { Form } from '../../components/Form';
+import { TagInput } from '../../components/TagInput';
+import { TextArea } from '../../components/TextArea';
+import { TextField } from '../../components/TextField';
+import { isoToLocal, localToIso } from '../../dates';
+import { ChoiceForecastInput } from '../../forecastEntry/ChoiceForecastInput';
+import type { ChoiceProblems } from '../../forecastEntry/choiceEntry';
+import { useForm } from '../../forms';
+import { percentText } from '../../percent';
+import { levelsText, readOptionBaseRates, readOptions } from '../../questionTypes/definition';
+import { OptionsEditor } from '../../questionTypes/OptionsEditor';
+import type { TypedQuestion } from './TypedEntryDialog';
+
+interface Props {
+  question: TypedQuestion;
+  open: boolean;
+  onClose: () => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
+}
+
+type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
+
+const LABELS = {
+  title: 'Question',
+  rule: 'Resolution rule',
+  closes_at: 'Closes',
+  time_zone: 'Time zone',
+  tags: 'Tags',
+  options: 'Options',
+  ordered: 'Ordered options',
+  option_base_rates: 'Option base rates',
+  base_rate_note: 'Where the base rates come from',
+  unit: 'Unit',
+};
+const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS, prefix: 'changes' };
+
+export function TypedEditDialog({ question, open, onClose, onSaved }: Props) {
+  return (
+    <Dialog open={open} onClose={onClose} title="Edit question" size="lg">
+      <EditForm question={question} onClose={onClose} onSaved={onSaved} />
+    </Dialog>
+  );
+}
+
+const same = (a: readonly unknown[] | null, b: readonly unknown[] | null) => JSON.stringify(a) === JSON.stringify(b);
+
+function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
+  const form = useForm();
+  const cancel = useCloseRequest(onClose);
+  const initialCloses = isoToLocal(q.closes_at, q.time_zone);
+  const initialRates = q.type === 'choice' ? q.options.map((_, k) => percentText(q.option_base_rates?.[k])) : [];
+  const [title, setTitle] = useState(q.title);
+  const [rule, setRule] = useState(q.rule);
+  const [tags, setTags] = useState<string[]>(q.tags);
+  const [timeZone, setTimeZone] = useState(q.time_zone);
+  const [closesLocal, setClosesLocal] = useState(initialCloses);
+  const [options, setOptions] = useState<string[]>(q.type === 'choice' ? q.options : []);
+  const [ordered, setOrdered] = useState(q.type === 'choice' && q.ordered);
+  const [rates, setRates] = useState<string[]>(initialRates);
+  const [ratesProblems, setRatesProblems] = useState<ChoiceProblems | undefined>(undefined);
+  const [optionProblems, setOptionProblems] = useState<Record<number, string> | undefined>(undefined);
+  const [baseRateNote, setBaseRateNote] = useState(q.base_rate_note);
+  const [unit, setUnit] = useState(q.type === 'numeric' ? q.unit : '');
+  const dirty =
+    title !== q.title || rule !== q.rule || tags.join('\n') !== q.tags.join('\n') || timeZone !== q.time_zone || closesLocal !== initialCloses ||
+    (q.type === 'choice' && (!same(options, q.options) || ordered !== q.ordered || !same(rates, initialRates))) ||
+    baseRateNote !== q.base_rate_note || (q.type === 'numeric' && unit !== q.unit);
+
+  async function onSubmit(event: FormEvent) {
+    event.preventDefault();
+    const found: Record<string, string> = {};
+    const changes: Changes = {};
+    if (title !== q.title) changes.title = title;
+    if (title.trim() === '') found.title = 'write the question you are forecasting';
+    if (rule !== q.rule) changes.rule = rule;
+    if (tags.join('\n') !== q.tags.join('\n')) changes.tags = tags;
+    if (baseRateNote !== q.base_rate_note) changes.base_rate_note = baseRateNote;
+    const zoneChanged = timeZone !== q.time_zone;
+    if (zoneChanged) changes.time_zone = timeZone;
+    if (zoneChanged || closesLocal !== initialCloses) {
+      const iso = localToIso(closesLocal, timeZone);
+      if (iso) changes.closes_at = iso;
+      else found.closes_at = 'enter when the window closes';
+    }
+    if (q.type === 'choice') {
+      const read = readOptions(options);
+      setOptionProblems(read.problems);
+      if (!read.ok) found.options = read.error;
+      else if (!same(read.value, q.options)) changes.options = read.value;
+      if (ordered !== q.ordered) changes.ordered = ordered;
+      const base = readOptionBaseRates(rates);
+      setRatesProblems(base.problems);
+      if (!base.ok) found.option_base_rates = base.error;
+      else if (!same(base.value, q.option_base_rates)) changes.option_base_rates = base.value;
+    } else if (unit !== q.unit) {
+      changes.unit = unit;
+    }
+    const request = { id: q.id, changes };
+    if (!form.check(found, { schema: updateQuestionRequest, request, placement: PLACEMENT })) return;
+    if (Object.keys(changes).length === 0) {
+      onClose();
+      return;
+    }
+    let undo = '';
+    const ok = await form.submit(async () => {
+      undo = (await api.updateQuestion(request)).undo;
+    }, PLACEMENT);
+    if (ok) onSaved('Question saved.', undo);
+  }
+
+  return (
+    <Form form={form} label="Edit question" onSubmit={onSubmit} dirty={dirty}>
+      <p className="field__hint" data-testid="type-fixed">
+        {q.type === 'choice'
+          ? `Multiple choice with ${q.options.length} options. The type and the number of options are fixed once the question exists.`
+          : `${q.value_kind === 'date' ? 'A date' : 'A number'}, forecast as ${levelsText(q.levels)}. The type, the value kind and the levels are fixed once the question exists.`}
+      </p>
+      <TextField label="Question" value={title} onChange={setTitle} required data-autofocus error={form.error('title')} />
+      <TextArea label="Resolution rule" value={rule} onChange={setRule} rows={2} error={form.error('rule')} />
+      <DateTimeField
+        label="Closes"
+        local={closesLocal}
+        onLocalChange={setClosesLocal}
+        timeZone={timeZone}
+        onTimeZoneChange={setTimeZone}
+        required
+        error={form.error('closes_at') ?? form.error('time_zone')}
+      />
+      {q.type === 'choice' ? (
+        <>
+          <OptionsEditor value={options} onChange={setOptions} problems={optionProblems} error={form.error('options')} fixedCount />
+          <label className="checkbox-field">
+            <input type="checkbox" checked={ordered} onChange={(event) => setOrdered(event.target.checked)} />
+            Ordered options (e.g. ranges of a quantity, or early / on time / late): scored by the ranked probability score too
+          </label>
+          <ChoiceForecastInput
+            label="Option base rates (optional)"
+            options={options.map((o, k) => o.trim() || `Option ${k + 1}`)}
+            value={rates}
+            onChange={(next) => {
+              setRatesProblems(undefined);
+              setRates(next);
+            }}
+            problems={ratesProblems ?? (form.error('option_base_rates') ? { options: {}, total: form.error('option_base_rates') } : undefined)}
+            hint="How often each option comes true in comparable cases; leave all blank if you have no reference class."
+          />
+          <TextField label="Where the base rates come from" value={baseRateNote} onChange={setBaseRateNote} error={form.error('base_rate_note')} />
+        </>
+      ) : (
+        <TextField label="Unit" value={unit} onChange={setUnit} hint="Shown beside every value, e.g. weeks or £k." error={form.error('unit')} />
+      )}
+      <TagInput label="Tags" tags={tags} onChange={setTags} error={form.error('tags')} />
+      <div className="form__actions">
+        <Button onClick={cancel}>Cancel</Button>
+        <Button type="submit" variant="primary" busy={form.busy}>
+          Save changes
+        </Button>
+      </div>
+    </Form>
+  );
+}

@@ -1,0 +1,162 @@
+/**
+ * How a choice question came out (pick the option that came true) or a numeric one (enter
+ * the value), or Void (cannot be resolved fairly; never scored), when, and a note. Also used
+ * to correct a resolution already recorded: the one it replaces is kept in the question's
+ * history with the reason given here. As in the yes/no dialog, a resolution the diary finds
+ * unusual is sent again only once the user has read why and agreed.
+ */
+import { useState, type FormEvent } from 'react';
+import { resolveRequest } from '../../../../shared/contract';
+import { fromStoredValue, toStoredValue } from '../../../../shared/numeric-value';
+import { api } from '../../api/client';
+import { Button } from '../../components/Button';
+import { ChoiceGroup } from '../../components/ChoiceGroup';
+import { DateField } from '../../components/DateField';
+import { DateTimeField } from '../../components/DateTimeField';
+import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { Form } from '../../components/Form';
+import { NumberField } from '../../components/NumberField';
+import { TextArea } from '../../components/TextArea';
+import { isoToLocal, localToIso } from '../../dates';
+import { formatValue, readValue } from '../../forecastEntry/numericEntry';
+import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
+import { typedTimeProblem } from '../../forgiving/timeChecks';
+import { useForm } from '../../forms';
+import type { TypedQuestion } from './TypedEntryDialog';
+
+interface Props {
+  question: TypedQuestion;
+  open: boolean;
+  onClose: () => void;
+  /** What was done, and the token that undoes it. */
+  onSaved: (message: string, undo: string) => void;
+}
+
+const LABELS = { outcome: 'Outcome', option: 'Outcome', value: 'Value', at: 'Resolved at', note: 'Note', correction_note: 'Why the correction' };
+const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
+
+export function TypedResolveDialog({ question, open, onClose, onSaved }: Props) {
+  const correcting = question.resolution !== null;
+  return (
+    <Dialog open={open} onClose={onClose} title={correcting ? 'Correct the resolution' : 'Resolve the question'} description={question.title}>
+      <ResolveForm question={question} onClose={onClose} onSaved={onSaved} />
+    </Dialog>
+  );
+}
+
+/** The outcome choice as the radio group holds it: an option's index, "value", "void" or "". */
+function initialChoice(question: TypedQuestion): string {
+  const r = question.resolution;
+  if (r === null) return question.type === 'numeric' ? 'value' : '';
+  if (r.outcome === 'void') return 'void';
+  return r.outcome === 'option' ? String(r.option) : 'value';
+}
+
+function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+  const form = useForm();
+  const ask = useAskFirst();
+  const cancel = useCloseRequest(onClose);
+  const current = question.resolution;
+  const [initial] = useState(() => ({
+    choice: initialChoice(question),
+    value: current?.outcome === 'value' ? String(current.value) : '',
+    local: isoToLocal(current?.at ?? new Date().toISOString(), question.time_zone),
+  }));
+  const [choice, setChoice] = useState(initial.choice);
+  const [valueText, setValueText] = useState(initial.value);
+  const [atLocal, setAtLocal] = useState(initial.local);
+  const [note, setNote] = useState(current?.note ?? '');
+  const [why, setWhy] = useState('');
+  const dirty = choice !== initial.choice || valueText !== initial.value || atLocal !== initial.local || note !== (current?.note ?? '') || why !== '';
+
+  const choices =
+    question.type === 'choice'
+      ? [...question.options.map((label, k) => ({ value: String(k), label })), { value: 'void', label: 'Void — cannot be resolved fairly', tone: 'void' }]
+      : [
+          { value: 'value', label: question.value_kind === 'date' ? 'The date is known' : 'The value is known' },
+          { value: 'void', label: 'Void — cannot be resolved fairly', tone: 'void' },
+        ];
+
+  async function onSubmit(event: FormEvent) {
+    event.preventDefault();
+    // As in the yes/no dialog: left as shown, the time is the stored one (or now, stamped by the diary).
+    const untouched = atLocal === initial.local;
+    const at = untouched ? (current?.at ?? null) : localToIso(atLocal, question.time_zone);
+    const found: Record<string, string> = {};
+    if (!untouched && !at) found.at = 'enter when it resolved';
+    const atProblem = at && !untouched ? typedTimeProblem(at, 'a resolution', question) : null;
+    if (atProblem) found.at = atProblem;
+    let outcome: { outcome: 'void' } | { outcome: 'option'; option: number } | { outcome: 'value'; value: number | string } | null = null;
+    if (choice === 'void') outcome = { outcome: 'void' };
+    else if (question.type === 'choice') {
+      if (choice === '') found.option = 'choose the option that came true, or Void';
+      else outcome = { outcome: 'option', option: Number(choice) };
+    } else {
+      const read = readValue(valueText, question.value_kind);
+      if (!read.ok) found.value = read.error;
+      else if (read.value === null) found.value = question.value_kind === 'date' ? 'pick the date it happened' : 'enter the value it took';
+      else outcome = { outcome: 'value', value: fromStoredValue(read.value, question.value_kind) };
+    }
+    const extra = { note, ...(at ? { at } : {}), ...(current && why.trim() ? { correction_note: why } : {}) };
+    const request = { id: question.id, ...(outcome ?? { outcome: '' }), ...extra };
+    if (!form.check(found, { schema: resolveRequest, request, placement: PLACEMENT }) || outcome === null) return;
+    const chosen = outcome;
+    let undo: string | null = null;
+    const ok = await form.submit(async () => {
+      const answer = await sendAskingFirst(ask, { confirmLabel: `Resolve ${outcomeText(question, chosen)} anyway` }, (confirm) =>
+        api.resolveQuestion({ id: question.id, ...chosen, ...extra, ...(confirm ? { confirm } : {}) }),
+      );
+      undo = answer?.undo ?? null;
+    }, PLACEMENT);
+    // Declined at the warning: nothing changed, and the form stays as typed.
+    if (ok && undo !== null) onSaved(`${current ? 'Resolution corrected to' : 'Resolved:'} ${outcomeText(question, chosen)}.`, undo);
+  }
+
+  return (
+    <Form form={form} label="Resolution" onSubmit={onSubmit} dirty={dirty}>
+      <ChoiceGroup
+        legend={question.type === 'choice' ? 'Which option came true?' : 'Outcome'}
+        value={choice}
+        choices={choices}
+        onChange={setChoice}
+        error={form.error('option') ?? form.error('outcome')}
+      />
+      {question.type === 'numeric' && choice === 'value' ? (
+        question.value_kind === 'date' ? (
+          <DateField label="Date it happened" value={valueText} onChange={setValueText} error={form.error('value')} />
+        ) : (
+          <NumberField label="Value" value={valueText} onChange={setValueText} suffix={question.unit || undefined} step="any" required error={form.error('value')} />
+        )
+      ) : null}
+      {choice === 'void' ? <p className="field__hint">Void questions are never scored.</p> : null}
+      <DateTimeField label="Resolved at" local={atLocal} onLocalChange={setAtLocal} timeZone={question.time_zone} required error={form.error('at')} />
+      <TextArea label="Note" value={note} onChange={setNote} hint="What happened, and where you can check it." error={form.error('note')} />
+      {current ? (
+        <TextArea
+          label="Why the correction"
+          value={why}
+          onChange={setWhy}
+          rows={2}
+          hint="Optional. The resolution it replaces is kept in the question’s history with this reason."
+          error={form.error('correction_note')}
+        />
+      ) : null}
+      <div className="form__actions">
+        <Button onClick={cancel}>Cancel</Button>
+        <Button type="submit" variant="primary" busy={form.busy}>
+          {current ? 'Save correction' : 'Resolve'}
+        </Button>
+      </div>
+    </Form>
+  );
+}
+
+/** "Ambledene", "16.5 weeks", "2026-03-31" or "Void". */
+export function outcomeText(
+  question: TypedQuestion,
+  outcome: { outcome: 'void' } | { outcome: 'option'; option: number } | { outcome: 'value'; value: number | string },
+): string {
+  if (outcome.outcome === 'void') return 'Void';
+  if (outcome.outcome === 'option') return question.type === 'choice' ? (question.options[outcome.option] ?? `option ${outcome.option + 1}`) : '';
+  return question.type === 'numeric' ? formatValue(toStoredValue(outcome.value, question.value_kind), question.value_kind, question.unit) : '';
+}
