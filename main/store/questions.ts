@@ -132,12 +132,26 @@ export interface NewForecast {
 
 const statements = new WeakMap<Db, Map<string, Statement>>();
 
-/** Prepared statements are cached per handle: an import of many thousand rows prepares each once. */
-function stmt(db: Db, sql: string): Statement {
+/** How a cached statement returns rows: objects (the default), arrays, or the first column. */
+type RowShape = 'object' | 'raw' | 'pluck';
+
+/**
+ * Prepared statements are cached per handle: an import of many thousand rows prepares each
+ * once. The row shape is part of the cache key and set once at preparation, because
+ * `.raw()` and `.pluck()` switch a statement for good: a shared statement switched by one
+ * caller would hand arrays to another that expects objects.
+ */
+function stmt(db: Db, sql: string, shape: RowShape = 'object'): Statement {
   let cache = statements.get(db);
   if (!cache) statements.set(db, (cache = new Map()));
-  let s = cache.get(sql);
-  if (!s) cache.set(sql, (s = db.prepare(sql)));
+  const key = `${shape}\u0000${sql}`;
+  let s = cache.get(key);
+  if (!s) {
+    s = db.prepare(sql);
+    if (shape === 'raw') s.raw(true);
+    else if (shape === 'pluck') s.pluck(true);
+    cache.set(key, s);
+  }
   return s;
 }
 
@@ -297,15 +311,13 @@ export function resolutionRow(db: Db, questionId: string): ResolutionRow | undef
 export function typeRows(db: Db, questionId: string): TypeRows {
   return {
     options: stmt(db, 'SELECT label, base_rate FROM question_options WHERE question_id = ? ORDER BY position').all(questionId) as OptionRow[],
-    levels: stmt(db, 'SELECT level FROM question_levels WHERE question_id = ? ORDER BY position')
-      .pluck()
-      .all(questionId) as number[],
+    levels: stmt(db, 'SELECT level FROM question_levels WHERE question_id = ? ORDER BY position', 'pluck').all(questionId) as number[],
   };
 }
 
 /** A choice or numeric revision's values in order (probabilities; quantiles with dates as days). */
 export function forecastValues(db: Db, forecastId: string): number[] {
-  return stmt(db, 'SELECT value FROM forecast_values WHERE forecast_id = ? ORDER BY position').pluck().all(forecastId) as number[];
+  return stmt(db, 'SELECT value FROM forecast_values WHERE forecast_id = ? ORDER BY position', 'pluck').all(forecastId) as number[];
 }
 
 export function questionCount(db: Db): number {
@@ -329,16 +341,16 @@ export function summaryTypeRows(db: Db, ids: string[]): Map<string, { options: s
   const list = JSON.stringify(ids);
   for (const id of ids) out.set(id, { options: [], levels: [], last: [] });
   type Pair = [string, string | number];
-  for (const [id, label] of stmt(db, 'SELECT question_id, label FROM question_options WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position').raw().all(list) as Pair[]) {
+  for (const [id, label] of stmt(db, 'SELECT question_id, label FROM question_options WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position', 'raw').all(list) as Pair[]) {
     out.get(id)!.options.push(label as string);
   }
-  for (const [id, level] of stmt(db, 'SELECT question_id, level FROM question_levels WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position').raw().all(list) as Pair[]) {
+  for (const [id, level] of stmt(db, 'SELECT question_id, level FROM question_levels WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position', 'raw').all(list) as Pair[]) {
     out.get(id)!.levels.push(level as number);
   }
   const lastSql = `SELECT j.value, v.value FROM json_each(?) j
     JOIN forecast_values v ON v.forecast_id = (SELECT id FROM forecasts WHERE question_id = j.value ORDER BY at DESC, seq DESC LIMIT 1)
     ORDER BY j.value, v.position`;
-  for (const [id, value] of stmt(db, lastSql).raw().all(list) as Pair[]) out.get(id)!.last.push(value as number);
+  for (const [id, value] of stmt(db, lastSql, 'raw').all(list) as Pair[]) out.get(id)!.last.push(value as number);
   return out;
 }
 

@@ -280,10 +280,11 @@ function relativeWisVsFirst(s: NumericScores): number | null {
 /**
  * Surprises (SCORING.md): the outcome fell outside the widest central interval; size =
  * distance outside / width, null for a zero-width interval. Zero-width ones first, then
- * largest size; ties by id in code units so the output is stable.
+ * largest size; ties by id in code units so the output is stable. `extra` adds fields to
+ * each (Hindsight's details) from the question's index in the set.
  */
-function surpriseDetails(set: NumericScoredSet, s: NumericScores): SurpriseDetail[] {
-  const out: SurpriseDetail[] = [];
+function collectSurprises<S extends Surprise>(set: NumericScoredSet, s: NumericScores, extra: (i: number, surprise: Surprise) => S): S[] {
+  const out: S[] = [];
   for (let i = 0; i < set.n; i++) {
     const c = s.intervals[i]![0];
     if (c === undefined) continue;
@@ -293,21 +294,9 @@ function surpriseDetails(set: NumericScoredSet, s: NumericScores): SurpriseDetai
     const y = set.y[i]!;
     if (y >= low && y <= high) continue;
     const width = high - low;
-    const distance = y < low ? low - y : y - high;
     const q = set.questions[i]!;
-    out.push({
-      id: q.id,
-      title: q.title,
-      value: y,
-      low,
-      high,
-      level: c.level,
-      size: width === 0 ? null : distance / width,
-      distance,
-      side: y < low ? 'below' : 'above',
-      quantiles: Array.from(set.q.subarray(off, set.offset[i + 1]!)),
-      T: set.T[i]!,
-    });
+    const surprise: Surprise = { id: q.id, title: q.title, value: y, low, high, level: c.level, size: width === 0 ? null : (y < low ? low - y : y - high) / width };
+    out.push(extra(i, surprise));
   }
   return out.sort((a, b) => {
     if (a.size === null || b.size === null) {
@@ -320,7 +309,7 @@ function surpriseDetails(set: NumericScoredSet, s: NumericScores): SurpriseDetai
 
 /** The surprises of `score --json`, in its members. */
 function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
-  return surpriseDetails(set, s).map(({ id, title, value, low, high, level, size }) => ({ id, title, value, low, high, level, size }));
+  return collectSurprises(set, s, (_, surprise) => surprise);
 }
 
 /**
@@ -334,7 +323,16 @@ function surprises(set: NumericScoredSet, s: NumericScores): Surprise[] {
  */
 export function computeNumericSurprises(questions: readonly ScoringNumericQuestion[], filter: ScoreFilter): SurpriseDetail[] {
   const set = prepareNumericSet(questions, filter);
-  return surpriseDetails(set, scoreNumericSet(set));
+  return collectSurprises(set, scoreNumericSet(set), (i, surprise): SurpriseDetail => {
+    const below = surprise.value < surprise.low;
+    return {
+      ...surprise,
+      distance: below ? surprise.low - surprise.value : surprise.value - surprise.high,
+      side: below ? 'below' : 'above',
+      quantiles: Array.from(set.q.subarray(set.offset[i]!, set.offset[i + 1]!)),
+      T: set.T[i]!,
+    };
+  });
 }
 
 /**

@@ -272,6 +272,8 @@ test('what-if costs move the threshold and the 2×2 table; default costs are sav
 
 for (const scheme of ['light', 'dark'] as const) {
   test(`the Scorecard passes an axe scan and is photographed (${scheme})`, async ({ browser }) => {
+    // The example diary fills the yes/no, choice and numeric sections: a long page to scan.
+    test.setTimeout(90_000);
     const app = await openApp(browser, server(), { colorScheme: scheme });
     try {
       await openScorecard(app);

@@ -118,6 +118,24 @@ test('choice and numeric questions come back exactly as given, with their defaul
   assert.deepEqual(found.questions.map((q: { id: string }) => q.id), [c.id]);
 });
 
+test('listing the diary does not change how a question is read afterwards (levels and options stay)', async () => {
+  // A list reads options, levels and last values as arrays; reading one question by id
+  // afterwards must still see every level and option (a shared statement once leaked its
+  // row shape from the list to the page and numeric questions came back with no levels).
+  const d = openTestDiary();
+  await choiceQuestion(d);
+  await d.call('listQuestions', {});
+  const n = await numericQuestion(d);
+  await d.call('listQuestions', {});
+  const back: NumericQuestion = await d.call('getQuestion', { id: n.id });
+  assert.deepEqual(back.levels, [0.1, 0.5, 0.9]);
+  const c = await choiceQuestion(d, { title: 'Which one, again?' });
+  await d.call('listQuestions', {});
+  const cb: ChoiceQuestion = await d.call('getQuestion', { id: c.id });
+  assert.deepEqual(cb.options, ['Kestrowe', 'Ambledene', 'Neither']);
+  assert.deepEqual(cb.option_base_rates, [0.45, 0.35, 0.2]);
+});
+
 test('a choice vector must sum to 100 % within 1e-6: the one-ulp neighbours of both edges', async () => {
   const d = openTestDiary();
   const q = await choiceQuestion(d, { options: ['A', 'B'], option_base_rates: null, first_forecast: undefined });

@@ -16,6 +16,7 @@ import { choiceSummary, numericSummary } from '../../questionTypes/summaries';
 import { hrefTo, questionPath } from '../../routing';
 import { choiceVerdictSentence, surpriseSentence } from './typedWording';
 import { wholePercent } from './wording';
+import './typedEntries.css';
 
 interface Revision {
   at: string;
@@ -46,7 +47,7 @@ function Revisions({ revisions, timeZone }: { revisions: Revision[]; timeZone: s
                 </span>
               )}
             </td>
-            <td className="hs-revisions__p">{f.said}</td>
+            <td className="hs-revisions__said">{f.said}</td>
             <td className="hs-revisions__note note" data-testid="revision-note">
               {f.note ? f.note : <span className="muted">No note written.</span>}
             </td>
