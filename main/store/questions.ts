@@ -556,7 +556,6 @@ export function toQuestion(b: QuestionBundle, now: number): Question {
 export function tagsOf(db: Db, ids: readonly string[]): Map<string, string[]> {
   const byId = new Map<string, string[]>();
   if (!ids.length) return byId;
-  // Row objects, not .raw(): statements are cached per SQL text and shared, and loadBundles runs this same text.
   const rows = stmt(db, 'SELECT question_id, tag FROM question_tags WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position').all(
     JSON.stringify(ids),
   ) as { question_id: string; tag: string }[];
