@@ -120,10 +120,28 @@ export const resolveRequest = z
 /** Reopening keeps the resolution it removes in the history, with `note` as the reason. */
 export const reopenRequest = z.object({ id, note: v.note.optional() });
 
+/**
+ * How the question list can be ordered. `attention` (the default) puts first what needs the
+ * user: closed questions waiting for their outcome, then check-ins due, then windows closing
+ * soon, then the other open questions, then resolved and void ones (see docs/api.md).
+ */
+export const LIST_SORTS = ['attention', 'title', 'status', 'closes', 'last_p', 'base_rate'] as const;
+export type ListSort = (typeof LIST_SORTS)[number];
+export const SORT_DIRECTIONS = ['asc', 'desc'] as const;
+export type SortDirection = (typeof SORT_DIRECTIONS)[number];
+/** The most questions one `listQuestions` page holds. */
+export const LIST_PAGE_MAX = 1000;
+
 export const listRequest = z.object({
   status: z.enum(QUESTION_STATUSES as [string, ...string[]], { error: `must be one of ${QUESTION_STATUSES.join(', ')}` }).optional(),
   tag: v.tag.optional(),
   text: v.searchText.optional(),
+  sort: z.enum(LIST_SORTS, { error: `must be one of ${LIST_SORTS.join(', ')}` }).optional(),
+  direction: z.enum(SORT_DIRECTIONS, { error: 'must be asc or desc' }).optional(),
+  /** How many matching questions to skip (paging); 0 when left out. */
+  offset: v.count(Number.MAX_SAFE_INTEGER).optional(),
+  /** The most questions to return, 1 to LIST_PAGE_MAX; every match when left out. */
+  limit: v.count(LIST_PAGE_MAX, 1).optional(),
 });
 
 export const settingsPatch = z.object(v.settingsFields).partial().strict();
@@ -149,6 +167,10 @@ export const hindsightRequest = z
       .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
       .default(0.8),
     include_hits: z.boolean({ error: 'must be true or false' }).default(false),
+    /** How many entries to skip (paging); 0 when left out. */
+    offset: v.count(Number.MAX_SAFE_INTEGER).optional(),
+    /** The most entries to return, 1 to LIST_PAGE_MAX; every one when left out. */
+    limit: v.count(LIST_PAGE_MAX, 1).optional(),
   })
   .refine(...v.toNotBeforeFrom);
 
@@ -222,10 +244,18 @@ export interface TagCount {
 }
 
 export interface QuestionList {
+  /** The page asked for: `limit` questions (all when no limit) from `offset`, in the order asked for. */
   questions: QuestionSummary[];
   tags: TagCount[];
   /** Number of questions in the whole diary, before filters. */
   total: number;
+  /** Number of questions the filters match, over all pages. */
+  matched: number;
+  /** Where this page starts among the matches (0: the first). */
+  offset: number;
+  /** The order the page is in (the default filled in). */
+  sort: ListSort;
+  direction: SortDirection;
 }
 
 /** A whole-diary export as text, ready to save: JSON v1, CSV (one row per revision) or iCalendar. */
@@ -385,11 +415,17 @@ export interface HindsightEntry {
 
 export interface Hindsight {
   threshold: number;
-  /** Yes/no questions. */
+  /** Yes/no questions: the page asked for (all when no limit), misses first, the most confident first; then hits. */
   entries: HindsightEntry[];
-  /** Choice questions whose top choice was held at the threshold: misses, and hits with include_hits (shared/hindsight-entries.ts). */
+  /** Where `entries` starts in the whole yes/no list (0: the first). */
+  offset: number;
+  /** Yes/no confident misses in the whole selection, over all pages. */
+  misses: number;
+  /** Yes/no confident hits in the whole selection (0 unless `include_hits`). */
+  hits: number;
+  /** Choice questions whose top choice was held at the threshold: misses, and hits with include_hits (shared/hindsight-entries.ts). Not paged. */
   choice_entries: ChoiceHindsightEntry[];
-  /** Numeric questions whose outcome fell outside the final forecast's widest range, the largest surprise first. */
+  /** Numeric questions whose outcome fell outside the final forecast's widest range, the largest surprise first. Not paged. */
   numeric_surprises: NumericHindsightEntry[];
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;

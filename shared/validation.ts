@@ -110,6 +110,14 @@ export const id = (typeError = 'must be text') =>
 /** Search text for the question list. */
 export const searchText = text('one').max(200, { message: 'must be at most 200 characters' });
 
+/** A whole number from `min` to `max` (paging: an offset or a page size). */
+export function count(max: number, min = 0) {
+  const rule = max === Number.MAX_SAFE_INTEGER ? `must be a whole number, ${min} or more` : `must be a whole number from ${min} to ${max}`;
+  return z
+    .number({ error: rule })
+    .refine((n) => Number.isInteger(n) && n >= min && n <= max, { message: rule });
+}
+
 export const positiveCost = z
   .number({ error: 'must be a number' })
   .refine((v) => Number.isFinite(v) && v > 0, { message: 'must be a cost greater than 0' });

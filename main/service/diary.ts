@@ -24,15 +24,12 @@ import {
   isBinary,
   isChoice,
   isNumeric,
-  questionStatus,
   type Lens,
   type NudgeKind,
   type AnyOutcome,
   type Question,
   type QuestionKind,
-  type QuestionSummary,
   type QuestionType,
-  type ValueKind,
   type ResolutionChangeKind,
   type Settings,
 } from '../../shared/domain';
@@ -47,7 +44,7 @@ import {
   type TypeIssue,
   type TypeShape,
 } from '../../shared/question-types';
-import { fromStoredValue, toStoredValue } from '../../shared/numeric-value';
+import { toStoredValue } from '../../shared/numeric-value';
 import { beforeOpeningProblem, earlyStateResolutionWarning, futureProblem, isEarlyStateResolution, onClock } from '../../shared/time-rules';
 import {
   computeChoiceDetail,
@@ -68,6 +65,7 @@ import * as qs from '../store/questions';
 import { readSettings, writeSettings } from '../store/settings';
 import * as undoStore from '../store/undo';
 import { confidentCalls, referenceLeads } from './hindsight';
+import { listQuestionPage } from './question-list';
 import { choiceHindsight, numericHindsight } from './hindsight-types';
 import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
@@ -330,89 +328,9 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   function listQuestions(req: ValidRequest<'listQuestions'>): QuestionList {
-    const t = now();
     const s = settings();
-    const where: string[] = [];
-    const args: unknown[] = [];
-    if (req.tag) {
-      where.push('q.id IN (SELECT question_id FROM question_tags WHERE tag = ?)');
-      args.push(req.tag);
-    }
-    const text = req.text?.trim();
-    if (text) {
-      // Search title, rule, tags, a choice question's options and the notes written with revisions; LIKE's own wildcards
-      // in the text are taken literally.
-      const like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-      where.push(
-        `(lower(q.title) LIKE ? ESCAPE '\\' OR lower(q.rule) LIKE ? ESCAPE '\\'
-          OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE ? ESCAPE '\\')
-          OR q.id IN (SELECT question_id FROM question_options WHERE lower(label) LIKE ? ESCAPE '\\')
-          OR q.id IN (SELECT question_id FROM forecasts WHERE lower(note) LIKE ? ESCAPE '\\'))`,
-      );
-      args.push(like, like, like, like, like);
-    }
-    const rows = read
-      .prepare(
-        `SELECT q.id, q.title, q.type, q.unit, q.value_kind, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome,
-           (SELECT json_group_array(tag) FROM (SELECT tag FROM question_tags WHERE question_id = q.id ORDER BY position)) AS tags,
-           (SELECT p FROM forecasts f WHERE f.question_id = q.id ORDER BY f.at DESC, f.seq DESC LIMIT 1) AS last_p,
-           (SELECT at FROM forecasts f WHERE f.question_id = q.id ORDER BY f.at DESC, f.seq DESC LIMIT 1) AS last_at,
-           (SELECT count(*) FROM forecasts f WHERE f.question_id = q.id) AS forecast_count
-         FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id
-         ${where.length ? `WHERE ${where.join(' AND ')}` : ''}
-         ORDER BY q.closes_at, q.title`,
-      )
-      .all(...args) as {
-      id: string;
-      title: string;
-      type: QuestionType;
-      unit: string | null;
-      value_kind: ValueKind | null;
-      kind: QuestionKind;
-      opened_at: number;
-      closes_at: number;
-      time_zone: string;
-      base_rate: number | null;
-      checkin_days: number | null;
-      outcome: AnyOutcome | null;
-      tags: string;
-      last_p: number | null;
-      last_at: number | null;
-      forecast_count: number;
-    }[];
-    const questions: QuestionSummary[] = [];
-    // Choice and numeric questions' options, levels and last values, in three queries for all of them.
-    const typed = qs.summaryTypeRows(read, rows.filter((r) => r.type !== 'binary').map((r) => r.id));
-    for (const r of rows) {
-      const status = questionStatus(r.closes_at, r.outcome, t, s.closing_soon_hours);
-      if (req.status && req.status !== status) continue;
-      const extra = typed.get(r.id);
-      const kind: ValueKind = r.value_kind ?? 'number';
-      questions.push({
-        id: r.id,
-        title: r.title,
-        type: r.type,
-        kind: r.kind,
-        tags: JSON.parse(r.tags) as string[],
-        opened_at: toIso(r.opened_at),
-        closes_at: toIso(r.closes_at),
-        time_zone: r.time_zone,
-        base_rate: r.base_rate,
-        last_p: r.last_p,
-        options: r.type === 'choice' ? (extra?.options ?? []) : null,
-        last_probs: r.type === 'choice' && extra?.last.length ? extra.last : null,
-        unit: r.type === 'numeric' ? (r.unit ?? '') : null,
-        value_kind: r.type === 'numeric' ? kind : null,
-        levels: r.type === 'numeric' ? (extra?.levels ?? []) : null,
-        last_quantiles: r.type === 'numeric' && extra?.last.length ? extra.last.map((x) => fromStoredValue(x, kind)) : null,
-        last_forecast_at: r.last_at === null ? null : toIso(r.last_at),
-        forecast_count: r.forecast_count,
-        status,
-        outcome: r.outcome,
-        stale: !r.outcome && stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null, s, t),
-      });
-    }
-    return { questions, tags: qs.allTagCounts(read), total: qs.questionCount(read) };
+    const t = now();
+    return listQuestionPage({ read, settings: s, now: t, stale: (q, last) => stale(q, last, s, t) }, req);
   }
 
   /** The file's settings, written into an empty diary (the caller holds the transaction). */
@@ -1152,9 +1070,12 @@ export function createDiary(ctx: DiaryContext) {
       const options = scoreOptions(req);
       const t = now();
       const typed = typedScoringInput();
+      const offset = req.offset ?? 0;
+      const page = confidentCalls(questions, options, req.threshold, req.include_hits, detailsOf(isBinary, t), { offset, limit: req.limit });
       return {
         threshold: req.threshold,
-        entries: confidentCalls(questions, options, req.threshold, req.include_hits, detailsOf(isBinary, t)),
+        offset,
+        ...page,
         choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
         numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
         report: computeScoreReport(questions, options),

@@ -8,22 +8,34 @@ import type { BinaryQuestion } from '../../shared/domain';
 import { confidentVerdict, prepareScoredSet, referenceLead, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
 import { toIso } from '../../shared/time';
 
+/**
+ * The confident calls of the selection, misses first (the most confident, i.e. worst, first),
+ * then hits (most confident first), with the counts of each; only the page from `offset`
+ * (`limit` entries, all when undefined) is read in full.
+ */
 export function confidentCalls(
   scoring: ScoringQuestion[],
   options: ScoreOptions,
   threshold: number,
   includeHits: boolean,
   details: (ids: string[]) => BinaryQuestion[],
-): HindsightEntry[] {
+  page: { offset: number; limit?: number } = { offset: 0 },
+): { entries: HindsightEntry[]; misses: number; hits: number } {
   const set = prepareScoredSet(scoring, options);
-  const picked: { i: number; verdict: 'miss' | 'hit' }[] = [];
+  const picked: { i: number; verdict: 'miss' | 'hit'; distance: number }[] = [];
   for (let i = 0; i < set.n; i++) {
     const verdict = confidentVerdict(set.p[i]!, set.o[i]!, threshold);
     if (verdict === null || (verdict === 'hit' && !includeHits)) continue;
-    picked.push({ i, verdict });
+    picked.push({ i, verdict, distance: Math.abs(set.p[i]! - set.o[i]!) });
   }
-  const byId = new Map(details(picked.map(({ i }) => set.questions[i]!.id)).map((q) => [q.id, q]));
-  const entries = picked.map(({ i, verdict }): HindsightEntry => {
+  // Array.prototype.sort is stable: equal distances keep the scored set's order.
+  picked.sort((a, b) =>
+    a.verdict !== b.verdict ? (a.verdict === 'miss' ? -1 : 1) : a.verdict === 'miss' ? b.distance - a.distance : a.distance - b.distance,
+  );
+  const misses = picked.filter((x) => x.verdict === 'miss').length;
+  const shown = picked.slice(page.offset, page.limit === undefined ? undefined : page.offset + page.limit);
+  const byId = new Map(details(shown.map(({ i }) => set.questions[i]!.id)).map((q) => [q.id, q]));
+  const entries = shown.map(({ i, verdict }): HindsightEntry => {
     const q = byId.get(set.questions[i]!.id)!;
     const T = set.T[i]!;
     return {
@@ -40,11 +52,7 @@ export function confidentCalls(
       forecasts: q.forecasts.map((f) => ({ at: f.at, p: f.p, note: f.note, counted: Date.parse(f.at) <= T })),
     };
   });
-  // Misses first, the most confident (worst) first; then hits, most confident first.
-  const distance = (e: HindsightEntry) => Math.abs(e.final_p - (e.outcome === 'yes' ? 1 : 0));
-  return entries.sort((a, b) =>
-    a.verdict !== b.verdict ? (a.verdict === 'miss' ? -1 : 1) : a.verdict === 'miss' ? distance(b) - distance(a) : distance(a) - distance(b),
-  );
+  return { entries, misses, hits: picked.length - misses };
 }
 
 /**

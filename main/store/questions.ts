@@ -576,3 +576,27 @@ export function toQuestion(b: QuestionBundle, now: number): Question {
   const references: ReferenceForecast[] = b.references.map((r) => ({ id: r.id, at: toIso(r.at), p: r.p!, source: r.source }));
   return { type: 'binary', ...base, base_rate: row.base_rate, costs, forecasts, references, resolution, resolution_history };
 }
+
+/** The tags of each question asked for, in their order. */
+export function tagsOf(db: Db, ids: readonly string[]): Map<string, string[]> {
+  const byId = new Map<string, string[]>();
+  if (!ids.length) return byId;
+  const rows = stmt(db, 'SELECT question_id, tag FROM question_tags WHERE question_id IN (SELECT value FROM json_each(?)) ORDER BY question_id, position').all(
+    JSON.stringify(ids),
+  ) as { question_id: string; tag: string }[];
+  for (const { question_id: id, tag } of rows) {
+    const list = byId.get(id);
+    if (list) list.push(tag);
+    else byId.set(id, [tag]);
+  }
+  return byId;
+}
+
+/** How many revisions each question asked for has (absent: none). */
+export function forecastCountsOf(db: Db, ids: readonly string[]): Map<string, number> {
+  if (!ids.length) return new Map();
+  const rows = stmt(db, 'SELECT question_id, count(*) AS n FROM forecasts WHERE question_id IN (SELECT value FROM json_each(?)) GROUP BY question_id').all(
+    JSON.stringify(ids),
+  ) as { question_id: string; n: number }[];
+  return new Map(rows.map((r) => [r.question_id, r.n]));
+}

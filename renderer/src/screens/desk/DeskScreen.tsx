@@ -17,6 +17,7 @@ import { useUndoToast } from '../../forgiving/undo';
 import { useDocumentTitle } from '../../hooks';
 import { hrefTo } from '../../routing';
 import { QUICK_ADD_ARIA_SHORTCUTS, QUICK_ADD_SHORTCUT_TEXT, useQuickAdd } from '../questions/quickAdd';
+import { DeskGroupList } from './DeskGroupList';
 import { DeskItemCard, type Done } from './DeskItemCard';
 import { GROUPS, deskItems, summary, type DeskItem } from './items';
 import { SnoozedSection } from './SnoozedSection';
@@ -89,11 +90,12 @@ export function DeskScreen() {
                   </h2>
                   <p className="desk-group__intro">{intro}</p>
                 </div>
-                <ul className="desk-group__list">
-                  {listed.map((item) => (
+                <DeskGroupList
+                  items={listed}
+                  render={(item) => (
                     <DeskItemCard key={item.id} item={item} now={now} diaryTimeZone={diaryTimeZone} onDone={onDone} onFailed={onFailed} />
-                  ))}
-                </ul>
+                  )}
+                />
               </section>
             );
           })

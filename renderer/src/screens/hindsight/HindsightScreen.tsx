@@ -6,7 +6,7 @@
  * The root carries `data-hindsight-ready`: "true" once the answer for the current choices is
  * on screen, "false" while one is on its way. Tests wait on it rather than on timing.
  */
-import { useCallback, useMemo, useRef, useState } from 'react';
+import { useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
 import type { Hindsight, HindsightEntry, Request } from '../../../../shared/contract';
 import { api } from '../../api/client';
 import { describeError } from '../../api/errors';
@@ -16,18 +16,21 @@ import { EmptyState } from '../../components/EmptyState';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { useDefaultTimeZone } from '../../diaryInfo';
 import { useDebounced, useDocumentTitle } from '../../hooks';
-import { hrefTo } from '../../routing';
+import { hrefTo, useQueryState } from '../../routing';
 import { BriefingPreview } from './BriefingPreview';
 import { CalibrationSummary } from './CalibrationSummary';
 import { EntryCard } from './EntryCard';
 import { HindsightFilters } from './HindsightFilters';
 import { TypedEntrySections } from './TypedEntryCards';
-import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, type HindsightSelection } from './selection';
+import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, decodeSelection, encodeSelection, type HindsightSelection } from './selection';
 import { confidentMeaning, plural, wholePercent } from './wording';
 import './hindsight.css';
 
 /** Dragging the slider or typing a date asks once it settles, not at every step. */
 const SETTLE_MS = 150;
+
+/** Calls listed at first and added by each "Show more": each is a card with its whole history. */
+const ENTRY_PAGE = 20;
 
 interface Asked {
   key: string;
@@ -42,16 +45,24 @@ function asked(selection: HindsightSelection, request: Request<'hindsight'> | nu
 export function HindsightScreen() {
   useDocumentTitle('Hindsight');
   const timeZone = useDefaultTimeZone();
-  const [selection, setSelection] = useState<HindsightSelection>(INITIAL_SELECTION);
+  const [selection, change] = useQueryState(decodeSelection, encodeSelection);
+  // How many calls are listed; "Show more" adds a page.
+  const [shown, setShown] = useState(ENTRY_PAGE);
   const built = useMemo(() => buildSelection(selection, timeZone), [selection, timeZone]);
   const wanted = useMemo(() => asked(selection, built.request), [selection, built.request]);
 
   // The last usable choices: while a field is half-typed the screen keeps showing them.
-  const [active, setActive] = useState<Asked>(() => asked(INITIAL_SELECTION, buildSelection(INITIAL_SELECTION, timeZone).request)!);
-  if (wanted && wanted.key !== active.key) setActive(wanted);
+  const [active, setActive] = useState<Asked>(() => wanted ?? asked(INITIAL_SELECTION, buildSelection(INITIAL_SELECTION, timeZone).request)!);
+  if (wanted && wanted.key !== active.key) {
+    setActive(wanted);
+    setShown(ENTRY_PAGE);
+  }
   const settled = useDebounced(active, SETTLE_MS);
 
-  const loaded = useLoad(() => api.hindsight(settled.request).then((hindsight) => ({ key: settled.key, hindsight })), [settled.key]);
+  const loaded = useLoad(
+    () => api.hindsight({ ...settled.request, limit: shown }).then((hindsight) => ({ key: settled.key, hindsight })),
+    [settled.key, shown],
+  );
   const list = useLoad(() => api.listTags({}), []);
   // How many times the briefing was asked for: each ask brings the open preview into view.
   const [briefingAsks, setBriefingAsks] = useState(0);
@@ -61,7 +72,6 @@ export function HindsightScreen() {
     briefingButton.current?.focus();
   }, []);
 
-  const change = useCallback((changes: Partial<HindsightSelection>) => setSelection((s) => ({ ...s, ...changes })), []);
   const current = loaded.data && loaded.data.key === active.key && !loaded.loading;
   const tag = settled.request.tag ?? '';
   const threshold = settled.request.threshold ?? DEFAULT_THRESHOLD_PERCENT / 100;
@@ -84,7 +94,13 @@ export function HindsightScreen() {
       {briefingAsks > 0 ? <BriefingPreview tag={tag} threshold={threshold} focusSignal={briefingAsks} onClose={closeBriefing} /> : null}
       {loaded.error ? <ErrorBanner message={describeError(loaded.error)} onRetry={loaded.reload} /> : null}
       {loaded.data ? (
-        <HindsightBody hindsight={loaded.data.hindsight} selection={settled.selection} timeZone={timeZone} />
+        <HindsightBody
+          hindsight={loaded.data.hindsight}
+          selection={settled.selection}
+          timeZone={timeZone}
+          onMore={() => setShown((n) => n + ENTRY_PAGE)}
+          busy={loaded.loading}
+        />
       ) : loaded.error ? null : (
         <p className="muted" role="status">
           Looking back over your resolved questions…
@@ -110,10 +126,25 @@ interface BodyProps {
   hindsight: Hindsight;
   selection: HindsightSelection;
   timeZone: string;
+  onMore: () => void;
+  busy: boolean;
 }
 
-function HindsightBody({ hindsight, selection, timeZone }: BodyProps) {
+function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyProps) {
   const { report, threshold, entries } = hindsight;
+  const listed = hindsight.offset + entries.length;
+  const more = hindsight.misses + hindsight.hits - listed;
+  const moreButton =
+    more > 0 ? (
+      <div className="hs-more">
+        <Button onClick={onMore} busy={busy}>
+          Show {Math.min(more, ENTRY_PAGE)} more
+        </Button>
+        <span className="muted">
+          {listed} of {hindsight.misses + hindsight.hits} listed
+        </span>
+      </div>
+    ) : null;
   const filtered = selection.tag !== '' || selection.from !== '' || selection.to !== '';
   // The counts are yes/no counts; choice and numeric questions bring their own entries.
   const typedEntries = hindsight.choice_entries.length + hindsight.numeric_surprises.length;
@@ -139,11 +170,11 @@ function HindsightBody({ hindsight, selection, timeZone }: BodyProps) {
         {report.scored > 0 ? (
           <>
             <p className="hs-count" data-testid="hindsight-count">
-              <strong>{plural(misses.length, 'confident miss', 'confident misses')}</strong>
+              <strong>{plural(hindsight.misses, 'confident miss', 'confident misses')}</strong>
               {selection.includeHits ? (
                 <>
                   {' '}
-                  and <strong>{plural(hits.length, 'confident hit', 'confident hits')}</strong>
+                  and <strong>{plural(hindsight.hits, 'confident hit', 'confident hits')}</strong>
                 </>
               ) : null}{' '}
               among n = {report.scored} scored questions. Confident at {at}: a {confidentMeaning(threshold)}.
@@ -152,8 +183,10 @@ function HindsightBody({ hindsight, selection, timeZone }: BodyProps) {
               id="hs-misses"
               title="Confident misses"
               entries={misses}
+              count={hindsight.misses}
               threshold={threshold}
               timeZone={timeZone}
+              more={misses.length < hindsight.misses ? moreButton : null}
               empty={`No confident misses at ${at} in this selection — that is good news, or a small sample: n = ${report.scored}.`}
             />
             {selection.includeHits ? (
@@ -161,8 +194,10 @@ function HindsightBody({ hindsight, selection, timeZone }: BodyProps) {
                 id="hs-hits"
                 title="Confident hits"
                 entries={hits}
+                count={hindsight.hits}
                 threshold={threshold}
                 timeZone={timeZone}
+                more={misses.length === hindsight.misses ? moreButton : null}
                 empty={`No confident hits at ${at} in this selection (n = ${report.scored}).`}
               />
             ) : null}
@@ -180,20 +215,30 @@ function HindsightBody({ hindsight, selection, timeZone }: BodyProps) {
 interface EntrySectionProps {
   id: string;
   title: string;
+  /** The entries listed so far (a page or more). */
   entries: HindsightEntry[];
+  /** How many the whole selection has. */
+  count: number;
+  /** The "Show more" control, when this section is where the listing stopped. */
+  more: ReactNode;
   threshold: number;
   timeZone: string;
   empty: string;
 }
 
-function EntrySection({ id, title, entries, threshold, timeZone, empty }: EntrySectionProps) {
+function EntrySection({ id, title, entries, count, more, threshold, timeZone, empty }: EntrySectionProps) {
   return (
     <section className="hs-section" aria-labelledby={id} data-testid={id}>
       <h2 id={id} className="hs-section__title">
-        {title} <span className="hs-section__n">({entries.length})</span>
+        {title} <span className="hs-section__n">({count})</span>
       </h2>
-      {entries.length ? (
-        entries.map((entry) => <EntryCard key={entry.id} entry={entry} threshold={threshold} timeZone={timeZone} />)
+      {count ? (
+        <>
+          {entries.map((entry) => (
+            <EntryCard key={entry.id} entry={entry} threshold={threshold} timeZone={timeZone} />
+          ))}
+          {more}
+        </>
       ) : (
         <p className="hs-empty" data-testid="hindsight-empty">
           {empty}

@@ -82,3 +82,27 @@ export function briefingFileName(tag: string): string {
     .replace(/^[-.]+|[-.]+$/g, '');
   return `forelog-briefing-${slug || 'whole-diary'}.html`;
 }
+
+/**
+ * The selection as kept in the address (`#/hindsight?tag=…&confident=…&from=…&to=…&hits=1`),
+ * so Back, Forward and a reload keep it; what is left out is the initial choice.
+ */
+export function decodeSelection(query: URLSearchParams): HindsightSelection {
+  return {
+    tag: query.get('tag') ?? INITIAL_SELECTION.tag,
+    threshold: query.get('confident') ?? INITIAL_SELECTION.threshold,
+    from: query.get('from') ?? INITIAL_SELECTION.from,
+    to: query.get('to') ?? INITIAL_SELECTION.to,
+    includeHits: query.get('hits') === '1',
+  };
+}
+
+export function encodeSelection(selection: HindsightSelection): Record<string, string> {
+  return {
+    tag: selection.tag,
+    confident: selection.threshold === INITIAL_SELECTION.threshold ? '' : selection.threshold,
+    from: selection.from,
+    to: selection.to,
+    hits: selection.includeHits ? '1' : '',
+  };
+}

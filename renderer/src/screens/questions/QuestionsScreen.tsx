@@ -2,29 +2,26 @@
  * Questions: every call in the diary, filtered by status, tag and text. An empty diary offers
  * the example diary or a first question instead of an empty table.
  */
-import { useState, type MouseEvent } from 'react';
-import type { QuestionStatus, QuestionSummary } from '../../../../shared/domain';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { LIST_SORTS, type ListSort, type SortDirection } from '../../../../shared/contract';
 import { QUESTION_STATUSES } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
-import { useLoad } from '../../api/useLoad';
 import { Button } from '../../components/Button';
 import { EmptyState } from '../../components/EmptyState';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { Select } from '../../components/Select';
-import { StatusPill, statusLabel } from '../../components/StatusPill';
+import { statusLabel } from '../../components/StatusPill';
 import { TextField } from '../../components/TextField';
 import { useToast } from '../../components/Toast';
-import { formatInstant } from '../../dates';
 import { useDiaryInfo } from '../../diaryInfo';
-import { useDebounced, useDocumentTitle } from '../../hooks';
-import { formatPercent } from '../../percent';
-import { hrefTo, navigate, questionPath } from '../../routing';
+import { useDocumentTitle } from '../../hooks';
+import { parseRoute, replaceQuery, useQueryState, useRoute } from '../../routing';
+import { decodeListQuery, encodeListQuery, isFiltered, nextSort, rememberList, rememberedList, type StatusFilter } from './listQuery';
+import { QuestionTable } from './QuestionTable';
+import { useQuestionPages } from './useQuestionPages';
 import { QUICK_ADD_ARIA_SHORTCUTS, QUICK_ADD_SHORTCUT_TEXT, useQuickAdd } from './quickAdd';
-import { lastForecastText } from '../../questionTypes/summaries';
-
-type StatusFilter = QuestionStatus | 'all';
 
 const STATUS_OPTIONS = [
   { value: 'all', label: 'All' },
@@ -90,117 +87,111 @@ function FirstRun({ onNew }: { onNew: () => void }) {
 }
 
 function QuestionList() {
-  const [status, setStatus] = useState<StatusFilter>('all');
-  const [tag, setTag] = useState('');
-  const [text, setText] = useState('');
-  const search = useDebounced(text.trim(), 250);
-
-  const list = useLoad(
-    () =>
-      api.listQuestions({
-        ...(status !== 'all' ? { status } : {}),
-        ...(tag ? { tag } : {}),
-        ...(search ? { text: search } : {}),
-      }),
-    [status, tag, search],
+  const [query, change] = useQueryState(decodeListQuery, encodeListQuery);
+  const search = query.text.trim();
+  const request = useMemo(
+    () => ({
+      ...(query.status !== 'all' ? { status: query.status } : {}),
+      ...(query.tag ? { tag: query.tag } : {}),
+      ...(search ? { text: search } : {}),
+      sort: query.sort,
+      direction: query.direction,
+    }),
+    [query.status, query.tag, search, query.sort, query.direction],
   );
+  const pages = useQuestionPages(request);
+  useListMemory(pages.key !== null);
 
-  const tagOptions = [
-    { value: '', label: 'All tags' },
-    ...(list.data?.tags ?? []).map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` })),
-  ];
+  const tagOptions = [{ value: '', label: 'All tags' }, ...pages.tags.map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` }))];
   // Keep a chosen tag selectable even when the current filters leave no question carrying it.
-  if (tag && !tagOptions.some((o) => o.value === tag)) tagOptions.push({ value: tag, label: tag });
-  const filtered = status !== 'all' || tag !== '' || search !== '';
+  if (query.tag && !tagOptions.some((o) => o.value === query.tag)) tagOptions.push({ value: query.tag, label: query.tag });
+  const onSort = useCallback((sort: ListSort) => change(nextSort(query, sort)), [change, query]);
 
   return (
     <>
       <div role="search" className="filters" aria-label="Filter questions">
-        <TextField label="Search" type="search" value={text} onChange={setText} placeholder="Title, rule or note" className="filters__search" />
-        <Select label="Status" value={status} options={STATUS_OPTIONS} onChange={(v) => setStatus(v as StatusFilter)} />
-        <Select label="Tag" value={tag} options={tagOptions} onChange={setTag} />
+        <TextField label="Search" type="search" value={query.text} onChange={(text) => change({ text })} placeholder="Title, rule or note" className="filters__search" />
+        <Select label="Status" value={query.status} options={STATUS_OPTIONS} onChange={(v) => change({ status: v as StatusFilter })} />
+        <Select label="Tag" value={query.tag} options={tagOptions} onChange={(tag) => change({ tag })} />
+        <Select
+          label="Order"
+          value={`${query.sort}:${query.direction}`}
+          options={ORDER_OPTIONS}
+          onChange={(v) => {
+            const [sort, direction] = v.split(':') as [ListSort, SortDirection];
+            change({ sort, direction });
+          }}
+        />
       </div>
-      {list.error ? <ErrorBanner message={describeError(list.error)} onRetry={list.reload} /> : null}
-      {list.data ? (
-        list.data.questions.length === 0 ? (
+      {pages.error ? <ErrorBanner message={describeError(pages.error)} onRetry={pages.retry} /> : null}
+      {pages.key !== null ? (
+        pages.matched === 0 ? (
           <EmptyState
             title="No questions match"
-            actions={
-              filtered ? (
-                <Button
-                  onClick={() => {
-                    setStatus('all');
-                    setTag('');
-                    setText('');
-                  }}
-                >
-                  Clear filters
-                </Button>
-              ) : undefined
-            }
+            actions={isFiltered(query) ? <Button onClick={() => change({ text: '', status: 'all', tag: '' })}>Clear filters</Button> : undefined}
           >
             <p>Nothing in the diary fits these filters.</p>
           </EmptyState>
         ) : (
-          <QuestionTable questions={list.data.questions} total={list.data.total} busy={list.loading} />
+          <QuestionTable pages={pages} query={query} busy={pages.loading} onSort={onSort} />
         )
       ) : null}
     </>
   );
 }
 
-function QuestionTable({ questions, total, busy }: { questions: QuestionSummary[]; total: number; busy: boolean }) {
-  return (
-    <div className="table-card" aria-busy={busy || undefined}>
-      <table className="question-table" data-testid="question-table">
-        <caption className="table-card__caption">
-          {questions.length === total ? `${total} questions` : `${questions.length} of ${total} questions`}
-        </caption>
-        <thead>
-          <tr>
-            <th scope="col">Question</th>
-            <th scope="col">Status</th>
-            <th scope="col">Closes</th>
-            <th scope="col" className="num">
-              Last forecast
-            </th>
-            <th scope="col" className="num">
-              Base rate
-            </th>
-          </tr>
-        </thead>
-        <tbody>
-          {questions.map((q) => (
-            <tr key={q.id} className="question-row" onClick={(event) => openRow(event, q.id)}>
-              <td>
-                <a href={hrefTo(questionPath(q.id))} className="question-row__title">
-                  {q.title}
-                </a>
-                {q.tags.length > 0 ? (
-                  <span className="question-row__tags">
-                    <span className="visually-hidden">Tags: </span>
-                    {q.tags.join(' · ')}
-                  </span>
-                ) : null}
-              </td>
-              <td>
-                <StatusPill status={q.status} outcome={q.outcome} />
-              </td>
-              <td className="nowrap">
-                <time dateTime={q.closes_at}>{formatInstant(q.closes_at, q.time_zone)}</time>
-              </td>
-              <td className="num">{lastForecastText(q)}</td>
-              <td className="num">{formatPercent(q.base_rate)}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  );
+const SORT_LABELS: Record<ListSort, [string, string]> = {
+  attention: ['Needs attention first', 'Needs attention last'],
+  title: ['Title, A to Z', 'Title, Z to A'],
+  status: ['Status, open first', 'Status, void first'],
+  closes: ['Closes, soonest first', 'Closes, latest first'],
+  last_p: ['Last forecast, lowest first', 'Last forecast, highest first'],
+  base_rate: ['Base rate, lowest first', 'Base rate, highest first'],
+};
+
+const ORDER_OPTIONS = LIST_SORTS.flatMap((sort) => [
+  { value: `${sort}:asc`, label: SORT_LABELS[sort][0] },
+  { value: `${sort}:desc`, label: SORT_LABELS[sort][1] },
+]);
+
+/**
+ * Remembers the list's address and scroll position when the user leaves it, and on coming
+ * back brings them back: the address from the navigation bar (which has no filters in it),
+ * the scroll position once the first rows are there to scroll over.
+ */
+function useListMemory(ready: boolean) {
+  const route = useRoute();
+  const search = route.query.toString();
+  const restore = useRef(rememberedList());
+  useEffect(() => {
+    const memory = restore.current;
+    if (memory && search === '' && memory.search !== '') replaceQueryString(memory.search);
+    // Only on arrival: later changes of the address are the user's.
+  }, []);
+  useEffect(() => {
+    if (!ready) return;
+    const memory = restore.current;
+    restore.current = null;
+    // After the window's own move to the top of a newly opened screen (App).
+    if (memory && memory.scrollY > 0) requestAnimationFrame(() => window.scrollTo(0, memory.scrollY));
+  }, [ready]);
+  const latest = useRef(search);
+  latest.current = search;
+  useEffect(() => {
+    // Kept as the user scrolls: by the time the list unmounts, following a link to a question
+    // has already moved the window to the top. Scrolls after the address left the list are not its own.
+    let scrollY = window.scrollY;
+    const onScroll = () => {
+      if (parseRoute(window.location.hash).path === 'questions') scrollY = window.scrollY;
+    };
+    window.addEventListener('scroll', onScroll, { passive: true });
+    return () => {
+      window.removeEventListener('scroll', onScroll);
+      rememberList(latest.current, scrollY);
+    };
+  }, []);
 }
 
-/** A click anywhere on a row opens the question; the title link is the keyboard route. */
-function openRow(event: MouseEvent, id: string) {
-  if ((event.target as HTMLElement).closest('a, button')) return;
-  navigate(questionPath(id));
+function replaceQueryString(search: string) {
+  replaceQuery(Object.fromEntries(new URLSearchParams(search)));
 }

@@ -88,7 +88,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   const typed = useTypedDraft();
 
   useEffect(() => {
-    api.listQuestions({}).then(
+    api.listTags({}).then(
       (list) => setKnownTags(list.tags.map((t) => t.tag)),
       () => setKnownTags([]),
     );

@@ -9,7 +9,7 @@
  * "false" while one is on its way; written by useScorecard) and `data-scorecard-tag` (the tag
  * filter, "" for all): tests and the benchmark wait on these rather than on timing.
  */
-import { useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
+import { useCallback, useMemo, useRef, type ReactNode } from 'react';
 import type { Scorecard } from '../../../../shared/contract';
 import type { Settings } from '../../../../shared/domain';
 import { api } from '../../api/client';
@@ -19,13 +19,13 @@ import { EmptyState } from '../../components/EmptyState';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { useDefaultTimeZone } from '../../diaryInfo';
 import { useDocumentTitle } from '../../hooks';
-import { hrefTo } from '../../routing';
+import { hrefTo, useQueryState } from '../../routing';
 import { CalibrationChart } from './CalibrationChart';
 import { ChoiceSection } from './ChoiceSection';
 import { Consequences } from './Consequences';
 import { Decomposition } from './Decomposition';
 import { Filters } from './Filters';
-import { EMPTY_FILTER, buildRequest, type FilterProblems, type ScorecardFilter } from './filterRequest';
+import { buildRequest, decodeFilter, encodeFilter, type FilterProblems, type ScorecardFilter } from './filterRequest';
 import { Headline } from './Headline';
 import { NumericSection } from './NumericSection';
 import { ReferenceLeads } from './ReferenceLeads';
@@ -38,14 +38,13 @@ import './scorecard.css';
 export function ScorecardScreen() {
   useDocumentTitle('Scorecard');
   const timeZone = useDefaultTimeZone();
-  const [filter, setFilter] = useState<ScorecardFilter>(EMPTY_FILTER);
+  const [filter, change] = useQueryState(decodeFilter, encodeFilter);
   const built = useMemo(() => buildRequest(filter, timeZone), [filter, timeZone]);
   const root = useRef<HTMLDivElement>(null);
   const loaded = useScorecard(built.request, root);
   const list = useLoad(() => api.listTags({}), []);
   const settings = useLoad(() => api.getSettings({}), []);
 
-  const change = useCallback((changes: Partial<ScorecardFilter>) => setFilter((f) => ({ ...f, ...changes })), []);
   const setWhatIf = useCallback((whatIfFalseAlarm: string, whatIfMiss: string) => change({ whatIfFalseAlarm, whatIfMiss }), [change]);
   const filtered = filter.tag !== '' || filter.from !== '' || filter.to !== '';
 

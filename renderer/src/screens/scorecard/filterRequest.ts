@@ -18,7 +18,6 @@ export interface ScorecardFilter {
   whatIfMiss: string;
 }
 
-export const EMPTY_FILTER: ScorecardFilter = { tag: '', from: '', to: '', whatIfFalseAlarm: '', whatIfMiss: '' };
 
 export interface FilterProblems {
   from?: string;
@@ -67,4 +66,22 @@ export function buildRequest(filter: ScorecardFilter, timeZone: string): BuiltRe
     problems,
     whatIf,
   };
+}
+
+/**
+ * The filter as kept in the address (`#/scorecard?tag=…&from=…&to=…&false_alarm=…&miss=…`),
+ * so Back, Forward and a reload keep it; what is left out is empty.
+ */
+export function decodeFilter(query: URLSearchParams): ScorecardFilter {
+  return {
+    tag: query.get('tag') ?? '',
+    from: query.get('from') ?? '',
+    to: query.get('to') ?? '',
+    whatIfFalseAlarm: query.get('false_alarm') ?? '',
+    whatIfMiss: query.get('miss') ?? '',
+  };
+}
+
+export function encodeFilter(filter: ScorecardFilter): Record<string, string> {
+  return { tag: filter.tag, from: filter.from, to: filter.to, false_alarm: filter.whatIfFalseAlarm, miss: filter.whatIfMiss };
 }

@@ -1,0 +1,52 @@
+/**
+ * One Desk group's items, a page at a time: a diary with thousands of questions due would
+ * otherwise draw thousands of cards before the first could be used. The first page is what
+ * a morning's work looks like; "Show more" adds the next, and focus moves to the first card
+ * it added, so a keyboard user carries on where the list ended.
+ */
+import { useEffect, useRef, useState, type ReactNode } from 'react';
+import { Button } from '../../components/Button';
+import type { DeskItem } from './items';
+
+/** Cards drawn at first in each group, and added by each "Show more". */
+export const DESK_PAGE = 30;
+
+export interface DeskGroupListProps {
+  items: readonly DeskItem[];
+  render: (item: DeskItem) => ReactNode;
+}
+
+export function DeskGroupList({ items, render }: DeskGroupListProps) {
+  const [shown, setShown] = useState(DESK_PAGE);
+  const focusFrom = useRef<number | null>(null);
+  const listRef = useRef<HTMLUListElement>(null);
+  useEffect(() => {
+    const index = focusFrom.current;
+    if (index === null) return;
+    focusFrom.current = null;
+    listRef.current?.children[index]?.querySelector<HTMLElement>('h3 a')?.focus();
+  }, [shown]);
+  const more = items.length - shown;
+  return (
+    <>
+      <ul className="desk-group__list" ref={listRef}>
+        {items.slice(0, shown).map(render)}
+      </ul>
+      {more > 0 ? (
+        <div className="desk-group__more">
+          <Button
+            onClick={() => {
+              focusFrom.current = shown;
+              setShown((n) => n + DESK_PAGE);
+            }}
+          >
+            Show {Math.min(more, DESK_PAGE)} more
+          </Button>
+          <span className="muted">
+            {shown} of {items.length} shown
+          </span>
+        </div>
+      ) : null}
+    </>
+  );
+}
