@@ -211,16 +211,81 @@ export function loadScoringInput(db: Db): ScoringInput {
   return readSnapshot(db, () => ({ binary: readBinary(db), ...readTyped(db) }));
 }
 
+/** A choice or numeric revision as read: its values in order (probabilities; quantiles). */
+interface TypedRevision {
+  at: number;
+  seq: number;
+  values: number[];
+}
+
+const COLLECT_VALUE_FN = 'forelog_collect_value';
+/** Where the value-collecting function sends each row during one read; `current` is null between reads. */
+interface ValueCollector {
+  current: ((slot: number, seq: number, at: number, value: number) => void) | null;
+  slotOfRowid: Int32Array;
+}
+const valueCollectors = new WeakMap<Db, ValueCollector>();
+
+/**
+ * Every choice and numeric revision's values, grouped by question slot, through a
+ * collecting SQL function (see the module comment): a million stored values would cost
+ * seconds as row arrays, and only each revision's own list is built here.
+ */
+function readTypedRevisions(db: Db, slotOfRowid: Int32Array, questionCount: number): TypedRevision[][] {
+  let holder = valueCollectors.get(db);
+  if (!holder) {
+    const made: ValueCollector = { current: null, slotOfRowid: new Int32Array(0) };
+    db.function(COLLECT_VALUE_FN, { directOnly: true }, (questionRowid: unknown, seq: unknown, at: unknown, value: unknown) => {
+      if (made.current === null) throw new Error(`${COLLECT_VALUE_FN} belongs to the scoring reader and cannot be called on its own`);
+      made.current(made.slotOfRowid[questionRowid as number]!, seq as number, at as number, value as number);
+      return null;
+    });
+    valueCollectors.set(db, made);
+    holder = made;
+  }
+  const bySlot: TypedRevision[][] = Array.from({ length: questionCount }, () => []);
+  holder.slotOfRowid = slotOfRowid;
+  holder.current = (slot, seq, at, value) => {
+    const list = bySlot[slot]!;
+    const last = list[list.length - 1];
+    if (last !== undefined && last.seq === seq) last.values.push(value);
+    else list.push({ at, seq, values: [value] });
+  };
+  try {
+    // Question by question, each one's revisions from its index, each revision's values in
+    // position order from the values' primary key.
+    db.prepare(
+      `SELECT count(${COLLECT_VALUE_FN}(q.rowid, f.seq, f.at, v.value))
+       FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id CROSS JOIN forecast_values v ON v.forecast_id = f.id
+       WHERE q.type <> 'binary'`,
+    )
+      .pluck()
+      .get();
+  } finally {
+    holder.current = null;
+    holder.slotOfRowid = new Int32Array(0);
+  }
+  // In entry order, as the rest of the service lists revisions (the engine orders by time itself).
+  for (const list of bySlot) {
+    for (let i = 1; i < list.length; i++) {
+      if (list[i - 1]!.seq > list[i]!.seq) {
+        list.sort((a, b) => a.seq - b.seq);
+        break;
+      }
+    }
+  }
+  return bySlot;
+}
+
 /**
  * The choice and numeric questions, with their revisions' values as numbers (a numeric
- * date question's as days since 1970-01-01, as stored). They are few beside the yes/no
- * revisions, so they are read as rows.
+ * date question's as days since 1970-01-01, as stored).
  */
 function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringNumericQuestion[] } {
-  type Row = [id: string, title: string, type: 'choice' | 'numeric', closes: number, ordered: number | null, unit: string | null, kind: 'number' | 'date' | null, outcome: string | null, at: number | null, option: number | null, value: number | null];
+  type Row = [rowid: number, id: string, title: string, type: 'choice' | 'numeric', closes: number, ordered: number | null, unit: string | null, kind: 'number' | 'date' | null, outcome: string | null, at: number | null, option: number | null, value: number | null];
   const rows = db
     .prepare(
-      `SELECT q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value
+      `SELECT q.rowid, q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value
        FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'`,
     )
     .raw()
@@ -231,7 +296,6 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   const tags = new Map<string, string[]>();
   const rates = new Map<string, (number | null)[]>();
   const levels = new Map<string, number[]>();
-  const forecasts = new Map<string, { at: number; seq: number; values: number[] }[]>();
   const push = <T>(map: Map<string, T[]>, key: string, item: T) => {
     const list = map.get(key);
     if (list) list.push(item);
@@ -247,21 +311,14 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   for (const [qid, level] of db.prepare('SELECT question_id, level FROM question_levels ORDER BY question_id, position').raw().all() as [string, number][]) {
     push(levels, qid, level);
   }
-  // One row per value, a revision's values together and in order.
-  let revision = { at: 0, seq: -1, values: [] as number[] };
-  for (const [qid, seq, at, value] of db
-    .prepare('SELECT f.question_id, f.seq, f.at, v.value FROM forecasts f JOIN forecast_values v ON v.forecast_id = f.id ORDER BY f.seq, v.position')
-    .raw()
-    .all() as [string, number, number, number][]) {
-    if (revision.seq !== seq) {
-      revision = { at, seq, values: [] };
-      push(forecasts, qid, revision);
-    }
-    revision.values.push(value);
-  }
-  for (const [id, title, type, closes, ordered, unit, kind, outcome, at, option, value] of rows) {
+  let maxRowid = 0;
+  for (const row of rows) maxRowid = Math.max(maxRowid, row[0]);
+  const slotOfRowid = new Int32Array(maxRowid + 1);
+  rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
+  const revisionsBySlot = readTypedRevisions(db, slotOfRowid, rows.length);
+  rows.forEach(([, id, title, type, closes, ordered, unit, kind, outcome, at, option, value], slot) => {
     const base = { id, title, tags: tags.get(id) ?? [], closes_at: closes };
-    const revisions = forecasts.get(id) ?? [];
+    const revisions = revisionsBySlot[slot]!;
     if (type === 'choice') {
       const stated = rates.get(id) ?? [];
       choice.push({
@@ -282,7 +339,7 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
         forecasts: revisions.map((f) => ({ at: f.at, quantiles: f.values, seq: f.seq })),
       });
     }
-  }
+  });
   return { choice, numeric };
 }
 

@@ -223,18 +223,20 @@ export const MIGRATIONS: readonly Migration[] = [
 
       -- A choice revision's probabilities (one per option) or a numeric revision's quantiles
       -- (one per level; dates as days since 1970-01-01), in order; as numbers, bit for bit.
+      -- WITHOUT ROWID: each revision's values sit together in key order, so the scoring
+      -- reader finds them with no lookup per value.
       CREATE TABLE forecast_values (
         forecast_id TEXT NOT NULL REFERENCES forecasts (id) ON DELETE CASCADE,
         position    INTEGER NOT NULL CHECK (position >= 0),
         value       REAL NOT NULL,
         PRIMARY KEY (forecast_id, position)
-      );
+      ) WITHOUT ROWID;
       CREATE TABLE reference_values (
         reference_id TEXT NOT NULL REFERENCES reference_forecasts (id) ON DELETE CASCADE,
         position     INTEGER NOT NULL CHECK (position >= 0),
         value        REAL NOT NULL,
         PRIMARY KEY (reference_id, position)
-      );
+      ) WITHOUT ROWID;
 
       -- Resolutions gain the option that came true (choice) and the value taken (numeric; dates as days).
       CREATE TABLE resolutions_v5 (
