@@ -80,7 +80,7 @@ test('API calls need the token (401) and the loopback Host (403)', async () => {
     body: '{}',
   });
   assert.equal(ok.status, 200);
-  assert.deepEqual(JSON.parse(ok.body), { ok: true, value: { questions: [], tags: [], total: 0 } });
+  assert.deepEqual(JSON.parse(ok.body), { ok: true, value: { questions: [], tags: [], total: 0, matched: 0, offset: 0, sort: 'attention', direction: 'asc' } });
 });
 
 test('the same validation as every transport: 400 with the field, nothing written', async () => {
