@@ -168,6 +168,12 @@ function one(positionals: string[], what: string): string {
   return positionals[0]!;
 }
 
+/** Says on stderr why a command waits while an older diary is brought up to this version's format. */
+function noteMigrating(dbPath: string): (from: number, to: number) => void {
+  return (from, to) =>
+    process.stderr.write(`Updating the diary at ${path.resolve(dbPath)} to this version's format (${from} → ${to}); a one-time step that takes up to a minute for a very large diary…\n`);
+}
+
 /** Says so on stderr when a command made a new diary (a mistyped --db shows up at once). */
 function noteCreated(created: boolean, location: string): void {
   if (created) process.stderr.write(`Created a new diary at ${location}.\n`);
@@ -179,7 +185,7 @@ function noteCreated(created: boolean, location: string): void {
  * new diary, and say so.
  */
 async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (service: DiaryService) => Promise<T>): Promise<T> {
-  const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal });
+  const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });
   const { created } = service.store;
   let result: T;
   try {
@@ -237,7 +243,7 @@ async function serve(dbPath: string, portText: string | undefined): Promise<void
   const port = portText === undefined ? 0 : Number(portText);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
   const dir = await rendererDir();
-  const service = openDiary({ dbPath, onInternalError: reportInternal });
+  const service = openDiary({ dbPath, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });
   noteCreated(service.store.created, service.location);
   let server;
   try {

@@ -24,6 +24,8 @@ export interface OpenOptions {
   canWrite?: (file: string) => boolean;
   /** How long a write waits for another window's or command's write, in ms (default 5 s). */
   busyTimeoutMs?: number;
+  /** Told before an existing diary is brought up to this version's format (see openStore). */
+  onMigrating?: (from: number, to: number) => void;
 }
 
 export interface DiaryService {
@@ -51,6 +53,7 @@ export function openDiary(options: OpenOptions): DiaryService {
     create: options.create,
     canWrite: options.canWrite,
     busyTimeoutMs: options.busyTimeoutMs,
+    onMigrating: options.onMigrating,
   });
   const diary = createDiary({ store, now, systemTimeZone: options.timeZone ?? systemTimeZone(), demo: buildDemoDiary });
   const dispatch = createDispatch(diary.handlers, options.onInternalError ?? (() => {}), store.path);

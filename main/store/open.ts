@@ -37,6 +37,11 @@ export interface OpenStoreOptions {
   canWrite?: (file: string) => boolean;
   /** How long a write waits for another connection's write to finish, in ms. */
   busyTimeoutMs?: number;
+  /**
+   * Told before an existing diary is brought up to this version's format (once per file;
+   * a diary of a million revisions takes a minute), so a command can say why it waits.
+   */
+  onMigrating?: (from: number, to: number) => void;
 }
 
 export const DEFAULT_BUSY_TIMEOUT_MS = 5000;
@@ -80,10 +85,12 @@ function configure(db: Db, busyTimeoutMs: number): void {
 const MIGRATION_CACHE_KIB = 64 * 1024;
 
 /** Applies every migration above the file's `user_version`, each in its own write transaction. */
-export function migrate(db: Db, migrations: readonly Migration[] = MIGRATIONS): number {
+export function migrate(db: Db, migrations: readonly Migration[] = MIGRATIONS, onMigrating?: (from: number, to: number) => void): number {
   const current = db.pragma('user_version', { simple: true }) as number;
   const latest = migrations[migrations.length - 1]?.version ?? 0;
   if (current > latest) throw new NewerDatabaseError(db.name, current);
+  // A new file (version 0) has nothing to bring up to date: only an existing diary is announced.
+  if (current > 0 && current < latest) onMigrating?.(current, latest);
   for (const m of migrations) {
     if (m.version <= current) continue;
     // foreign_keys can be switched only outside a transaction (SQLite's table-rebuild procedure).
@@ -212,7 +219,7 @@ function openWritable(file: string, created: boolean, options: OpenStoreOptions)
     checkVersion(write, file);
     write.pragma('journal_mode = WAL');
     write.pragma('synchronous = FULL');
-    migrate(write);
+    migrate(write, MIGRATIONS, options.onMigrating);
   } catch (err) {
     write.close();
     throw err;
@@ -267,7 +274,7 @@ function openReadOnly(file: string, options: OpenStoreOptions): StoreHandles {
     const prepare = new Database(copy, nativeOf(options));
     try {
       checkVersion(prepare, file);
-      migrate(prepare);
+      migrate(prepare, MIGRATIONS, options.onMigrating);
     } finally {
       prepare.close();
     }

@@ -13,6 +13,7 @@ import { migrate, openStore } from '../../main/store/open';
 import { callOrThrow } from '../../main/service/dispatch';
 import { openDiary } from '../../main/service/index';
 import type { Question } from '../../shared/domain';
+import { forelog } from '../support/diary-process';
 import { exportJson, tempDir } from '../support/temp-diary';
 
 const V4 = MIGRATIONS.filter((m) => m.version <= 4);
@@ -130,4 +131,16 @@ test('a migrated diary reads as before, exports its yes/no questions without a t
   } finally {
     service.close();
   }
+});
+
+test('a command that opens an older diary says on stderr that it is updating it, once; a current diary says nothing', () => {
+  const file = path.join(tempDir(), 'older.sqlite');
+  makeV4Diary(file);
+  const first = forelog('due', '--json', '--at', '2026-01-01T00:00:00Z', '--db', file);
+  assert.equal(first.status, 0, first.stderr);
+  assert.match(first.stderr, new RegExp(`^Updating the diary at .*older\\.sqlite to this version's format \\(4 → ${SCHEMA_VERSION}\\)`));
+  JSON.parse(first.stdout); // the command's own answer is untouched on stdout
+  const again = forelog('due', '--json', '--at', '2026-01-01T00:00:00Z', '--db', file);
+  assert.equal(again.status, 0, again.stderr);
+  assert.equal(again.stderr, '');
 });
