@@ -65,3 +65,12 @@ export async function expectNoSeriousViolations(page: Page, what: string): Promi
     .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
   expect(serious, `axe found serious or critical problems on ${what}`).toEqual([]);
 }
+
+/**
+ * Waits two animation frames: after a viewport change Chart.js redraws its canvases on the
+ * next frame (its resize listener is throttled to animation frames), so a screenshot taken
+ * at once can catch a cleared canvas.
+ */
+export async function afterRedraw(page: Page): Promise<void> {
+  await page.evaluate(() => new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(() => resolve(null)))));
+}

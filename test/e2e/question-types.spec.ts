@@ -7,7 +7,7 @@
  * Axe scans and screenshots in light and dark at 1024 and 1920 wide go to test/e2e/artifacts.
  */
 import { expect, test, type Page } from '@playwright/test';
-import { apiCall, daysFromNow, expectNoSeriousViolations, fillQuickAdd } from './helpers';
+import { apiCall, daysFromNow, expectNoSeriousViolations, fillQuickAdd, afterRedraw } from './helpers';
 import { openApp, useDiaryServer, type AppPage } from './serve';
 
 const server = useDiaryServer();
@@ -42,6 +42,7 @@ async function shoot(page: Page, name: string) {
     await expectNoSeriousViolations(page, `${name} (${scheme})`);
     for (const width of [1024, 1920]) {
       await page.setViewportSize({ width, height: 900 });
+      await afterRedraw(page);
       await page.screenshot({ path: `test/e2e/artifacts/types-${name}-${scheme}-${width}.png`, fullPage: true });
     }
   }

@@ -8,7 +8,7 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Hindsight, Scorecard } from '../../shared/contract';
-import { apiCall, expectNoSeriousViolations } from './helpers';
+import { apiCall, expectNoSeriousViolations, afterRedraw } from './helpers';
 import { openApp, useDiaryServer, type AppPage } from './serve';
 
 const server = useDiaryServer();
@@ -93,6 +93,7 @@ test('choice and numeric sections show the diary’s own figures, with sample si
     await expectNoSeriousViolations(page, `the Scorecard with choice and numeric sections (${scheme})`);
     for (const width of [1024, 1920]) {
       await page.setViewportSize({ width, height: 900 });
+      await afterRedraw(page);
       await page.screenshot({ path: `test/e2e/artifacts/types-scorecard-${scheme}-${width}.png`, fullPage: true });
     }
   }
@@ -134,6 +135,7 @@ test('Hindsight lists the choice confident miss and the numeric surprises with t
     await expectNoSeriousViolations(page, `Hindsight with choice and numeric entries (${scheme})`);
     for (const width of [1024, 1920]) {
       await page.setViewportSize({ width, height: 900 });
+      await afterRedraw(page);
       await page.screenshot({ path: `test/e2e/artifacts/types-hindsight-${scheme}-${width}.png`, fullPage: true });
     }
   }
