@@ -40,6 +40,8 @@ async function main(): Promise<void> {
     await shoot('desk', 'desk', h1);
     await shoot('questions', 'questions', h1);
     await page.goto(`${url}#/questions`);
+    // The list draws only the rows in view: find the question by searching, as a user would.
+    await page.getByLabel('Search').fill('Norrowby Freight signs');
     await page.getByRole('link', { name: /Norrowby Freight signs the phase-2/ }).click();
     await h1();
     await page.waitForTimeout(400);
