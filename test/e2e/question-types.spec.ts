@@ -200,7 +200,7 @@ test('a date question is drawn on a date axis and resolved with a date; the Desk
   });
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Desk' }).click();
   const card = page.locator(`[data-desk-item="${created.id}"]`);
-  await expect(card.getByTestId('desk-typed-last')).toHaveText('Last forecast 2026-11-28 (2026-11-20 – 2026-12-15)');
+  await expect(card.getByTestId('desk-typed-last')).toHaveText('Last forecast 28 Nov 2026 (20 Nov 2026 – 15 Dec 2026)');
   await card.getByRole('button', { name: 'Resolve…' }).click();
   const resolve = page.getByRole('dialog', { name: 'Resolve the question' });
   await resolve.getByRole('textbox', { name: 'Date it happened' }).fill('2026-12-01');
@@ -209,7 +209,7 @@ test('a date question is drawn on a date axis and resolved with a date; the Desk
   await expect(card).toHaveCount(0);
 
   await page.goto(`${new URL(server().url).origin}/#/questions/${created.id}`);
-  await expect(page.getByRole('heading', { level: 2, name: /Resolved: 2026-12-01/ })).toBeVisible();
+  await expect(page.getByRole('heading', { level: 2, name: /Resolved: 1 Dec 2026/ })).toBeVisible();
   const data = await historyData(page);
   expect(data.value_kind).toBe('date');
   // Days since 1970-01-01 (shared/numeric-value.ts): 2026-12-01 is day 20788.

@@ -98,7 +98,9 @@ test('a date question reads calendar days and says "before" for a decreasing set
     value: [20513, 20543, 20574],
   });
   const back = readNumericForecast(['2026-03-31', '2026-03-30', '2026-05-01'], levels, 'date', '');
-  assert.equal(!back.ok && back.error, 'P50 (2026-03-30) is before P10 (2026-03-31); each value must be at least the one before it.');
+  // Dates show in the user's own format (this process's locale; see renderer/src/dates.ts).
+  const day = (iso: string) => new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' }).format(Date.parse(iso));
+  assert.equal(!back.ok && back.error, `P50 (${day('2026-03-30')}) is before P10 (${day('2026-03-31')}); each value must be at least the one before it.`);
 });
 
 test('a choice question needs 2 to 12 distinct, non-empty options', () => {
@@ -126,7 +128,9 @@ test('a choice or numeric forecast in a few words for lists', () => {
   assert.equal(choiceSummary(['A', 'B'], [0.5, 0.5]), 'A 50%', 'a tie goes to the first option');
   assert.equal(numericSummary([0.1, 0.5, 0.9], [9, 13, 20], 'number', 'weeks'), '13 weeks (9 – 20)');
   assert.equal(numericSummary([0.5], [13], 'number', ''), '13');
-  assert.equal(numericSummary([0.1, 0.5, 0.9], [20513, 20543, 20574], 'date', ''), '2026-03-31 (2026-03-01 – 2026-05-01)');
+  // Dates in the user's own format: day/month/year in a UK locale, month first in a US one.
+  assert.equal(numericSummary([0.1, 0.5, 0.9], [20513, 20543, 20574], 'date', '', 'en-GB'), '31 Mar 2026 (1 Mar 2026 – 1 May 2026)');
+  assert.equal(numericSummary([0.5], [20543], 'date', '', 'en-US'), 'Mar 31, 2026');
 });
 
 test('the Questions list shows the last forecast of every type', () => {
@@ -135,7 +139,7 @@ test('the Questions list shows the last forecast of every type', () => {
   assert.equal(lastForecastText({ ...none, type: 'choice', last_p: null, options: ['A', 'B'], last_probs: [0.2, 0.8] }), 'B 80%');
   assert.equal(lastForecastText({ ...none, type: 'choice', last_p: null, options: ['A', 'B'] }), '—');
   assert.equal(
-    lastForecastText({ ...none, type: 'numeric', last_p: null, levels: [0.1, 0.5, 0.9], last_quantiles: ['2026-03-01', '2026-03-31', '2026-05-01'], value_kind: 'date', unit: '' }),
-    '2026-03-31 (2026-03-01 – 2026-05-01)',
+    lastForecastText({ ...none, type: 'numeric', last_p: null, levels: [0.1, 0.5, 0.9], last_quantiles: ['2026-03-01', '2026-03-31', '2026-05-01'], value_kind: 'date', unit: '' }, 'en-GB'),
+    '31 Mar 2026 (1 Mar 2026 – 1 May 2026)',
   );
 });

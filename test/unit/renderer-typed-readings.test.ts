@@ -23,6 +23,9 @@ function row(successes: number, n: number) {
   return { n, rate: successes / n, wilson_low, wilson_high };
 }
 
+
+/** A calendar day in the user's own format (this process's locale), as the screens show it. */
+const day = (iso: string) => new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' }).format(Date.parse(iso));
 test('coverage reads as the issue words it, with the Wilson interval', () => {
   // Issue 9's example: 9 in 20 is 45 %, Wilson 95 % interval 26–66 % (Wilson 1927; values from
   // the engine's wilsonInterval, which test/unit/scoring-*.test.ts checks against published ones).
@@ -83,6 +86,6 @@ test('Hindsight reads a choice miss and a numeric surprise in one sentence each'
   );
   assert.equal(
     surpriseSentence({ value: '2026-12-20', low: '2026-11-20', high: '2026-12-15', level: 0.9, side: 'above', distance: 5, size: 5 / 25, unit: '', value_kind: 'date' }),
-    '2026-12-20: 5 days above your 90% range (2026-11-20 – 2026-12-15); 0.2 times its width outside.',
+    `${day('2026-12-20')}: 5 days above your 90% range (${day('2026-11-20')} – ${day('2026-12-15')}); 0.2 times its width outside.`,
   );
 });

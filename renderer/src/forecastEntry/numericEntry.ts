@@ -7,7 +7,8 @@
  */
 import type { ValueKind } from '../../../shared/domain';
 import { levelName } from '../../../shared/forecast-text';
-import { dateToDays, daysToDate } from '../../../shared/numeric-value';
+import { dateToDays } from '../../../shared/numeric-value';
+import { formatDay } from '../dates';
 import { quantilesProblem } from '../../../shared/quantile-levels';
 import type { Parsed } from '../percent';
 
@@ -33,8 +34,10 @@ export function levelsHint(levels: readonly number[], unit: string): string {
 }
 
 /** A value as the boxes and readings show it: "13.5 weeks", "2026-03-31". */
-export function formatValue(value: number, kind: ValueKind, unit: string): string {
-  if (kind === 'date') return daysToDate(value);
+export function formatValue(value: number, kind: ValueKind, unit: string, locale?: string): string {
+  // A date value is a calendar day (days since 1970-01-01), shown in the user's own date
+  // format like every other date; read as UTC so the day never shifts with a time zone.
+  if (kind === 'date') return formatDay(value * 86_400_000, 'UTC', {}, locale);
   const text = String(Number(value.toPrecision(12)));
   return unit ? `${text} ${unit}` : text;
 }

@@ -15,24 +15,24 @@ export function choiceSummary(options: readonly string[], probs: readonly number
 }
 
 /** "13 weeks (9 – 20)": the median with the outermost quantiles, dates likewise. */
-export function numericSummary(levels: readonly number[], quantiles: readonly number[], kind: ValueKind, unit: string): string {
+export function numericSummary(levels: readonly number[], quantiles: readonly number[], kind: ValueKind, unit: string, locale?: string): string {
   const median = quantiles[levels.indexOf(0.5)];
   if (median === undefined) return '—';
   const m = quantiles.length;
-  const centre = formatValue(median, kind, unit);
+  const centre = formatValue(median, kind, unit, locale);
   if (m < 2) return centre;
-  const low = formatValue(quantiles[0]!, kind, '');
-  const high = formatValue(quantiles[m - 1]!, kind, '');
+  const low = formatValue(quantiles[0]!, kind, '', locale);
+  const high = formatValue(quantiles[m - 1]!, kind, '', locale);
   return `${centre} (${low} – ${high})`;
 }
 
 /** The Questions list's "last forecast" cell for a question of any type; "—" with none. */
-export function lastForecastText(q: Pick<QuestionSummary, 'type' | 'last_p' | 'options' | 'last_probs' | 'levels' | 'last_quantiles' | 'value_kind' | 'unit'>): string {
+export function lastForecastText(q: Pick<QuestionSummary, 'type' | 'last_p' | 'options' | 'last_probs' | 'levels' | 'last_quantiles' | 'value_kind' | 'unit'>, locale?: string): string {
   if (q.type === 'choice') return q.options && q.last_probs ? choiceSummary(q.options, q.last_probs) : '—';
   if (q.type === 'numeric') {
     if (!q.levels || !q.last_quantiles || !q.value_kind) return '—';
     const kind = q.value_kind;
-    return numericSummary(q.levels, q.last_quantiles.map((v) => toStoredValue(v, kind)), kind, q.unit ?? '');
+    return numericSummary(q.levels, q.last_quantiles.map((v) => toStoredValue(v, kind)), kind, q.unit ?? '', locale);
   }
   return formatPercent(q.last_p);
 }
