@@ -55,6 +55,7 @@ import {
   computeScorecardDetail,
   isStale,
   type ScoreOptions,
+  type ScoreReport,
   type ScoringQuestion,
 } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
@@ -604,11 +605,39 @@ export function createDiary(ctx: DiaryContext) {
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
   }
 
+  // Figures computed from that input are kept until the diary changes too (same data_version):
+  // opening the Scorecard or Hindsight again, or going back to an earlier filter, then costs
+  // nothing, and the two screens share the yes/no report. Everything a figure depends on is
+  // in the diary (settings included) or in its key.
+  let figures: { version: number; byKey: Map<string, unknown> } | null = null;
+  const FIGURES_KEPT = 32;
+
+  function remembered<T>(key: string, compute: () => T): T {
+    typedScoringInput(); // brings the input, and its version, up to date
+    const version = scoringCache!.version;
+    if (figures?.version !== version) figures = { version, byKey: new Map() };
+    if (figures.byKey.has(key)) return figures.byKey.get(key) as T;
+    const value = compute();
+    if (figures.byKey.size >= FIGURES_KEPT) figures.byKey.delete(figures.byKey.keys().next().value!);
+    figures.byKey.set(key, value);
+    return value;
+  }
+
+  const filterKey = (req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }) =>
+    JSON.stringify([req.tag ?? null, req.from ?? null, req.to ?? null, req.costs?.false_alarm ?? null, req.costs?.miss ?? null]);
+
+  /** The yes/no report for a filter (and "what if" costs), computed once per diary state. */
+  function binaryReport(req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }): ScoreReport {
+    return remembered(`report|${filterKey(req)}`, () => computeScoreReport(scoringInput(req), scoreOptions(req)));
+  }
+
   /** The `score --json` object: the yes/no report with the choice and numeric members (INTERFACES.md §2). */
   function scoreJson(req: ValidRequest<'score'>): ScoreJson {
-    const options = scoreOptions(req);
-    const { choice, numeric } = typedScoringInput();
-    return { ...computeScoreReport(scoringInput(req), options), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+    return remembered(`json|${filterKey(req)}`, () => {
+      const options = scoreOptions(req);
+      const { choice, numeric } = typedScoringInput();
+      return { ...binaryReport(req), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+    });
   }
 
   /** Some questions of one type by id, as the service returns them (Hindsight's entries show their notes and labels). */
@@ -1051,19 +1080,20 @@ export function createDiary(ctx: DiaryContext) {
       };
     },
 
-    score: (req) => {
-      const questions = scoringInput(req);
-      const options = scoreOptions(req);
-      const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
-      const { choice, numeric } = typedScoringInput();
-      return {
-        report: scoreJson(req),
-        detail,
-        leads: referenceLeads(questions, options),
-        choice_detail: computeChoiceDetail(choice, options),
-        numeric_detail: computeNumericDetail(numeric, options),
-      };
-    },
+    score: (req) =>
+      remembered(`scorecard|${filterKey(req)}`, () => {
+        const questions = scoringInput(req);
+        const options = scoreOptions(req);
+        const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
+        const { choice, numeric } = typedScoringInput();
+        return {
+          report: scoreJson(req),
+          detail,
+          leads: referenceLeads(questions, options),
+          choice_detail: computeChoiceDetail(choice, options),
+          numeric_detail: computeNumericDetail(numeric, options),
+        };
+      }),
 
     hindsight: (req) => {
       const questions = scoringInput({});
@@ -1078,13 +1108,12 @@ export function createDiary(ctx: DiaryContext) {
         ...page,
         choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
         numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
-        report: computeScoreReport(questions, options),
+        report: binaryReport({ tag: req.tag, from: req.from, to: req.to }),
       };
     },
 
     briefing: (req) => {
       const s = settings();
-      const questions = scoringInput({});
       const options = scoreOptions({ tag: req.tag });
       const t = now();
       const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
@@ -1093,7 +1122,7 @@ export function createDiary(ctx: DiaryContext) {
         tag: req.tag ?? null,
         generated_at: now(),
         time_zone: s.time_zone,
-        report: computeScoreReport(questions, options),
+        report: binaryReport({ tag: req.tag }),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
         choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)),
