@@ -3,13 +3,10 @@
  * the title cannot shift a stored time by rounding it to the minute.
  */
 import { useMemo, useState, type FormEvent } from 'react';
-import { updateQuestionRequest } from '../../../../shared/contract';
 import type { Costs, BinaryQuestion, QuestionKind } from '../../../../shared/domain';
-import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
 import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { Form, FormActions } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { Select } from '../../components/Select';
@@ -19,19 +16,12 @@ import { TextField } from '../../components/TextField';
 import { isoToLocal, localToIso, timeZoneNames, zoneName } from '../../dates';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
+import { saveQuestionChanges, type QuestionChanges, type QuestionDialogProps } from './questionForms';
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from './labels';
 
-interface Props {
-  question: BinaryQuestion;
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
-}
-
-type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
+type Props = QuestionDialogProps<BinaryQuestion>;
 
 const LABELS = {
   title: 'Question',
@@ -97,7 +87,7 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
-    const changes: Changes = {};
+    const changes: QuestionChanges = {};
     if (title !== q.title) changes.title = title;
     if (title.trim() === '') found.title = 'write the question you are forecasting';
     if (rule !== q.rule) changes.rule = rule;
@@ -148,17 +138,7 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
     const closes = changes.closes_at ?? q.closes_at;
     if (!found.opened_at && !found.closes_at && Date.parse(closes) <= Date.parse(opened)) found.closes_at = 'must be after the opening time';
 
-    const request = { id: q.id, changes };
-    if (!form.check(found, { schema: updateQuestionRequest, request, placement: PLACEMENT })) return;
-    if (Object.keys(changes).length === 0) {
-      onClose();
-      return;
-    }
-    let undo = '';
-    const ok = await form.submit(async () => {
-      undo = (await api.updateQuestion(request)).undo;
-    }, PLACEMENT);
-    if (ok) onSaved('Question saved.', undo);
+    await saveQuestionChanges({ form, id: q.id, changes, found, placement: PLACEMENT, onClose, onSaved });
   }
 
   return (
@@ -211,12 +191,9 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
         hint="Empty: the diary’s default. 0: no check-in nudges."
         error={form.error('checkin_days')}
       />
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          Save changes
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        Save changes
+      </FormActions>
     </Form>
   );
 }

@@ -7,10 +7,9 @@ import { useState, type FormEvent } from 'react';
 import { forecastRequest } from '../../../../shared/contract';
 import type { BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
 import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { Form, FormActions } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextArea } from '../../components/TextArea';
 import { localToIso } from '../../dates';
@@ -21,14 +20,9 @@ import { LensesEditor } from '../../tools/LensesEditor';
 import { checkLenses, type LensDraft } from '../../tools/lenses';
 import { RecalibrationHint } from '../../tools/RecalibrationHint';
 import { lastForecast } from './questionFacts';
+import type { QuestionDialogProps } from './questionForms';
 
-interface Props {
-  question: BinaryQuestion;
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
-}
+type Props = QuestionDialogProps<BinaryQuestion>;
 
 export function ReviseDialog({ question, open, onClose, onSaved }: Props) {
   return (
@@ -101,12 +95,9 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
         hint="Leave empty for now; set it to back-date a call you made earlier."
         error={form.error('at')}
       />
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          Save revision
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        Save revision
+      </FormActions>
     </Form>
   );
 }
