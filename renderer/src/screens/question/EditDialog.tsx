@@ -5,7 +5,7 @@
 import { useMemo, useState, type FormEvent } from 'react';
 import type { Costs, BinaryQuestion, QuestionKind } from '../../../../shared/domain';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { useCloseRequest } from '../../components/Dialog';
 import { Form, FormActions } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
@@ -16,12 +16,10 @@ import { TextField } from '../../components/TextField';
 import { isoToLocal, localToIso, timeZoneNames, zoneName } from '../../dates';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
-import { saveQuestionChanges, type QuestionChanges, type QuestionDialogProps } from './questionForms';
+import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges } from './questionForms';
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from './labels';
-
-type Props = QuestionDialogProps<BinaryQuestion>;
 
 const LABELS = {
   title: 'Question',
@@ -39,13 +37,7 @@ const LABELS = {
 };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS, prefix: 'changes', aliases: { costs: 'costs.false_alarm' } };
 
-export function EditDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Edit question" size="lg">
-      <EditForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const EditDialog = questionDialog(EditForm, () => ({ title: 'Edit question', size: 'lg' }));
 
 function numberOrBlank(text: string): number | null | 'invalid' {
   if (text.trim() === '') return null;
@@ -60,7 +52,7 @@ function windowDays(openedLocal: string, closesLocal: string, timeZone: string):
   return opened && closes ? (Date.parse(closes) - Date.parse(opened)) / 86_400_000 : null;
 }
 
-function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
+function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<BinaryQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const initialOpened = isoToLocal(q.opened_at, q.time_zone);

@@ -4,7 +4,7 @@ import { referenceRequest } from '../../../../shared/contract';
 import type { Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { useCloseRequest } from '../../components/Dialog';
 import { Form, FormActions } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextField } from '../../components/TextField';
@@ -12,22 +12,14 @@ import { localToIso } from '../../dates';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import { percentToProbability } from '../../percent';
-import type { QuestionDialogProps } from './questionForms';
+import { questionDialog, type QuestionFormProps } from './questionForms';
 
-type Props = QuestionDialogProps<Question>;
-
-export function ReferenceDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Add a reference forecast" description={question.title}>
-      <ReferenceForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const ReferenceDialog = questionDialog(ReferenceForm, (question) => ({ title: 'Add a reference forecast', description: question.title }));
 
 const LABELS = { p: 'Their probability', source: 'Source', at: 'As of' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
-function ReferenceForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+function ReferenceForm({ question, onClose, onSaved }: QuestionFormProps<Question>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const listId = useId();

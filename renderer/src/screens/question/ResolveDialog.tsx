@@ -10,14 +10,12 @@ import { resolveRequest } from '../../../../shared/contract';
 import type { Outcome, BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { ChoiceGroup } from '../../components/ChoiceGroup';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { useCloseRequest } from '../../components/Dialog';
 import { Form } from '../../components/Form';
 import { OUTCOME_HINTS, OutcomeIcon } from '../../components/OutcomeMark';
 import { OUTCOME_LABELS } from '../../components/StatusPill';
 import { useForm } from '../../forms';
-import { ResolutionNoteFields, useResolutionNotes, useSendResolution, type QuestionDialogProps } from './questionForms';
-
-type Props = QuestionDialogProps<BinaryQuestion>;
+import { questionDialog, type QuestionFormProps, ResolutionNoteFields, resolveDialogFrame, useResolutionNotes, useSendResolution } from './questionForms';
 
 const OUTCOME_CHOICES = (['yes', 'no', 'void'] as const).map((outcome) => ({
   value: outcome,
@@ -29,16 +27,9 @@ const OUTCOME_CHOICES = (['yes', 'no', 'void'] as const).map((outcome) => ({
 const LABELS = { outcome: 'Outcome', at: 'Resolved at', note: 'Note', correction_note: 'Why the correction' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
-export function ResolveDialog({ question, open, onClose, onSaved }: Props) {
-  const correcting = question.resolution !== null;
-  return (
-    <Dialog open={open} onClose={onClose} title={correcting ? 'Correct the resolution' : 'Resolve the question'} description={question.title}>
-      <ResolveForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const ResolveDialog = questionDialog(ResolveForm, resolveDialogFrame);
 
-function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<BinaryQuestion>) {
   const form = useForm();
   const send = useSendResolution(form, PLACEMENT);
   const cancel = useCloseRequest(onClose);

@@ -8,7 +8,7 @@ import { forecastRequest } from '../../../../shared/contract';
 import type { BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { useCloseRequest } from '../../components/Dialog';
 import { Form, FormActions } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextArea } from '../../components/TextArea';
@@ -20,22 +20,14 @@ import { LensesEditor } from '../../tools/LensesEditor';
 import { checkLenses, type LensDraft } from '../../tools/lenses';
 import { RecalibrationHint } from '../../tools/RecalibrationHint';
 import { lastForecast } from './questionFacts';
-import type { QuestionDialogProps } from './questionForms';
+import { questionDialog, type QuestionFormProps } from './questionForms';
 
-type Props = QuestionDialogProps<BinaryQuestion>;
-
-export function ReviseDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Revise your forecast" description={question.title}>
-      <ReviseForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const ReviseDialog = questionDialog(ReviseForm, (question) => ({ title: 'Revise your forecast', description: question.title }));
 
 const LABELS = { p: 'Your probability', note: 'What changed', at: 'As of', lenses: 'Lenses' };
 const PLACEMENT = { fields: ['p', 'note', 'at'], labels: LABELS };
 
-function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+function ReviseForm({ question, onClose, onSaved }: QuestionFormProps<BinaryQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const [initialP] = useState(() => percentText(lastForecast(question)?.p));

@@ -6,7 +6,7 @@
  */
 import { useState, type FormEvent } from 'react';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { useCloseRequest } from '../../components/Dialog';
 import { Form, FormActions } from '../../components/Form';
 import { TagInput } from '../../components/TagInput';
 import { TextArea } from '../../components/TextArea';
@@ -15,13 +15,11 @@ import { isoToLocal, localToIso } from '../../dates';
 import { ChoiceForecastInput } from '../../forecastEntry/ChoiceForecastInput';
 import type { ChoiceProblems } from '../../forecastEntry/choiceEntry';
 import { useForm } from '../../forms';
-import { saveQuestionChanges, type QuestionChanges, type QuestionDialogProps } from './questionForms';
+import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges } from './questionForms';
 import { percentText } from '../../percent';
 import { levelsText, readOptionBaseRates, readOptions } from '../../questionTypes/definition';
 import { OptionsEditor } from '../../questionTypes/OptionsEditor';
 import type { TypedQuestion } from './TypedEntryDialog';
-
-type Props = QuestionDialogProps<TypedQuestion>;
 
 const LABELS = {
   title: 'Question',
@@ -37,17 +35,11 @@ const LABELS = {
 };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS, prefix: 'changes' };
 
-export function TypedEditDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Edit question" size="lg">
-      <EditForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const TypedEditDialog = questionDialog(EditForm, () => ({ title: 'Edit question', size: 'lg' }));
 
 const same = (a: readonly unknown[] | null, b: readonly unknown[] | null) => JSON.stringify(a) === JSON.stringify(b);
 
-function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
+function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<TypedQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const initialCloses = isoToLocal(q.closes_at, q.time_zone);

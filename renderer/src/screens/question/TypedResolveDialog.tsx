@@ -11,27 +11,18 @@ import { fromStoredValue, toStoredValue } from '../../../../shared/numeric-value
 import { api } from '../../api/client';
 import { ChoiceGroup } from '../../components/ChoiceGroup';
 import { DateField } from '../../components/DateField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { useCloseRequest } from '../../components/Dialog';
 import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { formatValue, readValue } from '../../forecastEntry/numericEntry';
 import { useForm } from '../../forms';
-import { ResolutionNoteFields, useResolutionNotes, useSendResolution, type QuestionDialogProps } from './questionForms';
+import { questionDialog, type QuestionFormProps, ResolutionNoteFields, resolveDialogFrame, useResolutionNotes, useSendResolution } from './questionForms';
 import type { TypedQuestion } from './TypedEntryDialog';
-
-type Props = QuestionDialogProps<TypedQuestion>;
 
 const LABELS = { outcome: 'Outcome', option: 'Outcome', value: 'Value', at: 'Resolved at', note: 'Note', correction_note: 'Why the correction' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
-export function TypedResolveDialog({ question, open, onClose, onSaved }: Props) {
-  const correcting = question.resolution !== null;
-  return (
-    <Dialog open={open} onClose={onClose} title={correcting ? 'Correct the resolution' : 'Resolve the question'} description={question.title}>
-      <ResolveForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const TypedResolveDialog = questionDialog(ResolveForm, resolveDialogFrame);
 
 /** The outcome choice as the radio group holds it: an option's index, "value", "void" or "". */
 function initialChoice(question: TypedQuestion): string {
@@ -41,7 +32,7 @@ function initialChoice(question: TypedQuestion): string {
   return r.outcome === 'option' ? String(r.option) : 'value';
 }
 
-function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<TypedQuestion>) {
   const form = useForm();
   const send = useSendResolution(form, PLACEMENT);
   const cancel = useCloseRequest(onClose);

@@ -4,11 +4,12 @@
  * does not depend on the type: when it resolved, the note, why a correction, and sending it,
  * asking first where the diary finds the resolution unusual.
  */
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { updateQuestionRequest } from '../../../../shared/contract';
 import type { Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { DateTimeField } from '../../components/DateTimeField';
+import { Dialog } from '../../components/Dialog';
 import { FormActions } from '../../components/Form';
 import { TextArea } from '../../components/TextArea';
 import { isoToLocal, localToIso } from '../../dates';
@@ -22,6 +23,28 @@ export interface QuestionDialogProps<Q> {
   onClose: () => void;
   /** What was done, and the token that undoes it. */
   onSaved: (message: string, undo: string) => void;
+}
+
+/** What a dialog's form is given: the dialog's props but whether it is open (it exists only while open). */
+export type QuestionFormProps<Q> = Omit<QuestionDialogProps<Q>, 'open'>;
+
+/**
+ * A question dialog around its form. The form is mounted as the dialog opens, so it starts
+ * from the question as it is then, and nothing typed survives a close.
+ */
+export function questionDialog<Q>(QuestionForm: (props: QuestionFormProps<Q>) => ReactNode, frame: (question: Q) => { title: string; description?: string; size?: 'lg' }) {
+  return function QuestionDialog({ question, open, onClose, onSaved }: QuestionDialogProps<Q>) {
+    return (
+      <Dialog open={open} onClose={onClose} {...frame(question)}>
+        <QuestionForm question={question} onClose={onClose} onSaved={onSaved} />
+      </Dialog>
+    );
+  };
+}
+
+/** The resolve dialog's frame, both types: a resolved question's resolution is corrected. */
+export function resolveDialogFrame(question: Question) {
+  return { title: question.resolution !== null ? 'Correct the resolution' : 'Resolve the question', description: question.title };
 }
 
 export type QuestionChanges = Parameters<typeof api.updateQuestion>[0]['changes'];
