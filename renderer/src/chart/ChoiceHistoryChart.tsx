@@ -4,12 +4,11 @@
  * (one shape per source), the close and the resolution as labelled vertical lines, and the
  * option that came true drawn thicker. `data-points` carries the plotted data as JSON.
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useMemo } from 'react';
 import { Chart, LinearScale, LineController, LineElement, PointElement, Tooltip, type ChartDataset, type TooltipItem } from 'chart.js';
-import { useColorScheme } from '../hooks';
 import { formatPercent } from '../percent';
 import { cssColor } from './colors';
-import { chanceScale, historyOptions, historyPalette, HistoryFigure, optionLegend, timeScale } from './historyChartKit';
+import { chanceScale, historyOptions, HistoryFigure, optionLegend, timeScale, useHistoryChart } from './historyChartKit';
 import { DASHED, lineStyle, type LegendItem, type Marker } from './Legend';
 import { verticalMarkers, type VerticalMarker } from './markers';
 import { choiceSeries, type ChoiceHistoryInput, type TimeXY } from './typedSeries';
@@ -45,14 +44,9 @@ export function choiceLegend(input: ChoiceHistoryInput): LegendItem[] {
 }
 
 export function ChoiceHistoryChart({ input, timeZone }: { input: ChoiceHistoryInput; timeZone: string }) {
-  const scheme = useColorScheme();
-  const canvasRef = useRef<HTMLCanvasElement>(null);
   const legend = useMemo(() => choiceLegend(input), [input]);
 
-  useEffect(() => {
-    const canvas = canvasRef.current;
-    if (!canvas) return;
-    const colors = historyPalette();
+  const canvasRef = useHistoryChart<TimeXY[]>((colors) => {
     const series = choiceSeries(input, Date.now());
     const radius = (points: TimeXY[]) => points.map((p) => (p.hold ? 0 : 4));
     const datasets: ChartDataset<'line', TimeXY[]>[] = [];
@@ -97,7 +91,7 @@ export function ChoiceHistoryChart({ input, timeZone }: { input: ChoiceHistoryIn
       const label = input.void ? 'Resolved Void' : `Resolved: ${input.options[input.outcome_option ?? 0]}`;
       markers.push({ at: series.axis.resolvedMs, label, color: colors.resolved });
     }
-    const chart = new Chart<'line', TimeXY[]>(canvas, {
+    return {
       type: 'line',
       data: { datasets },
       options: historyOptions({
@@ -109,9 +103,8 @@ export function ChoiceHistoryChart({ input, timeZone }: { input: ChoiceHistoryIn
         tooltipLabel: (item) => `${item.dataset.label ?? ''}: ${formatPercent(item.parsed.y)}`,
       }),
       plugins: [verticalMarkers(markers, colors.font, colors.surface)],
-    });
-    return () => chart.destroy();
-  }, [input, legend, scheme, timeZone]);
+    };
+  }, [input, legend, timeZone]);
 
   return (
     <HistoryFigure

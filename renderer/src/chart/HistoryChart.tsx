@@ -4,14 +4,13 @@
  * carries the plotted data as JSON in `data-points`, and the tables beside it list the same
  * points for anyone who cannot read the canvas.
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useMemo } from 'react';
 import { Chart, LinearScale, LineController, LineElement, PointElement, Tooltip, type ChartDataset, type TooltipItem } from 'chart.js';
 import type { BinaryQuestion } from '../../../shared/domain';
 import { OUTCOME_LABELS } from '../components/StatusPill';
-import { useColorScheme } from '../hooks';
 import { formatPercent } from '../percent';
 import { cssColor } from './colors';
-import { chanceScale, historyOptions, historyPalette, HistoryFigure, timeScale } from './historyChartKit';
+import { chanceScale, historyOptions, HistoryFigure, timeScale, useHistoryChart } from './historyChartKit';
 import { DASHED, DOTTED, lineStyle, type LegendItem, type Marker } from './Legend';
 import { verticalMarkers, type VerticalMarker } from './markers';
 import { chartSeries, historyData, type HistoryData, type XY } from './series';
@@ -62,16 +61,11 @@ export function historyLegend(data: HistoryData): LegendItem[] {
 }
 
 export function HistoryChart({ question }: { question: BinaryQuestion }) {
-  const scheme = useColorScheme();
-  const canvasRef = useRef<HTMLCanvasElement>(null);
   const data = useMemo(() => historyData(question), [question]);
   const legend = useMemo(() => historyLegend(data), [data]);
   const zone = question.time_zone;
 
-  useEffect(() => {
-    const canvas = canvasRef.current;
-    if (!canvas) return;
-    const colors = historyPalette();
+  const canvasRef = useHistoryChart<XY[]>((colors) => {
     const series = chartSeries(data, Date.now());
     const pointRadius = (points: XY[], size: number) => points.map((p) => (p.hold ? 0 : size));
     const style = (label: string) => lineStyle(legend.find((item) => item.label === label)!, cssColor);
@@ -104,7 +98,7 @@ export function HistoryChart({ question }: { question: BinaryQuestion }) {
       markers.push({ at: series.resolvedMs, label: `Resolved ${OUTCOME_LABELS[data.resolution.outcome]}`, color: colors.resolved });
     }
 
-    const chart = new Chart<'line', XY[]>(canvas, {
+    return {
       type: 'line',
       data: { datasets },
       options: historyOptions({
@@ -116,9 +110,8 @@ export function HistoryChart({ question }: { question: BinaryQuestion }) {
         tooltipLabel: (item) => `${item.dataset.label ?? ''}: ${formatPercent(item.parsed.y)}`,
       }),
       plugins: [verticalMarkers(markers, colors.font, colors.surface)],
-    });
-    return () => chart.destroy();
-  }, [data, legend, scheme, zone]);
+    };
+  }, [data, legend, zone]);
 
   return (
     <HistoryFigure

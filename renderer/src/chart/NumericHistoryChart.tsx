@@ -6,12 +6,11 @@
  * horizontal line. A date question's values are days, drawn on a date axis.
  * `data-points` carries the plotted data as JSON.
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useMemo } from 'react';
 import { Chart, Filler, LinearScale, LineController, LineElement, PointElement, Tooltip, type ChartDataset, type TooltipItem } from 'chart.js';
 import { levelName, formatValue } from '../forecastEntry/numericEntry';
-import { useColorScheme } from '../hooks';
 import { cssColor, withAlpha } from './colors';
-import { historyOptions, historyPalette, HistoryFigure, timeScale } from './historyChartKit';
+import { historyOptions, HistoryFigure, timeScale, useHistoryChart } from './historyChartKit';
 import { intervalBars } from './intervalBars';
 import { DOTTED, lineStyle, type LegendItem, type Marker } from './Legend';
 import { verticalMarkers, type VerticalMarker } from './markers';
@@ -61,14 +60,9 @@ export function numericLegend(input: NumericHistoryInput): LegendItem[] {
 }
 
 export function NumericHistoryChart({ input, timeZone }: { input: NumericHistoryInput; timeZone: string }) {
-  const scheme = useColorScheme();
-  const canvasRef = useRef<HTMLCanvasElement>(null);
   const legend = useMemo(() => numericLegend(input), [input]);
 
-  useEffect(() => {
-    const canvas = canvasRef.current;
-    if (!canvas) return;
-    const colors = historyPalette();
+  const canvasRef = useHistoryChart<TimeXY[]>((colors) => {
     const series = numericSeries(input, Date.now());
     const band = cssColor('--chart-band');
     const show = (v: number) => formatValue(v, input.value_kind, input.unit);
@@ -115,7 +109,7 @@ export function NumericHistoryChart({ input, timeZone }: { input: NumericHistory
       markers.push({ at: series.axis.resolvedMs, label: input.void ? 'Resolved Void' : `Resolved: ${show(input.value ?? 0)}`, color: colors.resolved });
     }
     const date = input.value_kind === 'date';
-    const chart = new Chart<'line', TimeXY[]>(canvas, {
+    return {
       type: 'line',
       data: { datasets },
       options: historyOptions({
@@ -144,9 +138,8 @@ export function NumericHistoryChart({ input, timeZone }: { input: NumericHistory
         intervalBars<'line'>('forelogReferenceWhiskers', 'over', () => series.references.flatMap((ref) => ref.points), cssColor('--chart-reference')),
         verticalMarkers(markers, colors.font, colors.surface),
       ],
-    });
-    return () => chart.destroy();
-  }, [input, legend, scheme, timeZone]);
+    };
+  }, [input, legend, timeZone]);
 
   return (
     <HistoryFigure

@@ -4,9 +4,10 @@
  * series, the figure they sit in, and each option's look, so an option's line, its base
  * rate and its legend entry always agree.
  */
-import type { ReactNode, RefObject } from 'react';
-import type { ChartOptions, ScaleOptions, TooltipItem } from 'chart.js';
+import { useEffect, useRef, type ReactNode, type RefObject } from 'react';
+import { Chart, type ChartConfiguration, type ChartOptions, type ScaleOptions, type TooltipItem } from 'chart.js';
 import { formatInstant, formatTick } from '../dates';
+import { useColorScheme } from '../hooks';
 import { cssColor } from './colors';
 import { ChartLegend, type LegendItem, type Marker } from './Legend';
 import { timeTicks } from './series';
@@ -109,6 +110,25 @@ export function historyOptions({ colors, zone, x, y, tooltipFilter, tooltipLabel
       },
     },
   };
+}
+
+/**
+ * Draws the chart `configure` describes (given the theme's colours) on the canvas it returns,
+ * and draws it anew whenever one of `deps` or the colour scheme changes.
+ */
+export function useHistoryChart<D extends unknown[]>(configure: (colors: HistoryPalette) => ChartConfiguration<'line', D>, deps: readonly unknown[]): RefObject<HTMLCanvasElement | null> {
+  const scheme = useColorScheme();
+  const canvasRef = useRef<HTMLCanvasElement>(null);
+  // The latest `configure`, read when a change of `deps` or scheme draws the chart anew.
+  const latest = useRef(configure);
+  latest.current = configure;
+  useEffect(() => {
+    const canvas = canvasRef.current;
+    if (!canvas) return;
+    const chart = new Chart<'line', D>(canvas, latest.current(historyPalette()));
+    return () => chart.destroy();
+  }, [...deps, scheme]);
+  return canvasRef;
 }
 
 export interface HistoryFigureProps {
