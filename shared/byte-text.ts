@@ -74,6 +74,24 @@ export class ByteText {
     this.length += b.length;
   }
 
+  /** How many bytes are written since the last take(): where the next byte goes. */
+  get written(): number {
+    return this.length;
+  }
+
+  /** Writes again the bytes written at [start, end) since the last take(): a row's text that repeats on the next rows. */
+  again(start: number, end: number): void {
+    const n = end - start;
+    this.room(n);
+    if (n > SHORT_BYTES) this.bytes.copyWithin(this.length, start, end);
+    else {
+      const out = this.bytes;
+      const at = this.length;
+      for (let i = 0; i < n; i++) out[at + i] = out[start + i]!;
+    }
+    this.length += n;
+  }
+
   /** An instant as toIso writes it. */
   iso(ms: number): void {
     this.room(ISO_MAX_BYTES);
@@ -81,12 +99,12 @@ export class ByteText {
   }
 
   /**
-   * The bytes written so far, handed over: the buffer is the caller's from now on (kept,
-   * joined, written later), and writing goes on into a new one of the same size.
+   * The bytes written so far, and a fresh start. The bytes are a view of the buffer, which
+   * the next writes reuse: use them (write them out, decode them) before writing more, or
+   * copy them. One buffer for a whole export, not a new one per piece.
    */
   take(): Uint8Array {
     const done = this.bytes.subarray(0, this.length);
-    this.bytes = new Uint8Array(this.bytes.length);
     this.length = 0;
     return done;
   }

@@ -429,7 +429,8 @@ function writeBatch(out: ByteText, { questions, packed }: ExportBatch): void {
 
 /**
  * The diary file as UTF-8 bytes, one piece per batch of questions, so an export of any
- * size is written without holding the diary in memory. The bytes are exactly those of
+ * size is written without holding the diary in memory. Each piece is valid until the next
+ * is asked for (one buffer is reused, see ByteText.take): write it out or copy it. The bytes are exactly those of
  * `JSON.stringify(toDiaryFile(settings, questions), null, 2) + "\n"` for the same questions
  * in the same order: each batch is laid out by JSON.stringify itself, one level down.
  */

@@ -269,6 +269,9 @@ export const ISO_MAX_BYTES = 27;
 
 const ZERO = 0x30;
 
+let lastDay = NaN;
+let lastDate = '';
+
 /**
  * Writes toIso(ms) as ASCII bytes into `out` at `at` (which has ISO_MAX_BYTES of room) and
  * returns the position after it. Exports write millions of times, and bytes written in
@@ -281,7 +284,12 @@ export function writeIso(ms: number, out: Uint8Array, at: number): number {
     return at;
   }
   const day = Math.floor(ms / ISO_DAY_MS);
-  const date = isoDate(day);
+  // A question's revisions often fall on one day: the last day's date without a lookup.
+  if (day !== lastDay) {
+    lastDate = isoDate(day);
+    lastDay = day;
+  }
+  const date = lastDate;
   for (let i = 0; i < date.length; i++) out[at++] = date.charCodeAt(i);
   const t = ms - day * ISO_DAY_MS;
   const hours = Math.floor(t / 3_600_000);

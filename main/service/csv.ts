@@ -15,7 +15,7 @@
  * additions to it, so neither holds the file or the diary in memory.
  */
 import { z } from 'zod';
-import { ByteText, utf8 } from '../../shared/byte-text';
+import { ByteText } from '../../shared/byte-text';
 import { fileQuestion, type ExportBatch, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference, type PackedRevisions } from '../../shared/diary-file';
 import { ANY_OUTCOMES, OUTCOMES } from '../../shared/domain';
 import {
@@ -252,26 +252,37 @@ function referenceRows(q: ExportedQuestion, cells: Record<QuestionColumn, string
 
 /**
  * Question k's packed revisions (yes/no, without lenses) as rows, written as bytes in
- * place: they are nearly all of an export's rows. The row's fixed text is encoded once per
- * question; each row adds its time, probability and note.
+ * place: they are nearly all of an export's rows. The question's cells before and after
+ * the revision's are encoded on its first row and copied from there to the others; each
+ * row adds its time, probability and note.
  */
 function writePackedRows(out: ByteText, r: PackedRevisions, k: number, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): void {
   const [beforeAt, beforeP, beforeNote, beforeLenses, afterLenses] = rowPieces(columns, cells, VARYING.binary.forecast);
-  const head = utf8(beforeAt!);
-  const betweenAtAndP = utf8(beforeP!);
-  const betweenPAndNote = utf8(beforeNote!);
   // The lenses cell is empty: no revision packed has lenses.
-  const tail = utf8(`${beforeLenses!}${afterLenses!}\r\n`);
+  const tail = `${beforeLenses!}${afterLenses!}\r\n`;
+  const first = r.from[k]!;
   const to = r.to[k]!;
-  for (let i = r.from[k]!; i < to; i++) {
-    out.raw(head);
+  let headStart = 0;
+  let headEnd = 0;
+  let tailStart = 0;
+  let tailEnd = 0;
+  for (let i = first; i < to; i++) {
+    if (i === first) {
+      headStart = out.written;
+      out.text(beforeAt!);
+      headEnd = out.written;
+    } else out.again(headStart, headEnd);
     out.iso(r.at[i]!);
-    out.raw(betweenAtAndP);
+    out.text(beforeP!);
     out.ascii(String(r.p[i]));
-    out.raw(betweenPAndNote);
+    out.text(beforeNote!);
     const note = r.note[i]!;
     if (note !== '') out.text(csvField(note));
-    out.raw(tail);
+    if (i === first) {
+      tailStart = out.written;
+      out.text(tail);
+      tailEnd = out.written;
+    } else out.again(tailStart, tailEnd);
   }
 }
 
@@ -300,7 +311,8 @@ function writeQuestionRows(out: ByteText, batch: ExportBatch, k: number, columns
 }
 
 /**
- * The diary as CSV, UTF-8 bytes, one piece per batch of questions: the header row, then per
+ * The diary as CSV, UTF-8 bytes, one piece per batch of questions (each valid until the next
+ * is asked for, as diaryFileBytes's): the header row, then per
  * question one row per revision, then one row per reference forecast, or a single row when
  * it has neither. Numbers keep full precision (`String(number)` reads back to the same
  * double); every line ends in CRLF (RFC 4180 §2 rule 1).

@@ -185,6 +185,13 @@ type ImportItem = DiaryItem | CsvItem;
 /** Questions per batch when an export reads the diary: a few megabytes of text at a time. */
 const EXPORT_BATCH = 500;
 
+/**
+ * SQLite's page cache during an export, in KiB. The batches revisit pages (the index, and
+ * a page holding revisions of questions in two batches); with the default 2 MiB each visit
+ * is a read from the operating system again.
+ */
+const EXPORT_CACHE_KIB = 32 * 1024;
+
 /** SQLite's page cache during an import, in KiB: enough for the indexes' working pages. */
 const IMPORT_CACHE_KIB = 64 * 1024;
 
@@ -555,6 +562,8 @@ export function createDiary(ctx: DiaryContext) {
       yield utf8(toICalendar(unresolvedQuestions(store, now()), { now: now(), alarmHours: settings().closing_soon_hours }));
       return;
     }
+    const cache = read.pragma('cache_size', { simple: true }) as number;
+    read.pragma(`cache_size = ${-EXPORT_CACHE_KIB}`);
     read.exec('BEGIN');
     try {
       const batches = exportBatches(read, EXPORT_BATCH);
@@ -567,6 +576,7 @@ export function createDiary(ctx: DiaryContext) {
       }
     } finally {
       read.exec('COMMIT');
+      read.pragma(`cache_size = ${cache}`);
     }
   }
 
@@ -623,7 +633,11 @@ export function createDiary(ctx: DiaryContext) {
     ics: { name: 'forelog-closes', extension: 'ics', media_type: 'text/calendar' },
   };
 
-  /** Hands the export to `sink` as UTF-8 bytes, piece by piece (a megabyte or so each), synchronously, from one snapshot. */
+  /**
+   * Hands the export to `sink` as UTF-8 bytes, piece by piece (a megabyte or so each),
+   * synchronously, from one snapshot. A piece's memory is reused for the next: the sink
+   * writes it out or copies it before it returns.
+   */
   function exportTo(format: ExportFormat, sink: (piece: Uint8Array) => void): void {
     for (const piece of exportPieces(format)) sink(piece);
   }

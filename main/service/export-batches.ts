@@ -72,10 +72,6 @@ interface ReadRevisions extends PackedRevisions {
   seq: number[];
 }
 
-function emptyRevisions(n: number): ReadRevisions {
-  return { from: new Array<number>(n).fill(0), to: new Array<number>(n).fill(0), at: [], p: [], note: [], seq: [] };
-}
-
 /**
  * Reads questions as the export writes them. `always` reads lenses and resolution
  * history for every batch; otherwise each is read only when the diary has any at the
@@ -109,44 +105,57 @@ function exportReader(db: Db, always: boolean) {
 
   /**
    * The batch's revisions (every question's, as if all were yes/no), each question's
-   * together and in time order then entry order, column by column.
+   * together and in time order then entry order, column by column. The sink runs once per
+   * revision, millions of times: plain local arrays, no object or call per revision.
    */
   function readRevisions(n: number, ids: string, withSeq: boolean): ReadRevisions {
-    let r = emptyRevisions(n);
+    const from = new Array<number>(n).fill(0);
+    const to = new Array<number>(n).fill(0);
+    const at: number[] = [];
+    const p: number[] = [];
+    const note: string[] = [];
+    const seq: number[] = [];
     let inOrder = true;
     let lastK = -1;
     let lastAt = 0;
     let lastSeq = 0;
-    const add = (k: number, at: number, p: number, note: string, seq: number) => {
-      const i = r.at.length;
-      if (k !== lastK) r.from[k] = i;
-      r.to[k] = i + 1;
-      r.at.push(at);
-      r.p.push(p);
-      r.note.push(note);
-      if (withSeq) r.seq.push(seq);
-    };
-    sink.current = (k, at, p, note, seq) => {
-      // A question met again after another's revisions (to[k] is past 0 once it has any), or a revision earlier than the last.
-      if (k === lastK ? at < lastAt || (at === lastAt && seq < lastSeq) : r.to[k]! > 0) inOrder = false;
-      add(k, at, p, note, seq);
-      lastK = k;
-      lastAt = at;
-      lastSeq = seq;
+    sink.current = (k, t, value, text, s) => {
+      const i = at.length;
+      if (k !== lastK) {
+        // A question met again after another's revisions (to[k] is past 0 once it has any).
+        if (to[k] !== 0) inOrder = false;
+        from[k] = i;
+        lastK = k;
+      } else if (t < lastAt || (t === lastAt && s < lastSeq)) inOrder = false;
+      to[k] = i + 1;
+      at.push(t);
+      p.push(value);
+      note.push(text);
+      if (withSeq) seq.push(s);
+      lastAt = t;
+      lastSeq = s;
     };
     try {
       collect.get(ids);
     } finally {
       sink.current = null;
     }
-    if (inOrder) return r;
-    r = emptyRevisions(n);
-    lastK = -1;
-    for (const [k, at, p, note, seq] of ordered.all(ids) as [number, number, number, string, number][]) {
-      add(k, at, p, note, seq);
-      lastK = k;
+    if (!inOrder) {
+      from.fill(0);
+      to.fill(0);
+      at.length = p.length = note.length = seq.length = 0;
+      lastK = -1;
+      for (const [k, t, value, text, s] of ordered.all(ids) as [number, number, number, string, number][]) {
+        if (k !== lastK) from[k] = at.length;
+        lastK = k;
+        to[k] = at.length + 1;
+        at.push(t);
+        p.push(value);
+        note.push(text);
+        if (withSeq) seq.push(s);
+      }
     }
-    return r;
+    return { from, to, at, p, note, seq };
   }
 
   /** The questions of `rows` (in that order), whole but for the packed revisions. */

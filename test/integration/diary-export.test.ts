@@ -152,7 +152,7 @@ test('an export is one snapshot: a change committed while it streams is not half
       h.addForecast({ question_id: ids[ids.length - 1]!, p: 0.1 } as never);
       h.deleteQuestion({ id: ids[ids.length - 2]! } as never);
     }
-    pieces.push(piece);
+    pieces.push(Buffer.from(piece)); // a copy: the exporter reuses its buffer
   });
   assert.equal(Buffer.concat(pieces).toString('utf8'), before);
   assert.notEqual(d.service.diary.exportText('json').text, before, 'the changes are there for the next export');

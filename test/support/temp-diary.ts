@@ -37,6 +37,6 @@ export function openTestDiary(options: { now?: string; timeZone?: string; dbPath
 /** The diary's JSON export as one text, from the same writer the command line uses. */
 export function exportJson(service: DiaryService): string {
   const pieces: Uint8Array[] = [];
-  service.diary.exportTo('json', (piece) => pieces.push(piece));
+  service.diary.exportTo('json', (piece) => pieces.push(Buffer.from(piece)));
   return Buffer.concat(pieces).toString('utf8');
 }
