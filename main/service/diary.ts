@@ -7,8 +7,9 @@ import { randomUUID } from 'node:crypto';
 import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, ScoreJson, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
+import { utf8 } from '../../shared/byte-text';
 import {
-  diaryFileText,
+  diaryFileBytes,
   diaryItems,
   questionRecordName,
   readDiaryText,
@@ -72,7 +73,7 @@ import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
 import { readTextFile } from '../files/read-text';
-import { CsvError, diaryCsvText, readCsvDiary, type CsvItem } from './csv';
+import { CsvError, diaryCsvBytes, readCsvDiary, type CsvItem } from './csv';
 import { exportBatches, exportedQuestionReader } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
@@ -184,6 +185,13 @@ type ImportItem = DiaryItem | CsvItem;
 
 /** Questions per batch when an export reads the diary: a few megabytes of text at a time. */
 const EXPORT_BATCH = 500;
+
+/**
+ * SQLite's page cache during an export, in KiB. The batches revisit pages (the index, and
+ * a page holding revisions of questions in two batches); with the default 2 MiB each visit
+ * is a read from the operating system again.
+ */
+const EXPORT_CACHE_KIB = 32 * 1024;
 
 /** SQLite's page cache during an import, in KiB: enough for the indexes' working pages. */
 const IMPORT_CACHE_KIB = 64 * 1024;
@@ -550,23 +558,26 @@ export function createDiary(ctx: DiaryContext) {
    * and consumed synchronously (by exportTo and writeFileAtomic): nothing else may use the
    * read handle while the snapshot is open.
    */
-  function* exportPieces(format: ExportFormat): Generator<string> {
+  function* exportPieces(format: ExportFormat): Generator<Uint8Array> {
     if (format === 'ics') {
-      yield toICalendar(unresolvedQuestions(store, now()), { now: now(), alarmHours: settings().closing_soon_hours });
+      yield utf8(toICalendar(unresolvedQuestions(store, now()), { now: now(), alarmHours: settings().closing_soon_hours }));
       return;
     }
+    const cache = read.pragma('cache_size', { simple: true }) as number;
+    read.pragma(`cache_size = ${-EXPORT_CACHE_KIB}`);
     read.exec('BEGIN');
     try {
       const batches = exportBatches(read, EXPORT_BATCH);
       if (format === 'csv') {
         // The CSV header comes first: it has the type columns only when some question needs them (docs/csv-format.md).
         const withTypes = read.prepare("SELECT EXISTS (SELECT 1 FROM questions WHERE type <> 'binary')").pluck().get() === 1;
-        yield* diaryCsvText(batches, withTypes);
+        yield* diaryCsvBytes(batches, withTypes);
       } else {
-        yield* diaryFileText(settings(), batches);
+        yield* diaryFileBytes(settings(), batches);
       }
     } finally {
       read.exec('COMMIT');
+      read.pragma(`cache_size = ${cache}`);
     }
   }
 
@@ -651,8 +662,12 @@ export function createDiary(ctx: DiaryContext) {
     ics: { name: 'forelog-closes', extension: 'ics', media_type: 'text/calendar' },
   };
 
-  /** Hands the export to `sink` piece by piece (a few megabytes each), synchronously, from one snapshot. */
-  function exportTo(format: ExportFormat, sink: (piece: string) => void): void {
+  /**
+   * Hands the export to `sink` as UTF-8 bytes, piece by piece (a megabyte or so each),
+   * synchronously, from one snapshot. A piece's memory is reused for the next: the sink
+   * writes it out or copies it before it returns.
+   */
+  function exportTo(format: ExportFormat, sink: (piece: Uint8Array) => void): void {
     for (const piece of exportPieces(format)) sink(piece);
   }
 
@@ -660,8 +675,11 @@ export function createDiary(ctx: DiaryContext) {
   function exportText(format: ExportFormat): ExportedText {
     const day = toIso(now()).slice(0, 10);
     const { name, extension, media_type } = EXPORT_FILES[format];
+    // Each piece ends where a record does, so none splits a character; a piece may begin
+    // with U+FEFF (an id's first character), which is text here, not a byte order mark.
+    const decoder = new TextDecoder('utf-8', { ignoreBOM: true });
     const pieces: string[] = [];
-    exportTo(format, (piece) => pieces.push(piece));
+    exportTo(format, (piece) => pieces.push(decoder.decode(piece)));
     return { text: pieces.join(''), file_name: `${name}-${day}.${extension}`, media_type };
   }
 
