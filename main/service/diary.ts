@@ -437,7 +437,19 @@ export function createDiary(ctx: DiaryContext) {
         else if (++conflictCount <= MAX_LISTED_CONFLICTS) conflicts.push({ index: c.index, row: c.row, id: c.id, title: c.title, differs });
       };
 
+      // CSV: the revisions on consecutive rows of one question, written together (several
+      // to a statement, see insertForecasts) before anything else is written, so each keeps
+      // its place in the entry order. Nothing a row holds can make these inserts fail: every
+      // value was checked as it was read.
+      let revisions: qs.NewForecast[] = [];
+      let revisionsOf = -1;
+      const writeRevisions = () => {
+        if (revisions.length) qs.insertForecasts(write, revisions);
+        revisions = [];
+      };
+
       for (const item of items) {
+        if (item.kind !== 'addition' || item.index !== revisionsOf) writeRevisions();
         if (item.kind === 'settings') {
           settingsRead = true;
           if (!empty) continue;
@@ -488,9 +500,10 @@ export function createDiary(ctx: DiaryContext) {
         } else {
           // A later CSV row of a question already inserted: its revision or reference forecast.
           const target = csvQuestions[item.index]!;
+          revisionsOf = item.index;
           if (item.forecast) {
             const f = item.forecast;
-            qs.insertForecast(write, {
+            revisions.push({
               id: orderedId(),
               question_id: target.id,
               at: f.at,
@@ -504,11 +517,13 @@ export function createDiary(ctx: DiaryContext) {
             }
           }
           if (item.reference) {
+            writeRevisions();
             const r = item.reference;
             qs.insertReference(write, { id: orderedId(), question_id: target.id, at: r.at, ...storedValuesOf(target.shape, r), source: r.source });
           }
         }
       }
+      writeRevisions();
       for (const c of csvCandidates) compare(c, true);
       // All or nothing: any conflict rolls the whole import back.
       if (conflictCount) throw mergeRefusal(conflicts, conflictCount);
