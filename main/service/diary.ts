@@ -446,7 +446,19 @@ export function createDiary(ctx: DiaryContext) {
         else if (++conflictCount <= MAX_LISTED_CONFLICTS) conflicts.push({ index: c.index, row: c.row, id: c.id, title: c.title, differs });
       };
 
+      // CSV: the revisions on consecutive rows of one question, written together (several
+      // to a statement, see insertForecasts) before anything else is written, so each keeps
+      // its place in the entry order. Nothing a row holds can make these inserts fail: every
+      // value was checked as it was read.
+      let revisions: qs.NewForecast[] = [];
+      let revisionsOf = -1;
+      const writeRevisions = () => {
+        if (revisions.length) qs.insertForecasts(write, revisions);
+        revisions = [];
+      };
+
       for (const item of items) {
+        if (item.kind !== 'addition' || item.index !== revisionsOf) writeRevisions();
         if (item.kind === 'settings') {
           settingsRead = true;
           if (!empty) continue;
@@ -497,9 +509,10 @@ export function createDiary(ctx: DiaryContext) {
         } else {
           // A later CSV row of a question already inserted: its revision or reference forecast.
           const target = csvQuestions[item.index]!;
+          revisionsOf = item.index;
           if (item.forecast) {
             const f = item.forecast;
-            qs.insertForecast(write, {
+            revisions.push({
               id: orderedId(),
               question_id: target.id,
               at: f.at,
@@ -513,23 +526,33 @@ export function createDiary(ctx: DiaryContext) {
             }
           }
           if (item.reference) {
+            writeRevisions();
             const r = item.reference;
             qs.insertReference(write, { id: orderedId(), question_id: target.id, at: r.at, ...storedValuesOf(target.shape, r), source: r.source });
           }
         }
       }
+      writeRevisions();
       for (const c of csvCandidates) compare(c, true);
       // All or nothing: any conflict rolls the whole import back.
       if (conflictCount) throw mergeRefusal(conflicts, conflictCount);
     });
     const cache = write.pragma('cache_size', { simple: true }) as number;
+    const temp = write.pragma('temp_store', { simple: true }) as number;
     write.pragma(`cache_size = ${-IMPORT_CACHE_KIB}`);
+    // Each statement that writes several rows under a constraint keeps, until it ends, the
+    // pages it changes so it can undo itself alone (SQLite's statement journal). On a file,
+    // that is a write to disk per page per statement: an import of 10,000 questions wrote
+    // 500 MB there. In memory it costs a copy. It holds one statement's pages at a time, so
+    // it stays small; a crash loses nothing, since the transaction itself is in the WAL.
+    write.pragma('temp_store = MEMORY');
     try {
       run();
     } catch (err) {
       throw asImportError(err);
     } finally {
       write.pragma(`cache_size = ${cache}`);
+      write.pragma(`temp_store = ${temp}`);
     }
     return { added, skipped };
   }
