@@ -55,8 +55,10 @@ import {
   computeScoreReport,
   computeScorecardDetail,
   isStale,
+  prepareScoredSet,
   type ScoreOptions,
   type ScoreReport,
+  type ScoredSet,
   type ScoringQuestion,
 } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
@@ -657,12 +659,19 @@ export function createDiary(ctx: DiaryContext) {
     return value;
   }
 
-  const filterKey = (req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }) =>
+  const filterKey = (req: Filter) =>
     JSON.stringify([req.tag ?? null, req.from ?? null, req.to ?? null, req.costs?.false_alarm ?? null, req.costs?.miss ?? null]);
 
+  type Filter = { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } };
+
+  /** The scored yes/no questions of a filter, which every yes/no figure is built from, once per diary state. */
+  function scoredSet(req: Filter): ScoredSet {
+    return remembered(`set|${filterKey(req)}`, () => prepareScoredSet(scoringInput(req), scoreOptions(req)));
+  }
+
   /** The yes/no report for a filter (and "what if" costs), computed once per diary state. */
-  function binaryReport(req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }): ScoreReport {
-    return remembered(`report|${filterKey(req)}`, () => computeScoreReport(scoringInput(req), scoreOptions(req)));
+  function binaryReport(req: Filter): ScoreReport {
+    return remembered(`report|${filterKey(req)}`, () => computeScoreReport(scoringInput(req), scoreOptions(req), scoredSet(req)));
   }
 
   /** The `score --json` object: the yes/no report with the choice and numeric members (INTERFACES.md §2). */
@@ -1125,31 +1134,32 @@ export function createDiary(ctx: DiaryContext) {
       remembered(`scorecard|${filterKey(req)}`, () => {
         const questions = scoringInput(req);
         const options = scoreOptions(req);
-        const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
+        const set = scoredSet(req);
+        const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options, set);
         const { choice, numeric } = typedScoringInput();
         return {
           report: scoreJson(req),
           detail,
-          leads: referenceLeads(questions, options),
+          leads: referenceLeads(set),
           choice_detail: computeChoiceDetail(choice, options),
           numeric_detail: computeNumericDetail(numeric, options),
         };
       }),
 
     hindsight: (req) => {
-      const questions = scoringInput({});
       const options = scoreOptions(req);
       const t = now();
       const typed = typedScoringInput();
       const offset = req.offset ?? 0;
-      const page = confidentCalls(questions, options, req.threshold, req.include_hits, detailsOf(isBinary, t), { offset, limit: req.limit });
+      const filter = { tag: req.tag, from: req.from, to: req.to };
+      const page = confidentCalls(scoredSet(filter), req.threshold, req.include_hits, detailsOf(isBinary, t), { offset, limit: req.limit });
       return {
         threshold: req.threshold,
         offset,
         ...page,
         choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
         numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
-        report: binaryReport({ tag: req.tag, from: req.from, to: req.to }),
+        report: binaryReport(filter),
       };
     },
 
