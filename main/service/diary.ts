@@ -646,8 +646,9 @@ export function createDiary(ctx: DiaryContext) {
   // nothing, and the two screens share the yes/no report. Everything a figure depends on is
   // in the diary (settings included) or in its key.
   let figures: { version: number; byKey: Map<string, unknown> } | null = null;
-  // A scored set of 100,000 questions is several megabytes: a dozen answers are kept, the oldest dropped first.
-  const FIGURES_KEPT = 12;
+  // A scored set of 100,000 questions is several megabytes; a filter keeps four entries (set, report,
+  // `score --json` object, Scorecard answer), so the last six filters are kept, the oldest dropped first.
+  const FIGURES_KEPT = 24;
 
   function remembered<T>(key: string, compute: () => T): T {
     typedScoringInput(); // brings the input, and its version, up to date
