@@ -169,6 +169,27 @@ function one(positionals: string[], what: string): string {
 }
 
 /** Says on stderr why a command waits while an older diary is brought up to this version's format. */
+/**
+ * A progress line for a long task, on stderr and only at a terminal (a script's output stays
+ * exactly the result): "Importing FILE… 37 %", rewritten in place as the percentage moves,
+ * then `after` once the work measured is done (the commit that follows takes a moment too).
+ */
+function progressLine(what: string, after: string): { update: (done: number, total: number) => void; end: () => void } {
+  const shown = process.stderr.isTTY === true;
+  let last = -1;
+  return {
+    update(done, total) {
+      const percent = total > 0 ? Math.floor((done / total) * 100) : 0;
+      if (!shown || percent === last) return;
+      last = percent;
+      process.stderr.write(`\r${what}… ${percent} %${percent === 100 ? ` — ${after}` : ''}`);
+    },
+    end() {
+      if (shown && last >= 0) process.stderr.write('\r\x1b[K');
+    },
+  };
+}
+
 function noteMigrating(dbPath: string): (from: number, to: number) => void {
   return (from, to) =>
     process.stderr.write(`Updating the diary at ${path.resolve(dbPath)} to this version's format (${from} → ${to}); a one-time step that takes up to a minute for a very large diary…\n`);
@@ -283,7 +304,13 @@ async function run(argv: string[]): Promise<void> {
       if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
       if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
       // Streamed from the file: no size limit, all or nothing.
-      const result: ImportResult = await withDiary(dbPath, { create: true }, async (s) => s.importDiaryFile(file, format, { merge: values.merge }));
+      const progress = progressLine(`Importing ${file}`, 'saving');
+      let result: ImportResult;
+      try {
+        result = await withDiary(dbPath, { create: true }, async (s) => s.importDiaryFile(file, format, { merge: values.merge, onRead: progress.update }));
+      } finally {
+        progress.end();
+      }
       const plural = (n: number) => `${n} question${n === 1 ? '' : 's'}`;
       const skipped = values.merge ? `; skipped ${plural(result.skipped)} already in it unchanged` : '';
       process.stdout.write(`Imported ${plural(result.added)} into ${path.resolve(dbPath)}${skipped}.\n`);

@@ -31,8 +31,11 @@ function describe(err: NodeJS.ErrnoException, file: string): FileReadError {
   return new FileReadError(reasons[err.code ?? ''] ?? `could not read ${file}: ${err.message}`, err.code);
 }
 
-/** The decoded text of `file`, in chunks; throws FileReadError or TextDecodingError. */
-export function* readTextFile(file: string, chunkBytes = READ_CHUNK_BYTES): Generator<string> {
+/**
+ * The decoded text of `file`, in chunks; throws FileReadError or TextDecodingError.
+ * `onRead` hears how many bytes of how many have been read after each chunk (for progress).
+ */
+export function* readTextFile(file: string, chunkBytes = READ_CHUNK_BYTES, onRead?: (bytes: number, total: number) => void): Generator<string> {
   let fd: number;
   try {
     fd = fs.openSync(file, 'r');
@@ -46,6 +49,8 @@ export function* readTextFile(file: string, chunkBytes = READ_CHUNK_BYTES): Gene
   try {
     const decoder = createTextDecoder();
     const buffer = Buffer.allocUnsafe(chunkBytes);
+    const total = onRead ? fs.fstatSync(fd).size : 0;
+    let read = 0;
     for (;;) {
       let n: number;
       try {
@@ -54,6 +59,8 @@ export function* readTextFile(file: string, chunkBytes = READ_CHUNK_BYTES): Gene
         throw describe(err as NodeJS.ErrnoException, file);
       }
       if (n === 0) break;
+      read += n;
+      onRead?.(read, Math.max(total, read));
       const text = decoder.write(buffer.subarray(0, n));
       if (text) yield text;
     }

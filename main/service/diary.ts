@@ -572,8 +572,9 @@ export function createDiary(ctx: DiaryContext) {
    * Imports a file from disk, streaming: any size, in the memory of one record. The
    * command line and the desktop app's File menu come this way.
    */
-  function importFile(file: string, format: ImportFormat, options: { merge?: boolean } = {}): ImportResult {
-    return importItems(readerFor(format, readTextFile(file)), options);
+  /** `onRead` hears the bytes read of the file's size as the import goes (then the commit follows). */
+  function importFile(file: string, format: ImportFormat, options: { merge?: boolean; onRead?: (bytes: number, total: number) => void } = {}): ImportResult {
+    return importItems(readerFor(format, readTextFile(file, undefined, options.onRead)), options);
   }
 
   /**

@@ -37,7 +37,7 @@ export interface DiaryService {
   /** Writes the diary to `file` (JSON v1, CSV or iCalendar), streamed, whole or not at all. */
   exportDiaryFile(file: string, format: 'json' | 'csv' | 'ics'): void;
   /** Adds a diary file (JSON v1 or CSV) from disk, streamed, all or nothing; `merge` skips questions already here unchanged. */
-  importDiaryFile(file: string, format: 'json' | 'csv', options?: { merge?: boolean }): ImportResult;
+  importDiaryFile(file: string, format: 'json' | 'csv', options?: { merge?: boolean; onRead?: (bytes: number, total: number) => void }): ImportResult;
   /** The nudge scheduler over this diary, delivering through `notifier`. */
   createScheduler(notifier: Notifier, onDueCountChanged?: (count: number) => void): Scheduler;
   backupTo(file: string, onProgress?: (percent: number) => void): Promise<void>;

@@ -247,6 +247,30 @@ test('import reads a file larger than the app’s 64 MB request cap (the command
   assert.ok(fs.statSync(exported).size > 64 * 1_048_576);
 });
 
+test('import shows its progress at a terminal, and nothing extra when a script reads its output', () => {
+  const dir = tempDir();
+  const file = path.join(dir, 'progress.json');
+  // About 3 MB, so the file is read in several chunks.
+  const note = 'Read across the quarter. '.repeat(40);
+  fs.writeFileSync(file, diaryFile(Array.from({ length: 3000 }, (_, n) => ({ ...good(n), forecasts: [{ at: '2026-01-05T09:05:00Z', p: 0.4, note }] }))));
+  assert.ok(fs.statSync(file).size > 2 * 1_048_576);
+  const piped = forelog('import', file, '--db', path.join(dir, 'a.sqlite'));
+  assert.equal(piped.status, 0, piped.stderr);
+  assert.doesNotMatch(piped.stderr, /Importing/, 'no progress line in a pipe');
+  // A terminal: util-linux `script` runs the command on a pseudo-terminal (stdout and stderr both go there).
+  const command = [process.execPath, '--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), 'import', file, '--db', path.join(dir, 'b.sqlite')]
+    .map((a) => `'${a.replaceAll("'", "'\\''")}'`)
+    .join(' ');
+  const tty = spawnSync('script', ['-qec', command, '/dev/null'], { cwd: ROOT, encoding: 'utf8', env: { ...process.env, TZ: 'UTC' } });
+  assert.equal(tty.status, 0, tty.stdout + tty.stderr);
+  const percents = [...tty.stdout.matchAll(/Importing [^\r]*… (\d+) %/g)].map((m) => Number(m[1]));
+  assert.ok(percents.length >= 2, `several progress steps: ${JSON.stringify(tty.stdout.slice(0, 300))}`);
+  assert.deepEqual([...percents].sort((a, b) => a - b), percents, 'the percentage only grows');
+  assert.equal(percents.at(-1), 100);
+  assert.match(tty.stdout, /100 % — saving/);
+  assert.match(tty.stdout, /\x1b\[KImported 3000 questions into /, 'the progress line is cleared before the result');
+});
+
 test('export to a reader that stops early (| head) ends quietly', () => {
   const db = path.join(tempDir(), 'd.sqlite');
   assert.equal(forelog('demo', '--db', db).status, 0);
