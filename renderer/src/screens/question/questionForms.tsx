@@ -113,7 +113,7 @@ export function useResolutionNotes(question: Question) {
   };
 }
 
-export type ResolutionNotes = ReturnType<typeof useResolutionNotes>;
+type ResolutionNotes = ReturnType<typeof useResolutionNotes>;
 
 /** The resolve dialog's fields after the outcome, and its actions. */
 export function ResolutionNoteFields({ question, notes, form, cancel }: { question: Question; notes: ResolutionNotes; form: FormState; cancel: () => void }) {
