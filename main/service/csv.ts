@@ -15,7 +15,8 @@
  * additions to it, so neither holds the file or the diary in memory.
  */
 import { z } from 'zod';
-import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
+import { ByteText } from '../../shared/byte-text';
+import { fileQuestion, type ExportBatch, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference, type PackedRevisions } from '../../shared/diary-file';
 import { ANY_OUTCOMES, OUTCOMES } from '../../shared/domain';
 import {
   entryIssues,
@@ -216,47 +217,102 @@ const VARYING: Record<ExportedQuestion['type'], { forecast: readonly PointColumn
   numeric: { forecast: ['forecast_at', 'note', 'quantiles'], reference: ['reference_at', 'reference_source', 'reference_quantiles'] },
 };
 
-/**
- * One question's rows: one per revision, then one per reference forecast, or one row when
- * it has neither. Times and numbers never need quoting; text does (csvField).
- */
-function questionRows(q: ExportedQuestion, columns: readonly CsvColumn[]): string {
-  if (q.type !== 'binary' && columns.length === CSV_COLUMNS.length) {
-    // The caller chose the header from the diary's types; reaching this is a bug, not a user's mistake.
-    throw new Error(`diaryCsvText: question ${q.id} is a ${q.type} question, but the export was started without the type columns`);
-  }
-  const cells = questionCells(q);
-  const varying = VARYING[q.type];
+/** The rows of a question's revisions held as objects (all but the packed ones). */
+function forecastRows(q: ExportedQuestion, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): string {
+  if (q.forecasts.length === 0) return '';
+  const pieces = rowPieces(columns, cells, VARYING[q.type].forecast);
   let out = '';
-  if (q.forecasts.length) {
-    const pieces = rowPieces(columns, cells, varying.forecast);
-    if (q.type === 'binary') {
-      for (const f of q.forecasts) {
-        const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
-        out += fill(pieces, [f.at, String(f.p), csvField(f.note), lenses]);
-      }
-    } else if (q.type === 'choice') {
-      for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.probs)]);
-    } else {
-      for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.quantiles)]);
+  if (q.type === 'binary') {
+    for (const f of q.forecasts) {
+      const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
+      out += fill(pieces, [f.at, String(f.p), csvField(f.note), lenses]);
     }
+  } else if (q.type === 'choice') {
+    for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.probs)]);
+  } else {
+    for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.quantiles)]);
   }
-  if (q.references.length) {
-    const pieces = rowPieces(columns, cells, varying.reference);
-    if (q.type === 'binary') {
-      for (const r of q.references) out += fill(pieces, [r.at, String(r.p), csvField(r.source)]);
-    } else if (q.type === 'choice') {
-      for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.probs)]);
-    } else {
-      for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.quantiles)]);
-    }
+  return out;
+}
+
+/** The rows of a question's reference forecasts. */
+function referenceRows(q: ExportedQuestion, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): string {
+  if (q.references.length === 0) return '';
+  const pieces = rowPieces(columns, cells, VARYING[q.type].reference);
+  let out = '';
+  if (q.type === 'binary') {
+    for (const r of q.references) out += fill(pieces, [r.at, String(r.p), csvField(r.source)]);
+  } else if (q.type === 'choice') {
+    for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.probs)]);
+  } else {
+    for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.quantiles)]);
   }
-  if (out === '') out = fill(rowPieces(columns, cells, []), []);
   return out;
 }
 
 /**
- * The diary as CSV text, one piece per batch of questions: the header row, then per
+ * Question k's packed revisions (yes/no, without lenses) as rows, written as bytes in
+ * place: they are nearly all of an export's rows. The question's cells before and after
+ * the revision's are encoded on its first row and copied from there to the others; each
+ * row adds its time, probability and note.
+ */
+function writePackedRows(out: ByteText, r: PackedRevisions, k: number, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): void {
+  const [beforeAt, beforeP, beforeNote, beforeLenses, afterLenses] = rowPieces(columns, cells, VARYING.binary.forecast);
+  // The lenses cell is empty: no revision packed has lenses.
+  const tail = `${beforeLenses!}${afterLenses!}\r\n`;
+  const first = r.from[k]!;
+  const to = r.to[k]!;
+  let headStart = 0;
+  let headEnd = 0;
+  let tailStart = 0;
+  let tailEnd = 0;
+  for (let i = first; i < to; i++) {
+    if (i === first) {
+      headStart = out.written;
+      out.text(beforeAt!);
+      headEnd = out.written;
+    } else out.again(headStart, headEnd);
+    out.iso(r.at[i]!);
+    out.text(beforeP!);
+    out.ascii(String(r.p[i]));
+    out.text(beforeNote!);
+    const note = r.note[i]!;
+    if (note !== '') out.text(csvField(note));
+    if (i === first) {
+      tailStart = out.written;
+      out.text(tail);
+      tailEnd = out.written;
+    } else out.again(tailStart, tailEnd);
+  }
+}
+
+/** Refuses a question the header has no columns for. */
+function checkColumns(q: ExportedQuestion, columns: readonly CsvColumn[]): void {
+  if (q.type !== 'binary' && columns.length === CSV_COLUMNS.length) {
+    // The caller chose the header from the diary's types; reaching this is a bug, not a user's mistake.
+    throw new Error(`diaryCsvBytes: question ${q.id} is a ${q.type} question, but the export was started without the type columns`);
+  }
+}
+
+/**
+ * Question k's rows: one per revision, then one per reference forecast, or one row when it
+ * has neither. Times and numbers never need quoting; text does (csvField).
+ */
+function writeQuestionRows(out: ByteText, batch: ExportBatch, k: number, columns: readonly CsvColumn[]): void {
+  const q = batch.questions[k]!;
+  checkColumns(q, columns);
+  const cells = questionCells(q);
+  const packed = batch.packed;
+  const anyPacked = packed !== null && packed.to[k]! > packed.from[k]!;
+  if (anyPacked) writePackedRows(out, packed, k, cells, columns);
+  const rows = forecastRows(q, cells, columns) + referenceRows(q, cells, columns);
+  if (rows !== '') out.text(rows);
+  else if (!anyPacked) out.text(fill(rowPieces(columns, cells, []), []));
+}
+
+/**
+ * The diary as CSV, UTF-8 bytes, one piece per batch of questions (each valid until the next
+ * is asked for, as diaryFileBytes's): the header row, then per
  * question one row per revision, then one row per reference forecast, or a single row when
  * it has neither. Numbers keep full precision (`String(number)` reads back to the same
  * double); every line ends in CRLF (RFC 4180 §2 rule 1).
@@ -266,13 +322,14 @@ function questionRows(q: ExportedQuestion, columns: readonly CsvColumn[]): strin
  *   holds any (the header comes first, so the caller says); false keeps the columns a
  *   diary of yes/no questions has always had
  */
-export function* diaryCsvText(batches: Iterable<ExportedQuestion[]>, withTypes = false): Generator<string> {
+export function* diaryCsvBytes(batches: Iterable<ExportBatch>, withTypes = false): Generator<Uint8Array> {
   const columns: readonly CsvColumn[] = withTypes ? CSV_ALL_COLUMNS : CSV_COLUMNS;
-  yield withTypes ? CSV_TYPES_HEADER : CSV_HEADER;
+  const out = new ByteText();
+  out.ascii(withTypes ? CSV_TYPES_HEADER : CSV_HEADER);
+  yield out.take();
   for (const batch of batches) {
-    // Joined once, flat: a string grown row by row would be copied again to be written.
-    const text = batch.map((q) => questionRows(q, columns)).join('');
-    if (text) yield text;
+    for (let k = 0; k < batch.questions.length; k++) writeQuestionRows(out, batch, k, columns);
+    if (batch.questions.length) yield out.take();
   }
 }
 
@@ -290,6 +347,21 @@ function check<T>(schema: z.ZodType<T>, value: unknown, row: number, column: str
   const issue = r.error.issues[0]!;
   const inner = v.formatPath(issue.path);
   throw nothingImported(row, column, inner ? `${inner}: ${issue.message}` : issue.message);
+}
+
+/**
+ * A revision's or a reference's time as epoch ms: the instant rule read directly (every
+ * row has one); zod, with the same rule, words a refusal.
+ */
+function instantCell(text: string, row: number, column: 'forecast_at' | 'reference_at'): number {
+  const ms = v.readInstant(text);
+  return typeof ms === 'number' ? ms : check(column === 'forecast_at' ? F.at : REF.at, text, row, column);
+}
+
+/** A revision's note: the note rule read directly (every revision row has one); zod words a refusal. */
+function noteCell(text: string, row: number): string {
+  if (text.length <= v.NOTE_MAX && v.controlCharacterProblem(text, 'many') === null) return text;
+  return check(F.note, text, row, 'note') ?? '';
 }
 
 // Plain decimal notation with an optional exponent: what String(number) writes and what a
@@ -504,7 +576,11 @@ const VALUE_COLUMNS = {
 function readEntry(cell: Cell, row: number, shape: TypeShape, columns: { p: PointColumn; probs: PointColumn; quantiles: PointColumn }): EntryFields {
   const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
   const entry: EntryFields = {};
-  if (trimmed(columns.p) !== undefined) entry.p = check(F.p, numberCell(cell(columns.p), row, columns.p), row, columns.p) as number;
+  if (trimmed(columns.p) !== undefined) {
+    const p = numberCell(cell(columns.p), row, columns.p);
+    // The probability rule (shared/validation.ts) without zod on the common path; zod words a refusal.
+    entry.p = p >= 0 && p <= 1 ? p : (check(F.p, p, row, columns.p) as number);
+  }
   if (trimmed(columns.probs) !== undefined) entry.probs = check(v.probs, numberList(cell(columns.probs), row, columns.probs), row, columns.probs);
   if (trimmed(columns.quantiles) !== undefined) {
     entry.quantiles = check(v.quantiles, valueList(cell(columns.quantiles), row, columns.quantiles, shape), row, columns.quantiles);
@@ -557,7 +633,7 @@ function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileF
         if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a revision needs both its time (forecast_at) and its ${value.word} (${value.forecast})`);
       }
     });
-    forecast = { at: check(F.at, cell('forecast_at').trim(), row, 'forecast_at'), ...entry, note: check(F.note, cell('note'), row, 'note') ?? '' } as FileForecast;
+    forecast = { at: instantCell(cell('forecast_at').trim(), row, 'forecast_at'), ...entry, note: noteCell(cell('note'), row) } as FileForecast;
   } else {
     for (const c of ['note', 'lenses'] as const) {
       if (cell(c) !== '') throw nothingImported(row, c, `belongs to a revision, but forecast_at and ${value.forecast} are empty on this row; fill them in or clear this cell`);
@@ -572,7 +648,7 @@ function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileF
         if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a reference forecast needs its time, ${value.word} and source`);
       }
     });
-    reference = { at: check(REF.at, cell('reference_at').trim(), row, 'reference_at'), ...entry, source: check(REF.source, cell('reference_source'), row, 'reference_source') } as FileReference;
+    reference = { at: instantCell(cell('reference_at').trim(), row, 'reference_at'), ...entry, source: check(REF.source, cell('reference_source'), row, 'reference_source') } as FileReference;
   }
   return { forecast, reference };
 }
@@ -619,31 +695,14 @@ export type CsvItem =
   | { kind: 'question'; index: number; row: number; question: FileQuestion }
   | { kind: 'addition'; index: number; row: number; forecast: FileForecast | null; reference: FileReference | null };
 
-/**
- * A row's question cells as written, in one new string (so no chunk of the file stays in
- * memory), each prefixed with its length so no text inside a cell can make two different
- * rows look alike.
- */
-function joinCells(cells: readonly string[]): string {
-  return cells.map((c) => `${c.length}:${c}`).join('');
-}
-
-function splitCells(joined: string): string[] {
-  const cells: string[] = [];
-  for (let at = 0; at < joined.length; ) {
-    const colon = joined.indexOf(':', at);
-    const end = colon + 1 + Number(joined.slice(at, colon));
-    cells.push(joined.slice(colon + 1, end));
-    at = end;
-  }
-  return cells;
-}
+/** A cell copied: a slice of a chunk of text would keep the whole chunk in memory. */
+const detached = (cell: string): string => (cell.length === 0 ? '' : (' ' + cell).slice(1));
 
 interface Group {
   index: number;
   row: number;
-  /** The first row's question cells as written (joinCells). */
-  raw: string;
+  /** The first row's question cells as written (QUESTION_COLUMNS' order), copied out of the file's text. */
+  cells: string[];
   /** What the question's type makes of its revisions (the same on every row: `agree`). */
   shape: TypeShape;
 }
@@ -658,12 +717,19 @@ interface Group {
  */
 export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
   let positions: Map<CsvColumn, number> | null = null;
+  /** Where each of QUESTION_COLUMNS is in a row (-1: not in the file). */
+  let questionPositions: number[] = [];
   let width = 0;
   const groups = new Map<string, Group>();
+  // The previous row's question: its rows usually follow one another (export writes them so).
+  let lastId = '';
+  let lastGroup: Group | undefined;
   try {
     for (const { fields, row } of readCsvRecords(chunks)) {
       if (positions === null) {
         positions = readHeader(fields);
+        const at = positions;
+        questionPositions = QUESTION_COLUMNS.map((c) => at.get(c) ?? -1);
         width = fields.length;
         continue;
       }
@@ -680,11 +746,13 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
         const i = at.get(c);
         return i === undefined ? '' : fields[i]!;
       };
-      const raw = joinCells(QUESTION_COLUMNS.map(cell));
       const id = cell('question_id');
+      const byId = id.trim() !== '';
       // Joined rather than concatenated: a new string, so the map does not keep a chunk of the file alive.
-      const key = id.trim() !== '' ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000');
-      const group = groups.get(key);
+      const group =
+        byId && lastGroup !== undefined && id === lastId
+          ? lastGroup
+          : groups.get(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'));
       if (!group) {
         const question = readQuestionCells(cell, row);
         const shape = shapeOf(typeFields(question));
@@ -692,12 +760,19 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
         // The rule spanning the question's fields, at its first row (the file schema's own).
         if (!v.closesAfterOpening(record)) throw nothingImported(row, 'closes_at', v.CLOSES_AFTER_OPENS_RULE);
         const index = groups.size;
-        groups.set(key, { index, row, raw, shape });
+        const created: Group = { index, row, cells: QUESTION_COLUMNS.map((c) => detached(cell(c))), shape };
+        groups.set(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'), created);
+        lastId = byId ? created.cells[QUESTION_COLUMNS.indexOf('question_id')]! : '';
+        lastGroup = byId ? created : undefined;
         yield { kind: 'question', index, row, question: record };
         continue;
       }
       // Rows repeating the first row's cells exactly need no second reading.
-      if (raw !== group.raw) agree(group, readQuestionCells(cell, row), row);
+      if (!sameCells(group.cells, fields, questionPositions)) agree(group, readQuestionCells(cell, row), row);
+      if (byId) {
+        lastId = group.cells[QUESTION_COLUMNS.indexOf('question_id')]!;
+        lastGroup = group;
+      } else lastGroup = undefined;
       yield { kind: 'addition', index: group.index, row, ...readPoint(cell, row, group.shape) };
     }
   } catch (err) {
@@ -707,9 +782,18 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
   if (positions === null) readHeader(undefined);
 }
 
+/** Whether a row's question cells are exactly the first row's. */
+function sameCells(first: readonly string[], fields: readonly string[], positions: readonly number[]): boolean {
+  for (let i = 0; i < positions.length; i++) {
+    const at = positions[i]!;
+    if ((at === -1 ? '' : fields[at]!) !== first[i]) return false;
+  }
+  return true;
+}
+
 /** A later row of a question must hold the same values as its first row (compared as read: 0.30 and .3 agree). */
 function agree(group: Group, values: Record<QuestionColumn, unknown>, row: number): void {
-  const cells = splitCells(group.raw);
+  const cells = group.cells;
   const first = readQuestionCells((c) => cells[QUESTION_COLUMNS.indexOf(c as QuestionColumn)] ?? '', group.row);
   for (const c of QUESTION_COLUMNS) {
     if (JSON.stringify(values[c]) !== JSON.stringify(first[c])) {

@@ -5,23 +5,21 @@
  */
 import type { HindsightEntry, ReferenceLeadSummary } from '../../shared/contract';
 import type { BinaryQuestion } from '../../shared/domain';
-import { confidentVerdict, prepareScoredSet, referenceLead, type ScoreOptions, type ScoringQuestion } from '../../shared/scoring';
+import { confidentVerdict, referenceLead, type ScoredSet } from '../../shared/scoring';
 import { toIso } from '../../shared/time';
 
 /**
- * The confident calls of the selection, misses first (the most confident, i.e. worst, first),
+ * The confident calls of the selection (the scored set of its filter), misses first (the most confident, i.e. worst, first),
  * then hits (most confident first), with the counts of each; only the page from `offset`
  * (`limit` entries, all when undefined) is read in full.
  */
 export function confidentCalls(
-  scoring: ScoringQuestion[],
-  options: ScoreOptions,
+  set: ScoredSet,
   threshold: number,
   includeHits: boolean,
   details: (ids: string[]) => BinaryQuestion[],
   page: { offset: number; limit?: number } = { offset: 0 },
 ): { entries: HindsightEntry[]; misses: number; hits: number } {
-  const set = prepareScoredSet(scoring, options);
   const picked: { i: number; verdict: 'miss' | 'hit'; distance: number }[] = [];
   for (let i = 0; i < set.n; i++) {
     const verdict = confidentVerdict(set.p[i]!, set.o[i]!, threshold);
@@ -60,8 +58,7 @@ export function confidentCalls(
  * forecasts, when the user's standing forecast reached and stayed on the right side of 50%
  * versus when the reference did (positive: the user was earlier).
  */
-export function referenceLeads(scoring: ScoringQuestion[], options: ScoreOptions): ReferenceLeadSummary[] {
-  const set = prepareScoredSet(scoring, options);
+export function referenceLeads(set: ScoredSet): ReferenceLeadSummary[] {
   const all: number[] = [];
   const byTag = new Map<string, number[]>();
   for (let i = 0; i < set.n; i++) {

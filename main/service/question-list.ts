@@ -106,6 +106,30 @@ export interface ListContext {
   stale: (q: PageRow, last: { p: number; at: number } | null) => boolean;
 }
 
+/** A query's whole order, kept for its later pages: `version` is the diary's data_version it was read at. */
+interface KeptOrder {
+  version: number;
+  rows: { id: string; status: number }[];
+}
+
+// Scrolling asks for page after page of one query, and each page's order costs a pass over
+// the whole diary (the attention order plans every open question's check-in). So the first
+// later page reads the query's whole order once, and the pages after it are cut from that
+// until the diary changes (the read handle's data_version moves on any other connection's
+// commit) or the query is asked again from the start. A few queries are kept per diary: a
+// second window may scroll another one.
+const keptOrders = new WeakMap<Db, Map<string, KeptOrder>>();
+const ORDERS_KEPT = 4;
+
+function keptOrdersOf(db: Db): Map<string, KeptOrder> {
+  let orders = keptOrders.get(db);
+  if (!orders) {
+    orders = new Map();
+    keptOrders.set(db, orders);
+  }
+  return orders;
+}
+
 export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuestions'>): QuestionList {
   const { read, settings, now } = ctx;
   const sort: ListSort = req.sort ?? 'attention';
@@ -150,17 +174,35 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
           : sort === 'attention'
             ? `, CASE WHEN status < 2 THEN ${CHECKIN_FN}(opened_at, ${latest('at')}, checkin_days, time_zone) END AS checkin`
             : '';
-      const page = read
-        .prepare(
-          `WITH b AS (SELECT q.id, q.title, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, ${STATUS_SQL} AS status ${from}),
+      const ordered = (limit: string) =>
+        `WITH b AS (SELECT q.id, q.title, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, ${STATUS_SQL} AS status ${from}),
              c AS (SELECT b.*${extra} FROM b)
            SELECT id, status, count(*) OVER () AS matched${sort === 'attention' ? `, ${ATTENTION_SQL} AS attention` : ''}
-           FROM c ORDER BY ${orderBy(sort, direction)}
-           ${req.limit !== undefined ? 'LIMIT @limit OFFSET @offset' : 'LIMIT -1 OFFSET @offset'}`,
-        )
-        .all({ ...params, offset, ...(req.limit !== undefined ? { limit: req.limit } : {}) }) as { id: string; status: number; matched: number }[];
-      // A page past the end has no row to carry the count.
-      const matched = page[0]?.matched ?? (offset > 0 ? (read.prepare(`SELECT count(*) ${from}`).pluck().get(params) as number) : 0);
+           FROM c ORDER BY ${orderBy(sort, direction)} ${limit}`;
+      const orders = keptOrdersOf(read);
+      const queryKey = JSON.stringify([req.tag ?? null, text ?? null, req.status ?? null, sort, direction]);
+      let page: { id: string; status: number }[];
+      let matched: number;
+      if (offset === 0) {
+        // The first page: only it is read (the query may change at the next keystroke).
+        orders.delete(queryKey);
+        const first = read
+          .prepare(ordered(req.limit !== undefined ? 'LIMIT @limit' : ''))
+          .all({ ...params, ...(req.limit !== undefined ? { limit: req.limit } : {}) }) as { id: string; status: number; matched: number }[];
+        page = first;
+        matched = first[0]?.matched ?? 0;
+      } else {
+        const version = read.pragma('data_version', { simple: true }) as number;
+        let kept = orders.get(queryKey);
+        if (kept?.version !== version) {
+          kept = { version, rows: read.prepare(ordered('')).all(params) as { id: string; status: number }[] };
+          orders.delete(queryKey);
+          if (orders.size >= ORDERS_KEPT) orders.delete(orders.keys().next().value!);
+          orders.set(queryKey, kept);
+        }
+        page = kept.rows.slice(offset, req.limit !== undefined ? offset + req.limit : undefined);
+        matched = kept.rows.length;
+      }
       const byId = new Map(
         (
           read

@@ -3,7 +3,7 @@
  * score, the ROC curve and intervals around the mean scores. Not part of `score --json`.
  */
 import { LOG_CLIP_HIGH, LOG_CLIP_LOW } from './accuracy';
-import { prepareScoredSet } from './counting';
+import { prepareScoredSet, type ScoredSet } from './counting';
 import { rocCurve } from './discrimination';
 import { normalMeanInterval } from './intervals';
 import type { RunningBrierPoint, ScoreOptions, ScorecardDetail, ScoredQuestionRow, ScoringQuestion } from './types';
@@ -22,10 +22,10 @@ function clampInterval(iv: [number, number] | null, low: number, high: number): 
  *
  * @param questions the diary (forecasts and references in any order)
  * @param options as for `computeScoreReport`
+ * @param set `prepareScoredSet(questions, options)` when the caller has it already (only read)
  * @throws RangeError naming the question and field for any invalid input
  */
-export function computeScorecardDetail(questions: readonly ScoringQuestion[], options: ScoreOptions): ScorecardDetail {
-  const set = prepareScoredSet(questions, options);
+export function computeScorecardDetail(questions: readonly ScoringQuestion[], options: ScoreOptions, set: ScoredSet = prepareScoredSet(questions, options)): ScorecardDetail {
   const { n, T, p, p1, o } = set;
   const rows: ScoredQuestionRow[] = new Array(n);
   const logLoss = new Float64Array(n);

@@ -82,10 +82,11 @@ function confidentMisses(set: ScoredSet): ConfidentMiss[] {
  * @param questions the diary (forecasts and references in any order)
  * @param options tag filter, inclusive bounds on the window end T (epoch ms), and the
  *   diary's default costs for questions without their own
+ * @param set `prepareScoredSet(questions, options)` when the caller has it already (it is
+ *   only read); computed here otherwise
  * @throws RangeError naming the question and field for any invalid input
  */
-export function computeScoreReport(questions: readonly ScoringQuestion[], options: ScoreOptions): ScoreReport {
-  const set = prepareScoredSet(questions, options);
+export function computeScoreReport(questions: readonly ScoringQuestion[], options: ScoreOptions, set: ScoredSet = prepareScoredSet(questions, options)): ScoreReport {
   const { n, p, o, counts } = set;
   const decisions = costLossDecisions(costCases(set, options));
   const value_curve = valueCurve(p.subarray(0, n), o.subarray(0, n));

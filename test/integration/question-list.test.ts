@@ -97,6 +97,27 @@ test('pages fit together: every question once, in order, whatever the page size'
   assert.equal((await list(d, { limit: LIST_PAGE_MAX })).questions.length, 12);
 });
 
+test('later pages follow a change to the diary at once, from this process or another one', async () => {
+  const { d, ids } = await diary();
+  const titles = async (offset: number) => (await list(d, { sort: 'title', offset, limit: 5 })).questions.map((q) => q.title);
+  await list(d, { sort: 'title', offset: 0, limit: 5 });
+  const second = await titles(5);
+  assert.equal(second.length, 5);
+  assert.deepEqual(await titles(5), second, 'the same page twice');
+  // Renamed to sort first: every later page shifts by one.
+  await d.call('updateQuestion', { id: ids[11]!, changes: { title: 'aardvark question' } });
+  const next = await titles(5); // before any first page, which would drop the kept order anyway
+  const whole = (await list(d, { sort: 'title', offset: 0, limit: 100 })).questions.map((q) => q.title);
+  assert.equal(whole[0], 'aardvark question');
+  assert.deepEqual(next, whole.slice(5, 10), "this process's edit is in the next later page");
+  assert.notDeepEqual(whole.slice(5, 10), second);
+  const other = openTestDiary({ now: NOW, dbPath: d.dbPath });
+  await other.call('deleteQuestion', { id: ids[1]! });
+  const after = await list(d, { sort: 'title', offset: 5, limit: 5 });
+  assert.equal(after.matched, 11, "another process's delete is counted");
+  assert.ok(!after.questions.some((q) => q.id === ids[1]));
+});
+
 test('search, status and tag filter before paging, and `matched` counts every page', async () => {
   const { d, ids } = await diary();
   const north = await list(d, { tag: 'client:northgate', limit: 2 });
