@@ -78,7 +78,7 @@ export function chanceScale(title: string, colors: HistoryPalette): ScaleOptions
   } as ScaleOptions<'linear'>;
 }
 
-export interface HistoryOptions {
+interface HistoryOptions {
   colors: HistoryPalette;
   zone: string;
   x: ScaleOptions<'linear'>;
@@ -131,7 +131,7 @@ export function useHistoryChart<D extends unknown[]>(configure: (colors: History
   return canvasRef;
 }
 
-export interface HistoryFigureProps {
+interface HistoryFigureProps {
   /** 'choice' or 'numeric'; the yes/no chart has none. */
   kind?: string;
   /** The plotted data, serialised into `data-points` (tests read that rather than pixels). */

@@ -16,7 +16,7 @@ import { TextField } from '../../components/TextField';
 import { isoToLocal, localToIso, timeZoneNames, zoneName } from '../../dates';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
-import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges } from './questionForms';
+import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges, useCommonEdits } from './questionForms';
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from './labels';
@@ -56,51 +56,33 @@ function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<BinaryQue
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const initialOpened = isoToLocal(q.opened_at, q.time_zone);
-  const initialCloses = isoToLocal(q.closes_at, q.time_zone);
-  const [title, setTitle] = useState(q.title);
-  const [rule, setRule] = useState(q.rule);
+  const edits = useCommonEdits(q);
+  const { title, setTitle, rule, setRule, tags, setTags, baseRateNote, setBaseRateNote, timeZone, setTimeZone, closesLocal, setClosesLocal } = edits.fields;
   const [kind, setKind] = useState<QuestionKind>(q.kind);
-  const [tags, setTags] = useState<string[]>(q.tags);
-  const [timeZone, setTimeZone] = useState(q.time_zone);
   const [openedLocal, setOpenedLocal] = useState(initialOpened);
-  const [closesLocal, setClosesLocal] = useState(initialCloses);
   const [baseRate, setBaseRate] = useState(percentText(q.base_rate));
-  const [baseRateNote, setBaseRateNote] = useState(q.base_rate_note);
   const [falseAlarm, setFalseAlarm] = useState(q.costs ? String(q.costs.false_alarm) : '');
   const [miss, setMiss] = useState(q.costs ? String(q.costs.miss) : '');
   const [checkin, setCheckin] = useState(q.checkin_days === null ? '' : String(q.checkin_days));
   const zones = useMemo(() => timeZoneNames(q.time_zone).map((zone) => ({ value: zone, label: zoneName(zone) })), [q.time_zone]);
   const initialCosts = { falseAlarm: q.costs ? String(q.costs.false_alarm) : '', miss: q.costs ? String(q.costs.miss) : '' };
   const dirty =
-    title !== q.title || rule !== q.rule || kind !== q.kind || tags.join('\n') !== q.tags.join('\n') || timeZone !== q.time_zone ||
-    openedLocal !== initialOpened || closesLocal !== initialCloses || baseRate !== percentText(q.base_rate) || baseRateNote !== q.base_rate_note ||
+    edits.dirty || kind !== q.kind || openedLocal !== initialOpened || baseRate !== percentText(q.base_rate) ||
     falseAlarm !== initialCosts.falseAlarm || miss !== initialCosts.miss || checkin !== (q.checkin_days === null ? '' : String(q.checkin_days));
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
     const changes: QuestionChanges = {};
-    if (title !== q.title) changes.title = title;
-    if (title.trim() === '') found.title = 'write the question you are forecasting';
-    if (rule !== q.rule) changes.rule = rule;
+    edits.read(changes, found);
     if (kind !== q.kind) changes.kind = kind;
-    if (tags.join('\n') !== q.tags.join('\n')) changes.tags = tags;
-    if (baseRateNote !== q.base_rate_note) changes.base_rate_note = baseRateNote;
-
-    // A new zone re-reads both times on the new zone's clocks: "17:00" keeps meaning 17:00 there.
-    const zoneChanged = timeZone !== q.time_zone;
-    if (zoneChanged) changes.time_zone = timeZone;
-    if (zoneChanged || openedLocal !== initialOpened) {
+    // Like the close, the opening is re-read on a new zone's clocks.
+    if (edits.zoneChanged || openedLocal !== initialOpened) {
       const iso = localToIso(openedLocal, timeZone);
       if (iso) changes.opened_at = iso;
       else found.opened_at = 'enter when the question opened';
       const problem = iso ? typedTimeProblem(iso, 'the opening time (when the question was posed)') : null;
       if (problem) found.opened_at = problem;
-    }
-    if (zoneChanged || closesLocal !== initialCloses) {
-      const iso = localToIso(closesLocal, timeZone);
-      if (iso) changes.closes_at = iso;
-      else found.closes_at = 'enter when the window closes';
     }
 
     const base = percentToProbability(baseRate);

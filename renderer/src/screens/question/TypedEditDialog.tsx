@@ -11,11 +11,10 @@ import { Form, FormActions } from '../../components/Form';
 import { TagInput } from '../../components/TagInput';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
-import { isoToLocal, localToIso } from '../../dates';
 import { ChoiceForecastInput } from '../../forecastEntry/ChoiceForecastInput';
 import type { ChoiceProblems } from '../../forecastEntry/choiceEntry';
 import { useForm } from '../../forms';
-import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges } from './questionForms';
+import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges, useCommonEdits } from './questionForms';
 import { percentText } from '../../percent';
 import { levelsText, readOptionBaseRates, readOptions } from '../../questionTypes/definition';
 import { OptionsEditor } from '../../questionTypes/OptionsEditor';
@@ -42,41 +41,25 @@ const same = (a: readonly unknown[] | null, b: readonly unknown[] | null) => JSO
 function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<TypedQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
-  const initialCloses = isoToLocal(q.closes_at, q.time_zone);
   const initialRates = q.type === 'choice' ? q.options.map((_, k) => percentText(q.option_base_rates?.[k])) : [];
-  const [title, setTitle] = useState(q.title);
-  const [rule, setRule] = useState(q.rule);
-  const [tags, setTags] = useState<string[]>(q.tags);
-  const [timeZone, setTimeZone] = useState(q.time_zone);
-  const [closesLocal, setClosesLocal] = useState(initialCloses);
+  const edits = useCommonEdits(q);
+  const { title, setTitle, rule, setRule, tags, setTags, baseRateNote, setBaseRateNote, timeZone, setTimeZone, closesLocal, setClosesLocal } = edits.fields;
   const [options, setOptions] = useState<string[]>(q.type === 'choice' ? q.options : []);
   const [ordered, setOrdered] = useState(q.type === 'choice' && q.ordered);
   const [rates, setRates] = useState<string[]>(initialRates);
   const [ratesProblems, setRatesProblems] = useState<ChoiceProblems | undefined>(undefined);
   const [optionProblems, setOptionProblems] = useState<Record<number, string> | undefined>(undefined);
-  const [baseRateNote, setBaseRateNote] = useState(q.base_rate_note);
   const [unit, setUnit] = useState(q.type === 'numeric' ? q.unit : '');
   const dirty =
-    title !== q.title || rule !== q.rule || tags.join('\n') !== q.tags.join('\n') || timeZone !== q.time_zone || closesLocal !== initialCloses ||
+    edits.dirty ||
     (q.type === 'choice' && (!same(options, q.options) || ordered !== q.ordered || !same(rates, initialRates))) ||
-    baseRateNote !== q.base_rate_note || (q.type === 'numeric' && unit !== q.unit);
+    (q.type === 'numeric' && unit !== q.unit);
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
     const changes: QuestionChanges = {};
-    if (title !== q.title) changes.title = title;
-    if (title.trim() === '') found.title = 'write the question you are forecasting';
-    if (rule !== q.rule) changes.rule = rule;
-    if (tags.join('\n') !== q.tags.join('\n')) changes.tags = tags;
-    if (baseRateNote !== q.base_rate_note) changes.base_rate_note = baseRateNote;
-    const zoneChanged = timeZone !== q.time_zone;
-    if (zoneChanged) changes.time_zone = timeZone;
-    if (zoneChanged || closesLocal !== initialCloses) {
-      const iso = localToIso(closesLocal, timeZone);
-      if (iso) changes.closes_at = iso;
-      else found.closes_at = 'enter when the window closes';
-    }
+    edits.read(changes, found);
     if (q.type === 'choice') {
       const read = readOptions(options);
       setOptionProblems(read.problems);

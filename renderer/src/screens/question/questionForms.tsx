@@ -49,6 +49,44 @@ export function resolveDialogFrame(question: Question) {
 
 export type QuestionChanges = Parameters<typeof api.updateQuestion>[0]['changes'];
 
+/**
+ * The fields both edit forms have, as typed: the wording, tags, the base-rate note, the zone
+ * and the close; whether any changed; and `read`, which puts the changed ones into a request.
+ */
+export function useCommonEdits(q: Question) {
+  const initialCloses = isoToLocal(q.closes_at, q.time_zone);
+  const [title, setTitle] = useState(q.title);
+  const [rule, setRule] = useState(q.rule);
+  const [tags, setTags] = useState<string[]>(q.tags);
+  const [baseRateNote, setBaseRateNote] = useState(q.base_rate_note);
+  const [timeZone, setTimeZone] = useState(q.time_zone);
+  const [closesLocal, setClosesLocal] = useState(initialCloses);
+  const zoneChanged = timeZone !== q.time_zone;
+
+  /** Puts what changed into `changes` and what is wrong into `found`. */
+  function read(changes: QuestionChanges, found: Record<string, string>): void {
+    if (title !== q.title) changes.title = title;
+    if (title.trim() === '') found.title = 'write the question you are forecasting';
+    if (rule !== q.rule) changes.rule = rule;
+    if (tags.join('\n') !== q.tags.join('\n')) changes.tags = tags;
+    if (baseRateNote !== q.base_rate_note) changes.base_rate_note = baseRateNote;
+    // A new zone re-reads the times on the new zone's clocks: "17:00" keeps meaning 17:00 there.
+    if (zoneChanged) changes.time_zone = timeZone;
+    if (zoneChanged || closesLocal !== initialCloses) {
+      const iso = localToIso(closesLocal, timeZone);
+      if (iso) changes.closes_at = iso;
+      else found.closes_at = 'enter when the window closes';
+    }
+  }
+
+  return {
+    fields: { title, setTitle, rule, setRule, tags, setTags, baseRateNote, setBaseRateNote, timeZone, setTimeZone, closesLocal, setClosesLocal },
+    zoneChanged,
+    dirty: title !== q.title || rule !== q.rule || tags.join('\n') !== q.tags.join('\n') || baseRateNote !== q.base_rate_note || zoneChanged || closesLocal !== initialCloses,
+    read,
+  };
+}
+
 interface SaveEdit {
   form: FormState;
   id: string;
@@ -113,7 +151,7 @@ export function useResolutionNotes(question: Question) {
   };
 }
 
-export type ResolutionNotes = ReturnType<typeof useResolutionNotes>;
+type ResolutionNotes = ReturnType<typeof useResolutionNotes>;
 
 /** The resolve dialog's fields after the outcome, and its actions. */
 export function ResolutionNoteFields({ question, notes, form, cancel }: { question: Question; notes: ResolutionNotes; form: FormState; cancel: () => void }) {

@@ -17,8 +17,8 @@ import { formatInstant, zoneName } from '../../dates';
 import { useUndoToast } from '../../forgiving/undo';
 import { hrefTo, navigate, questionPath } from '../../routing';
 
-export type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
-export type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
+type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
+type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
 
 /** The page's open dialog, the revision or reference awaiting confirmation, and the changes. */
 export function useQuestionActions(q: Pick<Question, 'id' | 'title'>) {
@@ -70,7 +70,7 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title'>) {
   };
 }
 
-export type QuestionActions = ReturnType<typeof useQuestionActions>;
+type QuestionActions = ReturnType<typeof useQuestionActions>;
 
 /** The breadcrumb, the title with its status, and the actions an open or resolved question offers. */
 export function QuestionHead({ q, status, actions }: { q: Question; status: QuestionStatus; actions: QuestionActions }) {
