@@ -10,7 +10,7 @@ import { isCheckout, staleReason } from '../scripts/freshness.mjs';
 import { ApiError, parseRequest, type DueList, type ImportResult } from '../shared/contract';
 import { NUDGE_KIND_NAMES } from '../shared/domain';
 import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
-import { writeToDescriptor } from './files/atomic-write';
+import { writeToDescriptor, type Chunk } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
@@ -64,7 +64,7 @@ class UsageError extends Error {}
 /** Set when stdout's reader went away (`forelog export | head`): the rest is not wanted. */
 class StdoutClosed extends Error {}
 
-function writeStdout(text: string): void {
+function writeStdout(text: Chunk): void {
   try {
     writeToDescriptor(1, text);
   } catch (err) {

@@ -22,6 +22,7 @@ import {
   type ResolutionChange,
   type Settings,
 } from './domain';
+import { ByteText, utf8 } from './byte-text';
 import { JsonStreamError, readObjectStream } from './json-stream';
 import * as v from './validation';
 
@@ -399,6 +400,25 @@ export function toDiaryFile(settings: Settings, questions: Question[]): Record<s
   };
 }
 
+/**
+ * Yes/no revisions without lenses (nearly all of an export) held column by column, with no
+ * object each: question k of a batch has those at [from[k], to[k]) of `at`, `p` and `note`,
+ * and then an empty `forecasts` list. Any other revision is in its question's `forecasts`.
+ */
+export interface PackedRevisions {
+  from: number[];
+  to: number[];
+  at: number[];
+  p: number[];
+  note: string[];
+}
+
+/** Questions in export order, as the export writers take them. */
+export interface ExportBatch {
+  questions: ExportedQuestion[];
+  packed: PackedRevisions | null;
+}
+
 // How JSON.stringify(…, null, 2) frames the records of a `questions` list one level down.
 const LIST_OPEN = '{\n  "questions": [\n';
 const LIST_CLOSE = '\n  ]\n}';
@@ -407,80 +427,79 @@ const LIST_CLOSE = '\n  ]\n}';
 // depth (six spaces) after a line break, which no string value can hold unescaped.
 const EMPTY_FORECASTS = '\n      "forecasts": []';
 
-/** A revision toFileQuestion writes as `{ at, p, note }`: a probability and no lenses. */
-interface PlainRevision {
-  at: string;
-  p: number;
-  note: string;
-}
-
-function isPlainRevision(f: object): f is PlainRevision {
-  return 'p' in f && typeof f.p === 'number' && 'lenses' in f && Array.isArray(f.lenses) && f.lenses.length === 0;
-}
+// A revision `{ at, p, note }` (toFileQuestion's item for one without lenses) as
+// JSON.stringify(…, null, 2) lays it out inside a record of the file, around its values.
+const FIRST_REVISION = utf8('[\n        {\n          "at": "');
+const NEXT_REVISION = utf8(',\n        {\n          "at": "');
+const AFTER_AT = utf8('",\n          "p": ');
+const AFTER_P = utf8(',\n          "note": ');
+const EMPTY_NOTE = utf8('""');
+const REVISION_CLOSE = utf8('\n        }');
+const LIST_END = utf8('\n      ]');
 
 /**
- * A revision list as JSON.stringify(…, null, 2) writes it inside a record of the file:
- * `{ at, p, note }` per revision (toFileQuestion's item for a revision without lenses).
- * Written by hand because revisions are nearly all of an export, and a text per revision
- * costs far less than an object per revision for JSON.stringify to walk.
+ * Question k's packed revisions as JSON.stringify(…, null, 2) writes its revision list
+ * inside a record: by hand, because revisions are nearly all of an export, and bytes
+ * written in place cost far less than an object each for JSON.stringify to walk.
  */
-function revisionsText(forecasts: readonly PlainRevision[]): string {
-  let out = '[';
-  for (let i = 0; i < forecasts.length; i++) {
-    const f = forecasts[i]!;
+function writePackedRevisions(out: ByteText, r: PackedRevisions, k: number): void {
+  const to = r.to[k]!;
+  for (let i = r.from[k]!; i < to; i++) {
+    out.raw(i === r.from[k] ? FIRST_REVISION : NEXT_REVISION);
+    out.iso(r.at[i]!);
+    out.raw(AFTER_AT);
     // A finite number's JSON text is its String(); p is always finite.
-    out += `${i ? ',' : ''}\n        {\n          "at": ${JSON.stringify(f.at)},\n          "p": ${String(f.p)},\n          "note": ${JSON.stringify(f.note)}\n        }`;
+    out.ascii(String(r.p[i]));
+    out.raw(AFTER_P);
+    const note = r.note[i]!;
+    if (note === '') out.raw(EMPTY_NOTE);
+    else out.text(JSON.stringify(note));
+    out.raw(REVISION_CLOSE);
   }
-  return `${out}\n      ]`;
+  out.raw(LIST_END);
 }
 
 /**
  * A batch's records, laid out as JSON.stringify lays out the `questions` list one level
- * down. Revision lists without lenses (nearly all) are left empty for JSON.stringify and
- * written into its text by `revisionsText`; any other list (with lenses, or revisions of
- * another shape) JSON.stringify writes itself.
+ * down. JSON.stringify writes each record with the revisions in its `forecasts` list;
+ * packed revisions are written into its text where the record's list is empty.
  */
-function batchText(batch: ExportedQuestion[]): string {
-  const byHand: (string | null)[] = [];
-  const records = batch.map((q) => {
-    const revisions: readonly object[] = q.forecasts;
-    const plain = revisions.length > 0 && revisions.every(isPlainRevision);
-    byHand.push(plain ? revisionsText(revisions as PlainRevision[]) : null);
-    return toFileQuestion(plain ? { ...q, forecasts: [] } : q);
-  });
-  const framed = JSON.stringify({ questions: records }, null, 2);
-  const pieces: string[] = [];
+function writeBatch(out: ByteText, { questions, packed }: ExportBatch): void {
+  const framed = JSON.stringify({ questions: questions.map(toFileQuestion) }, null, 2);
   let from = LIST_OPEN.length;
   let search = from;
-  for (let i = 0; i < batch.length; i++) {
-    if (batch[i]!.forecasts.length > 0 && byHand[i] === null) continue; // written by JSON.stringify
+  for (let k = 0; k < questions.length; k++) {
+    if (questions[k]!.forecasts.length > 0) continue; // written by JSON.stringify
     // The "[]" of this record's revision list (the records come in order, one list each).
     const at = framed.indexOf(EMPTY_FORECASTS, search) + EMPTY_FORECASTS.length - 2;
     search = at + 2;
-    const text = byHand[i];
-    if (text == null) continue; // no revisions: "[]" is right
-    pieces.push(framed.slice(from, at), text);
+    if (packed === null || packed.to[k] === packed.from[k]) continue; // no revisions: "[]" is right
+    out.text(framed.slice(from, at));
+    writePackedRevisions(out, packed, k);
     from = at + 2;
   }
-  pieces.push(framed.slice(from, framed.length - LIST_CLOSE.length));
-  return pieces.join('');
+  out.text(framed.slice(from, framed.length - LIST_CLOSE.length));
 }
 
 /**
- * The diary file's text in pieces, one per batch of questions, so an export of any size
- * is written without holding the diary in memory. The bytes are exactly those of
+ * The diary file as UTF-8 bytes, one piece per batch of questions, so an export of any
+ * size is written without holding the diary in memory. Each piece is valid until the next
+ * is asked for (one buffer is reused, see ByteText.take): write it out or copy it. The bytes are exactly those of
  * `JSON.stringify(toDiaryFile(settings, questions), null, 2) + "\n"` for the same questions
  * in the same order: each batch is laid out by JSON.stringify itself, one level down.
  */
-export function* diaryFileText(settings: Settings, batches: Iterable<ExportedQuestion[]>): Generator<string> {
+export function* diaryFileBytes(settings: Settings, batches: Iterable<ExportBatch>): Generator<Uint8Array> {
   const empty = JSON.stringify({ format: DIARY_FORMAT, version: DIARY_VERSION, settings: { ...settings }, questions: [] }, null, 2);
   const head = empty.slice(0, empty.length - '[]\n}'.length);
+  const out = new ByteText();
   let first = true;
   for (const batch of batches) {
-    if (batch.length === 0) continue;
-    yield first ? `${head}[\n` : ',\n';
-    yield batchText(batch);
+    if (batch.questions.length === 0) continue;
+    out.text(first ? `${head}[\n` : ',\n');
+    writeBatch(out, batch);
     first = false;
+    yield out.take();
   }
-  yield first ? `${empty}\n` : `${LIST_CLOSE}\n`;
+  out.text(first ? `${empty}\n` : `${LIST_CLOSE}\n`);
+  yield out.take();
 }

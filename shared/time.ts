@@ -89,6 +89,42 @@ export function offsetMinutesAt(ms: number, timeZone: string): number {
   return Math.round((asUtc - whole) / 60_000);
 }
 
+const DAY_MS = 86_400_000;
+/** Per zone, per UTC day number: the offset in force all that day, or NaN when it changes during the day. */
+const steadyOffsets = new Map<string, Map<number, number>>();
+const STEADY_DAYS_KEPT = 200_000;
+let steadyDaysKept = 0;
+
+/**
+ * `offsetMinutesAt`, with the answer for a whole UTC day remembered when the zone's offset
+ * is the same at the day's first and last second, i.e. when no transition falls in it (a
+ * zone's clock changes at most once in a day). Turning wall times into instants asks three
+ * or four offsets each, and planning a large diary's nudges turns thousands: most of them
+ * fall on days already asked about. A day with a transition is answered exactly each time.
+ */
+function steadyOffsetMinutesAt(ms: number, timeZone: string): number {
+  if (!Number.isFinite(ms)) return offsetMinutesAt(ms, timeZone);
+  const day = Math.floor(ms / DAY_MS);
+  let offset = steadyOffsets.get(timeZone)?.get(day);
+  if (offset === undefined) {
+    const first = offsetMinutesAt(day * DAY_MS, timeZone);
+    offset = first === offsetMinutesAt(day * DAY_MS + DAY_MS - 1000, timeZone) ? first : NaN;
+    // Bounded by starting afresh: a long-running app plans the same days again and again.
+    if (steadyDaysKept >= STEADY_DAYS_KEPT) {
+      steadyOffsets.clear();
+      steadyDaysKept = 0;
+    }
+    let days = steadyOffsets.get(timeZone);
+    if (days === undefined) {
+      days = new Map();
+      steadyOffsets.set(timeZone, days);
+    }
+    days.set(day, offset);
+    steadyDaysKept++;
+  }
+  return Number.isNaN(offset) ? offsetMinutesAt(ms, timeZone) : offset;
+}
+
 /**
  * The instant at which `timeZone`'s clocks read `wall` (RFC 5545 §3.3.5 for repeated
  * and skipped wall times; see the module comment).
@@ -96,11 +132,11 @@ export function offsetMinutesAt(ms: number, timeZone: string): number {
 export function wallTimeToInstant(wall: WallTime, timeZone: string): number {
   const naive = Date.UTC(wall.year, wall.month - 1, wall.day, wall.hour, wall.minute, wall.second);
   // Offsets a day either side bracket any single transition near this wall time.
-  const before = offsetMinutesAt(naive - 86_400_000, timeZone);
-  const after = offsetMinutesAt(naive + 86_400_000, timeZone);
+  const before = steadyOffsetMinutesAt(naive - DAY_MS, timeZone);
+  const after = steadyOffsetMinutesAt(naive + DAY_MS, timeZone);
   const candidates = [naive - before * 60_000, naive - after * 60_000].sort((a, b) => a - b);
   for (const t of candidates) {
-    if (offsetMinutesAt(t, timeZone) * 60_000 === naive - t) return t; // first occurrence
+    if (steadyOffsetMinutesAt(t, timeZone) * 60_000 === naive - t) return t; // first occurrence
   }
   // In a gap: read with the offset in force before it.
   return naive - before * 60_000;
@@ -243,6 +279,16 @@ const THREE_DIGITS = Array.from({ length: 1000 }, (_, i) => String(i).padStart(3
 const isoDates = new Map<number, string>();
 const ISO_DATES_LIMIT = 100_000;
 
+/** "YYYY-MM-DDT" of day number `day` (days since 1970-01-01), from toISOString once per day. */
+function isoDate(day: number): string {
+  let date = isoDates.get(day);
+  if (date === undefined) {
+    if (isoDates.size >= ISO_DATES_LIMIT) isoDates.clear();
+    isoDates.set(day, (date = new Date(day * ISO_DAY_MS).toISOString().slice(0, -13)));
+  }
+  return date;
+}
+
 /**
  * `new Date(ms).toISOString()`, faster: exports and the due list write millions of times,
  * so the date part comes from toISOString once per day and the time of day is arithmetic.
@@ -250,13 +296,56 @@ const ISO_DATES_LIMIT = 100_000;
 export function toIso(ms: number): string {
   if (!Number.isInteger(ms)) return new Date(ms).toISOString();
   const day = Math.floor(ms / ISO_DAY_MS);
-  let date = isoDates.get(day);
-  if (date === undefined) {
-    if (isoDates.size >= ISO_DATES_LIMIT) isoDates.clear();
-    isoDates.set(day, (date = new Date(day * ISO_DAY_MS).toISOString().slice(0, -13)));
-  }
   const t = ms - day * ISO_DAY_MS;
-  return `${date}${TWO_DIGITS[Math.floor(t / 3_600_000)]}:${TWO_DIGITS[Math.floor(t / 60_000) % 60]}:${TWO_DIGITS[Math.floor(t / 1000) % 60]}.${THREE_DIGITS[t % 1000]}Z`;
+  return `${isoDate(day)}${TWO_DIGITS[Math.floor(t / 3_600_000)]}:${TWO_DIGITS[Math.floor(t / 60_000) % 60]}:${TWO_DIGITS[Math.floor(t / 1000) % 60]}.${THREE_DIGITS[t % 1000]}Z`;
+}
+
+/** The most room `writeIso` takes: a six-digit signed year's "+YYYYYY-MM-DDTHH:MM:SS.mmmZ". */
+export const ISO_MAX_BYTES = 27;
+
+const ZERO = 0x30;
+
+let lastDay = NaN;
+let lastDate = '';
+
+/**
+ * Writes toIso(ms) as ASCII bytes into `out` at `at` (which has ISO_MAX_BYTES of room) and
+ * returns the position after it. Exports write millions of times, and bytes written in
+ * place cost no string each, nor its encoding.
+ */
+export function writeIso(ms: number, out: Uint8Array, at: number): number {
+  if (!Number.isInteger(ms)) {
+    const text = new Date(ms).toISOString();
+    for (let i = 0; i < text.length; i++) out[at++] = text.charCodeAt(i);
+    return at;
+  }
+  const day = Math.floor(ms / ISO_DAY_MS);
+  // A question's revisions often fall on one day: the last day's date without a lookup.
+  if (day !== lastDay) {
+    lastDate = isoDate(day);
+    lastDay = day;
+  }
+  const date = lastDate;
+  for (let i = 0; i < date.length; i++) out[at++] = date.charCodeAt(i);
+  const t = ms - day * ISO_DAY_MS;
+  const hours = Math.floor(t / 3_600_000);
+  const minutes = Math.floor(t / 60_000) % 60;
+  const seconds = Math.floor(t / 1000) % 60;
+  const millis = t % 1000;
+  out[at] = ZERO + Math.floor(hours / 10);
+  out[at + 1] = ZERO + (hours % 10);
+  out[at + 2] = 0x3a; // :
+  out[at + 3] = ZERO + Math.floor(minutes / 10);
+  out[at + 4] = ZERO + (minutes % 10);
+  out[at + 5] = 0x3a;
+  out[at + 6] = ZERO + Math.floor(seconds / 10);
+  out[at + 7] = ZERO + (seconds % 10);
+  out[at + 8] = 0x2e; // .
+  out[at + 9] = ZERO + Math.floor(millis / 100);
+  out[at + 10] = ZERO + (Math.floor(millis / 10) % 10);
+  out[at + 11] = ZERO + (millis % 10);
+  out[at + 12] = 0x5a; // Z
+  return at + 13;
 }
 
 /** How a bare date is written: "2026-03-31". */

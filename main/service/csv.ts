@@ -15,7 +15,8 @@
  * additions to it, so neither holds the file or the diary in memory.
  */
 import { z } from 'zod';
-import { fileQuestion, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference } from '../../shared/diary-file';
+import { ByteText } from '../../shared/byte-text';
+import { fileQuestion, type ExportBatch, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference, type PackedRevisions } from '../../shared/diary-file';
 import { ANY_OUTCOMES, OUTCOMES } from '../../shared/domain';
 import {
   entryIssues,
@@ -216,47 +217,102 @@ const VARYING: Record<ExportedQuestion['type'], { forecast: readonly PointColumn
   numeric: { forecast: ['forecast_at', 'note', 'quantiles'], reference: ['reference_at', 'reference_source', 'reference_quantiles'] },
 };
 
-/**
- * One question's rows: one per revision, then one per reference forecast, or one row when
- * it has neither. Times and numbers never need quoting; text does (csvField).
- */
-function questionRows(q: ExportedQuestion, columns: readonly CsvColumn[]): string {
-  if (q.type !== 'binary' && columns.length === CSV_COLUMNS.length) {
-    // The caller chose the header from the diary's types; reaching this is a bug, not a user's mistake.
-    throw new Error(`diaryCsvText: question ${q.id} is a ${q.type} question, but the export was started without the type columns`);
-  }
-  const cells = questionCells(q);
-  const varying = VARYING[q.type];
+/** The rows of a question's revisions held as objects (all but the packed ones). */
+function forecastRows(q: ExportedQuestion, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): string {
+  if (q.forecasts.length === 0) return '';
+  const pieces = rowPieces(columns, cells, VARYING[q.type].forecast);
   let out = '';
-  if (q.forecasts.length) {
-    const pieces = rowPieces(columns, cells, varying.forecast);
-    if (q.type === 'binary') {
-      for (const f of q.forecasts) {
-        const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
-        out += fill(pieces, [f.at, String(f.p), csvField(f.note), lenses]);
-      }
-    } else if (q.type === 'choice') {
-      for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.probs)]);
-    } else {
-      for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.quantiles)]);
+  if (q.type === 'binary') {
+    for (const f of q.forecasts) {
+      const lenses = f.lenses.length ? csvField(JSON.stringify(f.lenses.map((l) => ({ name: l.name, p: l.p, weight: l.weight })))) : '';
+      out += fill(pieces, [f.at, String(f.p), csvField(f.note), lenses]);
     }
+  } else if (q.type === 'choice') {
+    for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.probs)]);
+  } else {
+    for (const f of q.forecasts) out += fill(pieces, [f.at, csvField(f.note), spaced(f.quantiles)]);
   }
-  if (q.references.length) {
-    const pieces = rowPieces(columns, cells, varying.reference);
-    if (q.type === 'binary') {
-      for (const r of q.references) out += fill(pieces, [r.at, String(r.p), csvField(r.source)]);
-    } else if (q.type === 'choice') {
-      for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.probs)]);
-    } else {
-      for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.quantiles)]);
-    }
+  return out;
+}
+
+/** The rows of a question's reference forecasts. */
+function referenceRows(q: ExportedQuestion, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): string {
+  if (q.references.length === 0) return '';
+  const pieces = rowPieces(columns, cells, VARYING[q.type].reference);
+  let out = '';
+  if (q.type === 'binary') {
+    for (const r of q.references) out += fill(pieces, [r.at, String(r.p), csvField(r.source)]);
+  } else if (q.type === 'choice') {
+    for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.probs)]);
+  } else {
+    for (const r of q.references) out += fill(pieces, [r.at, csvField(r.source), spaced(r.quantiles)]);
   }
-  if (out === '') out = fill(rowPieces(columns, cells, []), []);
   return out;
 }
 
 /**
- * The diary as CSV text, one piece per batch of questions: the header row, then per
+ * Question k's packed revisions (yes/no, without lenses) as rows, written as bytes in
+ * place: they are nearly all of an export's rows. The question's cells before and after
+ * the revision's are encoded on its first row and copied from there to the others; each
+ * row adds its time, probability and note.
+ */
+function writePackedRows(out: ByteText, r: PackedRevisions, k: number, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): void {
+  const [beforeAt, beforeP, beforeNote, beforeLenses, afterLenses] = rowPieces(columns, cells, VARYING.binary.forecast);
+  // The lenses cell is empty: no revision packed has lenses.
+  const tail = `${beforeLenses!}${afterLenses!}\r\n`;
+  const first = r.from[k]!;
+  const to = r.to[k]!;
+  let headStart = 0;
+  let headEnd = 0;
+  let tailStart = 0;
+  let tailEnd = 0;
+  for (let i = first; i < to; i++) {
+    if (i === first) {
+      headStart = out.written;
+      out.text(beforeAt!);
+      headEnd = out.written;
+    } else out.again(headStart, headEnd);
+    out.iso(r.at[i]!);
+    out.text(beforeP!);
+    out.ascii(String(r.p[i]));
+    out.text(beforeNote!);
+    const note = r.note[i]!;
+    if (note !== '') out.text(csvField(note));
+    if (i === first) {
+      tailStart = out.written;
+      out.text(tail);
+      tailEnd = out.written;
+    } else out.again(tailStart, tailEnd);
+  }
+}
+
+/** Refuses a question the header has no columns for. */
+function checkColumns(q: ExportedQuestion, columns: readonly CsvColumn[]): void {
+  if (q.type !== 'binary' && columns.length === CSV_COLUMNS.length) {
+    // The caller chose the header from the diary's types; reaching this is a bug, not a user's mistake.
+    throw new Error(`diaryCsvBytes: question ${q.id} is a ${q.type} question, but the export was started without the type columns`);
+  }
+}
+
+/**
+ * Question k's rows: one per revision, then one per reference forecast, or one row when it
+ * has neither. Times and numbers never need quoting; text does (csvField).
+ */
+function writeQuestionRows(out: ByteText, batch: ExportBatch, k: number, columns: readonly CsvColumn[]): void {
+  const q = batch.questions[k]!;
+  checkColumns(q, columns);
+  const cells = questionCells(q);
+  const packed = batch.packed;
+  const anyPacked = packed !== null && packed.to[k]! > packed.from[k]!;
+  if (anyPacked) writePackedRows(out, packed, k, cells, columns);
+  const rows = forecastRows(q, cells, columns) + referenceRows(q, cells, columns);
+  if (rows !== '') out.text(rows);
+  else if (!anyPacked) out.text(fill(rowPieces(columns, cells, []), []));
+}
+
+/**
+ * The diary as CSV, UTF-8 bytes, one piece per batch of questions (each valid until the next
+ * is asked for, as diaryFileBytes's): the header row, then per
  * question one row per revision, then one row per reference forecast, or a single row when
  * it has neither. Numbers keep full precision (`String(number)` reads back to the same
  * double); every line ends in CRLF (RFC 4180 §2 rule 1).
@@ -266,13 +322,14 @@ function questionRows(q: ExportedQuestion, columns: readonly CsvColumn[]): strin
  *   holds any (the header comes first, so the caller says); false keeps the columns a
  *   diary of yes/no questions has always had
  */
-export function* diaryCsvText(batches: Iterable<ExportedQuestion[]>, withTypes = false): Generator<string> {
+export function* diaryCsvBytes(batches: Iterable<ExportBatch>, withTypes = false): Generator<Uint8Array> {
   const columns: readonly CsvColumn[] = withTypes ? CSV_ALL_COLUMNS : CSV_COLUMNS;
-  yield withTypes ? CSV_TYPES_HEADER : CSV_HEADER;
+  const out = new ByteText();
+  out.ascii(withTypes ? CSV_TYPES_HEADER : CSV_HEADER);
+  yield out.take();
   for (const batch of batches) {
-    // Joined once, flat: a string grown row by row would be copied again to be written.
-    const text = batch.map((q) => questionRows(q, columns)).join('');
-    if (text) yield text;
+    for (let k = 0; k < batch.questions.length; k++) writeQuestionRows(out, batch, k, columns);
+    if (batch.questions.length) yield out.take();
   }
 }
 

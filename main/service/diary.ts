@@ -7,8 +7,9 @@ import { randomUUID } from 'node:crypto';
 import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, ScoreJson, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError } from '../../shared/contract';
+import { utf8 } from '../../shared/byte-text';
 import {
-  diaryFileText,
+  diaryFileBytes,
   diaryItems,
   questionRecordName,
   readDiaryText,
@@ -55,6 +56,7 @@ import {
   computeScorecardDetail,
   isStale,
   type ScoreOptions,
+  type ScoreReport,
   type ScoringQuestion,
 } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
@@ -71,7 +73,7 @@ import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
 import { readTextFile } from '../files/read-text';
-import { CsvError, diaryCsvText, readCsvDiary, type CsvItem } from './csv';
+import { CsvError, diaryCsvBytes, readCsvDiary, type CsvItem } from './csv';
 import { exportBatches, exportedQuestionReader } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
@@ -183,6 +185,13 @@ type ImportItem = DiaryItem | CsvItem;
 
 /** Questions per batch when an export reads the diary: a few megabytes of text at a time. */
 const EXPORT_BATCH = 500;
+
+/**
+ * SQLite's page cache during an export, in KiB. The batches revisit pages (the index, and
+ * a page holding revisions of questions in two batches); with the default 2 MiB each visit
+ * is a read from the operating system again.
+ */
+const EXPORT_CACHE_KIB = 32 * 1024;
 
 /** SQLite's page cache during an import, in KiB: enough for the indexes' working pages. */
 const IMPORT_CACHE_KIB = 64 * 1024;
@@ -572,23 +581,26 @@ export function createDiary(ctx: DiaryContext) {
    * and consumed synchronously (by exportTo and writeFileAtomic): nothing else may use the
    * read handle while the snapshot is open.
    */
-  function* exportPieces(format: ExportFormat): Generator<string> {
+  function* exportPieces(format: ExportFormat): Generator<Uint8Array> {
     if (format === 'ics') {
-      yield toICalendar(unresolvedQuestions(store, now()), { now: now(), alarmHours: settings().closing_soon_hours });
+      yield utf8(toICalendar(unresolvedQuestions(store, now()), { now: now(), alarmHours: settings().closing_soon_hours }));
       return;
     }
+    const cache = read.pragma('cache_size', { simple: true }) as number;
+    read.pragma(`cache_size = ${-EXPORT_CACHE_KIB}`);
     read.exec('BEGIN');
     try {
       const batches = exportBatches(read, EXPORT_BATCH);
       if (format === 'csv') {
         // The CSV header comes first: it has the type columns only when some question needs them (docs/csv-format.md).
         const withTypes = read.prepare("SELECT EXISTS (SELECT 1 FROM questions WHERE type <> 'binary')").pluck().get() === 1;
-        yield* diaryCsvText(batches, withTypes);
+        yield* diaryCsvBytes(batches, withTypes);
       } else {
-        yield* diaryFileText(settings(), batches);
+        yield* diaryFileBytes(settings(), batches);
       }
     } finally {
       read.exec('COMMIT');
+      read.pragma(`cache_size = ${cache}`);
     }
   }
 
@@ -627,11 +639,39 @@ export function createDiary(ctx: DiaryContext) {
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
   }
 
+  // Figures computed from that input are kept until the diary changes too (same data_version):
+  // opening the Scorecard or Hindsight again, or going back to an earlier filter, then costs
+  // nothing, and the two screens share the yes/no report. Everything a figure depends on is
+  // in the diary (settings included) or in its key.
+  let figures: { version: number; byKey: Map<string, unknown> } | null = null;
+  const FIGURES_KEPT = 32;
+
+  function remembered<T>(key: string, compute: () => T): T {
+    typedScoringInput(); // brings the input, and its version, up to date
+    const version = scoringCache!.version;
+    if (figures?.version !== version) figures = { version, byKey: new Map() };
+    if (figures.byKey.has(key)) return figures.byKey.get(key) as T;
+    const value = compute();
+    if (figures.byKey.size >= FIGURES_KEPT) figures.byKey.delete(figures.byKey.keys().next().value!);
+    figures.byKey.set(key, value);
+    return value;
+  }
+
+  const filterKey = (req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }) =>
+    JSON.stringify([req.tag ?? null, req.from ?? null, req.to ?? null, req.costs?.false_alarm ?? null, req.costs?.miss ?? null]);
+
+  /** The yes/no report for a filter (and "what if" costs), computed once per diary state. */
+  function binaryReport(req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }): ScoreReport {
+    return remembered(`report|${filterKey(req)}`, () => computeScoreReport(scoringInput(req), scoreOptions(req)));
+  }
+
   /** The `score --json` object: the yes/no report with the choice and numeric members (INTERFACES.md §2). */
   function scoreJson(req: ValidRequest<'score'>): ScoreJson {
-    const options = scoreOptions(req);
-    const { choice, numeric } = typedScoringInput();
-    return { ...computeScoreReport(scoringInput(req), options), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+    return remembered(`json|${filterKey(req)}`, () => {
+      const options = scoreOptions(req);
+      const { choice, numeric } = typedScoringInput();
+      return { ...binaryReport(req), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+    });
   }
 
   /** Some questions of one type by id, as the service returns them (Hindsight's entries show their notes and labels). */
@@ -645,8 +685,12 @@ export function createDiary(ctx: DiaryContext) {
     ics: { name: 'forelog-closes', extension: 'ics', media_type: 'text/calendar' },
   };
 
-  /** Hands the export to `sink` piece by piece (a few megabytes each), synchronously, from one snapshot. */
-  function exportTo(format: ExportFormat, sink: (piece: string) => void): void {
+  /**
+   * Hands the export to `sink` as UTF-8 bytes, piece by piece (a megabyte or so each),
+   * synchronously, from one snapshot. A piece's memory is reused for the next: the sink
+   * writes it out or copies it before it returns.
+   */
+  function exportTo(format: ExportFormat, sink: (piece: Uint8Array) => void): void {
     for (const piece of exportPieces(format)) sink(piece);
   }
 
@@ -654,8 +698,11 @@ export function createDiary(ctx: DiaryContext) {
   function exportText(format: ExportFormat): ExportedText {
     const day = toIso(now()).slice(0, 10);
     const { name, extension, media_type } = EXPORT_FILES[format];
+    // Each piece ends where a record does, so none splits a character; a piece may begin
+    // with U+FEFF (an id's first character), which is text here, not a byte order mark.
+    const decoder = new TextDecoder('utf-8', { ignoreBOM: true });
     const pieces: string[] = [];
-    exportTo(format, (piece) => pieces.push(piece));
+    exportTo(format, (piece) => pieces.push(decoder.decode(piece)));
     return { text: pieces.join(''), file_name: `${name}-${day}.${extension}`, media_type };
   }
 
@@ -1074,19 +1121,20 @@ export function createDiary(ctx: DiaryContext) {
       };
     },
 
-    score: (req) => {
-      const questions = scoringInput(req);
-      const options = scoreOptions(req);
-      const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
-      const { choice, numeric } = typedScoringInput();
-      return {
-        report: scoreJson(req),
-        detail,
-        leads: referenceLeads(questions, options),
-        choice_detail: computeChoiceDetail(choice, options),
-        numeric_detail: computeNumericDetail(numeric, options),
-      };
-    },
+    score: (req) =>
+      remembered(`scorecard|${filterKey(req)}`, () => {
+        const questions = scoringInput(req);
+        const options = scoreOptions(req);
+        const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
+        const { choice, numeric } = typedScoringInput();
+        return {
+          report: scoreJson(req),
+          detail,
+          leads: referenceLeads(questions, options),
+          choice_detail: computeChoiceDetail(choice, options),
+          numeric_detail: computeNumericDetail(numeric, options),
+        };
+      }),
 
     hindsight: (req) => {
       const questions = scoringInput({});
@@ -1101,13 +1149,12 @@ export function createDiary(ctx: DiaryContext) {
         ...page,
         choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
         numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
-        report: computeScoreReport(questions, options),
+        report: binaryReport({ tag: req.tag, from: req.from, to: req.to }),
       };
     },
 
     briefing: (req) => {
       const s = settings();
-      const questions = scoringInput({});
       const options = scoreOptions({ tag: req.tag });
       const t = now();
       const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
@@ -1116,7 +1163,7 @@ export function createDiary(ctx: DiaryContext) {
         tag: req.tag ?? null,
         generated_at: now(),
         time_zone: s.time_zone,
-        report: computeScoreReport(questions, options),
+        report: binaryReport({ tag: req.tag }),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
         choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)),

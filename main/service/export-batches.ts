@@ -8,7 +8,7 @@
  * queries too (and a table added for a question's data, the file format with them). The caller holds the read transaction that makes the batches one snapshot.
  */
 import type { Lens, Outcome, Question, QuestionKind, QuestionType, ResolutionChangeKind } from '../../shared/domain';
-import type { ExportedQuestion } from '../../shared/diary-file';
+import type { ExportBatch, ExportedQuestion, PackedRevisions } from '../../shared/diary-file';
 import { toIso } from '../../shared/time';
 import type { Db } from '../store/open';
 import { loadBundles, toQuestion } from '../store/questions';
@@ -41,7 +41,7 @@ const NO_HISTORY: BinaryExport['resolution_history'] = [];
 
 type BinaryExport = Extract<ExportedQuestion, { type: 'binary' }>;
 
-/** What the revision-collecting SQL function hands each revision to; see `revisionReader`. */
+/** What the revision-collecting SQL function hands each revision to; see `revisionSinkOf`. */
 type RevisionSink = (k: number, at: number, p: number, note: string, seq: number) => void;
 
 const REVISION_FN = 'forelog_export_revision';
@@ -65,6 +65,11 @@ function revisionSinkOf(db: Db): { current: RevisionSink | null } {
   });
   revisionSinks.set(db, holder);
   return holder;
+}
+
+/** A batch's revisions as read, column by column; `seq` only when some have lenses. */
+interface ReadRevisions extends PackedRevisions {
+  seq: number[];
 }
 
 /**
@@ -98,33 +103,63 @@ function exportReader(db: Db, always: boolean) {
     )
     .raw();
 
-  /** Fills in the batch's revisions, in time order then entry order, each with its lenses. */
-  function readRevisions(batch: BinaryExport[], ids: string, lensesOf: Map<number, Lens[]>): void {
+  /**
+   * The batch's revisions (every question's, as if all were yes/no), each question's
+   * together and in time order then entry order, column by column. The sink runs once per
+   * revision, millions of times: plain local arrays, no object or call per revision.
+   */
+  function readRevisions(n: number, ids: string, withSeq: boolean): ReadRevisions {
+    const from = new Array<number>(n).fill(0);
+    const to = new Array<number>(n).fill(0);
+    const at: number[] = [];
+    const p: number[] = [];
+    const note: string[] = [];
+    const seq: number[] = [];
     let inOrder = true;
     let lastK = -1;
     let lastAt = 0;
     let lastSeq = 0;
-    sink.current = (k, at, p, note, seq) => {
-      if (k === lastK ? at < lastAt || (at === lastAt && seq < lastSeq) : batch[k]!.forecasts.length > 0) inOrder = false;
-      lastK = k;
-      lastAt = at;
-      lastSeq = seq;
-      batch[k]!.forecasts.push({ at: toIso(at), p, note, lenses: lensesOf.get(seq) ?? NO_LENSES });
+    sink.current = (k, t, value, text, s) => {
+      const i = at.length;
+      if (k !== lastK) {
+        // A question met again after another's revisions (to[k] is past 0 once it has any).
+        if (to[k] !== 0) inOrder = false;
+        from[k] = i;
+        lastK = k;
+      } else if (t < lastAt || (t === lastAt && s < lastSeq)) inOrder = false;
+      to[k] = i + 1;
+      at.push(t);
+      p.push(value);
+      note.push(text);
+      if (withSeq) seq.push(s);
+      lastAt = t;
+      lastSeq = s;
     };
     try {
       collect.get(ids);
     } finally {
       sink.current = null;
     }
-    if (inOrder) return;
-    for (const q of batch) q.forecasts = [];
-    for (const [k, at, p, note, seq] of ordered.all(ids) as [number, number, number, string, number][]) {
-      batch[k]!.forecasts.push({ at: toIso(at), p, note, lenses: lensesOf.get(seq) ?? NO_LENSES });
+    if (!inOrder) {
+      from.fill(0);
+      to.fill(0);
+      at.length = p.length = note.length = seq.length = 0;
+      lastK = -1;
+      for (const [k, t, value, text, s] of ordered.all(ids) as [number, number, number, string, number][]) {
+        if (k !== lastK) from[k] = at.length;
+        lastK = k;
+        to[k] = at.length + 1;
+        at.push(t);
+        p.push(value);
+        note.push(text);
+        if (withSeq) seq.push(s);
+      }
     }
+    return { from, to, at, p, note, seq };
   }
 
-  /** The questions of `rows` (in that order), whole. */
-  return (rows: QuestionTuple[]): ExportedQuestion[] => {
+  /** The questions of `rows` (in that order), whole but for the packed revisions. */
+  return (rows: QuestionTuple[]): ExportBatch & { packed: PackedRevisions } => {
     // Every question is first read as a yes/no one; the others are replaced below.
     const ids = JSON.stringify(rows.map((r) => r[0]));
     const batch: BinaryExport[] = rows.map(
@@ -157,7 +192,19 @@ function exportReader(db: Db, always: boolean) {
         else lensesOf.set(seq, [{ name, p, weight }]);
       }
     }
-    readRevisions(batch, ids, lensesOf);
+    const packed = readRevisions(rows.length, ids, lensesOf.size > 0);
+    // A question with a revision that has lenses has all its revisions as objects instead.
+    if (lensesOf.size > 0) {
+      for (let k = 0; k < batch.length; k++) {
+        let lensed = false;
+        for (let i = packed.from[k]!; i < packed.to[k]! && !lensed; i++) lensed = lensesOf.has(packed.seq[i]!);
+        if (!lensed) continue;
+        for (let i = packed.from[k]!; i < packed.to[k]!; i++) {
+          batch[k]!.forecasts.push({ at: toIso(packed.at[i]!), p: packed.p[i]!, note: packed.note[i]!, lenses: lensesOf.get(packed.seq[i]!) ?? NO_LENSES });
+        }
+        packed.to[k] = packed.from[k]!;
+      }
+    }
     for (const [k, at, p, source] of references.all(ids) as [number, number, number, string][]) batch[k]!.references.push({ at: toIso(at), p, source });
     for (const [k, outcome, at, note] of resolutions.all(ids) as [number, Outcome, number, string][]) batch[k]!.resolution = { outcome, at: toIso(at), note };
     if (anyHistory) {
@@ -171,9 +218,15 @@ function exportReader(db: Db, always: boolean) {
     // Choice and numeric questions (fewer, and with values in their own tables) are read whole,
     // as the API reads them, in place of what the yes/no reading above made of them.
     const typed = rows.filter((r) => r[12] !== 'binary').map((r) => r[0]);
-    if (typed.length === 0) return batch;
+    if (typed.length === 0) return { questions: batch, packed };
     const whole = new Map(loadBundles(db, typed).map((b) => [b.row.id, exported(toQuestion(b, 0))]));
-    return rows.map((r, k) => whole.get(r[0]) ?? batch[k]!);
+    const questions = rows.map((r, k): ExportedQuestion => {
+      const q = whole.get(r[0]);
+      if (q === undefined) return batch[k]!;
+      packed.to[k] = packed.from[k]!;
+      return q;
+    });
+    return { questions, packed };
   };
 }
 
@@ -191,7 +244,7 @@ function exported(q: Question): ExportedQuestion {
 }
 
 /** The questions in export order, `size` at a time. */
-export function* exportBatches(db: Db, size: number): Generator<ExportedQuestion[]> {
+export function* exportBatches(db: Db, size: number): Generator<ExportBatch> {
   // Keyset pagination: each page starts after the last one's (closes_at, id), by the index on closes_at.
   const page = db.prepare(`${QUESTION_SELECT} WHERE (closes_at, id) > (?, ?) ORDER BY closes_at, id LIMIT ?`).raw();
   const read = exportReader(db, false);
@@ -215,6 +268,12 @@ export function exportedQuestionReader(db: Db): (id: string) => ExportedQuestion
   const read = exportReader(db, true);
   return (id) => {
     const found = row.get(id) as QuestionTuple | undefined;
-    return found ? read([found])[0]! : null;
+    if (!found) return null;
+    const { questions, packed } = read([found]);
+    const q = questions[0]!;
+    if (q.type !== 'binary') return q;
+    // Compared field by field, so its revisions are objects like every other field.
+    for (let i = packed.from[0]!; i < packed.to[0]!; i++) q.forecasts.push({ at: toIso(packed.at[i]!), p: packed.p[i]!, note: packed.note[i]!, lenses: NO_LENSES });
+    return q;
   };
 }

@@ -14,7 +14,7 @@ import { openDiary } from '../../main/service/index';
 import type { QuestionList } from '../../shared/contract';
 import { buildDemoDiary } from '../../main/service/demo';
 import { CSV_ALL_COLUMNS, CSV_COLUMNS } from '../../main/service/csv';
-import { toIso } from '../../shared/time';
+import { ISO_MAX_BYTES, toIso, writeIso } from '../../shared/time';
 import { randomDiaryFile } from '../support/random-diary';
 import { openTestDiary, type TestDiary } from '../support/temp-diary';
 
@@ -141,9 +141,9 @@ test('an export is one snapshot: a change committed while it streams is not half
   const other = openDiary({ dbPath: d.dbPath, now: () => d.clock.now, timeZone: 'UTC' });
   after(() => other.close());
   const ids = (other.diary.handlers.listQuestions({}) as QuestionList).questions.map((q) => q.id);
-  let text = '';
+  const pieces: Uint8Array[] = [];
   d.service.diary.exportTo('json', (piece) => {
-    if (text === '') {
+    if (pieces.length === 0) {
       // Between the first batch and the rest: a question that sorts last, a revision on one
       // already written and on one not yet written, and a question deleted from a later batch.
       const h = other.diary.handlers;
@@ -152,14 +152,23 @@ test('an export is one snapshot: a change committed while it streams is not half
       h.addForecast({ question_id: ids[ids.length - 1]!, p: 0.1 } as never);
       h.deleteQuestion({ id: ids[ids.length - 2]! } as never);
     }
-    text += piece;
+    pieces.push(Buffer.from(piece)); // a copy: the exporter reuses its buffer
   });
-  assert.equal(text, before);
+  assert.equal(Buffer.concat(pieces).toString('utf8'), before);
   assert.notEqual(d.service.diary.exportText('json').text, before, 'the changes are there for the next export');
 });
 
-test('the fast time formatter (toIso) writes exactly what Date’s toISOString writes', () => {
-  const iso = toIso;
+test('the fast time formatters (toIso, and writeIso as bytes) write exactly what Date’s toISOString writes', () => {
+  const bytes = new Uint8Array(ISO_MAX_BYTES + 1);
+  const iso = (ms: number) => {
+    const text = toIso(ms);
+    // writeIso stops where the text does and leaves the byte after it alone.
+    bytes.fill(0x23);
+    const end = writeIso(ms, bytes, 1);
+    assert.equal(Buffer.from(bytes.subarray(1, end)).toString('latin1'), text, `writeIso(${ms})`);
+    assert.equal(bytes[0], 0x23);
+    return text;
+  };
   const DAY = 86_400_000;
   const edges = [0, -0, -1, 1, DAY - 1, DAY, -DAY, -DAY - 1, Date.UTC(1900, 0, 1), Date.UTC(2199, 11, 31, 23, 59, 59, 999), Date.UTC(2000, 1, 29, 12), Date.UTC(2024, 1, 29, 23, 59, 59, 999)];
   let seed = 3;
@@ -169,6 +178,8 @@ test('the fast time formatter (toIso) writes exactly what Date’s toISOString w
   for (const ms of [...edges, ...random, ...[...random].sort((a, b) => a - b), 1.5, -0.5]) assert.equal(iso(ms), new Date(ms).toISOString(), String(ms));
   // More days than it remembers (it forgets them all at 100,000 and starts again).
   for (let d = -60_000; d < 60_000; d++) assert.equal(iso(d * DAY + 1234), new Date(d * DAY + 1234).toISOString(), String(d));
+  // Years of six digits, the most room writeIso takes.
+  for (const ms of [8.64e15, -8.64e15, 8.64e15 - 1, Date.UTC(10_000, 0, 1)]) assert.equal(iso(ms), new Date(ms).toISOString(), String(ms));
 });
 
 test('an export keeps each question’s revisions in time order even when SQLite finds them in another order', async () => {

@@ -36,7 +36,7 @@ export function openTestDiary(options: { now?: string; timeZone?: string; dbPath
 
 /** The diary's JSON export as one text, from the same writer the command line uses. */
 export function exportJson(service: DiaryService): string {
-  const pieces: string[] = [];
-  service.diary.exportTo('json', (piece) => pieces.push(piece));
-  return pieces.join('');
+  const pieces: Uint8Array[] = [];
+  service.diary.exportTo('json', (piece) => pieces.push(Buffer.from(piece)));
+  return Buffer.concat(pieces).toString('utf8');
 }
