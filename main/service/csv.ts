@@ -601,8 +601,30 @@ function checkEntry(shape: TypeShape, entry: EntryFields, row: number, own: Poin
   if (issues[0]) throw typeIssue(issues[0], row, columnOf);
 }
 
+/** The point columns a plain yes/no revision row leaves empty. */
+const NOT_IN_PLAIN_ROWS = ['probs', 'quantiles', 'lenses', 'reference_at', 'reference_p', 'reference_source', 'reference_probs', 'reference_quantiles'] as const;
+
+/**
+ * A yes/no revision as nearly every row holds it — a time, a probability, a note, no
+ * lenses, no reference forecast — read with readPoint's rules into what readPoint makes of
+ * it; null for anything else or anything wrong, which readPoint then reads and words.
+ */
+function plainRevisionRow(cell: Cell): FileForecast | null {
+  for (const c of NOT_IN_PLAIN_ROWS) if (cell(c).trim() !== '') return null;
+  const pText = cell('p').trim();
+  if (!NUMBER.test(pText)) return null;
+  const p = Number(pText);
+  if (!(p >= 0 && p <= 1)) return null;
+  const at = v.readInstant(cell('forecast_at').trim());
+  const note = cell('note');
+  if (typeof at !== 'number' || note.length > v.NOTE_MAX || v.controlCharacterProblem(note, 'many') !== null) return null;
+  return { at, p, note };
+}
+
 /** The revision or the reference forecast a row holds (or neither), for a question of this shape. */
 function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileForecast | null; reference: FileReference | null } {
+  const plain = shape.type === 'binary' ? plainRevisionRow(cell) : null;
+  if (plain) return { forecast: plain, reference: null };
   const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
   const forecastGiven = (['forecast_at', 'p', 'probs', 'quantiles'] as const).some((c) => trimmed(c) !== undefined);
   const referenceGiven = (['reference_at', 'reference_p', 'reference_source', 'reference_probs', 'reference_quantiles'] as const).some((c) => trimmed(c) !== undefined);
