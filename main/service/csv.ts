@@ -601,8 +601,30 @@ function checkEntry(shape: TypeShape, entry: EntryFields, row: number, own: Poin
   if (issues[0]) throw typeIssue(issues[0], row, columnOf);
 }
 
+/** The point columns a plain yes/no revision row leaves empty. */
+const NOT_IN_PLAIN_ROWS = ['probs', 'quantiles', 'lenses', 'reference_at', 'reference_p', 'reference_source', 'reference_probs', 'reference_quantiles'] as const;
+
+/**
+ * A yes/no revision as nearly every row holds it — a time, a probability, a note, no
+ * lenses, no reference forecast — read with readPoint's rules into what readPoint makes of
+ * it; null for anything else or anything wrong, which readPoint then reads and words.
+ */
+function plainRevisionRow(cell: Cell): FileForecast | null {
+  for (const c of NOT_IN_PLAIN_ROWS) if (cell(c).trim() !== '') return null;
+  const pText = cell('p').trim();
+  if (!NUMBER.test(pText)) return null;
+  const p = Number(pText);
+  if (!(p >= 0 && p <= 1)) return null;
+  const at = v.readInstant(cell('forecast_at').trim());
+  const note = cell('note');
+  if (typeof at !== 'number' || note.length > v.NOTE_MAX || v.controlCharacterProblem(note, 'many') !== null) return null;
+  return { at, p, note };
+}
+
 /** The revision or the reference forecast a row holds (or neither), for a question of this shape. */
 function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileForecast | null; reference: FileReference | null } {
+  const plain = shape.type === 'binary' ? plainRevisionRow(cell) : null;
+  if (plain) return { forecast: plain, reference: null };
   const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
   const forecastGiven = (['forecast_at', 'p', 'probs', 'quantiles'] as const).some((c) => trimmed(c) !== undefined);
   const referenceGiven = (['reference_at', 'reference_p', 'reference_source', 'reference_probs', 'reference_quantiles'] as const).some((c) => trimmed(c) !== undefined);
@@ -695,14 +717,36 @@ export type CsvItem =
   | { kind: 'question'; index: number; row: number; question: FileQuestion }
   | { kind: 'addition'; index: number; row: number; forecast: FileForecast | null; reference: FileReference | null };
 
-/** A cell copied: a slice of a chunk of text would keep the whole chunk in memory. */
-const detached = (cell: string): string => (cell.length === 0 ? '' : (' ' + cell).slice(1));
+/**
+ * A row's question cells as written, in one new string (so no chunk of the file stays in
+ * memory), each prefixed with its length so no text inside a cell can make two different
+ * rows look alike. One string per question: a diary of 100,000 questions keeps 100,000.
+ */
+function joinCells(cells: readonly string[]): string {
+  return cells.map((c) => `${c.length}:${c}`).join('');
+}
+
+function splitCells(joined: string): string[] {
+  const cells: string[] = [];
+  for (let at = 0; at < joined.length; ) {
+    const colon = joined.indexOf(':', at);
+    const end = colon + 1 + Number(joined.slice(at, colon));
+    cells.push(joined.slice(colon + 1, end));
+    at = end;
+  }
+  return cells;
+}
+
+/** A row's question cells, in QUESTION_COLUMNS' order ('' for a column the file lacks). */
+function questionCellsOf(fields: readonly string[], positions: readonly number[]): string[] {
+  return positions.map((at) => (at === -1 ? '' : fields[at]!));
+}
 
 interface Group {
   index: number;
   row: number;
-  /** The first row's question cells as written (QUESTION_COLUMNS' order), copied out of the file's text. */
-  cells: string[];
+  /** The first row's question cells as written (joinCells). */
+  raw: string;
   /** What the question's type makes of its revisions (the same on every row: `agree`). */
   shape: TypeShape;
 }
@@ -721,9 +765,12 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
   let questionPositions: number[] = [];
   let width = 0;
   const groups = new Map<string, Group>();
-  // The previous row's question: its rows usually follow one another (export writes them so).
-  let lastId = '';
-  let lastGroup: Group | undefined;
+  // The question of the previous row, with its first row's cells at hand: a question's rows
+  // usually follow one another (export writes them so), and are compared cell by cell.
+  let current: Group | undefined;
+  let currentCells: string[] = [];
+  /** The previous row's question_id, when its question is found by id. */
+  let lastId: string | null = null;
   try {
     for (const { fields, row } of readCsvRecords(chunks)) {
       if (positions === null) {
@@ -750,9 +797,8 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
       const byId = id.trim() !== '';
       // Joined rather than concatenated: a new string, so the map does not keep a chunk of the file alive.
       const group =
-        byId && lastGroup !== undefined && id === lastId
-          ? lastGroup
-          : groups.get(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'));
+        byId && id === lastId ? current : groups.get(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'));
+      lastId = byId ? id : null;
       if (!group) {
         const question = readQuestionCells(cell, row);
         const shape = shapeOf(typeFields(question));
@@ -760,19 +806,19 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
         // The rule spanning the question's fields, at its first row (the file schema's own).
         if (!v.closesAfterOpening(record)) throw nothingImported(row, 'closes_at', v.CLOSES_AFTER_OPENS_RULE);
         const index = groups.size;
-        const created: Group = { index, row, cells: QUESTION_COLUMNS.map((c) => detached(cell(c))), shape };
-        groups.set(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'), created);
-        lastId = byId ? created.cells[QUESTION_COLUMNS.indexOf('question_id')]! : '';
-        lastGroup = byId ? created : undefined;
+        currentCells = questionCellsOf(fields, questionPositions);
+        current = { index, row, raw: joinCells(currentCells), shape };
+        groups.set(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'), current);
         yield { kind: 'question', index, row, question: record };
         continue;
       }
       // Rows repeating the first row's cells exactly need no second reading.
-      if (!sameCells(group.cells, fields, questionPositions)) agree(group, readQuestionCells(cell, row), row);
-      if (byId) {
-        lastId = group.cells[QUESTION_COLUMNS.indexOf('question_id')]!;
-        lastGroup = group;
-      } else lastGroup = undefined;
+      if (group !== current) {
+        // A question's rows resumed after another's.
+        current = group;
+        currentCells = splitCells(group.raw);
+      }
+      if (!sameCells(currentCells, fields, questionPositions)) agree(group, readQuestionCells(cell, row), row);
       yield { kind: 'addition', index: group.index, row, ...readPoint(cell, row, group.shape) };
     }
   } catch (err) {
@@ -793,7 +839,7 @@ function sameCells(first: readonly string[], fields: readonly string[], position
 
 /** A later row of a question must hold the same values as its first row (compared as read: 0.30 and .3 agree). */
 function agree(group: Group, values: Record<QuestionColumn, unknown>, row: number): void {
-  const cells = group.cells;
+  const cells = splitCells(group.raw);
   const first = readQuestionCells((c) => cells[QUESTION_COLUMNS.indexOf(c as QuestionColumn)] ?? '', group.row);
   for (const c of QUESTION_COLUMNS) {
     if (JSON.stringify(values[c]) !== JSON.stringify(first[c])) {

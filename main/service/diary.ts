@@ -420,7 +420,7 @@ export function createDiary(ctx: DiaryContext) {
     const run = () => transact(() => {
       // The file's settings come along only into an empty diary: importing a colleague's
       // file into a working diary must not change its defaults.
-      const empty = qs.questionCount(write) === 0;
+      const empty = qs.isEmpty(write);
       let s = readSettings(write, ctx.systemTimeZone);
       let settingsRead = false;
       // Questions that took the diary's zone before the file's settings (which may come after

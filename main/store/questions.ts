@@ -383,6 +383,11 @@ export function forecastValues(db: Db, forecastId: string): number[] {
   return stmt(db, 'SELECT value FROM forecast_values WHERE forecast_id = ? ORDER BY position', 'pluck').all(forecastId) as number[];
 }
 
+/** Whether the diary holds no question: one row looked at, however large the diary. */
+export function isEmpty(db: Db): boolean {
+  return stmt(db, 'SELECT NOT EXISTS (SELECT 1 FROM questions)', 'pluck').get() === 1;
+}
+
 export function questionCount(db: Db): number {
   return (stmt(db, 'SELECT count(*) AS n FROM questions').get() as { n: number }).n;
 }

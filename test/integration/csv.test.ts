@@ -305,6 +305,15 @@ test('a bad row in the middle rejects the whole file, naming its row and column;
   assert.equal(d.service.diary.exportText('json').text, before);
 });
 
+test('a bad revision on a later row is refused in the same words as on any row: time, probability, note', () => {
+  const later = (cells: Record<string, string>) => csvText(row({ ...Q1, ...F1 }), row({ ...Q1, forecast_at: '2026-06-02T09:00:00.000Z', p: '0.5', ...cells }));
+  refuses(later({ forecast_at: 'soon' }), 'Row 3, column forecast_at: must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00. Nothing was imported.', 3, 'forecast_at');
+  refuses(later({ p: '0.5x' }), 'Row 3, column p: "0.5x" is not a number; write it with a decimal point and nothing else, e.g. 0.35. Nothing was imported.', 3, 'p');
+  refuses(later({ p: '' }), /^Row 3, column p: is empty, but a revision needs both its time \(forecast_at\) and its/, 3, 'p');
+  refuses(later({ note: 'ring\u0007' }), 'Row 3, column note: must not contain control characters other than tab and line breaks (found U+0007 at character 5). Nothing was imported.', 3, 'note');
+  refuses(later({ reference_p: '0.3' }), /^Row 3, column reference_at: a row holds either a revision/, 3, 'reference_at');
+});
+
 test('a CSV whose later question is already in the diary adds none of its questions', async () => {
   // All-or-nothing (INTERFACES.md §1): the first question is valid and new, the second's id exists.
   const d = openTestDiary();
