@@ -89,6 +89,42 @@ export function offsetMinutesAt(ms: number, timeZone: string): number {
   return Math.round((asUtc - whole) / 60_000);
 }
 
+const DAY_MS = 86_400_000;
+/** Per zone, per UTC day number: the offset in force all that day, or NaN when it changes during the day. */
+const steadyOffsets = new Map<string, Map<number, number>>();
+const STEADY_DAYS_KEPT = 200_000;
+let steadyDaysKept = 0;
+
+/**
+ * `offsetMinutesAt`, with the answer for a whole UTC day remembered when the zone's offset
+ * is the same at the day's first and last second, i.e. when no transition falls in it (a
+ * zone's clock changes at most once in a day). Turning wall times into instants asks three
+ * or four offsets each, and planning a large diary's nudges turns thousands: most of them
+ * fall on days already asked about. A day with a transition is answered exactly each time.
+ */
+function steadyOffsetMinutesAt(ms: number, timeZone: string): number {
+  if (!Number.isFinite(ms)) return offsetMinutesAt(ms, timeZone);
+  const day = Math.floor(ms / DAY_MS);
+  let offset = steadyOffsets.get(timeZone)?.get(day);
+  if (offset === undefined) {
+    const first = offsetMinutesAt(day * DAY_MS, timeZone);
+    offset = first === offsetMinutesAt(day * DAY_MS + DAY_MS - 1000, timeZone) ? first : NaN;
+    // Bounded by starting afresh: a long-running app plans the same days again and again.
+    if (steadyDaysKept >= STEADY_DAYS_KEPT) {
+      steadyOffsets.clear();
+      steadyDaysKept = 0;
+    }
+    let days = steadyOffsets.get(timeZone);
+    if (days === undefined) {
+      days = new Map();
+      steadyOffsets.set(timeZone, days);
+    }
+    days.set(day, offset);
+    steadyDaysKept++;
+  }
+  return Number.isNaN(offset) ? offsetMinutesAt(ms, timeZone) : offset;
+}
+
 /**
  * The instant at which `timeZone`'s clocks read `wall` (RFC 5545 §3.3.5 for repeated
  * and skipped wall times; see the module comment).
@@ -96,11 +132,11 @@ export function offsetMinutesAt(ms: number, timeZone: string): number {
 export function wallTimeToInstant(wall: WallTime, timeZone: string): number {
   const naive = Date.UTC(wall.year, wall.month - 1, wall.day, wall.hour, wall.minute, wall.second);
   // Offsets a day either side bracket any single transition near this wall time.
-  const before = offsetMinutesAt(naive - 86_400_000, timeZone);
-  const after = offsetMinutesAt(naive + 86_400_000, timeZone);
+  const before = steadyOffsetMinutesAt(naive - DAY_MS, timeZone);
+  const after = steadyOffsetMinutesAt(naive + DAY_MS, timeZone);
   const candidates = [naive - before * 60_000, naive - after * 60_000].sort((a, b) => a - b);
   for (const t of candidates) {
-    if (offsetMinutesAt(t, timeZone) * 60_000 === naive - t) return t; // first occurrence
+    if (steadyOffsetMinutesAt(t, timeZone) * 60_000 === naive - t) return t; // first occurrence
   }
   // In a gap: read with the offset in force before it.
   return naive - before * 60_000;

@@ -20,7 +20,7 @@ export const probability = z
 const INSTANT_TYPE = 'must be an ISO 8601 date-time text';
 
 /** The instant rule, once: epoch ms of a valid instant text inside `INSTANT_RANGE` (shared/time.ts), or the reason it is not one. */
-function readInstant(text: string): number | string {
+export function readInstant(text: string): number | string {
   const ms = parseInstant(text);
   if (ms === null) return 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00';
   return isInstantInRange(ms) ? ms : INSTANT_RANGE_RULE;
@@ -98,7 +98,10 @@ const filledLine = (max: number, empty = 'must not be empty') =>
 
 export const title = filledLine(300);
 
-export const note = text('many').max(20_000, { message: 'must be at most 20,000 characters' });
+/** The longest note, in UTF-16 code units (what zod's max and a string's length count). */
+export const NOTE_MAX = 20_000;
+
+export const note = text('many').max(NOTE_MAX, { message: 'must be at most 20,000 characters' });
 
 /** Whose reference forecast it is. */
 export const source = filledLine(200, 'must name the source');

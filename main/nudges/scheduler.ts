@@ -21,10 +21,10 @@ export interface SchedulerPorts {
   clock: { now(): number };
   source: {
     /** The diary's unresolved questions (resolved and void ones get no nudges). */
-    questions(): PlanQuestion[];
+    questions(): readonly PlanQuestion[];
     settings(): Settings;
     /** Snoozes, including ones that have run out (they mark a reminder as due again). */
-    snoozes(): Snooze[];
+    snoozes(): readonly Snooze[];
   };
   log: {
     wasDelivered(key: string): boolean;

@@ -349,6 +349,21 @@ function check<T>(schema: z.ZodType<T>, value: unknown, row: number, column: str
   throw nothingImported(row, column, inner ? `${inner}: ${issue.message}` : issue.message);
 }
 
+/**
+ * A revision's or a reference's time as epoch ms: the instant rule read directly (every
+ * row has one); zod, with the same rule, words a refusal.
+ */
+function instantCell(text: string, row: number, column: 'forecast_at' | 'reference_at'): number {
+  const ms = v.readInstant(text);
+  return typeof ms === 'number' ? ms : check(column === 'forecast_at' ? F.at : REF.at, text, row, column);
+}
+
+/** A revision's note: the note rule read directly (every revision row has one); zod words a refusal. */
+function noteCell(text: string, row: number): string {
+  if (text.length <= v.NOTE_MAX && v.controlCharacterProblem(text, 'many') === null) return text;
+  return check(F.note, text, row, 'note') ?? '';
+}
+
 // Plain decimal notation with an optional exponent: what String(number) writes and what a
 // spreadsheet saves. Number() alone would also take "", "0x1A" and "Infinity".
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
@@ -561,7 +576,11 @@ const VALUE_COLUMNS = {
 function readEntry(cell: Cell, row: number, shape: TypeShape, columns: { p: PointColumn; probs: PointColumn; quantiles: PointColumn }): EntryFields {
   const trimmed = (c: CsvColumn): string | undefined => cell(c).trim() || undefined;
   const entry: EntryFields = {};
-  if (trimmed(columns.p) !== undefined) entry.p = check(F.p, numberCell(cell(columns.p), row, columns.p), row, columns.p) as number;
+  if (trimmed(columns.p) !== undefined) {
+    const p = numberCell(cell(columns.p), row, columns.p);
+    // The probability rule (shared/validation.ts) without zod on the common path; zod words a refusal.
+    entry.p = p >= 0 && p <= 1 ? p : (check(F.p, p, row, columns.p) as number);
+  }
   if (trimmed(columns.probs) !== undefined) entry.probs = check(v.probs, numberList(cell(columns.probs), row, columns.probs), row, columns.probs);
   if (trimmed(columns.quantiles) !== undefined) {
     entry.quantiles = check(v.quantiles, valueList(cell(columns.quantiles), row, columns.quantiles, shape), row, columns.quantiles);
@@ -614,7 +633,7 @@ function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileF
         if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a revision needs both its time (forecast_at) and its ${value.word} (${value.forecast})`);
       }
     });
-    forecast = { at: check(F.at, cell('forecast_at').trim(), row, 'forecast_at'), ...entry, note: check(F.note, cell('note'), row, 'note') ?? '' } as FileForecast;
+    forecast = { at: instantCell(cell('forecast_at').trim(), row, 'forecast_at'), ...entry, note: noteCell(cell('note'), row) } as FileForecast;
   } else {
     for (const c of ['note', 'lenses'] as const) {
       if (cell(c) !== '') throw nothingImported(row, c, `belongs to a revision, but forecast_at and ${value.forecast} are empty on this row; fill them in or clear this cell`);
@@ -629,7 +648,7 @@ function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileF
         if (trimmed(c) === undefined) throw nothingImported(row, c, `is empty, but a reference forecast needs its time, ${value.word} and source`);
       }
     });
-    reference = { at: check(REF.at, cell('reference_at').trim(), row, 'reference_at'), ...entry, source: check(REF.source, cell('reference_source'), row, 'reference_source') } as FileReference;
+    reference = { at: instantCell(cell('reference_at').trim(), row, 'reference_at'), ...entry, source: check(REF.source, cell('reference_source'), row, 'reference_source') } as FileReference;
   }
   return { forecast, reference };
 }
@@ -676,31 +695,14 @@ export type CsvItem =
   | { kind: 'question'; index: number; row: number; question: FileQuestion }
   | { kind: 'addition'; index: number; row: number; forecast: FileForecast | null; reference: FileReference | null };
 
-/**
- * A row's question cells as written, in one new string (so no chunk of the file stays in
- * memory), each prefixed with its length so no text inside a cell can make two different
- * rows look alike.
- */
-function joinCells(cells: readonly string[]): string {
-  return cells.map((c) => `${c.length}:${c}`).join('');
-}
-
-function splitCells(joined: string): string[] {
-  const cells: string[] = [];
-  for (let at = 0; at < joined.length; ) {
-    const colon = joined.indexOf(':', at);
-    const end = colon + 1 + Number(joined.slice(at, colon));
-    cells.push(joined.slice(colon + 1, end));
-    at = end;
-  }
-  return cells;
-}
+/** A cell copied: a slice of a chunk of text would keep the whole chunk in memory. */
+const detached = (cell: string): string => (cell.length === 0 ? '' : (' ' + cell).slice(1));
 
 interface Group {
   index: number;
   row: number;
-  /** The first row's question cells as written (joinCells). */
-  raw: string;
+  /** The first row's question cells as written (QUESTION_COLUMNS' order), copied out of the file's text. */
+  cells: string[];
   /** What the question's type makes of its revisions (the same on every row: `agree`). */
   shape: TypeShape;
 }
@@ -715,12 +717,19 @@ interface Group {
  */
 export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
   let positions: Map<CsvColumn, number> | null = null;
+  /** Where each of QUESTION_COLUMNS is in a row (-1: not in the file). */
+  let questionPositions: number[] = [];
   let width = 0;
   const groups = new Map<string, Group>();
+  // The previous row's question: its rows usually follow one another (export writes them so).
+  let lastId = '';
+  let lastGroup: Group | undefined;
   try {
     for (const { fields, row } of readCsvRecords(chunks)) {
       if (positions === null) {
         positions = readHeader(fields);
+        const at = positions;
+        questionPositions = QUESTION_COLUMNS.map((c) => at.get(c) ?? -1);
         width = fields.length;
         continue;
       }
@@ -737,11 +746,13 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
         const i = at.get(c);
         return i === undefined ? '' : fields[i]!;
       };
-      const raw = joinCells(QUESTION_COLUMNS.map(cell));
       const id = cell('question_id');
+      const byId = id.trim() !== '';
       // Joined rather than concatenated: a new string, so the map does not keep a chunk of the file alive.
-      const key = id.trim() !== '' ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000');
-      const group = groups.get(key);
+      const group =
+        byId && lastGroup !== undefined && id === lastId
+          ? lastGroup
+          : groups.get(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'));
       if (!group) {
         const question = readQuestionCells(cell, row);
         const shape = shapeOf(typeFields(question));
@@ -749,12 +760,19 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
         // The rule spanning the question's fields, at its first row (the file schema's own).
         if (!v.closesAfterOpening(record)) throw nothingImported(row, 'closes_at', v.CLOSES_AFTER_OPENS_RULE);
         const index = groups.size;
-        groups.set(key, { index, row, raw, shape });
+        const created: Group = { index, row, cells: QUESTION_COLUMNS.map((c) => detached(cell(c))), shape };
+        groups.set(byId ? ['id', id].join('\u0000') : ['title', cell('title').trim()].join('\u0000'), created);
+        lastId = byId ? created.cells[QUESTION_COLUMNS.indexOf('question_id')]! : '';
+        lastGroup = byId ? created : undefined;
         yield { kind: 'question', index, row, question: record };
         continue;
       }
       // Rows repeating the first row's cells exactly need no second reading.
-      if (raw !== group.raw) agree(group, readQuestionCells(cell, row), row);
+      if (!sameCells(group.cells, fields, questionPositions)) agree(group, readQuestionCells(cell, row), row);
+      if (byId) {
+        lastId = group.cells[QUESTION_COLUMNS.indexOf('question_id')]!;
+        lastGroup = group;
+      } else lastGroup = undefined;
       yield { kind: 'addition', index: group.index, row, ...readPoint(cell, row, group.shape) };
     }
   } catch (err) {
@@ -764,9 +782,18 @@ export function* readCsvDiary(chunks: Iterable<string>): Generator<CsvItem> {
   if (positions === null) readHeader(undefined);
 }
 
+/** Whether a row's question cells are exactly the first row's. */
+function sameCells(first: readonly string[], fields: readonly string[], positions: readonly number[]): boolean {
+  for (let i = 0; i < positions.length; i++) {
+    const at = positions[i]!;
+    if ((at === -1 ? '' : fields[at]!) !== first[i]) return false;
+  }
+  return true;
+}
+
 /** A later row of a question must hold the same values as its first row (compared as read: 0.30 and .3 agree). */
 function agree(group: Group, values: Record<QuestionColumn, unknown>, row: number): void {
-  const cells = splitCells(group.raw);
+  const cells = group.cells;
   const first = readQuestionCells((c) => cells[QUESTION_COLUMNS.indexOf(c as QuestionColumn)] ?? '', group.row);
   for (const c of QUESTION_COLUMNS) {
     if (JSON.stringify(values[c]) !== JSON.stringify(first[c])) {

@@ -53,10 +53,9 @@ export interface NumericRow extends BaseRow {
 
 export type TypedRow = ChoiceRow | NumericRow;
 
-/** A choice question of the diary file (JSON v1, INTERFACES.md "Question types"). */
-export interface DiaryFileChoiceQuestion {
+/** What every question of the diary file carries, whatever its type (JSON v1, INTERFACES.md §1). */
+export interface DiaryFileQuestionHead {
   id: string;
-  type: 'choice';
   title: string;
   rule: string;
   kind: QuestionKind;
@@ -64,6 +63,11 @@ export interface DiaryFileChoiceQuestion {
   opened_at: string;
   closes_at: string;
   time_zone: string;
+}
+
+/** A choice question of the diary file (JSON v1, INTERFACES.md "Question types"). */
+export interface DiaryFileChoiceQuestion extends DiaryFileQuestionHead {
+  type: 'choice';
   options: string[];
   ordered: boolean;
   option_base_rates?: number[];
@@ -74,16 +78,8 @@ export interface DiaryFileChoiceQuestion {
 }
 
 /** A numeric question of the diary file; dates are `YYYY-MM-DD` strings. */
-export interface DiaryFileNumericQuestion {
-  id: string;
+export interface DiaryFileNumericQuestion extends DiaryFileQuestionHead {
   type: 'numeric';
-  title: string;
-  rule: string;
-  kind: QuestionKind;
-  tags: string[];
-  opened_at: string;
-  closes_at: string;
-  time_zone: string;
   unit: string;
   value_kind: 'number' | 'date';
   levels: number[];

@@ -19,9 +19,9 @@
  * types, with a confident miss of a top choice and a wide miss of a range among them.
  */
 import { DIARY_FORMAT, DIARY_VERSION } from '../../shared/diary-file';
-import type { Outcome, QuestionKind } from '../../shared/domain';
+import type { Outcome } from '../../shared/domain';
 import { addCalendarDays, toIso, wallTimeAt, wallTimeToInstant, type WallTime } from '../../shared/time';
-import { TYPED_ROWS, buildTypedQuestion, type DiaryFileChoiceQuestion, type DiaryFileNumericQuestion } from './demo-types';
+import { TYPED_ROWS, buildTypedQuestion, type DiaryFileChoiceQuestion, type DiaryFileNumericQuestion, type DiaryFileQuestionHead } from './demo-types';
 
 /** A diary file (JSON v1) as a plain object, ready for `parseDiaryFile` or `JSON.stringify`. */
 export interface DiaryFileObject {
@@ -42,15 +42,8 @@ export interface DiaryFileObject {
 /** Any question of the example diary: yes/no (no `type` field, as the file writes them), choice or numeric. */
 export type DemoQuestion = DiaryFileQuestion | DiaryFileChoiceQuestion | DiaryFileNumericQuestion;
 
-export interface DiaryFileQuestion {
-  id: string;
-  title: string;
-  rule: string;
-  kind: QuestionKind;
-  tags: string[];
-  opened_at: string;
-  closes_at: string;
-  time_zone: string;
+/** A yes/no question of the diary file. */
+export interface DiaryFileQuestion extends DiaryFileQuestionHead {
   base_rate?: number;
   base_rate_note?: string;
   costs?: { false_alarm: number; miss: number };

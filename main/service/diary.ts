@@ -56,6 +56,7 @@ import {
   computeScorecardDetail,
   isStale,
   type ScoreOptions,
+  type ScoreReport,
   type ScoringQuestion,
 } from '../../shared/scoring';
 import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
@@ -446,7 +447,19 @@ export function createDiary(ctx: DiaryContext) {
         else if (++conflictCount <= MAX_LISTED_CONFLICTS) conflicts.push({ index: c.index, row: c.row, id: c.id, title: c.title, differs });
       };
 
+      // CSV: the revisions on consecutive rows of one question, written together (several
+      // to a statement, see insertForecasts) before anything else is written, so each keeps
+      // its place in the entry order. Nothing a row holds can make these inserts fail: every
+      // value was checked as it was read.
+      let revisions: qs.NewForecast[] = [];
+      let revisionsOf = -1;
+      const writeRevisions = () => {
+        if (revisions.length) qs.insertForecasts(write, revisions);
+        revisions = [];
+      };
+
       for (const item of items) {
+        if (item.kind !== 'addition' || item.index !== revisionsOf) writeRevisions();
         if (item.kind === 'settings') {
           settingsRead = true;
           if (!empty) continue;
@@ -497,9 +510,10 @@ export function createDiary(ctx: DiaryContext) {
         } else {
           // A later CSV row of a question already inserted: its revision or reference forecast.
           const target = csvQuestions[item.index]!;
+          revisionsOf = item.index;
           if (item.forecast) {
             const f = item.forecast;
-            qs.insertForecast(write, {
+            revisions.push({
               id: orderedId(),
               question_id: target.id,
               at: f.at,
@@ -513,23 +527,33 @@ export function createDiary(ctx: DiaryContext) {
             }
           }
           if (item.reference) {
+            writeRevisions();
             const r = item.reference;
             qs.insertReference(write, { id: orderedId(), question_id: target.id, at: r.at, ...storedValuesOf(target.shape, r), source: r.source });
           }
         }
       }
+      writeRevisions();
       for (const c of csvCandidates) compare(c, true);
       // All or nothing: any conflict rolls the whole import back.
       if (conflictCount) throw mergeRefusal(conflicts, conflictCount);
     });
     const cache = write.pragma('cache_size', { simple: true }) as number;
+    const temp = write.pragma('temp_store', { simple: true }) as number;
     write.pragma(`cache_size = ${-IMPORT_CACHE_KIB}`);
+    // Each statement that writes several rows under a constraint keeps, until it ends, the
+    // pages it changes so it can undo itself alone (SQLite's statement journal). On a file,
+    // that is a write to disk per page per statement: an import of 10,000 questions wrote
+    // 500 MB there. In memory it costs a copy. It holds one statement's pages at a time, so
+    // it stays small; a crash loses nothing, since the transaction itself is in the WAL.
+    write.pragma('temp_store = MEMORY');
     try {
       run();
     } catch (err) {
       throw asImportError(err);
     } finally {
       write.pragma(`cache_size = ${cache}`);
+      write.pragma(`temp_store = ${temp}`);
     }
     return { added, skipped };
   }
@@ -616,11 +640,39 @@ export function createDiary(ctx: DiaryContext) {
     return costs ? questions.map((q) => ({ ...q, costs: { false_alarm: costs.false_alarm, miss: costs.miss } })) : questions;
   }
 
+  // Figures computed from that input are kept until the diary changes too (same data_version):
+  // opening the Scorecard or Hindsight again, or going back to an earlier filter, then costs
+  // nothing, and the two screens share the yes/no report. Everything a figure depends on is
+  // in the diary (settings included) or in its key.
+  let figures: { version: number; byKey: Map<string, unknown> } | null = null;
+  const FIGURES_KEPT = 32;
+
+  function remembered<T>(key: string, compute: () => T): T {
+    typedScoringInput(); // brings the input, and its version, up to date
+    const version = scoringCache!.version;
+    if (figures?.version !== version) figures = { version, byKey: new Map() };
+    if (figures.byKey.has(key)) return figures.byKey.get(key) as T;
+    const value = compute();
+    if (figures.byKey.size >= FIGURES_KEPT) figures.byKey.delete(figures.byKey.keys().next().value!);
+    figures.byKey.set(key, value);
+    return value;
+  }
+
+  const filterKey = (req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }) =>
+    JSON.stringify([req.tag ?? null, req.from ?? null, req.to ?? null, req.costs?.false_alarm ?? null, req.costs?.miss ?? null]);
+
+  /** The yes/no report for a filter (and "what if" costs), computed once per diary state. */
+  function binaryReport(req: { tag?: string; from?: string; to?: string; costs?: { false_alarm: number; miss: number } }): ScoreReport {
+    return remembered(`report|${filterKey(req)}`, () => computeScoreReport(scoringInput(req), scoreOptions(req)));
+  }
+
   /** The `score --json` object: the yes/no report with the choice and numeric members (INTERFACES.md §2). */
   function scoreJson(req: ValidRequest<'score'>): ScoreJson {
-    const options = scoreOptions(req);
-    const { choice, numeric } = typedScoringInput();
-    return { ...computeScoreReport(scoringInput(req), options), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+    return remembered(`json|${filterKey(req)}`, () => {
+      const options = scoreOptions(req);
+      const { choice, numeric } = typedScoringInput();
+      return { ...binaryReport(req), choice: computeChoiceReport(choice, options), numeric: computeNumericReport(numeric, options) };
+    });
   }
 
   /** Some questions of one type by id, as the service returns them (Hindsight's entries show their notes and labels). */
@@ -1070,19 +1122,20 @@ export function createDiary(ctx: DiaryContext) {
       };
     },
 
-    score: (req) => {
-      const questions = scoringInput(req);
-      const options = scoreOptions(req);
-      const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
-      const { choice, numeric } = typedScoringInput();
-      return {
-        report: scoreJson(req),
-        detail,
-        leads: referenceLeads(questions, options),
-        choice_detail: computeChoiceDetail(choice, options),
-        numeric_detail: computeNumericDetail(numeric, options),
-      };
-    },
+    score: (req) =>
+      remembered(`scorecard|${filterKey(req)}`, () => {
+        const questions = scoringInput(req);
+        const options = scoreOptions(req);
+        const { per_question: _rows, ...detail } = computeScorecardDetail(questions, options);
+        const { choice, numeric } = typedScoringInput();
+        return {
+          report: scoreJson(req),
+          detail,
+          leads: referenceLeads(questions, options),
+          choice_detail: computeChoiceDetail(choice, options),
+          numeric_detail: computeNumericDetail(numeric, options),
+        };
+      }),
 
     hindsight: (req) => {
       const questions = scoringInput({});
@@ -1097,13 +1150,12 @@ export function createDiary(ctx: DiaryContext) {
         ...page,
         choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
         numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
-        report: computeScoreReport(questions, options),
+        report: binaryReport({ tag: req.tag, from: req.from, to: req.to }),
       };
     },
 
     briefing: (req) => {
       const s = settings();
-      const questions = scoringInput({});
       const options = scoreOptions({ tag: req.tag });
       const t = now();
       const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
@@ -1112,7 +1164,7 @@ export function createDiary(ctx: DiaryContext) {
         tag: req.tag ?? null,
         generated_at: now(),
         time_zone: s.time_zone,
-        report: computeScoreReport(questions, options),
+        report: binaryReport({ tag: req.tag }),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
         choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)),

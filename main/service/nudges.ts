@@ -34,18 +34,20 @@ export interface DueQuestion extends PlanQuestion {
 type DueRow = [string, string, QuestionKind, number, number, string, number | null, number | null, number | null, QuestionType];
 
 /**
- * Every unresolved question with its latest revision, in one query: the latest revision is
- * found through the (question_id, at, seq) index, one step per question, so the cost
+ * Every unresolved question with its latest revision, in one query. The open questions are
+ * picked from the narrow id index first (a diary is mostly resolved questions, whose long
+ * rows are then never read), their rows fetched by rowid, and each one's latest revision
+ * found through the (question_id, at, seq, p) index, one step per question: the cost
  * follows the number of open questions, not the length of their histories.
  */
 export function dueQuestions(db: Db): DueQuestion[] {
   const rows = db
     .prepare(
-      `SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.p, q.type
-       FROM questions q
-       LEFT JOIN resolutions r ON r.question_id = q.id
-       LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
-       WHERE r.question_id IS NULL`,
+      `WITH open AS MATERIALIZED (SELECT rowid AS r FROM questions q WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id))
+       SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.p, q.type
+       FROM open o
+       CROSS JOIN questions q ON q.rowid = o.r
+       LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)`,
     )
     .raw()
     .all() as DueRow[];
@@ -67,9 +69,26 @@ export function snoozes(store: StoreHandles): Snooze[] {
   return nudgeStore.allSnoozes(store.read);
 }
 
-/** The unresolved questions and the snoozes, from one snapshot of the file. */
-function planInput(store: StoreHandles): { questions: DueQuestion[]; snoozed: Snooze[] } {
-  return readSnapshot(store.read, () => ({ questions: dueQuestions(store.read), snoozed: snoozes(store) }));
+type PlanInput = { questions: readonly DueQuestion[]; snoozed: readonly Snooze[] };
+
+// What planning reads is kept until the diary changes: SQLite's data_version on the read
+// handle moves whenever another connection (this process's write handle, or another
+// process) commits. The top bar's count, the Desk and the scheduler's minute tick then
+// re-plan from memory instead of reading every open question again; on a large diary the
+// reading is most of their cost. Callers must not change what they are given.
+const planInputs = new WeakMap<Db, { version: number; input: PlanInput }>();
+
+/** The unresolved questions and the snoozes, from one snapshot of the file, read again only after a change. */
+function planInput(store: StoreHandles): PlanInput {
+  const db = store.read;
+  return readSnapshot(db, () => {
+    const version = db.pragma('data_version', { simple: true }) as number;
+    const known = planInputs.get(db);
+    if (known?.version === version) return known.input;
+    const input = { questions: dueQuestions(db), snoozed: snoozes(store) };
+    planInputs.set(db, { version, input });
+    return input;
+  });
 }
 
 /**
@@ -81,7 +100,7 @@ export function dueAt(
   store: StoreHandles,
   settings: Settings,
   at: number,
-): { questions: DueQuestion[]; nudges: Nudge[]; snoozed: { nudge: Nudge; until: number }[] } {
+): { questions: readonly DueQuestion[]; nudges: Nudge[]; snoozed: { nudge: Nudge; until: number }[] } {
   const { questions, snoozed: running } = planInput(store);
   const hidden = activeSnoozes(running, at);
   const nudges: Nudge[] = [];
@@ -131,7 +150,7 @@ export function createDiaryScheduler(
       };
   return createScheduler({
     clock: { now },
-    source: { questions: () => dueQuestions(store.read), settings, snoozes: () => snoozes(store) },
+    source: { questions: () => planInput(store).questions, settings, snoozes: () => planInput(store).snoozed },
     log,
     notifier,
     onDueCountChanged,

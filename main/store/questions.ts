@@ -130,27 +130,29 @@ export interface NewForecast {
   lenses: Lens[];
 }
 
-const statements = new WeakMap<Db, Map<string, Statement>>();
-
 /** How a cached statement returns rows: objects (the default), arrays, or the first column. */
 type RowShape = 'object' | 'raw' | 'pluck';
 
+const statements = new WeakMap<Db, Record<RowShape, Map<string, Statement>>>();
+
 /**
  * Prepared statements are cached per handle: an import of many thousand rows prepares each
- * once. The row shape is part of the cache key and set once at preparation, because
+ * once. The row shape chooses the cache, and is set once at preparation, because
  * `.raw()` and `.pluck()` switch a statement for good: a shared statement switched by one
- * caller would hand arrays to another that expects objects.
+ * caller would hand arrays to another that expects objects. The SQL text alone is the key:
+ * a key built from it (shape + text) is a new string each call, hashed again each time,
+ * and an import looks statements up millions of times.
  */
 function stmt(db: Db, sql: string, shape: RowShape = 'object'): Statement {
-  let cache = statements.get(db);
-  if (!cache) statements.set(db, (cache = new Map()));
-  const key = `${shape}\u0000${sql}`;
-  let s = cache.get(key);
+  let caches = statements.get(db);
+  if (!caches) statements.set(db, (caches = { object: new Map(), raw: new Map(), pluck: new Map() }));
+  const cache = caches[shape];
+  let s = cache.get(sql);
   if (!s) {
     s = db.prepare(sql);
     if (shape === 'raw') s.raw(true);
     else if (shape === 'pluck') s.pluck(true);
-    cache.set(key, s);
+    cache.set(sql, s);
   }
   return s;
 }
@@ -158,15 +160,35 @@ function stmt(db: Db, sql: string, shape: RowShape = 'object'): Statement {
 const QUESTION_COLUMNS =
   'id, title, rule, kind, opened_at, closes_at, time_zone, base_rate, base_rate_note, false_alarm_cost, miss_cost, checkin_days, created_at, updated_at, type, ordered, unit, value_kind';
 
+const INSERT_QUESTION = `INSERT INTO questions (${QUESTION_COLUMNS}) VALUES (${QUESTION_COLUMNS.split(',').map(() => '?').join(', ')})`;
+
 // ---- writes -------------------------------------------------------------------------
 
 export function insertQuestion(db: Db, row: QuestionRow, tags: string[], typeRows: TypeRows = NO_TYPE_ROWS): void {
-  stmt(db, 
-    `INSERT INTO questions (${QUESTION_COLUMNS}) VALUES (@id, @title, @rule, @kind, @opened_at, @closes_at, @time_zone,
-      @base_rate, @base_rate_note, @false_alarm_cost, @miss_cost, @checkin_days, @created_at, @updated_at, @type, @ordered, @unit, @value_kind)`,
-  ).run(row);
-  replaceTags(db, row.id, tags);
-  replaceOptions(db, row.id, typeRows.options);
+  // Positional parameters: binding by name looks each one up in the row, per question.
+  stmt(db, INSERT_QUESTION).run(
+    row.id,
+    row.title,
+    row.rule,
+    row.kind,
+    row.opened_at,
+    row.closes_at,
+    row.time_zone,
+    row.base_rate,
+    row.base_rate_note,
+    row.false_alarm_cost,
+    row.miss_cost,
+    row.checkin_days,
+    row.created_at,
+    row.updated_at,
+    row.type,
+    row.ordered,
+    row.unit,
+    row.value_kind,
+  );
+  // A new question has no tags or options to replace: inserted without the deletes.
+  insertTags(db, row.id, tags);
+  insertOptions(db, row.id, typeRows.options);
   const level = stmt(db, 'INSERT INTO question_levels (question_id, position, level) VALUES (?, ?, ?)');
   typeRows.levels.forEach((l, i) => level.run(row.id, i, l));
 }
@@ -185,6 +207,11 @@ export function updateQuestionRow(db: Db, row: QuestionRow): void {
 /** A choice question's options, in order (relabelling keeps their number: the service checks). */
 export function replaceOptions(db: Db, questionId: string, options: readonly OptionRow[]): void {
   stmt(db, 'DELETE FROM question_options WHERE question_id = ?').run(questionId);
+  insertOptions(db, questionId, options);
+}
+
+function insertOptions(db: Db, questionId: string, options: readonly OptionRow[]): void {
+  if (options.length === 0) return;
   const insert = stmt(db, 'INSERT INTO question_options (question_id, position, label, base_rate) VALUES (?, ?, ?, ?)');
   options.forEach((o, i) => insert.run(questionId, i, o.label, o.base_rate));
 }
@@ -195,6 +222,11 @@ export function touchQuestion(db: Db, id: string, at: number): void {
 
 export function replaceTags(db: Db, questionId: string, tags: string[]): void {
   stmt(db, 'DELETE FROM question_tags WHERE question_id = ?').run(questionId);
+  insertTags(db, questionId, tags);
+}
+
+function insertTags(db: Db, questionId: string, tags: readonly string[]): void {
+  if (tags.length === 0) return;
   const insert = stmt(db, 'INSERT INTO question_tags (question_id, tag, position) VALUES (?, ?, ?)');
   tags.forEach((tag, i) => insert.run(questionId, tag, i));
 }
@@ -206,7 +238,7 @@ export function deleteQuestionRow(db: Db, id: string): boolean {
 export function insertForecast(db: Db, f: NewForecast): void {
   stmt(db, 'INSERT INTO forecasts (id, question_id, at, p, note) VALUES (?, ?, ?, ?, ?)').run(f.id, f.question_id, f.at, f.p, f.note);
   if (f.lenses.length) insertLenses(db, f.id, f.lenses);
-  insertValues(db, 'forecast_values', 'forecast_id', f.id, f.values);
+  insertValues(db, 'forecast_values', f.id, f.values);
 }
 
 /** Revisions per INSERT statement when a question's history is written at once. */
@@ -230,7 +262,7 @@ export function insertForecasts(db: Db, forecasts: NewForecast[]): void {
   }
   for (const f of forecasts) {
     if (f.lenses.length) insertLenses(db, f.id, f.lenses);
-    insertValues(db, 'forecast_values', 'forecast_id', f.id, f.values);
+    insertValues(db, 'forecast_values', f.id, f.values);
   }
 }
 
@@ -238,12 +270,18 @@ export function insertForecasts(db: Db, forecasts: NewForecast[]): void {
 export function updateForecastRow(db: Db, f: { id: string; at: number; p: number | null; values: readonly number[]; note: string }): void {
   stmt(db, 'UPDATE forecasts SET at = ?, p = ?, note = ? WHERE id = ?').run(f.at, f.p, f.note, f.id);
   stmt(db, 'DELETE FROM forecast_values WHERE forecast_id = ?').run(f.id);
-  insertValues(db, 'forecast_values', 'forecast_id', f.id, f.values);
+  insertValues(db, 'forecast_values', f.id, f.values);
 }
 
-function insertValues(db: Db, table: 'forecast_values' | 'reference_values', key: 'forecast_id' | 'reference_id', id: string, values: readonly number[]): void {
+// Constant texts: a statement's text is its cache key (see stmt).
+const VALUE_INSERTS = {
+  forecast_values: 'INSERT INTO forecast_values (forecast_id, position, value) VALUES (?, ?, ?)',
+  reference_values: 'INSERT INTO reference_values (reference_id, position, value) VALUES (?, ?, ?)',
+} as const;
+
+function insertValues(db: Db, table: keyof typeof VALUE_INSERTS, id: string, values: readonly number[]): void {
   if (values.length === 0) return;
-  const insert = stmt(db, `INSERT INTO ${table} (${key}, position, value) VALUES (?, ?, ?)`);
+  const insert = stmt(db, VALUE_INSERTS[table]);
   values.forEach((value, i) => insert.run(id, i, value));
 }
 
@@ -264,7 +302,7 @@ export function deleteForecastRow(db: Db, id: string): boolean {
 /** A reference forecast: `p` (yes/no) or `values` (a choice question's probabilities, a numeric question's quantiles). */
 export function insertReference(db: Db, r: Omit<ReferenceRow, 'seq'> & { values: readonly number[] }): void {
   stmt(db, 'INSERT INTO reference_forecasts (id, question_id, at, p, source) VALUES (?, ?, ?, ?, ?)').run(r.id, r.question_id, r.at, r.p, r.source);
-  insertValues(db, 'reference_values', 'reference_id', r.id, r.values);
+  insertValues(db, 'reference_values', r.id, r.values);
 }
 
 export function deleteReferenceRow(db: Db, id: string): boolean {
@@ -274,10 +312,10 @@ export function deleteReferenceRow(db: Db, id: string): boolean {
 export function upsertResolution(db: Db, r: ResolutionRow): void {
   stmt(db, 
     `INSERT INTO resolutions (question_id, outcome, at, note, recorded_at, option, value)
-     VALUES (@question_id, @outcome, @at, @note, @recorded_at, @option, @value)
+     VALUES (?, ?, ?, ?, ?, ?, ?)
      ON CONFLICT (question_id) DO UPDATE SET outcome = excluded.outcome, at = excluded.at, note = excluded.note,
        recorded_at = excluded.recorded_at, option = excluded.option, value = excluded.value`,
-  ).run(r);
+  ).run(r.question_id, r.outcome, r.at, r.note, r.recorded_at, r.option, r.value);
 }
 
 export function deleteResolution(db: Db, questionId: string): void {

@@ -11,12 +11,19 @@
  */
 import { addCalendarDays, daysInMonth, parseLocalDateTime, toIso, toLocalInputValue, wallTimeAt, wallTimeToInstant } from '../../shared/time';
 
+let knownLocale: string | null = null;
+// The user may change the language while the app runs; the next format reads it afresh.
+(globalThis as { addEventListener?: (type: string, listener: () => void) => void }).addEventListener?.('languagechange', () => (knownLocale = null));
+
 /**
  * The locale every format uses: the user's own (the browser's or the operating system's).
- * Functions take it as a parameter only so tests can check other locales.
+ * Functions take it as a parameter only so tests can check other locales. Asked once and
+ * kept: building a formatter to ask costs far more than the format itself, and a screen
+ * formats thousands of dates.
  */
 function userLocale(): string {
-  return new Intl.DateTimeFormat().resolvedOptions().locale;
+  knownLocale ??= new Intl.DateTimeFormat().resolvedOptions().locale;
+  return knownLocale;
 }
 
 const formats = new Map<string, Intl.DateTimeFormat>();
@@ -139,8 +146,19 @@ export interface DateOrder {
   placeholder: string;
 }
 
-/** How the locale writes a numeric date (31/03/2026, 03/31/2026, 2026-03-31, 31.03.2026). */
+const dateOrders = new Map<string, DateOrder>();
+
+/** How the locale writes a numeric date (31/03/2026, 03/31/2026, 2026-03-31, 31.03.2026); worked out once per locale. */
 export function dateOrder(locale = userLocale()): DateOrder {
+  let known = dateOrders.get(locale);
+  if (!known) {
+    known = readDateOrder(locale);
+    dateOrders.set(locale, known);
+  }
+  return known;
+}
+
+function readDateOrder(locale: string): DateOrder {
   const parts = new Intl.DateTimeFormat(locale, { day: '2-digit', month: '2-digit', year: 'numeric', timeZone: 'UTC' }).formatToParts(Date.UTC(2026, 2, 31));
   const order = parts.filter((p) => p.type === 'day' || p.type === 'month' || p.type === 'year').map((p) => p.type as 'day' | 'month' | 'year');
   const literal = parts.find((p) => p.type === 'literal')?.value.trim() || '/';
@@ -183,10 +201,17 @@ export function parseDateText(text: string, locale = userLocale()): Read<{ year:
   return { ok: true, value };
 }
 
-/** Whether the locale writes times on a 12-hour clock (5:00 PM) or a 24-hour one (17:00). */
+const twelveHour = new Map<string, boolean>();
+
+/** Whether the locale writes times on a 12-hour clock (5:00 PM) or a 24-hour one (17:00); asked once per locale. */
 export function uses12Hour(locale = userLocale()): boolean {
-  const cycle = new Intl.DateTimeFormat(locale, { hour: 'numeric', timeZone: 'UTC' }).resolvedOptions().hourCycle;
-  return cycle === 'h11' || cycle === 'h12';
+  let known = twelveHour.get(locale);
+  if (known === undefined) {
+    const cycle = new Intl.DateTimeFormat(locale, { hour: 'numeric', timeZone: 'UTC' }).resolvedOptions().hourCycle;
+    known = cycle === 'h11' || cycle === 'h12';
+    twelveHour.set(locale, known);
+  }
+  return known;
 }
 
 /** The placeholder of a time box: "hh:mm", or "hh:mm am" where the locale uses a 12-hour clock. */

@@ -98,6 +98,25 @@ test('dueCount is the number of questions the Desk lists; resolved and void ques
   await assert.rejects(d.call('dueCount', { at: 'soon' }), /at: must be an ISO 8601/);
 });
 
+test('the due list and count follow changes at once, from this window or from another process on the same file', async () => {
+  const { d, closed, open } = await diaryWithClosedQuestion();
+  const at = '2026-03-11T09:00:00Z';
+  d.clock.now = Date.parse('2026-03-11T08:00:00Z');
+  assert.equal((await d.call('dueCount', { at })).count, 2, 'the closed question, and the open one with its check-in due');
+  await d.call('resolveQuestion', { id: closed.id, outcome: 'yes', at: '2026-03-10T18:00:00Z' });
+  assert.equal((await d.call('dueCount', { at })).count, 1, "this window's own resolution is seen");
+  // Another process (a second connection to the same file) revises the open question.
+  const other = openDiary({ dbPath: d.dbPath, now: () => Date.parse('2026-03-11T08:00:00Z'), timeZone: 'Europe/London' });
+  try {
+    const answer = await other.dispatch('addForecast', { question_id: open.id, p: 0.35 });
+    assert.equal(answer.ok, true, JSON.stringify(answer));
+  } finally {
+    other.close();
+  }
+  assert.equal((await d.call('dueCount', { at })).count, 0, "another process's revision resets the check-in here too");
+  assert.deepEqual((await d.call('due', { at })).nudges, []);
+});
+
 test('the latest revision by time anchors the check-in and is the one listed, whatever order they were entered in', async () => {
   const d = openTestDiary({ now: '2026-03-02T09:00:00Z' });
   const q = await d.call('createQuestion', {

@@ -184,6 +184,29 @@ test('the scorecard follows every change at once (its cached input is dropped on
   assert.equal(report.decisions.hits, 0, 'what-if costs do not leak into the next answer (act above 50%)');
 });
 
+test('kept figures follow the diary: settings, a new resolution and each filter get their own answer', async () => {
+  const d = openTestDiary();
+  const a = await d.call('createQuestion', { ...base, title: 'A', tags: ['x'], first_forecast: { p: 0.3 } });
+  const b = await d.call('createQuestion', { ...base, title: 'B', first_forecast: { p: 0.95 } });
+  await d.call('resolveQuestion', { id: a.id, outcome: 'yes' });
+  let { report } = await d.call('score', {});
+  assert.equal(report.decisions.misses, 1, 'costs 1:1 act above 50 %: 0.3 on a Yes is a miss');
+  await d.call('updateSettings', { default_false_alarm_cost: 1, default_miss_cost: 9 });
+  ({ report } = await d.call('score', {}));
+  assert.equal(report.decisions.misses, 0, 'costs 1:9 act above 10 %: 0.3 on a Yes is acted on');
+  assert.equal(report.decisions.hits, 1);
+  let hindsight = await d.call('hindsight', { threshold: 0.9 });
+  assert.equal(hindsight.report.scored, 1);
+  assert.equal(hindsight.misses, 0);
+  await d.call('resolveQuestion', { id: b.id, outcome: 'no' });
+  hindsight = await d.call('hindsight', { threshold: 0.9 });
+  assert.equal(hindsight.report.scored, 2, 'Hindsight sees the new resolution');
+  assert.equal(hindsight.misses, 1, '0.95 on a No is a confident miss');
+  assert.equal((await d.call('score', { tag: 'x' })).report.scored, 1, 'a tag filter is its own answer');
+  assert.equal((await d.call('score', {})).report.scored, 2);
+  assert.equal((await d.call('hindsight', { threshold: 0.9, tag: 'x' })).report.scored, 1);
+});
+
 test('unknown operations are refused', async () => {
   const d = openTestDiary();
   const answer = await d.service.dispatch('dropEverything', {});

@@ -4,7 +4,7 @@
  */
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { formatLocal, parseInstant, parseLocalInZone, toIso, wallTimeAt } from '../../shared/time';
+import { formatLocal, parseInstant, parseLocalInZone, toIso, wallTimeAt, wallTimeToInstant, type WallTime } from '../../shared/time';
 
 test('a date and time without offset is read on the given clock, by RFC 5545 in a gap or a repeat', () => {
   const at = (text: string, zone = 'Europe/London') => {
@@ -62,4 +62,36 @@ test('an instant in the export’s own spelling reads as the same instant spelle
   assert.equal(parseInstant('2024-02-29T12:00:00.000Z'), Date.UTC(2024, 1, 29, 12));
   assert.equal(parseInstant('2023-02-29T12:00:00.000Z'), null);
   assert.equal(parseInstant('2026-01-01T23:59:59.999z'), Date.UTC(2026, 0, 1, 23, 59, 59, 999), 'a lower-case z, read the general way');
+});
+
+test('wall times become the same instants with remembered day offsets as when Intl is asked each time, across every transition', () => {
+  // The oracle: the RFC 5545 resolution of wallTimeToInstant with every offset asked afresh.
+  const offsetAt = (ms: number, zone: string) => {
+    const w = wallTimeAt(ms, zone);
+    return Math.round((Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second) - Math.floor(ms / 1000) * 1000) / 60_000);
+  };
+  const oracle = (w: WallTime, zone: string) => {
+    const naive = Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second);
+    const before = offsetAt(naive - 86_400_000, zone);
+    const after = offsetAt(naive + 86_400_000, zone);
+    for (const t of [naive - before * 60_000, naive - after * 60_000].sort((a, b) => a - b)) {
+      if (offsetAt(t, zone) * 60_000 === naive - t) return t;
+    }
+    return naive - before * 60_000;
+  };
+  // Zones with an hour's change, half an hour's (Lord Howe), a negative summer offset (Dublin),
+  // a skipped calendar day (Apia, end of 2011), changes at odd times (Casablanca, St John's).
+  const zones = ['Europe/London', 'America/New_York', 'Australia/Lord_Howe', 'Europe/Dublin', 'Pacific/Apia', 'Africa/Casablanca', 'America/St_Johns', 'Asia/Kathmandu'];
+  let checked = 0;
+  for (const zone of zones) {
+    for (let day = Date.UTC(2011, 0, 1); day < Date.UTC(2014, 0, 1); day += 86_400_000) {
+      const d = new Date(day);
+      for (const [hour, minute] of [[0, 30], [1, 30], [2, 0], [2, 30], [3, 0], [23, 59]] as const) {
+        const wall = { year: d.getUTCFullYear(), month: d.getUTCMonth() + 1, day: d.getUTCDate(), hour, minute, second: 0 };
+        assert.equal(wallTimeToInstant(wall, zone), oracle(wall, zone), `${zone} ${JSON.stringify(wall)}`);
+        checked++;
+      }
+    }
+  }
+  assert.ok(checked > 50_000);
 });

@@ -4,14 +4,13 @@
  * (one shape per source), the close and the resolution as labelled vertical lines, and the
  * option that came true drawn thicker. `data-points` carries the plotted data as JSON.
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useMemo } from 'react';
 import { Chart, LinearScale, LineController, LineElement, PointElement, Tooltip, type ChartDataset, type TooltipItem } from 'chart.js';
-import { formatInstant } from '../dates';
-import { useColorScheme } from '../hooks';
 import { formatPercent } from '../percent';
-import { ChartLegend, DASHED, lineStyle, type LegendItem, type Marker } from './Legend';
+import { cssColor } from './colors';
+import { chanceScale, historyOptions, HistoryFigure, optionLegend, timeScale, useHistoryChart } from './historyChartKit';
+import { DASHED, lineStyle, type LegendItem, type Marker } from './Legend';
 import { verticalMarkers, type VerticalMarker } from './markers';
-import { cssColor, optionLegend, timeScale, typedPalette } from './typedChartKit';
 import { choiceSeries, type ChoiceHistoryInput, type TimeXY } from './typedSeries';
 import '../tools/tools.css';
 import './typedCharts.css';
@@ -45,14 +44,9 @@ export function choiceLegend(input: ChoiceHistoryInput): LegendItem[] {
 }
 
 export function ChoiceHistoryChart({ input, timeZone }: { input: ChoiceHistoryInput; timeZone: string }) {
-  const scheme = useColorScheme();
-  const canvasRef = useRef<HTMLCanvasElement>(null);
   const legend = useMemo(() => choiceLegend(input), [input]);
 
-  useEffect(() => {
-    const canvas = canvasRef.current;
-    if (!canvas) return;
-    const colors = typedPalette();
+  const canvasRef = useHistoryChart<TimeXY[]>((colors) => {
     const series = choiceSeries(input, Date.now());
     const radius = (points: TimeXY[]) => points.map((p) => (p.hold ? 0 : 4));
     const datasets: ChartDataset<'line', TimeXY[]>[] = [];
@@ -97,53 +91,34 @@ export function ChoiceHistoryChart({ input, timeZone }: { input: ChoiceHistoryIn
       const label = input.void ? 'Resolved Void' : `Resolved: ${input.options[input.outcome_option ?? 0]}`;
       markers.push({ at: series.axis.resolvedMs, label, color: colors.resolved });
     }
-    const chart = new Chart<'line', TimeXY[]>(canvas, {
+    return {
       type: 'line',
       data: { datasets },
-      options: {
-        animation: false,
-        responsive: true,
-        maintainAspectRatio: false,
-        interaction: { mode: 'nearest', intersect: false, axis: 'x' },
-        font: { family: colors.font },
-        scales: {
-          x: timeScale(series.axis, timeZone, colors),
-          y: {
-            type: 'linear',
-            min: 0,
-            max: 1,
-            ticks: { color: colors.text, stepSize: 0.25, callback: (value) => `${Math.round(Number(value) * 100)}%` },
-            grid: { color: colors.grid },
-            border: { color: colors.grid },
-            title: { display: true, text: 'Chance', color: colors.text },
-          },
-        },
-        plugins: {
-          legend: { display: false },
-          tooltip: {
-            filter: (item: TooltipItem<'line'>) => !(item.raw as TimeXY).hold && !String(item.dataset.label).startsWith('Base rate:'),
-            callbacks: {
-              title: (items) => (items[0] ? formatInstant(new Date(items[0].parsed.x ?? 0).toISOString(), timeZone) : ''),
-              label: (item) => `${item.dataset.label ?? ''}: ${formatPercent(item.parsed.y)}`,
-            },
-          },
-        },
-      },
+      options: historyOptions({
+        colors,
+        zone: timeZone,
+        x: timeScale(series.axis, timeZone, colors),
+        y: chanceScale('Chance', colors),
+        tooltipFilter: (item: TooltipItem<'line'>) => !(item.raw as TimeXY).hold && !String(item.dataset.label).startsWith('Base rate:'),
+        tooltipLabel: (item) => `${item.dataset.label ?? ''}: ${formatPercent(item.parsed.y)}`,
+      }),
       plugins: [verticalMarkers(markers, colors.font, colors.surface)],
-    });
-    return () => chart.destroy();
-  }, [input, legend, scheme, timeZone]);
+    };
+  }, [input, legend, timeZone]);
 
   return (
-    <figure className="history-chart" data-testid="history-chart" data-kind="choice" data-points={JSON.stringify(input)}>
-      <figcaption className="history-chart__caption">
-        Chance of each option over time
-        {input.option_base_rates ? <span className="history-chart__note"> · dashed: each option’s base rate</span> : null}
-      </figcaption>
-      <div className="history-chart__canvas">
-        <canvas ref={canvasRef} role="img" aria-label={describe(input)} />
-      </div>
-      <ChartLegend items={legend} />
-    </figure>
+    <HistoryFigure
+      kind="choice"
+      points={input}
+      canvasRef={canvasRef}
+      description={describe(input)}
+      legend={legend}
+      caption={
+        <>
+          Chance of each option over time
+          {input.option_base_rates ? <span className="history-chart__note"> · dashed: each option’s base rate</span> : null}
+        </>
+      }
+    />
   );
 }

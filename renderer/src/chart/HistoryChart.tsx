@@ -4,56 +4,19 @@
  * carries the plotted data as JSON in `data-points`, and the tables beside it list the same
  * points for anyone who cannot read the canvas.
  */
-import { useEffect, useMemo, useRef } from 'react';
-import {
-  Chart,
-  LinearScale,
-  LineController,
-  LineElement,
-  PointElement,
-  Tooltip,
-  type ChartDataset,
-  type TooltipItem,
-} from 'chart.js';
+import { useMemo } from 'react';
+import { Chart, LinearScale, LineController, LineElement, PointElement, Tooltip, type ChartDataset, type TooltipItem } from 'chart.js';
 import type { BinaryQuestion } from '../../../shared/domain';
 import { OUTCOME_LABELS } from '../components/StatusPill';
-import { formatInstant, formatTick } from '../dates';
-import { useColorScheme } from '../hooks';
 import { formatPercent } from '../percent';
-import { ChartLegend, DASHED, DOTTED, lineStyle, type LegendItem, type Marker } from './Legend';
+import { cssColor } from './colors';
+import { chanceScale, historyOptions, HistoryFigure, timeScale, useHistoryChart } from './historyChartKit';
+import { DASHED, DOTTED, lineStyle, type LegendItem, type Marker } from './Legend';
 import { verticalMarkers, type VerticalMarker } from './markers';
-import { chartSeries, historyData, timeTicks, type HistoryData, type XY } from './series';
+import { chartSeries, historyData, type HistoryData, type XY } from './series';
 import '../tools/tools.css';
 
 Chart.register(LineController, LineElement, PointElement, LinearScale, Tooltip);
-
-/** The colours drawn on the canvas itself; the series' colours come from their legend items. */
-interface Palette {
-  close: string;
-  resolved: string;
-  grid: string;
-  text: string;
-  surface: string;
-  font: string;
-}
-
-/** A colour token's value in the theme in force. */
-function cssColor(name: string): string {
-  return getComputedStyle(document.documentElement).getPropertyValue(name).trim();
-}
-
-function palette(): Palette {
-  const style = getComputedStyle(document.documentElement);
-  const v = (name: string) => style.getPropertyValue(name).trim();
-  return {
-    close: v('--chart-close'),
-    resolved: v('--color-success'),
-    grid: v('--chart-grid'),
-    text: v('--chart-text'),
-    surface: v('--color-surface'),
-    font: style.getPropertyValue('--font-sans').trim() || 'system-ui',
-  };
-}
 
 /** A few words for screen readers, pointing to the tables for the full detail. */
 function describe(data: HistoryData): string {
@@ -98,18 +61,12 @@ export function historyLegend(data: HistoryData): LegendItem[] {
 }
 
 export function HistoryChart({ question }: { question: BinaryQuestion }) {
-  const scheme = useColorScheme();
-  const canvasRef = useRef<HTMLCanvasElement>(null);
   const data = useMemo(() => historyData(question), [question]);
   const legend = useMemo(() => historyLegend(data), [data]);
   const zone = question.time_zone;
 
-  useEffect(() => {
-    const canvas = canvasRef.current;
-    if (!canvas) return;
-    const colors = palette();
+  const canvasRef = useHistoryChart<XY[]>((colors) => {
     const series = chartSeries(data, Date.now());
-    const ticks = timeTicks(series.xMin, series.xMax, zone);
     const pointRadius = (points: XY[], size: number) => points.map((p) => (p.hold ? 0 : size));
     const style = (label: string) => lineStyle(legend.find((item) => item.label === label)!, cssColor);
 
@@ -141,69 +98,38 @@ export function HistoryChart({ question }: { question: BinaryQuestion }) {
       markers.push({ at: series.resolvedMs, label: `Resolved ${OUTCOME_LABELS[data.resolution.outcome]}`, color: colors.resolved });
     }
 
-    const chart = new Chart<'line', XY[]>(canvas, {
+    return {
       type: 'line',
       data: { datasets },
-      options: {
-        animation: false,
-        responsive: true,
-        maintainAspectRatio: false,
-        interaction: { mode: 'nearest', intersect: false, axis: 'x' },
-        font: { family: colors.font },
-        scales: {
-          x: {
-            type: 'linear',
-            min: series.xMin,
-            max: series.xMax,
-            afterBuildTicks: (axis) => {
-              axis.ticks = ticks.values.map((value) => ({ value }));
-            },
-            ticks: { color: colors.text, callback: (value) => formatTick(Number(value), zone, ticks.unit, series.xMax - series.xMin), maxRotation: 0, autoSkip: true },
-            grid: { color: colors.grid },
-            border: { color: colors.grid },
-          },
-          y: {
-            type: 'linear',
-            min: 0,
-            max: 1,
-            ticks: { color: colors.text, stepSize: 0.25, callback: (value) => `${Math.round(Number(value) * 100)}%` },
-            grid: { color: colors.grid },
-            border: { color: colors.grid },
-            title: { display: true, text: 'Probability', color: colors.text },
-          },
-        },
-        plugins: {
-          // Our own legend under the canvas draws each line's dash and marker (chart/Legend.tsx).
-          legend: { display: false },
-          tooltip: {
-            filter: (item: TooltipItem<'line'>) => !(item.raw as XY).hold && item.dataset.label !== 'Base rate',
-            callbacks: {
-              title: (items) => (items[0] ? formatInstant(new Date(items[0].parsed.x ?? 0).toISOString(), zone) : ''),
-              label: (item) => `${item.dataset.label ?? ''}: ${formatPercent(item.parsed.y)}`,
-            },
-          },
-        },
-      },
+      options: historyOptions({
+        colors,
+        zone,
+        x: timeScale(series, zone, colors),
+        y: chanceScale('Probability', colors),
+        tooltipFilter: (item: TooltipItem<'line'>) => !(item.raw as XY).hold && item.dataset.label !== 'Base rate',
+        tooltipLabel: (item) => `${item.dataset.label ?? ''}: ${formatPercent(item.parsed.y)}`,
+      }),
       plugins: [verticalMarkers(markers, colors.font, colors.surface)],
-    });
-    return () => chart.destroy();
-  }, [data, legend, scheme, zone]);
+    };
+  }, [data, legend, zone]);
 
   return (
-    <figure className="history-chart" data-testid="history-chart" data-points={JSON.stringify(data)}>
-      <figcaption className="history-chart__caption">
-        Probability history
-        {data.glide.length ? (
-          <span className="history-chart__note">
-            {' '}
-            · dotted: the glide path, where your latest forecast drifts by the close if nothing happens (constant hazard)
-          </span>
-        ) : null}
-      </figcaption>
-      <div className="history-chart__canvas">
-        <canvas ref={canvasRef} role="img" aria-label={describe(data)} />
-      </div>
-      <ChartLegend items={legend} />
-    </figure>
+    <HistoryFigure
+      points={data}
+      canvasRef={canvasRef}
+      description={describe(data)}
+      legend={legend}
+      caption={
+        <>
+          Probability history
+          {data.glide.length ? (
+            <span className="history-chart__note">
+              {' '}
+              · dotted: the glide path, where your latest forecast drifts by the close if nothing happens (constant hazard)
+            </span>
+          ) : null}
+        </>
+      }
+    />
   );
 }

@@ -6,27 +6,15 @@
  * horizontal line. A date question's values are days, drawn on a date axis.
  * `data-points` carries the plotted data as JSON.
  */
-import { useEffect, useMemo, useRef } from 'react';
-import {
-  Chart,
-  Filler,
-  LinearScale,
-  LineController,
-  LineElement,
-  PointElement,
-  Tooltip,
-  type ChartDataset,
-  type Plugin,
-  type TooltipItem,
-} from 'chart.js';
-import { formatInstant } from '../dates';
+import { useMemo } from 'react';
+import { Chart, Filler, LinearScale, LineController, LineElement, PointElement, Tooltip, type ChartDataset, type TooltipItem } from 'chart.js';
 import { levelName, formatValue } from '../forecastEntry/numericEntry';
-import { useColorScheme } from '../hooks';
-import { ChartLegend, DOTTED, lineStyle, type LegendItem, type Marker } from './Legend';
+import { cssColor, withAlpha } from './colors';
+import { historyOptions, HistoryFigure, timeScale, useHistoryChart } from './historyChartKit';
+import { intervalBars } from './intervalBars';
+import { DOTTED, lineStyle, type LegendItem, type Marker } from './Legend';
 import { verticalMarkers, type VerticalMarker } from './markers';
-import { cssColor, timeScale, typedPalette } from './typedChartKit';
-import { numericSeries, type NumericHistoryInput, type NumericSeries, type TimeXY } from './typedSeries';
-import { withAlpha } from '../screens/scorecard/chartKit';
+import { numericSeries, type NumericHistoryInput, type TimeXY } from './typedSeries';
 import '../tools/tools.css';
 import './typedCharts.css';
 
@@ -71,48 +59,10 @@ export function numericLegend(input: NumericHistoryInput): LegendItem[] {
   ];
 }
 
-/** Each reference's range as a capped vertical whisker through its marker. */
-function whiskers(series: NumericSeries, color: string): Plugin<'line'> {
-  return {
-    id: 'forelogReferenceWhiskers',
-    // After the datasets, so the range bands do not hide the whiskers.
-    afterDatasetsDraw(chart) {
-      const { ctx, scales } = chart;
-      const x = scales.x;
-      const y = scales.y;
-      if (!x || !y) return;
-      ctx.save();
-      ctx.strokeStyle = color;
-      ctx.lineWidth = 1.5;
-      for (const ref of series.references) {
-        for (const p of ref.points) {
-          const px = x.getPixelForValue(p.x);
-          const top = y.getPixelForValue(p.high);
-          const bottom = y.getPixelForValue(p.low);
-          ctx.beginPath();
-          ctx.moveTo(px, top);
-          ctx.lineTo(px, bottom);
-          ctx.moveTo(px - 5, top);
-          ctx.lineTo(px + 5, top);
-          ctx.moveTo(px - 5, bottom);
-          ctx.lineTo(px + 5, bottom);
-          ctx.stroke();
-        }
-      }
-      ctx.restore();
-    },
-  };
-}
-
 export function NumericHistoryChart({ input, timeZone }: { input: NumericHistoryInput; timeZone: string }) {
-  const scheme = useColorScheme();
-  const canvasRef = useRef<HTMLCanvasElement>(null);
   const legend = useMemo(() => numericLegend(input), [input]);
 
-  useEffect(() => {
-    const canvas = canvasRef.current;
-    if (!canvas) return;
-    const colors = typedPalette();
+  const canvasRef = useHistoryChart<TimeXY[]>((colors) => {
     const series = numericSeries(input, Date.now());
     const band = cssColor('--chart-band');
     const show = (v: number) => formatValue(v, input.value_kind, input.unit);
@@ -159,58 +109,51 @@ export function NumericHistoryChart({ input, timeZone }: { input: NumericHistory
       markers.push({ at: series.axis.resolvedMs, label: input.void ? 'Resolved Void' : `Resolved: ${show(input.value ?? 0)}`, color: colors.resolved });
     }
     const date = input.value_kind === 'date';
-    const chart = new Chart<'line', TimeXY[]>(canvas, {
+    return {
       type: 'line',
       data: { datasets },
-      options: {
-        animation: false,
-        responsive: true,
-        maintainAspectRatio: false,
-        interaction: { mode: 'nearest', intersect: false, axis: 'x' },
-        font: { family: colors.font },
-        scales: {
-          x: timeScale(series.axis, timeZone, colors),
-          y: {
-            type: 'linear',
-            suggestedMin: series.yMin,
-            suggestedMax: series.yMax,
-            ticks: {
-              color: colors.text,
-              // A date axis ticks on whole days.
-              ...(date ? { precision: 0 } : {}),
-              callback: (value) => (date ? formatValue(Math.round(Number(value)), 'date', '') : String(Number(Number(value).toPrecision(6)))),
-            },
-            grid: { color: colors.grid },
-            border: { color: colors.grid },
-            title: { display: true, text: date ? 'Date' : input.unit || 'Value', color: colors.text },
+      options: historyOptions({
+        colors,
+        zone: timeZone,
+        x: timeScale(series.axis, timeZone, colors),
+        y: {
+          type: 'linear',
+          suggestedMin: series.yMin,
+          suggestedMax: series.yMax,
+          ticks: {
+            color: colors.text,
+            // A date axis ticks on whole days.
+            ...(date ? { precision: 0 } : {}),
+            callback: (value) => (date ? formatValue(Math.round(Number(value)), 'date', '') : String(Number(Number(value).toPrecision(6)))),
           },
+          grid: { color: colors.grid },
+          border: { color: colors.grid },
+          title: { display: true, text: date ? 'Date' : input.unit || 'Value', color: colors.text },
         },
-        plugins: {
-          legend: { display: false },
-          tooltip: {
-            filter: (item: TooltipItem<'line'>) => !(item.raw as TimeXY).hold && item.dataset.label !== 'Outcome',
-            callbacks: {
-              title: (items) => (items[0] ? formatInstant(new Date(items[0].parsed.x ?? 0).toISOString(), timeZone) : ''),
-              label: (item) => `${item.dataset.label ?? ''}: ${show(item.parsed.y ?? 0)}`,
-            },
-          },
-        },
-      },
-      plugins: [whiskers(series, cssColor('--chart-reference')), verticalMarkers(markers, colors.font, colors.surface)],
-    });
-    return () => chart.destroy();
-  }, [input, legend, scheme, timeZone]);
+        tooltipFilter: (item: TooltipItem<'line'>) => !(item.raw as TimeXY).hold && item.dataset.label !== 'Outcome',
+        tooltipLabel: (item) => `${item.dataset.label ?? ''}: ${show(item.parsed.y ?? 0)}`,
+      }),
+      plugins: [
+        // Each reference's range as a capped whisker through its marker, over the range bands.
+        intervalBars<'line'>('forelogReferenceWhiskers', 'over', () => series.references.flatMap((ref) => ref.points), cssColor('--chart-reference')),
+        verticalMarkers(markers, colors.font, colors.surface),
+      ],
+    };
+  }, [input, legend, timeZone]);
 
   return (
-    <figure className="history-chart" data-testid="history-chart" data-kind="numeric" data-points={JSON.stringify(input)}>
-      <figcaption className="history-chart__caption">
-        {input.levels.length > 1 ? `Your ${rangeName(input.levels)} range and median over time` : 'Your median over time'}
-        {input.unit && input.value_kind === 'number' ? <span className="history-chart__note"> · in {input.unit}</span> : null}
-      </figcaption>
-      <div className="history-chart__canvas">
-        <canvas ref={canvasRef} role="img" aria-label={describe(input)} />
-      </div>
-      <ChartLegend items={legend} />
-    </figure>
+    <HistoryFigure
+      kind="numeric"
+      points={input}
+      canvasRef={canvasRef}
+      description={describe(input)}
+      legend={legend}
+      caption={
+        <>
+          {input.levels.length > 1 ? `Your ${rangeName(input.levels)} range and median over time` : 'Your median over time'}
+          {input.unit && input.value_kind === 'number' ? <span className="history-chart__note"> · in {input.unit}</span> : null}
+        </>
+      }
+    />
   );
 }

@@ -6,6 +6,7 @@
  */
 import type { FormEvent, ReactNode } from 'react';
 import { FieldProblemsContext, type FormState } from '../forms';
+import { Button } from './Button';
 import { useDiscardGuard } from './Dialog';
 import { ErrorBanner } from './ErrorBanner';
 
@@ -29,5 +30,17 @@ export function Form({ form, label, onSubmit, dirty, className = 'form', childre
         {children}
       </form>
     </FieldProblemsContext.Provider>
+  );
+}
+
+/** The foot of a form: Cancel (`cancel` asks first when typed text would be lost) and the submit button, busy while saving. */
+export function FormActions({ cancel, busy, children }: { cancel: () => void; busy: boolean; children: ReactNode }) {
+  return (
+    <div className="form__actions">
+      <Button onClick={cancel}>Cancel</Button>
+      <Button type="submit" variant="primary" busy={busy}>
+        {children}
+      </Button>
+    </div>
   );
 }

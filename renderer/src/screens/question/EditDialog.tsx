@@ -3,13 +3,10 @@
  * the title cannot shift a stored time by rounding it to the minute.
  */
 import { useMemo, useState, type FormEvent } from 'react';
-import { updateQuestionRequest } from '../../../../shared/contract';
 import type { Costs, BinaryQuestion, QuestionKind } from '../../../../shared/domain';
-import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { useCloseRequest } from '../../components/Dialog';
+import { Form, FormActions } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { Select } from '../../components/Select';
@@ -19,19 +16,10 @@ import { TextField } from '../../components/TextField';
 import { isoToLocal, localToIso, timeZoneNames, zoneName } from '../../dates';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
+import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges } from './questionForms';
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from './labels';
-
-interface Props {
-  question: BinaryQuestion;
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
-}
-
-type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
 
 const LABELS = {
   title: 'Question',
@@ -49,13 +37,7 @@ const LABELS = {
 };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS, prefix: 'changes', aliases: { costs: 'costs.false_alarm' } };
 
-export function EditDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Edit question" size="lg">
-      <EditForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const EditDialog = questionDialog(EditForm, () => ({ title: 'Edit question', size: 'lg' }));
 
 function numberOrBlank(text: string): number | null | 'invalid' {
   if (text.trim() === '') return null;
@@ -70,7 +52,7 @@ function windowDays(openedLocal: string, closesLocal: string, timeZone: string):
   return opened && closes ? (Date.parse(closes) - Date.parse(opened)) / 86_400_000 : null;
 }
 
-function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
+function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<BinaryQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const initialOpened = isoToLocal(q.opened_at, q.time_zone);
@@ -97,7 +79,7 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
-    const changes: Changes = {};
+    const changes: QuestionChanges = {};
     if (title !== q.title) changes.title = title;
     if (title.trim() === '') found.title = 'write the question you are forecasting';
     if (rule !== q.rule) changes.rule = rule;
@@ -148,17 +130,7 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
     const closes = changes.closes_at ?? q.closes_at;
     if (!found.opened_at && !found.closes_at && Date.parse(closes) <= Date.parse(opened)) found.closes_at = 'must be after the opening time';
 
-    const request = { id: q.id, changes };
-    if (!form.check(found, { schema: updateQuestionRequest, request, placement: PLACEMENT })) return;
-    if (Object.keys(changes).length === 0) {
-      onClose();
-      return;
-    }
-    let undo = '';
-    const ok = await form.submit(async () => {
-      undo = (await api.updateQuestion(request)).undo;
-    }, PLACEMENT);
-    if (ok) onSaved('Question saved.', undo);
+    await saveQuestionChanges({ form, id: q.id, changes, found, placement: PLACEMENT, onClose, onSaved });
   }
 
   return (
@@ -211,12 +183,9 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
         hint="Empty: the diary’s default. 0: no check-in nudges."
         error={form.error('checkin_days')}
       />
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          Save changes
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        Save changes
+      </FormActions>
     </Form>
   );
 }

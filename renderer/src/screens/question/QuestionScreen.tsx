@@ -3,26 +3,19 @@
  * the history of its resolution, and everything that can be done to it. Each change reloads
  * the page's data and says so in a toast whose Undo takes it back.
  */
-import { useState } from 'react';
 import type { BinaryQuestion, Settings } from '../../../../shared/domain';
 import { questionStatus } from '../../../../shared/domain';
 import { api } from '../../api/client';
-import { diaryChanged } from '../../api/changes';
 import { RequestError, describeError } from '../../api/errors';
 import { useLoad } from '../../api/useLoad';
 import { HistoryChart } from '../../chart/HistoryChart';
-import { Badge } from '../../components/Badge';
-import { Button } from '../../components/Button';
-import { ConfirmDialog } from '../../components/ConfirmDialog';
 import { EmptyState } from '../../components/EmptyState';
 import { ErrorBanner } from '../../components/ErrorBanner';
-import { OUTCOME_LABELS, StatusPill } from '../../components/StatusPill';
-import { TextArea } from '../../components/TextArea';
-import { formatInstant, zoneName } from '../../dates';
-import { useUndoToast } from '../../forgiving/undo';
+import { OUTCOME_LABELS } from '../../components/StatusPill';
+import { formatInstant } from '../../dates';
 import { useDocumentTitle } from '../../hooks';
 import { formatPercent } from '../../percent';
-import { hrefTo, navigate, questionPath } from '../../routing';
+import { hrefTo } from '../../routing';
 import { ReferenceLeadNote } from '../../tools/ReferenceLeadNote';
 import { StaleNotice } from '../../tools/StaleNotice';
 import type { ScreenProps } from '../registry';
@@ -30,15 +23,25 @@ import { EditDialog } from './EditDialog';
 import { HistoryTables } from './HistoryTables';
 import { KIND_HINTS, KIND_LABELS } from './labels';
 import { lastForecast } from './questionFacts';
+import {
+  CheckinsFact,
+  DefinitionCard,
+  Figure,
+  HistorySection,
+  QuestionConfirmations,
+  QuestionHead,
+  ResolutionPanel,
+  RuleFact,
+  TagsFact,
+  useQuestionActions,
+  WindowFact,
+} from './questionPage';
 import { ReferenceDialog } from './ReferenceDialog';
 import { ResolutionHistory } from './ResolutionHistory';
 import { ResolveDialog } from './ResolveDialog';
 import { TypedQuestionPage } from './TypedQuestionPage';
 import { ReviseDialog } from './ReviseDialog';
 import { SnoozeNote } from './SnoozeNote';
-
-type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
-type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
 
 export function QuestionScreen({ params }: ScreenProps) {
   const id = params.id ?? '';
@@ -68,97 +71,27 @@ export function QuestionScreen({ params }: ScreenProps) {
 }
 
 function QuestionPage({ question: q, settings }: { question: BinaryQuestion; settings: Settings }) {
-  const undoToast = useUndoToast();
-  const [dialog, setDialog] = useState<DialogName | null>(null);
-  const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);
-  const [reopenNote, setReopenNote] = useState('');
-  const close = () => setDialog(null);
-
+  const actions = useQuestionActions(q);
+  const { dialog, close, saved, pendingDelete } = actions;
   const status = questionStatus(Date.parse(q.closes_at), q.resolution?.outcome ?? null, Date.now(), settings.closing_soon_hours);
   const last = lastForecast(q);
   const lastReference = [...q.references].sort((a, b) => Date.parse(a.at) - Date.parse(b.at)).at(-1);
   const zone = q.time_zone;
-
-  function saved(message: string, undo: string) {
-    setDialog(null);
-    setPendingDelete(null);
-    diaryChanged();
-    undoToast({ message, undo, title: q.title });
-  }
-
-  async function deleteQuestion() {
-    const { undo } = await api.deleteQuestion({ id: q.id });
-    // Leave the page before announcing the change, so it does not reload a deleted question.
-    navigate('questions');
-    diaryChanged();
-    // Undo brings the question back whole; the page it was deleted from comes back with it.
-    undoToast({ message: `Deleted “${q.title}”.`, undo, title: q.title, afterUndo: () => navigate(questionPath(q.id)) });
-  }
-
-  async function deletePending() {
-    if (!pendingDelete) return;
-    const { undo } = pendingDelete.kind === 'forecast' ? await api.deleteForecast({ id: pendingDelete.id }) : await api.deleteReference({ id: pendingDelete.id });
-    saved(pendingDelete.kind === 'forecast' ? 'Revision deleted.' : 'Reference forecast deleted.', undo);
-  }
-
-  async function reopen() {
-    const { undo } = await api.reopenQuestion({ id: q.id, ...(reopenNote.trim() ? { note: reopenNote } : {}) });
-    setReopenNote('');
-    saved('Reopened; the question awaits a resolution again.', undo);
-  }
 
   const pendingForecast = pendingDelete?.kind === 'forecast' ? q.forecasts.find((f) => f.id === pendingDelete.id) : undefined;
   const pendingReference = pendingDelete?.kind === 'reference' ? q.references.find((r) => r.id === pendingDelete.id) : undefined;
 
   return (
     <div className="screen question-page">
-      <nav aria-label="Breadcrumb" className="breadcrumb">
-        <a href={hrefTo('questions')}>Questions</a>
-      </nav>
-      <header className="question-head">
-        <div className="question-head__title">
-          <h1>{q.title}</h1>
-          <StatusPill status={status} outcome={q.resolution?.outcome ?? null} />
-        </div>
-        <div className="toolbar" aria-label="Question actions" role="group">
-          {q.resolution === null ? (
-            <>
-              <Button variant="primary" onClick={() => setDialog('revise')}>
-                Revise
-              </Button>
-              <Button onClick={() => setDialog('reference')}>Add reference</Button>
-              <Button onClick={() => setDialog('resolve')}>Resolve</Button>
-            </>
-          ) : null}
-          <Button onClick={() => setDialog('edit')}>Edit</Button>
-          <Button variant="ghost" className="btn--danger-text" onClick={() => setDialog('delete')}>
-            Delete
-          </Button>
-        </div>
-      </header>
+      <QuestionHead q={q} status={status} actions={actions} />
 
-      {q.resolution ? (
-        <section className="resolution-panel" aria-labelledby="resolution-heading" data-outcome={q.resolution.outcome}>
-          <div>
-            <h2 id="resolution-heading" className="resolution-panel__title">
-              Resolved {OUTCOME_LABELS[q.resolution.outcome]}
-              <span className="resolution-panel__when"> on {formatInstant(q.resolution.at, zone)}</span>
-            </h2>
-            {q.resolution.note ? <p className="note">{q.resolution.note}</p> : null}
-            {q.resolution.outcome === 'void' ? <p className="muted">Void questions are never scored.</p> : null}
-          </div>
-          <div className="toolbar">
-            <Button onClick={() => setDialog('resolve')}>Correct</Button>
-            <Button onClick={() => setDialog('reopen')}>Reopen</Button>
-          </div>
-        </section>
-      ) : null}
+      {q.resolution ? <ResolutionPanel q={q} tone={q.resolution.outcome} heading={`Resolved ${OUTCOME_LABELS[q.resolution.outcome]}`} actions={actions} /> : null}
 
       <ResolutionHistory question={q} />
 
       <SnoozeNote question={q} />
 
-      <StaleNotice question={q} settings={settings} onRevise={() => setDialog('revise')} />
+      <StaleNotice question={q} settings={settings} onRevise={() => actions.open('revise')} />
 
       <section className="figures" aria-label="Key figures">
         <Figure label="Your forecast" value={formatPercent(last?.p)} detail={last ? `since ${formatInstant(last.at, zone, false)}` : 'none yet'} tone="ink" />
@@ -173,122 +106,61 @@ function QuestionPage({ question: q, settings }: { question: BinaryQuestion; set
 
       <ReferenceLeadNote question={q} />
 
-      <section className="card" aria-labelledby="definition-heading">
-        <h2 id="definition-heading" className="card__title">
-          Definition
-        </h2>
-        <dl className="facts">
-          <dt>Resolution rule</dt>
-          <dd className="note">{q.rule || <span className="muted">Not written yet — add it with Edit.</span>}</dd>
-          <dt>Kind</dt>
-          <dd>
-            {KIND_LABELS[q.kind]} <span className="muted">({KIND_HINTS[q.kind]})</span>
-          </dd>
-          <dt>Window</dt>
-          <dd>
-            <time dateTime={q.opened_at}>{formatInstant(q.opened_at, zone)}</time> → <time dateTime={q.closes_at}>{formatInstant(q.closes_at, zone)}</time>{' '}
-            <span className="muted">({zoneName(zone)})</span>
-          </dd>
-          <dt>Base rate</dt>
-          <dd>
-            {q.base_rate === null ? <span className="muted">Not stated</span> : formatPercent(q.base_rate)}
-            {q.base_rate_note ? <span className="muted"> — {q.base_rate_note}</span> : null}
-          </dd>
-          <dt>Tags</dt>
-          <dd>
-            {q.tags.length ? (
-              <span className="tag-row">
-                {q.tags.map((t) => (
-                  <Badge key={t}>{t}</Badge>
-                ))}
-              </span>
-            ) : (
-              <span className="muted">None</span>
-            )}
-          </dd>
-          <dt>Costs</dt>
-          <dd>
-            {q.costs ? (
-              <>
-                False-alarm cost {q.costs.false_alarm} · Miss cost {q.costs.miss}
-              </>
-            ) : (
-              <span className="muted">
-                Diary defaults (false-alarm cost {settings.default_false_alarm_cost} · miss cost {settings.default_miss_cost})
-              </span>
-            )}
-          </dd>
-          <dt>Check-ins</dt>
-          <dd>
-            {q.checkin_days === null ? (
-              <span className="muted">Diary default (every {settings.default_checkin_days} days)</span>
-            ) : q.checkin_days === 0 ? (
-              'None'
-            ) : (
-              `Every ${q.checkin_days} day${q.checkin_days === 1 ? '' : 's'}`
-            )}
-          </dd>
-        </dl>
-      </section>
+      <DefinitionCard>
+        <RuleFact q={q} />
+        <dt>Kind</dt>
+        <dd>
+          {KIND_LABELS[q.kind]} <span className="muted">({KIND_HINTS[q.kind]})</span>
+        </dd>
+        <WindowFact q={q} />
+        <dt>Base rate</dt>
+        <dd>
+          {q.base_rate === null ? <span className="muted">Not stated</span> : formatPercent(q.base_rate)}
+          {q.base_rate_note ? <span className="muted"> — {q.base_rate_note}</span> : null}
+        </dd>
+        <TagsFact q={q} />
+        <dt>Costs</dt>
+        <dd>
+          {q.costs ? (
+            <>
+              False-alarm cost {q.costs.false_alarm} · Miss cost {q.costs.miss}
+            </>
+          ) : (
+            <span className="muted">
+              Diary defaults (false-alarm cost {settings.default_false_alarm_cost} · miss cost {settings.default_miss_cost})
+            </span>
+          )}
+        </dd>
+        <CheckinsFact q={q} settings={settings} />
+      </DefinitionCard>
 
-      <section className="history" aria-labelledby="history-heading">
-        <h2 id="history-heading">Forecast history</h2>
-        <div className="history__grid">
-          <div className="card history__chart">
-            <HistoryChart question={q} />
-          </div>
+      <HistorySection
+        chart={<HistoryChart question={q} />}
+        tables={
           <HistoryTables
             question={q}
-            onDeleteForecast={(id) => setPendingDelete({ kind: 'forecast', id })}
-            onDeleteReference={(id) => setPendingDelete({ kind: 'reference', id })}
+            onDeleteForecast={(id) => actions.setPendingDelete({ kind: 'forecast', id })}
+            onDeleteReference={(id) => actions.setPendingDelete({ kind: 'reference', id })}
           />
-        </div>
-      </section>
+        }
+      />
 
       <ReviseDialog question={q} open={dialog === 'revise'} onClose={close} onSaved={saved} />
       <ReferenceDialog question={q} open={dialog === 'reference'} onClose={close} onSaved={saved} />
       <ResolveDialog question={q} open={dialog === 'resolve'} onClose={close} onSaved={saved} />
       <EditDialog question={q} open={dialog === 'edit'} onClose={close} onSaved={saved} />
-      <ConfirmDialog open={dialog === 'delete'} title="Delete this question?" confirmLabel="Delete question" onConfirm={deleteQuestion} onClose={close}>
-        <p>
-          “{q.title}” will be removed with its {q.forecasts.length} forecast{q.forecasts.length === 1 ? '' : 's'} and {q.references.length} reference
-          forecast{q.references.length === 1 ? '' : 's'}. You can take it back with Undo in the message that follows.
-        </p>
-      </ConfirmDialog>
-      <ConfirmDialog open={dialog === 'reopen'} title="Reopen this question?" confirmLabel="Reopen" tone="primary" onConfirm={reopen} onClose={close}>
-        <p>
-          The recorded resolution ({q.resolution ? OUTCOME_LABELS[q.resolution.outcome] : ''}) is moved to the question’s resolution history, and the question waits
-          for a resolution again.
-        </p>
-        <TextArea label="Why reopen" value={reopenNote} onChange={setReopenNote} rows={2} hint="Optional; kept in the history beside the resolution it removes." />
-      </ConfirmDialog>
-      <ConfirmDialog
-        open={pendingDelete !== null}
-        title={pendingDelete?.kind === 'reference' ? 'Delete this reference forecast?' : 'Delete this revision?'}
-        confirmLabel="Delete"
-        onConfirm={deletePending}
-        onClose={() => setPendingDelete(null)}
-      >
-        <p>
-          {pendingForecast
+      <QuestionConfirmations
+        q={q}
+        actions={actions}
+        recorded={q.resolution ? OUTCOME_LABELS[q.resolution.outcome] : ''}
+        pendingText={
+          pendingForecast
             ? `Your ${formatPercent(pendingForecast.p)} of ${formatInstant(pendingForecast.at, zone)} will be removed from the history. Undo in the message that follows brings it back.`
             : pendingReference
               ? `${pendingReference.source}’s ${formatPercent(pendingReference.p)} of ${formatInstant(pendingReference.at, zone)} will be removed. Undo in the message that follows brings it back.`
-              : ''}
-        </p>
-      </ConfirmDialog>
-    </div>
-  );
-}
-
-function Figure({ label, value, detail, tone }: { label: string; value: string; detail: string; tone?: 'ink' | 'amber' }) {
-  return (
-    <div className={`figure-tile ${tone ? `figure-tile--${tone}` : ''}`}>
-      <span className="figure-tile__label">{label}</span>
-      <span className="figure-tile__value">{value}</span>
-      <span className="figure-tile__detail">
-        {detail}
-      </span>
+              : ''
+        }
+      />
     </div>
   );
 }

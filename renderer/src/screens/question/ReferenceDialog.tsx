@@ -3,37 +3,23 @@ import { useId, useState, type FormEvent } from 'react';
 import { referenceRequest } from '../../../../shared/contract';
 import type { Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { useCloseRequest } from '../../components/Dialog';
+import { Form, FormActions } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextField } from '../../components/TextField';
 import { localToIso } from '../../dates';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
 import { percentToProbability } from '../../percent';
+import { questionDialog, type QuestionFormProps } from './questionForms';
 
-interface Props {
-  question: Question;
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
-}
-
-export function ReferenceDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Add a reference forecast" description={question.title}>
-      <ReferenceForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const ReferenceDialog = questionDialog(ReferenceForm, (question) => ({ title: 'Add a reference forecast', description: question.title }));
 
 const LABELS = { p: 'Their probability', source: 'Source', at: 'As of' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
-function ReferenceForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+function ReferenceForm({ question, onClose, onSaved }: QuestionFormProps<Question>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const listId = useId();
@@ -83,12 +69,9 @@ function ReferenceForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
         </datalist>
       ) : null}
       <DateTimeField label="As of" local={atLocal} onLocalChange={setAtLocal} timeZone={question.time_zone} hint="Leave empty for now." error={form.error('at')} />
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          Add reference
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        Add reference
+      </FormActions>
     </Form>
   );
 }

@@ -7,10 +7,9 @@ import { useState, type FormEvent } from 'react';
 import { forecastRequest } from '../../../../shared/contract';
 import type { BinaryQuestion } from '../../../../shared/domain';
 import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { useCloseRequest } from '../../components/Dialog';
+import { Form, FormActions } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { TextArea } from '../../components/TextArea';
 import { localToIso } from '../../dates';
@@ -21,27 +20,14 @@ import { LensesEditor } from '../../tools/LensesEditor';
 import { checkLenses, type LensDraft } from '../../tools/lenses';
 import { RecalibrationHint } from '../../tools/RecalibrationHint';
 import { lastForecast } from './questionFacts';
+import { questionDialog, type QuestionFormProps } from './questionForms';
 
-interface Props {
-  question: BinaryQuestion;
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
-}
-
-export function ReviseDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Revise your forecast" description={question.title}>
-      <ReviseForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const ReviseDialog = questionDialog(ReviseForm, (question) => ({ title: 'Revise your forecast', description: question.title }));
 
 const LABELS = { p: 'Your probability', note: 'What changed', at: 'As of', lenses: 'Lenses' };
 const PLACEMENT = { fields: ['p', 'note', 'at'], labels: LABELS };
 
-function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+function ReviseForm({ question, onClose, onSaved }: QuestionFormProps<BinaryQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const [initialP] = useState(() => percentText(lastForecast(question)?.p));
@@ -101,12 +87,9 @@ function ReviseForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
         hint="Leave empty for now; set it to back-date a call you made earlier."
         error={form.error('at')}
       />
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          Save revision
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        Save revision
+      </FormActions>
     </Form>
   );
 }

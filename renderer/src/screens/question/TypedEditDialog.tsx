@@ -5,12 +5,9 @@
  * creation, because every revision is written over them; the dialog says so.
  */
 import { useState, type FormEvent } from 'react';
-import { updateQuestionRequest } from '../../../../shared/contract';
-import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { useCloseRequest } from '../../components/Dialog';
+import { Form, FormActions } from '../../components/Form';
 import { TagInput } from '../../components/TagInput';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
@@ -18,20 +15,11 @@ import { isoToLocal, localToIso } from '../../dates';
 import { ChoiceForecastInput } from '../../forecastEntry/ChoiceForecastInput';
 import type { ChoiceProblems } from '../../forecastEntry/choiceEntry';
 import { useForm } from '../../forms';
+import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuestionChanges } from './questionForms';
 import { percentText } from '../../percent';
 import { levelsText, readOptionBaseRates, readOptions } from '../../questionTypes/definition';
 import { OptionsEditor } from '../../questionTypes/OptionsEditor';
 import type { TypedQuestion } from './TypedEntryDialog';
-
-interface Props {
-  question: TypedQuestion;
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
-}
-
-type Changes = Parameters<typeof api.updateQuestion>[0]['changes'];
 
 const LABELS = {
   title: 'Question',
@@ -47,17 +35,11 @@ const LABELS = {
 };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS, prefix: 'changes' };
 
-export function TypedEditDialog({ question, open, onClose, onSaved }: Props) {
-  return (
-    <Dialog open={open} onClose={onClose} title="Edit question" size="lg">
-      <EditForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const TypedEditDialog = questionDialog(EditForm, () => ({ title: 'Edit question', size: 'lg' }));
 
 const same = (a: readonly unknown[] | null, b: readonly unknown[] | null) => JSON.stringify(a) === JSON.stringify(b);
 
-function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
+function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<TypedQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const initialCloses = isoToLocal(q.closes_at, q.time_zone);
@@ -82,7 +64,7 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
     const found: Record<string, string> = {};
-    const changes: Changes = {};
+    const changes: QuestionChanges = {};
     if (title !== q.title) changes.title = title;
     if (title.trim() === '') found.title = 'write the question you are forecasting';
     if (rule !== q.rule) changes.rule = rule;
@@ -108,17 +90,7 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
     } else if (unit !== q.unit) {
       changes.unit = unit;
     }
-    const request = { id: q.id, changes };
-    if (!form.check(found, { schema: updateQuestionRequest, request, placement: PLACEMENT })) return;
-    if (Object.keys(changes).length === 0) {
-      onClose();
-      return;
-    }
-    let undo = '';
-    const ok = await form.submit(async () => {
-      undo = (await api.updateQuestion(request)).undo;
-    }, PLACEMENT);
-    if (ok) onSaved('Question saved.', undo);
+    await saveQuestionChanges({ form, id: q.id, changes, found, placement: PLACEMENT, onClose, onSaved });
   }
 
   return (
@@ -163,12 +135,9 @@ function EditForm({ question: q, onClose, onSaved }: Omit<Props, 'open'>) {
         <TextField label="Unit" value={unit} onChange={setUnit} hint="Shown beside every value, e.g. weeks or £k." error={form.error('unit')} />
       )}
       <TagInput label="Tags" tags={tags} onChange={setTags} error={form.error('tags')} />
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          Save changes
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        Save changes
+      </FormActions>
     </Form>
   );
 }

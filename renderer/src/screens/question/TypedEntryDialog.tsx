@@ -9,10 +9,9 @@ import { forecastRequest, referenceRequest } from '../../../../shared/contract';
 import type { ChoiceQuestion, NumericQuestion } from '../../../../shared/domain';
 import { fromStoredValue, toStoredValue } from '../../../../shared/numeric-value';
 import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
 import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { Form, FormActions } from '../../components/Form';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { localToIso } from '../../dates';
@@ -25,17 +24,13 @@ import { NumericForecastInput } from '../../forecastEntry/NumericForecastInput';
 import { formatValue, readNumericForecast, type NumericProblems } from '../../forecastEntry/numericEntry';
 import { choiceSummary } from '../../questionTypes/summaries';
 import { latestEntry } from './typedFacts';
+import type { QuestionDialogProps } from './questionForms';
 
 export type TypedQuestion = ChoiceQuestion | NumericQuestion;
 
-interface Props {
-  question: TypedQuestion;
+interface Props extends QuestionDialogProps<TypedQuestion> {
   /** A revision of your own forecast, or a reference forecast. */
   mode: 'forecast' | 'reference';
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
 }
 
 export function TypedEntryDialog({ question, mode, open, onClose, onSaved }: Props) {
@@ -156,12 +151,9 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
         hint="Leave empty for now; set it to record an earlier call."
         error={form.error('at')}
       />
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          {mode === 'forecast' ? 'Save revision' : 'Add reference'}
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        {mode === 'forecast' ? 'Save revision' : 'Add reference'}
+      </FormActions>
     </Form>
   );
 }

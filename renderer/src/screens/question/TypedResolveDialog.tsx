@@ -9,40 +9,20 @@ import { useState, type FormEvent } from 'react';
 import { resolveRequest } from '../../../../shared/contract';
 import { fromStoredValue, toStoredValue } from '../../../../shared/numeric-value';
 import { api } from '../../api/client';
-import { Button } from '../../components/Button';
 import { ChoiceGroup } from '../../components/ChoiceGroup';
 import { DateField } from '../../components/DateField';
-import { DateTimeField } from '../../components/DateTimeField';
-import { Dialog, useCloseRequest } from '../../components/Dialog';
+import { useCloseRequest } from '../../components/Dialog';
 import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
-import { TextArea } from '../../components/TextArea';
-import { isoToLocal, localToIso } from '../../dates';
 import { formatValue, readValue } from '../../forecastEntry/numericEntry';
-import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
-import { typedTimeProblem } from '../../forgiving/timeChecks';
 import { useForm } from '../../forms';
+import { questionDialog, type QuestionFormProps, ResolutionNoteFields, resolveDialogFrame, useResolutionNotes, useSendResolution } from './questionForms';
 import type { TypedQuestion } from './TypedEntryDialog';
-
-interface Props {
-  question: TypedQuestion;
-  open: boolean;
-  onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
-}
 
 const LABELS = { outcome: 'Outcome', option: 'Outcome', value: 'Value', at: 'Resolved at', note: 'Note', correction_note: 'Why the correction' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
-export function TypedResolveDialog({ question, open, onClose, onSaved }: Props) {
-  const correcting = question.resolution !== null;
-  return (
-    <Dialog open={open} onClose={onClose} title={correcting ? 'Correct the resolution' : 'Resolve the question'} description={question.title}>
-      <ResolveForm question={question} onClose={onClose} onSaved={onSaved} />
-    </Dialog>
-  );
-}
+export const TypedResolveDialog = questionDialog(ResolveForm, resolveDialogFrame);
 
 /** The outcome choice as the radio group holds it: an option's index, "value", "void" or "". */
 function initialChoice(question: TypedQuestion): string {
@@ -52,22 +32,19 @@ function initialChoice(question: TypedQuestion): string {
   return r.outcome === 'option' ? String(r.option) : 'value';
 }
 
-function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
+function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<TypedQuestion>) {
   const form = useForm();
-  const ask = useAskFirst();
+  const send = useSendResolution(form, PLACEMENT);
   const cancel = useCloseRequest(onClose);
   const current = question.resolution;
+  const notes = useResolutionNotes(question);
   const [initial] = useState(() => ({
     choice: initialChoice(question),
     value: current?.outcome === 'value' ? String(current.value) : '',
-    local: isoToLocal(current?.at ?? new Date().toISOString(), question.time_zone),
   }));
   const [choice, setChoice] = useState(initial.choice);
   const [valueText, setValueText] = useState(initial.value);
-  const [atLocal, setAtLocal] = useState(initial.local);
-  const [note, setNote] = useState(current?.note ?? '');
-  const [why, setWhy] = useState('');
-  const dirty = choice !== initial.choice || valueText !== initial.value || atLocal !== initial.local || note !== (current?.note ?? '') || why !== '';
+  const dirty = choice !== initial.choice || valueText !== initial.value || notes.dirty;
 
   const choices =
     question.type === 'choice'
@@ -79,13 +56,8 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
 
   async function onSubmit(event: FormEvent) {
     event.preventDefault();
-    // As in the yes/no dialog: left as shown, the time is the stored one (or now, stamped by the diary).
-    const untouched = atLocal === initial.local;
-    const at = untouched ? (current?.at ?? null) : localToIso(atLocal, question.time_zone);
     const found: Record<string, string> = {};
-    if (!untouched && !at) found.at = 'enter when it resolved';
-    const atProblem = at && !untouched ? typedTimeProblem(at, 'a resolution', question) : null;
-    if (atProblem) found.at = atProblem;
+    const at = notes.readAt(found);
     let outcome: { outcome: 'void' } | { outcome: 'option'; option: number } | { outcome: 'value'; value: number | string } | null = null;
     if (choice === 'void') outcome = { outcome: 'void' };
     else if (question.type === 'choice') {
@@ -97,19 +69,14 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
       else if (read.value === null) found.value = question.value_kind === 'date' ? 'pick the date it happened' : 'enter the value it took';
       else outcome = { outcome: 'value', value: fromStoredValue(read.value, question.value_kind) };
     }
-    const extra = { note, ...(at ? { at } : {}), ...(current && why.trim() ? { correction_note: why } : {}) };
+    const extra = notes.extra(at);
     const request = { id: question.id, ...(outcome ?? { outcome: '' }), ...extra };
     if (!form.check(found, { schema: resolveRequest, request, placement: PLACEMENT }) || outcome === null) return;
     const chosen = outcome;
-    let undo: string | null = null;
-    const ok = await form.submit(async () => {
-      const answer = await sendAskingFirst(ask, { confirmLabel: `Resolve ${outcomeText(question, chosen)} anyway` }, (confirm) =>
-        api.resolveQuestion({ id: question.id, ...chosen, ...extra, ...(confirm ? { confirm } : {}) }),
-      );
-      undo = answer?.undo ?? null;
-    }, PLACEMENT);
-    // Declined at the warning: nothing changed, and the form stays as typed.
-    if (ok && undo !== null) onSaved(`${current ? 'Resolution corrected to' : 'Resolved:'} ${outcomeText(question, chosen)}.`, undo);
+    const undo = await send(`Resolve ${outcomeText(question, chosen)} anyway`, (confirm) =>
+      api.resolveQuestion({ id: question.id, ...chosen, ...extra, ...(confirm ? { confirm } : {}) }),
+    );
+    if (undo !== null) onSaved(`${current ? 'Resolution corrected to' : 'Resolved:'} ${outcomeText(question, chosen)}.`, undo);
   }
 
   return (
@@ -129,24 +96,7 @@ function ResolveForm({ question, onClose, onSaved }: Omit<Props, 'open'>) {
         )
       ) : null}
       {choice === 'void' ? <p className="field__hint">Void questions are never scored.</p> : null}
-      <DateTimeField label="Resolved at" local={atLocal} onLocalChange={setAtLocal} timeZone={question.time_zone} required error={form.error('at')} />
-      <TextArea label="Note" value={note} onChange={setNote} hint="What happened, and where you can check it." error={form.error('note')} />
-      {current ? (
-        <TextArea
-          label="Why the correction"
-          value={why}
-          onChange={setWhy}
-          rows={2}
-          hint="Optional. The resolution it replaces is kept in the question’s history with this reason."
-          error={form.error('correction_note')}
-        />
-      ) : null}
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          {current ? 'Save correction' : 'Resolve'}
-        </Button>
-      </div>
+      <ResolutionNoteFields question={question} notes={notes} form={form} cancel={cancel} />
     </Form>
   );
 }

@@ -9,10 +9,9 @@ import { createQuestionRequest } from '../../../../shared/contract';
 import type { QuestionKind } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
-import { Button } from '../../components/Button';
 import { DateTimeField } from '../../components/DateTimeField';
 import { Dialog, useCloseRequest } from '../../components/Dialog';
-import { Form } from '../../components/Form';
+import { Form, FormActions } from '../../components/Form';
 import { ProbabilityInput } from '../../components/ProbabilityInput';
 import { Select } from '../../components/Select';
 import { TagInput } from '../../components/TagInput';
@@ -238,12 +237,9 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
         />
         <TagInput label="Tags" tags={tags} onChange={setTags} suggestions={knownTags} error={form.error('tags')} />
       </div>
-      <div className="form__actions">
-        <Button onClick={cancel}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={form.busy}>
-          Save question
-        </Button>
-      </div>
+      <FormActions cancel={cancel} busy={form.busy}>
+        Save question
+      </FormActions>
     </Form>
   );
 }

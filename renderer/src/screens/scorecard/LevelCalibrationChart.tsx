@@ -5,10 +5,8 @@
  * Coverage per range and quantile calibration both use it.
  */
 import { memo, useRef, type ReactNode } from 'react';
-import type { Chart, ChartConfiguration, Plugin } from 'chart.js';
-import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
+import { CalibrationTable, calibrationLegend, useCalibrationChart } from './calibrationKit';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, cssColor, percentAxis, useChart, withAlpha, type Palette } from './chartKit';
 import { pct, pctInterval } from './format';
 
 export interface LevelRow {
@@ -21,38 +19,7 @@ export interface LevelRow {
   high: number;
 }
 
-interface Holder {
-  rows: readonly LevelRow[];
-}
-
-function wilsonBars(holder: Holder, color: () => string): Plugin<'scatter'> {
-  return {
-    id: 'forelogLevelWilsonBars',
-    beforeDatasetsDraw(chart: Chart<'scatter'>) {
-      const { ctx, scales } = chart;
-      const x = scales.x;
-      const y = scales.y;
-      if (!x || !y) return;
-      ctx.save();
-      ctx.strokeStyle = color();
-      ctx.lineWidth = 1.5;
-      for (const row of holder.rows) {
-        const px = x.getPixelForValue(row.stated);
-        const top = y.getPixelForValue(row.high);
-        const bottom = y.getPixelForValue(row.low);
-        ctx.beginPath();
-        ctx.moveTo(px, top);
-        ctx.lineTo(px, bottom);
-        ctx.moveTo(px - 5, top);
-        ctx.lineTo(px + 5, top);
-        ctx.moveTo(px - 5, bottom);
-        ctx.lineTo(px + 5, bottom);
-        ctx.stroke();
-      }
-      ctx.restore();
-    },
-  };
-}
+const LEGEND = calibrationLegend('Your forecasts (bar: 95% interval)');
 
 export interface LevelCalibrationChartProps {
   testId: string;
@@ -69,66 +36,17 @@ export interface LevelCalibrationChartProps {
 
 export const LevelCalibrationChart = memo(function LevelCalibrationChart({ testId, rows, caption, xTitle, yTitle, rowHeading, observedHeading, readings }: LevelCalibrationChartProps) {
   const canvasRef = useRef<HTMLCanvasElement>(null);
-  const holder = useRef<Holder>({ rows }).current;
-  const legend: LegendItem[] = [
-    { label: 'Perfect calibration', color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 },
-    { label: 'Your forecasts (bar: 95% interval)', color: '--chart-own', dash: null, marker: 'circle', markerOpacity: 0.55 },
-  ];
-
-  useChart<'scatter', LevelRow[]>(
-    canvasRef,
-    (colors: Palette): ChartConfiguration<'scatter'> => ({
-      type: 'scatter',
-      data: {
-        datasets: [
-          {
-            ...lineStyle(legend[0]!, cssColor),
-            data: [
-              { x: 0, y: 0 },
-              { x: 1, y: 1 },
-            ],
-            pointRadius: 0,
-            pointHoverRadius: 0,
-          },
-          {
-            ...lineStyle(legend[1]!, cssColor),
-            data: [],
-            backgroundColor: withAlpha(colors.own, 0.55),
-            borderColor: colors.own,
-            borderWidth: 2,
-            pointRadius: 7,
-            pointHoverRadius: 9,
-            clip: false,
-          },
-        ],
-      },
-      options: {
-        ...BASE_OPTIONS,
-        font: { family: colors.font },
-        layout: { padding: { top: 14, right: 14 } },
-        scales: { x: percentAxis(colors, xTitle, 0.1), y: percentAxis(colors, yTitle, 0.25) },
-        plugins: {
-          legend: { display: false },
-          tooltip: {
-            filter: (item) => item.datasetIndex === 1,
-            callbacks: {
-              title: (items) => holder.rows[items[0]?.dataIndex ?? -1]?.label ?? '',
-              label: (item) => {
-                const row = holder.rows[item.dataIndex];
-                return row ? `${pct(row.observed)} of ${row.n} (95% interval ${pctInterval(row.low, row.high)}); stated ${pct(row.stated)}` : '';
-              },
-            },
-          },
-        },
-      },
-      plugins: [wilsonBars(holder, () => colors.text)],
-    }),
-    (chart, data) => {
-      holder.rows = data;
-      chart.data.datasets[1]!.data = data.map((r) => ({ x: r.stated, y: r.observed }));
-    },
-    rows,
-  );
+  useCalibrationChart(canvasRef, rows, {
+    barsId: 'forelogLevelWilsonBars',
+    legend: LEGEND,
+    xTitle,
+    yTitle,
+    dotRadius: 7,
+    point: (row) => ({ x: row.stated, y: row.observed }),
+    interval: (row) => ({ x: row.stated, low: row.low, high: row.high }),
+    tooltipTitle: (row) => row.label,
+    tooltipLabel: (row) => `${pct(row.observed)} of ${row.n} (95% interval ${pctInterval(row.low, row.high)}); stated ${pct(row.stated)}`,
+  });
 
   const description = rows.length
     ? `${yTitle} against ${xTitle.toLowerCase()}: ${rows.map((r) => `${r.label} ${pct(r.observed)} of ${r.n}`).join('; ')}.`
@@ -139,34 +57,16 @@ export const LevelCalibrationChart = memo(function LevelCalibrationChart({ testI
       canvasRef={canvasRef}
       points={rows}
       description={description}
-      legend={legend}
+      legend={LEGEND}
       caption={caption}
       openTable
       note={readings}
       table={
-        <table>
-          <caption className="visually-hidden">{yTitle}</caption>
-          <thead>
-            <tr>
-              <th scope="col">{rowHeading}</th>
-              <th scope="col" className="num">n</th>
-              <th scope="col" className="num">{observedHeading}</th>
-              <th scope="col" className="num">Stated</th>
-              <th scope="col" className="num">95% interval (Wilson)</th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r.label}>
-                <th scope="row">{r.label}</th>
-                <td className="num">{r.n}</td>
-                <td className="num">{pct(r.observed)}</td>
-                <td className="num">{pct(r.stated)}</td>
-                <td className="num">{pctInterval(r.low, r.high)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <CalibrationTable
+          caption={yTitle}
+          headings={[rowHeading, 'n', observedHeading, 'Stated', '95% interval (Wilson)']}
+          rows={rows.map((r) => ({ key: r.label, label: r.label, cells: [r.n, pct(r.observed), pct(r.stated), pctInterval(r.low, r.high)] }))}
+        />
       }
     />
   );

@@ -8,7 +8,8 @@ import type { ChartConfiguration } from 'chart.js';
 import type { RocPoint } from '../../../../shared/scoring/types';
 import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, cssColor, percentAxis, thin, useChart, type Palette } from './chartKit';
+import { cssColor } from '../../chart/colors';
+import { BASE_OPTIONS, percentAxis, thin, useChart, type Palette } from './chartKit';
 import { pct, score2 } from './format';
 
 const MAX_POINTS = 200;

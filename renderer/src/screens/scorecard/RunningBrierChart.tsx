@@ -10,7 +10,8 @@ import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
 import { timeTicks } from '../../chart/series';
 import { formatDay, formatTick } from '../../dates';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, axisStyle, cssColor, thin, useChart, type Palette } from './chartKit';
+import { cssColor } from '../../chart/colors';
+import { BASE_OPTIONS, axisStyle, thin, useChart, type Palette } from './chartKit';
 import { score3 } from './format';
 
 /** More points than this cannot be told apart on a chart this wide. */

@@ -14,7 +14,8 @@ import type { ValuePoint } from '../../../../shared/scoring/types';
 import { DOTTED, lineStyle, type LegendItem } from '../../chart/Legend';
 import { verticalMarkers, type VerticalMarker } from '../../chart/markers';
 import { ChartFigure } from './ChartFigure';
-import { BASE_OPTIONS, axisStyle, cssColor, percentAxis, useChart, type Palette } from './chartKit';
+import { cssColor } from '../../chart/colors';
+import { BASE_OPTIONS, axisStyle, percentAxis, useChart, type Palette } from './chartKit';
 import { pct, score2, tick } from './format';
 
 /** The lowest value the axis shows; lower ones are drawn on it, marked as clipped. */
