@@ -17,6 +17,29 @@ const SHORT_BYTES = 32;
 /** `text`'s UTF-8 bytes, for a piece written many times (encode it once, copy it each time). */
 export const utf8 = (text: string): Uint8Array => encoder.encode(text);
 
+/** Copies `bytes` into `out` at `at` (which has the room); returns the position after them. Short pieces: a loop beats a call to set(). */
+export function copyInto(bytes: Uint8Array, out: Uint8Array, at: number): number {
+  for (let i = 0; i < bytes.length; i++) out[at + i] = bytes[i]!;
+  return at + bytes.length;
+}
+
+/** Numbers' texts as bytes, by value: a diary's probabilities are a few hundred values written millions of times. */
+const numberTexts = new Map<number, Uint8Array>();
+const NUMBER_TEXTS_LIMIT = 10_000;
+
+/** The bytes of String(x) (a finite number's JSON text too), each value's formatted once. */
+export function numberBytes(x: number): Uint8Array {
+  let bytes = numberTexts.get(x);
+  if (bytes === undefined) {
+    if (numberTexts.size >= NUMBER_TEXTS_LIMIT) numberTexts.clear();
+    const text = String(x);
+    bytes = new Uint8Array(text.length);
+    for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
+    numberTexts.set(x, bytes);
+  }
+  return bytes;
+}
+
 export class ByteText {
   private bytes: Uint8Array;
   private length = 0;
@@ -77,6 +100,20 @@ export class ByteText {
   /** How many bytes are written since the last take(): where the next byte goes. */
   get written(): number {
     return this.length;
+  }
+
+  /**
+   * For writing in place, where calls per piece cost more than the piece: the buffer, with
+   * room for `n` more bytes from `written` on. Write them, then say where they end (`advance`).
+   */
+  reserve(n: number): Uint8Array {
+    this.room(n);
+    return this.bytes;
+  }
+
+  /** After writing in place into reserve()'s buffer: the bytes up to `end` are written. */
+  advance(end: number): void {
+    this.length = end;
   }
 
   /** Writes again the bytes written at [start, end) since the last take(): a row's text that repeats on the next rows. */

@@ -22,8 +22,9 @@ import {
   type ResolutionChange,
   type Settings,
 } from './domain';
-import { ByteText, utf8 } from './byte-text';
+import { ByteText, copyInto, numberBytes, utf8 } from './byte-text';
 import { JsonStreamError, readObjectStream } from './json-stream';
+import { ISO_MAX_BYTES, writeIso } from './time';
 import * as v from './validation';
 
 export const DIARY_FORMAT = 'forelog-diary';
@@ -437,24 +438,35 @@ const EMPTY_NOTE = utf8('""');
 const REVISION_CLOSE = utf8('\n        }');
 const LIST_END = utf8('\n      ]');
 
+/** The most bytes a revision without a note takes but for its probability's text. */
+const PLAIN_REVISION_BYTES = NEXT_REVISION.length + ISO_MAX_BYTES + AFTER_AT.length + AFTER_P.length + EMPTY_NOTE.length + REVISION_CLOSE.length;
+
 /**
  * Question k's packed revisions as JSON.stringify(…, null, 2) writes its revision list
  * inside a record: by hand, because revisions are nearly all of an export, and bytes
  * written in place cost far less than an object each for JSON.stringify to walk.
  */
 function writePackedRevisions(out: ByteText, r: PackedRevisions, k: number): void {
+  const from = r.from[k]!;
   const to = r.to[k]!;
-  for (let i = r.from[k]!; i < to; i++) {
-    out.raw(i === r.from[k] ? FIRST_REVISION : NEXT_REVISION);
-    out.iso(r.at[i]!);
-    out.raw(AFTER_AT);
+  for (let i = from; i < to; i++) {
     // A finite number's JSON text is its String(); p is always finite.
-    out.ascii(String(r.p[i]));
-    out.raw(AFTER_P);
+    const p = numberBytes(r.p[i]!);
+    const buffer = out.reserve(PLAIN_REVISION_BYTES + p.length);
+    let at = copyInto(i === from ? FIRST_REVISION : NEXT_REVISION, buffer, out.written);
+    at = writeIso(r.at[i]!, buffer, at);
+    at = copyInto(AFTER_AT, buffer, at);
+    at = copyInto(p, buffer, at);
+    at = copyInto(AFTER_P, buffer, at);
     const note = r.note[i]!;
-    if (note === '') out.raw(EMPTY_NOTE);
-    else out.text(JSON.stringify(note));
-    out.raw(REVISION_CLOSE);
+    if (note === '') {
+      at = copyInto(EMPTY_NOTE, buffer, at);
+      out.advance(copyInto(REVISION_CLOSE, buffer, at));
+    } else {
+      out.advance(at);
+      out.text(JSON.stringify(note));
+      out.raw(REVISION_CLOSE);
+    }
   }
   out.raw(LIST_END);
 }

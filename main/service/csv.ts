@@ -15,7 +15,8 @@
  * additions to it, so neither holds the file or the diary in memory.
  */
 import { z } from 'zod';
-import { ByteText } from '../../shared/byte-text';
+import { ByteText, copyInto, numberBytes, utf8 } from '../../shared/byte-text';
+import { ISO_MAX_BYTES, writeIso } from '../../shared/time';
 import { fileQuestion, type ExportBatch, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference, type PackedRevisions } from '../../shared/diary-file';
 import { ANY_OUTCOMES, OUTCOMES } from '../../shared/domain';
 import {
@@ -250,6 +251,11 @@ function referenceRows(q: ExportedQuestion, cells: Record<QuestionColumn, string
   return out;
 }
 
+const COMMA = utf8(',');
+
+/** The bytes between two cells of a row: a comma, unless the header puts other columns between them. */
+const separatorBytes = (text: string): Uint8Array => (text === ',' ? COMMA : utf8(text));
+
 /**
  * Question k's packed revisions (yes/no, without lenses) as rows, written as bytes in
  * place: they are nearly all of an export's rows. The question's cells before and after
@@ -258,10 +264,12 @@ function referenceRows(q: ExportedQuestion, cells: Record<QuestionColumn, string
  */
 function writePackedRows(out: ByteText, r: PackedRevisions, k: number, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): void {
   const [beforeAt, beforeP, beforeNote, beforeLenses, afterLenses] = rowPieces(columns, cells, VARYING.binary.forecast);
-  // The lenses cell is empty: no revision packed has lenses.
-  const tail = `${beforeLenses!}${afterLenses!}\r\n`;
+  const betweenAtAndP = separatorBytes(beforeP!);
+  const betweenPAndNote = separatorBytes(beforeNote!);
   const first = r.from[k]!;
   const to = r.to[k]!;
+  // The first row's cells before the time, and after the note (the lenses cell is empty:
+  // no revision packed has lenses), where the other rows copy them from.
   let headStart = 0;
   let headEnd = 0;
   let tailStart = 0;
@@ -272,15 +280,17 @@ function writePackedRows(out: ByteText, r: PackedRevisions, k: number, cells: Re
       out.text(beforeAt!);
       headEnd = out.written;
     } else out.again(headStart, headEnd);
-    out.iso(r.at[i]!);
-    out.text(beforeP!);
-    out.ascii(String(r.p[i]));
-    out.text(beforeNote!);
+    const p = numberBytes(r.p[i]!);
+    const buffer = out.reserve(ISO_MAX_BYTES + betweenAtAndP.length + p.length + betweenPAndNote.length);
+    let at = writeIso(r.at[i]!, buffer, out.written);
+    at = copyInto(betweenAtAndP, buffer, at);
+    at = copyInto(p, buffer, at);
+    out.advance(copyInto(betweenPAndNote, buffer, at));
     const note = r.note[i]!;
     if (note !== '') out.text(csvField(note));
     if (i === first) {
       tailStart = out.written;
-      out.text(tail);
+      out.text(`${beforeLenses!}${afterLenses!}\r\n`);
       tailEnd = out.written;
     } else out.again(tailStart, tailEnd);
   }

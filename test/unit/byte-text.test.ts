@@ -4,7 +4,7 @@
  */
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { ByteText, utf8 } from '../../shared/byte-text';
+import { ByteText, copyInto, numberBytes, utf8 } from '../../shared/byte-text';
 import { toIso } from '../../shared/time';
 
 const decoded = (bytes: Uint8Array) => Buffer.from(bytes).toString('utf8');
@@ -34,4 +34,22 @@ test('text, ascii, raw, iso and again write the UTF-8 of the same text, through 
   out.text('next');
   assert.equal(out.written, 4);
   assert.equal(decoded(out.take()), 'next');
+});
+
+test('numberBytes is String(x) as bytes, the first time and from its memory after', () => {
+  const values = [0, -0, 1, 0.5, 0.7, 0.1 + 0.2, 1e-7, 1.5e-7, 1e21, 123456789012345680000, 5e-324, Number.MAX_VALUE, -0.25, 0.30000000000000004];
+  for (let round = 0; round < 2; round++) {
+    for (const x of values) assert.equal(Buffer.from(numberBytes(x)).toString('latin1'), String(x), `${x}, round ${round}`);
+  }
+});
+
+test('writing in place: reserve gives room, copyInto and writeIso fill it, advance says where it ends', () => {
+  const out = new ByteText(2);
+  out.text('{');
+  const buffer = out.reserve(100);
+  let at = copyInto(utf8('"p": '), buffer, out.written);
+  at = copyInto(numberBytes(0.35), buffer, at);
+  out.advance(at);
+  out.text('}');
+  assert.equal(decoded(out.take()), '{"p": 0.35}');
 });
