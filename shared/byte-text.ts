@@ -4,8 +4,6 @@
  * flatten, collect and encode again before writing, which was most of an export's time.
  * Here each piece is written once, as the bytes that go to the file.
  */
-import { ISO_MAX_BYTES, writeIso } from './time';
-
 const encoder = new TextEncoder();
 
 /** Below this length a text is copied a character at a time: cheaper than calling the encoder. */
@@ -76,15 +74,6 @@ export class ByteText {
     this.length += encoder.encodeInto(s, out.subarray(this.length)).written;
   }
 
-  /** Text known to be ASCII (numbers as String writes them), a character a byte. */
-  ascii(s: string): void {
-    this.room(s.length);
-    const out = this.bytes;
-    let at = this.length;
-    for (let i = 0; i < s.length; i++) out[at++] = s.charCodeAt(i);
-    this.length = at;
-  }
-
   /** Bytes encoded before (see utf8). */
   raw(b: Uint8Array): void {
     this.room(b.length);
@@ -127,12 +116,6 @@ export class ByteText {
       for (let i = 0; i < n; i++) out[at + i] = out[start + i]!;
     }
     this.length += n;
-  }
-
-  /** An instant as toIso writes it. */
-  iso(ms: number): void {
-    this.room(ISO_MAX_BYTES);
-    this.length = writeIso(ms, this.bytes, this.length);
   }
 
   /**

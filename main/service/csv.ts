@@ -335,7 +335,7 @@ function writeQuestionRows(out: ByteText, batch: ExportBatch, k: number, columns
 export function* diaryCsvBytes(batches: Iterable<ExportBatch>, withTypes = false): Generator<Uint8Array> {
   const columns: readonly CsvColumn[] = withTypes ? CSV_ALL_COLUMNS : CSV_COLUMNS;
   const out = new ByteText();
-  out.ascii(withTypes ? CSV_TYPES_HEADER : CSV_HEADER);
+  out.text(withTypes ? CSV_TYPES_HEADER : CSV_HEADER);
   yield out.take();
   for (const batch of batches) {
     for (let k = 0; k < batch.questions.length; k++) writeQuestionRows(out, batch, k, columns);

@@ -88,20 +88,22 @@ function notedRevisions(db: Db): Uint8Array | null {
 }
 
 /**
- * Reads questions as the export writes them. `always` reads lenses and resolution
- * history for every batch; otherwise each is read only when the diary has any at the
- * start (most diaries have few lenses or none, and few corrections), which holds for one
- * snapshot (the export's) but not for a diary being written meanwhile (an import's merge).
+ * Reads questions as the export writes them. `always` reads lenses, resolution history
+ * and each revision's note for every batch; otherwise lenses and history are read only
+ * when the diary has any at the start (most diaries have few lenses or none, and few
+ * corrections), and notes only for the revisions found with one at the start
+ * (notedRevisions), which holds for one snapshot (the export's) but not for a diary being
+ * written meanwhile (an import's merge).
  */
 function exportReader(db: Db, always: boolean) {
   const tags = db.prepare(forBatch('tag', 'question_tags', 'position')).raw();
   const sink = revisionSinkOf(db);
-  // No ORDER BY: SQLite walks the batch's ids in order and each question's revisions by the
-  // index on (question_id, at, seq), which is the file's order; the sink checks that it was,
-  // and a batch that came otherwise is read again with the order spelled out.
   // Which revisions have a note, by seq, when it can be known once for the whole read.
   const noted = always ? null : notedRevisions(db);
-  // Without notes, SQLite reads the revisions from the index alone, not the table row of each.
+  // No ORDER BY: SQLite walks the batch's ids in order and each question's revisions by the
+  // index on (question_id, at, seq), which is the file's order; the sink checks that it was,
+  // and a batch that came otherwise is read again with the order spelled out. Without the
+  // notes, SQLite reads the revisions from that index alone, not the table row of each.
   const collect = db.prepare(
     `SELECT count(${REVISION_FN}(j.key, f.at, f.p, ${noted ? "''" : 'f.note'}, f.seq)) FROM json_each(?) j JOIN forecasts f ON f.question_id = j.value`,
   );
