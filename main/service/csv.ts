@@ -126,7 +126,8 @@ const POINT_COLUMNS = [
 type PointColumn = (typeof POINT_COLUMNS)[number];
 type QuestionColumn = Exclude<CsvColumn, PointColumn>;
 
-const isPointColumn = (c: CsvColumn): c is PointColumn => (POINT_COLUMNS as readonly CsvColumn[]).includes(c);
+const POINT_COLUMN_SET: ReadonlySet<CsvColumn> = new Set(POINT_COLUMNS);
+const isPointColumn = (c: CsvColumn): c is PointColumn => POINT_COLUMN_SET.has(c);
 
 /** The columns a question's rows must agree on: every other one, in export order. */
 const QUESTION_COLUMNS: readonly QuestionColumn[] = CSV_ALL_COLUMNS.filter((c): c is QuestionColumn => !isPointColumn(c));
@@ -146,7 +147,7 @@ export const CSV_TYPES_HEADER = `${CSV_ALL_COLUMNS.join(',')}\r\n`;
  * the row), with each double quote inside doubled.
  */
 function csvField(text: string): string {
-  return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
+  return text !== '' && /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
 /**
@@ -156,14 +157,40 @@ function csvField(text: string): string {
  * its own. `varying` must follow the order of `columns`.
  */
 function rowPieces(columns: readonly CsvColumn[], cells: Record<QuestionColumn, string>, varying: readonly PointColumn[]): string[] {
-  const cell = (c: CsvColumn) => (isPointColumn(c) ? '' : csvField(cells[c]));
-  if (varying.length === 0) return [columns.map(cell).join(',')];
-  const at = varying.map((c) => columns.indexOf(c));
-  if (at.some((i, k) => i < 0 || (k > 0 && i <= at[k - 1]!))) throw new Error(`the CSV columns ${varying.join(', ')} are not in the header's order`);
-  const pieces = [columns.slice(0, at[0]).map((c) => `${cell(c)},`).join('')];
-  for (let k = 1; k < at.length; k++) pieces.push(`,${columns.slice(at[k - 1]! + 1, at[k]).map((c) => `${cell(c)},`).join('')}`);
-  pieces.push(columns.slice(at[at.length - 1]! + 1).map((c) => `,${cell(c)}`).join(''));
+  // A row with no varying cell (a question without revisions or references) is one piece.
+  const at = varying.length === 0 ? [] : varyingPlaces(columns, varying);
+  // The row is its cells joined by commas; the text between varying cells becomes a piece.
+  const pieces: string[] = [];
+  let piece = '';
+  let next = 0;
+  for (let i = 0; i < columns.length; i++) {
+    if (i > 0) piece += ',';
+    if (i === at[next]) {
+      pieces.push(piece);
+      piece = '';
+      next++;
+      continue;
+    }
+    const c = columns[i]!;
+    if (!isPointColumn(c)) piece += csvField(cells[c]);
+  }
+  pieces.push(piece);
   return pieces;
+}
+
+/** Where each of `varying` stands in `columns`, worked out once per pair (both are constants: CSV_*COLUMNS and VARYING's lists). */
+const varyingPlacesMemo = new WeakMap<readonly CsvColumn[], Map<readonly PointColumn[], readonly number[]>>();
+
+function varyingPlaces(columns: readonly CsvColumn[], varying: readonly PointColumn[]): readonly number[] {
+  let byVarying = varyingPlacesMemo.get(columns);
+  if (byVarying === undefined) varyingPlacesMemo.set(columns, (byVarying = new Map()));
+  let at = byVarying.get(varying);
+  if (at === undefined) {
+    const places = varying.map((c) => columns.indexOf(c));
+    if (places.some((i, k) => i < 0 || (k > 0 && i <= places[k - 1]!))) throw new Error(`the CSV columns ${varying.join(', ')} are not in the header's order`);
+    byVarying.set(varying, (at = places));
+  }
+  return at;
 }
 
 /** The row made of `pieces` (rowPieces) with `values` in the varying cells. */
