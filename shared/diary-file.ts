@@ -434,12 +434,13 @@ const FIRST_REVISION = utf8('[\n        {\n          "at": "');
 const NEXT_REVISION = utf8(',\n        {\n          "at": "');
 const AFTER_AT = utf8('",\n          "p": ');
 const AFTER_P = utf8(',\n          "note": ');
-const EMPTY_NOTE = utf8('""');
 const REVISION_CLOSE = utf8('\n        }');
 const LIST_END = utf8('\n      ]');
+/** What follows the probability of a revision without a note, to the end of the revision. */
+const EMPTY_NOTE_AND_CLOSE = utf8(',\n          "note": ""\n        }');
 
 /** The most bytes a revision without a note takes but for its probability's text. */
-const PLAIN_REVISION_BYTES = NEXT_REVISION.length + ISO_MAX_BYTES + AFTER_AT.length + AFTER_P.length + EMPTY_NOTE.length + REVISION_CLOSE.length;
+const PLAIN_REVISION_BYTES = NEXT_REVISION.length + ISO_MAX_BYTES + AFTER_AT.length + EMPTY_NOTE_AND_CLOSE.length;
 
 /**
  * Question k's packed revisions as JSON.stringify(…, null, 2) writes its revision list
@@ -457,13 +458,10 @@ function writePackedRevisions(out: ByteText, r: PackedRevisions, k: number): voi
     at = writeIso(r.at[i]!, buffer, at);
     at = copyInto(AFTER_AT, buffer, at);
     at = copyInto(p, buffer, at);
-    at = copyInto(AFTER_P, buffer, at);
     const note = r.note[i]!;
-    if (note === '') {
-      at = copyInto(EMPTY_NOTE, buffer, at);
-      out.advance(copyInto(REVISION_CLOSE, buffer, at));
-    } else {
-      out.advance(at);
+    if (note === '') out.advance(copyInto(EMPTY_NOTE_AND_CLOSE, buffer, at));
+    else {
+      out.advance(copyInto(AFTER_P, buffer, at));
       out.text(JSON.stringify(note));
       out.raw(REVISION_CLOSE);
     }

@@ -46,9 +46,11 @@ test('writing in place: reserve gives room, copyInto and writeIso fill it, advan
   const out = new ByteText(2);
   out.text('{');
   const buffer = out.reserve(100 + ISO_MAX_BYTES);
-  let at = copyInto(utf8('"p": '), buffer, out.written);
+  // A piece longer than a loop is worth (copied with set) and a short one.
+  let at = copyInto(utf8('"a longer piece": 1, '), buffer, out.written);
+  at = copyInto(utf8('"p": '), buffer, at);
   at = copyInto(numberBytes(0.35), buffer, at);
   out.advance(writeIso(Date.UTC(2026, 11, 2, 15, 4, 5, 6), buffer, at));
   out.text('}');
-  assert.equal(decoded(out.take()), `{"p": 0.35${toIso(Date.UTC(2026, 11, 2, 15, 4, 5, 6))}}`);
+  assert.equal(decoded(out.take()), `{"a longer piece": 1, "p": 0.35${toIso(Date.UTC(2026, 11, 2, 15, 4, 5, 6))}}`);
 });
