@@ -4,18 +4,40 @@
  * flatten, collect and encode again before writing, which was most of an export's time.
  * Here each piece is written once, as the bytes that go to the file.
  */
-import { ISO_MAX_BYTES, writeIso } from './time';
-
 const encoder = new TextEncoder();
 
 /** Below this length a text is copied a character at a time: cheaper than calling the encoder. */
 const SHORT_TEXT = 64;
 
-/** Below this length bytes are copied one at a time: cheaper than a call to set(). */
-const SHORT_BYTES = 32;
+/** Below this length bytes are copied one at a time: cheaper than a call to set() (measured). */
+const SHORT_BYTES = 16;
 
 /** `text`'s UTF-8 bytes, for a piece written many times (encode it once, copy it each time). */
 export const utf8 = (text: string): Uint8Array => encoder.encode(text);
+
+/** Copies `bytes` into `out` at `at` (which has the room); returns the position after them. */
+export function copyInto(bytes: Uint8Array, out: Uint8Array, at: number): number {
+  if (bytes.length > SHORT_BYTES) out.set(bytes, at);
+  else for (let i = 0; i < bytes.length; i++) out[at + i] = bytes[i]!;
+  return at + bytes.length;
+}
+
+/** Numbers' texts as bytes, by value: a diary's probabilities are a few hundred values written millions of times. */
+const numberTexts = new Map<number, Uint8Array>();
+const NUMBER_TEXTS_LIMIT = 10_000;
+
+/** The bytes of String(x) (a finite number's JSON text too), each value's formatted once. */
+export function numberBytes(x: number): Uint8Array {
+  let bytes = numberTexts.get(x);
+  if (bytes === undefined) {
+    if (numberTexts.size >= NUMBER_TEXTS_LIMIT) numberTexts.clear();
+    const text = String(x);
+    bytes = new Uint8Array(text.length);
+    for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
+    numberTexts.set(x, bytes);
+  }
+  return bytes;
+}
 
 export class ByteText {
   private bytes: Uint8Array;
@@ -53,15 +75,6 @@ export class ByteText {
     this.length += encoder.encodeInto(s, out.subarray(this.length)).written;
   }
 
-  /** Text known to be ASCII (numbers as String writes them), a character a byte. */
-  ascii(s: string): void {
-    this.room(s.length);
-    const out = this.bytes;
-    let at = this.length;
-    for (let i = 0; i < s.length; i++) out[at++] = s.charCodeAt(i);
-    this.length = at;
-  }
-
   /** Bytes encoded before (see utf8). */
   raw(b: Uint8Array): void {
     this.room(b.length);
@@ -79,6 +92,20 @@ export class ByteText {
     return this.length;
   }
 
+  /**
+   * For writing in place, where calls per piece cost more than the piece: the buffer, with
+   * room for `n` more bytes from `written` on. Write them, then say where they end (`advance`).
+   */
+  reserve(n: number): Uint8Array {
+    this.room(n);
+    return this.bytes;
+  }
+
+  /** After writing in place into reserve()'s buffer: the bytes up to `end` are written. */
+  advance(end: number): void {
+    this.length = end;
+  }
+
   /** Writes again the bytes written at [start, end) since the last take(): a row's text that repeats on the next rows. */
   again(start: number, end: number): void {
     const n = end - start;
@@ -90,12 +117,6 @@ export class ByteText {
       for (let i = 0; i < n; i++) out[at + i] = out[start + i]!;
     }
     this.length += n;
-  }
-
-  /** An instant as toIso writes it. */
-  iso(ms: number): void {
-    this.room(ISO_MAX_BYTES);
-    this.length = writeIso(ms, this.bytes, this.length);
   }
 
   /**

@@ -22,9 +22,9 @@ import {
   type ResolutionChange,
   type Settings,
 } from './domain';
-import { ByteText, utf8 } from './byte-text';
+import { ByteText, copyInto, numberBytes, utf8 } from './byte-text';
 import { JsonStreamError, readObjectStream } from './json-stream';
-import { isValidTimeZone } from './time';
+import { isValidTimeZone, ISO_MAX_BYTES, writeIso } from './time';
 import * as v from './validation';
 
 export const DIARY_FORMAT = 'forelog-diary';
@@ -582,9 +582,13 @@ const FIRST_REVISION = utf8('[\n        {\n          "at": "');
 const NEXT_REVISION = utf8(',\n        {\n          "at": "');
 const AFTER_AT = utf8('",\n          "p": ');
 const AFTER_P = utf8(',\n          "note": ');
-const EMPTY_NOTE = utf8('""');
 const REVISION_CLOSE = utf8('\n        }');
 const LIST_END = utf8('\n      ]');
+/** What follows the probability of a revision without a note, to the end of the revision. */
+const EMPTY_NOTE_AND_CLOSE = utf8(',\n          "note": ""\n        }');
+
+/** The most bytes a revision without a note takes but for its probability's text. */
+const PLAIN_REVISION_BYTES = NEXT_REVISION.length + ISO_MAX_BYTES + AFTER_AT.length + EMPTY_NOTE_AND_CLOSE.length;
 
 /**
  * Question k's packed revisions as JSON.stringify(…, null, 2) writes its revision list
@@ -592,18 +596,23 @@ const LIST_END = utf8('\n      ]');
  * written in place cost far less than an object each for JSON.stringify to walk.
  */
 function writePackedRevisions(out: ByteText, r: PackedRevisions, k: number): void {
+  const from = r.from[k]!;
   const to = r.to[k]!;
-  for (let i = r.from[k]!; i < to; i++) {
-    out.raw(i === r.from[k] ? FIRST_REVISION : NEXT_REVISION);
-    out.iso(r.at[i]!);
-    out.raw(AFTER_AT);
+  for (let i = from; i < to; i++) {
     // A finite number's JSON text is its String(); p is always finite.
-    out.ascii(String(r.p[i]));
-    out.raw(AFTER_P);
+    const p = numberBytes(r.p[i]!);
+    const buffer = out.reserve(PLAIN_REVISION_BYTES + p.length);
+    let at = copyInto(i === from ? FIRST_REVISION : NEXT_REVISION, buffer, out.written);
+    at = writeIso(r.at[i]!, buffer, at);
+    at = copyInto(AFTER_AT, buffer, at);
+    at = copyInto(p, buffer, at);
     const note = r.note[i]!;
-    if (note === '') out.raw(EMPTY_NOTE);
-    else out.text(JSON.stringify(note));
-    out.raw(REVISION_CLOSE);
+    if (note === '') out.advance(copyInto(EMPTY_NOTE_AND_CLOSE, buffer, at));
+    else {
+      out.advance(copyInto(AFTER_P, buffer, at));
+      out.text(JSON.stringify(note));
+      out.raw(REVISION_CLOSE);
+    }
   }
   out.raw(LIST_END);
 }

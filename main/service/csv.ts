@@ -15,7 +15,8 @@
  * additions to it, so neither holds the file or the diary in memory.
  */
 import { z } from 'zod';
-import { ByteText } from '../../shared/byte-text';
+import { ByteText, copyInto, numberBytes, utf8 } from '../../shared/byte-text';
+import { ISO_MAX_BYTES, writeIso } from '../../shared/time';
 import { fileQuestion, type ExportBatch, type ExportedQuestion, type FileForecast, type FileQuestion, type FileReference, type PackedRevisions } from '../../shared/diary-file';
 import { ANY_OUTCOMES, OUTCOMES } from '../../shared/domain';
 import {
@@ -125,7 +126,8 @@ const POINT_COLUMNS = [
 type PointColumn = (typeof POINT_COLUMNS)[number];
 type QuestionColumn = Exclude<CsvColumn, PointColumn>;
 
-const isPointColumn = (c: CsvColumn): c is PointColumn => (POINT_COLUMNS as readonly CsvColumn[]).includes(c);
+const POINT_COLUMN_SET: ReadonlySet<CsvColumn> = new Set(POINT_COLUMNS);
+const isPointColumn = (c: CsvColumn): c is PointColumn => POINT_COLUMN_SET.has(c);
 
 /** The columns a question's rows must agree on: every other one, in export order. */
 const QUESTION_COLUMNS: readonly QuestionColumn[] = CSV_ALL_COLUMNS.filter((c): c is QuestionColumn => !isPointColumn(c));
@@ -145,7 +147,7 @@ export const CSV_TYPES_HEADER = `${CSV_ALL_COLUMNS.join(',')}\r\n`;
  * the row), with each double quote inside doubled.
  */
 function csvField(text: string): string {
-  return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
+  return text !== '' && /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
 /**
@@ -155,14 +157,40 @@ function csvField(text: string): string {
  * its own. `varying` must follow the order of `columns`.
  */
 function rowPieces(columns: readonly CsvColumn[], cells: Record<QuestionColumn, string>, varying: readonly PointColumn[]): string[] {
-  const cell = (c: CsvColumn) => (isPointColumn(c) ? '' : csvField(cells[c]));
-  if (varying.length === 0) return [columns.map(cell).join(',')];
-  const at = varying.map((c) => columns.indexOf(c));
-  if (at.some((i, k) => i < 0 || (k > 0 && i <= at[k - 1]!))) throw new Error(`the CSV columns ${varying.join(', ')} are not in the header's order`);
-  const pieces = [columns.slice(0, at[0]).map((c) => `${cell(c)},`).join('')];
-  for (let k = 1; k < at.length; k++) pieces.push(`,${columns.slice(at[k - 1]! + 1, at[k]).map((c) => `${cell(c)},`).join('')}`);
-  pieces.push(columns.slice(at[at.length - 1]! + 1).map((c) => `,${cell(c)}`).join(''));
+  // A row with no varying cell (a question without revisions or references) is one piece.
+  const at = varying.length === 0 ? [] : varyingPlaces(columns, varying);
+  // The row is its cells joined by commas; the text between varying cells becomes a piece.
+  const pieces: string[] = [];
+  let piece = '';
+  let next = 0;
+  for (let i = 0; i < columns.length; i++) {
+    if (i > 0) piece += ',';
+    if (i === at[next]) {
+      pieces.push(piece);
+      piece = '';
+      next++;
+      continue;
+    }
+    const c = columns[i]!;
+    if (!isPointColumn(c)) piece += csvField(cells[c]);
+  }
+  pieces.push(piece);
   return pieces;
+}
+
+/** Where each of `varying` stands in `columns`, worked out once per pair (both are constants: CSV_*COLUMNS and VARYING's lists). */
+const varyingPlacesMemo = new WeakMap<readonly CsvColumn[], Map<readonly PointColumn[], readonly number[]>>();
+
+function varyingPlaces(columns: readonly CsvColumn[], varying: readonly PointColumn[]): readonly number[] {
+  let byVarying = varyingPlacesMemo.get(columns);
+  if (byVarying === undefined) varyingPlacesMemo.set(columns, (byVarying = new Map()));
+  let at = byVarying.get(varying);
+  if (at === undefined) {
+    const places = varying.map((c) => columns.indexOf(c));
+    if (places.some((i, k) => i < 0 || (k > 0 && i <= places[k - 1]!))) throw new Error(`the CSV columns ${varying.join(', ')} are not in the header's order`);
+    byVarying.set(varying, (at = places));
+  }
+  return at;
 }
 
 /** The row made of `pieces` (rowPieces) with `values` in the varying cells. */
@@ -250,6 +278,11 @@ function referenceRows(q: ExportedQuestion, cells: Record<QuestionColumn, string
   return out;
 }
 
+const COMMA = utf8(',');
+
+/** The bytes between two cells of a row: a comma, unless the header puts other columns between them. */
+const separatorBytes = (text: string): Uint8Array => (text === ',' ? COMMA : utf8(text));
+
 /**
  * Question k's packed revisions (yes/no, without lenses) as rows, written as bytes in
  * place: they are nearly all of an export's rows. The question's cells before and after
@@ -258,10 +291,12 @@ function referenceRows(q: ExportedQuestion, cells: Record<QuestionColumn, string
  */
 function writePackedRows(out: ByteText, r: PackedRevisions, k: number, cells: Record<QuestionColumn, string>, columns: readonly CsvColumn[]): void {
   const [beforeAt, beforeP, beforeNote, beforeLenses, afterLenses] = rowPieces(columns, cells, VARYING.binary.forecast);
-  // The lenses cell is empty: no revision packed has lenses.
-  const tail = `${beforeLenses!}${afterLenses!}\r\n`;
+  const betweenAtAndP = separatorBytes(beforeP!);
+  const betweenPAndNote = separatorBytes(beforeNote!);
   const first = r.from[k]!;
   const to = r.to[k]!;
+  // The first row's cells before the time, and after the note (the lenses cell is empty:
+  // no revision packed has lenses), where the other rows copy them from.
   let headStart = 0;
   let headEnd = 0;
   let tailStart = 0;
@@ -272,15 +307,17 @@ function writePackedRows(out: ByteText, r: PackedRevisions, k: number, cells: Re
       out.text(beforeAt!);
       headEnd = out.written;
     } else out.again(headStart, headEnd);
-    out.iso(r.at[i]!);
-    out.text(beforeP!);
-    out.ascii(String(r.p[i]));
-    out.text(beforeNote!);
+    const p = numberBytes(r.p[i]!);
+    const buffer = out.reserve(ISO_MAX_BYTES + betweenAtAndP.length + p.length + betweenPAndNote.length);
+    let at = writeIso(r.at[i]!, buffer, out.written);
+    at = copyInto(betweenAtAndP, buffer, at);
+    at = copyInto(p, buffer, at);
+    out.advance(copyInto(betweenPAndNote, buffer, at));
     const note = r.note[i]!;
     if (note !== '') out.text(csvField(note));
     if (i === first) {
       tailStart = out.written;
-      out.text(tail);
+      out.text(`${beforeLenses!}${afterLenses!}\r\n`);
       tailEnd = out.written;
     } else out.again(tailStart, tailEnd);
   }
@@ -325,7 +362,7 @@ function writeQuestionRows(out: ByteText, batch: ExportBatch, k: number, columns
 export function* diaryCsvBytes(batches: Iterable<ExportBatch>, withTypes = false): Generator<Uint8Array> {
   const columns: readonly CsvColumn[] = withTypes ? CSV_ALL_COLUMNS : CSV_COLUMNS;
   const out = new ByteText();
-  out.ascii(withTypes ? CSV_TYPES_HEADER : CSV_HEADER);
+  out.text(withTypes ? CSV_TYPES_HEADER : CSV_HEADER);
   yield out.take();
   for (const batch of batches) {
     for (let k = 0; k < batch.questions.length; k++) writeQuestionRows(out, batch, k, columns);

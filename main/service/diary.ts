@@ -189,11 +189,12 @@ type ImportItem = DiaryItem | CsvItem;
 const EXPORT_BATCH = 500;
 
 /**
- * SQLite's page cache during an export, in KiB. The batches revisit pages (the index, and
- * a page holding revisions of questions in two batches); with the default 2 MiB each visit
- * is a read from the operating system again.
+ * SQLite's page cache during an export, in KiB. Each batch looks up its questions' rows at
+ * random places in every table; with the default 2 MiB the revisions' pages push out the
+ * pages of the smaller tables (questions, tags, resolutions) between one batch and the
+ * next, and each visit is a read from the operating system again.
  */
-const EXPORT_CACHE_KIB = 32 * 1024;
+const EXPORT_CACHE_KIB = 64 * 1024;
 
 /** SQLite's page cache during an import, in KiB: enough for the indexes' working pages. */
 const IMPORT_CACHE_KIB = 64 * 1024;

@@ -73,20 +73,41 @@ interface ReadRevisions extends PackedRevisions {
 }
 
 /**
- * Reads questions as the export writes them. `always` reads lenses and resolution
- * history for every batch; otherwise each is read only when the diary has any at the
- * start (most diaries have few lenses or none, and few corrections), which holds for one
- * snapshot (the export's) but not for a diary being written meanwhile (an import's merge).
+ * The seqs of the revisions that have a note, as bits (seq 8n + b is bit b of byte n), or
+ * null when seqs run too high for that. Most revisions have none, and finding the few
+ * that do in one pass over the table costs less than reading each revision's table row
+ * (for its note) beside the index that holds everything else, at random places in a
+ * large diary. Valid for one snapshot: read inside the export's transaction.
+ */
+function notedRevisions(db: Db): Uint8Array | null {
+  const last = db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null;
+  if (last === null || last >= 2 ** 31) return null;
+  const bits = new Uint8Array((last >> 3) + 1);
+  for (const seq of db.prepare("SELECT seq FROM forecasts WHERE note <> ''").pluck().iterate() as IterableIterator<number>) bits[seq >> 3]! |= 1 << (seq & 7);
+  return bits;
+}
+
+/**
+ * Reads questions as the export writes them. `always` reads lenses, resolution history
+ * and each revision's note for every batch; otherwise lenses and history are read only
+ * when the diary has any at the start (most diaries have few lenses or none, and few
+ * corrections), and notes only for the revisions found with one at the start
+ * (notedRevisions), which holds for one snapshot (the export's) but not for a diary being
+ * written meanwhile (an import's merge).
  */
 function exportReader(db: Db, always: boolean) {
   const tags = db.prepare(forBatch('tag', 'question_tags', 'position')).raw();
   const sink = revisionSinkOf(db);
+  // Which revisions have a note, by seq, when it can be known once for the whole read.
+  const noted = always ? null : notedRevisions(db);
   // No ORDER BY: SQLite walks the batch's ids in order and each question's revisions by the
   // index on (question_id, at, seq), which is the file's order; the sink checks that it was,
-  // and a batch that came otherwise is read again with the order spelled out.
+  // and a batch that came otherwise is read again with the order spelled out. Without the
+  // notes, SQLite reads the revisions from that index alone, not the table row of each.
   const collect = db.prepare(
-    `SELECT count(${REVISION_FN}(j.key, f.at, f.p, f.note, f.seq)) FROM json_each(?) j JOIN forecasts f ON f.question_id = j.value`,
+    `SELECT count(${REVISION_FN}(j.key, f.at, f.p, ${noted ? "''" : 'f.note'}, f.seq)) FROM json_each(?) j JOIN forecasts f ON f.question_id = j.value`,
   );
+  const notes = db.prepare('SELECT j.key, f.note FROM json_each(?) j JOIN forecasts f ON f.seq = j.value').raw();
   const ordered = db.prepare(forBatch('at, p, note, seq', 'forecasts', 'at, seq')).raw();
   const references = db.prepare(forBatch('at, p, source', 'reference_forecasts', 'at, seq')).raw();
   const resolutions = db.prepare(forBatch('outcome, at, note', 'resolutions', '')).raw();
@@ -115,11 +136,18 @@ function exportReader(db: Db, always: boolean) {
     const p: number[] = [];
     const note: string[] = [];
     const seq: number[] = [];
+    // The revisions with a note: their place in the columns, and their seq.
+    const notedAt: number[] = [];
+    const notedSeq: number[] = [];
     let inOrder = true;
     let lastK = -1;
     let lastAt = 0;
     let lastSeq = 0;
     sink.current = (k, t, value, text, s) => {
+      if (noted !== null && (noted[s >> 3]! & (1 << (s & 7))) !== 0) {
+        notedAt.push(at.length);
+        notedSeq.push(s);
+      }
       const i = at.length;
       if (k !== lastK) {
         // A question met again after another's revisions (to[k] is past 0 once it has any).
@@ -139,6 +167,9 @@ function exportReader(db: Db, always: boolean) {
       collect.get(ids);
     } finally {
       sink.current = null;
+    }
+    if (inOrder && notedSeq.length > 0) {
+      for (const [j, text] of notes.all(JSON.stringify(notedSeq)) as [number, string][]) note[notedAt[j]!] = text;
     }
     if (!inOrder) {
       from.fill(0);

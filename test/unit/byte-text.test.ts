@@ -4,12 +4,12 @@
  */
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { ByteText, utf8 } from '../../shared/byte-text';
-import { toIso } from '../../shared/time';
+import { ByteText, copyInto, numberBytes, utf8 } from '../../shared/byte-text';
+import { ISO_MAX_BYTES, toIso, writeIso } from '../../shared/time';
 
 const decoded = (bytes: Uint8Array) => Buffer.from(bytes).toString('utf8');
 
-test('text, ascii, raw, iso and again write the UTF-8 of the same text, through the buffer growing', () => {
+test('text, raw and again write the UTF-8 of the same text, through the buffer growing', () => {
   // Four bytes to start with: every write below makes it grow.
   const out = new ByteText(4);
   const texts = ['', 'plain', 'é and ü', '日本語のメモ', '😀 outside the BMP', 'x'.repeat(200) + 'é', 'lone \ud800 surrogate', '\ufeffstarts with a BOM'];
@@ -18,10 +18,9 @@ test('text, ascii, raw, iso and again write the UTF-8 of the same text, through 
     out.text(text);
     expected += text;
   }
-  out.ascii('0.30000000000000004');
   out.raw(utf8('“quoted” '.repeat(10)));
-  out.iso(Date.UTC(2026, 11, 2, 15, 4, 5, 6));
-  expected += `0.30000000000000004${'“quoted” '.repeat(10)}${toIso(Date.UTC(2026, 11, 2, 15, 4, 5, 6))}`;
+  out.raw(utf8('0.5'));
+  expected += `${'“quoted” '.repeat(10)}0.5`;
   const start = out.written;
   out.text('a row, with “its” cells\r\n');
   const end = out.written;
@@ -34,4 +33,24 @@ test('text, ascii, raw, iso and again write the UTF-8 of the same text, through 
   out.text('next');
   assert.equal(out.written, 4);
   assert.equal(decoded(out.take()), 'next');
+});
+
+test('numberBytes is String(x) as bytes, the first time and from its memory after', () => {
+  const values = [0, -0, 1, 0.5, 0.7, 0.1 + 0.2, 1e-7, 1.5e-7, 1e21, 123456789012345680000, 5e-324, Number.MAX_VALUE, -0.25, 0.30000000000000004];
+  for (let round = 0; round < 2; round++) {
+    for (const x of values) assert.equal(Buffer.from(numberBytes(x)).toString('latin1'), String(x), `${x}, round ${round}`);
+  }
+});
+
+test('writing in place: reserve gives room, copyInto and writeIso fill it, advance says where it ends', () => {
+  const out = new ByteText(2);
+  out.text('{');
+  const buffer = out.reserve(100 + ISO_MAX_BYTES);
+  // A piece longer than a loop is worth (copied with set) and a short one.
+  let at = copyInto(utf8('"a longer piece": 1, '), buffer, out.written);
+  at = copyInto(utf8('"p": '), buffer, at);
+  at = copyInto(numberBytes(0.35), buffer, at);
+  out.advance(writeIso(Date.UTC(2026, 11, 2, 15, 4, 5, 6), buffer, at));
+  out.text('}');
+  assert.equal(decoded(out.take()), `{"a longer piece": 1, "p": 0.35${toIso(Date.UTC(2026, 11, 2, 15, 4, 5, 6))}}`);
 });
