@@ -321,11 +321,17 @@ async function run(argv: string[]): Promise<void> {
       const format = values.format ?? 'json';
       if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
       const file = positionals[0];
-      await withDiary(dbPath, { create: false }, async (s) => {
-        // Streamed from the diary a batch at a time: to a file whole or not at all, or to stdout.
-        if (file) s.exportDiaryFile(file, format);
-        else s.diary.exportTo(format, writeStdout);
-      });
+      // Progress only for a file: an export to stdout may be going to this same terminal.
+      const progress = progressLine(`Exporting to ${file}`, 'saving');
+      try {
+        await withDiary(dbPath, { create: false }, async (s) => {
+          // Streamed from the diary a batch at a time: to a file whole or not at all, or to stdout.
+          if (file) s.exportDiaryFile(file, format, progress.update);
+          else s.diary.exportTo(format, writeStdout);
+        });
+      } finally {
+        progress.end();
+      }
       if (file) process.stderr.write(`Wrote ${file}.\n`);
       return;
     }

@@ -17,6 +17,7 @@ import {
   toFileQuestion,
   DiaryFileError,
   type DiaryItem,
+  type ExportBatch,
   type FileQuestion,
   type FileSettings,
 } from '../../shared/diary-file';
@@ -218,6 +219,16 @@ function asImportError(err: unknown): unknown {
 /** better-sqlite3's error for a row whose primary key is taken: here, a question id already in the diary. */
 function isTakenQuestionId(err: unknown): boolean {
   return (err as { code?: string }).code === 'SQLITE_CONSTRAINT_PRIMARYKEY' && /\bquestions\.id\b/.test((err as Error).message);
+}
+
+/** The export's batches, telling `onProgress` the questions written so far after each one. */
+function* counted(batches: Iterable<ExportBatch>, total: number, onProgress: (questions: number, total: number) => void): Generator<ExportBatch> {
+  let done = 0;
+  for (const batch of batches) {
+    yield batch;
+    done += batch.questions.length;
+    onProgress(done, total);
+  }
 }
 
 export function createDiary(ctx: DiaryContext) {
@@ -585,7 +596,7 @@ export function createDiary(ctx: DiaryContext) {
    * and consumed synchronously (by exportTo and writeFileAtomic): nothing else may use the
    * read handle while the snapshot is open.
    */
-  function* exportPieces(format: ExportFormat): Generator<Uint8Array> {
+  function* exportPieces(format: ExportFormat, onProgress?: (questions: number, total: number) => void): Generator<Uint8Array> {
     if (format === 'ics') {
       yield utf8(toICalendar(unresolvedQuestions(store, now()), { now: now(), alarmHours: settings().closing_soon_hours }));
       return;
@@ -594,7 +605,7 @@ export function createDiary(ctx: DiaryContext) {
     read.pragma(`cache_size = ${-EXPORT_CACHE_KIB}`);
     read.exec('BEGIN');
     try {
-      const batches = exportBatches(read, EXPORT_BATCH);
+      const batches = onProgress ? counted(exportBatches(read, EXPORT_BATCH), read.prepare('SELECT count(*) FROM questions').pluck().get() as number, onProgress) : exportBatches(read, EXPORT_BATCH);
       if (format === 'csv') {
         // The CSV header comes first: it has the type columns only when some question needs them (docs/csv-format.md).
         const withTypes = read.prepare("SELECT EXISTS (SELECT 1 FROM questions WHERE type <> 'binary')").pluck().get() === 1;
@@ -720,8 +731,9 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   /** Writes the export to `file`, whole or not at all (main/files/atomic-write.ts). */
-  function exportFile(file: string, format: ExportFormat): void {
-    writeFileAtomic(file, exportPieces(format));
+  /** `onProgress` hears how many questions of how many have been written as the export goes. */
+  function exportFile(file: string, format: ExportFormat, onProgress?: (questions: number, total: number) => void): void {
+    writeFileAtomic(file, exportPieces(format, onProgress));
   }
 
   /** A file's text from the API (already decoded by the caller; a byte order mark it kept is dropped). */

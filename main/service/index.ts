@@ -35,7 +35,7 @@ export interface DiaryService {
   location: string;
   now: () => number;
   /** Writes the diary to `file` (JSON v1, CSV or iCalendar), streamed, whole or not at all. */
-  exportDiaryFile(file: string, format: 'json' | 'csv' | 'ics'): void;
+  exportDiaryFile(file: string, format: 'json' | 'csv' | 'ics', onProgress?: (questions: number, total: number) => void): void;
   /** Adds a diary file (JSON v1 or CSV) from disk, streamed, all or nothing; `merge` skips questions already here unchanged. */
   importDiaryFile(file: string, format: 'json' | 'csv', options?: { merge?: boolean; onRead?: (bytes: number, total: number) => void }): ImportResult;
   /** The nudge scheduler over this diary, delivering through `notifier`. */
@@ -63,7 +63,7 @@ export function openDiary(options: OpenOptions): DiaryService {
     store,
     location: store.path,
     now,
-    exportDiaryFile: (file, format) => diary.exportFile(file, format),
+    exportDiaryFile: (file, format, onProgress) => diary.exportFile(file, format, onProgress),
     importDiaryFile: (file, format, options) => diary.importFile(file, format, options),
     createScheduler: (notifier, onDueCountChanged) => createDiaryScheduler(store, now, diary.settings, notifier, onDueCountChanged),
     backupTo: (file, onProgress) => backupTo(store, file, onProgress),

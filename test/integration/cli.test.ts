@@ -247,7 +247,7 @@ test('import reads a file larger than the app’s 64 MB request cap (the command
   assert.ok(fs.statSync(exported).size > 64 * 1_048_576);
 });
 
-test('import shows its progress at a terminal, and nothing extra when a script reads its output', () => {
+test('import and export show their progress at a terminal, and nothing extra when a script reads their output', () => {
   const dir = tempDir();
   const file = path.join(dir, 'progress.json');
   // About 3 MB, so the file is read in several chunks.
@@ -269,6 +269,19 @@ test('import shows its progress at a terminal, and nothing extra when a script r
   assert.equal(percents.at(-1), 100);
   assert.match(tty.stdout, /100 % — saving/);
   assert.match(tty.stdout, /\x1b\[KImported 3000 questions into /, 'the progress line is cleared before the result');
+
+  // Export to a file likewise, by questions written; the bytes are those of an export in a pipe.
+  const [atTerminal, inPipe] = [path.join(dir, 'at-terminal.json'), path.join(dir, 'in-pipe.json')];
+  const exportCommand = [process.execPath, '--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), 'export', atTerminal, '--db', path.join(dir, 'b.sqlite')]
+    .map((a) => `'${a.replaceAll("'", "'\\''")}'`)
+    .join(' ');
+  const ttyExport = spawnSync('script', ['-qec', exportCommand, '/dev/null'], { cwd: ROOT, encoding: 'utf8', env: { ...process.env, TZ: 'UTC' } });
+  assert.equal(ttyExport.status, 0, ttyExport.stdout);
+  assert.match(ttyExport.stdout, /Exporting to [^\r]*… 100 % — saving\r\x1b\[KWrote /);
+  const pipedExport = forelog('export', inPipe, '--db', path.join(dir, 'b.sqlite'));
+  assert.equal(pipedExport.status, 0, pipedExport.stderr);
+  assert.doesNotMatch(pipedExport.stderr, /Exporting/);
+  assert.ok(fs.readFileSync(atTerminal).equals(fs.readFileSync(inPipe)));
 });
 
 test('export to a reader that stops early (| head) ends quietly', () => {
