@@ -47,8 +47,6 @@ const PEER = path.join(ROOT, 'test', 'bench', 'score_peer.py');
 const PYTHON = '/usr/bin/python3';
 const CHROMIUM = '/usr/bin/chromium';
 const REVISIONS_PER_QUESTION = 20;
-/** The largest file one import takes today is 64 MB; bigger diaries are written in parts of this many questions. */
-const PART = 10_000;
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 const ms = (x: number) => (x >= 10_000 ? `${(x / 1000).toFixed(1)} s` : `${x.toFixed(0)} ms`);
@@ -224,7 +222,7 @@ async function measure(questions: number, rows: Map<string, Row>): Promise<void>
     if (!rows.has(label)) rows.set(label, new Map());
     rows.get(label)!.set(questions, value);
   };
-  const large = questions > PART;
+  const large = questions > 10_000;
   const times = large ? 3 : 5;
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-bench-'));
   const say = (what: string) => process.stderr.write(`[${questions.toLocaleString('en')}] ${what}…\n`);
@@ -234,20 +232,7 @@ async function measure(questions: number, rows: Map<string, Row>): Promise<void>
     const whole = path.join(dir, 'diary.json');
     fs.writeFileSync(whole, JSON.stringify(buildDiaryFile(questions, REVISIONS_PER_QUESTION)));
     say('importing');
-    try {
-      put('import JSON (whole process)', ms(forelog('import', whole, '--db', dbPath).ms));
-    } catch (err) {
-      // Today one import takes at most 64 MB; a larger diary goes in as several files.
-      put('import JSON (whole process)', `refused (${(err as Error).message.replace(/^.*?: forelog: /, '').slice(0, 60)}…)`);
-      fs.rmSync(dbPath, { force: true });
-      let total = 0;
-      for (let first = 0; first < questions; first += PART) {
-        const part = path.join(dir, 'part.json');
-        fs.writeFileSync(part, JSON.stringify(buildDiaryFile(Math.min(PART, questions - first), REVISIONS_PER_QUESTION, first)));
-        total += forelog('import', part, '--db', dbPath).ms;
-      }
-      put(`import in files of ${PART.toLocaleString('en')} (sum)`, ms(total));
-    }
+    put('import JSON (whole process)', ms(forelog('import', whole, '--db', dbPath).ms));
     fs.rmSync(whole, { force: true });
 
     say('exporting');
