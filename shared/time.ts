@@ -103,7 +103,8 @@ let steadyDaysKept = 0;
  * fall on days already asked about. A day with a transition is answered exactly each time.
  */
 function steadyOffsetMinutesAt(ms: number, timeZone: string): number {
-  if (!Number.isFinite(ms)) return offsetMinutesAt(ms, timeZone);
+  // A day's ends must be dates too: near the ends of the Date range (±8.64e15 ms) ask directly.
+  if (!(Math.abs(ms) < 8.64e15 - 2 * DAY_MS)) return offsetMinutesAt(ms, timeZone);
   const day = Math.floor(ms / DAY_MS);
   let offset = steadyOffsets.get(timeZone)?.get(day);
   if (offset === undefined) {
