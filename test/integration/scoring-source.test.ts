@@ -6,7 +6,7 @@
  */
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { loadScoringQuestions } from '../../main/service/scoring-source';
+import { loadScoringInput, loadScoringQuestions } from '../../main/service/scoring-source';
 import { computeScoreReport, computeScorecardDetail, type ScoringQuestion } from '../../shared/scoring';
 import { openTestDiary } from '../support/temp-diary';
 
@@ -200,4 +200,27 @@ test('AUC sees 0.14999999999999997 (Yes) below 0.15 (No): 0, as scikit-learn roc
   assert.equal(report.auc, 0);
   // The two sit on either side of the bin edge 0.15 (bin of p = number of edges ≤ p).
   assert.deepEqual(report.bins.map((b) => [b.index, b.n]), [[1, 1], [2, 1]]);
+});
+
+test("each question's tags reach the engine in the question's own order, whatever order the table holds them in", async () => {
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', { title: 'Tagged', closes_at: '2026-09-01T00:00:00Z', tags: ['alpha', 'beta', 'gamma'], first_forecast: { p: 0.6 } });
+  const plain = await d.call('createQuestion', { title: 'One tag', closes_at: '2026-09-01T00:00:00Z', tags: ['solo'], first_forecast: { p: 0.4 } });
+  const typed = await d.call('createQuestion', {
+    title: 'Which one?',
+    closes_at: '2026-09-01T00:00:00Z',
+    type: 'choice',
+    options: ['A', 'B'],
+    tags: ['one', 'two'],
+    first_forecast: { probs: [0.5, 0.5] },
+  });
+  // Reverse the positions behind the app's back: the rows now lie in the table against their order.
+  const write = d.service.store.write;
+  write.prepare('UPDATE question_tags SET position = 2 - position WHERE question_id = ?').run(q.id);
+  write.prepare('UPDATE question_tags SET position = 1 - position WHERE question_id = ?').run(typed.id);
+  const input = loadScoringInput(d.service.store.read);
+  assert.deepEqual(input.binary.find((x) => x.id === q.id)!.tags, ['gamma', 'beta', 'alpha']);
+  assert.deepEqual(input.binary.find((x) => x.id === plain.id)!.tags, ['solo']);
+  assert.deepEqual(input.choice.find((x) => x.id === typed.id)!.tags, ['two', 'one']);
+  assert.deepEqual((await d.call('getQuestion', { id: q.id })).tags, ['gamma', 'beta', 'alpha'], 'the question page agrees');
 });
