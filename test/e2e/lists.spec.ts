@@ -7,7 +7,7 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import { apiCall, expectNoSeriousViolations, quickAdd } from './helpers';
-import { openApp, useDiaryServer, type AppPage } from './serve';
+import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
 const COUNT = 240;
@@ -58,15 +58,7 @@ test.beforeAll(async () => {
   }
 });
 
-let app: AppPage;
-test.beforeEach(async ({ browser }) => {
-  app = await openApp(browser, server());
-});
-test.afterEach(async () => {
-  const problems = [...app.problems];
-  await app.close();
-  expect(problems, 'the page logged errors').toEqual([]);
-});
+const app = useAppPage(server);
 
 const rows = (page: Page) => page.getByTestId('question-table').locator('tbody tr.question-row');
 const firstTitle = (page: Page) => rows(page).first().getByRole('link');

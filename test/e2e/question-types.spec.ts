@@ -8,22 +8,14 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import { apiCall, daysFromNow, expectNoSeriousViolations, fillQuickAdd, afterRedraw } from './helpers';
-import { openApp, useDiaryServer, type AppPage } from './serve';
+import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
 // Each test takes axe scans and screenshots in two schemes at two widths.
 test.setTimeout(120_000);
 
-let app: AppPage;
-test.beforeEach(async ({ browser }) => {
-  app = await openApp(browser, server());
-});
-test.afterEach(async () => {
-  const problems = [...app.problems];
-  await app.close();
-  expect(problems, 'the page logged errors').toEqual([]);
-});
+const app = useAppPage(server);
 
 async function openNewQuestion(page: Page) {
   await page.getByRole('main').focus();

@@ -5,19 +5,11 @@
  */
 import { expect, test } from '@playwright/test';
 import { daysFromNow, fillQuickAdd, quickAdd } from './helpers';
-import { openApp, useDiaryServer, type AppPage } from './serve';
+import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
 
-let app: AppPage;
-test.beforeEach(async ({ browser }) => {
-  app = await openApp(browser, server());
-});
-test.afterEach(async () => {
-  const problems = [...app.problems];
-  await app.close();
-  expect(problems, 'the page logged errors').toEqual([]);
-});
+const app = useAppPage(server);
 
 test('the launch token is taken out of the address bar and kept for API calls', async () => {
   const { page } = app;

@@ -120,3 +120,35 @@ export async function openApp(
   await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
   return { page, problems, close: () => context.close() };
 }
+
+/**
+ * Registers hooks that open the app (as `openApp` does, on `startAt`) before each test and,
+ * after it, close it and fail the test if the page logged an error. Returns the app of the
+ * running test: its `page` and `problems` are those of the test in progress.
+ */
+export function useAppPage(server: () => DiaryServer, startAt = 'questions'): AppPage {
+  let current: AppPage | undefined;
+  const running = (): AppPage => {
+    if (!current) throw new Error('The app is not open (useAppPage hooks did not open it).');
+    return current;
+  };
+  test.beforeEach(async ({ browser }) => {
+    current = await openApp(browser, server(), {}, startAt);
+  });
+  test.afterEach(async () => {
+    const app = running();
+    current = undefined;
+    const problems = [...app.problems];
+    await app.close();
+    expect(problems, 'the page logged errors').toEqual([]);
+  });
+  return {
+    get page() {
+      return running().page;
+    },
+    get problems() {
+      return running().problems;
+    },
+    close: () => running().close(),
+  };
+}

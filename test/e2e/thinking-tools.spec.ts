@@ -11,7 +11,7 @@ import { expect, test, type Browser, type Page } from '@playwright/test';
 import type { Question, QuestionSummary } from '../../shared/domain';
 import type { Scorecard } from '../../shared/contract';
 import { daysFromNow, fillQuickAdd } from './helpers';
-import { openApp, useDiaryServer, type AppPage } from './serve';
+import { openApp, useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
@@ -60,15 +60,7 @@ async function dataP(page: Page, testId: string): Promise<number> {
 }
 
 test.describe('what the tools do', () => {
-  let app: AppPage;
-  test.beforeEach(async ({ browser }) => {
-    app = await openApp(browser, server());
-  });
-  test.afterEach(async () => {
-    const problems = [...app.problems];
-    await app.close();
-    expect(problems, 'the page logged errors').toEqual([]);
-  });
+  const app = useAppPage(server);
 
   test('the example diary loads (the later tests read it)', async () => {
     const loaded = await call<{ added: number }>('loadDemo', {});

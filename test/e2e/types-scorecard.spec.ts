@@ -9,7 +9,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import type { Hindsight, Scorecard } from '../../shared/contract';
 import { apiCall, expectNoSeriousViolations, afterRedraw } from './helpers';
-import { openApp, useDiaryServer, type AppPage } from './serve';
+import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
@@ -18,15 +18,7 @@ test.setTimeout(120_000);
 const DAY = 86_400_000;
 const iso = (daysAgo: number) => new Date(Date.now() - daysAgo * DAY).toISOString();
 
-let app: AppPage;
-test.beforeEach(async ({ browser }) => {
-  app = await openApp(browser, server());
-});
-test.afterEach(async () => {
-  const problems = [...app.problems];
-  await app.close();
-  expect(problems, 'the page logged errors').toEqual([]);
-});
+const app = useAppPage(server);
 
 /** Invented resolved questions: eight choice (two tagged "kestrowe") and ten numeric, most ranges too narrow. */
 async function seed(): Promise<void> {
