@@ -118,6 +118,26 @@ test('later pages follow a change to the diary at once, from this process or ano
   assert.ok(!after.questions.some((q) => q.id === ids[1]));
 });
 
+test('the search of notes follows each revision note as it is written, cleared, restored and deleted', async () => {
+  // The notes are searched through an index of the noted revisions only (migration 7), which
+  // must follow every way a note changes.
+  const { d, ids } = await diary();
+  const search = async () => (await list(d, { text: 'ferry strike' })).questions.map((q) => q.id);
+  assert.deepEqual(await search(), []);
+  const added = await d.call('addForecast', { question_id: ids[2]!, p: 0.3, note: 'Ferry strike called off' });
+  assert.deepEqual(await search(), [ids[2]], 'a new revision\'s note is found');
+  const revision = added.forecasts.find((f: { note: string }) => f.note === 'Ferry strike called off')!;
+  const cleared = await d.call('updateForecast', { id: revision.id, p: 0.3, note: '' });
+  assert.deepEqual(await search(), [], 'a cleared note is no longer found');
+  await d.call('undo', { token: cleared.undo });
+  assert.deepEqual(await search(), [ids[2]], 'undo brings the note back into the search');
+  await d.call('updateForecast', { id: revision.id, p: 0.3, note: 'Harbour reopened' });
+  assert.deepEqual(await search(), [], 'an edited note is searched by its new words');
+  assert.deepEqual((await list(d, { text: 'harbour reopened' })).questions.map((q) => q.id), [ids[2]]);
+  await d.call('deleteForecast', { id: revision.id });
+  assert.equal((await list(d, { text: 'harbour reopened' })).matched, 0, "a deleted revision's note is gone");
+});
+
 test('search, status and tag filter before paging, and `matched` counts every page', async () => {
   const { d, ids } = await diary();
   const north = await list(d, { tag: 'client:northgate', limit: 2 });
