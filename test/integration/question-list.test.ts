@@ -118,6 +118,20 @@ test('later pages follow a change to the diary at once, from this process or ano
   assert.ok(!after.questions.some((q) => q.id === ids[1]));
 });
 
+test("every page's tag counts and question count follow a change from this process or another one", async () => {
+  const { d, ids } = await diary();
+  const totals = async () => {
+    const page = (await d.call('listQuestions', { limit: 1 })) as { tags: { tag: string; count: number }[]; total: number };
+    return { tags: page.tags, total: page.total };
+  };
+  assert.deepEqual(await totals(), { tags: [{ tag: 'client:northgate', count: 4 }, { tag: 'internal', count: 8 }], total: 12 });
+  await d.call('updateQuestion', { id: ids[1]!, changes: { tags: ['internal', 'port'] } });
+  assert.deepEqual(await totals(), { tags: [{ tag: 'client:northgate', count: 4 }, { tag: 'internal', count: 8 }, { tag: 'port', count: 1 }], total: 12 });
+  const other = openTestDiary({ now: NOW, dbPath: d.dbPath });
+  await other.call('deleteQuestion', { id: ids[0]! });
+  assert.deepEqual(await totals(), { tags: [{ tag: 'client:northgate', count: 3 }, { tag: 'internal', count: 8 }, { tag: 'port', count: 1 }], total: 11 }, "another process's delete");
+});
+
 test('the search of notes follows each revision note as it is written, cleared, restored and deleted', async () => {
   // The notes are searched through an index of the noted revisions only (migration 7), which
   // must follow every way a note changes.
