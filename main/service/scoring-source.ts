@@ -361,18 +361,24 @@ function readBinary(db: Db): ScoringQuestion[] {
       new StoredQuestion(id, title, kind, closes, baseRate, fa !== null && miss !== null ? { false_alarm: fa, miss } : null, outcome ? { outcome, at: resolvedAt! } : null, [], columns[i]),
   );
 
-  // Tags and references are few: joined to their question by id through a map, which costs
-  // less than a join in SQL.
-  const slotOfId = new Map(rows.map((row, i) => [row[1], i]));
-  const tags = db.prepare('SELECT question_id, tag FROM question_tags ORDER BY question_id, position').raw().all() as [string, string][];
-  for (const [qid, tag] of tags) {
-    const slot = slotOfId.get(qid);
-    if (slot !== undefined) questions[slot]!.tags.push(tag);
+  // Tags and references name their question by its rowid (found in the id index SQLite
+  // walks anyway), so no id text is made per row; the slot map is then an array lookup.
+  // Typed questions' rows are skipped: their rowids are not marked.
+  const isBinary = new Uint8Array(maxRowid + 1);
+  for (const row of rows) isBinary[row[0]] = 1;
+  const tags = db
+    .prepare('SELECT q.rowid, t.tag FROM question_tags t JOIN questions q ON q.id = t.question_id ORDER BY t.question_id, t.position')
+    .raw()
+    .all() as [number, string][];
+  for (const [rowid, tag] of tags) {
+    if (rowid <= maxRowid && isBinary[rowid] === 1) questions[slotOfRowid[rowid]!]!.tags.push(tag);
   }
   const references = db
-    .prepare(`SELECT question_id, at, p FROM reference_forecasts WHERE question_id IN (SELECT id FROM questions WHERE type = 'binary') ORDER BY question_id, at, seq`)
+    .prepare('SELECT q.rowid, r.at, r.p FROM reference_forecasts r JOIN questions q ON q.id = r.question_id ORDER BY r.question_id, r.at, r.seq')
     .raw()
-    .all() as [string, number, number][];
-  for (const [qid, at, p] of references) questions[slotOfId.get(qid)!]!.references.push({ at, p });
+    .all() as [number, number, number][];
+  for (const [rowid, at, p] of references) {
+    if (rowid <= maxRowid && isBinary[rowid] === 1) questions[slotOfRowid[rowid]!]!.references.push({ at, p });
+  }
   return questions;
 }
