@@ -265,7 +265,8 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
           stale: !r.outcome && ctx.stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null),
         };
       });
-      return { questions, ...diaryTotals(read), matched, offset, sort, direction };
+      const { tags: tagCounts, total } = diaryTotals(read);
+      return { questions, tags: tagCounts, total, matched, offset, sort, direction };
     });
   } finally {
     holder.settings = null;
