@@ -62,7 +62,7 @@ import {
   type ScoredSet,
   type ScoringQuestion,
 } from '../../shared/scoring';
-import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
+import { INSTANT_RANGE, isInstantInRange, parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import * as v from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
@@ -285,6 +285,11 @@ export function createDiary(ctx: DiaryContext) {
     for (const f of q.forecasts) if (firstAt === null || f.at < firstAt) firstAt = f.at;
     const closes = q.closes_at;
     const opened = q.opened_at ?? defaultOpenedAt(firstAt, stamp, closes);
+    // A close at the range's first instant leaves no earlier instant for a default opening;
+    // storing one before 1900 would make the diary's export a file it refuses.
+    if (!isInstantInRange(opened)) {
+      throw invalid('closes_at', `must be after ${toIso(INSTANT_RANGE.earliest)} when the question has no opened_at: it opens at least 1 ms before it closes, and every time must be between 1900 and 2199`);
+    }
     if (closes <= opened) throw invalid('closes_at', 'must be after the opening time (opened_at)');
     // The record passed the type rules (the contract or the diary file's schema): its fields fit its type.
     const shape = shapeOf(q);
