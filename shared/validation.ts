@@ -393,6 +393,33 @@ export function jsonTextNestedDeeperThan(text: string, limit = MAX_NESTING): boo
 }
 
 /** Turns a zod error into one line per problem: `field.path: reason`. */
+const isRecord = (value: unknown): value is Record<string, unknown> =>
+  typeof value === 'object' && value !== null && !Array.isArray(value);
+
+/**
+ * The paths of the object keys in `raw` that validation dropped from `parsed` (zod objects
+ * strip keys they do not know), list places and nested fields included. Keys holding
+ * undefined are not fields a caller gave. A value kept whole (z.unknown) is the same on
+ * both sides, so nothing inside it is reported.
+ */
+export function droppedFields(raw: unknown, parsed: unknown): string[] {
+  const out: string[] = [];
+  const walk = (r: unknown, p: unknown, path: PropertyKey[]) => {
+    if (r === p) return;
+    if (Array.isArray(r) && Array.isArray(p)) {
+      for (let i = 0; i < Math.min(r.length, p.length); i++) walk(r[i], p[i], [...path, i]);
+    } else if (isRecord(r) && isRecord(p)) {
+      for (const key of Object.keys(r)) {
+        if (r[key] === undefined) continue;
+        if (Object.hasOwn(p, key)) walk(r[key], p[key], [...path, key]);
+        else out.push(formatPath([...path, key]));
+      }
+    }
+  };
+  walk(raw, parsed, []);
+  return out;
+}
+
 export function describeIssues(error: z.ZodError, prefix = ''): string[] {
   return error.issues.map((issue) => {
     const path = formatPath(issue.path);
