@@ -392,7 +392,6 @@ export function jsonTextNestedDeeperThan(text: string, limit = MAX_NESTING): boo
   return false;
 }
 
-/** Turns a zod error into one line per problem: `field.path: reason`. */
 const isRecord = (value: unknown): value is Record<string, unknown> =>
   typeof value === 'object' && value !== null && !Array.isArray(value);
 
@@ -420,6 +419,7 @@ export function droppedFields(raw: unknown, parsed: unknown): string[] {
   return out;
 }
 
+/** Turns a zod error into one line per problem: `field.path: reason`. */
 export function describeIssues(error: z.ZodError, prefix = ''): string[] {
   return error.issues.map((issue) => {
     const path = formatPath(issue.path);

@@ -13,6 +13,7 @@ import path from 'node:path';
 import { API_PREFIX, type Envelope } from '../../shared/bridge';
 import type { ApiErrorCode } from '../../shared/contract';
 import { jsonTextNestedDeeperThan, NESTING_RULE } from '../../shared/validation';
+import { duplicateMember } from '../../shared/json-duplicates';
 import type { Dispatch } from '../service/dispatch';
 import { CONTENT_SECURITY_POLICY } from '../shell/csp';
 
@@ -229,6 +230,10 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       request = text.trim() ? JSON.parse(text) : {};
     } catch (err) {
       throw new RequestRefusal(400, `The request body is not valid JSON: ${err instanceof Error ? err.message : String(err)}. Nothing was changed.`);
+    }
+    const twice = duplicateMember(text);
+    if (twice) {
+      throw new RequestRefusal(400, `The request body names the member "${twice.key}" twice in one object (the second at character ${twice.offset + 1}); keep one of them. Nothing was changed.`);
     }
     const answer = await options.dispatch(operation, request);
     sendJson(res, answer.ok ? 200 : STATUS[answer.error.code], answer);
