@@ -67,15 +67,24 @@ export const timeZone = z
  * feed and carriage return. Why: nobody types them, they hide on screen and in CSV, and
  * SQLite's length() stops at a NUL, so the store would see "\u0000" as an empty title
  * that the validator thought was full.
+ *
+ * Neither takes half of a UTF-16 surrogate pair (a JSON "\ud800" escape without its
+ * partner): it is no character, SQLite keeps text as UTF-8, which cannot hold it, and it
+ * would come back as three U+FFFD, a different and longer text than the one accepted.
+ * With the u flag a class of the surrogate range matches only such unpaired halves.
  */
-const ONE_LINE_CONTROLS = /[\u0000-\u001f\u007f]/;
-const NOTE_CONTROLS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+const ONE_LINE_CONTROLS = /[\u0000-\u001f\u007f\ud800-\udfff]/u;
+const NOTE_CONTROLS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f\ud800-\udfff]/u;
 
-/** The first forbidden control character in `text`, as a reason naming it and its place; null when none. */
+const hex = (code: number) => `U+${code.toString(16).toUpperCase().padStart(4, '0')}`;
+
+/** The first forbidden character in `text` (a control character or an unpaired surrogate), as a reason naming it and its place; null when none. */
 export function controlCharacterProblem(text: string, lines: 'one' | 'many'): string | null {
   const m = (lines === 'one' ? ONE_LINE_CONTROLS : NOTE_CONTROLS).exec(text);
   if (!m) return null;
-  const found = `found U+${m[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')} at character ${m.index + 1}`;
+  const code = m[0].charCodeAt(0);
+  const found = `found ${hex(code)} at character ${m.index + 1}`;
+  if (code >= 0xd800) return `must be Unicode text: ${found}, half of a surrogate pair without its other half; remove it or write the whole character`;
   return lines === 'one'
     ? `must be one line without control characters such as NUL, tab or line breaks (${found})`
     : `must not contain control characters other than tab and line breaks (${found})`;
