@@ -9,6 +9,33 @@ import { dateToDays } from './numeric-value';
 import { quantileLevelsProblem, quantilesProblem } from './quantile-levels';
 import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
 
+/**
+ * zod's own words for a wrong shape ("Invalid input: expected object, received array",
+ * "Unrecognized key") reach users wherever a schema gives none of its own: a request body
+ * that is a list, a lens that is null, a diary record that is not an object. These say
+ * the same in the words the rest of the messages use. A schema's own message still wins.
+ */
+const SHAPES: Record<string, string> = {
+  object: 'must be an object of named fields ({ … })',
+  array: 'must be a list ([ … ])',
+  string: 'must be text',
+  number: 'must be a number',
+  boolean: 'must be true or false',
+};
+z.config({
+  customError: (issue) => {
+    if (issue.code === 'invalid_type') {
+      if (issue.input === undefined || issue.expected === 'nonoptional') return 'is required';
+      const got = issue.input === null ? 'null' : Array.isArray(issue.input) ? 'a list' : typeof issue.input === 'object' ? 'an object' : typeof issue.input === 'string' ? 'text' : `a ${typeof issue.input}`;
+      return `${SHAPES[issue.expected] ?? `must be ${issue.expected}`}, not ${got}`;
+    }
+    if (issue.code === 'unrecognized_keys') {
+      return `names ${issue.keys.map((k) => `"${k}"`).join(', ')}, which ${issue.keys.length === 1 ? 'is not a field' : 'are not fields'} here; check the spelling, or leave ${issue.keys.length === 1 ? 'it' : 'them'} out`;
+    }
+    return undefined;
+  },
+});
+
 export const TAG_PATTERN = /^[a-z0-9][a-z0-9_\-:./]{0,63}$/;
 export const TAG_RULE =
   'a tag is 1–64 lower-case letters, digits or - _ : . / starting with a letter or digit (e.g. client:northgate)';

@@ -193,6 +193,30 @@ test('a request with a field the operation does not take is refused, naming it, 
   assert.equal((await d.call('importDiary', { diary: file })).added, 1);
 });
 
+test('a request of the wrong shape is told so in plain words, not in the validator\'s', async () => {
+  const d = openTestDiary();
+  const cases: [string, unknown, string][] = [
+    ['diaryInfo', [], 'must be an object of named fields ({ … }), not a list'],
+    ['updateQuestion', { id: 'x' }, 'changes: is required'],
+    ['addForecast', { question_id: 'x', p: 0.5, lenses: [null] }, 'lenses[0]: must be an object of named fields ({ … }), not null'],
+    ['createQuestion', { title: 'x', closes_at: '2030-01-01T00:00:00Z', first_forecast: [0.5] }, 'first_forecast: must be an object of named fields ({ … }), not a list'],
+    ['importDiary', {}, 'diary: is required'],
+    ['updateSettings', { bogus: 1 }, 'names "bogus", which is not a field here; check the spelling, or leave it out'],
+  ];
+  for (const [op, request, line] of cases) {
+    const answer = await d.service.dispatch(op, request);
+    assert.equal(answer.ok, false, op);
+    if (!answer.ok) {
+      assert.deepEqual(answer.error.fields, [line], op);
+      assert.doesNotMatch(answer.error.message, /Invalid input|Unrecognized|expected|received/, op);
+    }
+  }
+  const file = '{"format":"forelog-diary","version":1,"questions":[null]}';
+  await assert.rejects(d.call('importText', { format: 'json', text: file }), {
+    message: 'Question 1 (questions[0]) is not valid: field (record): must be an object of named fields ({ … }), not null (the record starts on line 1). Nothing was imported.',
+  });
+});
+
 test('the scorecard follows every change at once (its cached input is dropped on each write)', async () => {
   const d = openTestDiary();
   const a = await d.call('createQuestion', { ...base, title: 'A', first_forecast: { p: 0.9 } });
