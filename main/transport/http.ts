@@ -221,6 +221,12 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       refuse(res, 405, 'API calls use POST with a JSON body.');
       return;
     }
+    // A body declared as something else (a form, plain text) is not what the caller meant to
+    // send as an API request; a request without the header is read as JSON, as curl -d sends it.
+    const declared = req.headers['content-type'];
+    if (declared !== undefined && declared.split(';')[0]!.trim().toLowerCase() !== 'application/json') {
+      throw new RequestRefusal(415, `API calls take a JSON body, but this one is declared as "${declared.slice(0, 100)}"; send it with Content-Type: application/json. Nothing was changed.`);
+    }
     const text = await readBody(req, limit);
     if (jsonTextNestedDeeperThan(text)) {
       throw new RequestRefusal(400, `The request body is nested too deeply: ${NESTING_RULE}. Nothing was changed.`);
