@@ -135,14 +135,17 @@ const NOT_A_DIARY = 'This is not a Forelog diary file: expected a JSON object wi
 
 function checkFormat(format: unknown): void {
   if (format !== DIARY_FORMAT) {
-    throw new DiaryFileError(`This is not a Forelog diary file: "format" must be "${DIARY_FORMAT}".`, null, 'format');
+    throw new DiaryFileError(`This is not a Forelog diary file: "format" must be "${DIARY_FORMAT}". Nothing was imported.`, null, 'format');
   }
 }
 
 function checkVersion(version: unknown): void {
+  if (version === undefined) {
+    throw new DiaryFileError(`This diary file has no "version"; this Forelog reads version ${DIARY_VERSION} (written "version": ${DIARY_VERSION}). Nothing was imported.`, null, 'version');
+  }
   if (version !== DIARY_VERSION) {
     throw new DiaryFileError(
-      `This diary file is version ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}. Update Forelog to import it.`,
+      `This diary file is version ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}. Nothing was imported; update Forelog to import it.`,
       null,
       'version',
     );
@@ -150,7 +153,7 @@ function checkVersion(version: unknown): void {
 }
 
 function questionsNotAList(): DiaryFileError {
-  return new DiaryFileError('"questions" must be a list (it may be empty).', null, 'questions');
+  return new DiaryFileError('"questions" must be a list (it may be empty). Nothing was imported.', null, 'questions');
 }
 
 function readSettings(raw: unknown): FileSettings | null {
@@ -392,7 +395,7 @@ function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: numb
 
 /** Reads a diary file already in memory (JSON-parsed). Throws DiaryFileError on the first problem. */
 export function* diaryItems(raw: unknown): Generator<DiaryItem> {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw new DiaryFileError(NOT_A_DIARY, null, null);
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw new DiaryFileError(`${NOT_A_DIARY} Nothing was imported.`, null, null);
   const top = raw as Record<string, unknown>;
   checkFormat(top.format);
   checkVersion(top.version);
@@ -418,7 +421,7 @@ export function parseDiaryFile(raw: unknown): ParsedDiary {
 function unreadable(err: JsonStreamError): DiaryFileError {
   switch (err.kind) {
     case 'not-object':
-      return new DiaryFileError(`${NOT_A_DIARY} (${err.message})`, null, null);
+      return new DiaryFileError(`${NOT_A_DIARY} (${err.message}) Nothing was imported.`, null, null);
     case 'depth':
       return new DiaryFileError(`The file cannot be read at ${err.message}; a diary file never nests that deep. Nothing was imported.`, null, null);
     case 'duplicate':

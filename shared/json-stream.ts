@@ -63,7 +63,11 @@ function advance(line: number, column: number, text: string, length = text.lengt
 }
 
 function describeChar(c: number): string {
-  return c === END ? 'the end of the file' : `"${String.fromCharCode(c)}"`;
+  if (c === END) return 'the end of the file';
+  // An invisible character (NUL, a control, a byte order mark in the middle) is named by its
+  // code point: written as itself it would show as nothing, or end the message in a terminal.
+  if (c < 0x20 || (c >= 0x7f && c <= 0xa0) || c === 0xfeff || (c >= 0xd800 && c <= 0xdfff)) return `the character U+${c.toString(16).toUpperCase().padStart(4, '0')}`;
+  return `"${String.fromCharCode(c)}"`;
 }
 
 class Scanner {

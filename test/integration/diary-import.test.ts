@@ -84,6 +84,13 @@ test('a member named twice in one object is refused at any depth, with its line 
   assert.equal((await d.call('listQuestions', {})).total, 1);
 });
 
+test('an invisible character where the file should start is named by its code point, not written as itself', async () => {
+  const d = openTestDiary();
+  for (const [text, name] of [['\u0000\u0000', 'U+0000'], ['\u0001{}', 'U+0001'], ['\u00a0{}', 'U+00A0']] as const) {
+    await refusesText(d, text, `This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found the character ${name}) Nothing was imported.`);
+  }
+});
+
 test('members may come in any order: settings after the questions import as if they came first', async () => {
   const settings = { default_checkin_days: 3, time_zone: 'Asia/Tokyo' };
   const questions = [question(1), question(2, { time_zone: 'Europe/London' })];
@@ -109,11 +116,11 @@ test('format, version and questions are checked wherever they stand; the records
   const d = openTestDiary();
   await d.call('importText', { format: 'json', text: JSON.stringify({ ...DIARY, questions: [question(0)] }) });
   const many = Array.from({ length: 30 }, (_, i) => question(i + 1));
-  await refusesText(d, JSON.stringify({ questions: many, version: 1, format: 'something-else' }), 'This is not a Forelog diary file: "format" must be "forelog-diary".');
-  await refusesText(d, JSON.stringify({ questions: many, format: 'forelog-diary' }), /^This diary file is version undefined; this Forelog reads version 1/);
-  await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty).');
-  await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty).');
-  await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[")');
+  await refusesText(d, JSON.stringify({ questions: many, version: 1, format: 'something-else' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
+  await refusesText(d, JSON.stringify({ questions: many, format: 'forelog-diary' }), 'This diary file has no "version"; this Forelog reads version 1 (written "version": 1). Nothing was imported.');
+  await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty). Nothing was imported.');
+  await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty). Nothing was imported.');
+  await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[") Nothing was imported.');
   await refusesText(d, '', /^This is not a Forelog diary file: .*the file is empty/);
 });
 
