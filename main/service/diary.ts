@@ -1095,6 +1095,10 @@ export function createDiary(ctx: DiaryContext) {
       const t = now();
       const until = req.until !== undefined ? ms(req.until) : snoozeUntil(req.preset!, t, settings().time_zone);
       if (until <= t) throw invalid('until', 'must be in the future');
+      // A preset counts on from now, and near the end of 2199 it can land past the range every stored time keeps to.
+      if (!isInstantInRange(until)) {
+        throw invalid('preset', `would end at ${toIso(until)}, after 2199, the last year Forelog keeps; give an until time before ${toIso(INSTANT_RANGE.end)} instead`);
+      }
       let undo = '';
       transact(() => {
         const row = requireQuestionRow(req.question_id);

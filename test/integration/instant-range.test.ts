@@ -213,6 +213,22 @@ test('a diary at both extremes works everywhere and re-imports exactly through J
   assert.deepEqual(questions(exportJson(fromCsv.service)), questions(json));
 });
 
+test('a snooze preset that would end after 2199 is refused, naming the preset, and nothing is snoozed', async () => {
+  const d = openTestDiary({ now: '2199-12-30T12:00:00Z' });
+  const q = await d.call('createQuestion', { title: 'Late', closes_at: toIso(INSTANT_RANGE.end - 1), first_forecast: { p: 0.5 }, checkin_days: 1 });
+  const before = exportJson(d.service);
+  const answer = await d.service.dispatch('snooze', { question_id: q.id, kind: 'checkin', preset: 'next_week' });
+  assert.equal(answer.ok, false);
+  if (!answer.ok) {
+    assert.equal(answer.error.code, 'invalid');
+    assert.deepEqual(answer.error.fields, ['preset: would end at 2200-01-06T09:00:00.000Z, after 2199, the last year Forelog keeps; give an until time before 2200-01-01T00:00:00.000Z instead']);
+  }
+  assert.equal(exportJson(d.service), before);
+  assert.deepEqual(d.service.store.read.prepare('SELECT count(*) AS n FROM snoozes').get(), { n: 0 });
+  // A preset that ends inside the range still snoozes.
+  assert.equal((await d.call('snooze', { question_id: q.id, kind: 'checkin', preset: 'tomorrow_morning' })).until, '2199-12-31T09:00:00.000Z');
+});
+
 test('the command line refuses --at, --from and --to outside the range with the rule', () => {
   const db = path.join(tempDir(), 'd.sqlite');
   openTestDiary({ dbPath: db }).service.close();
