@@ -158,9 +158,9 @@ function questionsNotAList(): DiaryFileError {
 
 function readSettings(raw: unknown): FileSettings | null {
   if (raw === undefined || raw === null) return null;
-  const s = fileSettings.safeParse(raw);
+  const s = fileSettings.safeParse(raw, { reportInput: true });
   if (!s.success) {
-    const line = v.describeIssues(s.error, 'settings')[0]!;
+    const line = v.describeIssues(s.error, 'settings', true)[0]!;
     throw new DiaryFileError(`The settings are not valid: ${line}. Nothing was imported.`, null, line.split(':')[0]!);
   }
   return s.data;
@@ -359,13 +359,13 @@ function parseQuestion(raw: unknown): ReturnType<typeof fileQuestion.safeParse> 
   if (plain) return { success: true, data: plain } as ReturnType<typeof fileQuestion.safeParse>;
   const revisions = plainRevisions(raw);
   if (revisions) {
-    const rest = fileQuestion.safeParse({ ...(raw as object), forecasts: [] });
+    const rest = fileQuestion.safeParse({ ...(raw as object), forecasts: [] }, { reportInput: true });
     if (rest.success) {
       rest.data.forecasts = revisions;
       return rest;
     }
   }
-  return fileQuestion.safeParse(raw);
+  return fileQuestion.safeParse(raw, { reportInput: true });
 }
 
 /**
@@ -378,7 +378,7 @@ function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: numb
   if (!r.success) {
     const issue = r.error.issues[0]!;
     const field = v.formatPath(issue.path) || '(record)';
-    throw new DiaryFileError(`${questionRecordName(index)} is not valid: field ${field}: ${issue.message}${where}. Nothing was imported.`, index, field);
+    throw new DiaryFileError(`${questionRecordName(index)} is not valid: field ${field}: ${v.issueReason(issue, true)}${where}. Nothing was imported.`, index, field);
   }
   if (r.data.id !== undefined) {
     if (ids.has(r.data.id)) {

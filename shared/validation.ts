@@ -456,12 +456,24 @@ export function droppedFields(raw: unknown, parsed: unknown): string[] {
   return out;
 }
 
-/** Turns a zod error into one line per problem: `field.path: reason`. */
-export function describeIssues(error: z.ZodError, prefix = ''): string[] {
+/**
+ * The reason an issue gives a user. A field left out is "required", whatever its type's
+ * message says ("title: must be text" reads as if a wrong title had been given). Only a
+ * parse run with `reportInput: true` tells a missing field (no input) from a wrong one, so
+ * `withInputs` says the error came from one.
+ */
+export function issueReason(issue: z.core.$ZodIssue, withInputs = false): string {
+  if (!withInputs || issue.code !== 'invalid_type' || issue.input !== undefined || issue.message === 'is required') return issue.message;
+  return issue.message.startsWith('must ') ? `is required (it ${issue.message})` : `is required (${issue.message})`;
+}
+
+/** Turns a zod error into one line per problem: `field.path: reason` (see `issueReason` for `withInputs`). */
+export function describeIssues(error: z.ZodError, prefix = '', withInputs = false): string[] {
   return error.issues.map((issue) => {
     const path = formatPath(issue.path);
     const field = prefix && path ? `${prefix}.${path}` : prefix || path;
-    return field ? `${field}: ${issue.message}` : issue.message;
+    const reason = issueReason(issue, withInputs);
+    return field ? `${field}: ${reason}` : reason;
   });
 }
 

@@ -193,7 +193,7 @@ test('a request with a field the operation does not take is refused, naming it, 
   assert.equal((await d.call('importDiary', { diary: file })).added, 1);
 });
 
-test('a request of the wrong shape is told so in plain words, not in the validator\'s', async () => {
+test('a request of the wrong shape, or missing a field, is told so in plain words, not in the validator\'s', async () => {
   const d = openTestDiary();
   const cases: [string, unknown, string][] = [
     ['diaryInfo', [], 'must be an object of named fields ({ … }), not a list'],
@@ -211,6 +211,16 @@ test('a request of the wrong shape is told so in plain words, not in the validat
       assert.doesNotMatch(answer.error.message, /Invalid input|Unrecognized|expected|received/, op);
     }
   }
+  // A field left out is called missing; one of the wrong type keeps its own rule.
+  const empty = await d.service.dispatch('createQuestion', {});
+  assert.ok(!empty.ok);
+  if (!empty.ok) assert.deepEqual(empty.error.fields, ['title: is required (it must be text)', 'closes_at: is required (it must be an ISO 8601 date-time text)']);
+  const wrong = await d.service.dispatch('createQuestion', { title: 3, closes_at: null });
+  assert.ok(!wrong.ok);
+  if (!wrong.ok) assert.deepEqual(wrong.error.fields, ['title: must be text', 'closes_at: must be an ISO 8601 date-time text']);
+  await assert.rejects(d.call('importText', { format: 'json', text: '{"format":"forelog-diary","version":1,"questions":[{"title":"No close","forecasts":[]}]}' }), {
+    message: 'Question 1 (questions[0]) is not valid: field closes_at: is required (it must be an ISO 8601 date-time text) (the record starts on line 1). Nothing was imported.',
+  });
   const file = '{"format":"forelog-diary","version":1,"questions":[null]}';
   await assert.rejects(d.call('importText', { format: 'json', text: file }), {
     message: 'Question 1 (questions[0]) is not valid: field (record): must be an object of named fields ({ … }), not null (the record starts on line 1). Nothing was imported.',
