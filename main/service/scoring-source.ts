@@ -286,7 +286,8 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'
+       ORDER BY q.closes_at, q.id`,
     )
     .raw()
     .all() as Row[];
@@ -343,11 +344,17 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   return { choice, numeric };
 }
 
+/**
+ * Both readers take the questions in export order (close time, then id): sums of doubles
+ * depend on their order, and this way a diary and its own export imported elsewhere score
+ * bit for bit alike, whatever order the questions were entered in.
+ */
 function readBinary(db: Db): ScoringQuestion[] {
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'
+       ORDER BY q.closes_at, q.id`,
     )
     .raw()
     .all() as QuestionRow[];

@@ -229,6 +229,7 @@ test('bad paging and sorting requests are refused, naming the field, and change 
   await refused(d, 'listQuestions', { limit: 2.5 }, /^limit: /);
   await refused(d, 'listQuestions', { limit: '10' }, /^limit: /);
   await refused(d, 'listQuestions', { offset: -1 }, /^offset: must be a whole number, 0 or more/);
+  await refused(d, 'listQuestions', { offset: 2 ** 53 }, /^offset: must be a whole number, 0 or more \(at most 9007199254740991\)$/);
   await refused(d, 'listQuestions', { offset: 0.5 }, /^offset: /);
   await refused(d, 'listQuestions', { offset: Number.NaN }, /^offset: /);
   await refused(d, 'hindsight', { limit: 0 }, /^limit: /);
