@@ -5,6 +5,7 @@
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
  * decomposition) fit their cards, and the base-rate card shows its whole note. Screens are
  * photographed at both sizes; the long question's page is scanned by axe in light and dark.
+ * A toast naming the 300-character title cuts the quote short and stays a few lines tall.
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Question } from '../../shared/domain';
@@ -149,3 +150,28 @@ for (const scheme of ['light', 'dark'] as const) {
     });
   }
 }
+
+test('a toast about a question with a 300-character title stays a few lines tall', async ({ browser }) => {
+  const app = await openApp(browser, server(), { viewport: { width: 800, height: 600 } }, 'questions');
+  const { page } = app;
+  try {
+    await page.getByRole('main').focus();
+    await page.keyboard.press('n');
+    const dialog = page.getByRole('dialog', { name: 'New question' });
+    await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill(word(300, 'z'));
+    await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('01/07/2031');
+    await dialog.getByRole('textbox', { name: 'Closes: time' }).fill('09:30');
+    await dialog.getByRole('button', { name: 'Save question' }).click();
+    await expect(dialog).toBeHidden();
+    const toast = page.getByTestId('toast').filter({ hasText: 'Added “Wzzz' });
+    // The title is cut short; what happened and the way to the question stay.
+    await expect(toast).toContainText('…”.');
+    await expect(toast.getByRole('link', { name: 'Open the question' })).toBeVisible();
+    const box = await toast.boundingBox();
+    expect(box!.height, 'the toast’s height at 800×600').toBeLessThan(200);
+    await page.screenshot({ path: 'test/e2e/artifacts/overflow-long-title-toast.png' });
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
