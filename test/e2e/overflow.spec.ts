@@ -5,7 +5,8 @@
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
  * decomposition) fit their cards, and the base-rate card shows its whole note. Screens are
  * photographed at both sizes; the long question's page is scanned by axe in light and dark.
- * A toast naming the 300-character title cuts the quote short and stays a few lines tall.
+ * At 800×600 the question list leaves most of a row to the question; a toast naming the
+ * 300-character title cuts the quote short and stays a few lines tall.
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Question } from '../../shared/domain';
@@ -150,6 +151,25 @@ for (const scheme of ['light', 'dark'] as const) {
     });
   }
 }
+
+test('in an 800×600 window the question list gives most of each row to the question', async ({ browser }) => {
+  const app = await openApp(browser, server(), { viewport: { width: 800, height: 600 } }, 'questions');
+  const { page } = app;
+  try {
+    const table = page.getByTestId('question-table');
+    await expect(table.getByText(word(300, 'x')).first()).toBeVisible();
+    const tableWidth = (await table.boundingBox())!.width;
+    const questionWidth = (await table.getByRole('columnheader', { name: /^Question/ }).boundingBox())!.width;
+    // The fixed columns once left the question a ninth of the row: one word to a line.
+    expect(questionWidth / tableWidth, 'the Question column’s share of the table').toBeGreaterThan(1 / 3);
+    // Headings wrap rather than run into the next column.
+    expect(await cut(page, '.question-table th')).toEqual([]);
+    await page.screenshot({ path: 'test/e2e/artifacts/overflow-questions-800.png' });
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
 
 test('a toast about a question with a 300-character title stays a few lines tall', async ({ browser }) => {
   const app = await openApp(browser, server(), { viewport: { width: 800, height: 600 } }, 'questions');
