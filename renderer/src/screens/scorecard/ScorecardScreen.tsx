@@ -34,6 +34,7 @@ import { RunningBrierChart } from './RunningBrierChart';
 import { SkillBars } from './SkillBars';
 import { useScorecard } from './useScorecard';
 import './scorecard.css';
+import { formatCount } from '../../dates';
 
 export function ScorecardScreen() {
   useDocumentTitle('Scorecard');
@@ -161,7 +162,7 @@ function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, w
             <RocChart roc={detail.roc} auc={report.auc} yes={detail.auc_n.yes} no={detail.auc_n.no} />
           ) : (
             <p className="sc-note" data-testid="roc-missing">
-              The ROC curve needs both a Yes and a No question ({detail.auc_n.yes} Yes, {detail.auc_n.no} No here).
+              The ROC curve needs both a Yes and a No question ({formatCount(detail.auc_n.yes)} Yes, {formatCount(detail.auc_n.no)} No here).
             </p>
           )}
         </Section>
