@@ -92,13 +92,13 @@ export function ToastProvider({ children }: { children: ReactNode }) {
 }
 
 /** How much of a quoted name a toast shows; a question's title may run to 300 characters. */
-const QUOTE_SHOWN = 80;
+const QUOTE_SHOWN = 100;
 
 /**
  * A toast names what it acted on in quotes (“…”). A long title quoted whole made one toast
- * taller than a small window and hid the page and the other toasts, so a long quote is cut
- * to its first words; the rest of the message, which says what happened and what to do,
- * stays whole. The action link leads to the full title.
+ * taller than a small window and hid the page and the other toasts, so a quote longer than
+ * a usual title is cut to its first words; the rest of the message, which says what
+ * happened and what to do, stays whole. The action link leads to the full title.
  */
 export function shortenQuotes(message: string): string {
   return message.replace(/“([^”]*)”/g, (whole, quoted: string) => {
