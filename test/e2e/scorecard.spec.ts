@@ -71,8 +71,11 @@ test('an empty diary says what is needed before anything can be scored', async (
   try {
     await openScorecard(app);
     await expect(app.page.getByTestId('nothing-scored')).toHaveText(
-      'Nothing scored yet: resolve questions that have a forecast made before their window closed.',
+      'Resolve questions that have a forecast made before their window closed; their scores appear here.',
     );
+    // The heading says it once; the body does not repeat it.
+    await expect(app.page.getByRole('heading', { name: 'Nothing scored yet' })).toBeVisible();
+    await expect(app.page.getByText('Nothing scored yet')).toHaveCount(1);
     await expect(app.page.getByTestId('caution')).toHaveText('Scores describe past calls; small samples mislead.');
     await expectNoSeriousViolations(app.page, 'the empty Scorecard');
     await app.page.screenshot({ path: 'test/e2e/artifacts/scorecard-empty-light.png', fullPage: true });

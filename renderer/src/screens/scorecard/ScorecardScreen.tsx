@@ -116,12 +116,15 @@ function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, w
         title={filtered ? 'Nothing scored in this view' : 'Nothing scored yet'}
         actions={<a href={hrefTo('questions')}>Go to Questions</a>}
       >
+        {/* The title already says "nothing scored"; the body says what to do about it. */}
         <p data-testid="nothing-scored">
-          {filtered ? 'Nothing scored for these filters' : 'Nothing scored yet'}: resolve questions that have a forecast made before their
-          window closed.
+          {filtered
+            ? 'No question in this view was resolved with a forecast made before its window closed.'
+            : 'Resolve questions that have a forecast made before their window closed; their scores appear here.'}
         </p>
         <p>
-          Here: {total('open')} open, {total('unscored')} resolved without a forecast before the window ended, {total('void')} void.
+          Here: {formatCount(total('open'))} open, {formatCount(total('unscored'))} resolved without a forecast before the window ended,{' '}
+          {formatCount(total('void'))} void.
         </p>
       </EmptyState>
     );
