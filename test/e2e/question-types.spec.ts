@@ -49,6 +49,10 @@ test('a choice question: spread the rest, a total other than 100% refused, revis
   await dialog.getByRole('radio', { name: 'Multiple choice' }).check();
   // The rule's hint speaks of the options, not of a Yes this question does not have.
   await expect(dialog.getByRole('textbox', { name: 'Resolution rule' })).toHaveAccessibleDescription(/^What decides which option came true/);
+  // Empty options: each box says so beside it, once, as a sentence.
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog.getByRole('textbox', { name: 'Option 1', exact: true })).toHaveAccessibleDescription('Write the option, or remove it');
+  await expect(dialog.getByText(/write the option, or remove it/i)).toHaveCount(3);
   for (const [k, label] of ['Kestrowe', 'Ambledene', 'Neither'].entries()) {
     await dialog.getByRole('textbox', { name: `Option ${k + 1}`, exact: true }).fill(label);
   }
