@@ -5,8 +5,9 @@
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
  * decomposition) fit their cards, and the base-rate card shows its whole note. Screens are
  * photographed at both sizes; the long question's page is scanned by axe in light and dark.
- * At 800×600 the question list leaves most of a row to the question; a toast naming the
- * 300-character title cuts the quote short and stays a few lines tall.
+ * At 800×600 the question list leaves most of a row to the question and the skill table room
+ * for its readings; a toast naming the 300-character title cuts the quote short and stays a
+ * few lines tall.
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Question } from '../../shared/domain';
@@ -165,6 +166,21 @@ test('in an 800×600 window the question list gives most of each row to the ques
     // Headings wrap rather than run into the next column.
     expect(await cut(page, '.question-table th')).toEqual([]);
     await page.screenshot({ path: 'test/e2e/artifacts/overflow-questions-800.png' });
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+test('in an 800×600 window the skill table leaves room for its readings', async ({ browser }) => {
+  const app = await openApp(browser, server(), { viewport: { width: 800, height: 600 } }, 'scorecard');
+  const { page } = app;
+  try {
+    const table = page.getByTestId('skill-chart').locator('table');
+    await expect(table).toBeVisible();
+    const width = async (name: string) => (await table.getByRole('columnheader', { name, exact: true }).boundingBox())!.width;
+    // The baselines' names once stood on one line and took the row, the reading a word a line.
+    expect(await width('Reading'), 'the Reading column against the Baseline column').toBeGreaterThan(await width('Baseline'));
     expect(app.problems).toEqual([]);
   } finally {
     await app.close();

@@ -144,7 +144,7 @@ export const SkillBars = memo(function SkillBars({ skill, scored }: { skill: Ski
       }
       caption="Skill score against each baseline: bars right of 0 mean a lower (better) Brier score than the baseline, left of 0 a higher one."
       table={
-        <table>
+        <table className="sc-skill-table">
           <caption className="visually-hidden">Skill against each baseline</caption>
           <thead>
             <tr>
