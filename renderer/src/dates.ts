@@ -26,6 +26,21 @@ function userLocale(): string {
   return knownLocale;
 }
 
+const countFormats = new Map<string, Intl.NumberFormat>();
+
+/**
+ * A count as the user's locale groups its digits: 8988 → "8,988" (en-GB), "8.988" (de-DE),
+ * "8 988" (fr-FR). Counts of questions run to 100,000; ungrouped they are hard to read.
+ */
+export function formatCount(n: number, locale = userLocale()): string {
+  let format = countFormats.get(locale);
+  if (!format) {
+    format = new Intl.NumberFormat(locale);
+    countFormats.set(locale, format);
+  }
+  return format.format(n);
+}
+
 const formats = new Map<string, Intl.DateTimeFormat>();
 
 function cached(locale: string, timeZone: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {

@@ -171,10 +171,11 @@ async function browserFigures(dbPath: string, times: number, timeoutMs: number, 
       await onPage('search keystroke until the list shows (browser)', async (page) => {
         await page.evaluate(() => (location.hash = '#/questions'));
         await questionsReady(page)();
-        // One digit typed after "question 1": always fewer matches, so the caption changes.
+        // One digit typed after "question 1": always fewer matches, so the caption changes. The
+        // caption groups digits as the locale does ("of 100,000 questions").
         const search = page.getByRole('searchbox', { name: 'Search' });
         await search.fill('question 1');
-        await page.waitForFunction(() => /of \d+ questions/.test(document.querySelector('[data-testid="question-table"] caption')?.textContent ?? ''), null, wait);
+        await page.waitForFunction(() => /of \d{1,3}([,.\u00a0\u202f]\d{3})* questions/.test(document.querySelector('[data-testid="question-table"] caption')?.textContent ?? ''), null, wait);
         const before = await page.evaluate(() => document.querySelector('[data-testid="question-table"] caption')?.textContent ?? '');
         const keystrokes: number[] = [];
         for (let i = 0; i < times; i++) {

@@ -1,7 +1,8 @@
 /**
  * Your data, from the Settings screen in browser mode: the diary goes out as JSON v1
  * (INTERFACES.md §1), CSV and iCalendar (RFC 5545) downloads, and comes back in from a
- * file; a bad file is refused whole with the record named, and nothing changes.
+ * file; a bad file is refused whole with the record named, and nothing changes. Counts of a
+ * thousand and more are grouped as the locale writes them ("1,046 questions").
  */
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test } from '@playwright/test';
@@ -102,6 +103,37 @@ test('a picked file is decoded as the command line decodes it: BOM and UTF-16 re
     await page.goto(`${server().url}#/questions`);
     await expect(page.getByText('Café opens in Zürich')).toBeVisible();
     await expect(page.getByText('Bistro opens in Zürich')).toHaveCount(0);
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+test('counts of a thousand and more are written with the locale’s digit grouping', async ({ browser }) => {
+  // A thousand copies of one question from the diary, imported as one file.
+  const before = await apiCall<{ question_count: number }>(server().url, 'diaryInfo');
+  if (before.question_count === 0) await apiCall(server().url, 'loadDemo');
+  const diary = await apiCall<{ questions: { id: string; title: string }[] }>(server().url, 'exportDiary');
+  const model = diary.questions[0]!;
+  const copies = Array.from({ length: 1000 }, (_, i) => ({ ...model, id: `grouping-${i}`, title: `Grouping copy ${i}` }));
+  await apiCall(server().url, 'importDiary', { diary: { ...diary, questions: copies }, merge: true });
+  const { question_count: total } = await apiCall<{ question_count: number }>(server().url, 'diaryInfo');
+  expect(total).toBeGreaterThan(1000);
+  // The e2e browser runs in en-GB: a comma between thousands ("1,046"), never "1046".
+  const grouped = total.toLocaleString('en-GB');
+  expect(grouped).toMatch(/^\d{1,3}(,\d{3})+$/);
+
+  const app = await openApp(browser, server(), {}, 'questions');
+  const { page } = app;
+  try {
+    await expect(page.getByTestId('question-table').locator('caption')).toContainText(`${grouped} questions`);
+    await page.getByLabel('Search').fill('Grouping copy');
+    await expect(page.getByTestId('question-table').locator('caption')).toContainText(`1,000 of ${grouped} questions`);
+    await page.goto(`${server().url}#/settings`);
+    await expect(page.getByRole('definition').filter({ hasText: grouped })).toBeVisible();
+    await page.goto(`${server().url}#/scorecard`);
+    // The yes/no questions only (the copies and more): over a thousand, grouped.
+    await expect(page.getByTestId('headline-counts-n')).toHaveText(/^n = \d{1,3}(,\d{3})+ in view$/);
     expect(app.problems).toEqual([]);
   } finally {
     await app.close();

@@ -1,8 +1,9 @@
 /**
  * Typed text is never thrown away without asking: a half-filled dialog closed by Escape,
  * its × button, a click outside it or Cancel asks "Discard your changes?" (Keep editing /
- * Discard), while an untouched one just closes; leaving Settings with unsaved changes — a
- * link, Back, or closing the tab — asks too, and leaving after saving does not.
+ * Discard), while an untouched one just closes; Back or a reload behind a half-filled dialog
+ * asks the same; leaving Settings with unsaved changes — a link, Back, or closing the tab —
+ * asks too, and leaving after saving does not.
  */
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import type { Settings } from '../../shared/domain';
@@ -123,6 +124,58 @@ test('what is typed in a Desk revise panel survives closing the panel', async ({
     await item.getByRole('button', { name: 'Revise' }).click();
     await expect(item.getByRole('spinbutton', { name: 'New probability', exact: true })).toHaveValue('55');
     await expect(item.getByRole('textbox', { name: 'What changed' })).toHaveValue('Contractor says the deck is poured');
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+test('Back or a reload with a half-filled dialog open asks before the text goes', async ({ browser }) => {
+  const app = await openApp(browser, server(), {}, 'questions');
+  const { page } = app;
+  try {
+    const created = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+      title: 'Harbour crane contract is extended',
+      closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+      first_forecast: { p: 0.4 },
+    });
+    await page.reload();
+    await page.getByRole('link', { name: 'Harbour crane contract is extended' }).click();
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText('Harbour crane contract is extended');
+    await page.getByRole('button', { name: 'Revise' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+    const note = dialog.getByRole('textbox', { name: 'What changed' });
+    await note.fill('Port authority board moved the vote forward');
+
+    // Back: the dialog goes with its screen, so the address stays until the user answers.
+    // (history.back: Playwright's goBack would wait for a navigation the guard holds back.)
+    await page.evaluate(() => window.history.back());
+    await expect(prompt(page)).toBeVisible();
+    await expect(page).toHaveURL(new RegExp(`#/questions/${encodeURIComponent(created.id)}$`));
+    await prompt(page).getByRole('button', { name: 'Keep editing' }).click();
+    await expect(note).toHaveValue('Port authority board moved the vote forward');
+
+    // A second Back asks again; Discard goes where Back was going, and nothing was saved.
+    await page.evaluate(() => window.history.back());
+    await prompt(page).getByRole('button', { name: 'Discard' }).click();
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText('Questions');
+    await expect(dialog).toHaveCount(0);
+    const saved = await apiCall<{ forecasts: unknown[] }>(server().url, 'getQuestion', { id: created.id });
+    expect(saved.forecasts).toHaveLength(1);
+
+    // A reload or closing the tab: the browser's own prompt; dismissing it keeps the text.
+    await page.getByRole('link', { name: 'Harbour crane contract is extended' }).click();
+    await page.getByRole('button', { name: 'Revise' }).click();
+    await note.fill('Second thoughts on the vote');
+    const asked = new Promise<string>((resolve) => {
+      page.once('dialog', (browserDialog) => {
+        resolve(browserDialog.type());
+        void browserDialog.dismiss();
+      });
+    });
+    await page.close({ runBeforeUnload: true });
+    expect(await asked).toBe('beforeunload');
+    await expect(note).toHaveValue('Second thoughts on the vote');
     expect(app.problems).toEqual([]);
   } finally {
     await app.close();

@@ -239,7 +239,7 @@ test('a snoozed check-in stays visible: a collapsed section on the Desk, a mark 
     await page.getByTestId('desk-snoozed').locator('summary').click();
     await page.getByTestId('desk-snoozed-item').getByRole('link', { name: TITLES.checkin }).click();
     const note = page.getByTestId('snooze-note');
-    await expect(note).toContainText('Its check-in nudge comes back');
+    await expect(note).toContainText('The check-in nudge comes back');
     await expectNoSeriousViolations(page, 'a question page with a snoozed check-in');
     await note.getByRole('button', { name: 'Unsnooze' }).click();
     await expect(toast(page, /Snooze ended/)).toBeVisible();

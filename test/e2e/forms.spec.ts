@@ -3,7 +3,8 @@
  * empty New question flags the question and the close together; a bad tag left in the tag
  * box stops the save instead of vanishing; refusals never show request names such as
  * "opened_at". Percent boxes warn at 0% and 100% (saved as typed, clipped by the log score
- * to 0.1% and 99.9%, docs/scoring.md) and ask whether 50% was meant when 0.5 is typed.
+ * to 0.1% and 99.9%, docs/scoring.md) and ask whether 50% was meant when 0.5 is typed; a
+ * decimal comma typed there is read as a point ("0,7" is 0.7), not dropped.
  * Dates are typed in the user's own order (en-GB here: day/month/year) and read back with
  * the zone's offset. Yes and No look different wherever they are actions. A toast's action
  * is reached with F6.
@@ -138,6 +139,20 @@ test('0% and 100% are warned about and saved; 0.5 asks whether 50% was meant', a
   await revise.getByRole('button', { name: 'Use 35%' }).click();
   await expect(revise.getByRole('spinbutton', { name: 'Lens 1 probability' })).toHaveValue('35');
   await discard(page, revise);
+});
+
+test('a decimal comma typed in a percent box is read as a point, not dropped', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  const mine = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
+  // Typed key by key, as a person does: the number box would drop the comma and read "07".
+  await mine.pressSequentially('0,7');
+  await expect(mine).toHaveValue('0.7');
+  await expect(dialog.getByTestId('percent-question')).toContainText('Did you mean 70%?');
+  await mine.fill('');
+  await mine.pressSequentially('12,5');
+  await expect(mine).toHaveValue('12.5');
+  await discard(page, dialog);
 });
 
 test('dates are typed day/month/year and read back with the zone’s offset', async () => {

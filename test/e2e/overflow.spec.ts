@@ -5,6 +5,9 @@
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
  * decomposition) fit their cards, and the base-rate card shows its whole note. Screens are
  * photographed at both sizes; the long question's page is scanned by axe in light and dark.
+ * At 800×600 the question list leaves most of a row to the question and the skill table room
+ * for its readings; a toast naming the 300-character title cuts the quote short and stays a
+ * few lines tall.
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Question } from '../../shared/domain';
@@ -149,3 +152,63 @@ for (const scheme of ['light', 'dark'] as const) {
     });
   }
 }
+
+test('in an 800×600 window the question list gives most of each row to the question', async ({ browser }) => {
+  const app = await openApp(browser, server(), { viewport: { width: 800, height: 600 } }, 'questions');
+  const { page } = app;
+  try {
+    const table = page.getByTestId('question-table');
+    await expect(table.getByText(word(300, 'x')).first()).toBeVisible();
+    const tableWidth = (await table.boundingBox())!.width;
+    const questionWidth = (await table.getByRole('columnheader', { name: /^Question/ }).boundingBox())!.width;
+    // The fixed columns once left the question a ninth of the row: one word to a line.
+    expect(questionWidth / tableWidth, 'the Question column’s share of the table').toBeGreaterThan(1 / 3);
+    // Headings wrap rather than run into the next column.
+    expect(await cut(page, '.question-table th')).toEqual([]);
+    await page.screenshot({ path: 'test/e2e/artifacts/overflow-questions-800.png' });
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+test('in an 800×600 window the skill table leaves room for its readings', async ({ browser }) => {
+  const app = await openApp(browser, server(), { viewport: { width: 800, height: 600 } }, 'scorecard');
+  const { page } = app;
+  try {
+    const table = page.getByTestId('skill-chart').locator('table');
+    await expect(table).toBeVisible();
+    const width = async (name: string) => (await table.getByRole('columnheader', { name, exact: true }).boundingBox())!.width;
+    // The baselines' names once stood on one line and took the row, the reading a word a line.
+    expect(await width('Reading'), 'the Reading column against the Baseline column').toBeGreaterThan(await width('Baseline'));
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
+test('a toast about a question with a 300-character title stays a few lines tall', async ({ browser }) => {
+  const app = await openApp(browser, server(), { viewport: { width: 800, height: 600 } }, 'questions');
+  const { page } = app;
+  try {
+    await page.getByRole('main').focus();
+    await page.keyboard.press('n');
+    const dialog = page.getByRole('dialog', { name: 'New question' });
+    await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill(word(300, 'z'));
+    await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('01/07/2031');
+    await dialog.getByRole('textbox', { name: 'Closes: time' }).fill('09:30');
+    await dialog.getByRole('button', { name: 'Save question' }).click();
+    await expect(dialog).toBeHidden();
+    const toast = page.getByTestId('toast').filter({ hasText: 'Added “Wzzz' });
+    // The title is cut short; what happened and the way to the question stay.
+    await expect(toast).toContainText('…”.');
+    await expect(toast.getByRole('link', { name: 'Open the question' })).toBeVisible();
+    const box = await toast.boundingBox();
+    // Unshortened it stood taller than the whole window.
+    expect(box!.height, 'the toast’s height at 800×600').toBeLessThan(600 * 0.4);
+    await page.screenshot({ path: 'test/e2e/artifacts/overflow-long-title-toast.png' });
+    expect(app.problems).toEqual([]);
+  } finally {
+    await app.close();
+  }
+});

@@ -47,6 +47,12 @@ test('a choice question: spread the rest, a total other than 100% refused, revis
   const dialog = await openNewQuestion(page);
   await fillQuickAdd(page, { title: 'Which supplier will Quellmoor pick?', closes: daysFromNow(30) });
   await dialog.getByRole('radio', { name: 'Multiple choice' }).check();
+  // The rule's hint speaks of the options, not of a Yes this question does not have.
+  await expect(dialog.getByRole('textbox', { name: 'Resolution rule' })).toHaveAccessibleDescription(/^What decides which option came true/);
+  // Empty options: each box says so beside it, once, as a sentence.
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog.getByRole('textbox', { name: 'Option 1', exact: true })).toHaveAccessibleDescription('Write the option, or remove it');
+  await expect(dialog.getByText(/write the option, or remove it/i)).toHaveCount(3);
   for (const [k, label] of ['Kestrowe', 'Ambledene', 'Neither'].entries()) {
     await dialog.getByRole('textbox', { name: `Option ${k + 1}`, exact: true }).fill(label);
   }
@@ -127,6 +133,8 @@ test('a numeric question: a decreasing range refused by name, revise, resolve wi
   const dialog = await openNewQuestion(page);
   await fillQuickAdd(page, { title: 'Weeks from kickoff to go-live at Harrowby', closes: daysFromNow(60) });
   await dialog.getByRole('radio', { name: 'Number or date' }).check();
+  // The rule's hint speaks of the value, not of a Yes this question does not have.
+  await expect(dialog.getByRole('textbox', { name: 'Resolution rule' })).toHaveAccessibleDescription(/^Where the number or date will be read off/);
   await dialog.getByRole('textbox', { name: 'Unit' }).fill('weeks');
   const range = dialog.getByRole('group', { name: /Your range/ });
   await range.getByRole('spinbutton', { name: 'P10 (low)' }).fill('9');

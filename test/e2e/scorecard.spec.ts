@@ -71,8 +71,11 @@ test('an empty diary says what is needed before anything can be scored', async (
   try {
     await openScorecard(app);
     await expect(app.page.getByTestId('nothing-scored')).toHaveText(
-      'Nothing scored yet: resolve questions that have a forecast made before their window closed.',
+      'Resolve questions that have a forecast made before their window closed; their scores appear here.',
     );
+    // The heading says it once; the body does not repeat it.
+    await expect(app.page.getByRole('heading', { name: 'Nothing scored yet' })).toBeVisible();
+    await expect(app.page.getByText('Nothing scored yet')).toHaveCount(1);
     await expect(app.page.getByTestId('caution')).toHaveText('Scores describe past calls; small samples mislead.');
     await expectNoSeriousViolations(app.page, 'the empty Scorecard');
     await app.page.screenshot({ path: 'test/e2e/artifacts/scorecard-empty-light.png', fullPage: true });
@@ -179,7 +182,11 @@ test('the tag and date filters change every figure to the filtered scorecard', a
     for (const [baseline, value] of Object.entries(tagged!.report.skill)) {
       const row = page.getByTestId('skill-chart').locator(`tr[data-baseline="${baseline}"]`);
       if (value === null) await expect(row).toContainText('not enough data');
-      else await expect(row.locator('td').first()).toHaveText(value.toFixed(2).replace(/^-0\.00$/, '0.00').replace('-', '−'));
+      else {
+        await expect(row.locator('td').first()).toHaveText(value.toFixed(2).replace(/^-0\.00$/, '0.00').replace('-', '−'));
+        // A skill score has no interval: on few questions its reading says how few.
+        if (tagged!.report.scored < 20) await expect(row).toContainText(`Only ${tagged!.report.scored} question`);
+      }
     }
 
     // Two quick changes: only the last one's answer may end up on screen.
@@ -189,6 +196,7 @@ test('the tag and date filters change every figure to the filtered scorecard', a
     await waitReady(page, '');
     await expect(page.getByTestId('headline-brier-n')).toHaveText(`n = ${all.report.scored}`);
     expect(await dataPoints(page, 'calibration-chart')).toEqual(all.report.bins);
+    if (all.report.scored >= 20) await expect(page.getByTestId('skill-chart')).not.toContainText('so far');
 
     // Date range of window ends, as whole days on the diary's clocks: from the day of the
     // middle window end to the day of the last one.

@@ -10,6 +10,7 @@ import assert from 'node:assert/strict';
 import {
   dateOrder,
   dayWord,
+  formatCount,
   formatDateText,
   formatInstant,
   formatNearby,
@@ -104,4 +105,13 @@ test('a typed wall time becomes the instant the zone’s clocks show, skipped ho
   assert.equal(localToIso(wallText({ year: 2026, month: 3, day: 29 }, { hour: 1, minute: 30 }), 'Europe/London'), '2026-03-29T01:30:00.000Z');
   assert.equal(localToIso(wallText({ year: 2026, month: 3, day: 29 }, { hour: 2, minute: 0 }), 'Europe/London'), '2026-03-29T01:00:00.000Z');
   assert.equal(localToIso('31/03/2026 17:00', 'Europe/London'), null, 'only the form’s own YYYY-MM-DDTHH:MM text');
+});
+
+test('counts are grouped as the locale writes thousands', () => {
+  assert.equal(formatCount(8988, 'en-GB'), '8,988');
+  assert.equal(formatCount(100000, 'en-GB'), '100,000');
+  assert.equal(formatCount(100000, 'de-DE'), '100.000');
+  assert.equal(formatCount(100000, 'fr-FR'), '100\u202f000', 'a narrow no-break space');
+  assert.equal(formatCount(999, 'en-GB'), '999');
+  assert.equal(formatCount(0, 'en-GB'), '0');
 });

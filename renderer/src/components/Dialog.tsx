@@ -4,7 +4,10 @@
  * opened it, and every way of closing it — Escape, the × button, a click outside, a form's
  * Cancel — is one close request. When a form inside holds typed text (it says so with
  * `useDiscardGuard`), a close request first asks "Discard your changes?"; Keep editing is
- * the default. Mounted only while open, so a form inside starts fresh each time.
+ * the default. Leaving the screen behind it (Back, a link) asks the same way, and a reload
+ * gets the browser's own prompt (leaveGuard.ts): the dialog goes with its screen, and what
+ * was typed would go with it unasked. Mounted only while open, so a form inside starts
+ * fresh each time.
  */
 import {
   createContext,
@@ -20,6 +23,7 @@ import {
   type MouseEvent,
   type ReactNode,
 } from 'react';
+import { useLeaveGuard } from '../leaveGuard';
 import { DiscardDialog } from './DiscardDialog';
 
 export interface DialogProps {
@@ -91,6 +95,12 @@ function OpenDialog({ title, onClose, children, description, size = 'md', role =
   onCloseRef.current = onClose;
   const dirty = useRef(new Set<string>());
   const [asking, setAsking] = useState(false);
+  // Where the user was going when the question was asked by leaving, not by closing.
+  const [leave, setLeave] = useState<(() => void) | null>(null);
+  useLeaveGuard(() => dirty.current.size > 0, (proceed) => {
+    setLeave(() => proceed);
+    setAsking(true);
+  });
   // A press that starts outside the dialog and ends outside it is a click on the backdrop;
   // one that starts inside (selecting text, dragging a slider) and ends outside is not.
   const pressStartedOutside = useRef(false);
@@ -200,10 +210,14 @@ function OpenDialog({ title, onClose, children, description, size = 'md', role =
         <DiscardDialog
           open={asking}
           what={title}
-          onKeep={() => setAsking(false)}
+          onKeep={() => {
+            setAsking(false);
+            setLeave(null);
+          }}
           onDiscard={() => {
             setAsking(false);
             onCloseRef.current();
+            leave?.();
           }}
         />
       </dialog>

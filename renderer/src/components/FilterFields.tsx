@@ -3,12 +3,12 @@
  * in whole days on the diary's clocks (turned into instants by `dayRange` in dates.ts).
  */
 import type { TagCount } from '../../../shared/contract';
-import { zoneName } from '../dates';
+import { formatCount, zoneName } from '../dates';
 import { DateField } from './DateField';
 import { Select } from './Select';
 
 export function TagFilter({ value, tags, onChange }: { value: string; tags: readonly TagCount[]; onChange: (tag: string) => void }) {
-  const options = [{ value: '', label: 'All tags' }, ...tags.map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` }))];
+  const options = [{ value: '', label: 'All tags' }, ...tags.map((t) => ({ value: t.tag, label: `${t.tag} (${formatCount(t.count)})` }))];
   // A chosen tag stays selectable while the tag list reloads or after its last question went.
   if (value && !options.some((o) => o.value === value)) options.push({ value, label: value });
   return <Select label="Tag" value={value} options={options} onChange={onChange} />;

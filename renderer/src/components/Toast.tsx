@@ -91,6 +91,22 @@ export function ToastProvider({ children }: { children: ReactNode }) {
   );
 }
 
+/** How much of a quoted name a toast shows; a question's title may run to 300 characters. */
+const QUOTE_SHOWN = 100;
+
+/**
+ * A toast names what it acted on in quotes (“…”). A long title quoted whole made one toast
+ * taller than a small window and hid the page and the other toasts, so a quote longer than
+ * a usual title is cut to its first words; the rest of the message, which says what
+ * happened and what to do, stays whole. The action link leads to the full title.
+ */
+export function shortenQuotes(message: string): string {
+  return message.replace(/“([^”]*)”/g, (whole, quoted: string) => {
+    const chars = [...quoted];
+    return chars.length > QUOTE_SHOWN ? `“${chars.slice(0, QUOTE_SHOWN).join('').trimEnd()}…”` : whole;
+  });
+}
+
 function Toast({ toast, onDismiss }: { toast: ToastItem; onDismiss: (id: number) => void }) {
   const tone = toast.tone ?? 'success';
   const [paused, setPaused] = useState(false);
@@ -119,7 +135,7 @@ function Toast({ toast, onDismiss }: { toast: ToastItem; onDismiss: (id: number)
       onBlur={() => setPaused(false)}
       onKeyDown={onKeyDown}
     >
-      <p className="toast__message">{toast.message}</p>
+      <p className="toast__message">{shortenQuotes(toast.message)}</p>
       {action && 'href' in action ? (
         <a className="toast__action" href={action.href} onClick={() => onDismiss(toast.id)} aria-keyshortcuts={TOAST_KEY}>
           {action.label}

@@ -7,6 +7,7 @@
 import { useId, useState } from 'react';
 import { Button } from '../components/Button';
 import { FieldError } from '../components/FieldError';
+import { commaAsPoint } from '../components/decimalComma';
 import { choiceTotal, spreadRest, totalText, type ChoiceProblems } from './choiceEntry';
 import './forecastEntry.css';
 
@@ -79,6 +80,7 @@ export function ChoiceForecastInput({ label, options, value, onChange, problems,
                   data-autofocus={autoFocus && k === 0 ? '' : undefined}
                   aria-invalid={error ? true : undefined}
                   aria-describedby={error ? `${boxId}-error` : undefined}
+                  onKeyDown={commaAsPoint}
                   onChange={(event) => set(k, event.target.value)}
                 />
                 <span className="input-suffix" aria-hidden="true">

@@ -23,6 +23,9 @@ export interface OptionsEditorProps {
 export function OptionsEditor({ value, onChange, problems, error, fixedCount = false }: OptionsEditorProps) {
   const id = useId();
   const set = (k: number, text: string) => onChange(value.map((v, i) => (i === k ? text : v)));
+  // A box's own problem stands beside it, as a sentence like every field's; the same words
+  // again under the list ("Option 1: write the option…") only repeated it.
+  const boxProblems = Object.keys(problems ?? {}).length > 0;
   return (
     <fieldset className="choice-entry options-editor" aria-describedby={`${id}-hint`}>
       <legend className="field__label">Options</legend>
@@ -53,7 +56,7 @@ export function OptionsEditor({ value, onChange, problems, error, fixedCount = f
                   Remove
                 </Button>
               ) : null}
-              <FieldError id={`${boxId}-error`} message={problem} />
+              <FieldError id={`${boxId}-error`} message={problem && problem.charAt(0).toUpperCase() + problem.slice(1)} />
             </li>
           );
         })}
@@ -65,7 +68,7 @@ export function OptionsEditor({ value, onChange, problems, error, fixedCount = f
           </Button>
         </div>
       ) : null}
-      <FieldError id={`${id}-error`} message={error} />
+      <FieldError id={`${id}-error`} message={boxProblems ? undefined : error} />
     </fieldset>
   );
 }

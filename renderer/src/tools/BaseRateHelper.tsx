@@ -58,7 +58,7 @@ function checkCases(kText: string, nText: string, what: string): Checked {
   const errors: Record<string, string> = {};
   if (kText.trim() !== '' && (k === null || !Number.isInteger(k) || k < 0)) errors.k = 'Must be a whole number of cases, 0 or more';
   if (nText.trim() !== '' && (n === null || !Number.isInteger(n) || n < 0)) errors.n = 'Must be a whole number of cases, 0 or more';
-  else if (n !== null && n > MAX_CASES) errors.n = `Must be at most ${MAX_CASES.toLocaleString()} cases`;
+  else if (n !== null && n > MAX_CASES) errors.n = `Must be at most ${formatCount(MAX_CASES)} cases`;
   if (!errors.k && !errors.n && k !== null && n !== null && k > n) errors.k = 'Can’t be more than the comparable cases';
   if (k === null || n === null || Object.keys(errors).length) return { outcome: null, errors };
   const { estimate, low, high } = ruleOfSuccession(k, n);

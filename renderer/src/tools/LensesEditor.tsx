@@ -7,6 +7,7 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
 import { Button } from '../components/Button';
 import { FieldError } from '../components/FieldError';
+import { commaAsPoint } from '../components/decimalComma';
 import { FieldFrame, describedBy } from '../components/FieldFrame';
 import { PercentAdvice, hasPercentAdvice } from '../components/PercentAdvice';
 import { percentAdvice } from '../percent';
@@ -145,6 +146,7 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
                         value={lens.p}
                         aria-invalid={errors.p ? true : undefined}
                         aria-describedby={[describedBy(pId, undefined, errors.p), hasPercentAdvice(lens.p) ? `${pId}-advice` : ''].filter(Boolean).join(' ') || undefined}
+                        onKeyDown={commaAsPoint}
                         onChange={(event) => change(lens.key, 'p', event.target.value)}
                       />
                       <span className="input-suffix" aria-hidden="true">

@@ -12,6 +12,7 @@ import { useLoad } from '../api/useLoad';
 import { formatPercent } from '../percent';
 import { formatEstimate, formatRange, plural } from './format';
 import './tools.css';
+import { formatCount } from '../dates';
 
 /** The hint's sentences for a stated `p` against a scorecard report. */
 export function recalibrationText(p: number, report: ScoreReport): { said: string; fit: string } {
@@ -19,7 +20,7 @@ export function recalibrationText(p: number, report: ScoreReport): { said: strin
   const row = report.bins.find((b) => b.index === bin);
   const near = `~${bin * 10}%`;
   const history = row
-    ? `your ${near} calls came true ${formatEstimate(row.observed)} of the time (n = ${row.n}, 95% interval ${formatRange(row.wilson_low, row.wilson_high)})`
+    ? `your ${near} calls came true ${formatEstimate(row.observed)} of the time (n = ${formatCount(row.n)}, 95% interval ${formatRange(row.wilson_low, row.wilson_high)})`
     : `none of your scored calls were near ${bin * 10}% yet`;
   const { intercept, slope, reason } = report.calibration;
   if (intercept !== null && slope !== null) {

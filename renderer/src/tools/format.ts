@@ -3,6 +3,7 @@
  * to one decimal of a percent at most (36.4%, 80%, 9.5%), and intervals in whole percents;
  * the same rounding fills a form's box, so the user saves exactly what they were shown.
  */
+import { formatCount } from '../dates';
 
 /** e.g. 0.363636 → "36.4", 0.8 → "80", 0.095163 → "9.5" (percent text for a form's box). */
 export function estimateText(p: number): string {
@@ -21,7 +22,7 @@ export function formatRange(low: number, high: number): string {
 
 /** "1 day", "3 days". */
 export function plural(n: number, one: string, many = `${one}s`): string {
-  return `${n} ${n === 1 ? one : many}`;
+  return `${formatCount(n)} ${n === 1 ? one : many}`;
 }
 
 /** e.g. "3 Jun 2025": the calendar day of an instant on `timeZone`'s clocks (dates.ts). */

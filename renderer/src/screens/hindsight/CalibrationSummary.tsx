@@ -6,6 +6,7 @@
  */
 import type { ScoreReport } from '../../../../shared/scoring/types';
 import { percentInterval, score3, slopeReading, wholePercent } from './wording';
+import { formatCount } from '../../dates';
 
 export function CalibrationSummary({ report, subject }: { report: ScoreReport; subject: string }) {
   const notCounted = [
@@ -22,7 +23,7 @@ export function CalibrationSummary({ report, subject }: { report: ScoreReport; s
       <dl className="hs-summary__figures">
         <div>
           <dt>Scored</dt>
-          <dd data-testid="scored-n">n = {report.scored}</dd>
+          <dd data-testid="scored-n">n = {formatCount(report.scored)}</dd>
         </div>
         <div>
           <dt>Brier score</dt>
@@ -54,7 +55,7 @@ export function CalibrationSummary({ report, subject }: { report: ScoreReport; s
             {report.bins.map((bin) => (
               <tr key={bin.index}>
                 <th scope="row">~{wholePercent(bin.mean_p)}</th>
-                <td className="num">{bin.n}</td>
+                <td className="num">{formatCount(bin.n)}</td>
                 <td className="num">{wholePercent(bin.observed)}</td>
                 <td className="num">{percentInterval(bin.wilson_low, bin.wilson_high)}</td>
               </tr>

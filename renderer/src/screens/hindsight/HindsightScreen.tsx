@@ -25,6 +25,7 @@ import { TypedEntrySections } from './TypedEntryCards';
 import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, decodeSelection, encodeSelection, type HindsightSelection } from './selection';
 import { confidentMeaning, plural, wholePercent } from './wording';
 import './hindsight.css';
+import { formatCount } from '../../dates';
 
 /** Dragging the slider or typing a date asks once it settles, not at every step. */
 const SETTLE_MS = 150;
@@ -177,7 +178,7 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
                   and <strong>{plural(hindsight.hits, 'confident hit', 'confident hits')}</strong>
                 </>
               ) : null}{' '}
-              among n = {report.scored} scored questions. Confident at {at}: a {confidentMeaning(threshold)}.
+              among n = {formatCount(report.scored)} scored questions. Confident at {at}: a {confidentMeaning(threshold)}.
             </p>
             <EntrySection
               id="hs-misses"
@@ -187,7 +188,7 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
               threshold={threshold}
               timeZone={timeZone}
               more={misses.length < hindsight.misses ? moreButton : null}
-              empty={`No confident misses at ${at} in this selection — that is good news, or a small sample: n = ${report.scored}.`}
+              empty={`No confident misses at ${at} in this selection — that is good news, or a small sample: n = ${formatCount(report.scored)}.`}
             />
             {selection.includeHits ? (
               <EntrySection
@@ -198,7 +199,7 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
                 threshold={threshold}
                 timeZone={timeZone}
                 more={misses.length === hindsight.misses ? moreButton : null}
-                empty={`No confident hits at ${at} in this selection (n = ${report.scored}).`}
+                empty={`No confident hits at ${at} in this selection (n = ${formatCount(report.scored)}).`}
               />
             ) : null}
           </>

@@ -3,7 +3,7 @@
  * to end the snooze now (it then shows on the Desk again if it is still due).
  */
 import { useState } from 'react';
-import { NUDGE_KIND_NAMES, type Question } from '../../../../shared/domain';
+import type { NudgeKind, Question } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
@@ -13,6 +13,14 @@ import { useToast } from '../../components/Toast';
 import { formatInstant } from '../../dates';
 import { useUndoToast } from '../../forgiving/undo';
 import '../../forgiving/forgiving.css';
+
+/** Each nudge by name in a sentence: "Its to resolve nudge" read as a slip. */
+const SNOOZED_NUDGE: Readonly<Record<NudgeKind, string>> = {
+  checkin: 'The check-in nudge',
+  closing_soon: 'The closing-soon nudge',
+  window_closed: 'The nudge to resolve it',
+  overdue: 'The overdue nudge',
+};
 
 export function SnoozeNote({ question }: { question: Question }) {
   const undoToast = useUndoToast();
@@ -43,7 +51,7 @@ export function SnoozeNote({ question }: { question: Question }) {
         <ul className="snooze-note__list">
           {snoozes.map((s) => (
             <li key={s.kind}>
-              Its {NUDGE_KIND_NAMES[s.kind]} nudge comes back <time dateTime={s.until}>{formatInstant(s.until, question.time_zone)}</time>.
+              {SNOOZED_NUDGE[s.kind]} comes back <time dateTime={s.until}>{formatInstant(s.until, question.time_zone)}</time>.
             </li>
           ))}
         </ul>

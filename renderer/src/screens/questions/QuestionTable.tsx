@@ -11,7 +11,7 @@ import { useEffect, useLayoutEffect, useRef, useState, type MouseEvent } from 'r
 import { useWindowVirtualizer, type VirtualItem } from '@tanstack/react-virtual';
 import type { ListSort } from '../../../../shared/contract';
 import { StatusPill } from '../../components/StatusPill';
-import { formatInstant } from '../../dates';
+import { formatCount, formatInstant } from '../../dates';
 import { formatPercent } from '../../percent';
 import { lastForecastText } from '../../questionTypes/summaries';
 import { hrefTo, navigate, questionPath } from '../../routing';
@@ -73,7 +73,7 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
 
   const before = items.length ? items[0]!.start - margin : 0;
   const after = items.length ? virtualizer.getTotalSize() - (items[items.length - 1]!.end - margin) : 0;
-  const caption = pages.matched === pages.total ? `${pages.total} questions` : `${pages.matched} of ${pages.total} questions`;
+  const caption = pages.matched === pages.total ? `${formatCount(pages.total)} questions` : `${formatCount(pages.matched)} of ${formatCount(pages.total)} questions`;
 
   return (
     <div className="table-card" aria-busy={busy || undefined}>

@@ -22,6 +22,7 @@ import { decodeListQuery, encodeListQuery, isFiltered, nextSort, rememberList, r
 import { QuestionTable } from './QuestionTable';
 import { useQuestionPages } from './useQuestionPages';
 import { QUICK_ADD_ARIA_SHORTCUTS, QUICK_ADD_SHORTCUT_TEXT, useQuickAdd } from './quickAdd';
+import { formatCount } from '../../dates';
 
 const STATUS_OPTIONS = [
   { value: 'all', label: 'All' },
@@ -59,7 +60,7 @@ function FirstRun({ onNew }: { onNew: () => void }) {
     try {
       const { added } = await api.loadDemo({});
       diaryChanged();
-      toast.show({ message: `Loaded the example diary: ${added} questions from an invented freight-consulting engagement.` });
+      toast.show({ message: `Loaded the example diary: ${formatCount(added)} questions from an invented freight-consulting engagement.` });
     } catch (error) {
       toast.show({ tone: 'error', message: describeError(error) });
     } finally {
@@ -102,7 +103,7 @@ function QuestionList() {
   const pages = useQuestionPages(request);
   useListMemory(pages.key !== null);
 
-  const tagOptions = [{ value: '', label: 'All tags' }, ...pages.tags.map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` }))];
+  const tagOptions = [{ value: '', label: 'All tags' }, ...pages.tags.map((t) => ({ value: t.tag, label: `${t.tag} (${formatCount(t.count)})` }))];
   // Keep a chosen tag selectable even when the current filters leave no question carrying it.
   if (query.tag && !tagOptions.some((o) => o.value === query.tag)) tagOptions.push({ value: query.tag, label: query.tag });
   const onSort = useCallback((sort: ListSort) => change(nextSort(query, sort)), [change, query]);

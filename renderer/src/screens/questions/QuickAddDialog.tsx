@@ -53,6 +53,13 @@ const LABELS = {
 // The first forecast is dated at the opening typed, so a reason about its time is one about "Opened".
 const PLACEMENT = { fields: Object.keys(LABELS).filter((f) => f !== 'first_forecast.at'), labels: LABELS, aliases: { 'first_forecast.at': 'opened_at' } };
 
+/** What the rule must pin down: a choice or numeric question has no Yes to count. */
+const RULE_HINTS = {
+  binary: 'What exactly counts as Yes, so future-you cannot wriggle.',
+  choice: 'What decides which option came true, so future-you cannot wriggle.',
+  numeric: 'Where the number or date will be read off, so future-you cannot wriggle.',
+} as const;
+
 export function QuickAddDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
   return (
     <Dialog open={open} onClose={onClose} title="New question" size="lg" description="Write the call down now; add detail later from Edit.">
@@ -165,7 +172,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
         value={rule}
         onChange={setRule}
         rows={2}
-        hint="What exactly counts as Yes, so future-you cannot wriggle."
+        hint={RULE_HINTS[typed.type]}
         error={form.error('rule')}
       />
       <DateTimeField

@@ -11,6 +11,7 @@ import { CalibrationChart } from './CalibrationChart';
 import { pct, pctInterval, questions, score2, score3 } from './format';
 import { Tile } from './Headline';
 import { choiceSkillSentence, topChoiceSentence } from './typedReadings';
+import { formatCount } from '../../dates';
 
 const SKILL_LABELS: Record<keyof ChoiceSkillScores, string> = {
   vs_uniform: 'vs spreading evenly',
@@ -41,7 +42,7 @@ export const ChoiceSection = memo(function ChoiceSection({ report }: { report: C
           1.099 (ln 3).
         </Tile>
         {report.rps_n > 0 ? (
-          <Tile id="choice-rps" label="Ranked probability score" value={score3(report.rps)} n={`${report.rps_n} ordered`}>
+          <Tile id="choice-rps" label="Ranked probability score" value={score3(report.rps)} n={`${formatCount(report.rps_n)} ordered`}>
             For ordered options only: 0 is perfect, and a chance placed next to the outcome costs less than one placed far from it.
           </Tile>
         ) : null}
@@ -55,8 +56,8 @@ export const ChoiceSection = memo(function ChoiceSection({ report }: { report: C
         >
           {topChoiceSentence(top)}
         </Tile>
-        <Tile id="choice-counts" label="Choice questions in this view" value={String(n)} n={`${n + report.unscored + report.void + report.open} in view`}>
-          {n} scored, {report.unscored} resolved without a forecast before the window ended, {report.void} void, {report.open} still open.
+        <Tile id="choice-counts" label="Choice questions in this view" value={formatCount(n)} n={`${formatCount(n + report.unscored + report.void + report.open)} in view`}>
+          {formatCount(n)} scored, {formatCount(report.unscored)} resolved without a forecast before the window ended, {formatCount(report.void)} void, {formatCount(report.open)} still open.
         </Tile>
       </div>
       <section className="sc-stack" aria-labelledby="sc-choice-skill">

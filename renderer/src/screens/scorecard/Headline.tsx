@@ -7,6 +7,7 @@ import { MIN_CALIBRATION_N, recalibrate } from '../../../../shared/scoring/index
 import type { Scorecard } from '../../../../shared/contract';
 import type { ReportBin, ScoreReport } from '../../../../shared/scoring/types';
 import { binLabel, pct, pctInterval, questions, score2, score3, scoreInterval } from './format';
+import { formatCount } from '../../dates';
 
 export interface TileProps {
   id: string;
@@ -29,7 +30,7 @@ export function Tile({ id, label, value, n, interval, tone = 'plain', children }
         {value}
       </p>
       <p className="sc-tile__meta">
-        <span data-testid={`headline-${id}-n`}>n = {n}</span>
+        <span data-testid={`headline-${id}-n`}>n = {typeof n === 'number' ? formatCount(n) : n}</span>
         {interval ? <span> · 95% interval {interval}</span> : null}
       </p>
       <p className="sc-tile__reading">{children}</p>
@@ -51,7 +52,7 @@ export function confidentBin(bins: readonly ReportBin[]): ReportBin | undefined 
 
 /** "Your 90% calls came true 67% of the time (n = 3, 95% interval 21–94%)". */
 export function binSentence(bin: ReportBin): string {
-  return `Your ${binLabel(bin.index)} calls came true ${pct(bin.observed)} of the time (n = ${bin.n}, 95% interval ${pctInterval(bin.wilson_low, bin.wilson_high)}).`;
+  return `Your ${binLabel(bin.index)} calls came true ${pct(bin.observed)} of the time (n = ${formatCount(bin.n)}, 95% interval ${pctInterval(bin.wilson_low, bin.wilson_high)}).`;
 }
 
 function calibrationReading(report: ScoreReport): string {
@@ -94,16 +95,16 @@ export const Headline = memo(function Headline({ report, detail }: { report: Sco
       <Tile id="slope" label="Calibration slope" value={score2(report.calibration.slope)} n={n}>
         {calibrationReading(report)}
       </Tile>
-      <Tile id="auc" label="Discrimination (ROC AUC)" value={score2(report.auc)} n={`${yes} Yes, ${no} No`}>
+      <Tile id="auc" label="Discrimination (ROC AUC)" value={score2(report.auc)} n={`${formatCount(yes)} Yes, ${formatCount(no)} No`}>
         {report.auc === null
-          ? `Needs both a Yes and a No question (${yes} Yes, ${no} No so far).`
+          ? `Needs both a Yes and a No question (${formatCount(yes)} Yes, ${formatCount(no)} No so far).`
           : `A Yes question got a higher final forecast than a No question ${pct(report.auc)} of the time; 0.5 is a coin toss.`}
       </Tile>
       <Tile id="sharpness" label="Sharpness" value={score2(report.sharpness)} n={n}>
         0 is always 50%, 1 is always 0% or 100%; {pct(report.share_certain)} of final forecasts were exactly 0% or 100%.
       </Tile>
-      <Tile id="counts" label="Scored questions in this view" value={String(n)} n={`${n + report.unscored + report.void + report.open} in view`}>
-        {n} scored, {report.unscored} resolved without a forecast before the window ended, {report.void} void, {report.open} still open.
+      <Tile id="counts" label="Scored questions in this view" value={formatCount(n)} n={`${formatCount(n + report.unscored + report.void + report.open)} in view`}>
+        {formatCount(n)} scored, {formatCount(report.unscored)} resolved without a forecast before the window ended, {formatCount(report.void)} void, {formatCount(report.open)} still open.
       </Tile>
     </div>
   );

@@ -11,6 +11,7 @@ import { pct, questions, score2 } from './format';
 import { Tile } from './Headline';
 import { LevelCalibrationChart, type LevelRow } from './LevelCalibrationChart';
 import { coverageSentence, coverageVerdict, gapName, quantileSentence, revisingSentence } from './typedReadings';
+import { formatCount } from '../../dates';
 
 function show(row: NumericQuestionRow, value: number): string {
   return formatValue(value, row.value_kind, row.unit);
@@ -63,8 +64,8 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
         <Tile id="numeric-revising" label="Revising helped? (relative WIS)" value={score2(report.relative_wis_vs_first)} n={n}>
           {revisingSentence(report.relative_wis_vs_first, n)} Below 1: the revisions improved the ranges.
         </Tile>
-        <Tile id="numeric-counts" label="Numeric questions in this view" value={String(n)} n={`${n + report.unscored + report.void + report.open} in view`}>
-          {n} scored, {report.unscored} resolved without a forecast before the window ended, {report.void} void, {report.open} still open.
+        <Tile id="numeric-counts" label="Numeric questions in this view" value={formatCount(n)} n={`${formatCount(n + report.unscored + report.void + report.open)} in view`}>
+          {formatCount(n)} scored, {formatCount(report.unscored)} resolved without a forecast before the window ended, {formatCount(report.void)} void, {formatCount(report.open)} still open.
         </Tile>
       </div>
       <div className="sc-grid">
@@ -135,7 +136,7 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
                   return (
                     <tr key={k}>
                       <th scope="row">{gapName(set.levels, k)}</th>
-                      <td className="num">{gap.n}</td>
+                      <td className="num">{formatCount(gap.n)}</td>
                       <td className="num">{pct(share)}</td>
                       <td className="num">{pct(gap.expected)}</td>
                       <td aria-hidden="true">

@@ -6,6 +6,7 @@
 import { memo } from 'react';
 import type { ReferenceLeadSummary } from '../../../../shared/contract';
 import { days, questions } from './format';
+import { formatCount } from '../../dates';
 
 export function leadSentence(lead: ReferenceLeadSummary): string {
   if (lead.mean_days === null || lead.n === 0) {
@@ -41,7 +42,7 @@ export const ReferenceLeads = memo(function ReferenceLeads({ leads }: { leads: R
               {byTag.map((l) => (
                 <tr key={l.tag}>
                   <th scope="row">{l.tag}</th>
-                  <td className="num">{l.n}</td>
+                  <td className="num">{formatCount(l.n)}</td>
                   <td className="num">
                     {l.mean_days === null ? '—' : `${days(l.mean_days)} ${l.mean_days >= 0 ? 'earlier' : 'later'}`}
                   </td>

@@ -11,6 +11,7 @@ import { ChartFigure } from './ChartFigure';
 import { cssColor } from '../../chart/colors';
 import { BASE_OPTIONS, percentAxis, thin, useChart, type Palette } from './chartKit';
 import { pct, score2 } from './format';
+import { formatCount } from '../../dates';
 
 const MAX_POINTS = 200;
 
@@ -81,7 +82,7 @@ export const RocChart = memo(function RocChart({ roc, auc, yes, no }: RocChartPr
     points,
   );
 
-  const counts = `${yes} Yes, ${no} No`;
+  const counts = `${formatCount(yes)} Yes, ${formatCount(no)} No`;
   return (
     <ChartFigure
       testId="roc-chart"

@@ -8,7 +8,7 @@ import type { ChartConfiguration } from 'chart.js';
 import type { RunningBrierPoint } from '../../../../shared/scoring/types';
 import { DASHED, lineStyle, type LegendItem } from '../../chart/Legend';
 import { timeTicks } from '../../chart/series';
-import { formatDay, formatTick } from '../../dates';
+import { formatCount, formatDay, formatTick } from '../../dates';
 import { ChartFigure } from './ChartFigure';
 import { cssColor } from '../../chart/colors';
 import { BASE_OPTIONS, axisStyle, thin, useChart, type Palette } from './chartKit';
@@ -35,7 +35,7 @@ function describe(points: readonly RunningBrierPoint[]): string {
   const first = points[0];
   const last = points[points.length - 1];
   if (!first || !last) return 'Running Brier score: no scored questions.';
-  return `Running Brier score by window end: ${score3(first.brier)} after the first ${first.n === 1 ? 'question' : `${first.n} questions`}, ${score3(last.brier)} after all ${last.n}. The table below lists the points.`;
+  return `Running Brier score by window end: ${score3(first.brier)} after the first ${first.n === 1 ? 'question' : `${formatCount(first.n)} questions`}, ${score3(last.brier)} after all ${formatCount(last.n)}. The table below lists the points.`;
 }
 
 export const RunningBrierChart = memo(function RunningBrierChart({ running, timeZone }: { running: RunningBrierPoint[]; timeZone: string }) {
@@ -156,7 +156,7 @@ export const RunningBrierChart = memo(function RunningBrierChart({ running, time
                 <td>
                   <time dateTime={new Date(p.T).toISOString()}>{formatDay(p.T, timeZone)}</time>
                 </td>
-                <td className="num">{p.n}</td>
+                <td className="num">{formatCount(p.n)}</td>
                 <td className="num">{score3(p.brier)}</td>
               </tr>
             ))}

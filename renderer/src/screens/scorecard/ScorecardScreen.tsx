@@ -34,6 +34,7 @@ import { RunningBrierChart } from './RunningBrierChart';
 import { SkillBars } from './SkillBars';
 import { useScorecard } from './useScorecard';
 import './scorecard.css';
+import { formatCount } from '../../dates';
 
 export function ScorecardScreen() {
   useDocumentTitle('Scorecard');
@@ -115,12 +116,15 @@ function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, w
         title={filtered ? 'Nothing scored in this view' : 'Nothing scored yet'}
         actions={<a href={hrefTo('questions')}>Go to Questions</a>}
       >
+        {/* The title already says "nothing scored"; the body says what to do about it. */}
         <p data-testid="nothing-scored">
-          {filtered ? 'Nothing scored for these filters' : 'Nothing scored yet'}: resolve questions that have a forecast made before their
-          window closed.
+          {filtered
+            ? 'No question in this view was resolved with a forecast made before its window closed.'
+            : 'Resolve questions that have a forecast made before their window closed; their scores appear here.'}
         </p>
         <p>
-          Here: {total('open')} open, {total('unscored')} resolved without a forecast before the window ended, {total('void')} void.
+          Here: {formatCount(total('open'))} open, {formatCount(total('unscored'))} resolved without a forecast before the window ended,{' '}
+          {formatCount(total('void'))} void.
         </p>
       </EmptyState>
     );
@@ -161,7 +165,7 @@ function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, w
             <RocChart roc={detail.roc} auc={report.auc} yes={detail.auc_n.yes} no={detail.auc_n.no} />
           ) : (
             <p className="sc-note" data-testid="roc-missing">
-              The ROC curve needs both a Yes and a No question ({detail.auc_n.yes} Yes, {detail.auc_n.no} No here).
+              The ROC curve needs both a Yes and a No question ({formatCount(detail.auc_n.yes)} Yes, {formatCount(detail.auc_n.no)} No here).
             </p>
           )}
         </Section>

@@ -5,10 +5,11 @@
  */
 import { memo, useMemo, useRef } from 'react';
 import type { ChartConfiguration } from 'chart.js';
+import { MIN_CALIBRATION_N } from '../../../../shared/scoring/index';
 import type { SkillScores } from '../../../../shared/scoring/types';
 import { ChartFigure } from './ChartFigure';
 import { BASE_OPTIONS, axisStyle, useChart, type Palette } from './chartKit';
-import { pct, score2, tick } from './format';
+import { pct, questions, score2, tick } from './format';
 
 type Baseline = keyof SkillScores;
 
@@ -63,15 +64,23 @@ export interface SkillRow {
   value: number | null;
 }
 
-/** The plain-language reading of one skill score, or why there is none. */
+/**
+ * The plain-language reading of one skill score, or why there is none. A skill score comes
+ * without an interval, and on a handful of questions one outcome swings it: "84% lower than
+ * always saying 50%" after a single question reads as a verdict, so below the size at which
+ * the calibration slope is fitted the reading says how few questions it rests on.
+ */
 export function skillReading(baseline: Baseline, value: number | null, scored: number): string {
   const text = BASELINES[baseline];
   if (scored === 0) return 'Not enough data: nothing is scored here.';
   if (value === null) return `Not enough data: ${text.missing}`;
-  if (Math.abs(value) < 0.005) return `About the same Brier score as ${text.compared}.`;
-  return value > 0
-    ? `Your Brier score was ${pct(value)} lower than ${text.compared}.`
-    : `Your Brier score was ${pct(-value)} higher than ${text.compared}.`;
+  const reading =
+    Math.abs(value) < 0.005
+      ? `About the same Brier score as ${text.compared}.`
+      : value > 0
+        ? `Your Brier score was ${pct(value)} lower than ${text.compared}.`
+        : `Your Brier score was ${pct(-value)} higher than ${text.compared}.`;
+  return scored < MIN_CALIBRATION_N ? `${reading} Only ${questions(scored)} so far: one more outcome can swing it a lot.` : reading;
 }
 
 /** Axis from −1 (or lower values' floor, whichever is higher) to 1; lower values sit at the edge. */
@@ -135,7 +144,7 @@ export const SkillBars = memo(function SkillBars({ skill, scored }: { skill: Ski
       }
       caption="Skill score against each baseline: bars right of 0 mean a lower (better) Brier score than the baseline, left of 0 a higher one."
       table={
-        <table>
+        <table className="sc-skill-table">
           <caption className="visually-hidden">Skill against each baseline</caption>
           <thead>
             <tr>

@@ -3,6 +3,7 @@
  * percents, intervals as "21–94%". One place, so the headline, the tables and the chart
  * tooltips never disagree about how a figure is written.
  */
+import { formatCount } from '../../dates';
 
 /** The typographic minus, so negative skill scores read as numbers and not as hyphens. */
 function signed(text: string): string {
@@ -42,7 +43,7 @@ export function scoreInterval(iv: readonly [number, number]): string {
 
 /** "1 question" / "22 questions". */
 export function questions(n: number): string {
-  return `${n} question${n === 1 ? '' : 's'}`;
+  return `${formatCount(n)} question${n === 1 ? '' : 's'}`;
 }
 
 /** A cost in the user's own units: whole numbers as such, otherwise up to two decimals. */

@@ -12,6 +12,7 @@ import type {
 } from '../../../../shared/scoring/types';
 import { levelName } from '../../forecastEntry/numericEntry';
 import { pct, pctInterval, questions, score2 } from './format';
+import { formatCount } from '../../dates';
 
 /** "9 times in 20". */
 function times(k: number, n: number): string {
@@ -89,5 +90,5 @@ export function gapName(levels: readonly number[], k: number): string {
 export function gapSentence(levels: readonly number[], gaps: readonly LandedGap[], k: number): string {
   const total = gaps.reduce((sum, g) => sum + g.n, 0);
   const gap = gaps[k]!;
-  return `${gap.n} of ${total} landed ${gapName(levels, k)} (${pct(total ? gap.n / total : null)}; expected ${pct(gap.expected)}).`;
+  return `${formatCount(gap.n)} of ${formatCount(total)} landed ${gapName(levels, k)} (${pct(total ? gap.n / total : null)}; expected ${pct(gap.expected)}).`;
 }

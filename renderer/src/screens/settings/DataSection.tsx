@@ -16,6 +16,7 @@ import { ErrorBanner } from '../../components/ErrorBanner';
 import { FilePicker } from '../../components/FilePicker';
 import { useToast } from '../../components/Toast';
 import { ImportOverlap, type OverlappingFile } from './ImportOverlap';
+import { formatCount } from '../../dates';
 
 type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
@@ -86,7 +87,7 @@ export function DataSection() {
         if (error instanceof RequestError && error.code === 'conflict') return setOverlap({ name: file.name, format, text, reason: error.message });
         throw error;
       }
-      toast.show({ message: `Imported ${added} question${added === 1 ? '' : 's'} from ${file.name}.` });
+      toast.show({ message: `Imported ${formatCount(added)} question${added === 1 ? '' : 's'} from ${file.name}.` });
       diaryChanged();
     } catch (error) {
       setProblem(`${file.name}: ${error instanceof TextDecodingError ? error.message : describeError(error)}`);

@@ -18,7 +18,7 @@ import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { Select } from '../../components/Select';
 import { TextField } from '../../components/TextField';
-import { timeZoneNames, zoneName } from '../../dates';
+import { formatCount, timeZoneNames, zoneName } from '../../dates';
 import { useDiaryInfo } from '../../diaryInfo';
 import { replacedValues, useSettingsUndoToast } from '../../forgiving/settingsUndo';
 import { useDocumentTitle } from '../../hooks';
@@ -282,7 +282,7 @@ function DiaryFile() {
           <dt>Diary file</dt>
           <dd data-testid="diary-location">{info.data.location ? <code className="settings__path">{info.data.location}</code> : 'Not kept in a file (a temporary diary).'}</dd>
           <dt>Questions</dt>
-          <dd>{info.data.question_count}</dd>
+          <dd>{formatCount(info.data.question_count)}</dd>
         </dl>
       ) : null}
     </section>
