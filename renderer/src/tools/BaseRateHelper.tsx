@@ -12,6 +12,7 @@ import { ChoiceGroup } from '../components/ChoiceGroup';
 import { NumberField } from '../components/NumberField';
 import { Select } from '../components/Select';
 import { TextField } from '../components/TextField';
+import { formatCount } from '../dates';
 import { estimateText, formatEstimate, formatRange, numberOrNull, plural } from './format';
 import './tools.css';
 
