@@ -286,11 +286,11 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'
-       ORDER BY q.closes_at, q.id`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'`,
     )
     .raw()
     .all() as Row[];
+  inExportOrder(rows);
   const choice: ScoringChoiceQuestion[] = [];
   const numeric: ScoringNumericQuestion[] = [];
   if (rows.length === 0) return { choice, numeric };
@@ -347,17 +347,37 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
 /**
  * Both readers take the questions in export order (close time, then id): sums of doubles
  * depend on their order, and this way a diary and its own export imported elsewhere score
- * bit for bit alike, whatever order the questions were entered in.
+ * bit for bit alike, whatever order the questions were entered in. The rows are read in the
+ * table's own order and sorted here: SQLite's ORDER BY walks the close-time index and reads
+ * each row at a scattered place, which at 100,000 questions took longer than the reading.
+ * Ids compare as SQLite's BINARY collation does (UTF-8 bytes, which order as code points).
  */
+function inExportOrder(rows: [number, string, ...unknown[]][]): void {
+  const closes = (row: (typeof rows)[number]) => row[4] as number;
+  rows.sort((a, b) => closes(a) - closes(b) || compareCodePoints(a[1], b[1]));
+}
+
+/** Orders two strings by code point, as UTF-8 bytes order (JavaScript's < orders UTF-16 units). */
+function compareCodePoints(a: string, b: string): number {
+  if (a === b) return 0;
+  for (let i = 0, j = 0; i < a.length && j < b.length; ) {
+    const x = a.codePointAt(i)!;
+    const y = b.codePointAt(j)!;
+    if (x !== y) return x - y;
+    i += x > 0xffff ? 2 : 1;
+    j += y > 0xffff ? 2 : 1;
+  }
+  return a.length - b.length;
+}
 function readBinary(db: Db): ScoringQuestion[] {
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'
-       ORDER BY q.closes_at, q.id`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'`,
     )
     .raw()
     .all() as QuestionRow[];
+  inExportOrder(rows);
   let maxRowid = 0;
   for (const row of rows) maxRowid = Math.max(maxRowid, row[0]);
   const slotOfRowid = new Int32Array(maxRowid + 1);

@@ -250,3 +250,31 @@ test('a diary and its own export imported elsewhere score bit for bit alike, wha
   await elsewhere.call('importText', { format: 'json', text: (await d.call('exportText', { format: 'json' })).text });
   assert.equal(JSON.stringify(await elsewhere.call('score', {})), JSON.stringify(await d.call('score', {})));
 });
+
+test('questions closing at the same instant reach the engine in export order, ids compared as the file orders them', async () => {
+  // The export orders by close time, then id in SQLite's BINARY collation (UTF-8 bytes, i.e.
+  // code points); JavaScript's own < compares UTF-16 units, which puts U+1F600 (a surrogate
+  // pair, D83D…) before U+FFFD. Both types are read this way.
+  const d = openTestDiary();
+  const ids = ['b', 'a\u{1F600}', 'a\uFFFD', 'a', 'A', 'a\u00e9', 'a\u{10000}z'];
+  const question = (id: string, type: 'binary' | 'choice') => ({
+    id,
+    title: `Question ${id}`,
+    closes_at: '2026-05-01T00:00:00Z',
+    opened_at: '2026-01-01T00:00:00Z',
+    ...(type === 'choice' ? { type, options: ['x', 'y'], forecasts: [{ at: '2026-01-02T00:00:00Z', probs: [0.5, 0.5] }] } : { forecasts: [{ at: '2026-01-02T00:00:00Z', p: 0.5 }] }),
+  });
+  const questions = [
+    ...ids.map((id) => question(id, 'binary')),
+    ...ids.map((id) => question(`c${id}`, 'choice')),
+    { ...question('early', 'binary'), closes_at: '2026-04-30T23:59:59.999Z' },
+  ];
+  await d.call('importText', { format: 'json', text: JSON.stringify({ format: 'forelog-diary', version: 1, questions }) });
+  const exported = JSON.parse((await d.call('exportText', { format: 'json' })).text) as { questions: { id: string; type?: string }[] };
+  const exportOrder = exported.questions.map((q) => q.id);
+  assert.deepEqual(exportOrder.slice(0, 4), ['early', 'A', 'a', 'a\u00e9'], 'the export itself orders by close, then code point');
+  const input = loadScoringInput(d.service.store.read);
+  assert.deepEqual(input.binary.map((q) => q.id), exportOrder.filter((id) => !id.startsWith('c')));
+  assert.deepEqual(input.choice.map((q) => q.id), exportOrder.filter((id) => id.startsWith('c')));
+  assert.ok(input.binary.findIndex((q) => q.id === 'a\uFFFD') < input.binary.findIndex((q) => q.id === 'a\u{1F600}'), 'U+FFFD before U+1F600');
+});
