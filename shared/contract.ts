@@ -536,10 +536,16 @@ export function parseRequest<K extends OperationName>(name: K, raw: unknown): Va
   if (v.nestedDeeperThan(raw)) {
     throw new ApiError('invalid', `The request is nested too deeply: ${v.NESTING_RULE}. Nothing was changed.`);
   }
-  const result = operations[name].safeParse(raw ?? {});
+  const result = operations[name].safeParse(raw ?? {}, { reportInput: true });
   if (!result.success) {
-    const fields = v.describeIssues(result.error);
+    const fields = v.describeIssues(result.error, '', true);
     throw new ApiError('invalid', `The request was not accepted: ${fields.join('; ')}. Nothing was changed.`, fields);
+  }
+  // The schemas drop fields they do not know; a request naming one (a misspelt "base_rat")
+  // would otherwise be carried out without what the user meant to give.
+  const unknown = v.droppedFields(raw, result.data).map((field) => `${field}: is not a field of this request; check its spelling, or leave it out`);
+  if (unknown.length > 0) {
+    throw new ApiError('invalid', `The request was not accepted: ${unknown.join('; ')}. Nothing was changed.`, unknown);
   }
   return result.data as ValidRequest<K>;
 }

@@ -135,14 +135,17 @@ const NOT_A_DIARY = 'This is not a Forelog diary file: expected a JSON object wi
 
 function checkFormat(format: unknown): void {
   if (format !== DIARY_FORMAT) {
-    throw new DiaryFileError(`This is not a Forelog diary file: "format" must be "${DIARY_FORMAT}".`, null, 'format');
+    throw new DiaryFileError(`This is not a Forelog diary file: "format" must be "${DIARY_FORMAT}". Nothing was imported.`, null, 'format');
   }
 }
 
 function checkVersion(version: unknown): void {
+  if (version === undefined) {
+    throw new DiaryFileError(`This diary file has no "version"; this Forelog reads version ${DIARY_VERSION} (written "version": ${DIARY_VERSION}). Nothing was imported.`, null, 'version');
+  }
   if (version !== DIARY_VERSION) {
     throw new DiaryFileError(
-      `This diary file is version ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}. Update Forelog to import it.`,
+      `This diary file is version ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}. Nothing was imported; update Forelog to import it.`,
       null,
       'version',
     );
@@ -150,14 +153,14 @@ function checkVersion(version: unknown): void {
 }
 
 function questionsNotAList(): DiaryFileError {
-  return new DiaryFileError('"questions" must be a list (it may be empty).', null, 'questions');
+  return new DiaryFileError('"questions" must be a list (it may be empty). Nothing was imported.', null, 'questions');
 }
 
 function readSettings(raw: unknown): FileSettings | null {
   if (raw === undefined || raw === null) return null;
-  const s = fileSettings.safeParse(raw);
+  const s = fileSettings.safeParse(raw, { reportInput: true });
   if (!s.success) {
-    const line = v.describeIssues(s.error, 'settings')[0]!;
+    const line = v.describeIssues(s.error, 'settings', true)[0]!;
     throw new DiaryFileError(`The settings are not valid: ${line}. Nothing was imported.`, null, line.split(':')[0]!);
   }
   return s.data;
@@ -356,13 +359,13 @@ function parseQuestion(raw: unknown): ReturnType<typeof fileQuestion.safeParse> 
   if (plain) return { success: true, data: plain } as ReturnType<typeof fileQuestion.safeParse>;
   const revisions = plainRevisions(raw);
   if (revisions) {
-    const rest = fileQuestion.safeParse({ ...(raw as object), forecasts: [] });
+    const rest = fileQuestion.safeParse({ ...(raw as object), forecasts: [] }, { reportInput: true });
     if (rest.success) {
       rest.data.forecasts = revisions;
       return rest;
     }
   }
-  return fileQuestion.safeParse(raw);
+  return fileQuestion.safeParse(raw, { reportInput: true });
 }
 
 /**
@@ -375,7 +378,7 @@ function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: numb
   if (!r.success) {
     const issue = r.error.issues[0]!;
     const field = v.formatPath(issue.path) || '(record)';
-    throw new DiaryFileError(`${questionRecordName(index)} is not valid: field ${field}: ${issue.message}${where}. Nothing was imported.`, index, field);
+    throw new DiaryFileError(`${questionRecordName(index)} is not valid: field ${field}: ${v.issueReason(issue, true)}${where}. Nothing was imported.`, index, field);
   }
   if (r.data.id !== undefined) {
     if (ids.has(r.data.id)) {
@@ -392,7 +395,7 @@ function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: numb
 
 /** Reads a diary file already in memory (JSON-parsed). Throws DiaryFileError on the first problem. */
 export function* diaryItems(raw: unknown): Generator<DiaryItem> {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw new DiaryFileError(NOT_A_DIARY, null, null);
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw new DiaryFileError(`${NOT_A_DIARY} Nothing was imported.`, null, null);
   const top = raw as Record<string, unknown>;
   checkFormat(top.format);
   checkVersion(top.version);
@@ -418,7 +421,7 @@ export function parseDiaryFile(raw: unknown): ParsedDiary {
 function unreadable(err: JsonStreamError): DiaryFileError {
   switch (err.kind) {
     case 'not-object':
-      return new DiaryFileError(`${NOT_A_DIARY} (${err.message})`, null, null);
+      return new DiaryFileError(`${NOT_A_DIARY} (${err.message}) Nothing was imported.`, null, null);
     case 'depth':
       return new DiaryFileError(`The file cannot be read at ${err.message}; a diary file never nests that deep. Nothing was imported.`, null, null);
     case 'duplicate':

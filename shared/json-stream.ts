@@ -10,6 +10,8 @@
  * a file nested thousands of levels deep is refused with its position, not a stack overflow.
  */
 
+import { duplicateMember, memberCount } from './json-duplicates';
+
 /** Why the text could not be read; `line` and `column` (1-based) say where. */
 export class JsonStreamError extends Error {
   constructor(
@@ -61,7 +63,11 @@ function advance(line: number, column: number, text: string, length = text.lengt
 }
 
 function describeChar(c: number): string {
-  return c === END ? 'the end of the file' : `"${String.fromCharCode(c)}"`;
+  if (c === END) return 'the end of the file';
+  // An invisible character (NUL, a control, a byte order mark in the middle) is named by its
+  // code point: written as itself it would show as nothing, or end the message in a terminal.
+  if (c < 0x20 || (c >= 0x7f && c <= 0xa0) || c === 0xfeff || (c >= 0xd800 && c <= 0xdfff)) return `the character U+${c.toString(16).toUpperCase().padStart(4, '0')}`;
+  return `"${String.fromCharCode(c)}"`;
 }
 
 class Scanner {
@@ -147,6 +153,8 @@ class Scanner {
     const first = this.buf.charCodeAt(0);
     const scalar = first !== QUOTE && first !== OPEN_BRACE && first !== OPEN_BRACKET;
     let inString = false;
+    // Members written, one ":" outside strings each: JSON.parse keeps one of two with the same name.
+    let colons = 0;
     let i = 0;
     for (;;) {
       if (i >= this.buf.length) {
@@ -194,15 +202,27 @@ class Scanner {
         }
         i++;
         if (closers.length === 0) break;
-      } else i++;
+      } else {
+        if (c === COLON) colons++;
+        i++;
+      }
     }
     const text = pieces ? pieces.join('') + this.buf.slice(0, i) : this.buf.slice(0, i);
     this.pos = i;
+    let value: unknown;
     try {
-      return JSON.parse(text);
+      value = JSON.parse(text);
     } catch (err) {
       throw this.parseError(err as Error, text, startLine, startColumn);
     }
+    if (colons > 0 && memberCount(value) !== colons) {
+      const twice = duplicateMember(text);
+      if (twice) {
+        const p = advance(startLine, startColumn, text, twice.offset);
+        throw new JsonStreamError(`line ${p.line}, column ${p.column + 1}: the member "${twice.key}" appears a second time in its object; keep one of them`, 'duplicate', p.line, p.column + 1);
+      }
+    }
+    return value;
   }
 
   /** JSON.parse's complaint, at the line and column of the file it refers to. */

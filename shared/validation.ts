@@ -9,6 +9,33 @@ import { dateToDays } from './numeric-value';
 import { quantileLevelsProblem, quantilesProblem } from './quantile-levels';
 import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
 
+/**
+ * zod's own words for a wrong shape ("Invalid input: expected object, received array",
+ * "Unrecognized key") reach users wherever a schema gives none of its own: a request body
+ * that is a list, a lens that is null, a diary record that is not an object. These say
+ * the same in the words the rest of the messages use. A schema's own message still wins.
+ */
+const SHAPES: Record<string, string> = {
+  object: 'must be an object of named fields ({ … })',
+  array: 'must be a list ([ … ])',
+  string: 'must be text',
+  number: 'must be a number',
+  boolean: 'must be true or false',
+};
+z.config({
+  customError: (issue) => {
+    if (issue.code === 'invalid_type') {
+      if (issue.input === undefined || issue.expected === 'nonoptional') return 'is required';
+      const got = issue.input === null ? 'null' : Array.isArray(issue.input) ? 'a list' : typeof issue.input === 'object' ? 'an object' : typeof issue.input === 'string' ? 'text' : `a ${typeof issue.input}`;
+      return `${SHAPES[issue.expected] ?? `must be ${issue.expected}`}, not ${got}`;
+    }
+    if (issue.code === 'unrecognized_keys') {
+      return `names ${issue.keys.map((k) => `"${k}"`).join(', ')}, which ${issue.keys.length === 1 ? 'is not a field' : 'are not fields'} here; check the spelling, or leave ${issue.keys.length === 1 ? 'it' : 'them'} out`;
+    }
+    return undefined;
+  },
+});
+
 export const TAG_PATTERN = /^[a-z0-9][a-z0-9_\-:./]{0,63}$/;
 export const TAG_RULE =
   'a tag is 1–64 lower-case letters, digits or - _ : . / starting with a letter or digit (e.g. client:northgate)';
@@ -67,15 +94,24 @@ export const timeZone = z
  * feed and carriage return. Why: nobody types them, they hide on screen and in CSV, and
  * SQLite's length() stops at a NUL, so the store would see "\u0000" as an empty title
  * that the validator thought was full.
+ *
+ * Neither takes half of a UTF-16 surrogate pair (a JSON "\ud800" escape without its
+ * partner): it is no character, SQLite keeps text as UTF-8, which cannot hold it, and it
+ * would come back as three U+FFFD, a different and longer text than the one accepted.
+ * With the u flag a class of the surrogate range matches only such unpaired halves.
  */
-const ONE_LINE_CONTROLS = /[\u0000-\u001f\u007f]/;
-const NOTE_CONTROLS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+const ONE_LINE_CONTROLS = /[\u0000-\u001f\u007f\ud800-\udfff]/u;
+const NOTE_CONTROLS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f\ud800-\udfff]/u;
 
-/** The first forbidden control character in `text`, as a reason naming it and its place; null when none. */
+const hex = (code: number) => `U+${code.toString(16).toUpperCase().padStart(4, '0')}`;
+
+/** The first forbidden character in `text` (a control character or an unpaired surrogate), as a reason naming it and its place; null when none. */
 export function controlCharacterProblem(text: string, lines: 'one' | 'many'): string | null {
   const m = (lines === 'one' ? ONE_LINE_CONTROLS : NOTE_CONTROLS).exec(text);
   if (!m) return null;
-  const found = `found U+${m[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')} at character ${m.index + 1}`;
+  const code = m[0].charCodeAt(0);
+  const found = `found ${hex(code)} at character ${m.index + 1}`;
+  if (code >= 0xd800) return `must be Unicode text: ${found}, half of a surrogate pair without its other half; remove it or write the whole character`;
   return lines === 'one'
     ? `must be one line without control characters such as NUL, tab or line breaks (${found})`
     : `must not contain control characters other than tab and line breaks (${found})`;
@@ -115,7 +151,8 @@ export const searchText = text('one').max(200, { message: 'must be at most 200 c
 
 /** A whole number from `min` to `max` (paging: an offset or a page size). */
 export function count(max: number, min = 0) {
-  const rule = max === Number.MAX_SAFE_INTEGER ? `must be a whole number, ${min} or more` : `must be a whole number from ${min} to ${max}`;
+  // Past 2^53 − 1 whole numbers are no longer told apart; say so rather than "0 or more" to a 2^53.
+  const rule = max === Number.MAX_SAFE_INTEGER ? `must be a whole number, ${min} or more (at most ${max})` : `must be a whole number from ${min} to ${max}`;
   return z
     .number({ error: rule })
     .refine((n) => Number.isInteger(n) && n >= min && n <= max, { message: rule });
@@ -392,12 +429,51 @@ export function jsonTextNestedDeeperThan(text: string, limit = MAX_NESTING): boo
   return false;
 }
 
-/** Turns a zod error into one line per problem: `field.path: reason`. */
-export function describeIssues(error: z.ZodError, prefix = ''): string[] {
+const isRecord = (value: unknown): value is Record<string, unknown> =>
+  typeof value === 'object' && value !== null && !Array.isArray(value);
+
+/**
+ * The paths of the object keys in `raw` that validation dropped from `parsed` (zod objects
+ * strip keys they do not know), list places and nested fields included. Keys holding
+ * undefined are not fields a caller gave. A value kept whole (z.unknown) is the same on
+ * both sides, so nothing inside it is reported.
+ */
+export function droppedFields(raw: unknown, parsed: unknown): string[] {
+  const out: string[] = [];
+  const walk = (r: unknown, p: unknown, path: PropertyKey[]) => {
+    if (r === p) return;
+    if (Array.isArray(r) && Array.isArray(p)) {
+      for (let i = 0; i < Math.min(r.length, p.length); i++) walk(r[i], p[i], [...path, i]);
+    } else if (isRecord(r) && isRecord(p)) {
+      for (const key of Object.keys(r)) {
+        if (r[key] === undefined) continue;
+        if (Object.hasOwn(p, key)) walk(r[key], p[key], [...path, key]);
+        else out.push(formatPath([...path, key]));
+      }
+    }
+  };
+  walk(raw, parsed, []);
+  return out;
+}
+
+/**
+ * The reason an issue gives a user. A field left out is "required", whatever its type's
+ * message says ("title: must be text" reads as if a wrong title had been given). Only a
+ * parse run with `reportInput: true` tells a missing field (no input) from a wrong one, so
+ * `withInputs` says the error came from one.
+ */
+export function issueReason(issue: z.core.$ZodIssue, withInputs = false): string {
+  if (!withInputs || issue.code !== 'invalid_type' || issue.input !== undefined || issue.message === 'is required') return issue.message;
+  return issue.message.startsWith('must ') ? `is required (it ${issue.message})` : `is required (${issue.message})`;
+}
+
+/** Turns a zod error into one line per problem: `field.path: reason` (see `issueReason` for `withInputs`). */
+export function describeIssues(error: z.ZodError, prefix = '', withInputs = false): string[] {
   return error.issues.map((issue) => {
     const path = formatPath(issue.path);
     const field = prefix && path ? `${prefix}.${path}` : prefix || path;
-    return field ? `${field}: ${issue.message}` : issue.message;
+    const reason = issueReason(issue, withInputs);
+    return field ? `${field}: ${reason}` : reason;
   });
 }
 

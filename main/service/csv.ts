@@ -30,6 +30,7 @@ import {
   type TypeIssue,
   type TypeShape,
 } from '../../shared/question-types';
+import { duplicateMember } from '../../shared/json-duplicates';
 import * as v from '../../shared/validation';
 import { CsvSyntaxError, readCsvRecords } from '../files/csv-records';
 
@@ -684,6 +685,8 @@ function readPoint(cell: Cell, row: number, shape: TypeShape): { forecast: FileF
       } catch (err) {
         throw nothingImported(row, 'lenses', `is not valid JSON (${(err as Error).message}); write a list such as [{"name":"outside view","p":0.3,"weight":1}] or leave it empty`);
       }
+      const twice = duplicateMember(lenses);
+      if (twice) throw nothingImported(row, 'lenses', `names "${twice.key}" twice in one lens; keep one of them`);
       const list = check(F.lenses, raw, row, 'lenses') ?? [];
       if (list.length) entry.lenses = list;
     }

@@ -62,7 +62,7 @@ import {
   type ScoredSet,
   type ScoringQuestion,
 } from '../../shared/scoring';
-import { parseInstant, parseRangeBound, toIso } from '../../shared/time';
+import { INSTANT_RANGE, isInstantInRange, parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import * as v from '../../shared/validation';
 import type { StoreHandles } from '../store/open';
 import * as nudgeStore from '../store/nudges';
@@ -285,6 +285,11 @@ export function createDiary(ctx: DiaryContext) {
     for (const f of q.forecasts) if (firstAt === null || f.at < firstAt) firstAt = f.at;
     const closes = q.closes_at;
     const opened = q.opened_at ?? defaultOpenedAt(firstAt, stamp, closes);
+    // A close at the range's first instant leaves no earlier instant for a default opening;
+    // storing one before 1900 would make the diary's export a file it refuses.
+    if (!isInstantInRange(opened)) {
+      throw invalid('closes_at', `must be after ${toIso(INSTANT_RANGE.earliest)} when the question has no opened_at: it opens at least 1 ms before it closes, and every time must be between 1900 and 2199`);
+    }
     if (closes <= opened) throw invalid('closes_at', 'must be after the opening time (opened_at)');
     // The record passed the type rules (the contract or the diary file's schema): its fields fit its type.
     const shape = shapeOf(q);
@@ -1090,6 +1095,10 @@ export function createDiary(ctx: DiaryContext) {
       const t = now();
       const until = req.until !== undefined ? ms(req.until) : snoozeUntil(req.preset!, t, settings().time_zone);
       if (until <= t) throw invalid('until', 'must be in the future');
+      // A preset counts on from now, and near the end of 2199 it can land past the range every stored time keeps to.
+      if (!isInstantInRange(until)) {
+        throw invalid('preset', `would end at ${toIso(until)}, after 2199, the last year Forelog keeps; give an until time before ${toIso(INSTANT_RANGE.end)} instead`);
+      }
       let undo = '';
       transact(() => {
         const row = requireQuestionRow(req.question_id);

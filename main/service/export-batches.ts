@@ -75,9 +75,10 @@ interface ReadRevisions extends PackedRevisions {
 /**
  * The seqs of the revisions that have a note, as bits (seq 8n + b is bit b of byte n), or
  * null when seqs run too high for that. Most revisions have none, and finding the few
- * that do in one pass over the table costs less than reading each revision's table row
- * (for its note) beside the index that holds everything else, at random places in a
- * large diary. Valid for one snapshot: read inside the export's transaction.
+ * that do from their own index (forecasts_noted, which holds only those) costs less than
+ * reading each revision's table row (for its note) beside the index that holds everything
+ * else, at random places in a large diary. Valid for one snapshot: read inside the
+ * export's transaction.
  */
 function notedRevisions(db: Db): Uint8Array | null {
   const last = db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null;

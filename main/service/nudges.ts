@@ -37,17 +37,21 @@ type DueRow = [string, string, QuestionKind, number, number, string, number | nu
  * Every unresolved question with its latest revision, in one query. The open questions are
  * picked from the narrow id index first (a diary is mostly resolved questions, whose long
  * rows are then never read), their rows fetched by rowid, and each one's latest revision
- * found through the (question_id, at, seq, p) index, one step per question: the cost
- * follows the number of open questions, not the length of their histories.
+ * found through the (question_id, at, seq, p) index alone, with no visit to the
+ * revisions table (whose pages lie scattered in a large diary): two steps per question,
+ * each to the same index page, the same ordering naming the same revision (seq is
+ * unique). The cost follows the number of open questions, not the length of their histories.
  */
 export function dueQuestions(db: Db): DueQuestion[] {
   const rows = db
     .prepare(
       `WITH open AS MATERIALIZED (SELECT rowid AS r FROM questions q WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id))
-       SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.p, q.type
+       SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days,
+         (SELECT at FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1),
+         (SELECT p FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1),
+         q.type
        FROM open o
-       CROSS JOIN questions q ON q.rowid = o.r
-       LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)`,
+       CROSS JOIN questions q ON q.rowid = o.r`,
     )
     .raw()
     .all() as DueRow[];

@@ -130,6 +130,23 @@ function keptOrdersOf(db: Db): Map<string, KeptOrder> {
   return orders;
 }
 
+// Every page answers with the diary's tags (with their counts) and its question count, which
+// do not depend on the query: on a large diary the tag counts are a pass over every tag row,
+// so they are kept until the diary changes, like the orders above. As with every answer the
+// service keeps, callers must not change it (the windows get copies: JSON or IPC).
+const keptTotals = new WeakMap<Db, { version: number; tags: { tag: string; count: number }[]; total: number }>();
+
+/** The diary's tag counts and question count, read again only after a change; inside the caller's snapshot. */
+function diaryTotals(read: Db): { tags: { tag: string; count: number }[]; total: number } {
+  const version = read.pragma('data_version', { simple: true }) as number;
+  let kept = keptTotals.get(read);
+  if (kept?.version !== version) {
+    kept = { version, tags: qs.allTagCounts(read), total: qs.questionCount(read) };
+    keptTotals.set(read, kept);
+  }
+  return kept;
+}
+
 export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuestions'>): QuestionList {
   const { read, settings, now } = ctx;
   const sort: ListSort = req.sort ?? 'attention';
@@ -248,7 +265,8 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
           stale: !r.outcome && ctx.stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null),
         };
       });
-      return { questions, tags: qs.allTagCounts(read), total: qs.questionCount(read), matched, offset, sort, direction };
+      const { tags: tagCounts, total } = diaryTotals(read);
+      return { questions, tags: tagCounts, total, matched, offset, sort, direction };
     });
   } finally {
     holder.settings = null;

@@ -286,7 +286,8 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'
+       ORDER BY q.closes_at, q.id`,
     )
     .raw()
     .all() as Row[];
@@ -343,11 +344,17 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   return { choice, numeric };
 }
 
+/**
+ * Both readers take the questions in export order (close time, then id): sums of doubles
+ * depend on their order, and this way a diary and its own export imported elsewhere score
+ * bit for bit alike, whatever order the questions were entered in.
+ */
 function readBinary(db: Db): ScoringQuestion[] {
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'
+       ORDER BY q.closes_at, q.id`,
     )
     .raw()
     .all() as QuestionRow[];
@@ -361,18 +368,24 @@ function readBinary(db: Db): ScoringQuestion[] {
       new StoredQuestion(id, title, kind, closes, baseRate, fa !== null && miss !== null ? { false_alarm: fa, miss } : null, outcome ? { outcome, at: resolvedAt! } : null, [], columns[i]),
   );
 
-  // Tags and references are few: joined to their question by id through a map, which costs
-  // less than a join in SQL.
-  const slotOfId = new Map(rows.map((row, i) => [row[1], i]));
-  const tags = db.prepare('SELECT question_id, tag FROM question_tags ORDER BY question_id, position').raw().all() as [string, string][];
-  for (const [qid, tag] of tags) {
-    const slot = slotOfId.get(qid);
-    if (slot !== undefined) questions[slot]!.tags.push(tag);
+  // Tags and references name their question by its rowid (found in the id index SQLite
+  // walks anyway), so no id text is made per row; the slot map is then an array lookup.
+  // Typed questions' rows are skipped: their rowids are not marked.
+  const isBinary = new Uint8Array(maxRowid + 1);
+  for (const row of rows) isBinary[row[0]] = 1;
+  const tags = db
+    .prepare('SELECT q.rowid, t.tag FROM question_tags t JOIN questions q ON q.id = t.question_id ORDER BY t.question_id, t.position')
+    .raw()
+    .all() as [number, string][];
+  for (const [rowid, tag] of tags) {
+    if (rowid <= maxRowid && isBinary[rowid] === 1) questions[slotOfRowid[rowid]!]!.tags.push(tag);
   }
   const references = db
-    .prepare(`SELECT question_id, at, p FROM reference_forecasts WHERE question_id IN (SELECT id FROM questions WHERE type = 'binary') ORDER BY question_id, at, seq`)
+    .prepare('SELECT q.rowid, r.at, r.p FROM reference_forecasts r JOIN questions q ON q.id = r.question_id ORDER BY r.question_id, r.at, r.seq')
     .raw()
-    .all() as [string, number, number][];
-  for (const [qid, at, p] of references) questions[slotOfId.get(qid)!]!.references.push({ at, p });
+    .all() as [number, number, number][];
+  for (const [rowid, at, p] of references) {
+    if (rowid <= maxRowid && isBinary[rowid] === 1) questions[slotOfRowid[rowid]!]!.references.push({ at, p });
+  }
   return questions;
 }

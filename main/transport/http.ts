@@ -13,6 +13,7 @@ import path from 'node:path';
 import { API_PREFIX, type Envelope } from '../../shared/bridge';
 import type { ApiErrorCode } from '../../shared/contract';
 import { jsonTextNestedDeeperThan, NESTING_RULE } from '../../shared/validation';
+import { duplicateMember } from '../../shared/json-duplicates';
 import type { Dispatch } from '../service/dispatch';
 import { CONTENT_SECURITY_POLICY } from '../shell/csp';
 
@@ -220,6 +221,12 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       refuse(res, 405, 'API calls use POST with a JSON body.');
       return;
     }
+    // A body declared as something else (a form, plain text) is not what the caller meant to
+    // send as an API request; a request without the header is read as JSON, as curl -d sends it.
+    const declared = req.headers['content-type'];
+    if (declared !== undefined && declared.split(';')[0]!.trim().toLowerCase() !== 'application/json') {
+      throw new RequestRefusal(415, `API calls take a JSON body, but this one is declared as "${declared.slice(0, 100)}"; send it with Content-Type: application/json. Nothing was changed.`);
+    }
     const text = await readBody(req, limit);
     if (jsonTextNestedDeeperThan(text)) {
       throw new RequestRefusal(400, `The request body is nested too deeply: ${NESTING_RULE}. Nothing was changed.`);
@@ -229,6 +236,10 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       request = text.trim() ? JSON.parse(text) : {};
     } catch (err) {
       throw new RequestRefusal(400, `The request body is not valid JSON: ${err instanceof Error ? err.message : String(err)}. Nothing was changed.`);
+    }
+    const twice = duplicateMember(text);
+    if (twice) {
+      throw new RequestRefusal(400, `The request body names the member "${twice.key}" twice in one object (the second at character ${twice.offset + 1}); keep one of them. Nothing was changed.`);
     }
     const answer = await options.dispatch(operation, request);
     sendJson(res, answer.ok ? 200 : STATUS[answer.error.code], answer);

@@ -16,7 +16,11 @@ import type { DecisionSummary, ValuePoint } from './types';
 export function costLossThreshold(falseAlarm: number, miss: number): number {
   assertPositive(falseAlarm, 'costLossThreshold: false-alarm cost');
   assertPositive(miss, 'costLossThreshold: miss cost');
-  return falseAlarm / (falseAlarm + miss);
+  const total = falseAlarm + miss;
+  if (Number.isFinite(total)) return falseAlarm / total;
+  // Two costs near Number.MAX_VALUE add up to Infinity, and FA / Infinity would be 0 (act
+  // on anything); the same ratio written with M / FA stays finite.
+  return 1 / (1 + miss / falseAlarm);
 }
 
 export interface ContingencyTable {

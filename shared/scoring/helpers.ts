@@ -478,6 +478,9 @@ export interface WeightedLens {
  * Source: Satopää et al. (2014) Int. J. Forecasting 30:344–356 (logit aggregator);
  * SCORING.md "Helpers" (lens pooling).
  */
+/** Weights beyond this (or below its inverse) are pooled relative to the largest; see poolLenses. */
+const WEIGHT_SCALE_LIMIT = 2 ** 500;
+
 export function poolLenses(lenses: readonly WeightedLens[], extremize = 1): number {
   if (!Array.isArray(lenses) || lenses.length === 0) {
     throw new RangeError('lenses must be a non-empty list; add at least one lens estimate before pooling.');
@@ -487,14 +490,29 @@ export function poolLenses(lenses: readonly WeightedLens[], extremize = 1): numb
   }
   let weightSum = 0;
   let weighted = 0;
+  let largest = 0;
   lenses.forEach((lens, i) => {
     requireProbability(`lenses[${i}].p`, lens.p);
     requireNonNegative(`lenses[${i}].weight`, lens.weight);
     weightSum += lens.weight;
     weighted += lens.weight * logit(lens.p);
+    if (lens.weight > largest) largest = lens.weight;
   });
   if (!(weightSum > 0)) {
     throw new RangeError('lenses must have a positive total weight (all weights are 0); give at least one lens a weight above 0.');
+  }
+  // Only the weights' ratios count. Near the ends of the double range the sums overflow
+  // (1e308 + 1e308 is Infinity, and Infinity / Infinity NaN) or lose their digits among
+  // subnormals (5e-324 · logit(0.2) rounds to a multiple of 5e-324); there the weights are
+  // taken relative to the largest. Ordinary weights keep the formula exactly as written.
+  if (largest > WEIGHT_SCALE_LIMIT || largest < 1 / WEIGHT_SCALE_LIMIT) {
+    weightSum = 0;
+    weighted = 0;
+    for (const lens of lenses) {
+      const w = lens.weight / largest;
+      weightSum += w;
+      weighted += w * logit(lens.p);
+    }
   }
   return sigmoid((extremize * weighted) / weightSum);
 }

@@ -269,9 +269,13 @@ function relativeWisVsFirst(s: NumericScores): number | null {
   let count = 0;
   let sumLog = 0;
   for (let i = 0; i < s.wis.length; i++) {
-    if (s.wis[i]! > 0 && s.wisFirst[i]! > 0) {
+    const ratio = s.wis[i]! / s.wisFirst[i]!;
+    // Values near the ends of the double range (a file may hold any finite number) can make
+    // a WIS overflow to Infinity; such a question has no ratio (Infinity / Infinity is NaN,
+    // and one NaN would make the whole figure NaN), so it is left out like a WIS of 0.
+    if (s.wis[i]! > 0 && s.wisFirst[i]! > 0 && Number.isFinite(ratio) && ratio > 0) {
       count++;
-      sumLog += Math.log(s.wis[i]! / s.wisFirst[i]!);
+      sumLog += Math.log(ratio);
     }
   }
   return count === 0 ? null : Math.exp(sumLog / count);

@@ -380,6 +380,7 @@ test('each cell is checked with the diary file rules, and the message names row 
     [{ ...Q1, note: 'orphan note' }, 'belongs to a revision, but forecast_at and p are empty on this row; fill them in or clear this cell', 'note'],
     [{ ...Q1, ...F1, lenses: '[{name: "outside"}]' }, /^is not valid JSON \(.+\); write a list such as/, 'lenses'],
     [{ ...Q1, ...F1, lenses: '[{"name":"outside view","p":1.2,"weight":1}]' }, '[0].p: must be a probability between 0 and 1', 'lenses'],
+    [{ ...Q1, ...F1, lenses: '[{"name":"outside view","p":1.2,"p":0.3}]' }, 'names "p" twice in one lens; keep one of them', 'lenses'],
     [{ ...Q1, ...F1, reference_at: F1.forecast_at, reference_p: '0.5', reference_source: 'client' }, /^a row holds either a revision \(forecast_at, p\) or a reference forecast/, 'reference_at'],
     [{ ...Q1, reference_at: F1.forecast_at, reference_p: '0.5' }, 'is empty, but a reference forecast needs its time, probability and source', 'reference_source'],
   ];

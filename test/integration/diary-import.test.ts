@@ -57,6 +57,40 @@ test('a diary file read as it streams, in chunks of any size, gives what reading
   }
 });
 
+test('a member named twice in one object is refused at any depth, with its line and column, and nothing is imported', async () => {
+  // JSON.parse keeps the last of the two; the file's writer, or another reader, may mean the first.
+  const d = openTestDiary();
+  const cases: [string, string][] = [
+    ['{"title":"A","title":"B","closes_at":"2027-01-01T00:00:00Z","forecasts":[]}', 'title'],
+    ['{"title":"A","closes_at":"2027-01-01T00:00:00Z",\n "forecasts":[{"at":"2026-01-01T00:00:00Z","p":2,"p":0.3}]}', 'p'],
+    ['{"title":"A","closes_at":"2027-01-01T00:00:00Z","forecasts":[{"at":"2026-01-01T00:00:00Z","p":0.3,"lenses":[{"name":"x","p":0.1,"\\u006eame":"y"}]}]}', 'name'],
+  ];
+  for (const [record, key] of cases) {
+    const text = `{"format":"forelog-diary","version":1,"questions":[${record}]}`;
+    const lines = text.slice(0, text.lastIndexOf(`"${key}"`) + 1).split('\n');
+    const column = lines.at(-1)!.length;
+    const at = lines.length === 1 ? text.lastIndexOf(`"${key}"`) + 1 : column;
+    // The \u escape spells the name differently; find its place by the escape instead.
+    const place = record.includes('\\u006e') ? text.indexOf('"\\u006eame"') + 1 : at;
+    await refusesText(d, text, `The file cannot be read at line ${lines.length}, column ${place}: the member "${key}" appears a second time in its object; keep one of them. Nothing was imported.`);
+  }
+  await refusesText(
+    d,
+    '{"format":"forelog-diary","version":1,"settings":{"time_zone":"UTC","time_zone":"Europe/London"},"questions":[]}',
+    'The file cannot be read at line 1, column 69: the member "time_zone" appears a second time in its object; keep one of them. Nothing was imported.',
+  );
+  // A name repeated in different objects, or inside a text, is no duplicate.
+  await d.call('importText', { format: 'json', text: JSON.stringify({ ...DIARY, questions: [question(1, { note: 'a "p": here', forecasts: [{ at: '2026-01-05T09:05:00Z', p: 0.4, note: '"p":1' }, { at: '2026-01-06T09:05:00Z', p: 0.5 }] })] }) });
+  assert.equal((await d.call('listQuestions', {})).total, 1);
+});
+
+test('an invisible character where the file should start is named by its code point, not written as itself', async () => {
+  const d = openTestDiary();
+  for (const [text, name] of [['\u0000\u0000', 'U+0000'], ['\u0001{}', 'U+0001'], ['\u00a0{}', 'U+00A0']] as const) {
+    await refusesText(d, text, `This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found the character ${name}) Nothing was imported.`);
+  }
+});
+
 test('members may come in any order: settings after the questions import as if they came first', async () => {
   const settings = { default_checkin_days: 3, time_zone: 'Asia/Tokyo' };
   const questions = [question(1), question(2, { time_zone: 'Europe/London' })];
@@ -82,11 +116,11 @@ test('format, version and questions are checked wherever they stand; the records
   const d = openTestDiary();
   await d.call('importText', { format: 'json', text: JSON.stringify({ ...DIARY, questions: [question(0)] }) });
   const many = Array.from({ length: 30 }, (_, i) => question(i + 1));
-  await refusesText(d, JSON.stringify({ questions: many, version: 1, format: 'something-else' }), 'This is not a Forelog diary file: "format" must be "forelog-diary".');
-  await refusesText(d, JSON.stringify({ questions: many, format: 'forelog-diary' }), /^This diary file is version undefined; this Forelog reads version 1/);
-  await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty).');
-  await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty).');
-  await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[")');
+  await refusesText(d, JSON.stringify({ questions: many, version: 1, format: 'something-else' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
+  await refusesText(d, JSON.stringify({ questions: many, format: 'forelog-diary' }), 'This diary file has no "version"; this Forelog reads version 1 (written "version": 1). Nothing was imported.');
+  await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty). Nothing was imported.');
+  await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty). Nothing was imported.');
+  await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[") Nothing was imported.');
   await refusesText(d, '', /^This is not a Forelog diary file: .*the file is empty/);
 });
 

@@ -106,6 +106,58 @@ test('the same validation as every transport: 400 with the field, nothing writte
   assert.match(JSON.parse(notJson.body).error.message, /not valid JSON/);
 });
 
+test('a body naming a member twice in one object is refused, at any depth, and nothing is written', async () => {
+  // JSON.parse would keep the last one: {"p": 2, "p": 0.3} would land as 0.3 while the
+  // person (or another reader) sees 2.
+  const { server, d } = await setup();
+  const headers = { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}`, 'Content-Type': 'application/json' };
+  const bodies = [
+    '{"title":"x","title":"y","closes_at":"2030-01-01T00:00:00Z"}',
+    '{"title":"x","closes_at":"2030-01-01T00:00:00Z","first_forecast":{"p":2,"p":0.3}}',
+    '{"title":"x","closes_at":"2030-01-01T00:00:00Z","first_forecast":{"p":0.3,"lenses":[{"name":"a","p":0.1,"\\u0070":0.2}]}}',
+  ];
+  for (const body of bodies) {
+    const res = await request(server.port, { path: '/api/createQuestion', method: 'POST', headers, body });
+    assert.equal(res.status, 400, body);
+    assert.match(JSON.parse(res.body).error.message, /names the member "(title|p)" twice in one object .*keep one of them\. Nothing was changed\./, body);
+  }
+  assert.equal((await d.call('listQuestions', {})).total, 0);
+  // The same names in different objects, or inside text, are no duplicates.
+  const fine = await request(server.port, {
+    path: '/api/createQuestion',
+    method: 'POST',
+    headers,
+    body: '{"title":"x \\"title\\":1","closes_at":"2030-01-01T00:00:00Z","first_forecast":{"p":0.3,"note":"p","lenses":[{"name":"a","p":0.1},{"name":"b","p":0.2}]}}',
+  });
+  assert.equal(fine.status, 200, fine.body);
+});
+
+test('a body declared as anything but JSON gets 415 naming the header to send, and nothing is written', async () => {
+  const { server, d } = await setup();
+  const body = JSON.stringify({ title: 'x', closes_at: '2030-01-01T00:00:00Z' });
+  for (const type of ['text/plain', 'application/x-www-form-urlencoded', 'multipart/form-data; boundary=x', 'application/jsonp']) {
+    const res = await request(server.port, {
+      path: '/api/createQuestion',
+      method: 'POST',
+      headers: { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}`, 'Content-Type': type },
+      body,
+    });
+    assert.equal(res.status, 415, type);
+    assert.match(JSON.parse(res.body).error.message, /send it with Content-Type: application\/json\. Nothing was changed\.$/, type);
+  }
+  assert.equal((await d.call('listQuestions', {})).total, 0);
+  // JSON with a charset, in any letter case, or with no Content-Type at all, is read.
+  for (const headers of [{ 'Content-Type': 'Application/JSON; charset=utf-8' }, {}] as Record<string, string>[]) {
+    const res = await request(server.port, {
+      path: '/api/createQuestion',
+      method: 'POST',
+      headers: { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}`, ...headers },
+      body,
+    });
+    assert.equal(res.status, 200, res.body);
+  }
+});
+
 test('serves the renderer with a strict CSP and never files outside it', async () => {
   const { server } = await setup();
   const host = `localhost:${server.port}`;

@@ -137,6 +137,36 @@ test('a diary file or CSV holding an instant outside the range is refused, namin
   assert.equal((await d.call('listQuestions', {})).total, 0);
 });
 
+test('a file question closing at the first instant, with no opening time, is refused: its default opening would fall before 1900', async () => {
+  // Without opened_at a question opens at its first revision, or now, but always at least 1 ms
+  // before its close; for a close at the range's first instant that millisecond is outside
+  // the range, and a diary holding it would export a file it could not import again.
+  const d = openTestDiary();
+  const earliest = toIso(INSTANT_RANGE.earliest);
+  const before = exportJson(d.service);
+  const json = JSON.stringify({ format: 'forelog-diary', version: 1, questions: [{ title: 'First instant', closes_at: earliest, forecasts: [] }] });
+  const fromJson = await d.service.dispatch('importText', { format: 'json', text: json });
+  assert.equal(fromJson.ok, false);
+  if (!fromJson.ok) {
+    assert.equal(fromJson.error.code, 'invalid');
+    assert.match(fromJson.error.message, /Question 1 \(questions\[0\]\) is not valid: closes_at: must be after 1900-01-01T00:00:00.000Z when the question has no opened_at/);
+  }
+  const csv = ['title,closes_at', `First instant,${earliest}`].join('\r\n');
+  const fromCsv = await d.service.dispatch('importText', { format: 'csv', text: csv });
+  assert.equal(fromCsv.ok, false);
+  if (!fromCsv.ok) assert.match(fromCsv.error.message, /closes_at: .*1900.*opened_at/);
+  assert.equal(exportJson(d.service), before);
+
+  // One millisecond later the default opening is the first instant itself, and the question round-trips.
+  const later = toIso(INSTANT_RANGE.earliest + 1);
+  await d.call('importText', { format: 'json', text: json.replace(earliest, later) });
+  const exported = exportJson(d.service);
+  assert.equal((JSON.parse(exported) as { questions: { opened_at: string }[] }).questions[0]!.opened_at, earliest);
+  const again = openTestDiary();
+  await again.call('importText', { format: 'json', text: exported });
+  assert.equal(exportJson(again.service), exported);
+});
+
 test('a diary at both extremes works everywhere and re-imports exactly through JSON and CSV', async () => {
   // The clock stands near the range's end, so nothing below lies in the future (the last
   // instant is exactly as far ahead as clock differences allow), and a snooze still can.
@@ -181,6 +211,22 @@ test('a diary at both extremes works everywhere and re-imports exactly through J
   await fromCsv.call('importText', { format: 'csv', text: csv });
   const questions = (text: string) => (JSON.parse(text) as { questions: unknown[] }).questions;
   assert.deepEqual(questions(exportJson(fromCsv.service)), questions(json));
+});
+
+test('a snooze preset that would end after 2199 is refused, naming the preset, and nothing is snoozed', async () => {
+  const d = openTestDiary({ now: '2199-12-30T12:00:00Z' });
+  const q = await d.call('createQuestion', { title: 'Late', closes_at: toIso(INSTANT_RANGE.end - 1), first_forecast: { p: 0.5 }, checkin_days: 1 });
+  const before = exportJson(d.service);
+  const answer = await d.service.dispatch('snooze', { question_id: q.id, kind: 'checkin', preset: 'next_week' });
+  assert.equal(answer.ok, false);
+  if (!answer.ok) {
+    assert.equal(answer.error.code, 'invalid');
+    assert.deepEqual(answer.error.fields, ['preset: would end at 2200-01-06T09:00:00.000Z, after 2199, the last year Forelog keeps; give an until time before 2200-01-01T00:00:00.000Z instead']);
+  }
+  assert.equal(exportJson(d.service), before);
+  assert.deepEqual(d.service.store.read.prepare('SELECT count(*) AS n FROM snoozes').get(), { n: 0 });
+  // A preset that ends inside the range still snoozes.
+  assert.equal((await d.call('snooze', { question_id: q.id, kind: 'checkin', preset: 'tomorrow_morning' })).until, '2199-12-31T09:00:00.000Z');
 });
 
 test('the command line refuses --at, --from and --to outside the range with the rule', () => {

@@ -94,7 +94,7 @@ test('a schema-4 diary migrates through 5 (question types) and on with every byt
     assert.equal(db.pragma('foreign_keys', { simple: true }), 1);
     // The rebuilt tables keep their indexes and their children's cascades.
     const indexes = db.prepare("SELECT name FROM sqlite_master WHERE type = 'index' AND name NOT LIKE 'sqlite_%' ORDER BY name").pluck().all();
-    assert.deepEqual(indexes, ['forecasts_question', 'nudge_log_question', 'question_tags_tag', 'questions_closes_at', 'reference_forecasts_question', 'resolution_history_question', 'undo_log_recorded']);
+    assert.deepEqual(indexes, ['forecasts_noted', 'forecasts_question', 'nudge_log_question', 'question_tags_tag', 'questions_closes_at', 'reference_forecasts_question', 'resolution_history_question', 'undo_log_recorded']);
     store.write.prepare("DELETE FROM forecasts WHERE id = 'f1'").run();
     assert.equal(db.prepare("SELECT count(*) FROM forecast_lenses WHERE forecast_id = 'f1'").pluck().get(), 0, 'lenses go with their revision');
   } finally {

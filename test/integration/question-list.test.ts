@@ -118,6 +118,40 @@ test('later pages follow a change to the diary at once, from this process or ano
   assert.ok(!after.questions.some((q) => q.id === ids[1]));
 });
 
+test("every page's tag counts and question count follow a change from this process or another one", async () => {
+  const { d, ids } = await diary();
+  const totals = async () => {
+    const page = (await d.call('listQuestions', { limit: 1 })) as { tags: { tag: string; count: number }[]; total: number };
+    return { tags: page.tags, total: page.total };
+  };
+  assert.deepEqual(await totals(), { tags: [{ tag: 'client:northgate', count: 4 }, { tag: 'internal', count: 8 }], total: 12 });
+  await d.call('updateQuestion', { id: ids[1]!, changes: { tags: ['internal', 'port'] } });
+  assert.deepEqual(await totals(), { tags: [{ tag: 'client:northgate', count: 4 }, { tag: 'internal', count: 8 }, { tag: 'port', count: 1 }], total: 12 });
+  const other = openTestDiary({ now: NOW, dbPath: d.dbPath });
+  await other.call('deleteQuestion', { id: ids[0]! });
+  assert.deepEqual(await totals(), { tags: [{ tag: 'client:northgate', count: 3 }, { tag: 'internal', count: 8 }, { tag: 'port', count: 1 }], total: 11 }, "another process's delete");
+});
+
+test('the search of notes follows each revision note as it is written, cleared, restored and deleted', async () => {
+  // The notes are searched through an index of the noted revisions only (migration 7), which
+  // must follow every way a note changes.
+  const { d, ids } = await diary();
+  const search = async () => (await list(d, { text: 'ferry strike' })).questions.map((q) => q.id);
+  assert.deepEqual(await search(), []);
+  const added = await d.call('addForecast', { question_id: ids[2]!, p: 0.3, note: 'Ferry strike called off' });
+  assert.deepEqual(await search(), [ids[2]], 'a new revision\'s note is found');
+  const revision = added.forecasts.find((f: { note: string }) => f.note === 'Ferry strike called off')!;
+  const cleared = await d.call('updateForecast', { id: revision.id, p: 0.3, note: '' });
+  assert.deepEqual(await search(), [], 'a cleared note is no longer found');
+  await d.call('undo', { token: cleared.undo });
+  assert.deepEqual(await search(), [ids[2]], 'undo brings the note back into the search');
+  await d.call('updateForecast', { id: revision.id, p: 0.3, note: 'Harbour reopened' });
+  assert.deepEqual(await search(), [], 'an edited note is searched by its new words');
+  assert.deepEqual((await list(d, { text: 'harbour reopened' })).questions.map((q) => q.id), [ids[2]]);
+  await d.call('deleteForecast', { id: revision.id });
+  assert.equal((await list(d, { text: 'harbour reopened' })).matched, 0, "a deleted revision's note is gone");
+});
+
 test('search, status and tag filter before paging, and `matched` counts every page', async () => {
   const { d, ids } = await diary();
   const north = await list(d, { tag: 'client:northgate', limit: 2 });
@@ -195,6 +229,7 @@ test('bad paging and sorting requests are refused, naming the field, and change 
   await refused(d, 'listQuestions', { limit: 2.5 }, /^limit: /);
   await refused(d, 'listQuestions', { limit: '10' }, /^limit: /);
   await refused(d, 'listQuestions', { offset: -1 }, /^offset: must be a whole number, 0 or more/);
+  await refused(d, 'listQuestions', { offset: 2 ** 53 }, /^offset: must be a whole number, 0 or more \(at most 9007199254740991\)$/);
   await refused(d, 'listQuestions', { offset: 0.5 }, /^offset: /);
   await refused(d, 'listQuestions', { offset: Number.NaN }, /^offset: /);
   await refused(d, 'hindsight', { limit: 0 }, /^limit: /);

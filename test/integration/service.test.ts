@@ -5,7 +5,7 @@
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
 import { ApiError } from '../../shared/contract';
-import { openTestDiary } from '../support/temp-diary';
+import { exportJson, openTestDiary } from '../support/temp-diary';
 
 const base = {
   title: 'Northgate signs the phase-2 statement of work',
@@ -161,6 +161,70 @@ test('settings default, update with validation, and persist', async () => {
   await rejects(d.call('updateSettings', { quiet_hours: { start: '25:00', end: '07:00' } }), 'invalid', /quiet_hours\.start/);
   await rejects(d.call('updateSettings', { closing_soon_hours: 0 }), 'invalid', /closing_soon_hours/);
   await rejects(d.call('updateSettings', { bogus: 1 } as never), 'invalid', /bogus|Unrecognized/i);
+});
+
+test('a request with a field the operation does not take is refused, naming it, and changes nothing', async () => {
+  // A misspelt optional field ("base_rat") would otherwise be dropped without a word and the
+  // question saved without what the user meant to give it.
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', { ...base, first_forecast: { p: 0.4 } });
+  const before = exportJson(d.service);
+  const refused: [string, unknown, RegExp][] = [
+    ['createQuestion', { ...base, base_rat: 0.3 }, /^base_rat: is not a field of this request/],
+    ['createQuestion', { ...base, first_forecast: { p: 0.4, nte: 'x' } }, /^first_forecast\.nte: is not a field/],
+    ['createQuestion', { ...base, costs: { false_alarm: 1, miss: 2, extra: 3 } }, /^costs\.extra: is not a field/],
+    ['addForecast', { question_id: q.id, p: 0.5, lenses: [{ name: 'a', p: 0.5, wieght: 2 }] }, /^lenses\[0\]\.wieght: is not a field/],
+    ['resolveQuestion', { id: q.id, outcome: 'yes', when: '2026-05-01T00:00:00Z' }, /^when: is not a field/],
+    ['getQuestion', { id: q.id, verbose: true }, /^verbose: is not a field/],
+    ['score', { tags: 'x' }, /^tags: is not a field/],
+  ];
+  for (const [op, request, field] of refused) {
+    const answer = await d.service.dispatch(op, request);
+    assert.equal(answer.ok, false, op);
+    if (!answer.ok) {
+      assert.equal(answer.error.code, 'invalid', op);
+      assert.match(answer.error.fields[0] ?? '', field, op);
+      assert.match(answer.error.message, /check its spelling.*Nothing was changed\.$/, op);
+    }
+  }
+  assert.equal(exportJson(d.service), before);
+  // The diary inside importDiary is a diary file, whose unknown fields are ignored as the format says.
+  const file = { format: 'forelog-diary', version: 1, comment: 'from a script', questions: [{ title: 'Q', closes_at: '2027-01-01T00:00:00Z', forecasts: [], colour: 'red' }] };
+  assert.equal((await d.call('importDiary', { diary: file })).added, 1);
+});
+
+test('a request of the wrong shape, or missing a field, is told so in plain words, not in the validator\'s', async () => {
+  const d = openTestDiary();
+  const cases: [string, unknown, string][] = [
+    ['diaryInfo', [], 'must be an object of named fields ({ … }), not a list'],
+    ['updateQuestion', { id: 'x' }, 'changes: is required'],
+    ['addForecast', { question_id: 'x', p: 0.5, lenses: [null] }, 'lenses[0]: must be an object of named fields ({ … }), not null'],
+    ['createQuestion', { title: 'x', closes_at: '2030-01-01T00:00:00Z', first_forecast: [0.5] }, 'first_forecast: must be an object of named fields ({ … }), not a list'],
+    ['importDiary', {}, 'diary: is required'],
+    ['updateSettings', { bogus: 1 }, 'names "bogus", which is not a field here; check the spelling, or leave it out'],
+  ];
+  for (const [op, request, line] of cases) {
+    const answer = await d.service.dispatch(op, request);
+    assert.equal(answer.ok, false, op);
+    if (!answer.ok) {
+      assert.deepEqual(answer.error.fields, [line], op);
+      assert.doesNotMatch(answer.error.message, /Invalid input|Unrecognized|expected|received/, op);
+    }
+  }
+  // A field left out is called missing; one of the wrong type keeps its own rule.
+  const empty = await d.service.dispatch('createQuestion', {});
+  assert.ok(!empty.ok);
+  if (!empty.ok) assert.deepEqual(empty.error.fields, ['title: is required (it must be text)', 'closes_at: is required (it must be an ISO 8601 date-time text)']);
+  const wrong = await d.service.dispatch('createQuestion', { title: 3, closes_at: null });
+  assert.ok(!wrong.ok);
+  if (!wrong.ok) assert.deepEqual(wrong.error.fields, ['title: must be text', 'closes_at: must be an ISO 8601 date-time text']);
+  await assert.rejects(d.call('importText', { format: 'json', text: '{"format":"forelog-diary","version":1,"questions":[{"title":"No close","forecasts":[]}]}' }), {
+    message: 'Question 1 (questions[0]) is not valid: field closes_at: is required (it must be an ISO 8601 date-time text) (the record starts on line 1). Nothing was imported.',
+  });
+  const file = '{"format":"forelog-diary","version":1,"questions":[null]}';
+  await assert.rejects(d.call('importText', { format: 'json', text: file }), {
+    message: 'Question 1 (questions[0]) is not valid: field (record): must be an object of named fields ({ … }), not null (the record starts on line 1). Nothing was imported.',
+  });
 });
 
 test('the scorecard follows every change at once (its cached input is dropped on each write)', async () => {

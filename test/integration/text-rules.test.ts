@@ -81,6 +81,37 @@ test('diary files and CSV are held to the same text rules, naming the record or 
   assert.equal((await d.call('listQuestions', {})).total, 0);
 });
 
+test('half of a surrogate pair is refused in every way in; whole characters outside the BMP are kept exactly', async () => {
+  // SQLite stores UTF-8, which cannot hold an unpaired surrogate: "a\ud800b" came back as
+  // "a\ufffd\ufffd\ufffdb", another and longer text (a 300-character title of them would
+  // export as 900 characters that import then refuses).
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', { title: 'Rocket \u{1F680} launch', closes_at: CLOSES, first_forecast: { p: 0.5, note: '\u{1F600}' } });
+  assert.equal((await d.call('getQuestion', { id: q.id })).title, 'Rocket \u{1F680} launch');
+  assert.equal(q.forecasts[0].note, '\u{1F600}');
+  const before = exportJson(d.service);
+  const refused: [string, unknown, string, string][] = [
+    ['createQuestion', { title: 'a\ud800b', closes_at: CLOSES }, 'title', 'U+D800 at character 2'],
+    ['createQuestion', { title: 'x', rule: 'tail \udc00', closes_at: CLOSES }, 'rule', 'U+DC00 at character 6'],
+    ['addForecast', { question_id: q.id, p: 0.5, note: '\ude00\ud83d' }, 'note', 'U+DE00 at character 1'],
+    ['addReference', { question_id: q.id, p: 0.5, source: 'desk\ud83d' }, 'source', 'U+D83D at character 5'],
+  ];
+  for (const [op, request, field, found] of refused) {
+    const answer = await d.service.dispatch(op, request);
+    assert.equal(answer.ok, false, op);
+    if (!answer.ok) assert.equal(answer.error.fields[0], `${field}: must be Unicode text: found ${found}, half of a surrogate pair without its other half; remove it or write the whole character`, op);
+  }
+  const file = '{"format":"forelog-diary","version":1,"questions":[{"title":"Half \\ud800","closes_at":"2030-01-01T00:00:00Z","forecasts":[]}]}';
+  const json = await d.service.dispatch('importText', { format: 'json', text: file });
+  assert.equal(json.ok, false);
+  if (!json.ok) assert.match(json.error.message, /Question 1 \(questions\[0\]\) .*field title: must be Unicode text: found U\+D800 at character 6/);
+  const csv = `title,closes_at,forecast_at,p,lenses\r\nFine,${CLOSES},2026-01-01T00:00:00Z,0.5,"[{""name"":""in\\udc00"",""p"":0.5}]"\r\n`;
+  const fromCsv = await d.service.dispatch('importText', { format: 'csv', text: csv });
+  assert.equal(fromCsv.ok, false);
+  if (!fromCsv.ok) assert.match(fromCsv.error.message, /Row 2, column lenses: \[0\]\.name: must be Unicode text: found U\+DC00/);
+  assert.equal(exportJson(d.service), before);
+});
+
 /** Strings rich in the characters where the two notions of "empty" could differ. */
 const tricky = fc.string({
   unit: fc.oneof(

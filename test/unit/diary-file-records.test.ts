@@ -7,7 +7,7 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import fc from 'fast-check';
 import { diaryItems, fileQuestion, questionRecordName, DiaryFileError } from '../../shared/diary-file';
-import { formatPath } from '../../shared/validation';
+import { formatPath, issueReason } from '../../shared/validation';
 
 const at = fc.constantFrom<unknown>(
   '2026-03-31T16:00:00.000Z',
@@ -87,7 +87,7 @@ test('a record reads exactly as the schema reads it, and a bad one is refused in
   let refused = 0;
   fc.assert(
     fc.property(record, (raw) => {
-      const expected = fileQuestion.safeParse(raw);
+      const expected = fileQuestion.safeParse(raw, { reportInput: true });
       if (expected.success) {
         passed++;
         assert.deepEqual(readOne(raw), expected.data);
@@ -101,7 +101,7 @@ test('a record reads exactly as the schema reads it, and a bad one is refused in
         () => readOne(raw),
         (err: unknown) =>
           err instanceof DiaryFileError &&
-          err.message === `${questionRecordName(0)} is not valid: field ${formatPath(issue.path) || '(record)'}: ${issue.message}. Nothing was imported.`,
+          err.message === `${questionRecordName(0)} is not valid: field ${formatPath(issue.path) || '(record)'}: ${issueReason(issue, true)}. Nothing was imported.`,
       );
     }),
     { seed: 20261202, numRuns: 4000 },

@@ -330,6 +330,13 @@ test('poolLenses weights, clipping and validation', () => {
   close(poolLenses([{ p: 0.9, weight: 1 }, { p: 0.1, weight: 0 }]), 0.9, 1e-15, 'zero weight ignored');
   // SCORING.md: p clipped to [0.001, 0.999] before pooling, so a lone 1 pools to 0.999.
   close(poolLenses([{ p: 1, weight: 2 }]), 0.999, 1e-15, 'clipped');
+  // Only the ratios of the weights count, at the ends of the double range too: equal weights
+  // of 0.2 and 0.9 pool to odds √(¼ · 9) = 1.5, i.e. 0.6, whether the weights are 1, 1e308
+  // (whose sum overflows) or the smallest subnormal (whose products lose their digits).
+  const M = Number.MAX_VALUE;
+  for (const w of [1, 1e308, M, 5e-324]) close(poolLenses([{ p: 0.2, weight: w }, { p: 0.9, weight: w }]), 0.6, 1e-15, `equal weights ${w}`);
+  close(poolLenses([{ p: 0.2, weight: M }, { p: 0.9, weight: 1 }]), 0.2, 1e-15, 'a weight of MAX_VALUE beside 1');
+  close(poolLenses([{ p: 0.2, weight: 5e-324 }, { p: 0.9, weight: 0 }]), 0.2, 1e-15, 'a lone subnormal weight');
   assert.throws(() => poolLenses([]), { name: 'RangeError', message: /^lenses must be a non-empty list/ });
   assert.throws(() => poolLenses([{ p: 0.5, weight: -1 }]), { name: 'RangeError', message: /^lenses\[0\]\.weight/ });
   assert.throws(() => poolLenses([{ p: 0.5, weight: 1 }, { p: 2, weight: 1 }]), { name: 'RangeError', message: /^lenses\[1\]\.p/ });

@@ -62,6 +62,13 @@ test("the cost-loss model reproduces Finley's table from decisions", () => {
 test('decisions use each question’s own threshold and costs', () => {
   // Derived from SCORING.md: α = FA/(FA + M).
   assert.equal(costLossThreshold(1, 4), 0.2);
+  // Costs may be any positive finite number: two near Number.MAX_VALUE, whose sum overflows,
+  // still give their ratio (equal costs: act above ½), not α = 0 (act on anything).
+  const M = Number.MAX_VALUE;
+  assert.equal(costLossThreshold(M, M), 0.5);
+  assert.equal(costLossThreshold(M, M / 4), 0.8);
+  assert.equal(costLossThreshold(M, 1), 1);
+  assert.equal(costLossDecisions([{ p: 0.3, o: 0, false_alarm: M, miss: M, base_rate: null }]).false_alarms, 0);
   const d = costLossDecisions([
     // α = 0.2: 0.3 > 0.2 → act; Yes → hit.
     { p: 0.3, o: 1, false_alarm: 1, miss: 4, base_rate: 0.1 },

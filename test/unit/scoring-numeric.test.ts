@@ -242,6 +242,11 @@ test('relative WIS vs first: the geometric mean of ratios where both are above 0
   assert.equal(computeNumericReport(qs.slice(2), {}).relative_wis_vs_first, null);
   // A single forecast is its own first: ratio 1.
   assert.equal(computeNumericReport([numericQuestion('e', 10, nf([0, [7]]), median)], {}).relative_wis_vs_first, 1);
+  // A WIS past the double range (values near ±Number.MAX_VALUE) gives no ratio: the
+  // question is left out rather than turning the figure into NaN.
+  const huge = numericQuestion('f', Number.MAX_VALUE, nf([0, [-Number.MAX_VALUE]], [2, [-Number.MAX_VALUE]]), median);
+  assert.equal(computeNumericReport([huge], {}).relative_wis_vs_first, null);
+  close(computeNumericReport([...qs, huge], {}).relative_wis_vs_first, Math.sqrt((2 / 8) * (6 / 3)), 1e-15, 'relative WIS beside an overflowing question');
 });
 
 test('surprises: outside the widest range, sized by distance over width, worst first', () => {
