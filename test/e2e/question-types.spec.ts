@@ -137,7 +137,14 @@ test('a numeric question: a decreasing range refused by name, revise, resolve wi
   await expect(dialog.getByRole('textbox', { name: 'Resolution rule' })).toHaveAccessibleDescription(/^Where the number or date will be read off/);
   await dialog.getByRole('textbox', { name: 'Unit' }).fill('weeks');
   const range = dialog.getByRole('group', { name: /Your range/ });
-  await range.getByRole('spinbutton', { name: 'P10 (low)' }).fill('9');
+  // A decimal comma typed key by key: the browser drops it ("9,5" reads 95), so the box says so.
+  const low = range.getByRole('spinbutton', { name: 'P10 (low)' });
+  await low.pressSequentially('9,5');
+  await expect(low).toHaveAccessibleDescription(/Commas are dropped here, so this reads as 95\. For a decimal, type a point/);
+  await low.blur();
+  await low.focus();
+  await expect(dialog.getByTestId('comma-warning')).toHaveCount(0);
+  await low.fill('9');
   await range.getByRole('spinbutton', { name: 'P50 (median)' }).fill('13');
   await range.getByRole('spinbutton', { name: 'P90 (high)' }).fill('12');
   await dialog.getByRole('button', { name: 'Save question' }).click();
