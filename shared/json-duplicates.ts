@@ -4,15 +4,7 @@
  * reader (or the person who wrote the file) takes 2. Forelog refuses such text instead,
  * at every depth, naming the member and where its second appearance is.
  */
-
-const QUOTE = 0x22;
-const BACKSLASH = 0x5c;
-const COMMA = 0x2c;
-const COLON = 0x3a;
-const OPEN_BRACE = 0x7b;
-const CLOSE_BRACE = 0x7d;
-const OPEN_BRACKET = 0x5b;
-const CLOSE_BRACKET = 0x5d;
+import { BACKSLASH, CLOSE_BRACE, CLOSE_BRACKET, COLON, COMMA, OPEN_BRACE, OPEN_BRACKET, QUOTE } from './json-codes';
 
 /**
  * How many members the objects in a value built by JSON.parse hold, at every depth. Text

@@ -9,7 +9,7 @@
  * grammar inside a value is JSON.parse's. Nesting is bounded before anything is parsed, so
  * a file nested thousands of levels deep is refused with its position, not a stack overflow.
  */
-
+import { BACKSLASH, CLOSE_BRACE, CLOSE_BRACKET, COLON, COMMA, OPEN_BRACE, OPEN_BRACKET, QUOTE } from './json-codes';
 import { duplicateMember, memberCount } from './json-duplicates';
 
 /** Why the text could not be read; `line` and `column` (1-based) say where. */
@@ -40,14 +40,6 @@ export interface ObjectStreamOptions {
   maxDepth: number;
 }
 
-const QUOTE = 0x22;
-const BACKSLASH = 0x5c;
-const COMMA = 0x2c;
-const COLON = 0x3a;
-const OPEN_BRACE = 0x7b;
-const CLOSE_BRACE = 0x7d;
-const OPEN_BRACKET = 0x5b;
-const CLOSE_BRACKET = 0x5d;
 const END = -1;
 
 const isSpace = (c: number) => c === 0x20 || c === 0x0a || c === 0x0d || c === 0x09;
