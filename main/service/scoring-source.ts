@@ -189,6 +189,8 @@ type QuestionRow = [
   miss_cost: number | null,
   outcome: 'yes' | 'no' | 'void' | null,
   resolved_at: number | null,
+  /** The question's tags in its order, joined by line breaks (which the tag rule excludes); null when it has none. */
+  tags: string | null,
 ];
 
 /**
@@ -282,10 +284,10 @@ function readTypedRevisions(db: Db, slotOfRowid: Int32Array, questionCount: numb
  * date question's as days since 1970-01-01, as stored).
  */
 function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringNumericQuestion[] } {
-  type Row = [rowid: number, id: string, title: string, type: 'choice' | 'numeric', closes: number, ordered: number | null, unit: string | null, kind: 'number' | 'date' | null, outcome: string | null, at: number | null, option: number | null, value: number | null];
+  type Row = [rowid: number, id: string, title: string, type: 'choice' | 'numeric', closes: number, ordered: number | null, unit: string | null, kind: 'number' | 'date' | null, outcome: string | null, at: number | null, option: number | null, value: number | null, tags: string | null];
   const rows = db
     .prepare(
-      `SELECT q.rowid, q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value
+      `SELECT q.rowid, q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value, ${TAGS_OF_Q}
        FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'`,
     )
     .raw()
@@ -294,7 +296,6 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   const choice: ScoringChoiceQuestion[] = [];
   const numeric: ScoringNumericQuestion[] = [];
   if (rows.length === 0) return { choice, numeric };
-  const tags = new Map<string, string[]>();
   const rates = new Map<string, (number | null)[]>();
   const levels = new Map<string, number[]>();
   const push = <T>(map: Map<string, T[]>, key: string, item: T) => {
@@ -302,10 +303,6 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
     if (list) list.push(item);
     else map.set(key, [item]);
   };
-  const typed = `(SELECT id FROM questions WHERE type <> 'binary')`;
-  for (const [qid, tag] of db.prepare(`SELECT question_id, tag FROM question_tags WHERE question_id IN ${typed} ORDER BY question_id, position`).raw().all() as [string, string][]) {
-    push(tags, qid, tag);
-  }
   for (const [qid, rate] of db.prepare('SELECT question_id, base_rate FROM question_options ORDER BY question_id, position').raw().all() as [string, number | null][]) {
     push(rates, qid, rate);
   }
@@ -317,8 +314,8 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   const slotOfRowid = new Int32Array(maxRowid + 1);
   rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
   const revisionsBySlot = readTypedRevisions(db, slotOfRowid, rows.length);
-  rows.forEach(([, id, title, type, closes, ordered, unit, kind, outcome, at, option, value], slot) => {
-    const base = { id, title, tags: tags.get(id) ?? [], closes_at: closes };
+  rows.forEach(([, id, title, type, closes, ordered, unit, kind, outcome, at, option, value, tags], slot) => {
+    const base = { id, title, tags: tagList(tags), closes_at: closes };
     const revisions = revisionsBySlot[slot]!;
     if (type === 'choice') {
       const stated = rates.get(id) ?? [];
@@ -342,6 +339,17 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
     }
   });
   return { choice, numeric };
+}
+
+/**
+ * The question `q`'s tags in its own order as one text, joined by line breaks (the tag rule
+ * allows none in a tag); null when it has none. One value per question costs far less than
+ * a row per tag, each of which better-sqlite3 turns into an array and two strings.
+ */
+const TAGS_OF_Q = `(SELECT group_concat(tag, char(10) ORDER BY position) FROM question_tags WHERE question_id = q.id)`;
+
+function tagList(joined: string | null): string[] {
+  return joined === null ? [] : joined.split('\n');
 }
 
 /**
@@ -369,10 +377,12 @@ function compareCodePoints(a: string, b: string): number {
   }
   return a.length - b.length;
 }
+
 function readBinary(db: Db): ScoringQuestion[] {
   const rows = db
     .prepare(
-      `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at
+      `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at,
+         ${TAGS_OF_Q}
        FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'`,
     )
     .raw()
@@ -384,22 +394,25 @@ function readBinary(db: Db): ScoringQuestion[] {
   rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
   const columns = columnsByQuestion(readRevisions(db, slotOfRowid), rows.length);
   const questions: ScoringQuestion[] = rows.map(
-    ([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt], i) =>
-      new StoredQuestion(id, title, kind, closes, baseRate, fa !== null && miss !== null ? { false_alarm: fa, miss } : null, outcome ? { outcome, at: resolvedAt! } : null, [], columns[i]),
+    ([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt, tags], i) =>
+      new StoredQuestion(
+        id,
+        title,
+        kind,
+        closes,
+        baseRate,
+        fa !== null && miss !== null ? { false_alarm: fa, miss } : null,
+        outcome ? { outcome, at: resolvedAt! } : null,
+        tagList(tags),
+        columns[i],
+      ),
   );
 
-  // Tags and references name their question by its rowid (found in the id index SQLite
-  // walks anyway), so no id text is made per row; the slot map is then an array lookup.
+  // References name their question by its rowid (found in the id index SQLite walks
+  // anyway), so no id text is made per row; the slot map is then an array lookup.
   // Typed questions' rows are skipped: their rowids are not marked.
   const isBinary = new Uint8Array(maxRowid + 1);
   for (const row of rows) isBinary[row[0]] = 1;
-  const tags = db
-    .prepare('SELECT q.rowid, t.tag FROM question_tags t JOIN questions q ON q.id = t.question_id ORDER BY t.question_id, t.position')
-    .raw()
-    .all() as [number, string][];
-  for (const [rowid, tag] of tags) {
-    if (rowid <= maxRowid && isBinary[rowid] === 1) questions[slotOfRowid[rowid]!]!.tags.push(tag);
-  }
   const references = db
     .prepare('SELECT q.rowid, r.at, r.p FROM reference_forecasts r JOIN questions q ON q.id = r.question_id ORDER BY r.question_id, r.at, r.seq')
     .raw()
