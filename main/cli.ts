@@ -10,6 +10,7 @@ import { isCheckout, staleReason } from '../scripts/freshness.mjs';
 import { ApiError, parseRequest, type DueList, type ImportResult } from '../shared/contract';
 import { NUDGE_KIND_NAMES } from '../shared/domain';
 import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
+import { version as VERSION } from '../package.json';
 import { writeToDescriptor, type Chunk } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
@@ -45,7 +46,8 @@ Times for --from, --to and --at:
 
 Options:
   --db PATH                   the diary file (default: the desktop app's own diary)
-  --help                      this text`;
+  --help                      this text
+  --version                   the version of Forelog`;
 
 /** The options each command takes, besides --db and --help; any other is refused. */
 const COMMAND_OPTIONS: Record<string, readonly string[]> = {
@@ -92,6 +94,7 @@ interface Parsed {
     json?: boolean;
     merge?: boolean;
     help?: boolean;
+    version?: boolean;
   };
 }
 
@@ -112,6 +115,7 @@ function parse(argv: string[]): Parsed {
         json: { type: 'boolean' },
         merge: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
+        version: { type: 'boolean', short: 'V' },
       },
     });
     return { command: positionals[0], positionals: positionals.slice(1), values };
@@ -168,7 +172,6 @@ function one(positionals: string[], what: string): string {
   return positionals[0]!;
 }
 
-/** Says on stderr why a command waits while an older diary is brought up to this version's format. */
 /**
  * A progress line for a long task, on stderr and only at a terminal (a script's output stays
  * exactly the result): "Importing FILE… 37 %", rewritten in place as the percentage moves,
@@ -289,6 +292,11 @@ async function serve(dbPath: string, portText: string | undefined): Promise<void
 
 async function run(argv: string[]): Promise<void> {
   const { command, positionals, values } = parse(argv);
+  if (values.version && !values.help) {
+    if (command !== undefined) throw new UsageError('--version takes no command');
+    process.stdout.write(`forelog ${VERSION}\n`);
+    return;
+  }
   if (values.help || command === undefined || command === 'help') {
     process.stdout.write(`${USAGE}\n`);
     return;

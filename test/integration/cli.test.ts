@@ -156,6 +156,20 @@ test('failures exit non-zero with one line: unknown command, missing file, not a
   assert.match(r.stderr, /not a Forelog diary file/);
 });
 
+test('--version prints the version from package.json and touches no diary; with a command it is refused', () => {
+  const { version } = JSON.parse(fs.readFileSync(path.join(ROOT, 'package.json'), 'utf8')) as { version: string };
+  const db = path.join(tempDir(), 'd.sqlite');
+  for (const flag of ['--version', '-V']) {
+    const r = forelog(flag, '--db', db);
+    assert.equal(r.status, 0, flag);
+    assert.equal(r.stdout, `forelog ${version}\n`);
+  }
+  assert.equal(fs.existsSync(db), false, 'no diary was created');
+  const r = forelog('score', '--version', '--db', db);
+  assert.equal(r.status, 1);
+  assert.match(r.stderr, /^forelog: --version takes no command\. See forelog --help\.\n$/);
+});
+
 /** `forelog …args` in a shell whose processes may write at most `kib` KiB per file (`ulimit -f`). */
 function forelogLimited(kib: number, ...args: string[]): { status: number; stdout: string; stderr: string } {
   const r = spawnSync('bash', ['-c', `ulimit -f ${kib} && exec "$0" "$@"`, process.execPath, '--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), ...args], {
