@@ -5,6 +5,7 @@
 import { useEffect, useRef } from 'react';
 import { currentToken } from './api/token';
 import { EmptyState } from './components/EmptyState';
+import { formatCount } from './dates';
 import { ToastProvider } from './components/Toast';
 import { DiaryInfoProvider } from './diaryInfo';
 import { AskFirstProvider } from './forgiving/AskFirst';
@@ -79,7 +80,7 @@ function Shell() {
                     {s.navLabel}
                     {s.name === 'desk' && dueCount > 0 ? (
                       <span className="app-bar__count" data-testid="due-count">
-                        {dueCount}
+                        {formatCount(dueCount)}
                         <span className="visually-hidden"> due</span>
                       </span>
                     ) : null}

@@ -41,6 +41,11 @@ export function formatCount(n: number, locale = userLocale()): string {
   return format.format(n);
 }
 
+/** A count and its noun, the count grouped: "1 day", "8,988 questions". */
+export function plural(n: number, one: string, many = `${one}s`): string {
+  return `${formatCount(n)} ${n === 1 ? one : many}`;
+}
+
 const formats = new Map<string, Intl.DateTimeFormat>();
 
 function cached(locale: string, timeZone: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {

@@ -16,6 +16,7 @@ import {
   formatNearby,
   formatTimeText,
   localToIso,
+  plural,
   parseDateText,
   parseTimeText,
   wallText,
@@ -114,4 +115,11 @@ test('counts are grouped as the locale writes thousands', () => {
   assert.equal(formatCount(100000, 'fr-FR'), '100\u202f000', 'a narrow no-break space');
   assert.equal(formatCount(999, 'en-GB'), '999');
   assert.equal(formatCount(0, 'en-GB'), '0');
+});
+
+test('a count with its noun is grouped the same way, singular only for exactly one', () => {
+  assert.equal(plural(1, 'day'), '1 day');
+  assert.equal(plural(0, 'day'), '0 days');
+  assert.equal(plural(1012, 'scored question'), `${formatCount(1012)} scored questions`);
+  assert.equal(plural(2, 'confident miss', 'confident misses'), '2 confident misses');
 });

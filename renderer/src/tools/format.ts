@@ -3,7 +3,6 @@
  * to one decimal of a percent at most (36.4%, 80%, 9.5%), and intervals in whole percents;
  * the same rounding fills a form's box, so the user saves exactly what they were shown.
  */
-import { formatCount } from '../dates';
 
 /** e.g. 0.363636 → "36.4", 0.8 → "80", 0.095163 → "9.5" (percent text for a form's box). */
 export function estimateText(p: number): string {
@@ -20,13 +19,9 @@ export function formatRange(low: number, high: number): string {
   return `${Math.round(low * 100)}–${Math.round(high * 100)}%`;
 }
 
-/** "1 day", "3 days". */
-export function plural(n: number, one: string, many = `${one}s`): string {
-  return `${formatCount(n)} ${n === 1 ? one : many}`;
-}
 
 /** e.g. "3 Jun 2025": the calendar day of an instant on `timeZone`'s clocks (dates.ts). */
-export { formatDay } from '../dates';
+export { formatDay, plural } from '../dates';
 
 /**
  * A text box's number, or null when it is empty or not a finite number. The tools compute as

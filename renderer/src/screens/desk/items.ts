@@ -5,6 +5,7 @@
  * them all; a revision clears the check-in and may leave it under "Closing soon").
  */
 import type { DueNudge, NudgeKind, QuestionType } from '../../../../shared/domain';
+import { formatCount, plural } from '../../dates';
 
 export type DeskGroup = 'resolve' | 'closing' | 'checkin';
 
@@ -82,8 +83,8 @@ export function summary(items: readonly DeskItem[]): string {
   const resolve = count('resolve');
   const closing = count('closing');
   const checkins = count('checkin');
-  if (resolve) parts.push(`${resolve} to resolve`);
-  if (closing) parts.push(`${closing} closing soon`);
-  if (checkins) parts.push(`${checkins} ${checkins === 1 ? 'check-in' : 'check-ins'}`);
+  if (resolve) parts.push(`${formatCount(resolve)} to resolve`);
+  if (closing) parts.push(`${formatCount(closing)} closing soon`);
+  if (checkins) parts.push(plural(checkins, 'check-in'));
   return parts.join(' · ');
 }

@@ -4,15 +4,11 @@
  * "Check-in due since Thu". Days are counted on the question's calendar, so "tomorrow"
  * means tomorrow where the deadline is.
  */
-import { dayWord, formatClock, formatNearby } from '../../dates';
+import { dayWord, formatClock, formatNearby, plural } from '../../dates';
 
 const MINUTE_MS = 60_000;
 const HOUR_MS = 3_600_000;
 const DAY_MS = 86_400_000;
-
-function plural(n: number, one: string): string {
-  return `${n} ${n === 1 ? one : `${one}s`}`;
-}
 
 // "today", "tomorrow", a weekday or a date, and "17:00": dates.ts writes every date in the window.
 export { dayWord, formatClock as clockTime };

@@ -10,9 +10,9 @@ import { formatCount } from '../../dates';
 
 export function CalibrationSummary({ report, subject }: { report: ScoreReport; subject: string }) {
   const notCounted = [
-    report.open ? `${report.open} open` : '',
-    report.void ? `${report.void} void` : '',
-    report.unscored ? `${report.unscored} resolved without a forecast before the window end` : '',
+    report.open ? `${formatCount(report.open)} open` : '',
+    report.void ? `${formatCount(report.void)} void` : '',
+    report.unscored ? `${formatCount(report.unscored)} resolved without a forecast before the window end` : '',
   ].filter(Boolean);
   return (
     <section className="hs-summary card" aria-labelledby="hs-summary-title" data-testid="calibration-summary">

@@ -23,9 +23,9 @@ import { EntryCard } from './EntryCard';
 import { HindsightFilters } from './HindsightFilters';
 import { TypedEntrySections } from './TypedEntryCards';
 import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, decodeSelection, encodeSelection, type HindsightSelection } from './selection';
-import { confidentMeaning, plural, wholePercent } from './wording';
+import { confidentMeaning, wholePercent } from './wording';
 import './hindsight.css';
-import { formatCount } from '../../dates';
+import { formatCount, plural } from '../../dates';
 
 /** Dragging the slider or typing a date asks once it settles, not at every step. */
 const SETTLE_MS = 150;

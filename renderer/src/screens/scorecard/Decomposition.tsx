@@ -6,6 +6,7 @@
  */
 import { memo } from 'react';
 import type { Decomposition as Terms } from '../../../../shared/scoring/types';
+import { plural } from '../../dates';
 import { identityRows, score3 } from './format';
 
 interface TermRow {
@@ -30,7 +31,7 @@ export const Decomposition = memo(function Decomposition({ terms, brier, scored 
   return (
     <div className="table-card sc-decomposition" data-testid="decomposition">
       <table>
-        <caption className="table-card__caption">Brier score decomposition over {scored} scored question{scored === 1 ? '' : 's'}</caption>
+        <caption className="table-card__caption">Brier score decomposition over {plural(scored, 'scored question')}</caption>
         <thead>
           <tr>
             <th scope="col">Term</th>
