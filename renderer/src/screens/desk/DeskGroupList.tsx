@@ -7,6 +7,7 @@
 import { useEffect, useRef, useState, type ReactNode } from 'react';
 import { Button } from '../../components/Button';
 import type { DeskItem } from './items';
+import { formatCount } from '../../dates';
 
 /** Cards drawn at first in each group, and added by each "Show more". */
 export const DESK_PAGE = 30;
@@ -43,7 +44,7 @@ export function DeskGroupList({ items, render }: DeskGroupListProps) {
             Show {Math.min(more, DESK_PAGE)} more
           </Button>
           <span className="muted">
-            {shown} of {items.length} shown
+            {formatCount(shown)} of {formatCount(items.length)} shown
           </span>
         </div>
       ) : null}

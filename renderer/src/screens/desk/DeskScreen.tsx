@@ -22,6 +22,7 @@ import { DeskItemCard, type Done } from './DeskItemCard';
 import { GROUPS, deskItems, summary, type DeskItem } from './items';
 import { SnoozedSection } from './SnoozedSection';
 import { useDue } from './useDueCount';
+import { formatCount } from '../../dates';
 import './desk.css';
 
 export function DeskScreen() {
@@ -86,7 +87,7 @@ export function DeskScreen() {
               <section key={group} className={`desk-group desk-group--${group}`} aria-labelledby={headingId} data-testid={`desk-group-${group}`}>
                 <div className="desk-group__head">
                   <h2 id={headingId}>
-                    {heading} <span className="desk-group__count">{listed.length}</span>
+                    {heading} <span className="desk-group__count">{formatCount(listed.length)}</span>
                   </h2>
                   <p className="desk-group__intro">{intro}</p>
                 </div>

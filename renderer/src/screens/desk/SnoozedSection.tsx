@@ -15,6 +15,7 @@ import { useUndoToast } from '../../forgiving/undo';
 import { hrefTo, questionPath } from '../../routing';
 import { snoozedItems, type SnoozedItem } from './snoozed';
 import { clockTime, dayWord } from './wording';
+import { formatCount } from '../../dates';
 import '../../forgiving/forgiving.css';
 
 interface Props {
@@ -31,7 +32,7 @@ export function SnoozedSection({ snoozed, now, diaryTimeZone }: Props) {
   return (
     <details className="desk-snoozed" data-testid="desk-snoozed">
       <summary>
-        Snoozed <span className="desk-group__count">{items.length}</span>
+        Snoozed <span className="desk-group__count">{formatCount(items.length)}</span>
       </summary>
       <p className="desk-snoozed__intro">Due, but hidden until the time shown. Unsnooze brings one back now.</p>
       <ul className="desk-snoozed__list">

@@ -10,7 +10,7 @@ import type { Hindsight } from '../../../../shared/contract';
 import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../../../shared/hindsight-entries';
 import { toStoredValue } from '../../../../shared/numeric-value';
 import { Badge } from '../../components/Badge';
-import { formatInstant } from '../../dates';
+import { formatCount, formatInstant } from '../../dates';
 import { formatValue } from '../../forecastEntry/numericEntry';
 import { choiceSummary, numericSummary } from '../../questionTypes/summaries';
 import { hrefTo, questionPath } from '../../routing';
@@ -173,7 +173,7 @@ function TypedSection({ id, title, children, n }: { id: string; title: string; n
   return (
     <section className="hs-section" aria-labelledby={id} data-testid={id}>
       <h2 id={id} className="hs-section__title">
-        {title} <span className="hs-section__n">({n})</span>
+        {title} <span className="hs-section__n">({formatCount(n)})</span>
       </h2>
       {children}
     </section>

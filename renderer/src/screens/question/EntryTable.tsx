@@ -5,7 +5,7 @@
  */
 import type { ReactNode } from 'react';
 import { Button } from '../../components/Button';
-import { formatInstant } from '../../dates';
+import { formatCount, formatInstant } from '../../dates';
 
 export interface EntryRow {
   id: string;
@@ -37,7 +37,7 @@ export function EntryTable({ kind, caption, headers, cellClassName, cellTestId, 
     <div className="table-card">
       <table data-testid={kind === 'revision' ? 'revisions-table' : 'references-table'}>
         <caption className="table-card__caption">
-          {caption} ({rows.length})
+          {caption} ({formatCount(rows.length)})
         </caption>
         <thead>
           <tr>
