@@ -41,6 +41,23 @@ export function formatCount(n: number, locale = userLocale()): string {
   return format.format(n);
 }
 
+const decimalFormats = new Map<string, Intl.NumberFormat>();
+
+/**
+ * A measured value (a numeric question's forecast or outcome, a chart tick) to at most
+ * `significant` significant digits, grouped and with the decimal mark of the user's locale:
+ * 1500 → "1,500", 0.1 + 0.2 → "0.3" (12 digits), 1234.5 → "1.234,5" (de-DE).
+ */
+export function formatDecimal(value: number, significant: number, locale = userLocale()): string {
+  const key = `${locale}|${significant}`;
+  let format = decimalFormats.get(key);
+  if (!format) {
+    format = new Intl.NumberFormat(locale, { maximumSignificantDigits: significant });
+    decimalFormats.set(key, format);
+  }
+  return format.format(value);
+}
+
 /** A count and its noun, the count grouped: "1 day", "8,988 questions". */
 export function plural(n: number, one: string, many = `${one}s`): string {
   return `${formatCount(n)} ${n === 1 ? one : many}`;

@@ -128,6 +128,11 @@ test('a choice or numeric forecast in a few words for lists', () => {
   assert.equal(choiceSummary(['A', 'B'], [0.5, 0.5]), 'A 50%', 'a tie goes to the first option');
   assert.equal(numericSummary([0.1, 0.5, 0.9], [9, 13, 20], 'number', 'weeks'), '13 weeks (9 – 20)');
   assert.equal(numericSummary([0.5], [13], 'number', ''), '13');
+  // Numbers as the locale groups them, to 12 significant digits (no binary noise: 0.1 + 0.2 reads 0.3).
+  assert.equal(numericSummary([0.1, 0.5, 0.9], [1400, 1500, 1600.25], 'number', '£k', 'en-GB'), '1,500 £k (1,400 – 1,600.25)');
+  assert.equal(numericSummary([0.5], [0.1 + 0.2], 'number', '', 'en-GB'), '0.3');
+  assert.equal(numericSummary([0.5], [-1234567.5], 'number', 'EUR', 'de-DE'), '-1.234.567,5 EUR');
+  assert.equal(numericSummary([0.5], [1.5e21], 'number', '', 'en-GB'), '1,500,000,000,000,000,000,000');
   // Dates in the user's own format: day/month/year in a UK locale, month first in a US one.
   assert.equal(numericSummary([0.1, 0.5, 0.9], [20513, 20543, 20574], 'date', '', 'en-GB'), '31 Mar 2026 (1 Mar 2026 – 1 May 2026)');
   assert.equal(numericSummary([0.5], [20543], 'date', '', 'en-US'), 'Mar 31, 2026');

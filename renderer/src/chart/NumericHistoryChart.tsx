@@ -8,6 +8,7 @@
  */
 import { useMemo } from 'react';
 import { Chart, Filler, LinearScale, LineController, LineElement, PointElement, Tooltip, type ChartDataset, type TooltipItem } from 'chart.js';
+import { formatDecimal } from '../dates';
 import { levelName, formatValue } from '../forecastEntry/numericEntry';
 import { cssColor, withAlpha } from './colors';
 import { historyOptions, HistoryFigure, timeScale, useHistoryChart } from './historyChartKit';
@@ -124,7 +125,7 @@ export function NumericHistoryChart({ input, timeZone }: { input: NumericHistory
             color: colors.text,
             // A date axis ticks on whole days.
             ...(date ? { precision: 0 } : {}),
-            callback: (value) => (date ? formatValue(Math.round(Number(value)), 'date', '') : String(Number(Number(value).toPrecision(6)))),
+            callback: (value) => (date ? formatValue(Math.round(Number(value)), 'date', '') : formatDecimal(Number(value), 6)),
           },
           grid: { color: colors.grid },
           border: { color: colors.grid },

@@ -8,7 +8,7 @@
 import type { ValueKind } from '../../../shared/domain';
 import { levelName } from '../../../shared/forecast-text';
 import { dateToDays } from '../../../shared/numeric-value';
-import { formatDay } from '../dates';
+import { formatDay, formatDecimal } from '../dates';
 import { quantilesProblem } from '../../../shared/quantile-levels';
 import type { Parsed } from '../percent';
 
@@ -33,12 +33,12 @@ export function levelsHint(levels: readonly number[], unit: string): string {
   return `${levelName(low)}: only a ${Math.round(low * 100)}% chance the outcome is lower; ${levelName(high)}: only a ${Math.round((1 - high) * 100)}% chance it is higher. Together ${article} ${width}% range${inUnit}.`;
 }
 
-/** A value as the boxes and readings show it: "13.5 weeks", "2026-03-31". */
+/** A value as readings show it (the boxes hold it unformatted): "13.5 weeks", "1,500 £k", a date in the user's format. */
 export function formatValue(value: number, kind: ValueKind, unit: string, locale?: string): string {
   // A date value is a calendar day (days since 1970-01-01), shown in the user's own date
   // format like every other date; read as UTC so the day never shifts with a time zone.
   if (kind === 'date') return formatDay(value * 86_400_000, 'UTC', {}, locale);
-  const text = String(Number(value.toPrecision(12)));
+  const text = formatDecimal(value, 12, locale);
   return unit ? `${text} ${unit}` : text;
 }
 
