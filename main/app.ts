@@ -173,7 +173,7 @@ export async function startShell(deps: ShellDeps): Promise<boolean> {
     const dbPath = dbPathFromArgs(deps.argv, deps.cwd) ?? path.join(app.getPath('userData'), DIARY_FILE_NAME);
     // From a checkout, `npm start` builds SQLite for Electron beside the Node build (scripts/electron-native.mjs);
     // a packaged app has it rebuilt in place by electron-builder.
-    diary = deps.openDiary({ dbPath, nativeBinding: fs.existsSync(locations.nativeSqlite) ? locations.nativeSqlite : undefined });
+    diary = deps.openDiary({ dbPath, nativeBinding: fs.existsSync(locations.nativeSqlite) ? locations.nativeSqlite : undefined, warmScores: true });
   } catch (error) {
     dialog.showErrorBox(
       'Forelog could not open its diary',

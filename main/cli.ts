@@ -267,7 +267,7 @@ async function serve(dbPath: string, portText: string | undefined): Promise<void
   const port = portText === undefined ? 0 : Number(portText);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
   const dir = await rendererDir();
-  const service = openDiary({ dbPath, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });
+  const service = openDiary({ dbPath, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath), warmScores: true });
   noteCreated(service.store.created, service.location);
   let server;
   try {

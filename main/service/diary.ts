@@ -81,7 +81,7 @@ import { exportBatches, exportedQuestionReader } from './export-batches';
 import { orderedId } from './ordered-ids';
 import { countDueAt, dueAt, snoozeUntil, unresolvedQuestions } from './nudges';
 import { briefingTitle, renderBriefing } from './briefing';
-import { loadScoringInput, type ScoringInput } from './scoring-source';
+import { dataVersion, loadScoringInput, startStepwiseRead, type ScoringInput, type StepwiseRead } from './scoring-source';
 
 export interface DiaryContext {
   store: StoreHandles;
@@ -644,12 +644,58 @@ export function createDiary(ctx: DiaryContext) {
   // read handle moves whenever any other connection (our write handle, or another process)
   // commits. A filter change on the Scorecard then costs the engine's time alone.
   let scoringCache: { version: number; input: ScoringInput } | null = null;
+  // A read of that input in steps, between requests (warmScoringInput), when one is under way;
+  // and the diary state at which reading ahead last failed, not to be tried again.
+  let stepwise: StepwiseRead | null = null;
+  let warmingFailedAt: number | null = null;
 
   /** Every question as the engine sees it, by type, re-read only when the diary changed. */
   function typedScoringInput(): ScoringInput {
-    const version = read.pragma('data_version', { simple: true }) as number;
-    if (scoringCache?.version !== version) scoringCache = { version, input: loadScoringInput(read) };
-    return scoringCache.input;
+    const version = dataVersion(read);
+    if (scoringCache?.version === version) return scoringCache.input;
+    // A read begun in the background for this same state is finished now rather than begun again.
+    if (stepwise?.version === version) {
+      while (!stepwise.step());
+      const { input } = stepwise;
+      stepwise = null;
+      if (input !== null) return (scoringCache = { version, input }).input;
+    }
+    stepwise = null;
+    return (scoringCache = { version, input: loadScoringInput(read) }).input;
+  }
+
+  /**
+   * One step of reading the scoring input ahead of need (a long-running app calls this while
+   * idle): the first visit to the Scorecard or Hindsight then finds it read, and scored with
+   * no filter. True when all of that is up to date and nothing is left to do.
+   */
+  function warmScoringInput(): boolean {
+    const version = dataVersion(read);
+    if (warmingFailedAt === version) return true;
+    try {
+      return warmStep(version);
+    } catch (err) {
+      // The request that needs the input will meet the same failure and say what it is;
+      // until the diary changes, reading ahead would only fail again.
+      warmingFailedAt = version;
+      throw err;
+    }
+  }
+
+  function warmStep(version: number): boolean {
+    if (scoringCache?.version === version) {
+      // Last, the scored set that both screens start from (no filter), in one step of its own.
+      const key = `set|${filterKey({})}`;
+      if (figures?.version === version && figures.byKey.has(key)) return true;
+      scoredSet({});
+      return false;
+    }
+    if (stepwise?.version !== version) stepwise = startStepwiseRead(read);
+    if (!stepwise.step()) return false;
+    const { input } = stepwise;
+    stepwise = null;
+    if (input !== null) scoringCache = { version, input };
+    return false; // the caller looks again: either the input is now current, or the diary moved on
   }
 
   /** The yes/no questions as the engine sees them; "what if" costs replace each question's own. */
@@ -1219,6 +1265,7 @@ export function createDiary(ctx: DiaryContext) {
     importText,
     importFile,
     scoreReport: scoreJson,
+    warmScoringInput,
   };
 }
 

@@ -26,6 +26,47 @@ export interface OpenOptions {
   busyTimeoutMs?: number;
   /** Told before an existing diary is brought up to this version's format (see openStore). */
   onMigrating?: (from: number, to: number) => void;
+  /**
+   * Read the scoring input ahead of need while idle (long-running apps: the desktop app and
+   * `forelog serve`), so the Scorecard and Hindsight open without reading a large diary first.
+   */
+  warmScores?: boolean;
+}
+
+/** How often a long-running app looks whether the scoring input must be read again, in ms. */
+const WARM_CHECK_MS = 2_000;
+
+/**
+ * Reads the scoring input in steps of a few thousand questions, one step per turn of the
+ * event loop, whenever the diary has changed since it was last read; requests are served
+ * between the steps. Returns the function that stops it.
+ */
+function warmScoresWhileIdle(diary: Diary, onError: (err: unknown) => void): () => void {
+  let running = false;
+  let stopped = false;
+  const step = () => {
+    if (stopped) return;
+    let current: boolean;
+    try {
+      current = diary.warmScoringInput();
+    } catch (err) {
+      // A busy or failing file: the request that needs the input will say so; try again later.
+      onError(err);
+      current = true;
+    }
+    if (current) running = false;
+    else setImmediate(step);
+  };
+  const timer = setInterval(() => {
+    if (running || stopped) return;
+    running = true;
+    step();
+  }, WARM_CHECK_MS);
+  timer.unref();
+  return () => {
+    stopped = true;
+    clearInterval(timer);
+  };
 }
 
 export interface DiaryService {
@@ -57,6 +98,7 @@ export function openDiary(options: OpenOptions): DiaryService {
   });
   const diary = createDiary({ store, now, systemTimeZone: options.timeZone ?? systemTimeZone(), demo: buildDemoDiary });
   const dispatch = createDispatch(diary.handlers, options.onInternalError ?? (() => {}), store.path);
+  const stopWarming = options.warmScores ? warmScoresWhileIdle(diary, options.onInternalError ?? (() => {})) : () => {};
   return {
     dispatch,
     diary,
@@ -68,6 +110,9 @@ export function openDiary(options: OpenOptions): DiaryService {
     createScheduler: (notifier, onDueCountChanged) => createDiaryScheduler(store, now, diary.settings, notifier, onDueCountChanged),
     backupTo: (file, onProgress) => backupTo(store, file, onProgress),
     rollingBackup: (dir) => rollingBackup(store, dir, now()),
-    close: () => store.close(),
+    close: () => {
+      stopWarming();
+      store.close();
+    },
   };
 }

@@ -25,8 +25,9 @@ interface RevisionRows {
 
 /** Where the collecting function writes during one read; null between reads. */
 interface Collector {
-  /** Question rowid → its index in the answer. */
+  /** Question rowid − `base` → its index in the answer. */
   slotOfRowid: Int32Array;
+  base: number;
   rows: RevisionRows;
 }
 
@@ -58,7 +59,7 @@ function collectorFor(db: Db): { current: Collector | null } {
     const { rows } = c;
     if (rows.n === rows.at.length) grow(rows);
     const i = rows.n++;
-    rows.slot[i] = c.slotOfRowid[questionRowid as number]!;
+    rows.slot[i] = c.slotOfRowid[(questionRowid as number) - c.base]!;
     rows.at[i] = at as number;
     rows.p[i] = p as number;
     rows.seq[i] = seq as number;
@@ -69,20 +70,23 @@ function collectorFor(db: Db): { current: Collector | null } {
 }
 
 /**
- * Every revision of the diary, question by question (the engine orders each question's own
- * by time, then seq). The question is named by its rowid, so no text crosses per revision.
+ * Every revision of the yes/no questions whose rowids lie in `range`, question by question
+ * (the engine orders each question's own by time, then seq). The question is named by its
+ * rowid, so no text crosses per revision. `capacity` is a first guess at the row count.
  */
-function readRevisions(db: Db, slotOfRowid: Int32Array): RevisionRows {
+function readRevisions(db: Db, range: RowidRange, slotOfRowid: Int32Array, capacity: number): RevisionRows {
   const holder = collectorFor(db);
-  // seq only grows (AUTOINCREMENT), so the largest is a bound on the row count found in one step.
-  const rows = emptyRows(((db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null) ?? 0) + 1);
-  holder.current = { slotOfRowid, rows };
+  const rows = emptyRows(capacity);
+  holder.current = { slotOfRowid, base: range.from, rows };
   try {
     // Question by question (CROSS JOIN keeps questions the outer loop), each one's revisions
     // from the (question_id, at, seq, p) index alone: no lookup per revision.
-    db.prepare(`SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id WHERE q.type = 'binary'`)
+    db.prepare(
+      `SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id
+       WHERE q.type = 'binary' AND q.rowid BETWEEN ? AND ?`,
+    )
       .pluck()
-      .get();
+      .get(range.from, range.to);
   } finally {
     holder.current = null;
   }
@@ -193,13 +197,24 @@ type QuestionRow = [
   tags: string | null,
 ];
 
+/** Question rowids from `from` to `to`, both included. */
+interface RowidRange {
+  from: number;
+  to: number;
+}
+
+const EVERY_ROWID: RowidRange = { from: Number.MIN_SAFE_INTEGER, to: Number.MAX_SAFE_INTEGER };
+
 /**
  * The diary's yes/no questions as the engine's questions, from one consistent snapshot of
- * the file. Tags come in the question's order; references in time order, because the
- * engine lets the later of two same-time references stand.
+ * the file, in export order. Tags come in the question's order; references in time order,
+ * because the engine lets the later of two same-time references stand.
  */
 export function loadScoringQuestions(db: Db): ScoringQuestion[] {
-  return readSnapshot(db, () => readBinary(db));
+  return readSnapshot(db, () => {
+    const part = readBinaryRange(db, EVERY_ROWID, revisionBound(db));
+    return finishBinary(db, [part]);
+  });
 }
 
 /** Every question of the diary as the engine reads it, by type, from one snapshot. */
@@ -210,7 +225,72 @@ export interface ScoringInput {
 }
 
 export function loadScoringInput(db: Db): ScoringInput {
-  return readSnapshot(db, () => ({ binary: readBinary(db), ...readTyped(db) }));
+  return readSnapshot(db, () => ({ binary: finishBinary(db, [readBinaryRange(db, EVERY_ROWID, revisionBound(db))]), ...readTyped(db) }));
+}
+
+/** seq only grows (AUTOINCREMENT), so the largest is a bound on the revision count, found in one step. */
+function revisionBound(db: Db): number {
+  return ((db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null) ?? 0) + 1;
+}
+
+/** The yes/no questions per background step (about 50 ms each at 20 revisions per question here). */
+export const QUESTIONS_PER_STEP = 2_000;
+
+/**
+ * The scoring input read a few thousand questions at a time, each step in its own snapshot,
+ * so a long-running app can read a large diary between requests instead of making one wait
+ * seconds for it. The steps together stand for one state of the diary only if no commit
+ * came between them: SQLite's data_version on the read handle moves on any other
+ * connection's commit, so when it still reads as it did before the first step, every step
+ * saw the same file. Otherwise `input` is null and the caller reads again.
+ */
+export interface StepwiseRead {
+  /** The read handle's data_version when the read began: the diary state it reads. */
+  readonly version: number;
+  /** Reads one more part; true once the read is over (`input` then holds the answer, or null). */
+  step(): boolean;
+  input: ScoringInput | null;
+}
+
+export function startStepwiseRead(db: Db, questionsPerStep = QUESTIONS_PER_STEP): StepwiseRead {
+  const version = dataVersion(db);
+  const last = (db.prepare('SELECT max(rowid) FROM questions').pluck().get() as number | null) ?? 0;
+  const parts: BinaryPart[] = [];
+  let binary: ScoringQuestion[] | null = null;
+  let next = (db.prepare('SELECT min(rowid) FROM questions').pluck().get() as number | null) ?? 1;
+  let done = false;
+  const read: StepwiseRead = {
+    version,
+    input: null,
+    step() {
+      if (done) return true;
+      if (dataVersion(db) !== version) {
+        done = true;
+        return true;
+      }
+      if (next <= last) {
+        const range = { from: next, to: Math.min(last, next + questionsPerStep - 1) };
+        next = range.to + 1;
+        parts.push(readSnapshot(db, () => readBinaryRange(db, range, 20 * questionsPerStep)));
+        return false;
+      }
+      // Then two last steps: the references, and the other types, each whole (a small part of a diary).
+      if (binary === null) {
+        binary = readSnapshot(db, () => finishBinary(db, parts));
+        return false;
+      }
+      const typed = readSnapshot(db, () => readTyped(db));
+      if (dataVersion(db) === version) read.input = { binary, ...typed };
+      done = true;
+      return true;
+    },
+  };
+  return read;
+}
+
+/** The read handle's data_version (see StepwiseRead). */
+export function dataVersion(db: Db): number {
+  return db.pragma('data_version', { simple: true }) as number;
 }
 
 /** A choice or numeric revision as read: its values in order (probabilities; quantiles). */
@@ -292,7 +372,7 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
     )
     .raw()
     .all() as Row[];
-  inExportOrder(rows);
+  inExportOrder(rows, (row) => row[4], (row) => row[1]);
   const choice: ScoringChoiceQuestion[] = [];
   const numeric: ScoringNumericQuestion[] = [];
   if (rows.length === 0) return { choice, numeric };
@@ -360,9 +440,8 @@ function tagList(joined: string | null): string[] {
  * each row at a scattered place, which at 100,000 questions took longer than the reading.
  * Ids compare as SQLite's BINARY collation does (UTF-8 bytes, which order as code points).
  */
-function inExportOrder(rows: [number, string, ...unknown[]][]): void {
-  const closes = (row: (typeof rows)[number]) => row[4] as number;
-  rows.sort((a, b) => closes(a) - closes(b) || compareCodePoints(a[1], b[1]));
+function inExportOrder<T>(items: T[], closes: (item: T) => number, id: (item: T) => string): T[] {
+  return items.sort((a, b) => closes(a) - closes(b) || compareCodePoints(id(a), id(b)));
 }
 
 /** Orders two strings by code point, as UTF-8 bytes order (JavaScript's < orders UTF-16 units). */
@@ -378,22 +457,35 @@ function compareCodePoints(a: string, b: string): number {
   return a.length - b.length;
 }
 
-function readBinary(db: Db): ScoringQuestion[] {
+/** Some of the yes/no questions, with each one's rowid at the same index (for references). */
+interface BinaryPart {
+  questions: StoredQuestion[];
+  rowids: number[];
+}
+
+/** The yes/no questions whose rowids lie in `range`, with their revisions, in export order. */
+function readBinaryRange(db: Db, range: RowidRange, revisionCapacity: number): BinaryPart {
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.kind, q.closes_at, q.base_rate, q.false_alarm_cost, q.miss_cost, r.outcome, r.at,
          ${TAGS_OF_Q}
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary'`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type = 'binary' AND q.rowid BETWEEN ? AND ?`,
     )
     .raw()
-    .all() as QuestionRow[];
-  inExportOrder(rows);
-  let maxRowid = 0;
-  for (const row of rows) maxRowid = Math.max(maxRowid, row[0]);
-  const slotOfRowid = new Int32Array(maxRowid + 1);
-  rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
-  const columns = columnsByQuestion(readRevisions(db, slotOfRowid), rows.length);
-  const questions: ScoringQuestion[] = rows.map(
+    .all(range.from, range.to) as QuestionRow[];
+  if (rows.length === 0) return { questions: [], rowids: [] };
+  // Each part in export order already, so putting the parts together is a merge of sorted runs.
+  inExportOrder(rows, (row) => row[4], (row) => row[1]);
+  let low = rows[0]![0];
+  let high = low;
+  for (const row of rows) {
+    low = Math.min(low, row[0]);
+    high = Math.max(high, row[0]);
+  }
+  const slotOfRowid = new Int32Array(high - low + 1);
+  rows.forEach((row, i) => (slotOfRowid[row[0] - low] = i));
+  const columns = columnsByQuestion(readRevisions(db, { from: low, to: high }, slotOfRowid, revisionCapacity), rows.length);
+  const questions = rows.map(
     ([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt, tags], i) =>
       new StoredQuestion(
         id,
@@ -407,18 +499,28 @@ function readBinary(db: Db): ScoringQuestion[] {
         columns[i],
       ),
   );
+  return { questions, rowids: rows.map((row) => row[0]) };
+}
 
-  // References name their question by its rowid (found in the id index SQLite walks
-  // anyway), so no id text is made per row; the slot map is then an array lookup.
-  // Typed questions' rows are skipped: their rowids are not marked.
-  const isBinary = new Uint8Array(maxRowid + 1);
-  for (const row of rows) isBinary[row[0]] = 1;
+/**
+ * The parts as one list in export order (a merge: Array.prototype.sort finds each part's
+ * sorted run), with their references. References name their
+ * question by its rowid (found in the id index SQLite walks anyway), so no id text is made
+ * per row; typed questions' rows are skipped, as no part holds their rowids.
+ */
+function finishBinary(db: Db, parts: readonly BinaryPart[]): ScoringQuestion[] {
+  const byRowid = new Map<number, StoredQuestion>();
+  const questions: StoredQuestion[] = [];
+  for (const part of parts) {
+    part.questions.forEach((q, i) => {
+      byRowid.set(part.rowids[i]!, q);
+      questions.push(q);
+    });
+  }
   const references = db
     .prepare('SELECT q.rowid, r.at, r.p FROM reference_forecasts r JOIN questions q ON q.id = r.question_id ORDER BY r.question_id, r.at, r.seq')
     .raw()
     .all() as [number, number, number][];
-  for (const [rowid, at, p] of references) {
-    if (rowid <= maxRowid && isBinary[rowid] === 1) questions[slotOfRowid[rowid]!]!.references.push({ at, p });
-  }
-  return questions;
+  for (const [rowid, at, p] of references) byRowid.get(rowid)?.references.push({ at, p });
+  return inExportOrder(questions, (q) => q.closes_at, (q) => q.id);
 }

@@ -39,4 +39,5 @@ export interface DiaryService {
   location: string;
 }
 
-export type OpenDiary = (options: { dbPath: string; now?: () => number; nativeBinding?: string }) => DiaryService;
+/** `warmScores`: read the scoring input ahead of need while idle (see main/service/index.ts). */
+export type OpenDiary = (options: { dbPath: string; now?: () => number; nativeBinding?: string; warmScores?: boolean }) => DiaryService;

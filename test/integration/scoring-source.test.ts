@@ -6,7 +6,12 @@
  */
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { loadScoringInput, loadScoringQuestions } from '../../main/service/scoring-source';
+import { callOrThrow } from '../../main/service/dispatch';
+import { openDiary } from '../../main/service/index';
+import type { OperationName } from '../../shared/contract';
+import { loadScoringInput, loadScoringQuestions, startStepwiseRead, type ScoringInput } from '../../main/service/scoring-source';
+import { buildMixedDiaryFile } from '../bench/make-diary';
+import { randomDiaryFile } from '../support/random-diary';
 import { computeScoreReport, computeScorecardDetail, type ScoringQuestion } from '../../shared/scoring';
 import { openTestDiary } from '../support/temp-diary';
 
@@ -277,4 +282,73 @@ test('questions closing at the same instant reach the engine in export order, id
   assert.deepEqual(input.binary.map((q) => q.id), exportOrder.filter((id) => !id.startsWith('c')));
   assert.deepEqual(input.choice.map((q) => q.id), exportOrder.filter((id) => id.startsWith('c')));
   assert.ok(input.binary.findIndex((q) => q.id === 'a\uFFFD') < input.binary.findIndex((q) => q.id === 'a\u{1F600}'), 'U+FFFD before U+1F600');
+});
+
+/** The input as plain data: each question's fields with its revisions as a list (not the shared columns). */
+function plain(input: ScoringInput): unknown {
+  const strip = (q: object) => ({ ...q, forecast_columns: undefined });
+  return { binary: input.binary.map(strip), choice: input.choice, numeric: input.numeric };
+}
+
+/** A diary of every shape the reader handles, with question rowids spread by deletions. */
+async function variedDiary() {
+  const d = openTestDiary({ now: '2026-06-01T12:00:00Z' });
+  await d.call('importDiary', { diary: randomDiaryFile(120, 7) as never });
+  const mixed = buildMixedDiaryFile(30);
+  await d.call('importDiary', { diary: mixed as never });
+  const listed = await d.call('listQuestions', { limit: 200 });
+  for (const q of listed.questions.slice(0, 40).filter((_: unknown, i: number) => i % 3 === 0)) await d.call('deleteQuestion', { id: q.id });
+  return d;
+}
+
+test('read in steps of a few questions, the scoring input is the one read in one go, in the same order', async () => {
+  const d = await variedDiary();
+  const whole = loadScoringInput(d.service.store.read);
+  assert.ok(whole.binary.length > 100 && whole.choice.length > 0 && whole.numeric.length > 0);
+  for (const per of [1, 7, 1000]) {
+    const read = startStepwiseRead(d.service.store.read, per);
+    let steps = 0;
+    while (!read.step()) steps++;
+    assert.ok(read.input !== null, `steps of ${per}`);
+    assert.ok(per > 100 || steps > 10, `steps of ${per} took ${steps} steps`);
+    assert.deepEqual(plain(read.input!), plain(whole), `steps of ${per}`);
+    // Scored the same, bit for bit (SCORING.md: the same input gives the same figures).
+    const options = { default_costs: { false_alarm: 1, miss: 3 } };
+    assert.deepEqual(computeScoreReport(read.input!.binary, options), computeScoreReport(whole.binary, options));
+  }
+});
+
+test('a read in steps that a commit interrupts gives nothing, and the service then reads the diary as it is', async () => {
+  const d = await variedDiary();
+  const read = startStepwiseRead(d.service.store.read, 5);
+  assert.equal(read.step(), false);
+  const q = await d.call('createQuestion', { ...base, title: 'Added between two steps', first_forecast: { p: 0.9, at: '2026-01-10T09:00:00Z' } });
+  while (!read.step());
+  assert.equal(read.input, null, 'the steps no longer stand for one state of the diary');
+
+  // Through the service: a warm-up begun, a write, then the Scorecard sees the write.
+  assert.equal(d.service.diary.warmScoringInput(), false);
+  await d.call('resolveQuestion', { id: q.id, outcome: 'yes', at: '2026-03-31T17:00:00Z' });
+  assert.deepEqual(await d.call('score', {}), await coldCall(d, 'score', {}));
+});
+
+/** What a newly opened service (nothing read ahead, nothing kept) answers on the same diary file. */
+async function coldCall(d: ReturnType<typeof openTestDiary>, op: OperationName, request: object): Promise<unknown> {
+  const fresh = openDiary({ dbPath: d.dbPath, now: () => d.clock.now, timeZone: 'UTC' });
+  try {
+    return await callOrThrow(fresh.dispatch, op, request);
+  } finally {
+    fresh.close();
+  }
+}
+
+test('warming up ahead of need reads the input in steps until it is current, and the figures are those of a cold read', async () => {
+  const d = await variedDiary();
+  let calls = 0;
+  while (!d.service.diary.warmScoringInput()) calls++;
+  assert.ok(calls >= 1);
+  assert.equal(d.service.diary.warmScoringInput(), true, 'nothing left to do while the diary stays as it is');
+  for (const [op, request] of [['score', {}], ['hindsight', { include_hits: true }], ['score', { tag: 'pricing' }]] as const) {
+    assert.deepEqual(await d.call(op, request as never), await coldCall(d, op, request), op);
+  }
 });
