@@ -8,7 +8,8 @@
  *   - `score --json` against a yardstick: test/bench/score_peer.py, the same core figures
  *     (Brier, log score, calibration bins) computed with numpy from the exported file by
  *     Debian's /usr/bin/python3, timed as a whole process in the same run; it must agree;
- *   - reading the diary for scoring and the engine's own compute, in process;
+ *   - reading the diary for scoring and the engine's own compute, in process, and the
+ *     reading ahead a running app does while idle (total, steps, longest step);
  *   - `due`, `dueCount` and a page of `listQuestions` per call to a running `forelog serve`;
  *   - in browser mode (`forelog serve` in Chromium): time from the in-app navigation until
  *     Questions, the Desk, Hindsight and the Scorecard show their content, one search
@@ -268,6 +269,7 @@ async function measure(questions: number, rows: Map<string, Row>): Promise<void>
     }
     put('reading the diary for scoring (in process)', ms(median(reading)));
     put('scoring engine (in process)', ms(median(engine)));
+    readingAhead(dbPath, put);
 
     say('due');
     const due = repeat(times, () => forelog('due', '--json', '--db', dbPath));
@@ -298,8 +300,34 @@ async function measureScreens(dbPath: string, rows: Map<string, Row>): Promise<n
     if (!rows.has(label)) rows.set(label, new Map());
     rows.get(label)!.set(size, value);
   };
+  readingAhead(dbPath, put);
   await browserFigures(dbPath, 1, 300_000, put);
   return size;
+}
+
+/**
+ * What the app and `forelog serve` do while idle after opening a diary or after a change
+ * (main/service/index.ts): read the scoring input in steps and score it with no filter.
+ * The total says how soon a first Scorecard or Hindsight visit finds it done; the longest
+ * step is the most a request can wait behind it.
+ */
+function readingAhead(dbPath: string, put: (label: string, value: string) => void): void {
+  const service = openDiary({ dbPath });
+  try {
+    const t0 = performance.now();
+    let steps = 0;
+    let longest = 0;
+    for (;;) {
+      const s0 = performance.now();
+      const done = service.diary.warmScoringInput();
+      longest = Math.max(longest, performance.now() - s0);
+      if (done) break;
+      steps++;
+    }
+    put('reading ahead while idle (in process)', `${ms(performance.now() - t0)} in ${steps} steps, longest ${ms(longest)}`);
+  } finally {
+    service.close();
+  }
 }
 
 /** The mixed diary's size: the engine must stay within 150 ms on it (issue 9). */
