@@ -25,10 +25,32 @@ interface RevisionRows {
 
 /** Where the collecting function writes during one read; null between reads. */
 interface Collector {
-  /** Question rowid − `base` → its index in the answer. */
-  slotOfRowid: Int32Array;
-  base: number;
+  slotOf: SlotOf;
   rows: RevisionRows;
+}
+
+/** A question's rowid → its index in the answer being read. */
+type SlotOf = (rowid: number) => number;
+
+/**
+ * The lookup from rowid to index for questions read in this order: an array indexed by
+ * rowid where the rowids lie close together (as SQLite assigns them), a map where they do
+ * not (a rowid can be any 64-bit integer, and an array that long cannot be made).
+ */
+function slotLookup(rowids: readonly number[]): SlotOf {
+  let low = Infinity;
+  let high = -Infinity;
+  for (const r of rowids) {
+    low = Math.min(low, r);
+    high = Math.max(high, r);
+  }
+  if (high - low < 4 * rowids.length + 1024) {
+    const slots = new Int32Array(high - low + 1);
+    rowids.forEach((r, i) => (slots[r - low] = i));
+    return (rowid) => slots[rowid - low]!;
+  }
+  const slots = new Map(rowids.map((r, i) => [r, i]));
+  return (rowid) => slots.get(rowid)!;
 }
 
 const COLLECT_FN = 'forelog_collect_revision';
@@ -59,7 +81,7 @@ function collectorFor(db: Db): { current: Collector | null } {
     const { rows } = c;
     if (rows.n === rows.at.length) grow(rows);
     const i = rows.n++;
-    rows.slot[i] = c.slotOfRowid[(questionRowid as number) - c.base]!;
+    rows.slot[i] = c.slotOf(questionRowid as number);
     rows.at[i] = at as number;
     rows.p[i] = p as number;
     rows.seq[i] = seq as number;
@@ -74,10 +96,10 @@ function collectorFor(db: Db): { current: Collector | null } {
  * (the engine orders each question's own by time, then seq). The question is named by its
  * rowid, so no text crosses per revision. `capacity` is a first guess at the row count.
  */
-function readRevisions(db: Db, range: RowidRange, slotOfRowid: Int32Array, capacity: number): RevisionRows {
+function readRevisions(db: Db, range: RowidRange, slotOf: SlotOf, capacity: number): RevisionRows {
   const holder = collectorFor(db);
   const rows = emptyRows(capacity);
-  holder.current = { slotOfRowid, base: range.from, rows };
+  holder.current = { slotOf, rows };
   try {
     // Question by question (CROSS JOIN keeps questions the outer loop), each one's revisions
     // from the (question_id, at, seq, p) index alone: no lookup per revision.
@@ -269,9 +291,15 @@ export function startStepwiseRead(db: Db, questionsPerStep = QUESTIONS_PER_STEP)
         return true;
       }
       if (next <= last) {
-        const range = { from: next, to: Math.min(last, next + questionsPerStep - 1) };
-        next = range.to + 1;
-        parts.push(readSnapshot(db, () => readBinaryRange(db, range, 20 * questionsPerStep)));
+        parts.push(
+          readSnapshot(db, () => {
+            // The step ends at its questionsPerStep-th question, however sparse the rowids are.
+            const to = (db.prepare('SELECT rowid FROM questions WHERE rowid >= ? ORDER BY rowid LIMIT 1 OFFSET ?').pluck().get(next, questionsPerStep - 1) as number | undefined) ?? last;
+            const range = { from: next, to };
+            next = to + 1;
+            return readBinaryRange(db, range, 20 * questionsPerStep);
+          }),
+        );
         return false;
       }
       // Then two last steps: the references, and the other types, each whole (a small part of a diary).
@@ -304,7 +332,7 @@ const COLLECT_VALUE_FN = 'forelog_collect_value';
 /** Where the value-collecting function sends each row during one read; `current` is null between reads. */
 interface ValueCollector {
   current: ((slot: number, seq: number, at: number, value: number) => void) | null;
-  slotOfRowid: Int32Array;
+  slotOf: SlotOf;
 }
 const valueCollectors = new WeakMap<Db, ValueCollector>();
 
@@ -313,20 +341,20 @@ const valueCollectors = new WeakMap<Db, ValueCollector>();
  * collecting SQL function (see the module comment): a million stored values would cost
  * seconds as row arrays, and only each revision's own list is built here.
  */
-function readTypedRevisions(db: Db, slotOfRowid: Int32Array, questionCount: number): TypedRevision[][] {
+function readTypedRevisions(db: Db, slotOf: SlotOf, questionCount: number): TypedRevision[][] {
   let holder = valueCollectors.get(db);
   if (!holder) {
-    const made: ValueCollector = { current: null, slotOfRowid: new Int32Array(0) };
+    const made: ValueCollector = { current: null, slotOf: () => -1 };
     db.function(COLLECT_VALUE_FN, { directOnly: true }, (questionRowid: unknown, seq: unknown, at: unknown, value: unknown) => {
       if (made.current === null) throw new Error(`${COLLECT_VALUE_FN} belongs to the scoring reader and cannot be called on its own`);
-      made.current(made.slotOfRowid[questionRowid as number]!, seq as number, at as number, value as number);
+      made.current(made.slotOf(questionRowid as number), seq as number, at as number, value as number);
       return null;
     });
     valueCollectors.set(db, made);
     holder = made;
   }
   const bySlot: TypedRevision[][] = Array.from({ length: questionCount }, () => []);
-  holder.slotOfRowid = slotOfRowid;
+  holder.slotOf = slotOf;
   holder.current = (slot, seq, at, value) => {
     const list = bySlot[slot]!;
     const last = list[list.length - 1];
@@ -345,7 +373,7 @@ function readTypedRevisions(db: Db, slotOfRowid: Int32Array, questionCount: numb
       .get();
   } finally {
     holder.current = null;
-    holder.slotOfRowid = new Int32Array(0);
+    holder.slotOf = () => -1;
   }
   // In entry order, as the rest of the service lists revisions (the engine orders by time itself).
   for (const list of bySlot) {
@@ -389,11 +417,7 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   for (const [qid, level] of db.prepare('SELECT question_id, level FROM question_levels ORDER BY question_id, position').raw().all() as [string, number][]) {
     push(levels, qid, level);
   }
-  let maxRowid = 0;
-  for (const row of rows) maxRowid = Math.max(maxRowid, row[0]);
-  const slotOfRowid = new Int32Array(maxRowid + 1);
-  rows.forEach((row, i) => (slotOfRowid[row[0]] = i));
-  const revisionsBySlot = readTypedRevisions(db, slotOfRowid, rows.length);
+  const revisionsBySlot = readTypedRevisions(db, slotLookup(rows.map((row) => row[0])), rows.length);
   rows.forEach(([, id, title, type, closes, ordered, unit, kind, outcome, at, option, value, tags], slot) => {
     const base = { id, title, tags: tagList(tags), closes_at: closes };
     const revisions = revisionsBySlot[slot]!;
@@ -476,15 +500,8 @@ function readBinaryRange(db: Db, range: RowidRange, revisionCapacity: number): B
   if (rows.length === 0) return { questions: [], rowids: [] };
   // Each part in export order already, so putting the parts together is a merge of sorted runs.
   inExportOrder(rows, (row) => row[4], (row) => row[1]);
-  let low = rows[0]![0];
-  let high = low;
-  for (const row of rows) {
-    low = Math.min(low, row[0]);
-    high = Math.max(high, row[0]);
-  }
-  const slotOfRowid = new Int32Array(high - low + 1);
-  rows.forEach((row, i) => (slotOfRowid[row[0] - low] = i));
-  const columns = columnsByQuestion(readRevisions(db, { from: low, to: high }, slotOfRowid, revisionCapacity), rows.length);
+  const rowids = rows.map((row) => row[0]);
+  const columns = columnsByQuestion(readRevisions(db, range, slotLookup(rowids), revisionCapacity), rows.length);
   const questions = rows.map(
     ([, id, title, kind, closes, baseRate, fa, miss, outcome, resolvedAt, tags], i) =>
       new StoredQuestion(
@@ -499,7 +516,7 @@ function readBinaryRange(db: Db, range: RowidRange, revisionCapacity: number): B
         columns[i],
       ),
   );
-  return { questions, rowids: rows.map((row) => row[0]) };
+  return { questions, rowids };
 }
 
 /**

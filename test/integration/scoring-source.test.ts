@@ -352,3 +352,17 @@ test('warming up ahead of need reads the input in steps until it is current, and
     assert.deepEqual(await d.call(op, request as never), await coldCall(d, op, request), op);
   }
 });
+
+test('a read in steps takes as many steps as the questions need, however far apart their rowids lie', async () => {
+  const d = await variedDiary();
+  const write = d.service.store.write;
+  const [far] = write.prepare("SELECT id FROM questions WHERE type = 'binary' LIMIT 1").pluck().all() as string[];
+  write.prepare('UPDATE questions SET rowid = 9000000000000000 WHERE id = ?').run(far);
+  const whole = loadScoringInput(d.service.store.read);
+  const read = startStepwiseRead(d.service.store.read, 50);
+  let steps = 0;
+  while (!read.step()) steps++;
+  const questions = whole.binary.length + whole.choice.length + whole.numeric.length;
+  assert.ok(steps <= Math.ceil(questions / 50) + 2, `${steps} steps for ${questions} questions`);
+  assert.deepEqual(plain(read.input!), plain(whole));
+});
