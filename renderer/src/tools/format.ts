@@ -21,8 +21,8 @@ export function formatRange(low: number, high: number): string {
 }
 
 /** "1 day", "3 days". */
-export function plural(n: number, one: string, many = `${one}s`): string {
-  return `${formatCount(n)} ${n === 1 ? one : many}`;
+export function plural(n: number, one: string, many = `${one}s`, locale?: string): string {
+  return `${formatCount(n, locale)} ${n === 1 ? one : many}`;
 }
 
 /** e.g. "3 Jun 2025": the calendar day of an instant on `timeZone`'s clocks (dates.ts). */

@@ -23,7 +23,8 @@ import { EntryCard } from './EntryCard';
 import { HindsightFilters } from './HindsightFilters';
 import { TypedEntrySections } from './TypedEntryCards';
 import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, decodeSelection, encodeSelection, type HindsightSelection } from './selection';
-import { confidentMeaning, plural, wholePercent } from './wording';
+import { plural } from '../../tools/format';
+import { confidentMeaning, wholePercent } from './wording';
 import './hindsight.css';
 import { formatCount } from '../../dates';
 

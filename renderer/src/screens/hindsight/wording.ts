@@ -26,10 +26,6 @@ export function percentInterval(low: number, high: number): string {
   return `${Math.round(low * 100)}–${Math.round(high * 100)}%`;
 }
 
-export function plural(n: number, one: string, many: string): string {
-  return `${n} ${n === 1 ? one : many}`;
-}
-
 /** "You said 85%; it did not happen." — the final forecast against the outcome. */
 export function verdictSentence(finalP: number, outcome: 'yes' | 'no'): string {
   return `You said ${wholePercent(finalP)}; ${outcome === 'yes' ? 'it happened' : 'it did not happen'}.`;
