@@ -146,7 +146,7 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
                 <td>
                   <StatusPill status={q.status} outcome={q.outcome} />
                 </td>
-                <td className="nowrap">
+                <td>
                   <time dateTime={q.closes_at}>{formatInstant(q.closes_at, q.time_zone)}</time>
                 </td>
                 <td className="num">{lastForecastText(q)}</td>
