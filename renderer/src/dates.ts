@@ -21,7 +21,7 @@ let knownLocale: string | null = null;
  * kept: building a formatter to ask costs far more than the format itself, and a screen
  * formats thousands of dates.
  */
-function userLocale(): string {
+export function userLocale(): string {
   knownLocale ??= new Intl.DateTimeFormat().resolvedOptions().locale;
   return knownLocale;
 }

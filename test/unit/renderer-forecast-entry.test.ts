@@ -131,6 +131,11 @@ test('a choice or numeric forecast in a few words for lists', () => {
   // Dates in the user's own format: day/month/year in a UK locale, month first in a US one.
   assert.equal(numericSummary([0.1, 0.5, 0.9], [20513, 20543, 20574], 'date', '', 'en-GB'), '31 Mar 2026 (1 Mar 2026 – 1 May 2026)');
   assert.equal(numericSummary([0.5], [20543], 'date', '', 'en-US'), 'Mar 31, 2026');
+  // Large values group their digits as the locale does; fractions keep every typed digit.
+  assert.equal(numericSummary([0.1, 0.5, 0.9], [1400, 1500, 1600], 'number', '£k', 'en-GB'), '1,500 £k (1,400 – 1,600)');
+  assert.equal(numericSummary([0.5], [1234567.25], 'number', '', 'de-DE'), '1.234.567,25');
+  assert.equal(numericSummary([0.5], [0.1 + 0.2], 'number', '', 'en-GB'), '0.3');
+  assert.equal(numericSummary([0.5], [-0], 'number', '', 'en-GB'), '0');
 });
 
 test('the Questions list shows the last forecast of every type', () => {

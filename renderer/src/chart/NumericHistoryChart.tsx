@@ -124,7 +124,7 @@ export function NumericHistoryChart({ input, timeZone }: { input: NumericHistory
             color: colors.text,
             // A date axis ticks on whole days.
             ...(date ? { precision: 0 } : {}),
-            callback: (value) => (date ? formatValue(Math.round(Number(value)), 'date', '') : String(Number(Number(value).toPrecision(6)))),
+            callback: (value) => (date ? formatValue(Math.round(Number(value)), 'date', '') : formatValue(Number(Number(value).toPrecision(6)), 'number', '')),
           },
           grid: { color: colors.grid },
           border: { color: colors.grid },

@@ -8,7 +8,7 @@
 import type { ValueKind } from '../../../shared/domain';
 import { levelName } from '../../../shared/forecast-text';
 import { dateToDays } from '../../../shared/numeric-value';
-import { formatDay } from '../dates';
+import { formatDay, userLocale } from '../dates';
 import { quantilesProblem } from '../../../shared/quantile-levels';
 import type { Parsed } from '../percent';
 
@@ -33,12 +33,23 @@ export function levelsHint(levels: readonly number[], unit: string): string {
   return `${levelName(low)}: only a ${Math.round(low * 100)}% chance the outcome is lower; ${levelName(high)}: only a ${Math.round((1 - high) * 100)}% chance it is higher. Together ${article} ${width}% range${inUnit}.`;
 }
 
-/** A value as the boxes and readings show it: "13.5 weeks", "2026-03-31". */
-export function formatValue(value: number, kind: ValueKind, unit: string, locale?: string): string {
+const valueFormats = new Map<string, Intl.NumberFormat>();
+
+/**
+ * A value as the readings show it: "13.5 weeks", "1,500 £k", "31 Mar 2026". Digits are grouped
+ * as the user's locale groups them (a fee of 1500 £k reads as 1,500 £k), to 12 significant
+ * digits, which drops binary noise such as 0.1 + 0.2 = 0.30000000000000004.
+ */
+export function formatValue(value: number, kind: ValueKind, unit: string, locale = userLocale()): string {
   // A date value is a calendar day (days since 1970-01-01), shown in the user's own date
   // format like every other date; read as UTC so the day never shifts with a time zone.
   if (kind === 'date') return formatDay(value * 86_400_000, 'UTC', {}, locale);
-  const text = String(Number(value.toPrecision(12)));
+  let format = valueFormats.get(locale);
+  if (!format) {
+    format = new Intl.NumberFormat(locale, { maximumSignificantDigits: 12 });
+    valueFormats.set(locale, format);
+  }
+  const text = format.format(value + 0); // + 0: -0 reads "0"
   return unit ? `${text} ${unit}` : text;
 }
 
