@@ -137,7 +137,13 @@ export function useForm() {
     }
   }
 
-  return { formRef, busy, banner, problems, error: (field: string) => errors.get(field), check, reject, submit };
+  /** Takes every message down, for when the form goes back to its saved values. */
+  const clear = useCallback(() => {
+    setErrors(new Map());
+    setBanner(null);
+  }, []);
+
+  return { formRef, busy, banner, problems, error: (field: string) => errors.get(field), check, reject, submit, clear };
 }
 
 export type FormState = ReturnType<typeof useForm>;
