@@ -16,16 +16,13 @@ import { createContext, useCallback, useContext, useEffect, useId, useMemo, useR
 import type { ZodType } from 'zod';
 import { RequestError, describeError } from './api/errors';
 import { placeReasons, schemaReasons, type FieldPlacement } from './fieldMessages';
+import { sentence } from './components/FieldError';
 
 export type { FieldPlacement } from './fieldMessages';
 
 export interface FormBanner {
   message: string;
   details: string[];
-}
-
-function sentence(reason: string): string {
-  return reason.charAt(0).toUpperCase() + reason.slice(1);
 }
 
 /** Lets controls inside a form report problems the form's own state cannot show. */
