@@ -50,7 +50,11 @@ test('quick add, two revisions, a reference and a Yes resolution show up in the 
   ] as const) {
     await page.getByRole('button', { name: 'Revise' }).click();
     const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
-    await dialog.getByRole('spinbutton', { name: 'Your probability', exact: true }).fill(p);
+    // The box opens on the last forecast, selected: typing the new number replaces it.
+    const box = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
+    await expect(box).toBeFocused();
+    await page.keyboard.type(p);
+    await expect(box).toHaveValue(p);
     await dialog.getByLabel('What changed').fill(note);
     await dialog.getByRole('button', { name: 'Save revision' }).click();
     await expect(dialog).toBeHidden();
