@@ -75,6 +75,8 @@ test('quick add, two revisions, a reference and a Yes resolution show up in the 
   await resolve.getByRole('button', { name: 'Resolve', exact: true }).click();
   await expect(resolve).toBeHidden();
   await expect(page.getByText('Resolved · Yes')).toBeVisible();
+  // The Resolve button went with the open question; the keyboard starts at the content, not lost on the page's body.
+  await expect(page.getByRole('main')).toBeFocused();
 
   // The chart's data: the quick add's first probability plus two revisions, one reference.
   const raw = await page.getByTestId('history-chart').getAttribute('data-points');
