@@ -49,6 +49,30 @@ function Shell() {
   const dueCount = useDueCount() ?? 0;
   useTitleCount(dueCount);
 
+  // An action can take away the control that had focus (Resolve and Reopen swap places once
+  // the question reloads): the browser then drops focus onto the page's body, and the next Tab
+  // starts from the top of the window. Start the keyboard at the content instead.
+  useEffect(() => {
+    const main = mainRef.current;
+    if (!main) return;
+    let focused: Element | null = null;
+    const onFocusIn = (event: FocusEvent) => {
+      focused = event.target instanceof Element ? event.target : null;
+    };
+    const rescue = new MutationObserver(() => {
+      if (focused && !focused.isConnected && (document.activeElement === null || document.activeElement === document.body)) {
+        focused = null;
+        main.focus({ preventScroll: true });
+      }
+    });
+    document.addEventListener('focusin', onFocusIn);
+    rescue.observe(main, { childList: true, subtree: true });
+    return () => {
+      document.removeEventListener('focusin', onFocusIn);
+      rescue.disconnect();
+    };
+  }, []);
+
   // After moving to another screen, start keyboard and screen-reader users at its content.
   useEffect(() => {
     if (path === firstPath.current) return;

@@ -21,7 +21,7 @@ let knownLocale: string | null = null;
  * kept: building a formatter to ask costs far more than the format itself, and a screen
  * formats thousands of dates.
  */
-function userLocale(): string {
+export function userLocale(): string {
   knownLocale ??= new Intl.DateTimeFormat().resolvedOptions().locale;
   return knownLocale;
 }
@@ -59,8 +59,8 @@ export function formatDecimal(value: number, significant: number, locale = userL
 }
 
 /** A count and its noun, the count grouped: "1 day", "8,988 questions". */
-export function plural(n: number, one: string, many = `${one}s`): string {
-  return `${formatCount(n)} ${n === 1 ? one : many}`;
+export function plural(n: number, one: string, many = `${one}s`, locale = userLocale()): string {
+  return `${formatCount(n, locale)} ${n === 1 ? one : many}`;
 }
 
 const formats = new Map<string, Intl.DateTimeFormat>();

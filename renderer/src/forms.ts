@@ -16,16 +16,13 @@ import { createContext, useCallback, useContext, useEffect, useId, useMemo, useR
 import type { ZodType } from 'zod';
 import { RequestError, describeError } from './api/errors';
 import { placeReasons, schemaReasons, type FieldPlacement } from './fieldMessages';
+import { sentence } from './components/FieldError';
 
 export type { FieldPlacement } from './fieldMessages';
 
 export interface FormBanner {
   message: string;
   details: string[];
-}
-
-function sentence(reason: string): string {
-  return reason.charAt(0).toUpperCase() + reason.slice(1);
 }
 
 /** Lets controls inside a form report problems the form's own state cannot show. */
@@ -137,7 +134,13 @@ export function useForm() {
     }
   }
 
-  return { formRef, busy, banner, problems, error: (field: string) => errors.get(field), check, reject, submit };
+  /** Takes every message down, for when the form goes back to its saved values. */
+  const clear = useCallback(() => {
+    setErrors(new Map());
+    setBanner(null);
+  }, []);
+
+  return { formRef, busy, banner, problems, error: (field: string) => errors.get(field), check, reject, submit, clear };
 }
 
 export type FormState = ReturnType<typeof useForm>;

@@ -233,8 +233,11 @@ test('revising a check-in from the Desk saves the new number and clears the chec
     await checkin.getByRole('button', { name: 'Revise' }).click();
     const box = checkin.getByRole('spinbutton', { name: 'New probability' });
     await expect(box).toHaveValue('90');
-    // A number out of range is refused beside the field, and nothing is saved.
-    await box.fill('140');
+    // The last number is selected, so typing replaces it. One out of range is refused beside
+    // the field, and nothing is saved.
+    await expect(box).toBeFocused();
+    await page.keyboard.type('140');
+    await expect(box).toHaveValue('140');
     await checkin.getByRole('button', { name: 'Save revision' }).click();
     await expect(checkin.getByTestId('field-error')).toHaveText(/between 0% and 100%/);
     await box.fill('60');

@@ -179,7 +179,7 @@ test('lowering “Confident at” to 60% adds the calls between 60% and 80%', as
 
   // Out of range: the field says why and the last good list stays.
   await page.getByRole('spinbutton', { name: 'Confident at', exact: true }).fill('40');
-  await expect(page.getByText('must be from 50% to 99%')).toBeVisible();
+  await expect(page.getByTestId('field-error')).toHaveText('⚠ Must be from 50% to 99%');
   await expect(page.getByTestId('hindsight-entry')).toHaveCount(at60.length);
 });
 

@@ -3,7 +3,8 @@
  * reference source are each one unbroken word as long as the diary allows (a 300-character
  * title, a 64-character tag, a 200-character source), no screen is wider than the window at
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
- * decomposition) fit their cards, and the base-rate card shows its whole note. Screens are
+ * decomposition, the numeric questions' scores) and the question list's close times and figures fit their cells, and the
+ * base-rate card shows its whole note. Screens are
  * photographed at both sizes; the long question's page is scanned by axe in light and dark.
  * At 800×600 the question list leaves most of a row to the question and the skill table room
  * for its readings; a toast naming the 300-character title cuts the quote short and stays a
@@ -114,8 +115,12 @@ for (const size of SIZES) {
             expect(box!.x + box!.width, `a Delete button on ${screen.name}`).toBeLessThanOrEqual(card!.x + card!.width);
           }
         }
+        if (screen.name === 'questions') {
+          // A close time such as "Oct 19, 2026, 05:00 PM GMT+1" once ran under the Last forecast column at 1920.
+          expect(await cut(page, '.question-table tbody td:not(:first-child)'), 'the question list’s cells').toEqual([]);
+        }
         if (screen.name === 'scorecard') {
-          expect(await cut(page, '.sc-decisions .table-card, .sc-decomposition'), 'scorecard tables').toEqual([]);
+          expect(await cut(page, '.sc-decisions .table-card, .sc-decomposition, [data-testid="numeric-questions"]'), 'scorecard tables').toEqual([]);
         }
         if (screen.name === 'hindsight') {
           expect(await cut(page, '.hs-entry'), 'hindsight entries').toEqual([]);

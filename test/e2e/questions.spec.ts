@@ -50,7 +50,11 @@ test('quick add, two revisions, a reference and a Yes resolution show up in the 
   ] as const) {
     await page.getByRole('button', { name: 'Revise' }).click();
     const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
-    await dialog.getByRole('spinbutton', { name: 'Your probability', exact: true }).fill(p);
+    // The box opens on the last forecast, selected: typing the new number replaces it.
+    const box = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
+    await expect(box).toBeFocused();
+    await page.keyboard.type(p);
+    await expect(box).toHaveValue(p);
     await dialog.getByLabel('What changed').fill(note);
     await dialog.getByRole('button', { name: 'Save revision' }).click();
     await expect(dialog).toBeHidden();
@@ -71,6 +75,8 @@ test('quick add, two revisions, a reference and a Yes resolution show up in the 
   await resolve.getByRole('button', { name: 'Resolve', exact: true }).click();
   await expect(resolve).toBeHidden();
   await expect(page.getByText('Resolved · Yes')).toBeVisible();
+  // The Resolve button went with the open question; the keyboard starts at the content, not lost on the page's body.
+  await expect(page.getByRole('main')).toBeFocused();
 
   // The chart's data: the quick add's first probability plus two revisions, one reference.
   const raw = await page.getByTestId('history-chart').getAttribute('data-points');

@@ -219,7 +219,7 @@ test('the tag and date filters change every figure to the filtered scorecard', a
 
     // A range that ends before it starts is refused beside the field, not sent.
     await page.getByLabel('To', { exact: true }).fill(fromDay.replace(/^(\d{4})/, (y) => String(Number(y) - 1)));
-    await expect(page.getByText('must not be before From')).toBeVisible();
+    await expect(page.getByTestId('field-error')).toHaveText('⚠ Must not be before From');
     await page.getByRole('button', { name: 'Clear filters' }).click();
     await waitReady(page, '');
     await expect(page.getByTestId('headline-brier-n')).toHaveText(`n = ${all.report.scored}`);

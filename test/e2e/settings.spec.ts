@@ -128,6 +128,9 @@ test('a value the diary refuses is explained beside its field, and nothing is sa
     await page.getByRole('button', { name: 'Discard changes' }).click();
     await expect(field(page, 'Closing-soon warning')).toHaveValue(String(before.closing_soon_hours));
     await expect(field(page, 'Check in every')).toHaveValue(String(before.default_checkin_days));
+    // …and takes the messages about the discarded values down with them.
+    await expect(page.getByTestId('field-error')).toHaveCount(0);
+    await expect(field(page, 'Closing-soon warning')).not.toHaveAttribute('aria-invalid', 'true');
     expect(app.problems).toEqual([]);
   } finally {
     await app.close();

@@ -99,10 +99,15 @@ test.describe('what the tools do', () => {
     await dialog.getByRole('spinbutton', { name: 'Comparable cases' }).fill('3');
     await expect(dialog.getByRole('spinbutton', { name: 'Cases where it happened' })).toHaveAccessibleDescription(/more than the comparable cases/);
     await expect(result).toHaveCount(0);
+    // Counts group their digits as the rest of Forelog does (6 of 2000 → (6 + 1) / 2002 = 0.35%).
+    await dialog.getByRole('spinbutton', { name: 'Cases where it happened' }).fill('6');
+    await dialog.getByRole('spinbutton', { name: 'Comparable cases' }).fill('2000');
+    await expect(result).toContainText('6 of 2,000 comparable cases → 0.3%');
 
     // 3 of 3 → 0.8 (CHECK-VALUES.md "Rule of succession"); Jeffreys lower limit = Beta(3.5, 0.5)
     // quantile 0.025 = 0.4644, upper 1 since k = n (derived; scipy.stats.beta.ppf(0.025, 3.5, 0.5)).
     await dialog.getByRole('spinbutton', { name: 'Cases where it happened' }).fill('3');
+    await dialog.getByRole('spinbutton', { name: 'Comparable cases' }).fill('3');
     await expect(result).toContainText('3 of 3 comparable cases → 80% (95% interval 46–100%)');
     expect(await dataP(page, 'base-rate-result')).toBeCloseTo(0.8, 12);
     // Enter in a helper box works the helper, not the question form.

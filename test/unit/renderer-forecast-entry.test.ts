@@ -136,6 +136,7 @@ test('a choice or numeric forecast in a few words for lists', () => {
   // Dates in the user's own format: day/month/year in a UK locale, month first in a US one.
   assert.equal(numericSummary([0.1, 0.5, 0.9], [20513, 20543, 20574], 'date', '', 'en-GB'), '31 Mar 2026 (1 Mar 2026 – 1 May 2026)');
   assert.equal(numericSummary([0.5], [20543], 'date', '', 'en-US'), 'Mar 31, 2026');
+  assert.equal(numericSummary([0.5], [-0], 'number', '', 'en-GB'), '0', 'no minus sign on zero');
 });
 
 test('the Questions list shows the last forecast of every type', () => {

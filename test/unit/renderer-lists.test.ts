@@ -7,7 +7,7 @@
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { DEFAULT_QUERY, decodeListQuery, encodeListQuery, nextSort, type ListQuery } from '../../renderer/src/screens/questions/listQuery';
+import { DEFAULT_QUERY, countCaption, decodeListQuery, encodeListQuery, nextSort, type ListQuery } from '../../renderer/src/screens/questions/listQuery';
 import { decodeFilter, encodeFilter } from '../../renderer/src/screens/scorecard/filterRequest';
 import { INITIAL_SELECTION, decodeSelection, encodeSelection } from '../../renderer/src/screens/hindsight/selection';
 
@@ -44,4 +44,11 @@ test('the Scorecard filter and Hindsight selection read back as written', () => 
   // A half-typed threshold is kept as typed: the screen shows it with its problem.
   const selection = { tag: 'delivery', threshold: '8', from: '2026-01-01', to: '', includeHits: true };
   assert.deepEqual(decodeSelection(address(encodeSelection(selection))), selection);
+});
+
+test('the Questions list counts in words that agree with the number, digits grouped', () => {
+  assert.equal(countCaption(1, 1, 'en-GB'), '1 question');
+  assert.equal(countCaption(45, 45, 'en-GB'), '45 questions');
+  assert.equal(countCaption(0, 1, 'en-GB'), '0 of 1 question');
+  assert.equal(countCaption(1, 12_345, 'en-GB'), '1 of 12,345 questions');
 });

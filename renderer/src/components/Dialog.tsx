@@ -130,6 +130,9 @@ function OpenDialog({ title, onClose, children, description, size = 'md', role =
     const own = focusables(dialog);
     const first = dialog.querySelector<HTMLElement>('[data-autofocus]') ?? own.find((el) => body?.contains(el)) ?? own[0];
     first?.focus();
+    // A number box that opens holding the current figure (Revise starts at your last forecast)
+    // has it selected, so typing a new number replaces it rather than making 70 into 7055.
+    if (first instanceof HTMLInputElement && first.type === 'number' && first.value !== '') first.select();
     return () => {
       if (dialog.open) dialog.close();
       // After every dialog closing in this update has closed (Discard closes the prompt and

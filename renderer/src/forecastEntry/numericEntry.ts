@@ -38,7 +38,7 @@ export function formatValue(value: number, kind: ValueKind, unit: string, locale
   // A date value is a calendar day (days since 1970-01-01), shown in the user's own date
   // format like every other date; read as UTC so the day never shifts with a time zone.
   if (kind === 'date') return formatDay(value * 86_400_000, 'UTC', {}, locale);
-  const text = formatDecimal(value, 12, locale);
+  const text = formatDecimal(value + 0, 12, locale); // + 0: -0 reads "0"
   return unit ? `${text} ${unit}` : text;
 }
 

@@ -63,7 +63,8 @@ function checkCases(kText: string, nText: string, what: string): Checked {
   if (!errors.k && !errors.n && k !== null && n !== null && k > n) errors.k = 'Can’t be more than the comparable cases';
   if (k === null || n === null || Object.keys(errors).length) return { outcome: null, errors };
   const { estimate, low, high } = ruleOfSuccession(k, n);
-  const cases = what.trim() ? `${k} of ${n} comparable ${what.trim()}` : `${k} of ${n} comparable cases`;
+  const counted = `${formatCount(k)} of ${formatCount(n)} comparable`;
+  const cases = `${counted} ${what.trim() || 'cases'}`;
   const interval = formatRange(low, high);
   return {
     errors,

@@ -283,8 +283,11 @@ function ReviseForm({
   const setP = (value: string) => onDraftChange({ ...draft, p: value });
   const setNote = (value: string) => onDraftChange({ ...draft, note: value });
 
+  // The box opens on the last number, selected: typing a new one replaces it (not 45 → 4530).
   useEffect(() => {
-    form.formRef.current?.querySelector<HTMLInputElement>('input[type="number"]')?.focus();
+    const box = form.formRef.current?.querySelector<HTMLInputElement>('input[type="number"]');
+    box?.focus();
+    box?.select();
   }, [form.formRef]);
 
   async function onSubmit(event: FormEvent) {

@@ -6,6 +6,7 @@
 import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../../../shared/hindsight-entries';
 import { toStoredValue } from '../../../../shared/numeric-value';
 import { formatValue } from '../../forecastEntry/numericEntry';
+import { plural } from '../../tools/format';
 import { wholePercent } from './wording';
 
 /** "You gave Kestrowe 85%; Ambledene came true, at 10%." */
@@ -19,7 +20,7 @@ export function choiceVerdictSentence(e: Pick<ChoiceHindsightEntry, 'options' | 
 export function surpriseSentence(e: Pick<NumericHindsightEntry, 'value' | 'low' | 'high' | 'level' | 'side' | 'distance' | 'size' | 'unit' | 'value_kind'>): string {
   const show = (v: number | string) => formatValue(toStoredValue(v, e.value_kind), e.value_kind, e.unit);
   const range = `${Math.round(e.level * 100)}%`;
-  const distance = e.value_kind === 'date' ? `${e.distance} day${e.distance === 1 ? '' : 's'}` : formatValue(e.distance, 'number', e.unit);
+  const distance = e.value_kind === 'date' ? plural(e.distance, 'day') : formatValue(e.distance, 'number', e.unit);
   const width = e.size === null ? 'a range of zero width' : `${Number(e.size.toPrecision(2))} times its width outside`;
   return `${show(e.value)}: ${distance} ${e.side} your ${range} range (${show(e.low)} – ${show(e.high)}); ${width}.`;
 }

@@ -11,11 +11,11 @@ import { useEffect, useLayoutEffect, useRef, useState, type MouseEvent } from 'r
 import { useWindowVirtualizer, type VirtualItem } from '@tanstack/react-virtual';
 import type { ListSort } from '../../../../shared/contract';
 import { StatusPill } from '../../components/StatusPill';
-import { formatCount, formatInstant } from '../../dates';
+import { formatInstant } from '../../dates';
 import { formatPercent } from '../../percent';
 import { lastForecastText } from '../../questionTypes/summaries';
 import { hrefTo, navigate, questionPath } from '../../routing';
-import type { ListQuery } from './listQuery';
+import { countCaption, type ListQuery } from './listQuery';
 import type { QuestionPages } from './useQuestionPages';
 
 /** A row's height before it is measured (one line of title and one of tags). */
@@ -73,7 +73,7 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
 
   const before = items.length ? items[0]!.start - margin : 0;
   const after = items.length ? virtualizer.getTotalSize() - (items[items.length - 1]!.end - margin) : 0;
-  const caption = pages.matched === pages.total ? `${formatCount(pages.total)} questions` : `${formatCount(pages.matched)} of ${formatCount(pages.total)} questions`;
+  const caption = countCaption(pages.matched, pages.total);
 
   return (
     <div className="table-card" aria-busy={busy || undefined}>
@@ -146,7 +146,7 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
                 <td>
                   <StatusPill status={q.status} outcome={q.outcome} />
                 </td>
-                <td className="nowrap">
+                <td>
                   <time dateTime={q.closes_at}>{formatInstant(q.closes_at, q.time_zone)}</time>
                 </td>
                 <td className="num">{lastForecastText(q)}</td>

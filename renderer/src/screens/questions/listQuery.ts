@@ -6,6 +6,8 @@
  */
 import { LIST_SORTS, type ListSort, type SortDirection } from '../../../../shared/contract';
 import { QUESTION_STATUSES, type QuestionStatus } from '../../../../shared/domain';
+import { formatCount } from '../../dates';
+import { plural } from '../../tools/format';
 
 export type StatusFilter = QuestionStatus | 'all';
 
@@ -60,4 +62,10 @@ export function rememberList(search: string, scrollY: number): void {
 
 export function rememberedList(): { search: string; scrollY: number } | null {
   return remembered;
+}
+
+/** The list's count line: "1 question", "45 questions", or "3 of 45 questions" while filtered. */
+export function countCaption(matched: number, total: number, locale?: string): string {
+  if (matched === total) return plural(total, 'question', 'questions', locale);
+  return `${formatCount(matched, locale)} of ${plural(total, 'question', 'questions', locale)}`;
 }

@@ -163,7 +163,7 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
           Units differ, so these are never averaged.
         </p>
         <div className="table-card" data-testid="numeric-questions">
-          <table>
+          <table className="sc-wis-table">
             <caption className="visually-hidden">Numeric questions scored</caption>
             <thead>
               <tr>

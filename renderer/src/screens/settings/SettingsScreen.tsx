@@ -91,7 +91,14 @@ function SettingsForm({ initial }: { initial: Settings }) {
         <p className="settings__status" aria-live="polite">
           {dirty ? 'You have unsaved changes.' : ''}
         </p>
-        <Button disabled={!dirty || form.busy} onClick={() => setDraft(saved)}>
+        <Button
+          disabled={!dirty || form.busy}
+          onClick={() => {
+            // The saved values are valid: a message about a discarded value would now sit beside the wrong number.
+            setDraft(saved);
+            form.clear();
+          }}
+        >
           Discard changes
         </Button>
         <Button type="submit" variant="primary" busy={form.busy}>
