@@ -29,7 +29,8 @@ Commands:
   score [--tag T] [--from D] [--to D] [--json]
                               the scorecard (JSON as documented with --json)
   export [FILE] [--format json|csv|ics]
-                              write the diary file (to stdout without FILE); csv: one
+                              write the diary file (to stdout without FILE; without
+                              --format, FILE ending .csv or .ics picks that); csv: one
                               row per revision; ics: every open question's close as an event
   due [--at TIME] [--json]    the nudges due at that instant (default now), in the
                               diary's time zone; --json keeps UTC instants
@@ -318,9 +319,10 @@ async function run(argv: string[]): Promise<void> {
     }
     case 'export': {
       if (positionals.length > 1) throw new UsageError('expects at most one FILE');
-      const format = values.format ?? 'json';
-      if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
       const file = positionals[0];
+      // Without --format, the file's name decides as it does for import: diary.csv is CSV.
+      const format = values.format ?? (file && /\.(csv|ics)$/i.exec(file)?.[1]?.toLowerCase()) ?? 'json';
+      if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
       // Progress only for a file: an export to stdout may be going to this same terminal.
       const progress = progressLine(`Exporting to ${file}`, 'saving');
       try {

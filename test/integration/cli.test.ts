@@ -77,6 +77,28 @@ test('export → import → export is identical', () => {
   assert.ok(parsed.questions.length >= 24);
 });
 
+test('export FILE without --format writes what the name says, like import reads it: diary.csv is CSV and imports again', () => {
+  const dir = tempDir();
+  const a = path.join(dir, 'a.sqlite');
+  const b = path.join(dir, 'b.sqlite');
+  assert.equal(forelog('demo', '--db', a).status, 0);
+  const csv = path.join(dir, 'diary.CSV');
+  assert.equal(forelog('export', csv, '--db', a).status, 0);
+  assert.equal(fs.readFileSync(csv, 'utf8'), forelog('export', '--format', 'csv', '--db', a).stdout);
+  const imported = forelog('import', csv, '--db', b);
+  assert.equal(imported.status, 0, imported.stderr);
+  assert.equal(forelog('export', '--format', 'csv', '--db', b).stdout, fs.readFileSync(csv, 'utf8'));
+  const ics = path.join(dir, 'diary.ics');
+  assert.equal(forelog('export', ics, '--db', a).status, 0);
+  assert.match(fs.readFileSync(ics, 'utf8'), /^BEGIN:VCALENDAR/);
+  const other = path.join(dir, 'diary.txt');
+  assert.equal(forelog('export', other, '--db', a).status, 0);
+  assert.equal(JSON.parse(fs.readFileSync(other, 'utf8')).format, 'forelog-diary');
+  const forced = path.join(dir, 'forced.csv');
+  assert.equal(forelog('export', forced, '--format', 'json', '--db', a).status, 0);
+  assert.equal(JSON.parse(fs.readFileSync(forced, 'utf8')).format, 'forelog-diary', '--format still decides');
+});
+
 test('export --format csv and ics: one row per revision; one calendar event per open question', () => {
   const db = path.join(tempDir(), 'd.sqlite');
   assert.equal(forelog('demo', '--db', db).status, 0);
