@@ -317,3 +317,28 @@ test('export to a reader that stops early (| head) ends quietly', () => {
   assert.equal(r.stderr, '');
   assert.equal(r.status, 0);
 });
+
+test('score: costs too large to add up are null in --json and say so in the summary; large costs and counts are digit-grouped', () => {
+  const dir = tempDir();
+  const resolved = (n: number, outcome: 'yes' | 'no', miss: number) => ({
+    ...good(n),
+    costs: { false_alarm: 1_234_567, miss },
+    resolution: { outcome, at: '2026-03-01T12:00:00Z', note: '' },
+  });
+  // Two Yes questions whose miss costs are each near the largest double: never acting costs
+  // more than a double holds (1e308 + 1e308 is Infinity), which JSON cannot write.
+  const huge = path.join(dir, 'huge.sqlite');
+  const hugeFile = path.join(dir, 'huge.json');
+  fs.writeFileSync(hugeFile, diaryFile([resolved(1, 'yes', 1e308), resolved(2, 'yes', 1e308), resolved(3, 'no', 1e308)]));
+  assert.equal(forelog('import', hugeFile, '--db', huge).status, 0);
+  const json = forelog('score', '--json', '--db', huge);
+  assert.equal(json.status, 0, json.stderr);
+  const decisions = JSON.parse(json.stdout).decisions;
+  assert.equal(decisions.cost_never, null, 'an overflowing total is null, not a number JSON turned into null by accident');
+  assert.equal(decisions.cost_always, 1_234_567);
+  const text = forelog('score', '--db', huge);
+  assert.equal(text.status, 0, text.stderr);
+  assert.doesNotMatch(text.stdout, /Infinity|NaN/);
+  assert.match(text.stdout, /never too large to add up/);
+  assert.match(text.stdout, /always act 1,234,567\.00/);
+});
