@@ -98,10 +98,11 @@ interface Parsed {
 
 function parse(argv: string[]): Parsed {
   try {
-    const { values, positionals } = parseArgs({
+    const { values, positionals, tokens } = parseArgs({
       args: argv,
       allowPositionals: true,
       strict: true,
+      tokens: true,
       options: {
         db: { type: 'string' },
         port: { type: 'string' },
@@ -115,8 +116,16 @@ function parse(argv: string[]): Parsed {
         help: { type: 'boolean', short: 'h' },
       },
     });
+    // node:util keeps only the last of a repeated option; which one was meant is not ours to guess.
+    const seen = new Set<string>();
+    for (const token of tokens) {
+      if (token.kind !== 'option') continue;
+      if (seen.has(token.name)) throw new UsageError(`--${token.name} is given twice; give it once`);
+      seen.add(token.name);
+    }
     return { command: positionals[0], positionals: positionals.slice(1), values };
   } catch (err) {
+    if (err instanceof UsageError) throw err;
     // node:util's own wording is written for programmers ("place it at the end … after '--'").
     const code = (err as NodeJS.ErrnoException).code;
     const option = /'(-[^' ]+)/.exec((err as Error).message)?.[1];
@@ -146,8 +155,11 @@ function onDiaryClock(option: string, text: string | undefined, timeZone: string
   if (text === undefined) return undefined;
   const local = parseLocalInZone(text, timeZone);
   if (local !== null) return toIso(local);
-  // The shape of a local time (or, where none is taken, of a bare date) that names no real moment.
-  if (LOCAL_DATE_TIME_FORM.test(text.trim()) || (!bareDate && BARE_DATE_FORM.test(text.trim()))) {
+  if (!bareDate && BARE_DATE_FORM.test(text.trim())) {
+    throw new UsageError(`--${option} takes a time, not a bare date: write ${text.trim()}T09:00 (on the diary's clock, ${timeZone}) or ${text.trim()}T09:00Z`);
+  }
+  // The shape of a local time that names no real moment.
+  if (LOCAL_DATE_TIME_FORM.test(text.trim())) {
     throw new UsageError(
       `--${option} ${text} is not a date and time that exists; write it as ${bareDate ? '2026-03-31 (a UTC day), ' : ''}2026-03-31T17:00 (on the diary's clock, ${timeZone}) or 2026-03-31T17:00+01:00`,
     );
@@ -262,7 +274,8 @@ function dueText(list: DueList, zone: string): string {
 }
 
 async function serve(dbPath: string, portText: string | undefined): Promise<void> {
-  const port = portText === undefined ? 0 : Number(portText);
+  // Digits only: Number() would also take "1e3", "0x50", " 80" and "" (as 0).
+  const port = portText === undefined ? 0 : /^[0-9]{1,5}$/.test(portText) ? Number(portText) : NaN;
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
   const dir = await rendererDir();
   const service = openDiary({ dbPath, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });

@@ -342,3 +342,26 @@ test('score: costs too large to add up are null in --json and say so in the summ
   assert.match(text.stdout, /never too large to add up/);
   assert.match(text.stdout, /always act 1,234,567\.00/);
 });
+
+test('an option given twice, a --port that is not plain digits, and a bare date for --at are refused with what to write instead', () => {
+  const dir = tempDir();
+  const db = path.join(dir, 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const twice = forelog('score', '--tag', 'renewals', '--tag', 'delivery', '--db', db);
+  assert.equal(twice.status, 1);
+  assert.equal(twice.stdout, '');
+  assert.match(twice.stderr, /^forelog: --tag is given twice/);
+  assert.equal(twice.stderr.trim().split('\n').length, 1);
+  const otherDb = forelog('score', '--db', db, '--db', path.join(dir, 'other.sqlite'));
+  assert.equal(otherDb.status, 1);
+  assert.match(otherDb.stderr, /--db is given twice/);
+  assert.equal(fs.existsSync(path.join(dir, 'other.sqlite')), false);
+  for (const port of ['1e3', '0x50', ' 80', '', '+80', '80.0']) {
+    const r = forelog('serve', '--port', port, '--db', db);
+    assert.equal(r.status, 1, `--port "${port}" must be refused, not served: ${r.stdout}`);
+    assert.match(r.stderr, /^forelog: --port must be a whole number from 0 to 65535/);
+  }
+  const bare = forelog('due', '--at', '2026-01-01', '--db', db);
+  assert.equal(bare.status, 1);
+  assert.match(bare.stderr, /^forelog: --at takes a time, not a bare date/);
+});
