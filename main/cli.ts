@@ -30,7 +30,8 @@ Commands:
   score [--tag T] [--from D] [--to D] [--json]
                               the scorecard (JSON as documented with --json)
   export [FILE] [--format json|csv|ics]
-                              write the diary file (to stdout without FILE); csv: one
+                              write the diary file (to stdout without FILE; without
+                              --format, FILE ending .csv or .ics picks that); csv: one
                               row per revision; ics: every open question's close as an event
   due [--at TIME] [--json]    the nudges due at that instant (default now), in the
                               diary's time zone; --json keeps UTC instants
@@ -100,10 +101,11 @@ interface Parsed {
 
 function parse(argv: string[]): Parsed {
   try {
-    const { values, positionals } = parseArgs({
+    const { values, positionals, tokens } = parseArgs({
       args: argv,
       allowPositionals: true,
       strict: true,
+      tokens: true,
       options: {
         db: { type: 'string' },
         port: { type: 'string' },
@@ -118,8 +120,16 @@ function parse(argv: string[]): Parsed {
         version: { type: 'boolean', short: 'V' },
       },
     });
+    // node:util keeps only the last of a repeated option; which one was meant is not ours to guess.
+    const seen = new Set<string>();
+    for (const token of tokens) {
+      if (token.kind !== 'option') continue;
+      if (seen.has(token.name)) throw new UsageError(`--${token.name} is given twice; give it once`);
+      seen.add(token.name);
+    }
     return { command: positionals[0], positionals: positionals.slice(1), values };
   } catch (err) {
+    if (err instanceof UsageError) throw err;
     // node:util's own wording is written for programmers ("place it at the end … after '--'").
     const code = (err as NodeJS.ErrnoException).code;
     const option = /'(-[^' ]+)/.exec((err as Error).message)?.[1];
@@ -149,8 +159,11 @@ function onDiaryClock(option: string, text: string | undefined, timeZone: string
   if (text === undefined) return undefined;
   const local = parseLocalInZone(text, timeZone);
   if (local !== null) return toIso(local);
-  // The shape of a local time (or, where none is taken, of a bare date) that names no real moment.
-  if (LOCAL_DATE_TIME_FORM.test(text.trim()) || (!bareDate && BARE_DATE_FORM.test(text.trim()))) {
+  if (!bareDate && BARE_DATE_FORM.test(text.trim())) {
+    throw new UsageError(`--${option} takes a time, not a bare date: write ${text.trim()}T09:00 (on the diary's clock, ${timeZone}) or ${text.trim()}T09:00Z`);
+  }
+  // The shape of a local time that names no real moment.
+  if (LOCAL_DATE_TIME_FORM.test(text.trim())) {
     throw new UsageError(
       `--${option} ${text} is not a date and time that exists; write it as ${bareDate ? '2026-03-31 (a UTC day), ' : ''}2026-03-31T17:00 (on the diary's clock, ${timeZone}) or 2026-03-31T17:00+01:00`,
     );
@@ -264,7 +277,8 @@ function dueText(list: DueList, zone: string): string {
 }
 
 async function serve(dbPath: string, portText: string | undefined): Promise<void> {
-  const port = portText === undefined ? 0 : Number(portText);
+  // Digits only: Number() would also take "1e3", "0x50", " 80" and "" (as 0).
+  const port = portText === undefined ? 0 : /^[0-9]{1,5}$/.test(portText) ? Number(portText) : NaN;
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError('--port must be a whole number from 0 to 65535');
   const dir = await rendererDir();
   const service = openDiary({ dbPath, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath), warmScores: true });
@@ -326,9 +340,10 @@ async function run(argv: string[]): Promise<void> {
     }
     case 'export': {
       if (positionals.length > 1) throw new UsageError('expects at most one FILE');
-      const format = values.format ?? 'json';
-      if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
       const file = positionals[0];
+      // Without --format, the file's name decides as it does for import: diary.csv is CSV.
+      const format = values.format ?? (file && /\.(csv|ics)$/i.exec(file)?.[1]?.toLowerCase()) ?? 'json';
+      if (format !== 'json' && format !== 'csv' && format !== 'ics') throw new UsageError(`--format must be json, csv or ics (got "${format}")`);
       // Progress only for a file: an export to stdout may be going to this same terminal.
       const progress = progressLine(`Exporting to ${file}`, 'saving');
       try {

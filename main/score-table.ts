@@ -5,13 +5,19 @@
 import type { ChoiceReport, NumericReport, ScoreReport } from '../shared/scoring';
 
 const num = (v: number | null, digits = 3): string => (v === null ? '—' : v.toFixed(digits));
+const GROUPED = new Intl.NumberFormat('en-GB');
+const COST = new Intl.NumberFormat('en-GB', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+/** A count, digits grouped: 30,000. */
+const count = (n: number): string => GROUPED.format(n);
+/** A summed cost, digits grouped, two decimals; null is a total larger than a double holds. */
+const cost = (v: number | null): string => (v === null ? 'too large to add up' : COST.format(v));
 const pct = (v: number | null): string => (v === null ? '—' : `${Math.round(v * 100)}%`);
 
 type Row = (label: string, value: string, note?: string) => void;
 
 const counted = (c: { scored: number; unscored: number; void: number; open: number }) => c.scored + c.unscored + c.void + c.open;
 const countsLine = (c: { scored: number; unscored: number; void: number; open: number }) =>
-  `  ${c.scored} scored · ${c.unscored} resolved without a counting forecast · ${c.void} void · ${c.open} open`;
+  `  ${count(c.scored)} scored · ${count(c.unscored)} resolved without a counting forecast · ${count(c.void)} void · ${count(c.open)} open`;
 
 /**
  * The scorecard for a terminal. The yes/no figures come first, as they always did; the
@@ -41,7 +47,7 @@ export function formatScoreTable(r: ScoreReport & { choice?: ChoiceReport; numer
   row('Log score', num(r.log_score), 'natural log');
   lines.push('', 'Calibration');
   for (const b of r.bins) {
-    row(`  said ~${b.index * 10}% (n=${b.n})`, pct(b.observed), `came true; 95% interval ${pct(b.wilson_low)}–${pct(b.wilson_high)}`);
+    row(`  said ~${b.index * 10}% (n=${count(b.n)})`, pct(b.observed), `came true; 95% interval ${pct(b.wilson_low)}–${pct(b.wilson_high)}`);
   }
   if (r.calibration.slope !== null) {
     row('Calibration slope', num(r.calibration.slope, 2), r.calibration.slope < 1 ? 'below 1: too extreme' : 'above 1: too timid');
@@ -62,10 +68,10 @@ export function formatScoreTable(r: ScoreReport & { choice?: ChoiceReport; numer
   row('vs reference forecasts', num(r.skill.vs_reference));
   const c = r.decisions;
   lines.push('', 'Consequences');
-  row('Hits / false alarms', `${c.hits} / ${c.false_alarms}`);
-  row('Misses / correct rejections', `${c.misses} / ${c.correct_rejections}`);
+  row('Hits / false alarms', `${count(c.hits)} / ${count(c.false_alarms)}`);
+  row('Misses / correct rejections', `${count(c.misses)} / ${count(c.correct_rejections)}`);
   row('Hit rate / false alarm rate', `${pct(c.hit_rate)} / ${pct(c.false_alarm_rate)}`);
-  row('Cost: your calls', num(c.cost, 2), `base rate ${num(c.cost_base_rate, 2)} · always act ${num(c.cost_always, 2)} · never ${num(c.cost_never, 2)} · foresight 0`);
+  row('Cost: your calls', cost(c.cost), `base rate ${cost(c.cost_base_rate)} · always act ${cost(c.cost_always)} · never ${cost(c.cost_never)} · foresight 0`);
   if (r.confident_misses.length) {
     lines.push('', 'Confident misses');
     for (const m of r.confident_misses.slice(0, 10)) lines.push(`  ${pct(m.p).padStart(4)} → ${m.outcome.padEnd(3)}  ${m.title}`);
@@ -82,7 +88,7 @@ function typedSections(lines: string[], row: Row, choice: ChoiceReport | null, n
     if (choice.scored > 0) {
       row('Brier score (multi-category)', num(choice.brier), '0 perfect · 2 worst');
       row('Log score', num(choice.log_score), 'natural log');
-      if (choice.rps !== null) row(`Ranked probability score (n=${choice.rps_n})`, num(choice.rps), 'ordered questions');
+      if (choice.rps !== null) row(`Ranked probability score (n=${count(choice.rps_n)})`, num(choice.rps), 'ordered questions');
       row('Skill vs even odds', num(choice.skill.vs_uniform));
       const t = choice.top_choice;
       row('Top choice came true', pct(t.hit_rate), `you gave it ${pct(t.mean_confidence)} on average; 95% interval ${pct(t.wilson_low)}–${pct(t.wilson_high)}`);
@@ -91,7 +97,7 @@ function typedSections(lines: string[], row: Row, choice: ChoiceReport | null, n
   if (numeric) {
     lines.push('', 'Numeric questions', countsLine(numeric));
     for (const c of numeric.coverage) {
-      row(`  ${pct(c.level)} ranges (n=${c.n})`, `${c.inside} of ${c.n}`, `caught the outcome (${pct(c.rate)}; 95% interval ${pct(c.wilson_low)}–${pct(c.wilson_high)})`);
+      row(`  ${pct(c.level)} ranges (n=${count(c.n)})`, `${count(c.inside)} of ${count(c.n)}`, `caught the outcome (${pct(c.rate)}; 95% interval ${pct(c.wilson_low)}–${pct(c.wilson_high)})`);
     }
   }
 }

@@ -4,7 +4,8 @@
  * written to a temporary file in the target's own folder, flushed to the disk (fsync),
  * then renamed over the target. A rename within one folder replaces the file in one step,
  * so a full disk, a crash or a failing export leaves either the old file or the new one,
- * never half of one, and no temporary file behind.
+ * never half of one, and no temporary file behind (one left by a killed process is removed
+ * by the next write of the same file).
  *
  * Synchronous on purpose: an export reads the diary in one read snapshot while it writes,
  * and nothing else may run on that connection in between.
@@ -126,6 +127,38 @@ function removeQuietly(file: string): void {
   }
 }
 
+/** True unless the process `pid` is known to have ended (a process of another user still counts). */
+function processRuns(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (err) {
+    return (err as NodeJS.ErrnoException).code !== 'ESRCH';
+  }
+}
+
+/**
+ * Removes the temporary files that writes of one target left in `folder` when their process
+ * was killed half way (SIGKILL, a power cut): their names match `pattern`, whose first
+ * group is the writer's process id, and that process has ended. A write still under way in
+ * another process keeps its file. Best effort: a file that cannot be listed or removed stays.
+ */
+export function clearLeftovers(folder: string, pattern: RegExp): void {
+  let names: string[];
+  try {
+    names = fs.readdirSync(folder);
+  } catch {
+    return;
+  }
+  for (const name of names) {
+    const pid = Number(pattern.exec(name)?.[1]);
+    if (Number.isSafeInteger(pid) && pid > 0 && !processRuns(pid)) removeQuietly(path.join(folder, name));
+  }
+}
+
+/** `text` matched literally inside a regular expression. */
+export const escapeRegExp = (text: string): string => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+
 /**
  * Writes `content` to `target` whole or not at all (see the module comment). An existing
  * target keeps its permissions; a symbolic link is followed and the file it points to is
@@ -163,6 +196,7 @@ export function writeFileAtomic(target: string, content: FileContent): void {
   }
 
   const folder = path.dirname(destination);
+  clearLeftovers(folder, new RegExp(`^\\.${escapeRegExp(path.basename(destination))}\\.(\\d+)-[0-9a-f]{8}\\.partial$`));
   const temporary = path.join(folder, `.${path.basename(destination)}.${process.pid}-${randomBytes(4).toString('hex')}.partial`);
   let fd: number | undefined;
   try {

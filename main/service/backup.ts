@@ -8,6 +8,7 @@ import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { clearLeftovers, escapeRegExp } from '../files/atomic-write';
 import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
 import { openStore, type Db, type StoreHandles } from '../store/open';
@@ -38,6 +39,8 @@ async function writeCopy(source: Db, sourcePath: string, file: string, onProgres
     fs.mkdirSync(path.dirname(target), { recursive: true });
     // SQLite says only "cannot open" for a folder we may not write; the OS says why.
     fs.accessSync(path.dirname(target), fs.constants.W_OK);
+    // Partial copies of this target left by a killed earlier backup (with their journals).
+    clearLeftovers(path.dirname(target), new RegExp(`^${escapeRegExp(path.basename(target))}\\.partial-(\\d+)-[0-9a-f]{8}(?:-journal|-wal|-shm)?$`));
     await source.backup(partial, {
       progress({ totalPages, remainingPages }) {
         if (totalPages > 0) onProgress?.(Math.round(((totalPages - remainingPages) / totalPages) * 100));

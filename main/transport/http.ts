@@ -185,12 +185,22 @@ function targetPath(target: string | undefined, allowedHosts: Set<string>): stri
  * What a malformed request line, bad or oversized headers, a malformed body encoding or a
  * timeout earn: a bare status line, then the connection closes. Node's parser reports
  * these on the server rather than the request, so they never reach the request handler.
- * `mayAnswer` is false when the status line could land inside, or in place of, the answer
- * to an earlier request on the same connection (pipelining): the connection is dropped.
+ * `earlier` are the answers still being given to requests read whole before the broken
+ * one on the same connection (pipelining): the status line waits until they are sent, so
+ * it never lands inside one, and a caller whose write was carried out learns so.
  */
-function answerClientError(err: NodeJS.ErrnoException, socket: Duplex, mayAnswer: boolean): void {
-  if (err.code === 'ECONNRESET' || !socket.writable || !mayAnswer) {
+function answerClientError(err: NodeJS.ErrnoException, socket: Duplex, earlier: readonly http.ServerResponse[]): void {
+  if (err.code === 'ECONNRESET' || !socket.writable) {
     socket.destroy();
+    return;
+  }
+  if (earlier.length > 0) {
+    let left = earlier.length;
+    for (const res of earlier) {
+      res.once('close', () => {
+        if (--left === 0) answerClientError(err, socket, []);
+      });
+    }
     return;
   }
   const status =
@@ -321,9 +331,10 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
     }
   });
   server.on('clientError', (err: NodeJS.ErrnoException, socket: Duplex) => {
-    // Only the request whose own body broke may be answered, and only before its answer began.
-    const pending = [...(inFlight.get(socket) ?? [])];
-    answerClientError(err, socket, pending.every(({ req, res }) => !req.complete && !res.headersSent));
+    // A request whose own body broke and whose answer has not begun is answered by the status
+    // line; requests read whole before it (or already being answered) get their answers first.
+    const earlier = [...(inFlight.get(socket) ?? [])].filter(({ req, res }) => req.complete || res.headersSent).map(({ res }) => res);
+    answerClientError(err, socket, earlier);
   });
 
   await new Promise<void>((resolve, reject) => {

@@ -163,12 +163,20 @@ export interface CostLossCase {
 }
 
 /**
+ * A summed cost, or null when the sum is larger than a double holds: each cost may be any
+ * finite number, and two near Number.MAX_VALUE add up to Infinity, which is no total.
+ */
+function representable(total: number): number | null {
+  return Number.isFinite(total) ? total : null;
+}
+
+/**
  * Decisions and realised costs over scored questions (SCORING.md "Consequences"): each
  * question has its own threshold α = FA/(FA + M) and the forecast says act when p > α
  * (Thompson 1952; Murphy 1977). Returns the 2×2 table, H, F, Peirce, and the summed
  * costs of the user's decisions, of acting when the base rate exceeds α (questions
  * without one use the sample frequency ō), of always acting, and of never acting.
- * Perfect foresight costs 0 and is not listed.
+ * Perfect foresight costs 0 and is not listed. A total larger than a double holds is null.
  *
  * @param cases scored questions (may be empty: counts and costs are then 0, rates null)
  */
@@ -216,9 +224,9 @@ export function costLossDecisions(cases: readonly CostLossCase[]): DecisionSumma
     hit_rate: hitRate(t),
     false_alarm_rate: falseAlarmRate(t),
     peirce: peirceSkillScore(t),
-    cost,
-    cost_base_rate: costBaseRate,
-    cost_always: costAlways,
-    cost_never: costNever,
+    cost: representable(cost),
+    cost_base_rate: representable(costBaseRate),
+    cost_always: representable(costAlways),
+    cost_never: representable(costNever),
   };
 }

@@ -107,10 +107,11 @@ export interface DecisionSummary {
   hit_rate: number | null;
   false_alarm_rate: number | null;
   peirce: number | null;
-  cost: number;
-  cost_base_rate: number;
-  cost_always: number;
-  cost_never: number;
+  /** Summed costs; null when a total is larger than a double holds (about 1.8e308). */
+  cost: number | null;
+  cost_base_rate: number | null;
+  cost_always: number | null;
+  cost_never: number | null;
 }
 
 export interface ValuePoint {

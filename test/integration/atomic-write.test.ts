@@ -4,7 +4,7 @@
  * there is left exactly as it was and no temporary file is left beside it.
  */
 import assert from 'node:assert/strict';
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
@@ -71,6 +71,37 @@ test('when the system refuses more bytes mid-write (file size limit), the old fi
   );
   assert.equal(fs.readFileSync(file, 'utf8'), OLD);
   assert.deepEqual(fs.readdirSync(dir), ['diary.json']);
+});
+
+test('the temporary file of a write killed half way (SIGKILL) is cleared by the next write of that file; one still being written is not', async () => {
+  const dir = tempDir();
+  const file = path.join(dir, 'diary.json');
+  fs.writeFileSync(file, OLD);
+  // A writer that stalls after its first chunk, so it is killed with its temporary file on disk.
+  const script = `
+    import { writeFileAtomic } from ${JSON.stringify(path.join(ROOT, 'main', 'files', 'atomic-write.ts'))};
+    writeFileAtomic(process.argv[1], (function* () { yield 'x'.repeat(1 << 20); console.log('started'); Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 60000); yield 'never'; })());`;
+  const stalled = () => {
+    const child = spawn(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script, file], { cwd: ROOT, stdio: ['ignore', 'pipe', 'inherit'] });
+    return new Promise<typeof child>((resolve) => child.stdout!.once('data', () => resolve(child)));
+  };
+  const killed = await stalled();
+  const exited = new Promise((resolve) => killed.once('exit', resolve));
+  killed.kill('SIGKILL');
+  await exited;
+  assert.equal(fs.readdirSync(dir).length, 2, 'the killed write left its temporary file (and the old file intact)');
+  assert.equal(fs.readFileSync(file, 'utf8'), OLD);
+
+  const running = await stalled();
+  try {
+    const live = fs.readdirSync(dir).filter((name) => name.includes(`.${running.pid}-`));
+    assert.equal(live.length, 1);
+    writeFileAtomic(file, 'new\n');
+    assert.equal(fs.readFileSync(file, 'utf8'), 'new\n');
+    assert.deepEqual(fs.readdirSync(dir).sort(), [...live, 'diary.json'].sort(), 'only the live writer’s file is left');
+  } finally {
+    running.kill('SIGKILL');
+  }
 });
 
 test('the replaced file keeps its permissions; a symbolic link keeps pointing at the new content', () => {

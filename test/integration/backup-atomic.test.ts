@@ -54,6 +54,18 @@ test('a backup killed half-way leaves the earlier good copy under the target nam
   await killedMidBackup(db, fresh);
   assert.equal(fs.existsSync(fresh), false, 'no partial file under the target name');
   assert.ok(!fs.readdirSync(dir).some((name) => name.endsWith('.sqlite') && name.startsWith('fresh')), fs.readdirSync(dir).join(', '));
+
+  // The killed copies' partial files (megabytes each) are cleared by the next backup to the same name.
+  assert.ok(fs.readdirSync(dir).some((name) => name.startsWith('fresh.sqlite.partial-')), 'the killed backup left its partial file');
+  const again = openDiary({ dbPath: db });
+  await again.backupTo(fresh);
+  await again.backupTo(kept);
+  again.close();
+  assert.deepEqual(
+    fs.readdirSync(dir).filter((name) => name.includes('.partial')),
+    [],
+    'no partial file is left once each target has been written again',
+  );
 });
 
 test('a backup that fails half-way leaves the target as it was and cleans up after itself', async () => {

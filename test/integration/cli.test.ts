@@ -77,6 +77,28 @@ test('export → import → export is identical', () => {
   assert.ok(parsed.questions.length >= 24);
 });
 
+test('export FILE without --format writes what the name says, like import reads it: diary.csv is CSV and imports again', () => {
+  const dir = tempDir();
+  const a = path.join(dir, 'a.sqlite');
+  const b = path.join(dir, 'b.sqlite');
+  assert.equal(forelog('demo', '--db', a).status, 0);
+  const csv = path.join(dir, 'diary.CSV');
+  assert.equal(forelog('export', csv, '--db', a).status, 0);
+  assert.equal(fs.readFileSync(csv, 'utf8'), forelog('export', '--format', 'csv', '--db', a).stdout);
+  const imported = forelog('import', csv, '--db', b);
+  assert.equal(imported.status, 0, imported.stderr);
+  assert.equal(forelog('export', '--format', 'csv', '--db', b).stdout, fs.readFileSync(csv, 'utf8'));
+  const ics = path.join(dir, 'diary.ics');
+  assert.equal(forelog('export', ics, '--db', a).status, 0);
+  assert.match(fs.readFileSync(ics, 'utf8'), /^BEGIN:VCALENDAR/);
+  const other = path.join(dir, 'diary.txt');
+  assert.equal(forelog('export', other, '--db', a).status, 0);
+  assert.equal(JSON.parse(fs.readFileSync(other, 'utf8')).format, 'forelog-diary');
+  const forced = path.join(dir, 'forced.csv');
+  assert.equal(forelog('export', forced, '--format', 'json', '--db', a).status, 0);
+  assert.equal(JSON.parse(fs.readFileSync(forced, 'utf8')).format, 'forelog-diary', '--format still decides');
+});
+
 test('export --format csv and ics: one row per revision; one calendar event per open question', () => {
   const db = path.join(tempDir(), 'd.sqlite');
   assert.equal(forelog('demo', '--db', db).status, 0);
@@ -308,4 +330,52 @@ test('export to a reader that stops early (| head) ends quietly', () => {
   assert.equal(r.stdout, 'question_i');
   assert.equal(r.stderr, '');
   assert.equal(r.status, 0);
+});
+
+test('score: costs too large to add up are null in --json and say so in the summary; large costs and counts are digit-grouped', () => {
+  const dir = tempDir();
+  const resolved = (n: number, outcome: 'yes' | 'no', miss: number) => ({
+    ...good(n),
+    costs: { false_alarm: 1_234_567, miss },
+    resolution: { outcome, at: '2026-03-01T12:00:00Z', note: '' },
+  });
+  // Two Yes questions whose miss costs are each near the largest double: never acting costs
+  // more than a double holds (1e308 + 1e308 is Infinity), which JSON cannot write.
+  const huge = path.join(dir, 'huge.sqlite');
+  const hugeFile = path.join(dir, 'huge.json');
+  fs.writeFileSync(hugeFile, diaryFile([resolved(1, 'yes', 1e308), resolved(2, 'yes', 1e308), resolved(3, 'no', 1e308)]));
+  assert.equal(forelog('import', hugeFile, '--db', huge).status, 0);
+  const json = forelog('score', '--json', '--db', huge);
+  assert.equal(json.status, 0, json.stderr);
+  const decisions = JSON.parse(json.stdout).decisions;
+  assert.equal(decisions.cost_never, null, 'an overflowing total is null, not a number JSON turned into null by accident');
+  assert.equal(decisions.cost_always, 1_234_567);
+  const text = forelog('score', '--db', huge);
+  assert.equal(text.status, 0, text.stderr);
+  assert.doesNotMatch(text.stdout, /Infinity|NaN/);
+  assert.match(text.stdout, /never too large to add up/);
+  assert.match(text.stdout, /always act 1,234,567\.00/);
+});
+
+test('an option given twice, a --port that is not plain digits, and a bare date for --at are refused with what to write instead', () => {
+  const dir = tempDir();
+  const db = path.join(dir, 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const twice = forelog('score', '--tag', 'renewals', '--tag', 'delivery', '--db', db);
+  assert.equal(twice.status, 1);
+  assert.equal(twice.stdout, '');
+  assert.match(twice.stderr, /^forelog: --tag is given twice/);
+  assert.equal(twice.stderr.trim().split('\n').length, 1);
+  const otherDb = forelog('score', '--db', db, '--db', path.join(dir, 'other.sqlite'));
+  assert.equal(otherDb.status, 1);
+  assert.match(otherDb.stderr, /--db is given twice/);
+  assert.equal(fs.existsSync(path.join(dir, 'other.sqlite')), false);
+  for (const port of ['1e3', '0x50', ' 80', '', '+80', '80.0']) {
+    const r = forelog('serve', '--port', port, '--db', db);
+    assert.equal(r.status, 1, `--port "${port}" must be refused, not served: ${r.stdout}`);
+    assert.match(r.stderr, /^forelog: --port must be a whole number from 0 to 65535/);
+  }
+  const bare = forelog('due', '--at', '2026-01-01', '--db', db);
+  assert.equal(bare.status, 1);
+  assert.match(bare.stderr, /^forelog: --at takes a time, not a bare date/);
 });

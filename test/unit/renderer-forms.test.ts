@@ -10,7 +10,8 @@ import assert from 'node:assert/strict';
 import { createQuestionRequest, settingsPatch } from '../../shared/contract';
 import { plainReason, placeReasons, schemaReasons } from '../../renderer/src/fieldMessages';
 import { percentAdvice, percentToProbability } from '../../renderer/src/percent';
-import { identityRows, score3 } from '../../renderer/src/screens/scorecard/format';
+import { cost, identityRows, score3 } from '../../renderer/src/screens/scorecard/format';
+import { formatCount } from '../../renderer/src/dates';
 
 test('0% and 100% are saved but warned about, with the value the log score uses', () => {
   assert.deepEqual(percentAdvice('0'), {
@@ -96,4 +97,12 @@ test('the Brier identity turns a negative term’s operator round instead of wri
   const t = { rel: 0.05, res: 0.02, unc: 0.24, wbv: 0.003, wbc: -0.002 };
   const sum = identityRows(t).reduce((acc, r) => (r.op === '\u2212' ? acc - r.value : acc + r.value), 0);
   assert.equal(sum, t.rel - t.res + t.unc + t.wbv - t.wbc);
+});
+
+test('a total cost is digit-grouped like every count, and one too large to add up says so instead of "Infinity"', () => {
+  assert.equal(cost(1_234_567.891), formatCount(1_234_567.89));
+  assert.notEqual(cost(1_234_567), '1234567');
+  assert.equal(cost(7), '7');
+  assert.equal(cost(0.125), formatCount(0.13));
+  assert.equal(cost(null), 'too large to add up');
 });

@@ -140,3 +140,15 @@ test('cost-loss inputs are validated', () => {
   assert.throws(() => hitRate({ hits: -1, false_alarms: 0, misses: 0, correct_rejections: 0 }), RangeError);
   assert.throws(() => relativeValue(1.5, 0.5, 0.5, 0.5), RangeError);
 });
+
+test('a summed cost larger than a double holds is null, not Infinity; the decisions themselves still count', () => {
+  const big = Number.MAX_VALUE;
+  const d = costLossDecisions([
+    { p: 0.1, o: 1, false_alarm: big, miss: big, base_rate: null },
+    { p: 0.2, o: 1, false_alarm: big, miss: big, base_rate: null },
+  ]);
+  assert.equal(d.misses, 2);
+  assert.equal(d.cost, null);
+  assert.equal(d.cost_never, null);
+  assert.equal(d.cost_always, 0);
+});

@@ -13,7 +13,8 @@ import { cost } from './format';
 export interface PolicyCost {
   policy: 'yours' | 'base_rate' | 'always' | 'never' | 'perfect';
   label: string;
-  cost: number;
+  /** Null when the total is larger than a double holds: no bar, and the table says why. */
+  cost: number | null;
 }
 
 export function policyCosts(d: DecisionSummary): PolicyCost[] {

@@ -46,9 +46,12 @@ export function questions(n: number): string {
   return `${formatCount(n)} question${n === 1 ? '' : 's'}`;
 }
 
-/** A cost in the user's own units: whole numbers as such, otherwise up to two decimals. */
-export function cost(x: number): string {
-  return Number.isInteger(x) ? String(x) : String(Number(x.toFixed(2)));
+/**
+ * A cost in the user's own units, digits grouped: whole numbers as such, otherwise up to
+ * two decimals. A total too large to add up (null: larger than a double holds) says so.
+ */
+export function cost(x: number | null): string {
+  return x === null ? 'too large to add up' : formatCount(Number(x.toFixed(2)));
 }
 
 /** A probability bin (index 0–10) by its centre: "90%". */
