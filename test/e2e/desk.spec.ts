@@ -266,6 +266,15 @@ test('once the last item is answered the Desk says nothing is due', async ({ bro
     await expectCount(page, 0);
     await expect(page.getByRole('heading', { level: 1, name: 'Desk' })).toBeFocused();
     await expect(page.getByRole('link', { name: 'See all questions' })).toHaveAttribute('href', '#/questions');
+    // The link's words sit on the button's middle line, not level with its top edge.
+    const textMiddle = (name: string) =>
+      page.getByRole(name === 'See all questions' ? 'link' : 'button', { name }).evaluate((el) => {
+        const range = document.createRange();
+        range.selectNodeContents(el);
+        const box = range.getBoundingClientRect();
+        return box.top + box.height / 2;
+      });
+    expect(Math.abs((await textMiddle('See all questions')) - (await textMiddle('Write a new question')))).toBeLessThanOrEqual(2);
     await expectNoSeriousViolations(page, 'the empty Desk');
     expect(app.problems).toEqual([]);
   } finally {

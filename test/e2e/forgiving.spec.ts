@@ -70,6 +70,8 @@ test('resolving from the Desk is undone from its toast, by keyboard, and the ite
     await expect(done.getByRole('button', { name: 'Undo' })).toBeFocused();
     await page.keyboard.press('Enter');
     await expect(toast(page, `Undone: “${TITLES.closed}” is back as it was.`)).toBeVisible();
+    // Undone from the Desk, the toast links to the question.
+    await expect(toast(page, `Undone: “${TITLES.closed}” is back as it was.`).getByRole('link', { name: 'Open question' })).toBeVisible();
     await expect(deskItem(page, TITLES.closed)).toBeVisible();
     const back = await call<Question>('getQuestion', { id: ids.closed });
     expect(back.resolution).toBeNull();

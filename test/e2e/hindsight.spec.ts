@@ -204,6 +204,13 @@ test('the tag filter narrows the list; a tag without confident misses says so an
   await expect(page.getByTestId('hindsight-empty')).toHaveText(
     `No confident misses at 80% in this selection — that is good news, or a small sample: n = ${renewals.report.scored}.`,
   );
+
+  // A single scored question is counted in the singular.
+  const halloway = await hindsight({ tag: 'client:halloway' });
+  expect(halloway.report.scored, 'client:halloway has one scored question in the example diary').toBe(1);
+  await page.getByLabel('Tag', { exact: true }).selectOption('client:halloway');
+  await settled(page);
+  await expect(page.getByTestId('hindsight-count')).toContainText('among n = 1 scored question. Confident at 80%');
 });
 
 test('the date range filters by window end', async ({ browser }) => {

@@ -3,12 +3,12 @@
  * reference source are each one unbroken word as long as the diary allows (a 300-character
  * title, a 64-character tag, a 200-character source), no screen is wider than the window at
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
- * decomposition, the numeric questions' scores) and the question list's close times and figures fit their cells, and the
- * base-rate card shows its whole note. Screens are
- * photographed at both sizes; the long question's page is scanned by axe in light and dark.
- * At 800×600 the question list leaves most of a row to the question and the skill table room
- * for its readings; a toast naming the 300-character title cuts the quote short and stays a
- * few lines tall.
+ * decomposition, the numeric questions' scores, a choice question's history) fit their cards,
+ * the question list's close times and figures fit their cells, and the base-rate card shows
+ * its whole note. Screens are photographed at both sizes; the long question's page is scanned
+ * by axe in light and dark. At 800×600 the question list leaves most of a row to the question
+ * and the skill table room for its readings; a toast naming the 300-character title cuts the
+ * quote short and stays a few lines tall.
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Question } from '../../shared/domain';
@@ -77,6 +77,8 @@ const SCREENS: Screen[] = [
   { name: 'questions', hash: () => 'questions', ready: (page) => expect(page.getByText(word(300, 'x')).first()).toBeVisible() },
   { name: 'question-open', hash: () => `questions/${encodeURIComponent(open.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   { name: 'question-resolved', hash: () => `questions/${encodeURIComponent(resolved.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
+  // A choice question whose four options are long headings ("More than 6 weeks late").
+  { name: 'question-choice', hash: () => 'questions/demo-tollmere-booking-slip', ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   { name: 'scorecard', hash: () => 'scorecard', ready: (page) => expect(page.locator('[data-scorecard-ready="true"]')).toBeVisible() },
   { name: 'hindsight', hash: () => 'hindsight', ready: (page) => expect(page.locator('[data-hindsight-ready="true"]')).toBeVisible() },
   { name: 'settings', hash: () => 'settings', ready: heading },

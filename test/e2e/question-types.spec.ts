@@ -207,7 +207,8 @@ test('a date question is drawn on a date axis and resolved with a date; the Desk
   });
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Desk' }).click();
   const card = page.locator(`[data-desk-item="${created.id}"]`);
-  await expect(card.getByTestId('desk-typed-last')).toHaveText('Last forecast 28 Nov 2026 (20 Nov 2026 – 15 Dec 2026)');
+  // The same line as a yes/no card's, under the title with how old the forecast is.
+  await expect(card.locator('.desk-item__facts').getByTestId('desk-typed-last')).toHaveText('Last forecast 28 Nov 2026 (20 Nov 2026 – 15 Dec 2026), 39 days ago');
   await card.getByRole('button', { name: 'Resolve…' }).click();
   const resolve = page.getByRole('dialog', { name: 'Resolve the question' });
   await resolve.getByRole('textbox', { name: 'Date it happened' }).fill('2026-12-01');

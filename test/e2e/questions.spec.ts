@@ -190,6 +190,12 @@ test('a revision and a question are deleted only after confirmation', async () =
   await confirmRevision.getByRole('button', { name: 'Delete' }).click();
   await expect(page.getByTestId('revision-p')).toHaveText(['35%']);
   await expect(page.getByTestId('toast').filter({ hasText: 'Revision deleted.' })).toBeVisible();
+  // Undone from the question's own page: the toast does not offer to open the page already open.
+  await page.getByTestId('toast').filter({ hasText: 'Revision deleted.' }).getByRole('button', { name: 'Undo' }).click();
+  const undone = page.getByTestId('toast').filter({ hasText: 'Undone: “Budget approved in Q3” is back as it was.' });
+  await expect(undone).toBeVisible();
+  await expect(undone.getByRole('link', { name: 'Open question' })).toHaveCount(0);
+  await expect(page.getByTestId('revision-p')).toHaveText(['35%', '45%']);
 
   await page.getByRole('button', { name: 'Delete', exact: true }).click();
   const confirm = page.getByRole('alertdialog', { name: 'Delete this question?' });

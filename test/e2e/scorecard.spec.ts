@@ -229,6 +229,28 @@ test('the tag and date filters change every figure to the filtered scorecard', a
   }
 });
 
+test('one scored question is counted in the singular', async ({ browser }) => {
+  const { tags } = await callApi('listQuestions', {});
+  let tag = '';
+  for (const t of tags) {
+    if ((await score({ tag: t.tag })).report.scored === 1) {
+      tag = t.tag;
+      break;
+    }
+  }
+  expect(tag, 'the example diary has a tag with one scored question').not.toBe('');
+  const app = await openApp(browser, server());
+  try {
+    await openScorecard(app);
+    await app.page.getByLabel('Tag', { exact: true }).selectOption(tag);
+    await waitReady(app.page, tag);
+    await expect(app.page.getByTestId('decision-table').locator('caption')).toHaveText('What acting on your forecasts would have meant (1 scored question)');
+    expect(app.problems, 'the page logged errors').toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
 test('what-if costs move the threshold and the 2×2 table; default costs are saved to the diary', async ({ browser }) => {
   const settings = await callApi('getSettings', {});
   const base = await score({});

@@ -11,7 +11,7 @@ import { api } from '../api/client';
 import { diaryChanged } from '../api/changes';
 import { describeError } from '../api/errors';
 import { useToast } from '../components/Toast';
-import { hrefTo, questionPath } from '../routing';
+import { hrefTo, parseRoute, questionPath } from '../routing';
 import { undoneMessage, undoSteps } from './undoSteps';
 
 export interface UndoableChange {
@@ -40,9 +40,12 @@ export function useUndoToast(): (change: UndoableChange) => void {
         try {
           const result = await undoSteps(tokens, (token) => api.undo({ token }));
           change.afterUndo?.(result);
+          // A link to the question, unless its page is the one open (undone from the page itself).
+          const path = result.question ? questionPath(result.question.id) : null;
+          const elsewhere = path !== null && parseRoute(window.location.hash).path !== path;
           toast.show({
             message: undoneMessage(result, change.title),
-            ...(result.question ? { action: { label: 'Open question', href: hrefTo(questionPath(result.question.id)) } } : {}),
+            ...(path !== null && elsewhere ? { action: { label: 'Open question', href: hrefTo(path) } } : {}),
           });
         } catch (error) {
           toast.show({ tone: 'error', message: `Could not undo: ${describeError(error)}` });

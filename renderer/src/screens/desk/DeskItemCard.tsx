@@ -18,11 +18,12 @@ import { OUTCOME_LABELS } from '../../components/StatusPill';
 import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { useForm } from '../../forms';
+import type { TypedQuestion } from '../question/TypedEntryDialog';
 import { formatPercent, percentText, percentToProbability } from '../../percent';
 import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
 import { hrefTo, questionPath } from '../../routing';
 import { dueKinds, type DeskItem } from './items';
-import { TypedDeskActions } from './TypedDeskActions';
+import { TypedDeskActions, typedLast, useTypedQuestion } from './TypedDeskActions';
 import { ago, checkinPhrase, closedPhrase, closingPhrase, dayWord, clockTime, overduePhrase } from './wording';
 
 const STALE_EXPLANATION = 'well above its glide path and not revised for longer than its check-in cadence';
@@ -54,6 +55,7 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
   const [revision, setRevision] = useState<RevisionDraft>(() => ({ p: percentText(item.last_p), note: '' }));
   const href = hrefTo(questionPath(item.id));
   const toResolve = item.group === 'resolve';
+  const typed = useTypedQuestion(item);
 
   // After an action the item stays disabled until the Desk's next answer replaces it (it
   // leaves, moves, or stays with new facts), so a second click cannot repeat the action.
@@ -94,11 +96,11 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
         <h3 className="desk-item__title" id={titleId}>
           <a href={href}>{item.title}</a>
         </h3>
-        <Facts item={item} now={now} />
+        <Facts item={item} typed={typed} now={now} />
       </div>
       <div className="desk-item__actions">
         {item.type !== 'binary' ? (
-          <TypedDeskActions item={item} toResolve={toResolve} disabled={busy} onDone={finish} />
+          <TypedDeskActions item={item} q={typed} toResolve={toResolve} disabled={busy} onDone={finish} />
         ) : toResolve ? (
           <ResolveButtons
             item={item}
@@ -133,15 +135,14 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
   );
 }
 
-/** Why it is due, the last number, and the stale flag. */
-function Facts({ item, now }: { item: DeskItem; now: number }) {
+/** Why it is due, the last forecast and how old it is (any type of question), and the stale flag. */
+function Facts({ item, typed, now }: { item: DeskItem; typed: TypedQuestion | undefined; now: number }) {
   const close = Date.parse(item.closes_at);
   const zone = item.time_zone;
   const lines: string[] = [];
   if (item.due.overdue || item.due.window_closed) lines.push(closedPhrase(close, now, zone));
   if (item.due.closing_soon) lines.push(closingPhrase(close, now, zone));
   if (item.due.checkin) lines.push(checkinPhrase(Date.parse(item.due.checkin), now, zone));
-  const last = item.last_forecast_at ? Date.parse(item.last_forecast_at) : null;
   return (
     <div className="desk-item__facts">
       {item.due.overdue ? (
@@ -152,27 +153,40 @@ function Facts({ item, now }: { item: DeskItem; now: number }) {
           {line}
         </p>
       ))}
-      {/* A choice or numeric question's last forecast is shown beside its actions (TypedDeskActions). */}
       {item.type === 'binary' ? (
-        <p className="desk-item__last">
-          {item.last_p === null || last === null ? (
-            'No forecast yet'
-          ) : (
-            <>
-              Last forecast <strong className="desk-item__p">{formatPercent(item.last_p)}</strong>,{' '}
-              <time dateTime={item.last_forecast_at ?? undefined} title={`${dayWord(last, now, zone)} ${clockTime(last, zone)}`}>
-                {ago(last, now)}
-              </time>
-            </>
-          )}
+        <LastForecast text={item.last_p === null ? null : formatPercent(item.last_p)} at={item.last_forecast_at} now={now} zone={zone} />
+      ) : typed === undefined ? (
+        <p className="desk-item__last" data-testid="desk-typed-last">
+          …
         </p>
-      ) : null}
+      ) : (
+        <LastForecast {...(typedLast(typed) ?? { text: null, at: null })} now={now} zone={zone} testId="desk-typed-last" />
+      )}
       {item.stale ? (
         <p className="desk-item__stale">
           <Badge tone="amber">Stale</Badge> <span>Its forecast is {STALE_EXPLANATION}.</span>
         </p>
       ) : null}
     </div>
+  );
+}
+
+/** "Last forecast 45%, 27 days ago": the same line for a percent, an option or a range. */
+function LastForecast({ text, at, now, zone, testId }: { text: string | null; at: string | null; now: number; zone: string; testId?: string }) {
+  const when = at ? Date.parse(at) : null;
+  return (
+    <p className="desk-item__last" data-testid={testId}>
+      {text === null || when === null ? (
+        'No forecast yet'
+      ) : (
+        <>
+          Last forecast <strong className="desk-item__p">{text}</strong>,{' '}
+          <time dateTime={at ?? undefined} title={`${dayWord(when, now, zone)} ${clockTime(when, zone)}`}>
+            {ago(when, now)}
+          </time>
+        </>
+      )}
+    </p>
   );
 }
 

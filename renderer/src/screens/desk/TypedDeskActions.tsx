@@ -1,8 +1,9 @@
 /**
- * The Desk's answers for a choice or numeric question: its last forecast in a few words, and
- * buttons that open the question's own dialogs — Revise (a percentage per option, or a value
- * per level) and Resolve (pick the option, or enter the value). The question is read when
- * the card appears, since a due nudge carries only a yes/no probability.
+ * The Desk's answers for a choice or numeric question: buttons that open the question's own
+ * dialogs — Revise (a percentage per option, or a value per level) and Resolve (pick the
+ * option, or enter the value) — and its last forecast in a few words, shown with the card's
+ * other facts. The question is read when the card appears (`useTypedQuestion`), since a due
+ * nudge carries only a yes/no probability.
  */
 import { useState } from 'react';
 import { api } from '../../api/client';
@@ -16,29 +17,42 @@ import { latestEntry } from '../question/typedFacts';
 import type { Done } from './DeskItemCard';
 import type { DeskItem } from './items';
 
-function lastText(q: TypedQuestion): string | null {
-  if (q.type === 'choice') {
-    const last = latestEntry(q.forecasts);
-    return last ? choiceSummary(q.options, last.probs) : null;
-  }
-  const last = latestEntry(q.forecasts);
-  return last ? numericSummary(q.levels, last.quantiles.map((v) => toStoredValue(v, q.value_kind)), q.value_kind, q.unit) : null;
+/** A choice or numeric item's question once read; undefined for a yes/no item, or until it arrives. */
+export function useTypedQuestion(item: DeskItem): TypedQuestion | undefined {
+  const loaded = useLoad(() => (item.type === 'binary' ? Promise.resolve(undefined) : api.getQuestion({ id: item.id })), [item.id, item.type]);
+  return loaded.data && loaded.data.type !== 'binary' ? loaded.data : undefined;
 }
 
-export function TypedDeskActions({ item, toResolve, disabled, onDone }: { item: DeskItem; toResolve: boolean; disabled: boolean; onDone: (done: Done) => void }) {
-  const loaded = useLoad(() => api.getQuestion({ id: item.id }), [item.id]);
+/** The last forecast in a few words ("Ambledene 60%", "13 weeks (9 – 20)") and when it was made; null with none. */
+export function typedLast(q: TypedQuestion): { text: string; at: string } | null {
+  if (q.type === 'choice') {
+    const last = latestEntry(q.forecasts);
+    return last ? { text: choiceSummary(q.options, last.probs), at: last.at } : null;
+  }
+  const last = latestEntry(q.forecasts);
+  return last ? { text: numericSummary(q.levels, last.quantiles.map((v) => toStoredValue(v, q.value_kind)), q.value_kind, q.unit), at: last.at } : null;
+}
+
+export function TypedDeskActions({
+  item,
+  q,
+  toResolve,
+  disabled,
+  onDone,
+}: {
+  item: DeskItem;
+  q: TypedQuestion | undefined;
+  toResolve: boolean;
+  disabled: boolean;
+  onDone: (done: Done) => void;
+}) {
   const [dialog, setDialog] = useState<'revise' | 'resolve' | null>(null);
-  const q = loaded.data && loaded.data.type !== 'binary' ? loaded.data : undefined;
-  const last = q ? lastText(q) : null;
   const saved = (message: string, undo: string) => {
     setDialog(null);
     onDone({ message: `“${item.title}”: ${message}`, undo: [undo] });
   };
   return (
     <>
-      <p className="desk-item__last desk-item__last--typed" data-testid="desk-typed-last">
-        {q === undefined ? '…' : last === null ? 'No forecast yet' : <>Last forecast <strong className="desk-item__p">{last}</strong></>}
-      </p>
       <Button size="sm" variant="primary" disabled={disabled || q === undefined} onClick={() => setDialog(toResolve ? 'resolve' : 'revise')}>
         {toResolve ? 'Resolve…' : 'Revise…'}
       </Button>

@@ -178,7 +178,7 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
                   and <strong>{plural(hindsight.hits, 'confident hit', 'confident hits')}</strong>
                 </>
               ) : null}{' '}
-              among n = {formatCount(report.scored)} scored questions. Confident at {at}: a {confidentMeaning(threshold)}.
+              among n = {formatCount(report.scored)} scored {report.scored === 1 ? 'question' : 'questions'}. Confident at {at}: a {confidentMeaning(threshold)}.
             </p>
             <EntrySection
               id="hs-misses"

@@ -5,6 +5,7 @@
  */
 import { memo } from 'react';
 import type { DecisionSummary } from '../../../../shared/scoring/types';
+import { plural } from '../../tools/format';
 import { pct, score2 } from './format';
 
 export const DecisionTable = memo(function DecisionTable({ decisions: d }: { decisions: DecisionSummary }) {
@@ -15,7 +16,7 @@ export const DecisionTable = memo(function DecisionTable({ decisions: d }: { dec
       <div className="table-card">
         <table className="sc-contingency" data-testid="decision-table">
           <caption className="table-card__caption">
-            What acting on your forecasts would have meant ({yes + no} scored questions)
+            What acting on your forecasts would have meant ({plural(yes + no, 'scored question')})
           </caption>
           <thead>
             <tr>
