@@ -16,7 +16,7 @@ import { ErrorBanner } from '../../components/ErrorBanner';
 import { FilePicker } from '../../components/FilePicker';
 import { useToast } from '../../components/Toast';
 import { ImportOverlap, type OverlappingFile } from './ImportOverlap';
-import { formatCount } from '../../dates';
+import { formatCount, plural } from '../../dates';
 
 type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
@@ -39,10 +39,6 @@ function saveAs(text: string, fileName: string, mediaType: string): void {
   link.click();
   link.remove();
   window.setTimeout(() => URL.revokeObjectURL(url), REVOKE_AFTER_MS);
-}
-
-function plural(n: number, word: string): string {
-  return `${n} ${word}${n === 1 ? '' : 's'}`;
 }
 
 export function DataSection() {
