@@ -10,7 +10,7 @@ import { isCheckout, staleReason } from '../scripts/freshness.mjs';
 import { ApiError, parseRequest, type DueList, type ImportResult } from '../shared/contract';
 import { NUDGE_KIND_NAMES } from '../shared/domain';
 import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
-import { writeToDescriptor, type Chunk } from './files/atomic-write';
+import { FileWriteError, writeToDescriptor, type Chunk } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
@@ -65,11 +65,25 @@ class UsageError extends Error {}
 /** Set when stdout's reader went away (`forelog export | head`): the rest is not wanted. */
 class StdoutClosed extends Error {}
 
+/** Standard output refused the result (a full disk behind `> file`): about the output, never the diary. */
+class OutputError extends Error {}
+
+const OUTPUT_FIXES: Record<string, string> = {
+  ENOSPC: 'the disk is full; free some space or send the output to another disk',
+  EDQUOT: 'your disk quota is used up; free some space or send the output to another disk',
+  EFBIG: 'the output is larger than this system allows files to be; send it to another disk',
+  EIO: 'the disk reported an error; check it and try again',
+};
+
 function writeStdout(text: Chunk): void {
   try {
     writeToDescriptor(1, text);
   } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'EPIPE') throw new StdoutClosed();
+    const { code, syscall } = err as NodeJS.ErrnoException;
+    if (code === 'EPIPE') throw new StdoutClosed();
+    if (typeof syscall === 'string') {
+      throw new OutputError(`Could not write to standard output: ${OUTPUT_FIXES[code ?? ''] ?? (err as Error).message} (${code ?? 'error'}); the diary is unchanged`);
+    }
     throw err;
   }
 }
@@ -413,7 +427,9 @@ async function run(argv: string[]): Promise<void> {
 const argv = process.argv.slice(2);
 run(argv).catch((err: unknown) => {
   // A failure of the diary file itself (busy, read-only, disk full, damaged) reads as the app says it.
-  const failure = err instanceof UsageError || err instanceof ApiError ? null : storeFailure(err, path.resolve(dbPathOf(argv)));
+  // A file being written (an export, a copy) that fails says so itself, naming that file.
+  const aboutOutput = err instanceof FileWriteError || err instanceof OutputError;
+  const failure = err instanceof UsageError || err instanceof ApiError || aboutOutput ? null : storeFailure(err, path.resolve(dbPathOf(argv)));
   if (err instanceof StdoutClosed) return;
   const message =
     err instanceof UsageError

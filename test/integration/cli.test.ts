@@ -365,3 +365,31 @@ test('an option given twice, a --port that is not plain digits, and a bare date 
   assert.equal(bare.status, 1);
   assert.match(bare.stderr, /^forelog: --at takes a time, not a bare date/);
 });
+
+test('an export that cannot be written because its output is full blames the output, not the diary', { skip: !fs.existsSync('/dev/full') && 'needs /dev/full' }, () => {
+  const dir = tempDir();
+  const db = path.join(dir, 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const before = forelog('export', '--db', db).stdout;
+  // A file on a full disk: /dev/full refuses every write with ENOSPC.
+  const toFile = forelog('export', '/dev/full', '--db', db);
+  assert.equal(toFile.status, 1);
+  assert.match(toFile.stderr, /^forelog: Could not write \/dev\/full: the disk is full/);
+  assert.doesNotMatch(toFile.stderr, /disk holding the diary/);
+  // Standard output redirected to a full disk.
+  const full = fs.openSync('/dev/full', 'w');
+  try {
+    const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), 'export', '--db', db], {
+      cwd: ROOT,
+      encoding: 'utf8',
+      stdio: ['ignore', full, 'pipe'],
+    });
+    assert.equal(r.status, 1);
+    assert.match(r.stderr, /^forelog: Could not write to standard output: the disk is full/);
+    assert.doesNotMatch(r.stderr, /disk holding the diary/);
+    assert.equal(r.stderr.trim().split('\n').length, 1);
+  } finally {
+    fs.closeSync(full);
+  }
+  assert.equal(forelog('export', '--db', db).stdout, before, 'the diary is unchanged');
+});
