@@ -371,10 +371,10 @@ async function run(argv: string[]): Promise<void> {
         const request = { tag: values.tag, from: onDiaryClock('from', values.from, zone, true), to: onDiaryClock('to', values.to, zone, true) };
         return s.diary.scoreReport(parseRequest('score', request));
       });
-      if (values.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      if (values.json) writeStdout(`${JSON.stringify(report, null, 2)}\n`);
       else {
         const note = [values.tag && `tag ${values.tag}`, values.from && `from ${values.from}`, values.to && `to ${values.to}`].filter(Boolean).join(', ');
-        process.stdout.write(formatScoreTable(report, note));
+        writeStdout(formatScoreTable(report, note));
       }
       return;
     }
@@ -388,8 +388,8 @@ async function run(argv: string[]): Promise<void> {
       if (values.json) {
         // Exactly the documented object (docs/command-line.md): instants in UTC.
         const out = { at: list.at, nudges: list.nudges.map((n) => ({ id: n.id, title: n.title, kind: n.kind, due_at: n.due_at })) };
-        process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
-      } else process.stdout.write(dueText(list, zone));
+        writeStdout(`${JSON.stringify(out, null, 2)}\n`);
+      } else writeStdout(dueText(list, zone));
       return;
     }
     case 'demo': {

@@ -392,4 +392,15 @@ test('an export that cannot be written because its output is full blames the out
     fs.closeSync(full);
   }
   assert.equal(forelog('export', '--db', db).stdout, before, 'the diary is unchanged');
+  // score and due print their result: when it cannot be written, they fail rather than report success.
+  for (const args of [['score'], ['score', '--json'], ['due', '--at', '2026-12-01T09:00Z'], ['due', '--json']]) {
+    const out = fs.openSync('/dev/full', 'w');
+    try {
+      const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), ...args, '--db', db], { cwd: ROOT, encoding: 'utf8', stdio: ['ignore', out, 'pipe'] });
+      assert.equal(r.status, 1, `${args.join(' ')}: ${r.stderr}`);
+      assert.match(r.stderr, /^forelog: Could not write to standard output: the disk is full/);
+    } finally {
+      fs.closeSync(out);
+    }
+  }
 });
