@@ -110,6 +110,13 @@ export async function backupTo(store: StoreHandles, file: string, onProgress?: (
 /** Checks that `file` is a Forelog diary this version can open; returns its question count. */
 export function inspectBackup(file: string): { questions: number; version: number } {
   if (!fs.existsSync(file)) throw new Error(`There is no file at ${file}. Check the path.`);
+  const stats = fs.statSync(file);
+  if (stats.isDirectory()) throw new Error(`${file} is a folder, not a backup copy; give the path of a backup file. Nothing was restored.`);
+  if (!stats.isFile()) {
+    // SQLite would wait on a named pipe for ever, or fail on a device in words about the diary.
+    const what = stats.isFIFO() ? 'a named pipe' : stats.isSocket() ? 'a socket' : 'a device';
+    throw new Error(`${file} is not a regular file (it is ${what}), not a backup copy; give the path of a backup file. Nothing was restored.`);
+  }
   let db: Database.Database | undefined;
   try {
     db = new Database(file, { readonly: true, fileMustExist: true });
@@ -126,6 +133,12 @@ export function inspectBackup(file: string): { questions: number; version: numbe
   } catch (err) {
     if (err instanceof Error && /file is not a database|SQLITE_NOTADB/i.test(err.message)) {
       throw new Error(`${file} is not a Forelog diary (not a SQLite database).`);
+    }
+    // SQLite's codes would otherwise be read as the diary's own trouble ("the diary is damaged").
+    const code = (err as { code?: unknown }).code;
+    if (typeof code === 'string' && code.startsWith('SQLITE_')) {
+      const what = /^SQLITE_(CORRUPT|IOERR_SHORT_READ)/.test(code) ? 'is damaged or incomplete' : 'could not be read';
+      throw new Error(`The backup copy ${file} ${what} (${code}); choose another backup. Nothing was restored; the diary is unchanged.`);
     }
     throw err;
   } finally {
