@@ -161,8 +161,14 @@ export function openStore(file: string, options: OpenStoreOptions = {}): StoreHa
   const canWrite = options.canWrite ?? canWriteFile;
   const exists = fs.existsSync(resolved);
   if (!exists && options.create === false) throw new StoreError('missing', resolved, describeProblem('missing', resolved));
-  if (exists && fs.statSync(resolved).isDirectory()) {
+  const stats = exists ? fs.statSync(resolved) : null;
+  if (stats?.isDirectory()) {
     throw new StoreError('not_a_diary', resolved, `${resolved} is a folder, not a diary file. Check the path (--db).`);
+  }
+  if (stats && !stats.isFile()) {
+    // SQLite would fail on it in words about the disk ("could not read or write").
+    const what = stats.isFIFO() ? 'a named pipe' : stats.isSocket() ? 'a socket' : 'a device';
+    throw new StoreError('not_a_diary', resolved, `${resolved} is not a regular file (it is ${what}), not a diary file. Check the path (--db).`);
   }
   if (exists && !canRead(resolved)) {
     throw new StoreError(
