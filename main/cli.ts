@@ -232,6 +232,15 @@ function noteCreated(created: boolean, location: string): void {
  * missing file, naming the path, and create nothing; commands that add data may start a
  * new diary, and say so.
  */
+/** True when the diary has no question (or not even the table yet: a new file whose setup failed). */
+function holdsNoQuestions(service: DiaryService): boolean {
+  try {
+    return service.store.read.prepare('SELECT count(*) FROM questions').pluck().get() === 0;
+  } catch {
+    return !service.store.read.prepare("SELECT 1 FROM sqlite_master WHERE name = 'questions'").get();
+  }
+}
+
 async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (service: DiaryService) => Promise<T>): Promise<T> {
   const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });
   const { created } = service.store;
@@ -239,9 +248,12 @@ async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (serv
   try {
     result = await fn(service);
   } catch (err) {
+    const empty = created && holdsNoQuestions(service);
     service.close();
-    // A diary made for a command that then added nothing (a refused import) is not left behind.
-    if (created) for (const suffix of ['', '-wal', '-shm']) fs.rmSync(`${service.location}${suffix}`, { force: true });
+    // A diary made for a command that then added nothing (a refused import) is not left
+    // behind, unless another process may be using it: its -wal file outlives our handles
+    // while any other connection has the diary open (SQLite removes it with the last one).
+    if (empty && !fs.existsSync(`${service.location}-wal`)) for (const suffix of ['', '-wal', '-shm']) fs.rmSync(`${service.location}${suffix}`, { force: true });
     throw err;
   }
   service.close();

@@ -156,6 +156,22 @@ function checkVersion(db: Db, file: string): number {
   return version;
 }
 
+/**
+ * Makes the empty file a new diary starts as, only if nothing is there: true when this
+ * process made it. Two processes racing to create one diary then agree on which of them
+ * did (an empty file is a valid empty SQLite database), where checking for the file first
+ * would let both believe it.
+ */
+function createdHere(file: string): boolean {
+  try {
+    fs.closeSync(fs.openSync(file, 'wx'));
+    return true;
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'EEXIST') return false;
+    throw err;
+  }
+}
+
 export function openStore(file: string, options: OpenStoreOptions = {}): StoreHandles {
   const resolved = path.resolve(file);
   const canWrite = options.canWrite ?? canWriteFile;
@@ -188,7 +204,7 @@ export function openStore(file: string, options: OpenStoreOptions = {}): StoreHa
         throw new StoreError('read_only', resolved, `Forelog cannot create a diary at ${resolved}: its folder is read-only. Choose a folder you can write to.`);
       }
     }
-    return exists && !canWrite(resolved) ? openReadOnly(resolved, options) : openWritable(resolved, !exists, options);
+    return exists && !canWrite(resolved) ? openReadOnly(resolved, options) : openWritable(resolved, !exists && createdHere(resolved), options);
   } catch (err) {
     throw toStoreError(err, resolved) ?? err;
   }
