@@ -11,7 +11,7 @@ import { ApiError, parseRequest, type DueList, type ImportResult } from '../shar
 import { NUDGE_KIND_NAMES } from '../shared/domain';
 import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
 import { version as VERSION } from '../package.json';
-import { writeToDescriptor, type Chunk } from './files/atomic-write';
+import { FileWriteError, writeToDescriptor, type Chunk } from './files/atomic-write';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
@@ -67,11 +67,25 @@ class UsageError extends Error {}
 /** Set when stdout's reader went away (`forelog export | head`): the rest is not wanted. */
 class StdoutClosed extends Error {}
 
+/** Standard output refused the result (a full disk behind `> file`): about the output, never the diary. */
+class OutputError extends Error {}
+
+const OUTPUT_FIXES: Record<string, string> = {
+  ENOSPC: 'the disk is full; free some space or send the output to another disk',
+  EDQUOT: 'your disk quota is used up; free some space or send the output to another disk',
+  EFBIG: 'the output is larger than this system allows files to be; send it to another disk',
+  EIO: 'the disk reported an error; check it and try again',
+};
+
 function writeStdout(text: Chunk): void {
   try {
     writeToDescriptor(1, text);
   } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'EPIPE') throw new StdoutClosed();
+    const { code, syscall } = err as NodeJS.ErrnoException;
+    if (code === 'EPIPE') throw new StdoutClosed();
+    if (typeof syscall === 'string') {
+      throw new OutputError(`Could not write to standard output: ${OUTPUT_FIXES[code ?? ''] ?? (err as Error).message} (${code ?? 'error'}); the diary is unchanged`);
+    }
     throw err;
   }
 }
@@ -221,6 +235,15 @@ function noteCreated(created: boolean, location: string): void {
  * missing file, naming the path, and create nothing; commands that add data may start a
  * new diary, and say so.
  */
+/** True when the diary has no question (or not even the table yet: a new file whose setup failed). */
+function holdsNoQuestions(service: DiaryService): boolean {
+  try {
+    return service.store.read.prepare('SELECT count(*) FROM questions').pluck().get() === 0;
+  } catch {
+    return !service.store.read.prepare("SELECT 1 FROM sqlite_master WHERE name = 'questions'").get();
+  }
+}
+
 async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (service: DiaryService) => Promise<T>): Promise<T> {
   const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });
   const { created } = service.store;
@@ -228,9 +251,12 @@ async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (serv
   try {
     result = await fn(service);
   } catch (err) {
+    const empty = created && holdsNoQuestions(service);
     service.close();
-    // A diary made for a command that then added nothing (a refused import) is not left behind.
-    if (created) for (const suffix of ['', '-wal', '-shm']) fs.rmSync(`${service.location}${suffix}`, { force: true });
+    // A diary made for a command that then added nothing (a refused import) is not left
+    // behind, unless another process may be using it: its -wal file outlives our handles
+    // while any other connection has the diary open (SQLite removes it with the last one).
+    if (empty && !fs.existsSync(`${service.location}-wal`)) for (const suffix of ['', '-wal', '-shm']) fs.rmSync(`${service.location}${suffix}`, { force: true });
     throw err;
   }
   service.close();
@@ -365,10 +391,10 @@ async function run(argv: string[]): Promise<void> {
         const request = { tag: values.tag, from: onDiaryClock('from', values.from, zone, true), to: onDiaryClock('to', values.to, zone, true) };
         return s.diary.scoreReport(parseRequest('score', request));
       });
-      if (values.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      if (values.json) writeStdout(`${JSON.stringify(report, null, 2)}\n`);
       else {
         const note = [values.tag && `tag ${values.tag}`, values.from && `from ${values.from}`, values.to && `to ${values.to}`].filter(Boolean).join(', ');
-        process.stdout.write(formatScoreTable(report, note));
+        writeStdout(formatScoreTable(report, note));
       }
       return;
     }
@@ -382,8 +408,8 @@ async function run(argv: string[]): Promise<void> {
       if (values.json) {
         // Exactly the documented object (docs/command-line.md): instants in UTC.
         const out = { at: list.at, nudges: list.nudges.map((n) => ({ id: n.id, title: n.title, kind: n.kind, due_at: n.due_at })) };
-        process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
-      } else process.stdout.write(dueText(list, zone));
+        writeStdout(`${JSON.stringify(out, null, 2)}\n`);
+      } else writeStdout(dueText(list, zone));
       return;
     }
     case 'demo': {
@@ -421,7 +447,9 @@ async function run(argv: string[]): Promise<void> {
 const argv = process.argv.slice(2);
 run(argv).catch((err: unknown) => {
   // A failure of the diary file itself (busy, read-only, disk full, damaged) reads as the app says it.
-  const failure = err instanceof UsageError || err instanceof ApiError ? null : storeFailure(err, path.resolve(dbPathOf(argv)));
+  // A file being written (an export, a copy) that fails says so itself, naming that file.
+  const aboutOutput = err instanceof FileWriteError || err instanceof OutputError;
+  const failure = err instanceof UsageError || err instanceof ApiError || aboutOutput ? null : storeFailure(err, path.resolve(dbPathOf(argv)));
   if (err instanceof StdoutClosed) return;
   const message =
     err instanceof UsageError

@@ -256,7 +256,14 @@ const NUMERIC_VALUE_TYPE = 'must be a number, or a date YYYY-MM-DD for a questio
 /** One value of a numeric question: a finite number or a calendar date `YYYY-MM-DD`; which of the two the question takes is the service's check. */
 export const numericValue = z.union([z.number(), z.string()], { error: NUMERIC_VALUE_TYPE }).superRefine((value, ctx) => {
   if (typeof value === 'number' && !Number.isFinite(value)) ctx.addIssue({ code: 'custom', message: 'must be a finite number' });
-  if (typeof value === 'string' && dateToDays(value) === null) ctx.addIssue({ code: 'custom', message: `must be a real calendar date YYYY-MM-DD (got "${value}")` });
+  if (typeof value === 'string' && dateToDays(value) === null) {
+    // Text shaped like a date is a date that does not exist; other text ("5") was meant as a number.
+    const shown = value.length > 40 ? `${value.slice(0, 40)}…` : value;
+    const message = /^\d{4}-\d{2}-\d{2}$/.test(value)
+      ? `must be a real calendar date YYYY-MM-DD (got "${shown}")`
+      : `${NUMERIC_VALUE_TYPE} (got the text "${shown}")`;
+    ctx.addIssue({ code: 'custom', message });
+  }
 });
 
 /**

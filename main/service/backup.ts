@@ -25,6 +25,35 @@ function fsyncPath(target: string, flags: string): void {
 }
 
 /**
+ * Where a copy named `file` goes: the file itself, or the file a symbolic link there
+ * points to (the link stays a link, as an export's does). Something there that is not a
+ * regular file — a folder, a named pipe, a device — is refused: the rename that finishes a
+ * copy would put a file in its place.
+ */
+function copyTarget(file: string): string {
+  const named = path.resolve(file);
+  let stats: fs.Stats;
+  try {
+    stats = fs.statSync(named);
+  } catch {
+    return named; // nothing there yet (or a dangling link, which the copy replaces)
+  }
+  if (!stats.isFile()) {
+    const what = stats.isDirectory() ? 'a folder' : stats.isFIFO() ? 'a named pipe' : stats.isSocket() ? 'a socket' : 'a device';
+    throw new Error(`${named} is not a regular file (it is ${what}), so no copy was written there; choose a file name such as backup.sqlite. The diary is unchanged.`);
+  }
+  return fs.realpathSync(named);
+}
+
+function realPath(file: string): string {
+  try {
+    return fs.realpathSync(file);
+  } catch {
+    return file;
+  }
+}
+
+/**
  * Writes an online copy of the database behind `source` (the diary at `sourcePath`) to
  * `file`, atomically: SQLite's backup API writes a temporary file in the target folder,
  * which is made self-contained, flushed to the disk and only then renamed over `file`.
@@ -32,7 +61,7 @@ function fsyncPath(target: string, flags: string): void {
  * target's name, and a file that was there stays as it was.
  */
 async function writeCopy(source: Db, sourcePath: string, file: string, onProgress?: (percent: number) => void): Promise<void> {
-  const target = path.resolve(file);
+  const target = copyTarget(file);
   // Not ending in .sqlite, so a partial copy is never taken for one of the rolling backups.
   const partial = `${target}.partial-${process.pid}-${randomBytes(4).toString('hex')}`;
   try {
@@ -72,14 +101,22 @@ async function writeCopy(source: Db, sourcePath: string, file: string, onProgres
 }
 
 export async function backupTo(store: StoreHandles, file: string, onProgress?: (percent: number) => void): Promise<void> {
-  const target = path.resolve(file);
-  if (target === store.path) throw new Error('The backup file cannot be the diary itself; choose another file name.');
+  const target = copyTarget(file);
+  // Compared as real paths: a link to the diary (or a path through a linked folder) is the diary too.
+  if (target === store.path || target === realPath(store.path)) throw new Error('The backup file cannot be the diary itself; choose another file name.');
   await writeCopy(store.write, store.path, target, onProgress);
 }
 
 /** Checks that `file` is a Forelog diary this version can open; returns its question count. */
 export function inspectBackup(file: string): { questions: number; version: number } {
   if (!fs.existsSync(file)) throw new Error(`There is no file at ${file}. Check the path.`);
+  const stats = fs.statSync(file);
+  if (stats.isDirectory()) throw new Error(`${file} is a folder, not a backup copy; give the path of a backup file. Nothing was restored.`);
+  if (!stats.isFile()) {
+    // SQLite would wait on a named pipe for ever, or fail on a device in words about the diary.
+    const what = stats.isFIFO() ? 'a named pipe' : stats.isSocket() ? 'a socket' : 'a device';
+    throw new Error(`${file} is not a regular file (it is ${what}), not a backup copy; give the path of a backup file. Nothing was restored.`);
+  }
   let db: Database.Database | undefined;
   try {
     db = new Database(file, { readonly: true, fileMustExist: true });
@@ -96,6 +133,12 @@ export function inspectBackup(file: string): { questions: number; version: numbe
   } catch (err) {
     if (err instanceof Error && /file is not a database|SQLITE_NOTADB/i.test(err.message)) {
       throw new Error(`${file} is not a Forelog diary (not a SQLite database).`);
+    }
+    // SQLite's codes would otherwise be read as the diary's own trouble ("the diary is damaged").
+    const code = (err as { code?: unknown }).code;
+    if (typeof code === 'string' && code.startsWith('SQLITE_')) {
+      const what = /^SQLITE_(CORRUPT|IOERR_SHORT_READ)/.test(code) ? 'is damaged or incomplete' : 'could not be read';
+      throw new Error(`The backup copy ${file} ${what} (${code}); choose another backup. Nothing was restored; the diary is unchanged.`);
     }
     throw err;
   } finally {

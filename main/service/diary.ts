@@ -428,7 +428,8 @@ export function createDiary(ctx: DiaryContext) {
    * the file an export writes. JSON compares each at once; CSV, whose rows of a question
    * may be anywhere in the file, at the end.
    */
-  function importItems(items: Iterable<ImportItem>, options: { merge?: boolean } = {}): ImportResult {
+  /** `onlyIntoEmpty`: refused (with that error) unless the diary is empty when the write begins. */
+  function importItems(items: Iterable<ImportItem>, options: { merge?: boolean; onlyIntoEmpty?: () => Error } = {}): ImportResult {
     const stamp = now();
     let added = 0;
     let skipped = 0;
@@ -438,6 +439,8 @@ export function createDiary(ctx: DiaryContext) {
       // The file's settings come along only into an empty diary: importing a colleague's
       // file into a working diary must not change its defaults.
       const empty = qs.isEmpty(write);
+      // Checked again here, holding the write lock: another process may have filled the diary since.
+      if (options.onlyIntoEmpty && !empty) throw options.onlyIntoEmpty();
       let s = readSettings(write, ctx.systemTimeZone);
       let settingsRead = false;
       // Questions that took the diary's zone before the file's settings (which may come after
@@ -577,7 +580,7 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   /** A diary file already in memory (the API's importDiary, the example diary). */
-  function importParsed(raw: unknown, options: { merge?: boolean } = {}): ImportResult {
+  function importParsed(raw: unknown, options: { merge?: boolean; onlyIntoEmpty?: () => Error } = {}): ImportResult {
     return importItems(diaryItems(raw), options);
   }
 
@@ -1095,13 +1098,13 @@ export function createDiary(ctx: DiaryContext) {
     importText: (req) => importText(req.format, req.text, { merge: req.merge }),
 
     loadDemo: () => {
-      if (qs.questionCount(read) > 0) {
-        throw new ApiError(
+      const notEmpty = () =>
+        new ApiError(
           'conflict',
           'The example diary can only be loaded into an empty diary, and this one already has questions. Start a new diary file (--db) to explore the example.',
         );
-      }
-      return importParsed(ctx.demo(now()));
+      if (qs.questionCount(read) > 0) throw notEmpty();
+      return importParsed(ctx.demo(now()), { onlyIntoEmpty: notEmpty });
     },
 
     due: (req) => {

@@ -156,13 +156,35 @@ function checkVersion(db: Db, file: string): number {
   return version;
 }
 
+/**
+ * Makes the empty file a new diary starts as, only if nothing is there: true when this
+ * process made it. Two processes racing to create one diary then agree on which of them
+ * did (an empty file is a valid empty SQLite database), where checking for the file first
+ * would let both believe it.
+ */
+function createdHere(file: string): boolean {
+  try {
+    fs.closeSync(fs.openSync(file, 'wx'));
+    return true;
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'EEXIST') return false;
+    throw err;
+  }
+}
+
 export function openStore(file: string, options: OpenStoreOptions = {}): StoreHandles {
   const resolved = path.resolve(file);
   const canWrite = options.canWrite ?? canWriteFile;
   const exists = fs.existsSync(resolved);
   if (!exists && options.create === false) throw new StoreError('missing', resolved, describeProblem('missing', resolved));
-  if (exists && fs.statSync(resolved).isDirectory()) {
+  const stats = exists ? fs.statSync(resolved) : null;
+  if (stats?.isDirectory()) {
     throw new StoreError('not_a_diary', resolved, `${resolved} is a folder, not a diary file. Check the path (--db).`);
+  }
+  if (stats && !stats.isFile()) {
+    // SQLite would fail on it in words about the disk ("could not read or write").
+    const what = stats.isFIFO() ? 'a named pipe' : stats.isSocket() ? 'a socket' : 'a device';
+    throw new StoreError('not_a_diary', resolved, `${resolved} is not a regular file (it is ${what}), not a diary file. Check the path (--db).`);
   }
   if (exists && !canRead(resolved)) {
     throw new StoreError(
@@ -182,7 +204,7 @@ export function openStore(file: string, options: OpenStoreOptions = {}): StoreHa
         throw new StoreError('read_only', resolved, `Forelog cannot create a diary at ${resolved}: its folder is read-only. Choose a folder you can write to.`);
       }
     }
-    return exists && !canWrite(resolved) ? openReadOnly(resolved, options) : openWritable(resolved, !exists, options);
+    return exists && !canWrite(resolved) ? openReadOnly(resolved, options) : openWritable(resolved, !exists && createdHere(resolved), options);
   } catch (err) {
     throw toStoreError(err, resolved) ?? err;
   }

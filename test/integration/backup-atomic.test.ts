@@ -4,6 +4,7 @@
  */
 import assert from 'node:assert/strict';
 import Database from 'better-sqlite3';
+import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
@@ -89,4 +90,37 @@ test('a backup that fails half-way leaves the target as it was and cleans up aft
   await backupTo(d.service.store, target);
   assert.equal(inspectBackup(target).questions, 1, 'the next backup replaces it whole');
   assert.deepEqual(fs.readdirSync(dir), ['copy.sqlite']);
+});
+
+test('a backup onto a symbolic link replaces the file it points to; onto a named pipe or a folder it is refused and the pipe stays', async (t) => {
+  const d = openTestDiary();
+  await d.call('createQuestion', { title: 'Only question', closes_at: '2027-01-01T00:00:00Z' });
+  const dir = tempDir();
+  const real = path.join(dir, 'real.sqlite');
+  fs.writeFileSync(real, 'the previous copy');
+  const link = path.join(dir, 'link.sqlite');
+  fs.symlinkSync(real, link);
+  await backupTo(d.service.store, link);
+  assert.ok(fs.lstatSync(link).isSymbolicLink(), 'the link is still a link');
+  assert.equal(inspectBackup(real).questions, 1, 'the file it points to holds the copy');
+  const toDiary = path.join(dir, 'diary-link.sqlite');
+  fs.symlinkSync(d.service.store.path, toDiary);
+  await assert.rejects(backupTo(d.service.store, toDiary), /cannot be the diary itself/);
+  fs.rmSync(toDiary);
+  assert.equal((await d.call('listQuestions', {})).total, 1, 'the diary is untouched');
+
+  const folder = path.join(dir, 'folder.sqlite');
+  fs.mkdirSync(folder);
+  await assert.rejects(backupTo(d.service.store, folder), /is not a regular file/);
+  assert.ok(fs.statSync(folder).isDirectory());
+
+  if (process.platform === 'win32') return t.skip('no named pipes in the file system');
+  const pipe = path.join(dir, 'pipe.sqlite');
+  assert.equal(spawnSync('mkfifo', [pipe]).status, 0);
+  await assert.rejects(backupTo(d.service.store, pipe), (err: Error) => {
+    assert.match(err.message, /^.*pipe\.sqlite is not a regular file .*; choose a file name\b/);
+    return true;
+  });
+  assert.ok(fs.lstatSync(pipe).isFIFO(), 'the pipe was not replaced by a file');
+  assert.deepEqual(fs.readdirSync(dir).sort(), ['folder.sqlite', 'link.sqlite', 'pipe.sqlite', 'real.sqlite']);
 });

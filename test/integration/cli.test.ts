@@ -15,6 +15,7 @@ const ROOT = path.resolve(import.meta.dirname, '..', '..');
 
 function forelog(...args: string[]): { status: number; stdout: string; stderr: string } {
   const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), ...args], {
+    timeout: 60_000,
     cwd: ROOT,
     encoding: 'utf8',
     env: { ...process.env, TZ: 'UTC' },
@@ -378,4 +379,71 @@ test('an option given twice, a --port that is not plain digits, and a bare date 
   const bare = forelog('due', '--at', '2026-01-01', '--db', db);
   assert.equal(bare.status, 1);
   assert.match(bare.stderr, /^forelog: --at takes a time, not a bare date/);
+});
+
+test('an export that cannot be written because its output is full blames the output, not the diary', { skip: !fs.existsSync('/dev/full') && 'needs /dev/full' }, () => {
+  const dir = tempDir();
+  const db = path.join(dir, 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const before = forelog('export', '--db', db).stdout;
+  // A file on a full disk: /dev/full refuses every write with ENOSPC.
+  const toFile = forelog('export', '/dev/full', '--db', db);
+  assert.equal(toFile.status, 1);
+  assert.match(toFile.stderr, /^forelog: Could not write \/dev\/full: the disk is full/);
+  assert.doesNotMatch(toFile.stderr, /disk holding the diary/);
+  // Standard output redirected to a full disk.
+  const full = fs.openSync('/dev/full', 'w');
+  try {
+    const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), 'export', '--db', db], {
+      cwd: ROOT,
+      encoding: 'utf8',
+      stdio: ['ignore', full, 'pipe'],
+    });
+    assert.equal(r.status, 1);
+    assert.match(r.stderr, /^forelog: Could not write to standard output: the disk is full/);
+    assert.doesNotMatch(r.stderr, /disk holding the diary/);
+    assert.equal(r.stderr.trim().split('\n').length, 1);
+  } finally {
+    fs.closeSync(full);
+  }
+  assert.equal(forelog('export', '--db', db).stdout, before, 'the diary is unchanged');
+  // score and due print their result: when it cannot be written, they fail rather than report success.
+  for (const args of [['score'], ['score', '--json'], ['due', '--at', '2026-12-01T09:00Z'], ['due', '--json']]) {
+    const out = fs.openSync('/dev/full', 'w');
+    try {
+      const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), ...args, '--db', db], { cwd: ROOT, encoding: 'utf8', stdio: ['ignore', out, 'pipe'] });
+      assert.equal(r.status, 1, `${args.join(' ')}: ${r.stderr}`);
+      assert.match(r.stderr, /^forelog: Could not write to standard output: the disk is full/);
+    } finally {
+      fs.closeSync(out);
+    }
+  }
+});
+
+test('restore from a folder or a pipe names the backup path, not the diary, and leaves the diary as it was', { skip: process.platform === 'win32' && 'no named pipes' }, () => {
+  const dir = tempDir();
+  const db = path.join(dir, 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const before = forelog('export', '--db', db).stdout;
+  const folder = path.join(dir, 'copies');
+  fs.mkdirSync(folder);
+  const fromFolder = forelog('restore', folder, '--db', db);
+  assert.equal(fromFolder.status, 1);
+  assert.equal(fromFolder.stderr, `forelog: ${folder} is a folder, not a backup copy; give the path of a backup file. Nothing was restored.\n`);
+  const pipe = path.join(dir, 'pipe.sqlite');
+  assert.equal(spawnSync('mkfifo', [pipe]).status, 0);
+  const fromPipe = forelog('restore', pipe, '--db', db);
+  assert.equal(fromPipe.status, 1, 'refused at once rather than waiting on the pipe');
+  assert.match(fromPipe.stderr, /is not a regular file \(it is a named pipe\), not a backup copy/);
+  assert.equal(forelog('export', '--db', db).stdout, before);
+
+  // A backup cut short (a copy truncated on a full USB stick): the backup is damaged, not the diary.
+  const copy = path.join(dir, 'copy.sqlite');
+  assert.equal(forelog('backup', copy, '--db', db).status, 0);
+  fs.truncateSync(copy, Math.floor(fs.statSync(copy).size / 3));
+  const damaged = forelog('restore', copy, '--db', db);
+  assert.equal(damaged.status, 1);
+  assert.match(damaged.stderr, new RegExp(`^forelog: The backup copy ${copy.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')} is damaged or incomplete \\(SQLITE_CORRUPT\\); choose another backup\\. Nothing was restored; the diary is unchanged\\.\n$`));
+  assert.doesNotMatch(damaged.stderr, /The diary .* is damaged/);
+  assert.equal(forelog('export', '--db', db).stdout, before);
 });

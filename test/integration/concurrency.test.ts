@@ -105,3 +105,24 @@ test('every write transaction in the app begins IMMEDIATE: none is opened any ot
   }
   assert.deepEqual(offenders, []);
 });
+
+test('commands racing to create the same new diary: the one that succeeds keeps its questions; a failing one never removes the diary', async () => {
+  // Three `demo`s at once on a path with no diary: one fills it, the others are refused. A
+  // refused command removes a diary only when it made the file itself, nothing is in it, and
+  // no other process has it open; before, a loser could delete the winner's diary.
+  for (let round = 0; round < 6; round++) {
+    const dir = tempDir();
+    const db = path.join(dir, 'new.sqlite');
+    const runs = await Promise.all([0, 1, 2].map(() => forelogAsync('demo', '--db', db)));
+    const winners = runs.filter((r) => r.status === 0);
+    assert.equal(winners.length, 1, runs.map((r) => r.stderr).join('\n'));
+    for (const loser of runs.filter((r) => r.status !== 0)) assert.match(loser.stderr, /only be loaded into an empty diary/);
+    assert.ok(fs.existsSync(db), `round ${round}: the diary is still there`);
+    const check = new Database(db, { readonly: true });
+    try {
+      assert.equal((check.prepare('SELECT count(*) AS n FROM questions').get() as { n: number }).n, 45, `round ${round}`);
+    } finally {
+      check.close();
+    }
+  }
+});

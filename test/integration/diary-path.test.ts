@@ -5,6 +5,7 @@
  */
 import assert from 'node:assert/strict';
 import Database from 'better-sqlite3';
+import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
@@ -81,4 +82,18 @@ test('a file that is not a diary is refused with a clear message and left unchan
   const folder = forelog('export', '--db', dir);
   assert.equal(folder.status, 1);
   assert.match(folder.stderr, /is a folder, not a diary file/);
+
+  // A device or a named pipe is no diary either: refused at once, in those words, not as a disk failure.
+  const devices = [...(fs.existsSync('/dev/null') ? [['/dev/null', 'a device']] : [])];
+  const pipe = path.join(dir, 'pipe.sqlite');
+  if (process.platform !== 'win32' && spawnSync('mkfifo', [pipe]).status === 0) devices.push([pipe, 'a named pipe']);
+  const emptyFile = path.join(dir, 'empty.json');
+  fs.writeFileSync(emptyFile, '{"format":"forelog-diary","version":1,"questions":[]}');
+  for (const [file, what] of devices) {
+    for (const args of [['score'], ['import', emptyFile]]) {
+      const r = forelog(...args, '--db', file!);
+      assert.equal(r.status, 1, `${args[0]} --db ${file}`);
+      assert.equal(r.stderr, `forelog: ${file} is not a regular file (it is ${what}), not a diary file. Check the path (--db).\n`);
+    }
+  }
 });

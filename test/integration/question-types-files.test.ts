@@ -148,6 +148,19 @@ test('a field of another type in a file is an error naming the record and the fi
       { type: 'choice', title: 'Which?', options: ['A', 'B'], closes_at: iso(NOW + DAY), forecasts: [{ at: iso(NOW - DAY), probs: [0.5, 0.4] }] },
       'Question 2 (questions[1]) is not valid: field forecasts[0].probs: must sum to 100 %, they sum to 90 %',
     ],
+    [
+      // A number written as text is not taken for a broken date: the value is meant as a number.
+      { type: 'numeric', title: 'How many?', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'value', value: '5', at: iso(NOW - DAY) } },
+      'Question 2 (questions[1]) is not valid: field resolution.value: must be a number, or a date YYYY-MM-DD for a question about a date (got the text "5")',
+    ],
+    [
+      { type: 'numeric', title: 'How many?', closes_at: iso(NOW + DAY), forecasts: [{ at: iso(NOW - DAY), quantiles: ['1', '2', 'x'.repeat(5000)] }] },
+      'Question 2 (questions[1]) is not valid: field forecasts[0].quantiles[0]: must be a number, or a date YYYY-MM-DD for a question about a date (got the text "1")',
+    ],
+    [
+      { type: 'numeric', title: 'When?', value_kind: 'date', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'value', value: '2026-02-30', at: iso(NOW - DAY) } },
+      'Question 2 (questions[1]) is not valid: field resolution.value: must be a real calendar date YYYY-MM-DD (got "2026-02-30")',
+    ],
   ];
   for (const [bad, message] of cases) {
     const text = JSON.stringify({ format: 'forelog-diary', version: 1, questions: [good, bad] });
@@ -157,6 +170,7 @@ test('a field of another type in a file is an error naming the record and the fi
     } catch (err) {
       assert.ok(err instanceof ApiError);
       assert.ok(err.message.startsWith(message), err.message);
+      assert.ok(err.message.length < 1000, 'a long value is not repeated whole in the message');
     }
     assert.equal((await d.call('listQuestions', {})).total, 0, 'all or nothing');
   }
