@@ -38,6 +38,15 @@ test('a choice forecast must add to 100 %: the edge is 1e-6 either side, as the 
   assert.equal(readChoiceForecast(['50.00011', '50']).ok, false);
 });
 
+test('shares of 1 typed into the percent boxes are refused with how to write them', () => {
+  const fractions = readChoiceForecast(['0.6', '0.3', '0.1']);
+  assert.equal(!fractions.ok && fractions.error, 'The chances must add to 100%; they add to 1%. The boxes take percents: write 60 for 0.6.');
+  // Percents that merely fall short get no such hint, nor do fractions that do not add to 1.
+  assert.equal(!readChoiceForecast(['0.5', '0.3']).ok && readChoiceForecast(['0.5', '0.3']).error, 'The chances must add to 100%; they add to 0.8%.');
+  const certain = readChoiceForecast(['0', '1', '0']);
+  assert.equal(!certain.ok && certain.error, 'The chances must add to 100%; they add to 1%. The boxes take percents: write 100 for 1.');
+});
+
 test('a blank or unreadable option is named, and nothing else is said until it is fixed', () => {
   const blank = readChoiceForecast(['50', '', '50']);
   assert.equal(!blank.ok && blank.error, 'Option 2: give a chance, 0 if none, or use “Spread the rest”.');

@@ -125,7 +125,12 @@ export function readChoiceForecast(texts: readonly string[]): Parsed<number[]> &
   let sum = 0;
   for (const p of probs) sum += p;
   if (!sumsToOne(sum)) {
-    const total = `The chances must add to 100%; they add to ${totalText(sum)}.`;
+    // Shares of 1 typed into percent boxes (0.6, 0.4) add to 1%: say how to write them, with
+    // the user's own first share as the example.
+    const example = probs.findIndex((p) => p > 0);
+    const fractions = example >= 0 && probs.every((p) => p <= 0.01) && sumsToOne(sum * 100);
+    const hint = fractions ? ` The boxes take percents: write ${Number((probs[example]! * 10_000).toPrecision(12))} for ${texts[example]!.trim()}.` : '';
+    const total = `The chances must add to 100%; they add to ${totalText(sum)}.${hint}`;
     return { ok: false, error: total, problems: { options, total } };
   }
   return { ok: true, value: probs };
