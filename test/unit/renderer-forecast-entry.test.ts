@@ -42,7 +42,8 @@ test('shares of 1 typed into the percent boxes are refused with how to write the
   const fractions = readChoiceForecast(['0.6', '0.3', '0.1']);
   assert.equal(!fractions.ok && fractions.error, 'The chances must add to 100%; they add to 1%. The boxes take percents: write 60 for 0.6.');
   // Percents that merely fall short get no such hint, nor do fractions that do not add to 1.
-  assert.equal(!readChoiceForecast(['0.5', '0.3']).ok && readChoiceForecast(['0.5', '0.3']).error, 'The chances must add to 100%; they add to 0.8%.');
+  const short = readChoiceForecast(['0.5', '0.3']);
+  assert.equal(!short.ok && short.error, 'The chances must add to 100%; they add to 0.8%.');
   const certain = readChoiceForecast(['0', '1', '0']);
   assert.equal(!certain.ok && certain.error, 'The chances must add to 100%; they add to 1%. The boxes take percents: write 100 for 1.');
 });
