@@ -38,6 +38,37 @@ export function sumsToOne(sum: number): boolean {
   return Math.abs(sum - 1) <= CHOICE_SUM_TOLERANCE;
 }
 
+/** How a sum that is not 1 within the tolerance reads: its percent and its distance from 100 %. */
+export interface SumMiss {
+  /** The sum as a percent, to as many decimals as `off` has ("99.99989"), digits grouped. */
+  percent: string;
+  /** How far the sum is from 100 %, in percent ("0.00011"), digits grouped. */
+  off: string;
+  /** Whether the sum falls short of 100 % or goes over it. */
+  side: 'short' | 'over';
+}
+
+/**
+ * A refused sum as a person can act on it: "99.99989 %, 0.00011 % short", never a rounded
+ * "100 %" that reads as a sum the rule accepts. The distance takes at least three significant
+ * digits, and more when moving the sum by the distance shown would still miss the tolerance
+ * (66.6667 % is 33.3333 % short, not 33.3 %); the percent is rounded to the same decimal
+ * place, so the two add up to 100 as shown.
+ *
+ * @param sum the probabilities added in option order, not 1 within the tolerance (finite)
+ */
+export function sumMiss(sum: number): SumMiss {
+  const side = sum < 1 ? 'short' : 'over';
+  const gap = Math.abs(1 - sum) * 100;
+  let q = 3;
+  while (q < 17 && !sumsToOne(sum + (side === 'short' ? 1 : -1) * (Number(gap.toPrecision(q)) / 100))) q++;
+  const off = Number(gap.toPrecision(q));
+  // A refused sum is at least 0.0001 % off, so `off` never prints in exponent form.
+  const decimals = Math.min(20, (String(off).split('.')[1] ?? '').length);
+  const grouped = new Intl.NumberFormat('en-GB', { maximumFractionDigits: decimals });
+  return { percent: grouped.format(sum * 100), off: grouped.format(off), side };
+}
+
 /**
  * Why `probs` is not a valid probability vector over `count` options, or null: it must
  * hold one entry per option, each a number in [0, 1], and the entries, added in order

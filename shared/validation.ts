@@ -3,7 +3,7 @@
  * probability, instant, tag, time zone and title are, each with the message a user sees.
  */
 import { z } from 'zod';
-import { MAX_OPTIONS, MIN_OPTIONS, sumsToOne } from './choice-vector';
+import { MAX_OPTIONS, MIN_OPTIONS, sumMiss, sumsToOne } from './choice-vector';
 import { QUESTION_TYPES, VALUE_KINDS } from './domain';
 import { dateToDays } from './numeric-value';
 import { quantileLevelsProblem, quantilesProblem } from './quantile-levels';
@@ -192,9 +192,10 @@ export const kind = z.enum(['event_by_deadline', 'state_at_deadline'], { error: 
 
 export const questionType = z.enum(QUESTION_TYPES, { error: 'must be binary, choice or numeric' });
 
-/** A sum of probabilities as a percentage a user reads: 0.9 → "90 %", 1.0000011 → "100.00011 %". */
-export function sumAsPercent(sum: number): string {
-  return `${Number((sum * 100).toPrecision(12))} %`;
+/** A refused sum as a user reads it, with what to change: "90 % (10 % short)", "100.00011 % (0.00011 % over)". */
+function refusedSum(sum: number): string {
+  const miss = sumMiss(sum);
+  return `${miss.percent} % (${miss.off} % ${miss.side})`;
 }
 
 /**
@@ -212,7 +213,7 @@ export const probs = z
     }
     let sum = 0;
     for (const p of list) sum += p;
-    if (!Number.isNaN(sum) && !sumsToOne(sum)) ctx.addIssue({ code: 'custom', message: `must sum to 100 %, they sum to ${sumAsPercent(sum)}` });
+    if (!Number.isNaN(sum) && !sumsToOne(sum)) ctx.addIssue({ code: 'custom', message: `must sum to 100 %, they sum to ${refusedSum(sum)}` });
   });
 
 /** A choice question's option: one line, trimmed, not empty. */

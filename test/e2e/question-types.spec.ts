@@ -79,7 +79,7 @@ test('a choice question: spread the rest, a total other than 100% refused, revis
   await mine.getByRole('spinbutton', { name: 'Ambledene' }).fill('60');
   await mine.getByRole('spinbutton', { name: 'Neither' }).fill('0');
   await revise.getByRole('button', { name: 'Save revision' }).click();
-  await expect(revise.getByText('The chances must add to 100%; they add to 90%.')).toBeVisible();
+  await expect(revise.getByText('The chances must add to 100%; they add to 90% (10% short).')).toBeVisible();
   await mine.getByRole('spinbutton', { name: 'Neither' }).fill('10');
   await revise.getByLabel('What changed').fill('Ambledene cut its price');
   await revise.getByRole('button', { name: 'Save revision' }).click();

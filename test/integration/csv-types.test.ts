@@ -130,7 +130,7 @@ test('each type rule is refused with its row and column, and nothing is imported
   const F = { forecast_at: '2026-06-01T09:00:00.000Z' };
   const nothing = '. Nothing was imported.';
   // The vector's sum, one ulp either side of the 1e-6 tolerance: shared/choice-vector.ts, INTERFACES.md.
-  refuses(csvText(row({ ...CHOICE, ...F, probs: '0.5 0.3 0.1' })), `Row 2, column probs: must sum to 100 %, they sum to 90 %${nothing}`, 2, 'probs');
+  refuses(csvText(row({ ...CHOICE, ...F, probs: '0.5 0.3 0.1' })), `Row 2, column probs: must sum to 100 %, they sum to 90 % (10 % short)${nothing}`, 2, 'probs');
   assert.equal(csvQuestions(csvText(row({ ...CHOICE, ...F, probs: '0.5 0.3 0.2000009' })))[0]!.forecasts.length, 1);
   refuses(csvText(row({ ...CHOICE, ...F, probs: '0.5 0.5' })), `Row 2, column probs: must give one probability per option (3), not 2${nothing}`, 2, 'probs');
   refuses(csvText(row({ ...CHOICE, ...F, probs: '50% 30% 20%' })), `Row 2, column probs: "50%" is not a number; separate the numbers with spaces and write each with a decimal point, e.g. 0.5 0.3 0.2${nothing}`, 2, 'probs');
@@ -333,7 +333,7 @@ test('the example diary through CSV: merge skips every unchanged question of eve
   assert.ok(at > 1, 'the example diary has the Wendlebrook revision at 85 %');
   lines[at] = lines[at]!.replace(',0.85 0.12 0.03,', ',0.85 0.12 0.02,');
   await assert.rejects(fresh.call('importText', { format: 'csv', text: lines.join('\r\n') }), (err: Error) => {
-    assert.equal(err.message, `Row ${at + 1}, column probs: must sum to 100 %, they sum to 99 %. Nothing was imported.`);
+    assert.equal(err.message, `Row ${at + 1}, column probs: must sum to 100 %, they sum to 99 % (1 % short). Nothing was imported.`);
     return true;
   });
   assert.equal((await fresh.call('listQuestions', {})).questions.length, 0);

@@ -146,7 +146,7 @@ test('a field of another type in a file is an error naming the record and the fi
     ],
     [
       { type: 'choice', title: 'Which?', options: ['A', 'B'], closes_at: iso(NOW + DAY), forecasts: [{ at: iso(NOW - DAY), probs: [0.5, 0.4] }] },
-      'Question 2 (questions[1]) is not valid: field forecasts[0].probs: must sum to 100 %, they sum to 90 %',
+      'Question 2 (questions[1]) is not valid: field forecasts[0].probs: must sum to 100 %, they sum to 90 % (10 % short)',
     ],
     [
       // A number written as text is not taken for a broken date: the value is meant as a number.

@@ -163,11 +163,18 @@ test('a choice vector must sum to 100 % within 1e-6: the one-ulp neighbours of b
   for (const probs of refused) {
     const err = await refusal(d.call('addForecast', { question_id: q.id, probs, at: iso(NOW - DAY) }));
     assert.equal(err.code, 'invalid');
-    assert.match(err.fields[0]!, /^probs: must sum to 100 %, they sum to (100\.0001|99\.9999) %$/);
+    assert.match(err.fields[0]!, /^probs: must sum to 100 %, they sum to (100\.0001 % \(0\.0001 % over\)|99\.9999 % \(0\.0001 % short\))$/);
   }
   assert.equal(dump(d), before, 'nothing written');
   const err = await refusal(d.call('addForecast', { question_id: q.id, probs: [0.6, 0.3], at: iso(NOW - DAY) }));
-  assert.deepEqual(err.fields, ['probs: must sum to 100 %, they sum to 90 %']);
+  assert.deepEqual(err.fields, ['probs: must sum to 100 %, they sum to 90 % (10 % short)']);
+  // Just outside the tolerance the sum is never rounded to a figure that reads as accepted,
+  // and the message says how far off it is, so the user knows what to change.
+  const near = async (probs: number[]) => (await refusal(d.call('addForecast', { question_id: q.id, probs, at: iso(NOW - DAY) }))).fields;
+  assert.deepEqual(await near([0.4999989, 0.5]), ['probs: must sum to 100 %, they sum to 99.99989 % (0.00011 % short)']);
+  assert.deepEqual(await near([0.5000011, 0.5]), ['probs: must sum to 100 %, they sum to 100.00011 % (0.00011 % over)']);
+  assert.deepEqual(await near([0.333333, 0.333333]), ['probs: must sum to 100 %, they sum to 66.6666 % (33.3334 % short)']);
+  assert.equal(dump(d), before, 'nothing written');
   const stored: ChoiceQuestion = await d.call('getQuestion', { id: q.id });
   assert.deepEqual(stored.forecasts.map((f) => f.probs), accepted);
 });
@@ -209,7 +216,7 @@ test('a field of another type, a wrong count or a wrong kind is refused naming t
     ['levels not symmetric', () => numericQuestion(d, { levels: [0.1, 0.5], first_forecast: undefined }), 'levels: must be symmetric around 0.5: 0.1 needs 0.9'],
     ['the same option twice', () => choiceQuestion(d, { options: ['A', 'B', 'A'], option_base_rates: null, first_forecast: undefined }), 'options[2]: repeats option 0 ("A"); each option must be different'],
     ['one option', () => choiceQuestion(d, { options: ['A'], option_base_rates: null, first_forecast: undefined }), 'options: must list at least 2 options'],
-    ['base rates that do not sum', () => choiceQuestion(d, { option_base_rates: [0.5, 0.5, 0.5] }), 'option_base_rates: must sum to 100 %, they sum to 150 %'],
+    ['base rates that do not sum', () => choiceQuestion(d, { option_base_rates: [0.5, 0.5, 0.5] }), 'option_base_rates: must sum to 100 %, they sum to 150 % (50 % over)'],
     ['a choice question without options', () => d.call('createQuestion', { type: 'choice', title: 'Which?', closes_at: iso(NOW + DAY) }), 'options: are required for a choice question: 2 to 12 labels'],
     ['first forecast of another type', () => choiceQuestion(d, { first_forecast: { p: 0.5 } }), 'first_forecast.p: does not apply: a choice question takes probs, one probability per option'],
   ];

@@ -29,23 +29,32 @@ test('a choice forecast must add to 100 %: the edge is 1e-6 either side, as the 
   assert.deepEqual(readChoiceForecast(['50', '30', '20']), { ok: true, value: [0.5, 0.3, 0.2] });
   const short = readChoiceForecast(['50', '30', '10']);
   assert.equal(short.ok, false);
-  assert.equal(!short.ok && short.error, 'The chances must add to 100%; they add to 90%.');
+  assert.equal(!short.ok && short.error, 'The chances must add to 100%; they add to 90% (10% short).');
   // 1e-6 of a probability is 0.0001 of a percent; the edge itself is not a binary number
   // (0.499999 + 0.5 misses 1 − 1e-6 by rounding), so: 0.00009 % off is accepted, 0.00011 % refused.
   assert.equal(readChoiceForecast(['49.99991', '50']).ok, true);
   assert.equal(readChoiceForecast(['50.00009', '50']).ok, true);
   assert.equal(readChoiceForecast(['49.99989', '50']).ok, false);
   assert.equal(readChoiceForecast(['50.00011', '50']).ok, false);
+  // A refused total is never shown rounded to 100%: the live total and the message give the
+  // digits that show it is off, and the message says by how much.
+  const under = readChoiceForecast(['49.99989', '50']);
+  assert.equal(!under.ok && under.error, 'The chances must add to 100%; they add to 99.99989% (0.00011% short).');
+  assert.equal(totalText(choiceTotal(['49.99989', '50']).sum), '99.99989%');
+  const over = readChoiceForecast(['50.00011', '50']);
+  assert.equal(!over.ok && over.error, 'The chances must add to 100%; they add to 100.00011% (0.00011% over).');
+  assert.equal(totalText(choiceTotal(['50.00011', '50']).sum), '100.00011%');
+  assert.equal(totalText(choiceTotal(['49.99991', '50']).sum), '100%');
 });
 
 test('shares of 1 typed into the percent boxes are refused with how to write them', () => {
   const fractions = readChoiceForecast(['0.6', '0.3', '0.1']);
-  assert.equal(!fractions.ok && fractions.error, 'The chances must add to 100%; they add to 1%. The boxes take percents: write 60 for 0.6.');
+  assert.equal(!fractions.ok && fractions.error, 'The chances must add to 100%; they add to 1% (99% short). The boxes take percents: write 60 for 0.6.');
   // Percents that merely fall short get no such hint, nor do fractions that do not add to 1.
   const short = readChoiceForecast(['0.5', '0.3']);
-  assert.equal(!short.ok && short.error, 'The chances must add to 100%; they add to 0.8%.');
+  assert.equal(!short.ok && short.error, 'The chances must add to 100%; they add to 0.8% (99.2% short).');
   const certain = readChoiceForecast(['0', '1', '0']);
-  assert.equal(!certain.ok && certain.error, 'The chances must add to 100%; they add to 1%. The boxes take percents: write 100 for 1.');
+  assert.equal(!certain.ok && certain.error, 'The chances must add to 100%; they add to 1% (99% short). The boxes take percents: write 100 for 1.');
 });
 
 test('a blank or unreadable option is named, and nothing else is said until it is fixed', () => {

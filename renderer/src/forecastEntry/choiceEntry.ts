@@ -5,7 +5,7 @@
  * contract would refuse (shared/choice-vector.ts holds the rule: the probabilities, added in
  * order, sum to 1 within 1e-6) with a sentence that says what to do.
  */
-import { sumsToOne } from '../../../shared/choice-vector';
+import { sumMiss, sumsToOne } from '../../../shared/choice-vector';
 import { percentToProbability, type Parsed } from '../percent';
 
 /** What the boxes add up to so far, for the live total under them. */
@@ -33,9 +33,20 @@ export function choiceTotal(texts: readonly string[]): ChoiceTotal {
   return { sum, blanks, invalid, complete: blanks.length === 0 && invalid.length === 0 && sumsToOne(sum) };
 }
 
-/** A share of 100% as people read it: up to two decimals, no trailing zeros ("33.33%", "90%"). */
+/**
+ * A share of 100% as people read it: up to two decimals, no trailing zeros ("33.33%", "90%");
+ * a sum the contract refuses that two decimals would show as 100% gets the digits that show
+ * it is not ("99.99989%").
+ */
 export function totalText(sum: number): string {
-  return `${Number((sum * 100).toFixed(2))}%`;
+  const shown = Number((sum * 100).toFixed(2));
+  return shown === 100 && !sumsToOne(sum) ? `${sumMiss(sum).percent}%` : `${shown}%`;
+}
+
+/** A refused total with what to change: "90% (10% short)", "100.00011% (0.00011% over)". */
+function refusedTotal(sum: number): string {
+  const miss = sumMiss(sum);
+  return `${miss.percent}% (${miss.off}% ${miss.side})`;
 }
 
 /** Decimal places typed in a percent box ("12.5" → 1, "40" → 0, "1e-3" → 3). */
@@ -130,7 +141,7 @@ export function readChoiceForecast(texts: readonly string[]): Parsed<number[]> &
     const example = probs.findIndex((p) => p > 0);
     const fractions = example >= 0 && probs.every((p) => p <= 0.01) && sumsToOne(sum * 100);
     const hint = fractions ? ` The boxes take percents: write ${Number((probs[example]! * 10_000).toPrecision(12))} for ${texts[example]!.trim()}.` : '';
-    const total = `The chances must add to 100%; they add to ${totalText(sum)}.${hint}`;
+    const total = `The chances must add to 100%; they add to ${refusedTotal(sum)}.${hint}`;
     return { ok: false, error: total, problems: { options, total } };
   }
   return { ok: true, value: probs };
