@@ -464,13 +464,20 @@ export function droppedFields(raw: unknown, parsed: unknown): string[] {
   return out;
 }
 
+/** Said of a number written beyond ±Number.MAX_VALUE, which JSON reads as ±Infinity. */
+const TOO_LARGE = 'the one given is beyond about ±1.8e308, too large to hold';
+
 /**
  * The reason an issue gives a user. A field left out is "required", whatever its type's
  * message says ("title: must be text" reads as if a wrong title had been given). Only a
  * parse run with `reportInput: true` tells a missing field (no input) from a wrong one, so
- * `withInputs` says the error came from one.
+ * `withInputs` says the error came from one; it also tells a number too large to hold
+ * (`TOO_LARGE`) from a value of the wrong type.
  */
 export function issueReason(issue: z.core.$ZodIssue, withInputs = false): string {
+  // JSON reads a number beyond the largest double (1e400) as Infinity, which the schemas refuse
+  // as "not a number": say what is wrong with the number the user wrote.
+  if (withInputs && issue.code !== 'custom' && (issue.input === Infinity || issue.input === -Infinity)) return `${issue.message}: ${TOO_LARGE}`;
   if (!withInputs || issue.code !== 'invalid_type' || issue.input !== undefined || issue.message === 'is required') return issue.message;
   return issue.message.startsWith('must ') ? `is required (it ${issue.message})` : `is required (${issue.message})`;
 }

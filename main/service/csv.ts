@@ -411,7 +411,14 @@ function numberCell(text: string, row: number, column: string): number {
   if (!NUMBER.test(t)) {
     throw nothingImported(row, column, `"${t}" is not a number; write it with a decimal point and nothing else, e.g. 0.35`);
   }
-  return Number(t);
+  return finite(t, row, column);
+}
+
+/** A number in plain notation as its double; one beyond ±Number.MAX_VALUE ("1e400") is refused rather than read as Infinity. */
+function finite(t: string, row: number, column: string): number {
+  const n = Number(t);
+  if (!Number.isFinite(n)) throw nothingImported(row, column, `"${t}" is beyond about ±1.8e308, too large a number to hold; write a smaller one`);
+  return n;
 }
 
 /** Maps the header's names to positions: every name must be a documented column, once. */
@@ -507,7 +514,7 @@ function numberList(text: string, row: number, column: string): number[] {
       if (!NUMBER.test(t)) {
         throw nothingImported(row, column, `"${t}" is not a number; separate the numbers with spaces and write each with a decimal point, e.g. 0.5 0.3 0.2`);
       }
-      return Number(t);
+      return finite(t, row, column);
     });
 }
 

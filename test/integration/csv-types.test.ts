@@ -134,6 +134,14 @@ test('each type rule is refused with its row and column, and nothing is imported
   assert.equal(csvQuestions(csvText(row({ ...CHOICE, ...F, probs: '0.5 0.3 0.2000009' })))[0]!.forecasts.length, 1);
   refuses(csvText(row({ ...CHOICE, ...F, probs: '0.5 0.5' })), `Row 2, column probs: must give one probability per option (3), not 2${nothing}`, 2, 'probs');
   refuses(csvText(row({ ...CHOICE, ...F, probs: '50% 30% 20%' })), `Row 2, column probs: "50%" is not a number; separate the numbers with spaces and write each with a decimal point, e.g. 0.5 0.3 0.2${nothing}`, 2, 'probs');
+  // A number beyond the largest double is refused as too large, not read as Infinity and called "not a number".
+  refuses(csvText(row({ ...CHOICE, ...F, probs: '0.5 0.5 1e400' })), `Row 2, column probs: "1e400" is beyond about ±1.8e308, too large a number to hold; write a smaller one${nothing}`, 2, 'probs');
+  refuses(
+    csvText(row({ ...NUMERIC, outcome: 'value', outcome_value: '-1e400', resolved_at: '2026-09-01T09:00:00.000Z' })),
+    `Row 2, column outcome_value: "-1e400" is beyond about ±1.8e308, too large a number to hold; write a smaller one${nothing}`,
+    2,
+    'outcome_value',
+  );
   refuses(csvText(row({ ...CHOICE, ...F, p: '0.4' })), `Row 2, column p: does not apply: a choice question takes probs, one probability per option${nothing}`, 2, 'p');
   refuses(csvText(row({ ...CHOICE, ...F })), `Row 2, column probs: is empty, but a revision needs both its time (forecast_at) and its probabilities (probs)${nothing}`, 2, 'probs');
   refuses(csvText(row({ ...CHOICE, base_rate: '0.3' })), `Row 2, column base_rate: applies to yes/no questions only; this is a choice question${nothing}`, 2, 'base_rate');

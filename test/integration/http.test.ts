@@ -106,6 +106,31 @@ test('the same validation as every transport: 400 with the field, nothing writte
   assert.match(JSON.parse(notJson.body).error.message, /not valid JSON/);
 });
 
+test('a number too large to hold (1e400) is refused as too large, not as "not a number", and nothing is written', async () => {
+  const { server, d } = await setup();
+  const post = (op: string, body: string) =>
+    request(server.port, {
+      path: `/api/${op}`,
+      method: 'POST',
+      headers: { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}`, 'Content-Type': 'application/json' },
+      body,
+    });
+  const TOO_LARGE = ': the one given is beyond about ±1.8e308, too large to hold';
+  const p = await post('createQuestion', '{"title":"x","closes_at":"2030-01-01T00:00:00Z","first_forecast":{"p":1e400}}');
+  assert.deepEqual(JSON.parse(p.body).error.fields, [`first_forecast.p: must be a number between 0 and 1${TOO_LARGE}`]);
+  const costs = await post('createQuestion', '{"title":"x","closes_at":"2030-01-01T00:00:00Z","costs":{"false_alarm":1e400,"miss":1}}');
+  assert.equal(costs.status, 400);
+  assert.deepEqual(JSON.parse(costs.body).error.fields, [`costs.false_alarm: must be a number${TOO_LARGE}`]);
+  const numeric = await post('createQuestion', '{"type":"numeric","title":"x","closes_at":"2030-01-01T00:00:00Z","first_forecast":{"quantiles":[-1e400,0,1]}}');
+  assert.equal(numeric.status, 400);
+  assert.deepEqual(JSON.parse(numeric.body).error.fields, [`first_forecast.quantiles[0]: must be a number, or a date YYYY-MM-DD for a question about a date${TOO_LARGE}`]);
+  // The largest number that does fit is taken as given.
+  const fits = await post('createQuestion', '{"type":"numeric","title":"x","closes_at":"2030-01-01T00:00:00Z","first_forecast":{"quantiles":[-1.7976931348623157e308,0,1.7976931348623157e308]}}');
+  assert.equal(fits.status, 200);
+  assert.deepEqual(JSON.parse(fits.body).value.forecasts[0].quantiles, [-Number.MAX_VALUE, 0, Number.MAX_VALUE]);
+  assert.equal((await d.call('listQuestions', {})).total, 1);
+});
+
 test('a body naming a member twice in one object is refused, at any depth, and nothing is written', async () => {
   // JSON.parse would keep the last one: {"p": 2, "p": 0.3} would land as 0.3 while the
   // person (or another reader) sees 2.

@@ -161,9 +161,14 @@ test('a field of another type in a file is an error naming the record and the fi
       { type: 'numeric', title: 'When?', value_kind: 'date', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'value', value: '2026-02-30', at: iso(NOW - DAY) } },
       'Question 2 (questions[1]) is not valid: field resolution.value: must be a real calendar date YYYY-MM-DD (got "2026-02-30")',
     ],
+    [
+      // Written -1e400 in the file (JSON.stringify cannot): a number, too large to hold, not "not a number".
+      { type: 'numeric', title: 'How many?', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'value', value: 'written -1e400', at: iso(NOW - DAY) } },
+      'Question 2 (questions[1]) is not valid: field resolution.value: must be a number, or a date YYYY-MM-DD for a question about a date: the one given is beyond about ±1.8e308, too large to hold',
+    ],
   ];
   for (const [bad, message] of cases) {
-    const text = JSON.stringify({ format: 'forelog-diary', version: 1, questions: [good, bad] });
+    const text = JSON.stringify({ format: 'forelog-diary', version: 1, questions: [good, bad] }).replace('"written -1e400"', '-1e400');
     try {
       await d.call('importText', { format: 'json', text });
       assert.fail('the file was accepted');
