@@ -237,6 +237,14 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
     if (declared !== undefined && declared.split(';')[0]!.trim().toLowerCase() !== 'application/json') {
       throw new RequestRefusal(415, `API calls take a JSON body, but this one is declared as "${declared.slice(0, 100)}"; send it with Content-Type: application/json. Nothing was changed.`);
     }
+    // The body is read as UTF-8; one declared in another character set would be stored garbled.
+    const charset = declared === undefined ? undefined : /;\s*charset\s*=\s*"?([^";\s]*)/i.exec(declared)?.[1];
+    if (charset !== undefined && charset.toLowerCase() !== 'utf-8' && charset.toLowerCase() !== 'utf8') {
+      throw new RequestRefusal(
+        415,
+        `API calls take JSON in UTF-8, but this body is declared as charset=${charset.slice(0, 40)}; send it as UTF-8 (Content-Type: application/json; charset=utf-8, or no charset). Nothing was changed.`,
+      );
+    }
     const text = await readBody(req, limit);
     if (jsonTextNestedDeeperThan(text)) {
       throw new RequestRefusal(400, `The request body is nested too deeply: ${NESTING_RULE}. Nothing was changed.`);

@@ -170,9 +170,21 @@ test('a body declared as anything but JSON gets 415 naming the header to send, a
     assert.equal(res.status, 415, type);
     assert.match(JSON.parse(res.body).error.message, /send it with Content-Type: application\/json\. Nothing was changed\.$/, type);
   }
+  // JSON declared in another character set would be read as UTF-8 and stored garbled (the
+  // Latin-1 bytes of "Ã©" are the UTF-8 of "é"): refused, naming the charset to send.
+  for (const type of ['application/json; charset=latin1', 'application/json; charset="ISO-8859-1"', 'application/json;charset=utf-16']) {
+    const res = await request(server.port, {
+      path: '/api/createQuestion',
+      method: 'POST',
+      headers: { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}`, 'Content-Type': type },
+      body: JSON.stringify({ title: 'Ã©', closes_at: '2030-01-01T00:00:00Z' }),
+    });
+    assert.equal(res.status, 415, type);
+    assert.match(JSON.parse(res.body).error.message, /send it as UTF-8 \(Content-Type: application\/json; charset=utf-8, or no charset\)\. Nothing was changed\.$/, type);
+  }
   assert.equal((await d.call('listQuestions', {})).total, 0);
   // JSON with a charset, in any letter case, or with no Content-Type at all, is read.
-  for (const headers of [{ 'Content-Type': 'Application/JSON; charset=utf-8' }, {}] as Record<string, string>[]) {
+  for (const headers of [{ 'Content-Type': 'Application/JSON; charset=utf-8' }, { 'Content-Type': 'application/json; Charset="UTF-8"' }, {}] as Record<string, string>[]) {
     const res = await request(server.port, {
       path: '/api/createQuestion',
       method: 'POST',
