@@ -105,7 +105,13 @@ test('a numeric forecast must not decrease with the level; the message names the
   assert.equal(ulp.ok, false);
   const blank = readNumericForecast(['9', '', '20'], levels, 'number', 'weeks');
   assert.equal(!blank.ok && blank.error, 'P50: enter a value.');
-  assert.equal(readValue('1e999', 'number').ok, false, 'infinity is not a value');
+  // A number beyond the largest a diary holds is told so, not called "not a number"; only
+  // decimal notation is a number (Number() would read "0x1A" as 26 and "" as 0).
+  assert.deepEqual(readValue('1e999', 'number'), { ok: false, error: 'is too large a number to hold (beyond about ±1.8e308)' });
+  assert.deepEqual(readValue('-1e400', 'number'), { ok: false, error: 'is too large a number to hold (beyond about ±1.8e308)' });
+  assert.deepEqual(readValue('-1.7976931348623157e308', 'number'), { ok: true, value: -Number.MAX_VALUE });
+  assert.deepEqual(readValue('5e-324', 'number'), { ok: true, value: 5e-324 });
+  for (const text of ['0x1A', '0b11', 'Infinity', '1,500', '12.5.1']) assert.deepEqual(readValue(text, 'number'), { ok: false, error: 'must be a number, e.g. 12.5' }, text);
 });
 
 test('a date question reads calendar days and says "before" for a decreasing set', () => {
