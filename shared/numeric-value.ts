@@ -7,6 +7,21 @@
 import type { NumericValue, ValueKind } from './domain';
 
 const DAY_MS = 86_400_000;
+
+/**
+ * A number as people and files write one: decimal notation with an optional exponent (what
+ * String(number) writes and a spreadsheet saves). Number() alone would also take "", "0x1A"
+ * (26), "0b1" and "Infinity". The one rule for typed and CSV numbers.
+ */
+export const DECIMAL_NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/** Typed text (spaces at either end ignored) as a finite number, or null when it is not one in decimal notation. */
+export function readDecimal(text: string): number | null {
+  const trimmed = text.trim();
+  if (!DECIMAL_NUMBER.test(trimmed)) return null;
+  const n = Number(trimmed);
+  return Number.isFinite(n) ? n : null;
+}
 const DATE_TEXT = /^(\d{4})-(\d{2})-(\d{2})$/;
 
 /** The calendar date `YYYY-MM-DD` (years 0001–9999) as days since 1970-01-01, or null when it is no such date. */

@@ -31,6 +31,7 @@ import {
   type TypeShape,
 } from '../../shared/question-types';
 import { duplicateMember } from '../../shared/json-duplicates';
+import { DECIMAL_NUMBER } from '../../shared/numeric-value';
 import * as v from '../../shared/validation';
 import { CsvSyntaxError, readCsvRecords } from '../files/csv-records';
 
@@ -402,13 +403,10 @@ function noteCell(text: string, row: number): string {
   return check(F.note, text, row, 'note') ?? '';
 }
 
-// Plain decimal notation with an optional exponent: what String(number) writes and what a
-// spreadsheet saves. Number() alone would also take "", "0x1A" and "Infinity".
-const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
 function numberCell(text: string, row: number, column: string): number {
   const t = text.trim();
-  if (!NUMBER.test(t)) {
+  if (!DECIMAL_NUMBER.test(t)) {
     throw nothingImported(row, column, `"${t}" is not a number; write it with a decimal point and nothing else, e.g. 0.35`);
   }
   return finite(t, row, column);
@@ -511,7 +509,7 @@ function numberList(text: string, row: number, column: string): number[] {
     .trim()
     .split(/\s+/)
     .map((t) => {
-      if (!NUMBER.test(t)) {
+      if (!DECIMAL_NUMBER.test(t)) {
         throw nothingImported(row, column, `"${t}" is not a number; separate the numbers with spaces and write each with a decimal point, e.g. 0.5 0.3 0.2`);
       }
       return finite(t, row, column);
@@ -522,7 +520,7 @@ function numberList(text: string, row: number, column: string): number[] {
 function valueList(text: string, row: number, column: string, shape: TypeShape): (number | string)[] {
   if (shape.type === 'numeric' && shape.value_kind === 'number') return numberList(text, row, column);
   const tokens = text.trim().split(/\s+/);
-  return shape.type === 'numeric' ? tokens : tokens.map((t) => (NUMBER.test(t) ? Number(t) : t));
+  return shape.type === 'numeric' ? tokens : tokens.map((t) => (DECIMAL_NUMBER.test(t) ? Number(t) : t));
 }
 
 /** The type columns of one row, each checked with the diary file's rule for the field; undefined when empty. */
@@ -657,7 +655,7 @@ const NOT_IN_PLAIN_ROWS = ['probs', 'quantiles', 'lenses', 'reference_at', 'refe
 function plainRevisionRow(cell: Cell): FileForecast | null {
   for (const c of NOT_IN_PLAIN_ROWS) if (cell(c).trim() !== '') return null;
   const pText = cell('p').trim();
-  if (!NUMBER.test(pText)) return null;
+  if (!DECIMAL_NUMBER.test(pText)) return null;
   const p = Number(pText);
   if (!(p >= 0 && p <= 1)) return null;
   const at = v.readInstant(cell('forecast_at').trim());

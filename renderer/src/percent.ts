@@ -1,4 +1,5 @@
 /** Probabilities are stored as 0–1 and shown and typed in percent. */
+import { DECIMAL_NUMBER } from '../../shared/numeric-value';
 import { LOG_CLIP_HIGH, LOG_CLIP_LOW } from '../../shared/scoring';
 
 /** e.g. 0.4 → "40%", 0.425 → "42.5%", 1/3 → "33.33%"; null → "—". */
@@ -25,7 +26,7 @@ export function percentToProbability(text: string): Parsed<number | null> {
   const trimmed = text.trim();
   if (trimmed === '') return { ok: true, value: null };
   const n = Number(trimmed);
-  if (!Number.isFinite(n)) return { ok: false, error: 'must be a number of percent, e.g. 35' };
+  if (!DECIMAL_NUMBER.test(trimmed) || !Number.isFinite(n)) return { ok: false, error: 'must be a number of percent, e.g. 35' };
   if (n < 0 || n > 100) return { ok: false, error: 'must be between 0% and 100%' };
   return { ok: true, value: Number((n / 100).toPrecision(15)) };
 }

@@ -10,6 +10,7 @@ import assert from 'node:assert/strict';
 import { createQuestionRequest, settingsPatch } from '../../shared/contract';
 import { plainReason, placeReasons, schemaReasons } from '../../renderer/src/fieldMessages';
 import { percentAdvice, percentToProbability } from '../../renderer/src/percent';
+import { readDecimal } from '../../shared/numeric-value';
 import { cost, identityRows, score3 } from '../../renderer/src/screens/scorecard/format';
 import { formatCount } from '../../renderer/src/dates';
 
@@ -37,6 +38,13 @@ test('0% and 100% are saved but warned about, with the value the log score uses'
   assert.equal(percentAdvice('50'), null);
   assert.equal(percentAdvice(''), null);
   assert.equal(percentAdvice('150'), null, 'out of range is an error, not advice');
+  // Only decimal notation is a percent: Number() would read "0x32" as 50 and "0b1" as 1.
+  for (const text of ['0x32', '0b1', '0o7', 'Infinity']) assert.deepEqual(percentToProbability(text), { ok: false, error: 'must be a number of percent, e.g. 35' }, text);
+  assert.equal(percentAdvice('0x32'), null);
+  // Every other typed number (costs, settings, thresholds, the thinking tools) follows the same rule.
+  for (const text of ['0x10', '0b1', 'Infinity', '1e400', '']) assert.equal(readDecimal(text), null, text);
+  assert.equal(readDecimal(' 1e3 '), 1000);
+  assert.equal(readDecimal('.5'), 0.5);
 });
 
 test('a fraction typed into a percent box asks whether the percent was meant', () => {

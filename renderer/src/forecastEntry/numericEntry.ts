@@ -7,7 +7,7 @@
  */
 import type { ValueKind } from '../../../shared/domain';
 import { levelName } from '../../../shared/forecast-text';
-import { dateToDays } from '../../../shared/numeric-value';
+import { DECIMAL_NUMBER, dateToDays } from '../../../shared/numeric-value';
 import { formatDay, formatDecimal } from '../dates';
 import { quantilesProblem } from '../../../shared/quantile-levels';
 import type { Parsed } from '../percent';
@@ -50,13 +50,10 @@ export function readValue(text: string, kind: ValueKind): Parsed<number | null> 
     const days = dateToDays(trimmed);
     return days === null ? { ok: false, error: 'must be a calendar date' } : { ok: true, value: days };
   }
-  if (!DECIMAL.test(trimmed)) return { ok: false, error: 'must be a number, e.g. 12.5' };
+  if (!DECIMAL_NUMBER.test(trimmed)) return { ok: false, error: 'must be a number, e.g. 12.5' };
   const n = Number(trimmed);
   return Number.isFinite(n) ? { ok: true, value: n } : { ok: false, error: 'is too large a number to hold (beyond about ±1.8e308)' };
 }
-
-/** A number in decimal notation with an optional exponent, as a diary file writes one (not "0x1A", not "Infinity"). */
-const DECIMAL = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
 export interface NumericProblems {
   /** A problem with one level's box, by level index. */

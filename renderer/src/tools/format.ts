@@ -3,6 +3,7 @@
  * to one decimal of a percent at most (36.4%, 80%, 9.5%), and intervals in whole percents;
  * the same rounding fills a form's box, so the user saves exactly what they were shown.
  */
+import { readDecimal } from '../../../shared/numeric-value';
 
 /** e.g. 0.363636 → "36.4", 0.8 → "80", 0.095163 → "9.5" (percent text for a form's box). */
 export function estimateText(p: number): string {
@@ -28,7 +29,5 @@ export { formatDay, plural } from '../dates';
  * the user types, so a half-typed value just means "no result yet" rather than an error.
  */
 export function numberOrNull(text: string): number | null {
-  if (text.trim() === '') return null;
-  const n = Number(text);
-  return Number.isFinite(n) ? n : null;
+  return readDecimal(text);
 }

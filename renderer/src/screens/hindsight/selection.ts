@@ -6,6 +6,7 @@
  */
 import type { Request } from '../../../../shared/contract';
 import { dayRange } from '../../dates';
+import { readDecimal } from '../../../../shared/numeric-value';
 
 export interface HindsightSelection {
   /** '' means every tag. */
@@ -47,8 +48,8 @@ export interface BuiltSelection {
 /** Percent text → threshold as a probability, or the reason it cannot be one. */
 export function parseThreshold(text: string): { value: number } | { problem: string } {
   const trimmed = text.trim();
-  const n = Number(trimmed);
-  if (trimmed === '' || !Number.isFinite(n)) return { problem: `must be a percentage from ${MIN_THRESHOLD_PERCENT} to ${MAX_THRESHOLD_PERCENT}` };
+  const n = readDecimal(trimmed);
+  if (n === null) return { problem: `must be a percentage from ${MIN_THRESHOLD_PERCENT} to ${MAX_THRESHOLD_PERCENT}` };
   if (n < MIN_THRESHOLD_PERCENT || n > MAX_THRESHOLD_PERCENT) {
     return { problem: `must be from ${MIN_THRESHOLD_PERCENT}% to ${MAX_THRESHOLD_PERCENT}%` };
   }

@@ -20,6 +20,7 @@ import { type QuestionChanges, questionDialog, type QuestionFormProps, saveQuest
 import { percentText, percentToProbability } from '../../percent';
 import { BaseRateHelper } from '../../tools/BaseRateHelper';
 import { KIND_OPTIONS, kindHint } from './labels';
+import { readDecimal } from '../../../../shared/numeric-value';
 
 const LABELS = {
   title: 'Question',
@@ -41,8 +42,7 @@ export const EditDialog = questionDialog(EditForm, () => ({ title: 'Edit questio
 
 function numberOrBlank(text: string): number | null | 'invalid' {
   if (text.trim() === '') return null;
-  const n = Number(text);
-  return Number.isFinite(n) ? n : 'invalid';
+  return readDecimal(text) ?? 'invalid';
 }
 
 /** The window being edited, in days, for the base-rate helper; null while a time is incomplete. */

@@ -12,13 +12,13 @@ import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { replacedValues, useSettingsUndoToast } from '../../forgiving/settingsUndo';
 import { useForm } from '../../forms';
+import { readDecimal } from '../../../../shared/numeric-value';
 
 const LABELS = { default_false_alarm_cost: 'False-alarm cost', default_miss_cost: 'Miss cost' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
 function costProblem(text: string): string | undefined {
-  const n = Number(text.trim());
-  if (text.trim() === '' || !Number.isFinite(n)) return 'must be a number';
+  if (readDecimal(text) === null) return 'must be a number';
   return undefined;
 }
 

@@ -5,6 +5,7 @@
  */
 import type { Request } from '../../../../shared/contract';
 import { dayRange } from '../../dates';
+import { readDecimal } from '../../../../shared/numeric-value';
 
 export interface ScorecardFilter {
   /** '' means every tag. */
@@ -37,8 +38,8 @@ export interface BuiltRequest {
 function parseCost(text: string): { value: number | null; problem?: string } {
   const trimmed = text.trim();
   if (trimmed === '') return { value: null };
-  const n = Number(trimmed);
-  if (!Number.isFinite(n) || n <= 0) return { value: null, problem: 'must be a cost greater than 0' };
+  const n = readDecimal(trimmed);
+  if (n === null || n <= 0) return { value: null, problem: 'must be a cost greater than 0' };
   return { value: n };
 }
 

@@ -5,6 +5,7 @@
  */
 import type { Request } from '../../../../shared/contract';
 import type { Settings } from '../../../../shared/domain';
+import { readDecimal } from '../../../../shared/numeric-value';
 
 export interface SettingsDraft {
   checkinDays: string;
@@ -41,9 +42,7 @@ export function sameDraft(a: SettingsDraft, b: SettingsDraft): boolean {
 
 /** A typed number, or null when the box is empty or does not hold a number. */
 export function numberIn(text: string): number | null {
-  if (text.trim() === '') return null;
-  const n = Number(text);
-  return Number.isFinite(n) ? n : null;
+  return readDecimal(text);
 }
 
 export interface PatchResult {
