@@ -10,7 +10,7 @@
  * Synchronous on purpose: an export reads the diary in one read snapshot while it writes,
  * and nothing else may run on that connection in between.
  */
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -156,6 +156,24 @@ export function clearLeftovers(folder: string, pattern: RegExp): void {
   }
 }
 
+/** The longest file name most file systems take, in bytes (NAME_MAX on Linux and macOS). */
+const NAME_MAX_BYTES = 255;
+
+/**
+ * How a temporary file beside `name` names it, given the `extraBytes` the temporary name adds
+ * (process id, random part, suffix): `name` itself when it all fits in 255 bytes, otherwise
+ * its first whole characters and a hash of the whole name, so a file whose own name fits can
+ * always be written. The same `name` always gives the same stem, so leftovers are found again.
+ */
+export function temporaryStem(name: string, extraBytes: number): string {
+  if (Buffer.byteLength(name) + extraBytes <= NAME_MAX_BYTES) return name;
+  const hash = createHash('sha256').update(name).digest('hex').slice(0, 16);
+  const characters = Array.from(name);
+  let bytes = Buffer.byteLength(name);
+  while (characters.length > 0 && bytes + 1 + hash.length + extraBytes > NAME_MAX_BYTES) bytes -= Buffer.byteLength(characters.pop()!);
+  return `${characters.join('')}~${hash}`;
+}
+
 /** `text` matched literally inside a regular expression. */
 export const escapeRegExp = (text: string): string => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
@@ -196,8 +214,10 @@ export function writeFileAtomic(target: string, content: FileContent): void {
   }
 
   const folder = path.dirname(destination);
-  clearLeftovers(folder, new RegExp(`^\\.${escapeRegExp(path.basename(destination))}\\.(\\d+)-[0-9a-f]{8}\\.partial$`));
-  const temporary = path.join(folder, `.${path.basename(destination)}.${process.pid}-${randomBytes(4).toString('hex')}.partial`);
+  // ".NAME.<pid up to 7 digits>-<8 hex>.partial" adds at most 26 bytes to the name.
+  const stem = temporaryStem(path.basename(destination), 26);
+  clearLeftovers(folder, new RegExp(`^\\.${escapeRegExp(stem)}\\.(\\d+)-[0-9a-f]{8}\\.partial$`));
+  const temporary = path.join(folder, `.${stem}.${process.pid}-${randomBytes(4).toString('hex')}.partial`);
   let fd: number | undefined;
   try {
     fd = fs.openSync(temporary, 'wx', 0o666);

@@ -8,7 +8,7 @@ import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { clearLeftovers, escapeRegExp } from '../files/atomic-write';
+import { clearLeftovers, escapeRegExp, temporaryStem } from '../files/atomic-write';
 import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
 import { openStore, type Db, type StoreHandles } from '../store/open';
@@ -63,13 +63,15 @@ function realPath(file: string): string {
 async function writeCopy(source: Db, sourcePath: string, file: string, onProgress?: (percent: number) => void): Promise<void> {
   const target = copyTarget(file);
   // Not ending in .sqlite, so a partial copy is never taken for one of the rolling backups.
-  const partial = `${target}.partial-${process.pid}-${randomBytes(4).toString('hex')}`;
+  // "NAME.partial-<pid up to 7 digits>-<8 hex>-journal" adds at most 33 bytes to the name.
+  const stem = temporaryStem(path.basename(target), 33);
+  const partial = path.join(path.dirname(target), `${stem}.partial-${process.pid}-${randomBytes(4).toString('hex')}`);
   try {
     fs.mkdirSync(path.dirname(target), { recursive: true });
     // SQLite says only "cannot open" for a folder we may not write; the OS says why.
     fs.accessSync(path.dirname(target), fs.constants.W_OK);
     // Partial copies of this target left by a killed earlier backup (with their journals).
-    clearLeftovers(path.dirname(target), new RegExp(`^${escapeRegExp(path.basename(target))}\\.partial-(\\d+)-[0-9a-f]{8}(?:-journal|-wal|-shm)?$`));
+    clearLeftovers(path.dirname(target), new RegExp(`^${escapeRegExp(stem)}\\.partial-(\\d+)-[0-9a-f]{8}(?:-journal|-wal|-shm)?$`));
     await source.backup(partial, {
       progress({ totalPages, remainingPages }) {
         if (totalPages > 0) onProgress?.(Math.round(((totalPages - remainingPages) / totalPages) * 100));

@@ -134,3 +134,15 @@ test('a missing folder or a folder as the target is refused with what to do; a d
   writeFileAtomic('/dev/null', OLD);
   assert.ok(fs.statSync('/dev/null').isCharacterDevice(), '/dev/null was written to, not replaced');
 });
+
+test('a file whose name is as long as the file system allows (up to 255 bytes) is written; the temporary file’s name is shortened to fit', () => {
+  const dir = tempDir();
+  // 251 bytes of name with two-byte characters in it: the temporary name shortens by whole characters.
+  const name = `${'é'.repeat(20)}${'n'.repeat(206)}.json`;
+  assert.equal(Buffer.byteLength(name), 251);
+  const file = path.join(dir, name);
+  writeFileAtomic(file, OLD);
+  writeFileAtomic(file, 'new\n');
+  assert.equal(fs.readFileSync(file, 'utf8'), 'new\n');
+  assert.deepEqual(fs.readdirSync(dir), [name], 'nothing else is left in the folder');
+});

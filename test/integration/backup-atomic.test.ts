@@ -124,3 +124,13 @@ test('a backup onto a symbolic link replaces the file it points to; onto a named
   assert.ok(fs.lstatSync(pipe).isFIFO(), 'the pipe was not replaced by a file');
   assert.deepEqual(fs.readdirSync(dir).sort(), ['folder.sqlite', 'link.sqlite', 'pipe.sqlite', 'real.sqlite']);
 });
+
+test('a backup onto a file whose name is as long as the file system allows is written, and nothing else is left beside it', async () => {
+  const d = openTestDiary();
+  await d.call('createQuestion', { title: 'In the copy', closes_at: '2027-01-01T00:00:00Z' });
+  const dir = tempDir();
+  const name = `${'b'.repeat(248)}.sqlite`;
+  await backupTo(d.service.store, path.join(dir, name));
+  assert.deepEqual(fs.readdirSync(dir), [name]);
+  assert.equal(inspectBackup(path.join(dir, name)).questions, 1);
+});
