@@ -13,6 +13,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import { fileNameProblem, NAME_MAX_BYTES } from './file-name';
 
 export type Chunk = string | Uint8Array;
 /** Whole content, or chunks in order (e.g. a generator that reads the diary batch by batch). */
@@ -156,9 +157,6 @@ export function clearLeftovers(folder: string, pattern: RegExp): void {
   }
 }
 
-/** The longest file name most file systems take, in bytes (NAME_MAX on Linux and macOS). */
-const NAME_MAX_BYTES = 255;
-
 /**
  * How a temporary file beside `name` names it, given the `extraBytes` the temporary name adds
  * (process id, random part, suffix): `name` itself when it all fits in 255 bytes, otherwise
@@ -186,6 +184,8 @@ export const escapeRegExp = (text: string): string => text.replace(/[.*+?^${}()|
  * after the temporary file is removed.
  */
 export function writeFileAtomic(target: string, content: FileContent): void {
+  const tooLong = fileNameProblem(target);
+  if (tooLong) throw new FileWriteError(`Could not write ${tooLong} No file was written.`, 'ENAMETOOLONG');
   let destination = path.resolve(target);
   let existing: fs.Stats | undefined;
   try {

@@ -9,6 +9,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { clearLeftovers, escapeRegExp, temporaryStem } from '../files/atomic-write';
+import { fileNameProblem } from '../files/file-name';
 import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
 import { openStore, type Db, type StoreHandles } from '../store/open';
@@ -32,6 +33,8 @@ function fsyncPath(target: string, flags: string): void {
  */
 function copyTarget(file: string): string {
   const named = path.resolve(file);
+  const tooLong = fileNameProblem(named);
+  if (tooLong) throw new Error(`${tooLong} No copy was written; the diary is unchanged.`);
   let stats: fs.Stats;
   try {
     stats = fs.statSync(named);

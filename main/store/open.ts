@@ -8,6 +8,7 @@ import Database from 'better-sqlite3';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { fileNameProblem } from '../files/file-name';
 import { describeProblem, StoreError, toStoreError } from './errors';
 import { MIGRATIONS, SCHEMA_VERSION, type Migration } from './migrations';
 
@@ -174,6 +175,8 @@ function createdHere(file: string): boolean {
 
 export function openStore(file: string, options: OpenStoreOptions = {}): StoreHandles {
   const resolved = path.resolve(file);
+  const tooLong = fileNameProblem(resolved);
+  if (tooLong) throw new StoreError('not_a_diary', resolved, `${tooLong} Nothing was created or changed (--db).`);
   const canWrite = options.canWrite ?? canWriteFile;
   const exists = fs.existsSync(resolved);
   if (!exists && options.create === false) throw new StoreError('missing', resolved, describeProblem('missing', resolved));

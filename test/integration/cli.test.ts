@@ -447,3 +447,23 @@ test('restore from a folder or a pipe names the backup path, not the diary, and 
   assert.doesNotMatch(damaged.stderr, /The diary .* is damaged/);
   assert.equal(forelog('export', '--db', db).stdout, before);
 });
+
+test('a file name longer than the file system allows (255 bytes) is named as too long, for the diary and for every file written, and nothing is created', () => {
+  const dir = tempDir();
+  const db = path.join(dir, 'd.sqlite');
+  assert.equal(forelog('demo', '--db', db).status, 0);
+  const long = 'n'.repeat(300);
+  const cases: string[][] = [
+    ['score', '--db', path.join(dir, `${long}.sqlite`)],
+    ['demo', '--db', path.join(dir, `${long}.sqlite`)],
+    ['export', path.join(dir, `${long}.json`), '--db', db],
+    ['backup', path.join(dir, `${long}.sqlite`), '--db', db],
+  ];
+  for (const args of cases) {
+    const r = forelog(...args);
+    assert.equal(r.status, 1, args[0]);
+    assert.match(r.stderr, /^forelog: .*: its name is 30[57] bytes long, more than the 255 a file name may have; choose a shorter name\./, args[0]);
+    assert.doesNotMatch(r.stderr, /ENAMETOOLONG|There is no diary|that was there/, args[0]);
+  }
+  assert.deepEqual(fs.readdirSync(dir).sort(), ['d.sqlite']);
+});
