@@ -12,6 +12,7 @@ import { NUDGE_KIND_NAMES } from '../shared/domain';
 import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
 import { version as VERSION } from '../package.json';
 import { FileWriteError, writeToDescriptor, type Chunk } from './files/atomic-write';
+import { fileNameProblem } from './files/file-name';
 import { defaultDiaryPath } from './paths';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
@@ -350,6 +351,8 @@ async function run(argv: string[]): Promise<void> {
       const file = one(positionals, 'FILE to import');
       const format = values.format ?? (/\.csv$/i.test(file) ? 'csv' : 'json');
       if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
+      const tooLong = fileNameProblem(file);
+      if (tooLong) throw new Error(`${tooLong} Nothing was imported.`);
       if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
       // Streamed from the file: no size limit, all or nothing.
       const progress = progressLine(`Importing ${file}`, 'saving');

@@ -114,6 +114,8 @@ export async function backupTo(store: StoreHandles, file: string, onProgress?: (
 
 /** Checks that `file` is a Forelog diary this version can open; returns its question count. */
 export function inspectBackup(file: string): { questions: number; version: number } {
+  const tooLong = fileNameProblem(file);
+  if (tooLong) throw new Error(`${tooLong} The diary is unchanged.`);
   if (!fs.existsSync(file)) throw new Error(`There is no file at ${file}. Check the path.`);
   const stats = fs.statSync(file);
   if (stats.isDirectory()) throw new Error(`${file} is a folder, not a backup copy; give the path of a backup file. Nothing was restored.`);

@@ -448,7 +448,7 @@ test('restore from a folder or a pipe names the backup path, not the diary, and 
   assert.equal(forelog('export', '--db', db).stdout, before);
 });
 
-test('a file name longer than the file system allows (255 bytes) is named as too long, for the diary and for every file written, and nothing is created', () => {
+test('a file name longer than the file system allows (255 bytes) is named as too long, for the diary and for every file read or written, and nothing is created', () => {
   const dir = tempDir();
   const db = path.join(dir, 'd.sqlite');
   assert.equal(forelog('demo', '--db', db).status, 0);
@@ -458,6 +458,8 @@ test('a file name longer than the file system allows (255 bytes) is named as too
     ['demo', '--db', path.join(dir, `${long}.sqlite`)],
     ['export', path.join(dir, `${long}.json`), '--db', db],
     ['backup', path.join(dir, `${long}.sqlite`), '--db', db],
+    ['import', path.join(dir, `${long}.json`), '--db', db],
+    ['restore', path.join(dir, `${long}.sqlite`), '--db', db],
   ];
   for (const args of cases) {
     const r = forelog(...args);
