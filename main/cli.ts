@@ -147,9 +147,14 @@ function parse(argv: string[]): Parsed {
     if (err instanceof UsageError) throw err;
     // node:util's own wording is written for programmers ("place it at the end … after '--'").
     const code = (err as NodeJS.ErrnoException).code;
-    const option = /'(-[^' ]+)/.exec((err as Error).message)?.[1];
+    const message = (err as Error).message;
+    const option = /'(-[^' ]+)/.exec(message)?.[1];
     if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') throw new UsageError(`there is no option ${option ?? ''}`.trimEnd());
-    if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') throw new UsageError(`${option ?? 'an option'} needs a value (or takes none)`);
+    if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
+      const name = option ?? 'the option';
+      if (/does not take an argument/.test(message)) throw new UsageError(`${name} takes no value; write ${name} alone`);
+      throw new UsageError(`${name} needs a value: write ${name} VALUE (or ${name}=VALUE for one that starts with a dash)`);
+    }
     throw err;
   }
 }

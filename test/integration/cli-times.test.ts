@@ -116,7 +116,9 @@ test('an option the command does not use is refused, and the help hint comes onc
     [['export', '--merge'], 'forelog: export does not use --merge; it takes --format. See forelog --help.\n'],
     [['frobnicate'], 'forelog: unknown command "frobnicate". See forelog --help.\n'],
     [['due', '--bogus'], 'forelog: there is no option --bogus. See forelog --help.\n'],
-    [['score', '--tag'], 'forelog: --tag needs a value (or takes none). See forelog --help.\n'],
+    [['score', '--tag'], 'forelog: --tag needs a value: write --tag VALUE (or --tag=VALUE for one that starts with a dash). See forelog --help.\n'],
+    [['score', '--tag', '-x'], 'forelog: --tag needs a value: write --tag VALUE (or --tag=VALUE for one that starts with a dash). See forelog --help.\n'],
+    [['score', '--json=1'], 'forelog: --json takes no value; write --json alone. See forelog --help.\n'],
   ];
   for (const [args, stderr] of cases) {
     const r = forelog(...args, '--db', db);
