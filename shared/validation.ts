@@ -152,7 +152,8 @@ export const searchText = text('one').max(200, { message: 'must be at most 200 c
 /** A whole number from `min` to `max` (paging: an offset or a page size). */
 export function count(max: number, min = 0) {
   // Past 2^53 − 1 whole numbers are no longer told apart; say so rather than "0 or more" to a 2^53.
-  const rule = max === Number.MAX_SAFE_INTEGER ? `must be a whole number, ${min} or more (at most ${max})` : `must be a whole number from ${min} to ${max}`;
+  const [low, high] = [min.toLocaleString('en-GB'), max.toLocaleString('en-GB')];
+  const rule = max === Number.MAX_SAFE_INTEGER ? `must be a whole number, ${low} or more (at most ${high})` : `must be a whole number from ${low} to ${high}`;
   return z
     .number({ error: rule })
     .refine((n) => Number.isInteger(n) && n >= min && n <= max, { message: rule });

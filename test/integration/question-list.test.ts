@@ -223,13 +223,13 @@ test('bad paging and sorting requests are refused, naming the field, and change 
   const { d } = await diary();
   await refused(d, 'listQuestions', { sort: 'colour' }, /^sort: must be one of attention, title/);
   await refused(d, 'listQuestions', { direction: 'up' }, /^direction: must be asc or desc/);
-  await refused(d, 'listQuestions', { limit: -1 }, /^limit: must be a whole number from 1 to 1000/);
+  await refused(d, 'listQuestions', { limit: -1 }, /^limit: must be a whole number from 1 to 1,000$/);
   await refused(d, 'listQuestions', { limit: 0 }, /^limit: /);
   await refused(d, 'listQuestions', { limit: LIST_PAGE_MAX + 1 }, /^limit: /);
   await refused(d, 'listQuestions', { limit: 2.5 }, /^limit: /);
   await refused(d, 'listQuestions', { limit: '10' }, /^limit: /);
   await refused(d, 'listQuestions', { offset: -1 }, /^offset: must be a whole number, 0 or more/);
-  await refused(d, 'listQuestions', { offset: 2 ** 53 }, /^offset: must be a whole number, 0 or more \(at most 9007199254740991\)$/);
+  await refused(d, 'listQuestions', { offset: 2 ** 53 }, /^offset: must be a whole number, 0 or more \(at most 9,007,199,254,740,991\)$/);
   await refused(d, 'listQuestions', { offset: 0.5 }, /^offset: /);
   await refused(d, 'listQuestions', { offset: Number.NaN }, /^offset: /);
   await refused(d, 'hindsight', { limit: 0 }, /^limit: /);
