@@ -3,7 +3,8 @@
  * empty New question flags the question and the close together; a bad tag left in the tag
  * box stops the save instead of vanishing; refusals never show request names such as
  * "opened_at". Percent boxes warn at 0% and 100% (saved as typed, clipped by the log score
- * to 0.1% and 99.9%, docs/scoring.md) and ask whether 50% was meant when 0.5 is typed; a
+ * to 0.1% and 99.9%, docs/scoring.md) and ask whether 50% was meant when 0.5 is typed (a
+ * choice box too, unless its chances already add to 100%); a
  * decimal comma typed there is read as a point ("0,7" is 0.7), not dropped.
  * Dates are typed in the user's own order (en-GB here: day/month/year) and read back with
  * the zone's offset. Yes and No look different wherever they are actions. A toast's action
@@ -152,6 +153,46 @@ test('a decimal comma typed in a percent box is read as a point, not dropped', a
   await mine.fill('');
   await mine.pressSequentially('12,5');
   await expect(mine).toHaveValue('12.5');
+  await discard(page, dialog);
+});
+
+test('a choice box asks whether 50% was meant when 0.5 is typed, unless the chances already add to 100%', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Which bidder wins the Harbour tender?');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('01/07/2031');
+  await dialog.getByRole('textbox', { name: 'Closes: time' }).fill('09:30');
+  await dialog.getByRole('radio', { name: 'Multiple choice' }).check();
+  const options = dialog.getByRole('textbox', { name: /^Option \d$/ });
+  await options.nth(0).fill('Maersk');
+  await options.nth(1).fill('DSV');
+  await options.nth(2).fill('Other');
+  const chances = dialog.getByRole('group', { name: 'Your chances' });
+  const maersk = chances.getByRole('spinbutton', { name: 'Maersk' });
+  await maersk.fill('0.5');
+  await chances.getByRole('spinbutton', { name: 'DSV' }).fill('30');
+  await chances.getByRole('spinbutton', { name: 'Other' }).fill('20');
+  const question = chances.getByTestId('percent-question');
+  await expect(question).toContainText('Did you mean 50%?');
+  await expect(maersk).toHaveAccessibleDescription(/Did you mean 50%\?/);
+  // Saving waits for the answer and takes the keyboard to it.
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(chances.getByRole('button', { name: 'Use 50%' })).toBeFocused();
+  await chances.getByRole('button', { name: 'Use 50%' }).click();
+  await expect(maersk).toHaveValue('50');
+  await expect(maersk).toBeFocused();
+  await expect(question).toHaveCount(0);
+  await expect(chances.getByTestId('choice-total')).toContainText('Total 100%');
+
+  // A long shot at 0.5% in boxes that add to 100% was meant: nothing to ask, and 0% is no warning here.
+  await maersk.fill('0.5');
+  await chances.getByRole('spinbutton', { name: 'DSV' }).fill('79.5');
+  await chances.getByRole('spinbutton', { name: 'Other' }).fill('20');
+  await expect(chances.getByTestId('choice-total')).toContainText('Total 100%');
+  await expect(question).toHaveCount(0);
+  await chances.getByRole('spinbutton', { name: 'Other' }).fill('0');
+  await chances.getByRole('spinbutton', { name: 'DSV' }).fill('99.5');
+  await expect(chances.getByTestId('percent-warning')).toHaveCount(0);
   await discard(page, dialog);
 });
 
