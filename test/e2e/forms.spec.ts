@@ -156,6 +156,19 @@ test('a decimal comma typed in a percent box is read as a point, not dropped', a
   await discard(page, dialog);
 });
 
+test('the click that leaves a half-typed close lands where it was aimed, and the close says what is missing', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Harbour board meets in July');
+  // A date without its time, then straight to the type of answer with the mouse: the message
+  // "Add the time" pushes the radio down, but only after the click has landed on it.
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('01/07/2031');
+  await dialog.getByRole('radio', { name: 'Multiple choice' }).click();
+  await expect(dialog.getByRole('radio', { name: 'Multiple choice' })).toBeChecked();
+  await expect(dialog.getByRole('textbox', { name: 'Closes', exact: true })).toHaveAccessibleDescription(/Add the time/);
+  await discard(page, dialog);
+});
+
 test('a choice box asks whether 50% was meant when 0.5 is typed, unless the chances already add to 100%', async () => {
   const { page } = app;
   const dialog = await openQuickAdd(page);
