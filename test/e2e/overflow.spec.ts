@@ -3,7 +3,8 @@
  * reference source are each one unbroken word as long as the diary allows (a 300-character
  * title, a 64-character tag, a 200-character source), no screen is wider than the window at
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
- * decomposition, the numeric questions' scores, a choice question's history) fit their cards,
+ * decomposition, the numeric questions' scores, a choice question's history, a five-level numeric
+ * question's history) fit their cards,
  * the question list's close times and figures fit their cells, and the base-rate card shows
  * its whole note. Screens are photographed at both sizes; the long question's page is scanned
  * by axe in light and dark. At 800×600 the question list leaves most of a row to the question
@@ -30,6 +31,7 @@ const iso = (ms: number) => new Date(ms).toISOString();
 
 let open: Question;
 let resolved: Question;
+let numeric: Question;
 
 test('setup: the example diary and two questions made of long words', async () => {
   await apiCall(server().url, 'loadDemo');
@@ -62,6 +64,18 @@ test('setup: the example diary and two questions made of long words', async () =
   });
   await apiCall(server().url, 'addReference', { question_id: resolved.id, p: 0.4, source: word(200, 's'), at: iso(now - 29 * DAY) });
   await apiCall(server().url, 'resolveQuestion', { id: resolved.id, outcome: 'no', note: word(300, 'o'), at: iso(now - 4 * DAY) });
+  // Five levels of six-figure values with a unit, forecast and reference.
+  numeric = await apiCall<Question>(server().url, 'createQuestion', {
+    title: 'Total pallet throughput at the Eastgate depot in Q1',
+    closes_at: iso(now + 90 * DAY),
+    time_zone: 'Europe/London',
+    type: 'numeric',
+    unit: 'pallets',
+    value_kind: 'number',
+    levels: [0.05, 0.25, 0.5, 0.75, 0.95],
+    first_forecast: { quantiles: [118_000, 124_500, 131_000, 137_250, 145_000], note: 'Last year’s Q1 plus the new racking.' },
+  });
+  await apiCall(server().url, 'addReference', { question_id: numeric.id, quantiles: [120_000, 126_000, 132_500, 139_000, 148_000], source: 'depot budget' });
 });
 
 interface Screen {
@@ -79,6 +93,8 @@ const SCREENS: Screen[] = [
   { name: 'question-resolved', hash: () => `questions/${encodeURIComponent(resolved.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   // A choice question whose four options are long headings ("More than 6 weeks late").
   { name: 'question-choice', hash: () => 'questions/demo-tollmere-booking-slip', ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
+  // Five levels of values with a unit ("118,000 pallets") head to head with the Note column.
+  { name: 'question-numeric', hash: () => `questions/${encodeURIComponent(numeric.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   { name: 'scorecard', hash: () => 'scorecard', ready: (page) => expect(page.locator('[data-scorecard-ready="true"]')).toBeVisible() },
   { name: 'hindsight', hash: () => 'hindsight', ready: (page) => expect(page.locator('[data-hindsight-ready="true"]')).toBeVisible() },
   { name: 'settings', hash: () => 'settings', ready: heading },

@@ -24,6 +24,9 @@ export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteRefe
     q.type === 'choice'
       ? values.map((p) => formatPercent(p as number))
       : values.map((v) => formatValue(toStoredValue(v, q.value_kind), q.value_kind, q.unit));
+  // A value with its unit ("118,000 pallets") may wrap before the unit: five levels of them
+  // on one line pushed the Note and Delete columns out of a 1024-wide window. Percents do not.
+  const cellClassName = q.type === 'choice' ? 'num nowrap' : 'num';
   const forecasts: EntryRow[] = byTime<{ id: string; at: string; seq: number; note: string; values: readonly (number | string)[] }>(
     q.type === 'choice' ? q.forecasts.map((f) => ({ ...f, values: f.probs })) : q.forecasts.map((f) => ({ ...f, values: f.quantiles })),
   ).map((f) => ({
@@ -48,7 +51,7 @@ export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteRefe
         kind="revision"
         caption="Your forecasts"
         headers={headers}
-        cellClassName="num nowrap"
+        cellClassName={cellClassName}
         detailHeader="Note"
         empty="No forecasts yet — use Revise to give yours."
         zone={zone}
@@ -59,7 +62,7 @@ export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteRefe
         kind="reference"
         caption="Reference forecasts"
         headers={headers}
-        cellClassName="num nowrap"
+        cellClassName={cellClassName}
         detailHeader="Source"
         empty="None yet — add a client’s view or a plan’s figures to compare against."
         zone={zone}
