@@ -142,6 +142,13 @@ for (const size of SIZES) {
         }
         if (screen.name === 'hindsight') {
           expect(await cut(page, '.hs-entry'), 'hindsight entries').toEqual([]);
+          // The calibration table keeps inside its card's padding, clear of the edge.
+          const spill = await page.locator('.hs-summary').evaluate((card) => {
+            const table = card.querySelector('table')!;
+            const inner = card.getBoundingClientRect().right - parseFloat(getComputedStyle(card).paddingRight);
+            return table.getBoundingClientRect().right - inner;
+          });
+          expect(spill, 'the calibration table past its card’s padding (px)').toBeLessThanOrEqual(0.5);
         }
       }
 
