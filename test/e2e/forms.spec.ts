@@ -265,8 +265,31 @@ test('Edit says a close before the opening beside Closes, without internal names
   await dialog.getByRole('button', { name: 'Save changes' }).click();
   // Both problems at once; the window's order in words, not "(opened_at)".
   await expect(dialog.getByRole('textbox', { name: 'Question', exact: true })).toHaveAccessibleDescription(/Write the question/);
-  await expect(closes).toHaveAccessibleDescription(/Must be after the opening time/);
+  await expect(closes).toHaveAccessibleDescription(/Must be after the opening time: choose a later close, or move “Opened” earlier/);
   for (const message of await dialog.getByTestId('field-error').allTextContents()) expect(message).not.toMatch(SNAKE_CASE);
+  await discard(page, dialog);
+});
+
+test('Edit of a numeric question says when it opened beside a close before it, and what to do', async () => {
+  const { page } = app;
+  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+    title: 'Eastgate pallets in Q1',
+    opened_at: '2026-10-24T08:03:00Z',
+    closes_at: '2031-03-31T16:00:00Z',
+    time_zone: 'Europe/London',
+    type: 'numeric',
+    unit: 'pallets',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+  });
+  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
+  await page.getByRole('button', { name: 'Edit' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Edit question' });
+  const closes = dialog.getByRole('textbox', { name: 'Closes', exact: true });
+  await closes.fill('01/01/2026');
+  await dialog.getByRole('button', { name: 'Save changes' }).click();
+  // The opening is not in this dialog: the message says when it was.
+  await expect(closes).toHaveAccessibleDescription(/Must be after the question opened \(24 Oct 2026, 09:03 GMT\+1\): choose a later close/);
   await discard(page, dialog);
 });
 
