@@ -19,7 +19,7 @@ interface Props {
 export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteReference }: Props) {
   const zone = q.time_zone;
   const when = (at: string) => formatInstant(at, zone, false);
-  const headers = q.type === 'choice' ? q.options : q.levels.map(levelLabel);
+  const headers = q.type === 'choice' ? q.options : q.levels.map((level) => levelLabel(level, q.levels));
   const cells = (values: readonly (number | string)[]): string[] =>
     q.type === 'choice'
       ? values.map((p) => formatPercent(p as number))
