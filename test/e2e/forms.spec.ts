@@ -166,6 +166,10 @@ test('the click that leaves a half-typed close lands where it was aimed, and the
   await dialog.getByRole('radio', { name: 'Multiple choice' }).click();
   await expect(dialog.getByRole('radio', { name: 'Multiple choice' })).toBeChecked();
   await expect(dialog.getByRole('textbox', { name: 'Closes', exact: true })).toHaveAccessibleDescription(/Add the time/);
+  // The date box is marked; the time zone beside it, which is not wrong, is not.
+  const border = (box: Locator) => box.evaluate((el) => getComputedStyle(el).borderTopColor);
+  const dateBorder = await border(dialog.getByRole('textbox', { name: 'Closes', exact: true }));
+  expect(await border(dialog.getByRole('combobox', { name: 'Time zone for closes' }))).not.toBe(dateBorder);
   await discard(page, dialog);
 });
 
