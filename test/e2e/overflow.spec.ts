@@ -32,6 +32,7 @@ const iso = (ms: number) => new Date(ms).toISOString();
 let open: Question;
 let resolved: Question;
 let numeric: Question;
+let numeric3: Question;
 
 test('setup: the example diary and two questions made of long words', async () => {
   await apiCall(server().url, 'loadDemo');
@@ -76,6 +77,17 @@ test('setup: the example diary and two questions made of long words', async () =
     first_forecast: { quantiles: [118_000, 124_500, 131_000, 137_250, 145_000], note: 'Last year’s Q1 plus the new racking.' },
   });
   await apiCall(server().url, 'addReference', { question_id: numeric.id, quantiles: [120_000, 126_000, 132_500, 139_000, 148_000], source: 'depot budget' });
+  // Three levels, one revision whose note is longer than its values.
+  numeric3 = await apiCall<Question>(server().url, 'createQuestion', {
+    title: 'Fee income for the half-year',
+    closes_at: iso(now + 90 * DAY),
+    time_zone: 'Europe/London',
+    type: 'numeric',
+    unit: '£k',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+    first_forecast: { quantiles: [1_400, 1_500, 1_600], note: 'Pellbridge extension signed; the low end moves up. Quellmoor is still undecided, so the high end stays where it was until their board meets in January.' },
+  });
 });
 
 interface Screen {
@@ -95,6 +107,8 @@ const SCREENS: Screen[] = [
   { name: 'question-choice', hash: () => 'questions/demo-tollmere-booking-slip', ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   // Five levels of values with a unit ("118,000 pallets") head to head with the Note column.
   { name: 'question-numeric', hash: () => `questions/${encodeURIComponent(numeric.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
+  // Three levels and a long note: the values stay whole ("1,400 £k"), the note wraps.
+  { name: 'question-numeric3', hash: () => `questions/${encodeURIComponent(numeric3.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   { name: 'scorecard', hash: () => 'scorecard', ready: (page) => expect(page.locator('[data-scorecard-ready="true"]')).toBeVisible() },
   { name: 'hindsight', hash: () => 'hindsight', ready: (page) => expect(page.locator('[data-hindsight-ready="true"]')).toBeVisible() },
   { name: 'settings', hash: () => 'settings', ready: heading },
@@ -132,6 +146,18 @@ for (const size of SIZES) {
             const box = await button.boundingBox();
             expect(box!.x + box!.width, `a Delete button on ${screen.name}`).toBeLessThanOrEqual(card!.x + card!.width);
           }
+        }
+        if (screen.name === 'question-numeric3') {
+          // One line box per value: "1,400 £k" was once broken before its unit.
+          const lines = await page.getByTestId('revisions-table').locator('tbody td.num').evaluateAll((cells) =>
+            cells.map((cell) => {
+              const range = document.createRange();
+              range.selectNodeContents(cell);
+              return new Set([...range.getClientRects()].map((r) => Math.round(r.top))).size;
+            }),
+          );
+          expect(lines.length).toBeGreaterThan(0);
+          expect(lines, 'lines per value').toEqual(lines.map(() => 1));
         }
         if (screen.name === 'questions') {
           // A close time such as "Oct 19, 2026, 05:00 PM GMT+1" once ran under the Last forecast column at 1920.

@@ -24,9 +24,10 @@ export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteRefe
     q.type === 'choice'
       ? values.map((p) => formatPercent(p as number))
       : values.map((v) => formatValue(toStoredValue(v, q.value_kind), q.value_kind, q.unit));
-  // A value with its unit ("118,000 pallets") may wrap before the unit: five levels of them
-  // on one line pushed the Note and Delete columns out of a 1024-wide window. Percents do not.
-  const cellClassName = q.type === 'choice' ? 'num nowrap' : 'num';
+  // With five levels a value may wrap before its unit ("118,000 / pallets"): five of them on
+  // one line pushed the Note and Delete columns out of a 1024-wide window. Three levels fit
+  // whole, and the table would otherwise give their room to a long note; percents never wrap.
+  const cellClassName = q.type === 'numeric' && q.levels.length > 3 ? 'num' : 'num nowrap';
   const forecasts: EntryRow[] = byTime<{ id: string; at: string; seq: number; note: string; values: readonly (number | string)[] }>(
     q.type === 'choice' ? q.forecasts.map((f) => ({ ...f, values: f.probs })) : q.forecasts.map((f) => ({ ...f, values: f.quantiles })),
   ).map((f) => ({
