@@ -142,7 +142,7 @@ test('0% and 100% are warned about and saved; 0.5 asks whether 50% was meant', a
   await discard(page, revise);
 });
 
-test('a decimal comma typed in a percent box is read as a point, not dropped', async () => {
+test('a decimal comma typed or pasted in a percent box is read as a point, not dropped', async () => {
   const { page } = app;
   const dialog = await openQuickAdd(page);
   const mine = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
@@ -153,6 +153,15 @@ test('a decimal comma typed in a percent box is read as a point, not dropped', a
   await mine.fill('');
   await mine.pressSequentially('12,5');
   await expect(mine).toHaveValue('12.5');
+  // Pasted, "0,7" once went in as "07": 7% saved without a word.
+  await mine.fill('');
+  await mine.evaluate((box) => {
+    const data = new DataTransfer();
+    data.setData('text/plain', '0,7');
+    box.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
+  });
+  await expect(mine).toHaveValue('0.7');
+  await expect(dialog.getByTestId('percent-question')).toContainText('Did you mean 70%?');
   await discard(page, dialog);
 });
 
