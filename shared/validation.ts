@@ -125,19 +125,26 @@ function text(lines: 'one' | 'many', typeError = 'must be text') {
   });
 }
 
+/**
+ * A text's length limit, with the length it has ("must be at most 300 characters; it has
+ * 704"), so the writer knows how much to cut.
+ */
+const atMost = (max: number) => ({
+  error: (issue: { input?: unknown }) =>
+    `must be at most ${grouped(max)} characters${typeof issue.input === 'string' ? `; it has ${grouped(issue.input.length)}` : ''}`,
+});
+
+const grouped = (n: number) => n.toLocaleString('en-US');
+
 /** One line of text, trimmed, not empty once trimmed: after this rule SQLite's length(trim(x)) > 0 holds too. */
-const filledLine = (max: number, empty = 'must not be empty') =>
-  text('one')
-    .trim()
-    .min(1, { message: empty })
-    .max(max, { message: `must be at most ${max} characters` });
+const filledLine = (max: number, empty = 'must not be empty') => text('one').trim().min(1, { message: empty }).max(max, atMost(max));
 
 export const title = filledLine(300);
 
 /** The longest note, in UTF-16 code units (what zod's max and a string's length count). */
 export const NOTE_MAX = 20_000;
 
-export const note = text('many').max(NOTE_MAX, { message: 'must be at most 20,000 characters' });
+export const note = text('many').max(NOTE_MAX, atMost(NOTE_MAX));
 
 /** Whose reference forecast it is. */
 export const source = filledLine(200, 'must name the source');
@@ -242,7 +249,7 @@ export const optionIndex = z
 export const ordered = z.boolean({ error: 'must be true or false' });
 
 /** Shown beside a numeric question's values ("weeks", "£k"); may be empty. */
-export const unit = text('one').trim().max(40, { message: 'must be at most 40 characters' });
+export const unit = text('one').trim().max(40, atMost(40));
 
 export const valueKind = z.enum(VALUE_KINDS, { error: 'must be number or date' });
 

@@ -159,18 +159,22 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
     params.tag = req.tag;
   }
   const text = req.text?.trim();
-  if (text) {
-    // Title, rule, tags, a choice question's options and the notes written with revisions; LIKE's own wildcards in the
-    // text are taken literally. SQLite's LIKE ignores case for A–Z as its lower() does, so
-    // the columns are compared as they are (no function call per row).
-    params.like = `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  // Each word is looked for on its own ("tollmere backlog" finds "Tollmere's post-go-live
+  // incident backlog"): a question matches when every word is somewhere in its title, rule,
+  // tags, a choice question's options or the notes written with revisions. LIKE's own
+  // wildcards in the text are taken literally. SQLite's LIKE ignores case for A–Z as its
+  // lower() does, so the columns are compared as they are (no function call per row).
+  const words = text ? [...new Set(text.toLowerCase().split(/\s+/))] : [];
+  words.forEach((word, k) => {
+    const like = `like${k}`;
+    params[like] = `%${word.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     where.push(
-      `(q.title LIKE @like ESCAPE '\\' OR q.rule LIKE @like ESCAPE '\\'
-        OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE @like ESCAPE '\\')
-        OR q.id IN (SELECT question_id FROM question_options WHERE label LIKE @like ESCAPE '\\')
-        OR q.id IN (SELECT question_id FROM forecasts WHERE note <> '' AND note LIKE @like ESCAPE '\\'))`,
+      `(q.title LIKE @${like} ESCAPE '\\' OR q.rule LIKE @${like} ESCAPE '\\'
+        OR q.id IN (SELECT question_id FROM question_tags WHERE tag LIKE @${like} ESCAPE '\\')
+        OR q.id IN (SELECT question_id FROM question_options WHERE label LIKE @${like} ESCAPE '\\')
+        OR q.id IN (SELECT question_id FROM forecasts WHERE note <> '' AND note LIKE @${like} ESCAPE '\\'))`,
     );
-  }
+  });
   if (req.status) {
     where.push(`(${STATUS_SQL}) = @status`);
     params.status = QUESTION_STATUSES.indexOf(req.status as QuestionStatus);

@@ -39,6 +39,29 @@ export function App() {
   );
 }
 
+/** Where a control sits in a table: its table section, row and column. */
+interface TablePlace {
+  section: HTMLTableSectionElement;
+  row: number;
+  cell: number;
+}
+
+function tablePlace(element: Element | null): TablePlace | null {
+  const cell = element?.closest('td, th');
+  const row = cell?.parentElement;
+  const section = row?.parentElement;
+  if (!(cell instanceof HTMLTableCellElement) || !(row instanceof HTMLTableRowElement) || !(section instanceof HTMLTableSectionElement)) return null;
+  return { section, row: row.sectionRowIndex, cell: cell.cellIndex };
+}
+
+/** The control in the same column of the row now at `place` (the last row, if it was the last), if the table is still there. */
+function controlAt(place: TablePlace | null): HTMLElement | null {
+  if (!place?.section.isConnected) return null;
+  const rows = place.section.rows;
+  const row = rows[Math.min(place.row, rows.length - 1)];
+  return row?.cells[place.cell]?.querySelector<HTMLElement>('button, a[href], input, select, textarea') ?? null;
+}
+
 function Shell() {
   const route = useRoute();
   const path = route.path || HOME_PATH;
@@ -51,18 +74,22 @@ function Shell() {
 
   // An action can take away the control that had focus (Resolve and Reopen swap places once
   // the question reloads): the browser then drops focus onto the page's body, and the next Tab
-  // starts from the top of the window. Start the keyboard at the content instead.
+  // starts from the top of the window. Start the keyboard at the content instead — or, when
+  // the control went with its table row (a deleted revision's Delete), at the same control
+  // of the row now in its place.
   useEffect(() => {
     const main = mainRef.current;
     if (!main) return;
     let focused: Element | null = null;
+    let place: TablePlace | null = null;
     const onFocusIn = (event: FocusEvent) => {
       focused = event.target instanceof Element ? event.target : null;
+      place = tablePlace(focused);
     };
     const rescue = new MutationObserver(() => {
       if (focused && !focused.isConnected && (document.activeElement === null || document.activeElement === document.body)) {
         focused = null;
-        main.focus({ preventScroll: true });
+        (controlAt(place) ?? main).focus({ preventScroll: true });
       }
     });
     document.addEventListener('focusin', onFocusIn);

@@ -3,7 +3,8 @@
  * empty New question flags the question and the close together; a bad tag left in the tag
  * box stops the save instead of vanishing; refusals never show request names such as
  * "opened_at". Percent boxes warn at 0% and 100% (saved as typed, clipped by the log score
- * to 0.1% and 99.9%, docs/scoring.md) and ask whether 50% was meant when 0.5 is typed; a
+ * to 0.1% and 99.9%, docs/scoring.md) and ask whether 50% was meant when 0.5 is typed (a
+ * choice box too, unless its chances already add to 100%); a
  * decimal comma typed there is read as a point ("0,7" is 0.7), not dropped.
  * Dates are typed in the user's own order (en-GB here: day/month/year) and read back with
  * the zone's offset. Yes and No look different wherever they are actions. A toast's action
@@ -141,7 +142,7 @@ test('0% and 100% are warned about and saved; 0.5 asks whether 50% was meant', a
   await discard(page, revise);
 });
 
-test('a decimal comma typed in a percent box is read as a point, not dropped', async () => {
+test('a decimal comma typed or pasted in a percent box is read as a point, not dropped', async () => {
   const { page } = app;
   const dialog = await openQuickAdd(page);
   const mine = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
@@ -152,6 +153,72 @@ test('a decimal comma typed in a percent box is read as a point, not dropped', a
   await mine.fill('');
   await mine.pressSequentially('12,5');
   await expect(mine).toHaveValue('12.5');
+  // Pasted, "0,7" once went in as "07": 7% saved without a word.
+  await mine.fill('');
+  await mine.evaluate((box) => {
+    const data = new DataTransfer();
+    data.setData('text/plain', '0,7');
+    box.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
+  });
+  await expect(mine).toHaveValue('0.7');
+  await expect(dialog.getByTestId('percent-question')).toContainText('Did you mean 70%?');
+  await discard(page, dialog);
+});
+
+test('the click that leaves a half-typed close lands where it was aimed, and the close says what is missing', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Harbour board meets in July');
+  // A date without its time, then straight to the type of answer with the mouse: the message
+  // "Add the time" pushes the radio down, but only after the click has landed on it.
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('01/07/2031');
+  await dialog.getByRole('radio', { name: 'Multiple choice' }).click();
+  await expect(dialog.getByRole('radio', { name: 'Multiple choice' })).toBeChecked();
+  await expect(dialog.getByRole('textbox', { name: 'Closes', exact: true })).toHaveAccessibleDescription(/Add the time/);
+  // The date box is marked; the time zone beside it, which is not wrong, is not.
+  const border = (box: Locator) => box.evaluate((el) => getComputedStyle(el).borderTopColor);
+  const dateBorder = await border(dialog.getByRole('textbox', { name: 'Closes', exact: true }));
+  expect(await border(dialog.getByRole('combobox', { name: 'Time zone for closes' }))).not.toBe(dateBorder);
+  await discard(page, dialog);
+});
+
+test('a choice box asks whether 50% was meant when 0.5 is typed, unless the chances already add to 100%', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Which bidder wins the Harbour tender?');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('01/07/2031');
+  await dialog.getByRole('textbox', { name: 'Closes: time' }).fill('09:30');
+  await dialog.getByRole('radio', { name: 'Multiple choice' }).check();
+  const options = dialog.getByRole('textbox', { name: /^Option \d$/ });
+  await options.nth(0).fill('Maersk');
+  await options.nth(1).fill('DSV');
+  await options.nth(2).fill('Other');
+  const chances = dialog.getByRole('group', { name: 'Your chances' });
+  const maersk = chances.getByRole('spinbutton', { name: 'Maersk' });
+  await maersk.fill('0.5');
+  await chances.getByRole('spinbutton', { name: 'DSV' }).fill('30');
+  await chances.getByRole('spinbutton', { name: 'Other' }).fill('20');
+  const question = chances.getByTestId('percent-question');
+  await expect(question).toContainText('Did you mean 50%?');
+  await expect(maersk).toHaveAccessibleDescription(/Did you mean 50%\?/);
+  // Saving waits for the answer and takes the keyboard to it.
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(chances.getByRole('button', { name: 'Use 50%' })).toBeFocused();
+  await chances.getByRole('button', { name: 'Use 50%' }).click();
+  await expect(maersk).toHaveValue('50');
+  await expect(maersk).toBeFocused();
+  await expect(question).toHaveCount(0);
+  await expect(chances.getByTestId('choice-total')).toContainText('Total 100%');
+
+  // A long shot at 0.5% in boxes that add to 100% was meant: nothing to ask, and 0% is no warning here.
+  await maersk.fill('0.5');
+  await chances.getByRole('spinbutton', { name: 'DSV' }).fill('79.5');
+  await chances.getByRole('spinbutton', { name: 'Other' }).fill('20');
+  await expect(chances.getByTestId('choice-total')).toContainText('Total 100%');
+  await expect(question).toHaveCount(0);
+  await chances.getByRole('spinbutton', { name: 'Other' }).fill('0');
+  await chances.getByRole('spinbutton', { name: 'DSV' }).fill('99.5');
+  await expect(chances.getByTestId('percent-warning')).toHaveCount(0);
   await discard(page, dialog);
 });
 
@@ -211,8 +278,31 @@ test('Edit says a close before the opening beside Closes, without internal names
   await dialog.getByRole('button', { name: 'Save changes' }).click();
   // Both problems at once; the window's order in words, not "(opened_at)".
   await expect(dialog.getByRole('textbox', { name: 'Question', exact: true })).toHaveAccessibleDescription(/Write the question/);
-  await expect(closes).toHaveAccessibleDescription(/Must be after the opening time/);
+  await expect(closes).toHaveAccessibleDescription(/Must be after the opening time: choose a later close, or move “Opened” earlier/);
   for (const message of await dialog.getByTestId('field-error').allTextContents()) expect(message).not.toMatch(SNAKE_CASE);
+  await discard(page, dialog);
+});
+
+test('Edit of a numeric question says when it opened beside a close before it, and what to do', async () => {
+  const { page } = app;
+  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+    title: 'Eastgate pallets in Q1',
+    opened_at: '2026-10-24T08:03:00Z',
+    closes_at: '2031-03-31T16:00:00Z',
+    time_zone: 'Europe/London',
+    type: 'numeric',
+    unit: 'pallets',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+  });
+  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
+  await page.getByRole('button', { name: 'Edit' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Edit question' });
+  const closes = dialog.getByRole('textbox', { name: 'Closes', exact: true });
+  await closes.fill('01/01/2026');
+  await dialog.getByRole('button', { name: 'Save changes' }).click();
+  // The opening is not in this dialog: the message says when it was.
+  await expect(closes).toHaveAccessibleDescription(/Must be after the question opened \(24 Oct 2026, 09:03 GMT\+1\): choose a later close/);
   await discard(page, dialog);
 });
 

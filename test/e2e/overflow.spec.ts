@@ -3,7 +3,8 @@
  * reference source are each one unbroken word as long as the diary allows (a 300-character
  * title, a 64-character tag, a 200-character source), no screen is wider than the window at
  * 1024×700 or 1920×1080, the tables that were cut (references, the decision table, the
- * decomposition, the numeric questions' scores, a choice question's history) fit their cards,
+ * decomposition, the numeric questions' scores, a choice question's history, a five-level numeric
+ * question's history) fit their cards,
  * the question list's close times and figures fit their cells, and the base-rate card shows
  * its whole note. Screens are photographed at both sizes; the long question's page is scanned
  * by axe in light and dark. At 800×600 the question list leaves most of a row to the question
@@ -30,6 +31,8 @@ const iso = (ms: number) => new Date(ms).toISOString();
 
 let open: Question;
 let resolved: Question;
+let numeric: Question;
+let numeric3: Question;
 
 test('setup: the example diary and two questions made of long words', async () => {
   await apiCall(server().url, 'loadDemo');
@@ -62,6 +65,29 @@ test('setup: the example diary and two questions made of long words', async () =
   });
   await apiCall(server().url, 'addReference', { question_id: resolved.id, p: 0.4, source: word(200, 's'), at: iso(now - 29 * DAY) });
   await apiCall(server().url, 'resolveQuestion', { id: resolved.id, outcome: 'no', note: word(300, 'o'), at: iso(now - 4 * DAY) });
+  // Five levels of six-figure values with a unit, forecast and reference.
+  numeric = await apiCall<Question>(server().url, 'createQuestion', {
+    title: 'Total pallet throughput at the Eastgate depot in Q1',
+    closes_at: iso(now + 90 * DAY),
+    time_zone: 'Europe/London',
+    type: 'numeric',
+    unit: 'pallets',
+    value_kind: 'number',
+    levels: [0.05, 0.25, 0.5, 0.75, 0.95],
+    first_forecast: { quantiles: [118_000, 124_500, 131_000, 137_250, 145_000], note: 'Last year’s Q1 plus the new racking.' },
+  });
+  await apiCall(server().url, 'addReference', { question_id: numeric.id, quantiles: [120_000, 126_000, 132_500, 139_000, 148_000], source: 'depot budget' });
+  // Three levels, one revision whose note is longer than its values.
+  numeric3 = await apiCall<Question>(server().url, 'createQuestion', {
+    title: 'Fee income for the half-year',
+    closes_at: iso(now + 90 * DAY),
+    time_zone: 'Europe/London',
+    type: 'numeric',
+    unit: '£k',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+    first_forecast: { quantiles: [1_400, 1_500, 1_600], note: 'Pellbridge extension signed; the low end moves up. Quellmoor is still undecided, so the high end stays where it was until their board meets in January.' },
+  });
 });
 
 interface Screen {
@@ -79,6 +105,10 @@ const SCREENS: Screen[] = [
   { name: 'question-resolved', hash: () => `questions/${encodeURIComponent(resolved.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   // A choice question whose four options are long headings ("More than 6 weeks late").
   { name: 'question-choice', hash: () => 'questions/demo-tollmere-booking-slip', ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
+  // Five levels of values with a unit ("118,000 pallets") head to head with the Note column.
+  { name: 'question-numeric', hash: () => `questions/${encodeURIComponent(numeric.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
+  // Three levels and a long note: the values stay whole ("1,400 £k"), the note wraps.
+  { name: 'question-numeric3', hash: () => `questions/${encodeURIComponent(numeric3.id)}`, ready: (page) => expect(page.getByTestId('references-table')).toBeVisible() },
   { name: 'scorecard', hash: () => 'scorecard', ready: (page) => expect(page.locator('[data-scorecard-ready="true"]')).toBeVisible() },
   { name: 'hindsight', hash: () => 'hindsight', ready: (page) => expect(page.locator('[data-hindsight-ready="true"]')).toBeVisible() },
   { name: 'settings', hash: () => 'settings', ready: heading },
@@ -117,6 +147,18 @@ for (const size of SIZES) {
             expect(box!.x + box!.width, `a Delete button on ${screen.name}`).toBeLessThanOrEqual(card!.x + card!.width);
           }
         }
+        if (screen.name === 'question-numeric3') {
+          // One line box per value: "1,400 £k" was once broken before its unit.
+          const lines = await page.getByTestId('revisions-table').locator('tbody td.num').evaluateAll((cells) =>
+            cells.map((cell) => {
+              const range = document.createRange();
+              range.selectNodeContents(cell);
+              return new Set([...range.getClientRects()].map((r) => Math.round(r.top))).size;
+            }),
+          );
+          expect(lines.length).toBeGreaterThan(0);
+          expect(lines, 'lines per value').toEqual(lines.map(() => 1));
+        }
         if (screen.name === 'questions') {
           // A close time such as "Oct 19, 2026, 05:00 PM GMT+1" once ran under the Last forecast column at 1920.
           expect(await cut(page, '.question-table tbody td:not(:first-child)'), 'the question list’s cells').toEqual([]);
@@ -126,6 +168,13 @@ for (const size of SIZES) {
         }
         if (screen.name === 'hindsight') {
           expect(await cut(page, '.hs-entry'), 'hindsight entries').toEqual([]);
+          // The calibration table keeps inside its card's padding, clear of the edge.
+          const spill = await page.locator('.hs-summary').evaluate((card) => {
+            const table = card.querySelector('table')!;
+            const inner = card.getBoundingClientRect().right - parseFloat(getComputedStyle(card).paddingRight);
+            return table.getBoundingClientRect().right - inner;
+          });
+          expect(spill, 'the calibration table past its card’s padding (px)').toBeLessThanOrEqual(0.5);
         }
       }
 

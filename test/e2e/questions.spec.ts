@@ -190,6 +190,8 @@ test('a revision and a question are deleted only after confirmation', async () =
   await confirmRevision.getByRole('button', { name: 'Delete' }).click();
   await expect(page.getByTestId('revision-p')).toHaveText(['35%']);
   await expect(page.getByTestId('toast').filter({ hasText: 'Revision deleted.' })).toBeVisible();
+  // The deleted row's Delete went with it: the keyboard is at the Delete of the row left, not thrown to the page.
+  await expect(page.getByRole('button', { name: /^Delete the 35% forecast/ })).toBeFocused();
   // Undone from the question's own page: the toast does not offer to open the page already open.
   await page.getByTestId('toast').filter({ hasText: 'Revision deleted.' }).getByRole('button', { name: 'Undo' }).click();
   const undone = page.getByTestId('toast').filter({ hasText: 'Undone: “Budget approved in Q3” is back as it was.' });

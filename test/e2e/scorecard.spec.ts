@@ -220,8 +220,11 @@ test('the tag and date filters change every figure to the filtered scorecard', a
     // A range that ends before it starts is refused beside the field, not sent.
     await page.getByLabel('To', { exact: true }).fill(fromDay.replace(/^(\d{4})/, (y) => String(Number(y) - 1)));
     await expect(page.getByTestId('field-error')).toHaveText('⚠ Must not be before From');
+    // The figures left on screen are the last usable filters', and the page says so.
+    await expect(page.getByTestId('figures-held')).toHaveText(/still those of your last usable filters; correct the marked field/);
     await page.getByRole('button', { name: 'Clear filters' }).click();
     await waitReady(page, '');
+    await expect(page.getByTestId('figures-held')).toHaveCount(0);
     await expect(page.getByTestId('headline-brier-n')).toHaveText(`n = ${all.report.scored}`);
     expect(app.problems, 'the page logged errors').toEqual([]);
   } finally {

@@ -131,6 +131,16 @@ test('a value the diary refuses is explained beside its field, and nothing is sa
     // …and takes the messages about the discarded values down with them.
     await expect(page.getByTestId('field-error')).toHaveCount(0);
     await expect(field(page, 'Closing-soon warning')).not.toHaveAttribute('aria-invalid', 'true');
+
+    // A comma typed in a cost brings a message under it that wraps in its place: the other
+    // cost stays where it was instead of being pushed across the card.
+    const missAt = async () => (await field(page, 'Miss cost').boundingBox())!.x;
+    const missBefore = await missAt();
+    await field(page, 'False-alarm cost').fill('');
+    await field(page, 'False-alarm cost').pressSequentially('0,5');
+    await expect(page.getByTestId('comma-warning')).toBeVisible();
+    expect(await missAt()).toBe(missBefore);
+    await page.getByRole('button', { name: 'Discard changes' }).click();
     expect(app.problems).toEqual([]);
   } finally {
     await app.close();

@@ -163,6 +163,13 @@ test('search, status and tag filter before paging, and `matched` counts every pa
   const bravo = await list(d, { text: 'bravo', sort: 'title', offset: 1, limit: 1 });
   assert.equal(bravo.matched, 3);
   assert.equal(bravo.questions[0]!.title, 'Bravo question 05');
+  // Each word on its own, in any order and any field: "question bravo" finds "Bravo question 05";
+  // a word of the title and one of a revision's note find that question; a word found nowhere finds none.
+  assert.equal((await list(d, { text: 'question  bravo' })).matched, 3);
+  assert.deepEqual((await list(d, { text: 'harbour delta' })).questions.map((q) => q.id), [ids[7]]);
+  assert.equal((await list(d, { text: 'harbour bravo' })).matched, 0);
+  const manyWords = Array.from({ length: 60 }, (_, k) => k.toString(36)).join(' ');
+  assert.equal((await list(d, { text: manyWords })).matched, 0, 'sixty words are searched, not refused');
   // LIKE's wildcards are taken literally.
   assert.equal((await list(d, { text: '%' })).matched, 0);
   assert.equal((await list(d, { text: 'question_0' })).matched, 0);

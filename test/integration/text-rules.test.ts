@@ -2,7 +2,8 @@
  * Control characters in text fields are refused with a reason naming the character, in
  * every text field of every way in (API requests, diary files, CSV), and the validator's
  * idea of an empty title agrees with the store's CHECK (length(trim(title)) > 0), so no
- * title reaches SQLite only to fail there as an "internal" error.
+ * title reaches SQLite only to fail there as an "internal" error. A text over its limit is
+ * refused with its length.
  */
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
@@ -21,6 +22,22 @@ test('a title of "\\u0000" is refused as invalid naming U+0000, not stored and n
     assert.equal(answer.error.code, 'invalid');
     assert.match(answer.error.fields[0]!, /^title: must be one line without control characters .*\(found U\+0000 at character \d+\)$/);
   }
+  assert.equal((await d.call('listQuestions', {})).total, 0);
+});
+
+test('a text over its limit is refused with the length it has, so the writer knows how much to cut', async () => {
+  const d = openTestDiary();
+  const refusal = async (op: 'createQuestion', req: object): Promise<string> => {
+    const answer = await d.service.dispatch(op, req);
+    assert.equal(answer.ok, false);
+    return answer.ok ? '' : answer.error.fields.join('; ');
+  };
+  // Counted after trimming, as the limit is.
+  assert.equal(await refusal('createQuestion', { title: `  ${'t'.repeat(704)}  `, closes_at: CLOSES }), 'title: must be at most 300 characters; it has 704');
+  assert.equal(
+    await refusal('createQuestion', { title: 'x', rule: 'r'.repeat(20_500), closes_at: CLOSES }),
+    'rule: must be at most 20,000 characters; it has 20,500',
+  );
   assert.equal((await d.call('listQuestions', {})).total, 0);
 });
 

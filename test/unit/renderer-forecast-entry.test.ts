@@ -90,7 +90,10 @@ test('spreading refuses with a reason: no blank box, a bad box, already over 100
 test('levels are named as percentiles', () => {
   assert.equal(levelName(0.05), 'P5');
   assert.equal(levelName(0.9), 'P90');
-  assert.deepEqual([0.1, 0.5, 0.9].map(levelLabel), ['P10 (low)', 'P50 (median)', 'P90 (high)']);
+  assert.deepEqual([0.1, 0.5, 0.9].map((l, _, all) => levelLabel(l, all)), ['P10 (low)', 'P50 (median)', 'P90 (high)']);
+  // Five levels: one low and one high, the quartiles by their names.
+  const five = [0.05, 0.25, 0.5, 0.75, 0.95];
+  assert.deepEqual(five.map((l) => levelLabel(l, five)), ['P5 (low)', 'P25', 'P50 (median)', 'P75', 'P95 (high)']);
 });
 
 test('a numeric forecast must not decrease with the level; the message names the two levels', () => {

@@ -2,8 +2,9 @@
  * What forms say: a percent box's advice (renderer/src/percent.ts) at the edges it draws —
  * exactly 0% and 100% stored, a fraction strictly between 0 and 1 typed — with the numbers
  * one step either side; the diary's `field: reason` lines in plain words beside the right
- * field (renderer/src/fieldMessages.ts); and the Brier identity's signs
- * (renderer/src/screens/scorecard/format.ts).
+ * field (renderer/src/fieldMessages.ts); the Brier identity's signs
+ * (renderer/src/screens/scorecard/format.ts); and the thinking tools' intervals
+ * (renderer/src/tools/format.ts).
  */
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
@@ -13,6 +14,7 @@ import { percentAdvice, percentToProbability } from '../../renderer/src/percent'
 import { readDecimal } from '../../shared/numeric-value';
 import { cost, identityRows, score3 } from '../../renderer/src/screens/scorecard/format';
 import { formatCount } from '../../renderer/src/dates';
+import { formatRange } from '../../renderer/src/tools/format';
 
 test('0% and 100% are saved but warned about, with the value the log score uses', () => {
   assert.deepEqual(percentAdvice('0'), {
@@ -113,4 +115,16 @@ test('a total cost is digit-grouped like every count, and one too large to add u
   assert.equal(cost(7), '7');
   assert.equal(cost(0.125), formatCount(0.13));
   assert.equal(cost(null), 'too large to add up');
+});
+
+test('a tool\'s interval is in whole percents, and an end short of 0 or 1 is never shown as 0% or 100%', () => {
+  assert.equal(formatRange(0.1723, 0.5678), '17–57%');
+  assert.equal(formatRange(0, 1), '0–100%');
+  assert.equal(formatRange(0.4601, 1), '46–100%');
+  // 6 of 1,200 cases by the rule of succession (low and high as the helper computes them):
+  // once "0–1%", as if the rate could be nil.
+  assert.equal(formatRange(0.002089590132589864, 0.010277034820937546), '0.2–1%');
+  assert.equal(formatRange(0.00271, 0.1109), '0.3–11%');
+  assert.equal(formatRange(0.9953355411912086, 0.9998920811953182), '99.5–99.99%');
+  assert.equal(formatRange(0.004, 0.006), '0.4–0.6%');
 });

@@ -7,6 +7,7 @@
 import { useId, useState } from 'react';
 import { parseLocalDateTime } from '../../../shared/time';
 import { dateOrder, formatDateText, parseDateText } from '../dates';
+import { afterPress } from './afterPress';
 import { CalendarButton } from './CalendarButton';
 import { FieldFrame, describedBy } from './FieldFrame';
 
@@ -71,7 +72,7 @@ export function DateField({ label, value, onChange, hint, error }: DateFieldProp
             setTyping(true);
             change(event.target.value);
           }}
-          onBlur={() => setTyping(false)}
+          onBlur={() => afterPress(() => setTyping(false))}
         />
         <CalendarButton label={label} current={valueOf(text).length === 10 ? valueOf(text) : ''} boxId={controlId} onPick={(date) => change(formatDateText(date))} />
       </span>

@@ -25,6 +25,7 @@ import {
   zoneName,
 } from '../dates';
 import { useFieldProblem, useSaveRefused } from '../forms';
+import { afterPress } from './afterPress';
 import { CalendarButton } from './CalendarButton';
 import { FieldError } from './FieldError';
 import { errorId, hintId } from './FieldFrame';
@@ -108,7 +109,8 @@ export function DateTimeField({ label, local, onLocalChange, timeZone, onTimeZon
       className={['field', 'datetime', shownError ? 'field--invalid' : ''].filter(Boolean).join(' ')}
       onBlur={(event) => {
         // Moving from the date box to the time box is still typing; leaving the field is not.
-        if (!event.currentTarget.contains(event.relatedTarget as Node | null)) setTouched(true);
+        // The message it may bring waits for the press that left it (afterPress).
+        if (!event.currentTarget.contains(event.relatedTarget as Node | null)) afterPress(() => setTouched(true));
       }}
     >
       <label className="field__label" htmlFor={controlId}>

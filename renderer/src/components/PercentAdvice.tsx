@@ -6,7 +6,7 @@
  */
 import { useState } from 'react';
 import { useFieldProblem } from '../forms';
-import { percentAdvice } from '../percent';
+import { percentAdvice, type PercentAdvice as PercentAdviceKind } from '../percent';
 import { Button } from './Button';
 
 export interface PercentAdviceProps {
@@ -22,15 +22,25 @@ export interface PercentAdviceProps {
    * about typing: a stored 0.5% shown again, or a helper's estimate, is not a slip.
    */
   typed?: string | null;
+  /**
+   * Whether to warn at 0% and 100% (default true). A choice box leaves it off: 0% for an
+   * option that cannot happen is ordinary there, and the box's own message suggests it.
+   */
+  warnCertain?: boolean;
 }
 
 /** Whether `value` may have advice to show (so the box can list its id in aria-describedby). */
-export function hasPercentAdvice(value: string): boolean {
-  return percentAdvice(value) !== null;
+export function hasPercentAdvice(value: string, warnCertain = true): boolean {
+  return shownAdvice(value, warnCertain) !== null;
 }
 
-export function PercentAdvice({ value, onChange, id, boxId, typed = value }: PercentAdviceProps) {
+function shownAdvice(value: string, warnCertain: boolean): PercentAdviceKind | null {
   const advice = percentAdvice(value);
+  return advice?.kind === 'certain' && !warnCertain ? null : advice;
+}
+
+export function PercentAdvice({ value, onChange, id, boxId, typed = value, warnCertain = true }: PercentAdviceProps) {
+  const advice = shownAdvice(value, warnCertain);
   // The fraction the user said to keep; typing anything else asks again.
   const [kept, setKept] = useState<string | null>(null);
   const asking = advice?.kind === 'fraction' && kept !== advice.typed && typed?.trim() === advice.typed;

@@ -2,12 +2,14 @@
  * A choice forecast typed as a percentage per option, with the live total under the boxes
  * and a button that spreads what is left of 100 % evenly over the options left blank. The
  * value is the box texts; `readChoiceForecast` (choiceEntry.ts) turns them into the stored
- * probabilities on submit.
+ * probabilities on submit. A share of 1 typed into a box ("0.5") is asked about as in every
+ * percent box ("Did you mean 50%?"), unless the boxes already add to 100%: then it was meant.
  */
 import { useId, useState } from 'react';
 import { Button } from '../components/Button';
 import { FieldError } from '../components/FieldError';
-import { commaAsPoint } from '../components/decimalComma';
+import { PercentAdvice, hasPercentAdvice } from '../components/PercentAdvice';
+import { commaAsPoint, pastedCommaAsPoint } from '../components/decimalComma';
 import { choiceTotal, spreadRest, totalText, type ChoiceProblems } from './choiceEntry';
 import './forecastEntry.css';
 
@@ -27,6 +29,8 @@ export interface ChoiceForecastInputProps {
 export function ChoiceForecastInput({ label, options, value, onChange, problems, hint, autoFocus }: ChoiceForecastInputProps) {
   const id = useId();
   const [spreadNote, setSpreadNote] = useState<string | null>(null);
+  // What was last typed into each box (not filled by "Spread the rest"), for the 0.5 question.
+  const [typed, setTyped] = useState<readonly (string | null)[]>([]);
   const total = choiceTotal(value);
   const totalId = `${id}-total`;
   const hintId = `${id}-hint`;
@@ -62,6 +66,9 @@ export function ChoiceForecastInput({ label, options, value, onChange, problems,
         {options.map((option, k) => {
           const boxId = `${id}-${k}`;
           const error = problems?.options[k];
+          const adviceId = `${boxId}-advice`;
+          const text = value[k] ?? '';
+          const described = [error ? `${boxId}-error` : '', hasPercentAdvice(text, false) ? adviceId : ''].filter(Boolean).join(' ');
           return (
             <li key={k} className={['choice-entry__option', error ? 'field--invalid' : ''].filter(Boolean).join(' ')}>
               <label htmlFor={boxId} className="choice-entry__label">
@@ -76,18 +83,32 @@ export function ChoiceForecastInput({ label, options, value, onChange, problems,
                   min={0}
                   max={100}
                   step="any"
-                  value={value[k] ?? ''}
+                  value={text}
                   data-autofocus={autoFocus && k === 0 ? '' : undefined}
                   aria-invalid={error ? true : undefined}
-                  aria-describedby={error ? `${boxId}-error` : undefined}
+                  aria-describedby={described || undefined}
                   onKeyDown={commaAsPoint}
-                  onChange={(event) => set(k, event.target.value)}
+                  onPaste={pastedCommaAsPoint}
+                  onChange={(event) => {
+                    const next = typed.slice();
+                    next[k] = event.target.value;
+                    setTyped(next);
+                    set(k, event.target.value);
+                  }}
                 />
                 <span className="input-suffix" aria-hidden="true">
                   %
                 </span>
               </span>
               <FieldError id={`${boxId}-error`} message={error} />
+              <PercentAdvice
+                value={text}
+                onChange={(percentText) => set(k, percentText)}
+                id={adviceId}
+                boxId={boxId}
+                typed={total.complete ? null : (typed[k] ?? null)}
+                warnCertain={false}
+              />
             </li>
           );
         })}

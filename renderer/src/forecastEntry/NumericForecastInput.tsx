@@ -46,11 +46,11 @@ export function NumericForecastInput({ label, levels, kind, unit, value, onChang
         {/* A set that decreases is reported beside the level that breaks the order. */}
         {levels.map((level, k) =>
           kind === 'date' ? (
-            <DateField key={level} label={levelLabel(level)} value={value[k] ?? ''} onChange={(text) => set(k, text)} error={problems?.levels[k]} />
+            <DateField key={level} label={levelLabel(level, levels)} value={value[k] ?? ''} onChange={(text) => set(k, text)} error={problems?.levels[k]} />
           ) : (
             <NumberField
               key={level}
-              label={levelLabel(level)}
+              label={levelLabel(level, levels)}
               value={value[k] ?? ''}
               onChange={(text) => set(k, text)}
               suffix={unit || undefined}

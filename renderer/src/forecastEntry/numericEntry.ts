@@ -16,10 +16,16 @@ export type { ValueKind };
 
 export { levelName };
 
-/** The box label: "P10 (low)", "P50 (median)", "P90 (high)". */
-export function levelLabel(level: number): string {
+/**
+ * The box label: "P10 (low)", "P50 (median)", "P90 (high)". Only the ends of the question's
+ * levels are its low and high; the levels between them go by their names ("P5 (low)", "P25",
+ * "P50 (median)", "P75", "P95 (high)"), not a second "low" and "high".
+ */
+export function levelLabel(level: number, levels: readonly number[] = [level]): string {
   if (level === 0.5) return `${levelName(level)} (median)`;
-  return `${levelName(level)} (${level < 0.5 ? 'low' : 'high'})`;
+  if (level === levels[0] && level < 0.5) return `${levelName(level)} (low)`;
+  if (level === levels[levels.length - 1] && level > 0.5) return `${levelName(level)} (high)`;
+  return levelName(level);
 }
 
 /** One sentence on what a level means, for the hint under the boxes. */

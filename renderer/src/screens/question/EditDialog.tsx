@@ -110,7 +110,7 @@ function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<BinaryQue
     // once every other field is right.
     const opened = changes.opened_at ?? q.opened_at;
     const closes = changes.closes_at ?? q.closes_at;
-    if (!found.opened_at && !found.closes_at && Date.parse(closes) <= Date.parse(opened)) found.closes_at = 'must be after the opening time';
+    if (!found.opened_at && !found.closes_at && Date.parse(closes) <= Date.parse(opened)) found.closes_at = 'must be after the opening time: choose a later close, or move “Opened” earlier';
 
     await saveQuestionChanges({ form, id: q.id, changes, found, placement: PLACEMENT, onClose, onSaved });
   }

@@ -5,6 +5,7 @@
  * creation, because every revision is written over them; the dialog says so.
  */
 import { useState, type FormEvent } from 'react';
+import { formatInstant } from '../../dates';
 import { DateTimeField } from '../../components/DateTimeField';
 import { useCloseRequest } from '../../components/Dialog';
 import { Form, FormActions } from '../../components/Form';
@@ -60,6 +61,10 @@ function EditForm({ question: q, onClose, onSaved }: QuestionFormProps<TypedQues
     const found: Record<string, string> = {};
     const changes: QuestionChanges = {};
     edits.read(changes, found);
+    // The opening is not in this dialog, so the message says when it was.
+    if (changes.closes_at && Date.parse(changes.closes_at) <= Date.parse(q.opened_at)) {
+      found.closes_at = `must be after the question opened (${formatInstant(q.opened_at, timeZone)}): choose a later close`;
+    }
     if (q.type === 'choice') {
       const read = readOptions(options);
       setOptionProblems(read.problems);

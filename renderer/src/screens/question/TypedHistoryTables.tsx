@@ -19,11 +19,15 @@ interface Props {
 export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteReference }: Props) {
   const zone = q.time_zone;
   const when = (at: string) => formatInstant(at, zone, false);
-  const headers = q.type === 'choice' ? q.options : q.levels.map(levelLabel);
+  const headers = q.type === 'choice' ? q.options : q.levels.map((level) => levelLabel(level, q.levels));
   const cells = (values: readonly (number | string)[]): string[] =>
     q.type === 'choice'
       ? values.map((p) => formatPercent(p as number))
       : values.map((v) => formatValue(toStoredValue(v, q.value_kind), q.value_kind, q.unit));
+  // With five levels a value may wrap before its unit ("118,000 / pallets"): five of them on
+  // one line pushed the Note and Delete columns out of a 1024-wide window. Three levels fit
+  // whole, and the table would otherwise give their room to a long note; percents never wrap.
+  const cellClassName = q.type === 'numeric' && q.levels.length > 3 ? 'num' : 'num nowrap';
   const forecasts: EntryRow[] = byTime<{ id: string; at: string; seq: number; note: string; values: readonly (number | string)[] }>(
     q.type === 'choice' ? q.forecasts.map((f) => ({ ...f, values: f.probs })) : q.forecasts.map((f) => ({ ...f, values: f.quantiles })),
   ).map((f) => ({
@@ -48,7 +52,7 @@ export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteRefe
         kind="revision"
         caption="Your forecasts"
         headers={headers}
-        cellClassName="num nowrap"
+        cellClassName={cellClassName}
         detailHeader="Note"
         empty="No forecasts yet — use Revise to give yours."
         zone={zone}
@@ -59,7 +63,7 @@ export function TypedHistoryTables({ question: q, onDeleteForecast, onDeleteRefe
         kind="reference"
         caption="Reference forecasts"
         headers={headers}
-        cellClassName="num nowrap"
+        cellClassName={cellClassName}
         detailHeader="Source"
         empty="None yet — add a client’s view or a plan’s figures to compare against."
         zone={zone}

@@ -59,6 +59,12 @@ export function ScorecardScreen() {
       </header>
       <Filters filter={filter} tags={list.data?.tags ?? []} problems={built.problems} timeZone={timeZone} onChange={change} />
       {loaded.error ? <ErrorBanner message={describeError(loaded.error)} onRetry={loaded.retry} /> : null}
+      {/* A filter that cannot be used asks for nothing new: say whose figures stay on screen. */}
+      {built.request === null && loaded.card ? (
+        <p className="muted" role="status" data-testid="figures-held">
+          The figures below are still those of your last usable filters; correct the marked field above to update them.
+        </p>
+      ) : null}
       {loaded.card ? (
         <ScorecardBody
           card={loaded.card}
