@@ -14,7 +14,7 @@ export type Notifier = SchedulerPorts['notifier'];
 
 /** Every unresolved question, whole (the planner needs revisions for check-ins), as it stands at `now`. */
 export function unresolvedQuestions(store: StoreHandles, now: number): Question[] {
-  const ids = (store.read.prepare('SELECT id FROM questions WHERE id NOT IN (SELECT question_id FROM resolutions)').raw().all() as [string][]).map(
+  const ids = (store.read.prepare('SELECT id FROM unresolved_questions').raw().all() as [string][]).map(
     ([id]) => id,
   );
   return ids.length ? qs.loadBundles(store.read, ids).map((b) => qs.toQuestion(b, now)) : [];
@@ -34,24 +34,22 @@ export interface DueQuestion extends PlanQuestion {
 type DueRow = [string, string, QuestionKind, number, number, string, number | null, number | null, number | null, QuestionType];
 
 /**
- * Every unresolved question with its latest revision, in one query. The open questions are
- * picked from the narrow id index first (a diary is mostly resolved questions, whose long
- * rows are then never read), their rows fetched by rowid, and each one's latest revision
- * found through the (question_id, at, seq, p) index alone, with no visit to the
- * revisions table (whose pages lie scattered in a large diary): two steps per question,
- * each to the same index page, the same ordering naming the same revision (seq is
- * unique). The cost follows the number of open questions, not the length of their histories.
+ * Every unresolved question with its latest revision, in one query. The open questions
+ * come from `unresolved_questions`, which the schema's triggers keep (migration 8): only
+ * they are read, side by side, however many resolved questions the diary holds. Each
+ * one's latest revision is found through the (question_id, at, seq, p) index alone, with
+ * no visit to the revisions table (whose pages lie scattered in a large diary): two steps
+ * per question, each to the same index page, the same ordering naming the same revision
+ * (seq is unique). The cost follows the number of open questions, not the size of the diary.
  */
 export function dueQuestions(db: Db): DueQuestion[] {
   const rows = db
     .prepare(
-      `WITH open AS MATERIALIZED (SELECT rowid AS r FROM questions q WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id))
-       SELECT q.id, q.title, q.kind, q.opened_at, q.closes_at, q.time_zone, q.checkin_days,
-         (SELECT at FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1),
-         (SELECT p FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1),
-         q.type
-       FROM open o
-       CROSS JOIN questions q ON q.rowid = o.r`,
+      `SELECT u.id, u.title, u.kind, u.opened_at, u.closes_at, u.time_zone, u.checkin_days,
+         (SELECT at FROM forecasts WHERE question_id = u.id ORDER BY at DESC, seq DESC LIMIT 1),
+         (SELECT p FROM forecasts WHERE question_id = u.id ORDER BY at DESC, seq DESC LIMIT 1),
+         u.type
+       FROM unresolved_questions u`,
     )
     .raw()
     .all() as DueRow[];

@@ -278,6 +278,68 @@ export const MIGRATIONS: readonly Migration[] = [
       CREATE INDEX forecasts_noted ON forecasts (question_id, note) WHERE note <> '';
     `,
   },
+  {
+    version: 8,
+    description: 'the unresolved questions kept apart by triggers, so the due list and the top-bar count read only them',
+    sql: `
+      -- Derived data, never written by the app: a copy of the fields nudge planning reads, for
+      -- every question with no resolution. A large diary is mostly resolved questions; finding
+      -- the open ones by probing the resolutions for each question, then fetching its row from
+      -- pages spread over the whole table, was most of the due list's cost. This table holds
+      -- only the open ones, side by side. The triggers below keep it exact whatever writes the
+      -- diary (the service, undo, a restore, another process), and in any order of rows within
+      -- a transaction (foreign keys may be deferred). It has no foreign key on purpose: it is
+      -- not a question's own data, so undo's snapshots leave it out and the triggers restore it.
+      -- A migration that rebuilds \`questions\` or \`resolutions\` must create these triggers again.
+      CREATE TABLE unresolved_questions (
+        id           TEXT PRIMARY KEY,
+        title        TEXT NOT NULL,
+        kind         TEXT NOT NULL,
+        type         TEXT NOT NULL,
+        opened_at    INTEGER NOT NULL,
+        closes_at    INTEGER NOT NULL,
+        time_zone    TEXT NOT NULL,
+        checkin_days INTEGER
+      ) WITHOUT ROWID;
+      INSERT INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days)
+        SELECT id, title, kind, type, opened_at, closes_at, time_zone, checkin_days FROM questions q
+        WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id);
+
+      CREATE TRIGGER unresolved_question_added AFTER INSERT ON questions
+      WHEN NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = NEW.id)
+      BEGIN
+        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days)
+        VALUES (NEW.id, NEW.title, NEW.kind, NEW.type, NEW.opened_at, NEW.closes_at, NEW.time_zone, NEW.checkin_days);
+      END;
+      CREATE TRIGGER unresolved_question_changed AFTER UPDATE OF id, title, kind, opened_at, closes_at, time_zone, checkin_days ON questions
+      BEGIN
+        UPDATE unresolved_questions SET id = NEW.id, title = NEW.title, kind = NEW.kind, opened_at = NEW.opened_at,
+          closes_at = NEW.closes_at, time_zone = NEW.time_zone, checkin_days = NEW.checkin_days
+        WHERE id = OLD.id;
+      END;
+      CREATE TRIGGER unresolved_question_removed AFTER DELETE ON questions
+      BEGIN
+        DELETE FROM unresolved_questions WHERE id = OLD.id;
+      END;
+      CREATE TRIGGER unresolved_question_resolved AFTER INSERT ON resolutions
+      BEGIN
+        DELETE FROM unresolved_questions WHERE id = NEW.question_id;
+      END;
+      CREATE TRIGGER unresolved_question_reopened AFTER DELETE ON resolutions
+      WHEN NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = OLD.question_id)
+      BEGIN
+        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days)
+        SELECT id, title, kind, type, opened_at, closes_at, time_zone, checkin_days FROM questions WHERE id = OLD.question_id;
+      END;
+    `,
+  },
 ];
+
+/**
+ * Tables the schema's own triggers fill from the others (migration 8): copying one from
+ * another diary would clash with what the triggers already put there, so a restore copies
+ * the other tables and lets the triggers rebuild these.
+ */
+export const DERIVED_TABLES: ReadonlySet<string> = new Set(['unresolved_questions']);
 
 export const SCHEMA_VERSION = MIGRATIONS[MIGRATIONS.length - 1]!.version;

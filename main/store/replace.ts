@@ -2,6 +2,7 @@
  * Replacing a diary's whole contents while other processes may have it open (`forelog
  * restore` beside `forelog serve` or the desktop app in the tray).
  */
+import { DERIVED_TABLES } from './migrations';
 import type { Db, StoreHandles } from './open';
 
 function quote(name: string): string {
@@ -52,6 +53,7 @@ export async function replaceContents(store: StoreHandles, source: string, befor
       db.pragma('defer_foreign_keys = ON');
       for (const table of ours) db.exec(`DELETE FROM main.${quote(table)}`);
       for (const table of ours) {
+        if (DERIVED_TABLES.has(table)) continue; // the triggers filled it as the rows went in
         const list = columns(db, 'main', table).map(quote).join(', ');
         db.exec(`INSERT INTO main.${quote(table)} (${list}) SELECT ${list} FROM restored.${quote(table)}`);
       }
