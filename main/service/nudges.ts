@@ -34,23 +34,13 @@ export interface DueQuestion extends PlanQuestion {
 type DueRow = [string, string, QuestionKind, number, number, string, number | null, number | null, number | null, QuestionType];
 
 /**
- * Every unresolved question with its latest revision, in one query. The open questions
- * come from `unresolved_questions`, which the schema's triggers keep (migration 8): only
- * they are read, side by side, however many resolved questions the diary holds. Each
- * one's latest revision is found through the (question_id, at, seq, p) index alone, with
- * no visit to the revisions table (whose pages lie scattered in a large diary): two steps
- * per question, each to the same index page, the same ordering naming the same revision
- * (seq is unique). The cost follows the number of open questions, not the size of the diary.
+ * Every unresolved question with its latest revision: `unresolved_questions`, which the
+ * schema's triggers keep (migration 8), holds exactly these rows, side by side, so the
+ * cost follows the number of open questions, not the size of the diary.
  */
 export function dueQuestions(db: Db): DueQuestion[] {
   const rows = db
-    .prepare(
-      `SELECT u.id, u.title, u.kind, u.opened_at, u.closes_at, u.time_zone, u.checkin_days,
-         (SELECT at FROM forecasts WHERE question_id = u.id ORDER BY at DESC, seq DESC LIMIT 1),
-         (SELECT p FROM forecasts WHERE question_id = u.id ORDER BY at DESC, seq DESC LIMIT 1),
-         u.type
-       FROM unresolved_questions u`,
-    )
+    .prepare('SELECT id, title, kind, opened_at, closes_at, time_zone, checkin_days, last_at, last_p, type FROM unresolved_questions')
     .raw()
     .all() as DueRow[];
   return rows.map(([id, title, kind, opened, closes, zone, checkinDays, lastAt, lastP, type]) => ({

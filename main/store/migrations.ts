@@ -280,17 +280,20 @@ export const MIGRATIONS: readonly Migration[] = [
   },
   {
     version: 8,
-    description: 'the unresolved questions kept apart by triggers, so the due list and the top-bar count read only them',
+    description: 'the unresolved questions kept apart by triggers, each with its latest revision, so the due list and the top-bar count read only them',
     sql: `
-      -- Derived data, never written by the app: a copy of the fields nudge planning reads, for
-      -- every question with no resolution. A large diary is mostly resolved questions; finding
-      -- the open ones by probing the resolutions for each question, then fetching its row from
-      -- pages spread over the whole table, was most of the due list's cost. This table holds
-      -- only the open ones, side by side. The triggers below keep it exact whatever writes the
-      -- diary (the service, undo, a restore, another process), and in any order of rows within
-      -- a transaction (foreign keys may be deferred). It has no foreign key on purpose: it is
-      -- not a question's own data, so undo's snapshots leave it out and the triggers restore it.
-      -- A migration that rebuilds \`questions\` or \`resolutions\` must create these triggers again.
+      -- Derived data, never written by the app: for every question with no resolution, a
+      -- copy of the fields nudge planning reads and its latest revision (latest time; same
+      -- time: entered last, the highest seq). A large diary is mostly resolved questions;
+      -- finding the open ones by probing the resolutions for each question, fetching its row
+      -- from pages spread over the whole table, then seeking its latest revision in the
+      -- revisions index, was nearly all of the due list's reading. This table holds just the
+      -- answer, side by side. The triggers below keep it exact whatever writes the diary (the
+      -- service, undo, a restore, another program), in any order of rows within a transaction
+      -- (foreign keys may be deferred, so a revision may arrive before its question). It has
+      -- no foreign key on purpose: it is not a question's own data, so undo's snapshots leave
+      -- it out and the triggers rebuild it. A migration that rebuilds \`questions\`,
+      -- \`resolutions\` or \`forecasts\` must create these triggers again.
       CREATE TABLE unresolved_questions (
         id           TEXT PRIMARY KEY,
         title        TEXT NOT NULL,
@@ -299,17 +302,23 @@ export const MIGRATIONS: readonly Migration[] = [
         opened_at    INTEGER NOT NULL,
         closes_at    INTEGER NOT NULL,
         time_zone    TEXT NOT NULL,
-        checkin_days INTEGER
+        checkin_days INTEGER,
+        last_at      INTEGER,
+        last_seq     INTEGER,
+        last_p       REAL
       ) WITHOUT ROWID;
       INSERT INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days)
         SELECT id, title, kind, type, opened_at, closes_at, time_zone, checkin_days FROM questions q
         WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id);
+      UPDATE unresolved_questions SET (last_at, last_seq, last_p) =
+        (SELECT at, seq, p FROM forecasts WHERE question_id = unresolved_questions.id ORDER BY at DESC, seq DESC LIMIT 1);
 
       CREATE TRIGGER unresolved_question_added AFTER INSERT ON questions
       WHEN NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = NEW.id)
       BEGIN
-        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days)
-        VALUES (NEW.id, NEW.title, NEW.kind, NEW.type, NEW.opened_at, NEW.closes_at, NEW.time_zone, NEW.checkin_days);
+        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
+        SELECT NEW.id, NEW.title, NEW.kind, NEW.type, NEW.opened_at, NEW.closes_at, NEW.time_zone, NEW.checkin_days, f.at, f.seq, f.p
+        FROM (SELECT 1) LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = NEW.id ORDER BY at DESC, seq DESC LIMIT 1) f;
       END;
       CREATE TRIGGER unresolved_question_changed AFTER UPDATE OF id, title, kind, opened_at, closes_at, time_zone, checkin_days ON questions
       BEGIN
@@ -328,8 +337,28 @@ export const MIGRATIONS: readonly Migration[] = [
       CREATE TRIGGER unresolved_question_reopened AFTER DELETE ON resolutions
       WHEN NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = OLD.question_id)
       BEGIN
-        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days)
-        SELECT id, title, kind, type, opened_at, closes_at, time_zone, checkin_days FROM questions WHERE id = OLD.question_id;
+        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
+        SELECT q.id, q.title, q.kind, q.type, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.seq, f.p
+        FROM questions q LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = OLD.question_id ORDER BY at DESC, seq DESC LIMIT 1) f
+        WHERE q.id = OLD.question_id;
+      END;
+      -- A new revision is the latest when it is later, or as late and entered after (seq only grows).
+      CREATE TRIGGER unresolved_revision_added AFTER INSERT ON forecasts
+      BEGIN
+        UPDATE unresolved_questions SET last_at = NEW.at, last_seq = NEW.seq, last_p = NEW.p
+        WHERE id = NEW.question_id AND (last_at IS NULL OR NEW.at > last_at OR (NEW.at = last_at AND NEW.seq > last_seq));
+      END;
+      CREATE TRIGGER unresolved_revision_changed AFTER UPDATE OF question_id, at, seq, p ON forecasts
+      BEGIN
+        UPDATE unresolved_questions SET (last_at, last_seq, last_p) =
+          (SELECT at, seq, p FROM forecasts WHERE question_id = unresolved_questions.id ORDER BY at DESC, seq DESC LIMIT 1)
+        WHERE id IN (OLD.question_id, NEW.question_id);
+      END;
+      CREATE TRIGGER unresolved_revision_removed AFTER DELETE ON forecasts
+      BEGIN
+        UPDATE unresolved_questions SET (last_at, last_seq, last_p) =
+          (SELECT at, seq, p FROM forecasts WHERE question_id = unresolved_questions.id ORDER BY at DESC, seq DESC LIMIT 1)
+        WHERE id = OLD.question_id AND last_seq = OLD.seq;
       END;
     `,
   },

@@ -2,7 +2,8 @@
  * The unresolved questions the schema's triggers keep apart (migration 8), which the due
  * list and the top-bar count read: after every kind of write — through the service, undo,
  * a restore, an import, plain SQL from another program, a migration of an older diary —
- * the table holds exactly the questions without a resolution, with their current fields.
+ * the table holds exactly the questions without a resolution, with their current fields and
+ * latest revision.
  */
 import assert from 'node:assert/strict';
 import Database from 'better-sqlite3';
@@ -19,12 +20,20 @@ const NOW = Date.parse('2026-06-01T12:00:00Z');
 const DAY = 86_400_000;
 const iso = (ms: number) => new Date(ms).toISOString();
 const FIELDS = 'id, title, kind, type, opened_at, closes_at, time_zone, checkin_days';
+// The latest revision: latest time, and of revisions at the same time the one entered last.
+const LATEST = (column: string) => `(SELECT ${column} FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)`;
 
-/** What the table holds, and what it must hold (derived from the questions and resolutions themselves). */
+/** What the table holds, and what it must hold (derived from the questions, resolutions and revisions themselves). */
 function kept(db: Database.Database): { held: unknown[]; truth: unknown[] } {
   return {
-    held: db.prepare(`SELECT ${FIELDS} FROM unresolved_questions ORDER BY id`).raw().all(),
-    truth: db.prepare(`SELECT ${FIELDS} FROM questions q WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id) ORDER BY id`).raw().all(),
+    held: db.prepare(`SELECT ${FIELDS}, last_at, last_seq, last_p FROM unresolved_questions ORDER BY id`).raw().all(),
+    truth: db
+      .prepare(
+        `SELECT ${FIELDS}, ${LATEST('at')}, ${LATEST('seq')}, ${LATEST('p')} FROM questions q
+         WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id) ORDER BY id`,
+      )
+      .raw()
+      .all(),
   };
 }
 
@@ -55,9 +64,9 @@ test('every change through the service, and each one undone, leaves exactly the 
   const remember = (answer: { undo?: string }) => {
     if (answer?.undo) undos.push(answer.undo);
   };
-  for (let step = 0; step < 160; step++) {
+  for (let step = 0; step < 240; step++) {
     d.clock.now += 1000;
-    const action = ids.length < 4 ? 'create' : pick(['create', 'resolve', 'resolve', 'correct', 'reopen', 'edit', 'forecast', 'delete', 'undo', 'undo']);
+    const action = ids.length < 4 ? 'create' : pick(['create', 'resolve', 'resolve', 'correct', 'reopen', 'edit', 'forecast', 'forecast', 'forecast', 'delete', 'undo', 'undo']);
     const id = ids.length ? pick(ids) : '';
     let label = `${action} ${id}`;
     try {
@@ -90,8 +99,22 @@ test('every change through the service, and each one undone, leaves exactly the 
           remember(await d.call('updateQuestion', { id, changes: { title: `Renamed at step ${step}`, closes_at: iso(NOW + 40 * DAY), checkin_days: pick([null, 3]) } }));
           break;
         case 'forecast': {
+          // A new revision now or back-dated (possibly to the same instant as another), or
+          // an existing one moved in time or removed: each can change which one is latest.
           const q = await d.call('getQuestion', { id });
-          if (q.type === 'binary') remember(await d.call('addForecast', { question_id: id, p: next() }));
+          const revisions: { id: string; at: string }[] = q.forecasts;
+          const choice = next();
+          if (revisions.length && choice < 0.25) {
+            remember(await d.call('deleteForecast', { id: pick(revisions).id }));
+            label = `delete a revision of ${id}`;
+          } else if (revisions.length && choice < 0.5) {
+            remember(await d.call('updateForecast', { id: pick(revisions).id, at: pick([iso(NOW - 8 * DAY), pick(revisions).at]) }));
+            label = `move a revision of ${id}`;
+          } else {
+            const value = q.type === 'binary' ? { p: next() } : q.type === 'choice' ? { probs: [0.5, 0.3, 0.2] } : { quantiles: [10, 20, 30] };
+            remember(await d.call('addForecast', { question_id: id, ...value, at: pick([undefined, iso(NOW - 8 * DAY), revisions[0]?.at]) }));
+            label = `add a revision to ${id}`;
+          }
           break;
         }
         case 'delete':
@@ -180,10 +203,22 @@ test('plain SQL from another program, rows in any order within a transaction, ke
     db.prepare(`DELETE FROM questions WHERE id = 'b'`).run();
     db.prepare(`DELETE FROM questions WHERE id = 'a'`).run(); // its resolution goes by cascade
     assertKept(db, 'edits, a reopening and deletions by SQL');
+    const revision = (id: string, question: string, at: number, p: number) =>
+      db.prepare('INSERT INTO forecasts (id, question_id, at, p) VALUES (?, ?, ?, ?)').run(id, question, at, p);
+    revision('r1', 'd', 1, 0.1);
+    revision('r2', 'd', 1, 0.2); // same time, entered later: the latest
+    revision('r3', 'c', 2, 0.3);
+    revision('r4', 'c', 1, 0.4); // entered later but earlier in time: not the latest
+    assertKept(db, 'revisions by SQL');
+    db.prepare(`UPDATE forecasts SET at = 3 WHERE id = 'r1'`).run();
+    db.prepare(`UPDATE forecasts SET question_id = 'd' WHERE id = 'r3'`).run();
+    assertKept(db, 'revisions moved in time and to another question by SQL');
     assert.deepEqual(kept(db).held, [
-      ['c', 'Title c', 'event_by_deadline', 'binary', 1, 2, 'UTC', null],
-      ['d', 'Renamed d', 'event_by_deadline', 'binary', 1, 5, 'UTC', null],
+      ['c', 'Title c', 'event_by_deadline', 'binary', 1, 2, 'UTC', null, 1, 4, 0.4],
+      ['d', 'Renamed d', 'event_by_deadline', 'binary', 1, 5, 'UTC', null, 3, 1, 0.1],
     ]);
+    db.prepare(`DELETE FROM forecasts WHERE id IN ('r1', 'r4')`).run();
+    assertKept(db, 'the latest revisions deleted by SQL');
   } finally {
     service.close();
   }
@@ -215,7 +250,7 @@ test('migrating a schema-7 diary fills the table with its unresolved questions, 
     const db = service.store.read;
     assert.equal(db.pragma('user_version', { simple: true }), SCHEMA_VERSION);
     assertKept(db, 'the migration');
-    assert.deepEqual(kept(db).held, [['open', 'Open and overdue', 'event_by_deadline', 'binary', NOW - 30 * DAY, NOW - 10 * DAY, 'Europe/London', 7]]);
+    assert.deepEqual(kept(db).held, [['open', 'Open and overdue', 'event_by_deadline', 'binary', NOW - 30 * DAY, NOW - 10 * DAY, 'Europe/London', 7, NOW - 20 * DAY, 1, 0.25]]);
     const due = (await callOrThrow(service.dispatch, 'due', {})) as { nudges: { id: string; kind: string; last_p: number | null }[] };
     assert.deepEqual(
       due.nudges.map((n) => [n.id, n.kind, n.last_p]),
