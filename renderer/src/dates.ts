@@ -82,7 +82,11 @@ function toMs(at: string | number): number {
 const pad = (n: number) => String(n).padStart(2, '0');
 
 const DAY = { day: 'numeric', month: 'short', year: 'numeric' } as const;
-const CLOCK = { hour: '2-digit', minute: '2-digit' } as const;
+/**
+ * The time in a displayed instant: "17:05" on a 24-hour clock, "5:05 PM" on a 12-hour one,
+ * written without a leading zero as such clocks are (and as the time boxes write it).
+ */
+const clock = (locale: string) => (uses12Hour(locale) ? ({ hour: 'numeric', minute: '2-digit' } as const) : ({ hour: '2-digit', minute: '2-digit' } as const));
 
 /** Intl writes a zero offset "GMT+0"; people write "GMT". */
 function tidyOffset(label: string): string {
@@ -118,7 +122,7 @@ export function formatInstant(at: string | number, timeZone: string, options: In
   if (options === false) return formatInstant(at, timeZone, { zone: false }, locale);
   const ms = toMs(at);
   if (!Number.isFinite(ms)) return String(at);
-  const text = cached(locale, timeZone, { ...(options.weekday ? { weekday: 'short' } : {}), ...DAY, ...CLOCK }).format(ms);
+  const text = cached(locale, timeZone, { ...(options.weekday ? { weekday: 'short' } : {}), ...DAY, ...clock(locale) }).format(ms);
   return options.zone === false ? text : `${text} ${zoneLabel(ms, timeZone, locale)}`;
 }
 
@@ -134,9 +138,9 @@ export function formatWeekday(at: string | number, timeZone: string, locale = us
   return cached(locale, timeZone, { weekday: 'short' }).format(toMs(at));
 }
 
-/** e.g. "17:00" (or "05:00 PM" where the locale uses a 12-hour clock). */
+/** e.g. "17:00" (or "5:00 PM" where the locale uses a 12-hour clock). */
 export function formatClock(at: string | number, timeZone: string, locale = userLocale()): string {
-  return cached(locale, timeZone, CLOCK).format(toMs(at));
+  return cached(locale, timeZone, clock(locale)).format(toMs(at));
 }
 
 /** Calendar days from the date of `from` to the date of `to` on `timeZone`'s calendar (tomorrow = 1). */
@@ -169,7 +173,7 @@ export function formatNearby(ms: number, now: number, timeZone: string, locale =
 export function formatTick(ms: number, timeZone: string, unit: 'hour' | 'day', spanMs: number, locale = userLocale()): string {
   const withYear = spanMs > 300 * 86_400_000;
   const day = withYear ? DAY : ({ day: 'numeric', month: 'short' } as const);
-  return cached(locale, timeZone, unit === 'hour' ? { ...day, ...CLOCK } : day).format(ms);
+  return cached(locale, timeZone, unit === 'hour' ? { ...day, ...clock(locale) } : day).format(ms);
 }
 
 // ---------------------------------------------------------------------------------------
@@ -251,19 +255,41 @@ export function uses12Hour(locale = userLocale()): boolean {
   return known;
 }
 
-/** The placeholder of a time box: "hh:mm", or "hh:mm am" where the locale uses a 12-hour clock. */
+const dayPeriods = new Map<string, readonly [string, string]>();
+
+/**
+ * How the locale marks morning and afternoon on a 12-hour clock, when it writes them in a
+ * form `parseTimeText` reads ("AM"/"PM" in en-US, "am"/"pm" in en-AU), so a time box shows
+ * the same marks as the times displayed around it; otherwise "am"/"pm" ("오전" is not read).
+ */
+function periodMarks(locale: string): readonly [string, string] {
+  let marks = dayPeriods.get(locale);
+  if (!marks) {
+    const mark = (hour: number) =>
+      new Intl.DateTimeFormat(locale, { hour: 'numeric', hourCycle: 'h12', timeZone: 'UTC' }).formatToParts(Date.UTC(2000, 0, 1, hour)).find((p) => p.type === 'dayPeriod')?.value ?? '';
+    const [am, pm] = [mark(5), mark(17)];
+    const readable = (m: string, half: 'a' | 'p') => new RegExp(`^${half}\\.?\\s*m\\.?$`, 'i').test(m);
+    marks = readable(am, 'a') && readable(pm, 'p') ? [am, pm] : ['am', 'pm'];
+    dayPeriods.set(locale, marks);
+  }
+  return marks;
+}
+
+/** The placeholder of a time box: "hh:mm", or "hh:mm AM" where the locale uses a 12-hour clock (its own mark). */
 export function timePlaceholder(locale = userLocale()): string {
-  return uses12Hour(locale) ? 'hh:mm am' : 'hh:mm';
+  return uses12Hour(locale) ? `hh:mm ${periodMarks(locale)[0]}` : 'hh:mm';
 }
 
 /**
- * A time of day for a time box: "17:00", or "5:00 pm" where the locale uses a 12-hour clock.
+ * A time of day for a time box: "17:00", or "5:00 PM" where the locale uses a 12-hour clock.
  * Written by hand rather than by Intl, whose 12-hour forms vary by locale ("오후 5:00"), so
- * whatever the box shows, `parseTimeText` reads back.
+ * whatever the box shows, `parseTimeText` reads back; the marks are the locale's own when
+ * it writes them in Latin letters, so the box matches the times displayed beside it.
  */
 export function formatTimeText(time: { hour: number; minute: number }, locale = userLocale()): string {
   if (!uses12Hour(locale)) return `${pad(time.hour)}:${pad(time.minute)}`;
-  return `${time.hour % 12 === 0 ? 12 : time.hour % 12}:${pad(time.minute)} ${time.hour < 12 ? 'am' : 'pm'}`;
+  const [am, pm] = periodMarks(locale);
+  return `${time.hour % 12 === 0 ? 12 : time.hour % 12}:${pad(time.minute)} ${time.hour < 12 ? am : pm}`;
 }
 
 /** A time of day typed as "17:00", "17.00", "1700", "5:00 pm" or "5pm". */

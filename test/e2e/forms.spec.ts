@@ -142,7 +142,7 @@ test('0% and 100% are warned about and saved; 0.5 asks whether 50% was meant', a
   await discard(page, revise);
 });
 
-test('a decimal comma typed or pasted in a percent box is read as a point, not dropped', async () => {
+test('a decimal comma typed or pasted in a percent box is read as a point, and a pasted percent sign is dropped', async () => {
   const { page } = app;
   const dialog = await openQuickAdd(page);
   const mine = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
@@ -162,6 +162,19 @@ test('a decimal comma typed or pasted in a percent box is read as a point, not d
   });
   await expect(mine).toHaveValue('0.7');
   await expect(dialog.getByTestId('percent-question')).toContainText('Did you mean 70%?');
+  // A percent copied with its sign: the number box alone refuses the whole paste.
+  for (const [pasted, kept] of [
+    ['35%', '35'],
+    [' 12,5 % ', '12.5'],
+  ]) {
+    await mine.fill('');
+    await mine.evaluate((box, text) => {
+      const data = new DataTransfer();
+      data.setData('text/plain', text);
+      box.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
+    }, pasted!);
+    await expect(mine).toHaveValue(kept!);
+  }
   await discard(page, dialog);
 });
 

@@ -19,6 +19,7 @@ import {
   plural,
   parseDateText,
   parseTimeText,
+  timePlaceholder,
   wallText,
   zoneLabel,
 } from '../../renderer/src/dates';
@@ -41,7 +42,9 @@ test('an instant is written day, month, year in a UK locale and month first in a
   assert.equal(formatInstant(closes, 'Europe/London', {}, 'en-GB'), '30 Jun 2030, 17:00 GMT+1');
   assert.equal(formatInstant(closes, 'Europe/London', false, 'en-GB'), '30 Jun 2030, 17:00');
   assert.equal(formatInstant(closes, 'Europe/London', { weekday: true }, 'en-GB'), 'Sun, 30 Jun 2030, 17:00 GMT+1');
-  assert.match(formatInstant(closes, 'Europe/London', {}, 'en-US'), /^Jun 30, 2030, 05:00\sPM GMT\+1$/);
+  // A 12-hour clock is written without a leading zero, as its time boxes write it (5:00 PM, not 05:00 PM).
+  assert.match(formatInstant(closes, 'Europe/London', {}, 'en-US'), /^Jun 30, 2030, 5:00\sPM GMT\+1$/);
+  assert.equal(formatInstant('2030-06-30T07:05:00.000Z', 'UTC', false, 'en-GB'), '30 Jun 2030, 07:05');
 });
 
 test('nearby instants are named by day on the zone’s own calendar', () => {
@@ -90,9 +93,18 @@ test('times are read on a 24-hour clock or with am/pm, and refused past 23:59', 
   assert.equal(parseTimeText('23:60', 'en-GB').ok, false);
   assert.equal(parseTimeText('13 pm', 'en-GB').ok, false);
   assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'en-GB'), '17:05');
-  assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'en-US'), '5:05 pm');
-  assert.equal(formatTimeText({ hour: 0, minute: 0 }, 'en-US'), '12:00 am');
-  for (const locale of ['en-GB', 'en-US']) {
+  // The box writes the locale's own am/pm marks when they are Latin letters, so it matches the
+  // times displayed beside it (en-US "5:05 PM", en-AU "5:05 pm"); otherwise am/pm, which it reads.
+  assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'en-US'), '5:05 PM');
+  assert.equal(formatTimeText({ hour: 0, minute: 0 }, 'en-US'), '12:00 AM');
+  assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'en-AU'), '5:05 pm');
+  assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'zh-TW'), '5:05 pm');
+  assert.equal(formatTimeText({ hour: 17, minute: 5 }, 'de-DE'), '17:05');
+  assert.equal(timePlaceholder('en-US'), 'hh:mm AM');
+  assert.equal(timePlaceholder('en-GB'), 'hh:mm');
+  const displayed = formatInstant('2030-06-30T17:05:00.000Z', 'UTC', false, 'en-US');
+  assert.ok(displayed.replace(/\s/g, ' ').endsWith(formatTimeText({ hour: 17, minute: 5 }, 'en-US')), `${displayed} ends with the box's text`);
+  for (const locale of ['en-GB', 'en-US', 'en-AU', 'zh-TW']) {
     for (const time of [{ hour: 0, minute: 0 }, { hour: 12, minute: 0 }, { hour: 23, minute: 59 }]) {
       assert.deepEqual(parseTimeText(formatTimeText(time, locale), locale), { ok: true, value: time }, `${locale} ${time.hour}:${time.minute}`);
     }

@@ -5,7 +5,7 @@
  * box, PercentAdvice warns at 0% and 100% and asks about a fraction such as 0.5.
  */
 import { useId, useState } from 'react';
-import { commaAsPoint, pastedCommaAsPoint } from './decimalComma';
+import { commaAsPoint, pastedPercentText } from './decimalComma';
 import { FieldFrame, describedBy } from './FieldFrame';
 import { PercentAdvice, hasPercentAdvice } from './PercentAdvice';
 
@@ -59,7 +59,7 @@ export function ProbabilityInput({ label, value, onChange, hint, error, required
             aria-invalid={error ? true : undefined}
             aria-describedby={described}
             onKeyDown={commaAsPoint}
-            onPaste={pastedCommaAsPoint}
+            onPaste={pastedPercentText}
             onChange={(event) => {
               setTyped(event.target.value);
               onChange(event.target.value);

@@ -19,10 +19,14 @@ export function commaAsPoint(event: KeyboardEvent<HTMLInputElement>): void {
   document.execCommand('insertText', false, '.');
 }
 
-/** "0,7" pasted into a percent box goes in as "0.7" (onPaste beside commaAsPoint). */
-export function pastedCommaAsPoint(event: ClipboardEvent<HTMLInputElement>): void {
+/**
+ * Pasted text in a percent box (onPaste beside commaAsPoint): "0,7" goes in as "0.7", and a
+ * percent copied with its sign ("35%", "12,5 %") as the number, "35" or "12.5" — the number
+ * box would refuse the whole paste for the sign it cannot hold, and the box already says %.
+ */
+export function pastedPercentText(event: ClipboardEvent<HTMLInputElement>): void {
   const text = event.clipboardData.getData('text/plain');
-  if (!text.includes(',')) return;
+  if (!text.includes(',') && !text.includes('%')) return;
   event.preventDefault();
-  document.execCommand('insertText', false, text.replaceAll(',', '.'));
+  document.execCommand('insertText', false, text.trim().replace(/\s*%$/, '').replaceAll(',', '.'));
 }

@@ -9,7 +9,7 @@ import { useId, useState } from 'react';
 import { Button } from '../components/Button';
 import { FieldError } from '../components/FieldError';
 import { PercentAdvice, hasPercentAdvice } from '../components/PercentAdvice';
-import { commaAsPoint, pastedCommaAsPoint } from '../components/decimalComma';
+import { commaAsPoint, pastedPercentText } from '../components/decimalComma';
 import { choiceTotal, spreadRest, totalText, type ChoiceProblems } from './choiceEntry';
 import './forecastEntry.css';
 
@@ -88,7 +88,7 @@ export function ChoiceForecastInput({ label, options, value, onChange, problems,
                   aria-invalid={error ? true : undefined}
                   aria-describedby={described || undefined}
                   onKeyDown={commaAsPoint}
-                  onPaste={pastedCommaAsPoint}
+                  onPaste={pastedPercentText}
                   onChange={(event) => {
                     const next = typed.slice();
                     next[k] = event.target.value;

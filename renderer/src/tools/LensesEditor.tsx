@@ -7,7 +7,7 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
 import { Button } from '../components/Button';
 import { FieldError } from '../components/FieldError';
-import { commaAsPoint, pastedCommaAsPoint } from '../components/decimalComma';
+import { commaAsPoint, pastedPercentText } from '../components/decimalComma';
 import { FieldFrame, describedBy } from '../components/FieldFrame';
 import { PercentAdvice, hasPercentAdvice } from '../components/PercentAdvice';
 import { percentAdvice } from '../percent';
@@ -147,7 +147,7 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
                         aria-invalid={errors.p ? true : undefined}
                         aria-describedby={[describedBy(pId, undefined, errors.p), hasPercentAdvice(lens.p) ? `${pId}-advice` : ''].filter(Boolean).join(' ') || undefined}
                         onKeyDown={commaAsPoint}
-                        onPaste={pastedCommaAsPoint}
+                        onPaste={pastedPercentText}
                         onChange={(event) => change(lens.key, 'p', event.target.value)}
                       />
                       <span className="input-suffix" aria-hidden="true">

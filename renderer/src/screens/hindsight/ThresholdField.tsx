@@ -4,7 +4,7 @@
  * carries the label, the slider is named after it.
  */
 import { useId } from 'react';
-import { commaAsPoint, pastedCommaAsPoint } from '../../components/decimalComma';
+import { commaAsPoint, pastedPercentText } from '../../components/decimalComma';
 import { FieldFrame, describedBy } from '../../components/FieldFrame';
 import { MAX_THRESHOLD_PERCENT, MIN_THRESHOLD_PERCENT } from './selection';
 
@@ -47,7 +47,7 @@ export function ThresholdField({ value, onChange, hint, error }: ThresholdFieldP
             aria-invalid={error ? true : undefined}
             aria-describedby={describedBy(controlId, hint, error)}
             onKeyDown={commaAsPoint}
-            onPaste={pastedCommaAsPoint}
+            onPaste={pastedPercentText}
             onChange={(event) => onChange(event.target.value)}
           />
           <span className="input-suffix" aria-hidden="true">
