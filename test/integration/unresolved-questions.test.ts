@@ -157,6 +157,11 @@ test('a merge import and a restore from a backup keep the table exact', async ()
   await other.call('importText', { format: 'json', text: exportJson(d.service), merge: true });
   assertKept(other.service.store.read, 'the import');
   assert.equal(kept(other.service.store.read).held.length, 2);
+  // Again: every question is already there, so each is written under a stand-in id, compared and removed.
+  const again = await other.call('importText', { format: 'json', text: exportJson(d.service), merge: true });
+  assert.equal(again.added, 0);
+  assertKept(other.service.store.read, 'a merge of questions already in the diary');
+  assert.equal(kept(other.service.store.read).held.length, 2);
 
   // Change the diary, then restore the backup over it: the table is the backup's again.
   await d.call('reopenQuestion', { id: done.id });
