@@ -15,7 +15,7 @@
  * time; 'vite' is only reached by `forelog serve` in a source checkout.
  */
 import { build } from 'esbuild';
-import { chmod, copyFile, mkdir, readFile } from 'node:fs/promises';
+import { chmod, copyFile, mkdir, readFile, rename, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
@@ -66,6 +66,25 @@ const ENGLISH_ONLY_ZOD = {
 
 class BuildError extends Error {}
 
+/**
+ * Writes a built file beside its place under a name of its own, then renames it into
+ * place: two `npm run forelog` calls that both find the sources changed rebuild at the same
+ * time, and a third may start meanwhile; each must load a whole bundle (the old or the
+ * new), never one half written.
+ */
+async function writeWhole(file, contents, mode) {
+  await mkdir(path.dirname(file), { recursive: true });
+  const temporary = `${file}.${process.pid}.${Date.now()}.tmp`;
+  try {
+    await writeFile(temporary, contents, { mode });
+    await chmod(temporary, mode);
+    await rename(temporary, file);
+  } catch (err) {
+    await rm(temporary, { force: true });
+    throw err;
+  }
+}
+
 function fail(message) {
   throw new BuildError(message);
 }
@@ -102,6 +121,8 @@ export async function buildMain(names = [], { log = (line) => console.log(line) 
       define: target.node ? IMPORT_META_DEFINE : {},
       banner: banner ? { js: banner } : {},
       metafile: true,
+      // Written below, each file whole or not at all (see writeWhole).
+      write: false,
       plugins: [ENGLISH_ONLY_ZOD],
       logLevel: 'warning',
     }).catch(() => fail(`bundling ${target.entry} failed (esbuild's messages are above).`));
@@ -115,7 +136,7 @@ export async function buildMain(names = [], { log = (line) => console.log(line) 
     if (notAllowed.length > 0 || forbidden.length > 0) {
       fail(`${target.outfile} would require ${[...notAllowed, ...forbidden].join(', ')} at run time, which cannot work there; remove that import from ${target.entry}.`);
     }
-    if (target.executable) await chmod(root + target.outfile, 0o755);
+    for (const file of result.outputFiles) await writeWhole(file.path, file.contents, target.executable ? 0o755 : 0o644);
     const size = `${(output.bytes / 1024).toFixed(1)} kB`;
     log(`built ${target.outfile}  ${size}  requires at run time: ${externals.join(', ') || 'nothing'}`);
   }

@@ -7,7 +7,7 @@
  * writes a tiny command line, so the test neither waits for esbuild nor touches dist/.
  */
 import assert from 'node:assert/strict';
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
@@ -89,4 +89,34 @@ test('an installed copy without sources runs its build, and says so when it is m
   assert.equal(missing.status, 1);
   assert.match(missing.stderr, /dist\/main\/cli\.cjs is missing and there are no sources here to build it from; reinstall Forelog\./);
   assert.equal(missing.stdout, '');
+});
+
+/** Runs the launcher without waiting for it, to start several at once. */
+function launchAsync(root: string, ...args: string[]): Promise<{ status: number | null; stdout: string; stderr: string }> {
+  return new Promise((resolve) => {
+    const child = spawn(process.execPath, [path.join(root, 'scripts', 'forelog.mjs'), ...args]);
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (d) => (stdout += d));
+    child.stderr.on('data', (d) => (stderr += d));
+    child.on('close', (status) => resolve({ status, stdout, stderr }));
+  });
+}
+
+test('several launches at once after a change each run a whole command line, never one half rebuilt', async () => {
+  // A copy of the checkout's sources with the real build (esbuild): each launch that finds
+  // the sources changed rebuilds, while the others load the bundle. Written in place, a
+  // bundle was once loaded half written ("Unexpected end of input").
+  const root = tempDir('forelog-launcher-real-');
+  for (const entry of ['main', 'shared', 'scripts', 'package.json', 'package-lock.json', 'tsconfig.json', 'tsconfig.base.json', 'vite.config.ts']) {
+    fs.cpSync(path.join(ROOT, entry), path.join(root, entry), { recursive: true });
+  }
+  fs.symlinkSync(path.join(ROOT, 'node_modules'), path.join(root, 'node_modules'), 'dir');
+  const version = (JSON.parse(fs.readFileSync(path.join(ROOT, 'package.json'), 'utf8')) as { version: string }).version;
+  for (let round = 0; round < 2; round++) {
+    const later = Date.now() / 1000 + 1 + round;
+    fs.utimesSync(path.join(root, 'shared', 'domain.ts'), later, later);
+    const runs = await Promise.all(Array.from({ length: 6 }, () => launchAsync(root, '--version')));
+    for (const run of runs) assert.deepEqual([run.status, run.stdout], [0, `forelog ${version}\n`], run.stderr);
+  }
 });
