@@ -342,6 +342,18 @@ export const MIGRATIONS: readonly Migration[] = [
         FROM questions q LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = OLD.question_id ORDER BY at DESC, seq DESC LIMIT 1) f
         WHERE q.id = OLD.question_id;
       END;
+      -- A resolution moved to another question (the app never does; another program may):
+      -- the question it now settles leaves the table, the one it left comes back unless
+      -- another resolution still settles it.
+      CREATE TRIGGER unresolved_resolution_moved AFTER UPDATE OF question_id ON resolutions
+      WHEN NEW.question_id IS NOT OLD.question_id
+      BEGIN
+        DELETE FROM unresolved_questions WHERE id = NEW.question_id;
+        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
+        SELECT q.id, q.title, q.kind, q.type, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.seq, f.p
+        FROM questions q LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = OLD.question_id ORDER BY at DESC, seq DESC LIMIT 1) f
+        WHERE q.id = OLD.question_id AND NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = OLD.question_id);
+      END;
       -- A new revision is the latest when it is later, or as late and entered after (seq only grows).
       CREATE TRIGGER unresolved_revision_added AFTER INSERT ON forecasts
       BEGIN

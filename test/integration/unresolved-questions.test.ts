@@ -229,6 +229,27 @@ test('plain SQL from another program, rows in any order within a transaction, ke
   }
 });
 
+test('a resolution moved from one question to another by SQL: the one it left is open again, the one it now settles is not', () => {
+  const service = openDiary({ dbPath: path.join(tempDir(), 'diary.sqlite'), timeZone: 'UTC' });
+  const db = service.store.write;
+  try {
+    for (const id of ['settled', 'open']) {
+      db.prepare(`INSERT INTO questions (id, title, kind, opened_at, closes_at, time_zone, created_at, updated_at) VALUES (?, ?, 'event_by_deadline', 1, 9, 'UTC', 1, 1)`).run(id, `Title ${id}`);
+      db.prepare('INSERT INTO forecasts (id, question_id, at, p) VALUES (?, ?, 2, 0.5)').run(`r-${id}`, id);
+    }
+    db.prepare(`INSERT INTO resolutions (question_id, outcome, at, recorded_at) VALUES ('settled', 'yes', 3, 3)`).run();
+    assertKept(db, 'the resolution');
+    db.prepare(`UPDATE resolutions SET question_id = 'open' WHERE question_id = 'settled'`).run();
+    assertKept(db, 'the resolution moved to the other question');
+    assert.deepEqual(
+      (db.prepare('SELECT id, last_p FROM unresolved_questions').raw().all() as unknown[][]),
+      [['settled', 0.5]],
+    );
+  } finally {
+    service.close();
+  }
+});
+
 test('migrating a schema-7 diary fills the table with its unresolved questions, and the due list reads them', async () => {
   const file = path.join(tempDir(), 'old.sqlite');
   const old = new Database(file);
