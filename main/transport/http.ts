@@ -102,7 +102,8 @@ function refuse(res: http.ServerResponse, status: number, message: string): void
 }
 
 function tokenMatches(header: string | undefined, token: string): boolean {
-  const m = /^Bearer (.+)$/.exec(header ?? '');
+  // The scheme's name is case-insensitive and may be followed by more than one space (RFC 9110 §11.1, §11.4).
+  const m = /^bearer +(.+)$/i.exec(header ?? '');
   if (!m) return false;
   const given = Buffer.from(m[1]!);
   const expected = Buffer.from(token);

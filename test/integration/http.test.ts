@@ -57,6 +57,16 @@ test('API calls need the token (401) and the loopback Host (403)', async () => {
     body: '{}',
   });
   assert.equal(wrongToken.status, 401);
+  // The scheme's name is case-insensitive: a script writing it in lower case is let in.
+  for (const scheme of ['bearer', 'BEARER', 'Bearer  ']) {
+    const answer = await request(server.port, {
+      path: '/api/listQuestions',
+      method: 'POST',
+      headers: { Host: host, Authorization: `${scheme} ${server.token}`, 'Content-Type': 'application/json' },
+      body: '{}',
+    });
+    assert.equal(answer.status, 200, `Authorization: ${scheme} <token>`);
+  }
   const rebound = await request(server.port, {
     path: '/api/listQuestions',
     method: 'POST',
