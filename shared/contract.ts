@@ -529,6 +529,21 @@ export class ApiError extends Error {
 }
 
 /**
+ * How many of a refused request's problems its message names: `fields` keeps every one
+ * (a form shows each beside its field), but a sentence for a person naming thousands (a
+ * script's request with a field misspelt in each of 10,000 entries) would run to megabytes.
+ */
+export const MESSAGE_PROBLEMS = 10;
+
+/** The `invalid` error for a request that broke the rules in `lines` (`field: reason` each). */
+export function notAccepted(lines: string[]): ApiError {
+  const named = lines.slice(0, MESSAGE_PROBLEMS).join('; ');
+  const more = lines.length - MESSAGE_PROBLEMS;
+  const rest = more > 0 ? `; and ${more.toLocaleString('en-US')} more (each is listed in fields)` : '';
+  return new ApiError('invalid', `The request was not accepted: ${named}${rest}. Nothing was changed.`, lines);
+}
+
+/**
  * Validates `raw` against the operation's schema; throws an `invalid` ApiError listing each
  * field and reason.
  */
@@ -538,14 +553,13 @@ export function parseRequest<K extends OperationName>(name: K, raw: unknown): Va
   }
   const result = operations[name].safeParse(raw ?? {}, { reportInput: true });
   if (!result.success) {
-    const fields = v.describeIssues(result.error, '', true);
-    throw new ApiError('invalid', `The request was not accepted: ${fields.join('; ')}. Nothing was changed.`, fields);
+    throw notAccepted(v.describeIssues(result.error, '', true));
   }
   // The schemas drop fields they do not know; a request naming one (a misspelt "base_rat")
   // would otherwise be carried out without what the user meant to give.
   const unknown = v.droppedFields(raw, result.data).map((field) => `${field}: is not a field of this request; check its spelling, or leave it out`);
   if (unknown.length > 0) {
-    throw new ApiError('invalid', `The request was not accepted: ${unknown.join('; ')}. Nothing was changed.`, unknown);
+    throw notAccepted(unknown);
   }
   return result.data as ValidRequest<K>;
 }

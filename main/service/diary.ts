@@ -6,7 +6,7 @@
 import { randomUUID } from 'node:crypto';
 import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, ScoreJson, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
-import { ApiError } from '../../shared/contract';
+import { ApiError, notAccepted } from '../../shared/contract';
 import { utf8 } from '../../shared/byte-text';
 import {
   diaryFileBytes,
@@ -98,12 +98,12 @@ function notFound(what: string, id: string): ApiError {
 }
 
 function invalid(field: string, reason: string): ApiError {
-  return new ApiError('invalid', `The request was not accepted: ${field}: ${reason}. Nothing was changed.`, [`${field}: ${reason}`]);
+  return notAccepted([`${field}: ${reason}`]);
 }
 
 /** Every `field: reason` line a request broke, refused at once (a form shows them all), or nothing. */
 function refuseAll(lines: string[]): void {
-  if (lines.length) throw new ApiError('invalid', `The request was not accepted: ${lines.join('; ')}. Nothing was changed.`, lines);
+  if (lines.length) throw notAccepted(lines);
 }
 
 /** Type-rule issues (shared/question-types.ts) as `field: reason` lines, the fields under `prefix`. */

@@ -193,6 +193,28 @@ test('a request with a field the operation does not take is refused, naming it, 
   assert.equal((await d.call('importDiary', { diary: file })).added, 1);
 });
 
+test('a request breaking thousands of rules is refused with every problem in fields, and a message that names the first ten and counts the rest', async () => {
+  // A script's request with a misspelt field in each of many entries: the sentence for a
+  // person stays a sentence rather than megabytes of text.
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', { ...base });
+  const before = exportJson(d.service);
+  const request = { id: q.id, ...Object.fromEntries(Array.from({ length: 2500 }, (_, i) => [`extra${i}`, i])) };
+  const answer = await d.service.dispatch('getQuestion', request as never);
+  assert.equal(answer.ok, false);
+  if (!answer.ok) {
+    assert.equal(answer.error.code, 'invalid');
+    assert.equal(answer.error.fields.length, 2500);
+    assert.equal(answer.error.fields[2499], 'extra2499: is not a field of this request; check its spelling, or leave it out');
+    assert.match(answer.error.message, /^The request was not accepted: extra0: .*; extra9: is not a field of this request; check its spelling, or leave it out; and 2,490 more \(each is listed in fields\)\. Nothing was changed\.$/);
+    assert.doesNotMatch(answer.error.message, /extra10:/);
+  }
+  // Ten problems are all named.
+  const ten = await d.service.dispatch('getQuestion', { id: q.id, ...Object.fromEntries(Array.from({ length: 10 }, (_, i) => [`extra${i}`, i])) } as never);
+  assert.ok(!ten.ok && ten.error.message.includes('extra9: is not a field') && !ten.error.message.includes('more ('));
+  assert.equal(exportJson(d.service), before);
+});
+
 test('a request of the wrong shape, or missing a field, is told so in plain words, not in the validator\'s', async () => {
   const d = openTestDiary();
   const cases: [string, unknown, string][] = [
