@@ -325,11 +325,25 @@ export const MIGRATIONS: readonly Migration[] = [
         SELECT NEW.id, NEW.title, NEW.kind, NEW.type, NEW.opened_at, NEW.closes_at, NEW.time_zone, NEW.checkin_days, f.at, f.seq, f.p
         FROM (SELECT 1) LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = NEW.id ORDER BY at DESC, seq DESC LIMIT 1) f;
       END;
-      CREATE TRIGGER unresolved_question_changed AFTER UPDATE OF id, title, kind, opened_at, closes_at, time_zone, checkin_days ON questions
+      CREATE TRIGGER unresolved_question_changed AFTER UPDATE OF title, kind, opened_at, closes_at, time_zone, checkin_days ON questions
+      WHEN NEW.id IS OLD.id
       BEGIN
-        UPDATE unresolved_questions SET id = NEW.id, title = NEW.title, kind = NEW.kind, opened_at = NEW.opened_at,
+        UPDATE unresolved_questions SET title = NEW.title, kind = NEW.kind, opened_at = NEW.opened_at,
           closes_at = NEW.closes_at, time_zone = NEW.time_zone, checkin_days = NEW.checkin_days
-        WHERE id = OLD.id;
+        WHERE id = NEW.id;
+      END;
+      -- A question given another id (the app never does; another program may, with foreign
+      -- keys deferred): it leaves the table under the old id and stands under the new one as
+      -- the rows filed under that id say, since its revisions and resolution may have been
+      -- moved to it before, may follow, or may have been deleted instead.
+      CREATE TRIGGER unresolved_question_renamed AFTER UPDATE OF id ON questions
+      WHEN NEW.id IS NOT OLD.id
+      BEGIN
+        DELETE FROM unresolved_questions WHERE id = OLD.id;
+        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
+        SELECT NEW.id, NEW.title, NEW.kind, NEW.type, NEW.opened_at, NEW.closes_at, NEW.time_zone, NEW.checkin_days, f.at, f.seq, f.p
+        FROM (SELECT 1) LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = NEW.id ORDER BY at DESC, seq DESC LIMIT 1) f
+        WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = NEW.id);
       END;
       CREATE TRIGGER unresolved_question_removed AFTER DELETE ON questions
       BEGIN

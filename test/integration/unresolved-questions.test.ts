@@ -250,6 +250,61 @@ test('a resolution moved from one question to another by SQL: the one it left is
   }
 });
 
+test('a question given another id by SQL stands under it as the rows filed there say, whether its revisions and resolution moved first, follow, or went', () => {
+  const service = openDiary({ dbPath: path.join(tempDir(), 'diary.sqlite'), timeZone: 'UTC' });
+  const db = service.store.write;
+  const question = (id: string) =>
+    db.prepare(`INSERT INTO questions (id, title, kind, opened_at, closes_at, time_zone, created_at, updated_at) VALUES (?, ?, 'event_by_deadline', 1, 9, 'UTC', 1, 1)`).run(id, `Title ${id}`);
+  const revision = (id: string, q: string, at: number, p: number) => db.prepare('INSERT INTO forecasts (id, question_id, at, p) VALUES (?, ?, ?, ?)').run(id, q, at, p);
+  const rename = (from: string, to: string) => db.prepare('UPDATE questions SET id = ? WHERE id = ?').run(to, from);
+  const deferred = (write: () => void) =>
+    db.transaction(() => {
+      db.pragma('defer_foreign_keys = ON');
+      write();
+    })();
+  try {
+    question('a');
+    revision('ra', 'a', 2, 0.5);
+    question('b');
+    revision('rb', 'b', 3, 0.6);
+    question('c');
+    revision('rc', 'c', 4, 0.7);
+    db.prepare(`INSERT INTO resolutions (question_id, outcome, at, recorded_at) VALUES ('c', 'no', 5, 5)`).run();
+    // Renamed, then its revisions deleted from under the old id.
+    deferred(() => {
+      rename('a', 'a2');
+      db.prepare(`DELETE FROM forecasts WHERE question_id = 'a'`).run();
+    });
+    assertKept(db, 'a question renamed and its revisions deleted');
+    // Its revisions moved to the new id first, then the question renamed.
+    deferred(() => {
+      db.prepare(`UPDATE forecasts SET question_id = 'b2' WHERE question_id = 'b'`).run();
+      rename('b', 'b2');
+    });
+    assertKept(db, 'revisions moved ahead of their question');
+    // A resolved question renamed, its resolution following: still resolved.
+    deferred(() => {
+      rename('c', 'c2');
+      db.prepare(`UPDATE forecasts SET question_id = 'c2' WHERE question_id = 'c'`).run();
+      db.prepare(`UPDATE resolutions SET question_id = 'c2' WHERE question_id = 'c'`).run();
+    });
+    assertKept(db, 'a resolved question renamed with its rows');
+    // A resolution filed under the new id ahead of the renaming: the question is settled.
+    question('d');
+    deferred(() => {
+      db.prepare(`INSERT INTO resolutions (question_id, outcome, at, recorded_at) VALUES ('d2', 'yes', 5, 5)`).run();
+      rename('d', 'd2');
+    });
+    assertKept(db, 'a question renamed to where its resolution already was');
+    assert.deepEqual(db.prepare('SELECT id, last_p FROM unresolved_questions ORDER BY id').raw().all(), [
+      ['a2', null],
+      ['b2', 0.6],
+    ]);
+  } finally {
+    service.close();
+  }
+});
+
 test('migrating a schema-7 diary fills the table with its unresolved questions, and the due list reads them', async () => {
   const file = path.join(tempDir(), 'old.sqlite');
   const old = new Database(file);
