@@ -246,6 +246,13 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
         `API calls take JSON in UTF-8, but this body is declared as charset=${charset.slice(0, 40)}; send it as UTF-8 (Content-Type: application/json; charset=utf-8, or no charset). Nothing was changed.`,
       );
     }
+    // A compressed body is not unpacked: read as it is, gzip was called "not UTF-8" and a
+    // body declared compressed but sent plain was carried out (RFC 9110 §8.4: refuse with 415).
+    const coding = req.headers['content-encoding'];
+    if (coding !== undefined && coding.split(',').some((c) => c.trim() !== '' && c.trim().toLowerCase() !== 'identity')) {
+      res.setHeader('Accept-Encoding', 'identity');
+      throw new RequestRefusal(415, `API calls take an uncompressed body, but this one is declared as Content-Encoding: ${coding.slice(0, 40)}; send it without compression. Nothing was changed.`);
+    }
     const text = await readBody(req, limit);
     if (jsonTextNestedDeeperThan(text)) {
       throw new RequestRefusal(400, `The request body is nested too deeply: ${NESTING_RULE}. Nothing was changed.`);

@@ -6,6 +6,7 @@ import assert from 'node:assert/strict';
 import fs from 'node:fs';
 import http from 'node:http';
 import path from 'node:path';
+import { gzipSync } from 'node:zlib';
 import { after, test } from 'node:test';
 import { startHttpServer } from '../../main/transport/http';
 import { openTestDiary, tempDir } from '../support/temp-diary';
@@ -22,7 +23,7 @@ async function setup() {
 /** A raw request, so the test controls the Host and Origin headers exactly. */
 function request(
   port: number,
-  options: { path: string; method?: string; headers?: Record<string, string>; body?: string },
+  options: { path: string; method?: string; headers?: Record<string, string>; body?: string; latin1?: boolean },
 ): Promise<{ status: number; body: string; headers: http.IncomingHttpHeaders }> {
   return new Promise((resolve, reject) => {
     const req = http.request(
@@ -34,7 +35,7 @@ function request(
       },
     );
     req.on('error', reject);
-    if (options.body) req.write(options.body);
+    if (options.body) req.write(options.body, options.latin1 ? 'latin1' : 'utf8');
     req.end();
   });
 }
@@ -192,9 +193,24 @@ test('a body declared as anything but JSON gets 415 naming the header to send, a
     assert.equal(res.status, 415, type);
     assert.match(JSON.parse(res.body).error.message, /send it as UTF-8 \(Content-Type: application\/json; charset=utf-8, or no charset\)\. Nothing was changed\.$/, type);
   }
+  // A compressed body is not unpacked: refused whether it is compressed (gzip was called
+  // "not UTF-8") or, declared so, sent plain (it was carried out).
+  for (const [coding, sent] of [['gzip', gzipSync(body).toString('latin1')], ['br', body], ['identity, gzip', body]] as const) {
+    const res = await request(server.port, {
+      path: '/api/createQuestion',
+      method: 'POST',
+      headers: { Host: `127.0.0.1:${server.port}`, Authorization: `Bearer ${server.token}`, 'Content-Type': 'application/json', 'Content-Encoding': coding },
+      body: sent,
+      latin1: true,
+    });
+    assert.equal(res.status, 415, coding);
+    assert.match(JSON.parse(res.body).error.message, /declared as Content-Encoding: .*; send it without compression\. Nothing was changed\.$/, coding);
+    assert.equal(res.headers['accept-encoding'], 'identity');
+  }
   assert.equal((await d.call('listQuestions', {})).total, 0);
-  // JSON with a charset, in any letter case, or with no Content-Type at all, is read.
-  for (const headers of [{ 'Content-Type': 'Application/JSON; charset=utf-8' }, { 'Content-Type': 'application/json; Charset="UTF-8"' }, {}] as Record<string, string>[]) {
+  // JSON with a charset, in any letter case, or with no Content-Type at all, or declared
+  // uncompressed (identity), is read.
+  for (const headers of [{ 'Content-Type': 'Application/JSON; charset=utf-8' }, { 'Content-Type': 'application/json; Charset="UTF-8"' }, {}, { 'Content-Encoding': 'identity' }] as Record<string, string>[]) {
     const res = await request(server.port, {
       path: '/api/createQuestion',
       method: 'POST',
