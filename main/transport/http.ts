@@ -253,6 +253,12 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
       res.setHeader('Accept-Encoding', 'identity');
       throw new RequestRefusal(415, `API calls take an uncompressed body, but this one is declared as Content-Encoding: ${coding.slice(0, 40)}; send it without compression. Nothing was changed.`);
     }
+    // Node takes the chunks apart but unpacks no other transfer coding (gzip, chunked): the
+    // bytes would be read as the body itself (RFC 9112 §6.1: refuse with 501).
+    const transfer = req.headers['transfer-encoding'];
+    if (transfer !== undefined && transfer.split(',').some((c) => !['', 'chunked', 'identity'].includes(c.trim().toLowerCase()))) {
+      throw new RequestRefusal(501, `API calls take a body sent plain or in chunks, but this one is declared as Transfer-Encoding: ${transfer.slice(0, 40)}; send it without compression. Nothing was changed.`);
+    }
     const text = await readBody(req, limit);
     if (jsonTextNestedDeeperThan(text)) {
       throw new RequestRefusal(400, `The request body is nested too deeply: ${NESTING_RULE}. Nothing was changed.`);

@@ -129,6 +129,17 @@ test('a NUL in a path is a missing file, not a crash', async () => {
   await assertStillServing();
 });
 
+test('a body in a transfer coding serve does not unpack (gzip, chunked) gets 501; plain chunks are read', async () => {
+  const chunked = (coding: string, body: string) => post('diaryInfo', `Content-Type: application/json\r\nTransfer-Encoding: ${coding}\r\n`, `${body.length.toString(16)}\r\n${body}\r\n0\r\n\r\n`);
+  for (const coding of ['gzip, chunked', 'deflate, chunked']) {
+    const answer = await raw([chunked(coding, '{}')]);
+    assert.equal(answer.status, 501, `${coding}: ${answer.text}`);
+    assert.match(answer.text, /declared as Transfer-Encoding: .*; send it without compression\. Nothing was changed\./);
+  }
+  assert.equal((await raw([chunked('chunked', '{}')])).status, 200);
+  await assertStillServing();
+});
+
 test('malformed request lines, bad headers and oversized headers get 4xx', async () => {
   const cases: [string, string, number][] = [
     ['garbage line', 'NOT HTTP AT ALL\r\n\r\n', 400],
