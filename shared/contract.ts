@@ -551,7 +551,8 @@ export function parseRequest<K extends OperationName>(name: K, raw: unknown): Va
   if (v.nestedDeeperThan(raw)) {
     throw new ApiError('invalid', `The request is nested too deeply: ${v.NESTING_RULE}. Nothing was changed.`);
   }
-  const result = operations[name].safeParse(raw ?? {}, { reportInput: true });
+  // No request at all (an IPC call without one) is an empty one; a JSON null is a value of the wrong shape.
+  const result = operations[name].safeParse(raw === undefined ? {} : raw, { reportInput: true });
   if (!result.success) {
     throw notAccepted(v.describeIssues(result.error, '', true));
   }

@@ -219,6 +219,8 @@ test('a request of the wrong shape, or missing a field, is told so in plain word
   const d = openTestDiary();
   const cases: [string, unknown, string][] = [
     ['diaryInfo', [], 'must be an object of named fields ({ … }), not a list'],
+    // A JSON null (an HTTP body of `null`) is not an empty request: it was run as one.
+    ['due', null, 'must be an object of named fields ({ … }), not null'],
     ['updateQuestion', { id: 'x' }, 'changes: is required'],
     ['addForecast', { question_id: 'x', p: 0.5, lenses: [null] }, 'lenses[0]: must be an object of named fields ({ … }), not null'],
     ['createQuestion', { title: 'x', closes_at: '2030-01-01T00:00:00Z', first_forecast: [0.5] }, 'first_forecast: must be an object of named fields ({ … }), not a list'],
