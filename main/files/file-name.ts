@@ -3,6 +3,7 @@
  * bytes of UTF-8), checked before a file is opened or created, so a name that is too long
  * is called that instead of "there is no diary" or the system's ENAMETOOLONG.
  */
+import fs from 'node:fs';
 import path from 'node:path';
 
 export const NAME_MAX_BYTES = 255;
@@ -21,4 +22,30 @@ export function fileNameProblem(file: string): string | null {
     return `${resolved}: ${whose} is ${bytes.toLocaleString('en-GB')} bytes long, more than the ${NAME_MAX_BYTES} a file name may have; choose a shorter name.`;
   }
   return null;
+}
+
+/** `file` with every link on its way resolved, or as given when it does not exist yet. */
+function realPathOf(file: string): string {
+  try {
+    return fs.realpathSync(file);
+  } catch {
+    // Not there yet: its folder may still be a link.
+    try {
+      return path.join(fs.realpathSync(path.dirname(file)), path.basename(file));
+    } catch {
+      return path.resolve(file);
+    }
+  }
+}
+
+/**
+ * True when writing `file` would write over the diary at `diaryPath` or one of the files
+ * SQLite keeps beside it (its -wal, -shm or -journal file), by any name: a link, or a path
+ * through a linked folder. Writing a copy or an export there would destroy the diary it
+ * was taken from.
+ */
+export function isDiaryFile(file: string, diaryPath: string): boolean {
+  const target = realPathOf(file);
+  const diaries = [path.resolve(diaryPath), realPathOf(diaryPath)];
+  return diaries.some((diary) => ['', '-wal', '-shm', '-journal'].some((suffix) => target === diary + suffix));
 }

@@ -9,7 +9,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { clearLeftovers, escapeRegExp, temporaryStem } from '../files/atomic-write';
-import { fileNameProblem } from '../files/file-name';
+import { fileNameProblem, isDiaryFile } from '../files/file-name';
 import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
 import { openStore, type Db, type StoreHandles } from '../store/open';
@@ -46,14 +46,6 @@ function copyTarget(file: string): string {
     throw new Error(`${named} is not a regular file (it is ${what}), so no copy was written there; choose a file name such as backup.sqlite. The diary is unchanged.`);
   }
   return fs.realpathSync(named);
-}
-
-function realPath(file: string): string {
-  try {
-    return fs.realpathSync(file);
-  } catch {
-    return file;
-  }
 }
 
 /**
@@ -107,8 +99,7 @@ async function writeCopy(source: Db, sourcePath: string, file: string, onProgres
 
 export async function backupTo(store: StoreHandles, file: string, onProgress?: (percent: number) => void): Promise<void> {
   const target = copyTarget(file);
-  // Compared as real paths: a link to the diary (or a path through a linked folder) is the diary too.
-  if (target === store.path || target === realPath(store.path)) throw new Error('The backup file cannot be the diary itself; choose another file name.');
+  if (isDiaryFile(target, store.path)) throw new Error('The backup file cannot be the diary itself (or a file SQLite keeps beside it); choose another file name.');
   await writeCopy(store.write, store.path, target, onProgress);
 }
 

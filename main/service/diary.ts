@@ -4,6 +4,7 @@
  * need the diary's state (does the question exist, is the close still after the opening).
  */
 import { randomUUID } from 'node:crypto';
+import path from 'node:path';
 import type { ExportedText, Handlers, ImportConflict, ImportResult, QuestionList, ScoreJson, UndoableOperation, ValidRequest } from '../../shared/contract';
 import type { EXPORT_FORMATS, IMPORT_FORMATS } from '../../shared/contract';
 import { ApiError, notAccepted } from '../../shared/contract';
@@ -75,6 +76,7 @@ import { choiceHindsight, numericHindsight } from './hindsight-types';
 import { toICalendar } from './calendar';
 import { TextDecodingError } from '../../shared/text-decoding';
 import { writeFileAtomic } from '../files/atomic-write';
+import { isDiaryFile } from '../files/file-name';
 import { readTextFile } from '../files/read-text';
 import { CsvError, diaryCsvBytes, readCsvDiary, type CsvItem } from './csv';
 import { exportBatches, exportedQuestionReader } from './export-batches';
@@ -787,6 +789,9 @@ export function createDiary(ctx: DiaryContext) {
   /** Writes the export to `file`, whole or not at all (main/files/atomic-write.ts). */
   /** `onProgress` hears how many questions of how many have been written as the export goes. */
   function exportFile(file: string, format: ExportFormat, onProgress?: (questions: number, total: number) => void): void {
+    if (isDiaryFile(file, store.path)) {
+      throw new Error(`${path.resolve(file)} is the diary itself (or a file SQLite keeps beside it); export to another file name. Nothing was written; the diary is unchanged.`);
+    }
     writeFileAtomic(file, exportPieces(format, onProgress));
   }
 

@@ -8,6 +8,8 @@
  */
 import assert from 'node:assert/strict';
 import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
 import Database from 'better-sqlite3';
 import { after, test } from 'node:test';
 import { openDiary } from '../../main/service/index';
@@ -16,7 +18,9 @@ import { buildDemoDiary } from '../../main/service/demo';
 import { CSV_ALL_COLUMNS, CSV_COLUMNS } from '../../main/service/csv';
 import { ISO_MAX_BYTES, toIso, writeIso } from '../../shared/time';
 import { randomDiaryFile } from '../support/random-diary';
-import { openTestDiary, type TestDiary } from '../support/temp-diary';
+import { exportJson, openTestDiary, tempDir, type TestDiary } from '../support/temp-diary';
+import { backupTo } from '../../main/service/backup';
+import { callOrThrow } from '../../main/service/dispatch';
 
 interface FileQuestionJson {
   id: string;
@@ -194,4 +198,29 @@ test('an export keeps each question’s revisions in time order even when SQLite
   other.close();
   assert.equal(d.service.diary.exportText('json').text, before.json, 'JSON');
   assert.equal(d.service.diary.exportText('csv').text, before.csv, 'CSV');
+});
+
+test('an export or a backup onto the diary itself, a link to it, or a file SQLite keeps beside it is refused and the diary stays whole', async () => {
+  const d = openTestDiary();
+  await d.call('createQuestion', { title: 'Kept', closes_at: '2027-01-01T00:00:00Z', first_forecast: { p: 0.3 } });
+  const before = exportJson(d.service);
+  const link = path.join(tempDir(), 'diary-link.json');
+  fs.symlinkSync(d.dbPath, link);
+  // The same file by another spelling: through ".." in the path.
+  const roundabout = path.join(path.dirname(d.dbPath), '..', path.basename(path.dirname(d.dbPath)), path.basename(d.dbPath));
+  for (const target of [d.dbPath, roundabout, link, `${d.dbPath}-wal`, `${d.dbPath}-shm`, `${d.dbPath}-journal`]) {
+    for (const format of ['json', 'csv'] as const) {
+      assert.throws(() => d.service.exportDiaryFile(target, format), /is the diary itself \(or a file SQLite keeps beside it\); export to another file name\. Nothing was written/, target);
+    }
+    await assert.rejects(backupTo(d.service.store, target), /cannot be the diary itself/, target);
+  }
+  assert.ok(fs.lstatSync(link).isSymbolicLink());
+  assert.equal(exportJson(d.service), before);
+  // Still a diary that opens, with its question.
+  const again = openDiary({ dbPath: d.dbPath, timeZone: 'UTC' });
+  try {
+    assert.equal((await callOrThrow(again.dispatch, 'listQuestions', {}) as QuestionList).total, 1);
+  } finally {
+    again.close();
+  }
 });
