@@ -12,12 +12,16 @@ import * as qs from '../store/questions';
 
 export type Notifier = SchedulerPorts['notifier'];
 
-/** Every unresolved question, whole (the planner needs revisions for check-ins), as it stands at `now`. */
+/**
+ * Every unresolved question, whole, as it stands at `now` (the calendar export). The ids and
+ * the questions come from one snapshot, so a commit from another process between the two
+ * reads cannot mix two states of the diary.
+ */
 export function unresolvedQuestions(store: StoreHandles, now: number): Question[] {
-  const ids = (store.read.prepare('SELECT id FROM unresolved_questions').raw().all() as [string][]).map(
-    ([id]) => id,
-  );
-  return ids.length ? qs.loadBundles(store.read, ids).map((b) => qs.toQuestion(b, now)) : [];
+  return readSnapshot(store.read, () => {
+    const ids = (store.read.prepare('SELECT id FROM unresolved_questions').raw().all() as [string][]).map(([id]) => id);
+    return ids.length ? qs.loadBundles(store.read, ids).map((b) => qs.toQuestion(b, now)) : [];
+  });
 }
 
 /** An unresolved question as planning and the due list see it: no history, only its latest revision. */

@@ -12,6 +12,7 @@ import { test } from 'node:test';
 import { backupTo, restoreFrom } from '../../main/service/backup';
 import { openDiary } from '../../main/service/index';
 import { callOrThrow } from '../../main/service/dispatch';
+import { unresolvedQuestions } from '../../main/service/nudges';
 import { MIGRATIONS, SCHEMA_VERSION } from '../../main/store/migrations';
 import { migrate } from '../../main/store/open';
 import { exportJson, openTestDiary, tempDir } from '../support/temp-diary';
@@ -340,4 +341,37 @@ test('migrating a schema-7 diary fills the table with its unresolved questions, 
   } finally {
     service.close();
   }
+});
+
+test('the calendar export reads the open questions and their contents from one state of the diary', async () => {
+  const d = openTestDiary({ now: iso(NOW) });
+  const a = await d.call('createQuestion', { title: 'Kept open', closes_at: iso(NOW + 30 * DAY), first_forecast: { p: 0.3 } });
+  const b = await d.call('createQuestion', { title: 'Deleted meanwhile', closes_at: iso(NOW + 20 * DAY), first_forecast: { p: 0.6 } });
+  // Another writer commits just after the open ids are read: the reader must still see the
+  // state it began with, both questions whole, not an id whose question has gone.
+  const read = d.service.store.read;
+  const interrupting = new Proxy(read, {
+    get(target, key) {
+      if (key !== 'prepare') return Reflect.get(target, key, target);
+      return (sql: string) => {
+        const statement = target.prepare(sql);
+        if (!sql.includes('FROM unresolved_questions')) return statement;
+        return {
+          raw: () => ({
+            all: () => {
+              const rows = statement.raw().all();
+              d.service.store.write.prepare('DELETE FROM questions WHERE id = ?').run(b.id);
+              return rows;
+            },
+          }),
+        };
+      };
+    },
+  });
+  const seen = unresolvedQuestions({ ...d.service.store, read: interrupting }, NOW);
+  assert.deepEqual(seen.map((q) => q.title).sort(), ['Deleted meanwhile', 'Kept open']);
+  assert.deepEqual(
+    unresolvedQuestions(d.service.store, NOW).map((q) => q.id),
+    [a.id],
+  );
 });
