@@ -36,3 +36,23 @@ test('resolving a numeric question with the value box empty marks only the value
   await expect(dialog).toBeHidden();
   await expect(page.getByTestId('toast').filter({ hasText: 'Resolved: 1,840 pallets.' })).toBeVisible();
 });
+
+test('after an import is refused or an export saved, the keyboard is still on the control it used', async () => {
+  const { page } = app;
+  await page.goto(`${server().url.split('?')[0]}#/settings`);
+  // A spreadsheet without its closes_at column.
+  const csv = 'question_id,title,rule,kind,tags,opened_at,time_zone,forecast_at,p\nq1,Depot lease renewed,,event_by_deadline,,2026-01-05T09:00:00Z,Europe/London,2026-01-05T09:10:00Z,0.6\n';
+  const picker = page.getByLabel('Import a diary file…');
+  await picker.focus();
+  await picker.setInputFiles({ name: 'leases.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+  await expect(page.getByText(/leases\.csv: .*"closes_at" is missing/)).toBeVisible();
+  await expect(picker).toBeFocused();
+
+  const exportCsv = page.getByRole('button', { name: 'Export spreadsheet (CSV)' });
+  const download = page.waitForEvent('download');
+  await exportCsv.focus();
+  await page.keyboard.press('Enter');
+  await download;
+  await expect(page.getByTestId('toast').filter({ hasText: /^Exported / })).toBeVisible();
+  await expect(exportCsv).toBeFocused();
+});
