@@ -56,3 +56,39 @@ test('after an import is refused or an export saved, the keyboard is still on th
   await expect(page.getByTestId('toast').filter({ hasText: /^Exported / })).toBeVisible();
   await expect(exportCsv).toBeFocused();
 });
+
+test('at 1024 and 800 wide the Questions list keeps each status inside its pill and wraps a favourite’s name between words', async () => {
+  const { page } = app;
+  const day = 86_400_000;
+  await apiCall(server().url, 'createQuestion', {
+    title: 'Harbour crane survey signed off',
+    opened_at: new Date(Date.now() - 30 * day).toISOString(),
+    closes_at: new Date(Date.now() - 2 * day).toISOString(),
+  });
+  await apiCall(server().url, 'createQuestion', {
+    title: 'Which vendor will the fraud team pick?',
+    closes_at: new Date(Date.now() + 30 * day).toISOString(),
+    type: 'choice',
+    options: ['Ferncastle Analytics', 'Tarnwell Data'],
+    first_forecast: { probs: [0.5, 0.5] },
+  });
+  // The list was open before the questions were added over the API: load it afresh.
+  await page.reload();
+  const table = page.getByTestId('question-table');
+  for (const width of [1024, 800]) {
+    await page.setViewportSize({ width, height: 860 });
+    await expect(table.getByText('Awaiting resolution')).toBeVisible();
+    await expect(table.getByText('Ferncastle Analytics 50%')).toBeVisible();
+    const fits = await page.evaluate(() => {
+      const badge = [...document.querySelectorAll('[data-testid=question-table] .badge')].find((b) => b.textContent === 'Awaiting resolution')!;
+      const cell = [...document.querySelectorAll('[data-testid=question-table] td')].find((td) => td.textContent === 'Ferncastle Analytics 50%')!;
+      const style = getComputedStyle(cell);
+      const context = document.createElement('canvas').getContext('2d')!;
+      context.font = `${style.fontWeight} ${style.fontSize} ${style.fontFamily}`;
+      const room = cell.clientWidth - parseFloat(style.paddingLeft) - parseFloat(style.paddingRight);
+      const widest = Math.max(...(cell.textContent ?? '').split(' ').map((word) => context.measureText(word).width));
+      return { statusInPill: badge.scrollWidth <= badge.clientWidth, wordFits: widest <= room };
+    });
+    expect(fits, `at ${width} wide`).toEqual({ statusInPill: true, wordFits: true });
+  }
+});
