@@ -92,3 +92,20 @@ test('at 1024 and 800 wide the Questions list keeps each status inside its pill 
     expect(fits, `at ${width} wide`).toEqual({ statusInPill: true, wordFits: true });
   }
 });
+
+test('saving a choice forecast unchanged says it was kept and the check-in is done, as the yes/no Desk does', async () => {
+  const { page } = app;
+  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+    title: 'Which depot closes first?',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'choice',
+    options: ['Alder', 'Birch'],
+    first_forecast: { probs: [0.6, 0.4] },
+  });
+  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByTestId('toast').filter({ hasText: 'Kept at Alder 60%; check-in done.' })).toBeVisible();
+});
