@@ -62,6 +62,11 @@ test('a fraction typed into a percent box asks whether the percent was meant', (
 test('the diary’s reasons read as sentences without internal names', () => {
   assert.equal(plainReason('must be after the opening time (opened_at)'), 'Must be after the opening time');
   assert.equal(plainReason('must not be empty'), 'Must not be empty');
+  // The diary's neutral time is written as the window writes dates, not left as 2026-09-24 08:48 Europe/London.
+  assert.match(
+    plainReason("must not be before the question opened (2026-09-24 08:48 Europe/London); if it happened earlier, first move the question's opening time (opened_at) back"),
+    /^Must not be before the question opened \((24 Sept? 2026, 08:48|Sep 24, 2026, 8:48 AM) GMT\+1\); if it happened earlier, first move the question's opening time back$/,
+  );
   assert.equal(plainReason('is not a valid tag: a tag is 1–64 lower-case letters'), 'This is not a valid tag: a tag is 1–64 lower-case letters');
   assert.equal(plainReason('lists the same tag twice'), 'This lists the same tag twice');
   assert.equal(plainReason('must be event_by_deadline or state_at_deadline'), 'Must be event by deadline or state at deadline');
