@@ -133,3 +133,9 @@ test('a tool\'s interval is in whole percents, and an end short of 0 or 1 is nev
   assert.equal(formatRange(0.9953355411912086, 0.9998920811953182), '99.5–99.99%');
   assert.equal(formatRange(0.004, 0.006), '0.4–0.6%');
 });
+
+test('a refusal shown in a banner writes the diary’s times as the window writes dates', async () => {
+  const { describeError } = await import('../../renderer/src/api/errors');
+  const shown = describeError(new Error("The request was not accepted: changes.opened_at: must not be after the question's first revision (2026-11-02 09:30 Europe/London). Nothing was changed."));
+  assert.match(shown, /first revision \((2 Nov 2026, 09:30|Nov 2, 2026, 9:30 AM) GMT\)\. Nothing was changed\.$/);
+});
