@@ -9,7 +9,7 @@
  *
  * The arithmetic lives in shared/time (RFC 5545 rules for repeated and skipped wall times).
  */
-import { addCalendarDays, daysInMonth, parseLocalDateTime, toIso, toLocalInputValue, wallTimeAt, wallTimeToInstant } from '../../shared/time';
+import { addCalendarDays, daysInMonth, isValidTimeZone, parseLocalDateTime, toIso, toLocalInputValue, wallTimeAt, wallTimeToInstant } from '../../shared/time';
 
 let knownLocale: string | null = null;
 // The user may change the language while the app runs; the next format reads it afresh.
@@ -370,3 +370,22 @@ export function dayRange(fromText: string, toText: string, timeZone: string): Da
   if (from !== null && to !== null && to < from) problems.to = 'must not be before From';
   return { ...(from !== null ? { from: toIso(from) } : {}), ...(to !== null ? { to: toIso(to) } : {}), problems };
 }
+
+/**
+ * A time as the diary writes it in its messages for every caller ("2027-03-13 17:00
+ * Europe/London", shared/time-rules.ts `onClock`): a date, a 24-hour wall time and its zone.
+ */
+const ON_CLOCK = /\b(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2}) ([A-Za-z_]+(?:\/[A-Za-z0-9_+-]+)+|UTC)\b/g;
+
+/**
+ * The diary's message with its times written as every other date in the window ("13 Mar
+ * 2027, 17:00 GMT", the user's locale and clock) rather than as the diary's neutral text.
+ */
+export function clockTimesAsShown(message: string, locale = userLocale()): string {
+  return message.replace(ON_CLOCK, (whole, date: string, time: string, zone: string) => {
+    if (!isValidTimeZone(zone)) return whole;
+    const iso = localToIso(`${date}T${time}`, zone);
+    return iso === null ? whole : formatInstant(iso, zone, {}, locale);
+  });
+}
+

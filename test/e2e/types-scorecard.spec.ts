@@ -112,6 +112,8 @@ test('Hindsight lists the choice confident miss and the numeric surprises with t
   await expect(choice.getByRole('heading', { level: 2 })).toHaveText('Multiple choice: confident misses (1)');
   const card = choice.getByTestId('hindsight-choice-entry');
   await expect(card.getByTestId('verdict-sentence')).toHaveText('You gave Kestrowe 85%; Ambledene came true, at 10%.');
+  // Every option's base rate, so the one that came true (Ambledene) is read against its own.
+  await expect(card).toContainText('Kestrowe 40%, Ambledene 40%, Neither 20%');
   await expect(card.getByTestId('revision-note')).toHaveText('First read 7');
   await expect(card.getByTestId('resolution-note')).toHaveText('Decision letter 7');
 

@@ -62,6 +62,11 @@ test('a fraction typed into a percent box asks whether the percent was meant', (
 test('the diary’s reasons read as sentences without internal names', () => {
   assert.equal(plainReason('must be after the opening time (opened_at)'), 'Must be after the opening time');
   assert.equal(plainReason('must not be empty'), 'Must not be empty');
+  // The diary's neutral time is written as the window writes dates, not left as 2026-09-24 08:48 Europe/London.
+  assert.match(
+    plainReason("must not be before the question opened (2026-09-24 08:48 Europe/London); if it happened earlier, first move the question's opening time (opened_at) back"),
+    /^Must not be before the question opened \((24 Sept? 2026, 08:48|Sep 24, 2026, 8:48 AM) GMT\+1\); if it happened earlier, first move the question's opening time back$/,
+  );
   assert.equal(plainReason('is not a valid tag: a tag is 1–64 lower-case letters'), 'This is not a valid tag: a tag is 1–64 lower-case letters');
   assert.equal(plainReason('lists the same tag twice'), 'This lists the same tag twice');
   assert.equal(plainReason('must be event_by_deadline or state_at_deadline'), 'Must be event by deadline or state at deadline');
@@ -127,4 +132,10 @@ test('a tool\'s interval is in whole percents, and an end short of 0 or 1 is nev
   assert.equal(formatRange(0.00271, 0.1109), '0.3–11%');
   assert.equal(formatRange(0.9953355411912086, 0.9998920811953182), '99.5–99.99%');
   assert.equal(formatRange(0.004, 0.006), '0.4–0.6%');
+});
+
+test('a refusal shown in a banner writes the diary’s times as the window writes dates', async () => {
+  const { describeError } = await import('../../renderer/src/api/errors');
+  const shown = describeError(new Error("The request was not accepted: changes.opened_at: must not be after the question's first revision (2026-11-02 09:30 Europe/London). Nothing was changed."));
+  assert.match(shown, /first revision \((2 Nov 2026, 09:30|Nov 2, 2026, 9:30 AM) GMT\)\. Nothing was changed\.$/);
 });

@@ -9,6 +9,7 @@ import assert from 'node:assert/strict';
 import { wilsonInterval } from '../../shared/scoring/intervals';
 import {
   choiceSkillSentence,
+  coverageReading,
   coverageSentence,
   coverageVerdict,
   gapSentence,
@@ -34,6 +35,8 @@ test('coverage reads as the issue words it, with the Wilson interval', () => {
   assert.equal(coverageVerdict(coverage), 'too narrow: widen these ranges');
   assert.equal(coverageVerdict({ level: 0.8, inside: 16, ...row(16, 20) }), 'consistent with 80%');
   assert.equal(coverageVerdict({ level: 0.5, inside: 20, ...row(20, 20) }), 'wider than needed');
+  // One reading wherever it is shown: the verdict is a sentence of its own, not a bracket after a full stop.
+  assert.equal(coverageReading(coverage), 'Your 80% ranges caught the outcome 9 times in 20 (45%, 95% interval 26–66%). That is too narrow: widen these ranges.');
 });
 
 test('quantile calibration names the level and what a calibrated one would show', () => {

@@ -4,6 +4,7 @@
  * and a merging import's list of conflicting questions.
  */
 import type { ApiErrorCode, ImportConflict } from '../../../shared/contract';
+import { clockTimesAsShown } from '../dates';
 
 export type RequestErrorCode = ApiErrorCode | 'unreachable' | 'unauthorized';
 
@@ -41,6 +42,7 @@ export function fieldReasons(fields: readonly string[], stripPrefix = ''): Map<s
 
 /** A sentence for a toast or banner, whatever was thrown. */
 export function describeError(error: unknown): string {
-  if (error instanceof Error) return error.message;
+  // The diary's neutral times ("2026-11-02 09:30 Europe/London") read as the window writes dates.
+  if (error instanceof Error) return clockTimesAsShown(error.message);
   return `Something unexpected went wrong (${String(error)}). Reload the window and try again.`;
 }

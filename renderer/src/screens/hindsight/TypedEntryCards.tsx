@@ -12,10 +12,9 @@ import { toStoredValue } from '../../../../shared/numeric-value';
 import { Badge } from '../../components/Badge';
 import { formatCount, formatInstant } from '../../dates';
 import { formatValue } from '../../forecastEntry/numericEntry';
-import { choiceSummary, numericSummary } from '../../questionTypes/summaries';
+import { numericSummary } from '../../questionTypes/summaries';
 import { hrefTo, questionPath } from '../../routing';
-import { choiceVerdictSentence, surpriseSentence } from './typedWording';
-import { wholePercent } from './wording';
+import { choiceVerdictSentence, everyOption, surpriseSentence } from './typedWording';
 import './typedEntries.css';
 
 interface Revision {
@@ -130,12 +129,12 @@ export function ChoiceEntryCard({ entry: e, timeZone }: { entry: ChoiceHindsight
       sentence={choiceVerdictSentence(e)}
       facts={[
         ['Window ended', formatInstant(e.window_end, timeZone)],
-        ['Option base rates', e.option_base_rates ? choiceSummary(e.options, e.option_base_rates) : 'not stated'],
-        ['Final forecast', e.options.map((o, k) => `${o} ${wholePercent(e.final_probs[k] ?? 0)}`).join(', ')],
+        ['Option base rates', e.option_base_rates ? everyOption(e.options, e.option_base_rates) : 'not stated'],
+        ['Final forecast', everyOption(e.options, e.final_probs)],
         ['Came true', e.options[e.outcome_option] ?? ''],
       ]}
       rule={e.rule}
-      revisions={e.forecasts.map((f) => ({ ...f, said: e.options.map((o, k) => `${o} ${wholePercent(f.probs[k] ?? 0)}`).join(', ') }))}
+      revisions={e.forecasts.map((f) => ({ ...f, said: everyOption(e.options, f.probs) }))}
       resolved={e.options[e.outcome_option] ?? ''}
       resolution={e.resolution}
       timeZone={timeZone}

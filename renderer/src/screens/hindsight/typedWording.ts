@@ -9,6 +9,15 @@ import { formatValue } from '../../forecastEntry/numericEntry';
 import { plural } from '../../tools/format';
 import { wholePercent } from './wording';
 
+/**
+ * "Kestrowe 45%, Ambledene 35%, Neither 20%": every option with its chance, for the base
+ * rates, the final forecast and each revision alike, so the option that came true can be
+ * read against its base rate, not only the favourite's.
+ */
+export function everyOption(options: readonly string[], probs: readonly number[]): string {
+  return options.map((o, k) => `${o} ${wholePercent(probs[k] ?? 0)}`).join(', ');
+}
+
 /** "You gave Kestrowe 85%; Ambledene came true, at 10%." */
 export function choiceVerdictSentence(e: Pick<ChoiceHindsightEntry, 'options' | 'top_option' | 'top_p' | 'outcome_option' | 'outcome_p' | 'verdict'>): string {
   const top = e.options[e.top_option] ?? `option ${e.top_option + 1}`;

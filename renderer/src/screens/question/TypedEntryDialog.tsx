@@ -23,7 +23,7 @@ import { readChoiceForecast, type ChoiceProblems } from '../../forecastEntry/cho
 import { NumericForecastInput } from '../../forecastEntry/NumericForecastInput';
 import { formatValue, readNumericForecast, type NumericProblems } from '../../forecastEntry/numericEntry';
 import { choiceSummary } from '../../questionTypes/summaries';
-import { latestEntry } from './typedFacts';
+import { latestEntry, repeatsLatest } from './typedFacts';
 import type { QuestionDialogProps } from './questionForms';
 
 export type TypedQuestion = ChoiceQuestion | NumericQuestion;
@@ -100,7 +100,11 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
     const ok = await form.submit(async () => {
       undo = (mode === 'forecast' ? await api.addForecast({ ...common, note }) : await api.addReference({ ...common, source })).undo;
     }, placement);
-    if (ok) onSaved(`${mode === 'forecast' ? 'Revised to' : `Reference from ${source.trim()}:`} ${entryText(question, value)}.`, undo);
+    if (!ok) return;
+    if (mode === 'reference') onSaved(`Reference from ${source.trim()}: ${entryText(question, value)}.`, undo);
+    // The same numbers now confirm the forecast: said as the yes/no Desk says it.
+    else if (!at && repeatsLatest(question, value)) onSaved(`Kept at ${entryText(question, value)}; check-in done.`, undo);
+    else onSaved(`Revised to ${entryText(question, value)}.`, undo);
   }
 
   // The contract's or the service's reason for the whole vector shows under the boxes.

@@ -70,7 +70,9 @@ function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<TypedQues
       else outcome = { outcome: 'value', value: fromStoredValue(read.value, question.value_kind) };
     }
     const extra = notes.extra(at);
-    const request = { id: question.id, ...(outcome ?? { outcome: '' }), ...extra };
+    // With "The value is known" picked but no value yet, the outcome itself is settled: only
+    // the value box is marked, not the outcome with the contract's list of every outcome kind.
+    const request = { id: question.id, ...(outcome ?? { outcome: choice === 'value' ? 'value' : '' }), ...extra };
     if (!form.check(found, { schema: resolveRequest, request, placement: PLACEMENT }) || outcome === null) return;
     const chosen = outcome;
     const undo = await send(`Resolve ${outcomeText(question, chosen)} anyway`, (confirm) =>

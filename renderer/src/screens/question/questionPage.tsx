@@ -16,12 +16,13 @@ import { TextArea } from '../../components/TextArea';
 import { formatInstant, zoneName } from '../../dates';
 import { useUndoToast } from '../../forgiving/undo';
 import { hrefTo, navigate, questionPath } from '../../routing';
+import { reopenWording } from './questionFacts';
 
 type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
 type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
 
 /** The page's open dialog, the revision or reference awaiting confirmation, and the changes. */
-export function useQuestionActions(q: Pick<Question, 'id' | 'title'>) {
+export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at' | 'time_zone'>) {
   const undoToast = useUndoToast();
   const [dialog, setDialog] = useState<DialogName | null>(null);
   const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);
@@ -52,7 +53,7 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title'>) {
   async function reopen() {
     const { undo } = await api.reopenQuestion({ id: q.id, ...(reopenNote.trim() ? { note: reopenNote } : {}) });
     setReopenNote('');
-    saved('Reopened; the question awaits a resolution again.', undo);
+    saved(reopenWording(q, Date.now()).done, undo);
   }
 
   return {
@@ -249,7 +250,7 @@ export function QuestionConfirmations({ q, actions, recorded, pendingText }: Con
       </ConfirmDialog>
       <ConfirmDialog open={dialog === 'reopen'} title="Reopen this question?" confirmLabel="Reopen" tone="primary" onConfirm={actions.reopen} onClose={close}>
         <p>
-          The recorded resolution ({recorded}) is moved to the question’s resolution history, and the question waits for a resolution again.
+          The recorded resolution ({recorded}) is moved to the question’s resolution history, and {reopenWording(q, Date.now()).effect}.
         </p>
         <TextArea label="Why reopen" value={actions.reopenNote} onChange={actions.setReopenNote} rows={2} hint="Optional; kept in the history beside the resolution it removes." />
       </ConfirmDialog>

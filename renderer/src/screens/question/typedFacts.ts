@@ -48,3 +48,19 @@ export function numericHistoryInput(q: NumericQuestion): NumericHistoryInput {
     void: q.resolution?.outcome === 'void',
   };
 }
+
+/**
+ * True when a new revision repeats the latest one's numbers exactly: saving it confirms the
+ * forecast still stands (a check-in done), as the yes/no Desk's "Kept … at 30%" says, rather
+ * than a change of mind.
+ */
+export function repeatsLatest(
+  question: ChoiceQuestion | NumericQuestion,
+  value: { probs: readonly number[] } | { quantiles: readonly (number | string)[] },
+): boolean {
+  const last = latestEntry<{ at: string; seq: number; probs?: readonly number[]; quantiles?: readonly (number | string)[] }>(question.forecasts);
+  if (!last) return false;
+  const before = 'probs' in value ? last.probs : last.quantiles;
+  const now: readonly (number | string)[] = 'probs' in value ? value.probs : value.quantiles;
+  return before !== undefined && before.length === now.length && before.every((v, k) => String(v) === String(now[k]));
+}

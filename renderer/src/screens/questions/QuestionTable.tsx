@@ -86,7 +86,7 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
           <col />
           <col className="question-table__status" />
           <col className="question-table__closes" />
-          <col className="question-table__num" />
+          <col className="question-table__last" />
           <col className="question-table__num" />
         </colgroup>
         <thead>

@@ -10,7 +10,7 @@ import { formatValue, levelName } from '../../forecastEntry/numericEntry';
 import { pct, questions, score2 } from './format';
 import { Tile } from './Headline';
 import { LevelCalibrationChart, type LevelRow } from './LevelCalibrationChart';
-import { coverageSentence, coverageVerdict, gapName, quantileSentence, revisingSentence } from './typedReadings';
+import { coverageReading, gapName, quantileSentence, revisingSentence } from './typedReadings';
 import { formatCount } from '../../dates';
 
 function show(row: NumericQuestionRow, value: number): string {
@@ -58,7 +58,7 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
       <div className="sc-tiles">
         {widest ? (
           <Tile id="numeric-coverage" label={`Your ${pct(widest.level)} ranges`} value={pct(widest.rate)} n={widest.n} tone="amber">
-            {coverageSentence(widest)} That is {coverageVerdict(widest)}.
+            {coverageReading(widest)}
           </Tile>
         ) : null}
         <Tile id="numeric-revising" label="Revising helped? (relative WIS)" value={score2(report.relative_wis_vs_first)} n={n}>
@@ -81,7 +81,7 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
             <span className="sc-readings">
               {report.coverage.map((c) => (
                 <span key={c.level} className="sc-reading" data-testid="coverage-reading">
-                  {coverageSentence(c)} ({coverageVerdict(c)})
+                  {coverageReading(c)}
                 </span>
               ))}
             </span>

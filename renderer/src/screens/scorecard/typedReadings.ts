@@ -36,6 +36,15 @@ export function coverageVerdict(row: CoverageRow): string {
   return `consistent with ${pct(row.level)}`;
 }
 
+/**
+ * The sentence and its verdict as one reading, "… (45%, 95% interval 26–66%). That is too
+ * narrow: widen these ranges." — the tile and the chart's list say it the same way, never as
+ * a second bracket after the sentence's full stop.
+ */
+export function coverageReading(row: CoverageRow): string {
+  return `${coverageSentence(row)} That is ${coverageVerdict(row)}.`;
+}
+
 /** "The outcome fell at or below your P90 17 times in 20 (85%, 95% interval 64–95%); a calibrated P90 would be 90%." */
 export function quantileSentence(row: QuantileCalibrationRow): string {
   const name = levelName(row.tau);

@@ -76,6 +76,11 @@ export function patchFrom(draft: SettingsDraft): PatchResult {
   if (draft.quietOn) {
     if (draft.quietStart.trim() === '') errors['quiet_hours.start'] = 'enter when quiet hours start (HH:MM)';
     if (draft.quietEnd.trim() === '') errors['quiet_hours.end'] = 'enter when quiet hours end (HH:MM)';
+    // The diary reads equal times as no quiet hours at all (docs/diary-file.md); with the box
+    // ticked the user meant some, so the form says so rather than save a setting that holds nothing.
+    else if (draft.quietEnd.trim() === draft.quietStart.trim()) {
+      errors['quiet_hours.end'] = 'must differ from Quiet from: the same start and end would hold nothing; choose another time, or untick quiet hours';
+    }
     patch.quiet_hours = { start: draft.quietStart.trim(), end: draft.quietEnd.trim() };
   } else {
     patch.quiet_hours = null;

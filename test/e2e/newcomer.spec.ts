@@ -1,0 +1,111 @@
+/**
+ * Small things a newcomer meets in a first week with typed questions and the data screens:
+ * each message names what is missing in the user's own terms, and the keyboard keeps its
+ * place after an action that makes the page wait.
+ */
+import { expect, test } from '@playwright/test';
+import { apiCall } from './helpers';
+import { useAppPage, useDiaryServer } from './serve';
+
+const server = useDiaryServer();
+test.describe.configure({ mode: 'serial' });
+const app = useAppPage(server);
+
+test('resolving a numeric question with the value box empty marks only the value box', async () => {
+  const { page } = app;
+  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+    title: 'Pallets through Eastgate in the quarter',
+    opened_at: '2026-01-05T09:00:00Z',
+    closes_at: '2026-03-31T16:00:00Z',
+    time_zone: 'Europe/London',
+    type: 'numeric',
+    unit: 'pallets',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+  });
+  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
+  await page.getByRole('button', { name: 'Resolve' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Resolve the question' });
+  await expect(dialog.getByRole('radio', { name: 'The value is known' })).toBeChecked();
+  await dialog.getByRole('button', { name: 'Resolve', exact: true }).click();
+  await expect(dialog.getByRole('spinbutton', { name: 'Value' })).toHaveAccessibleDescription(/Enter the value it took/);
+  // The outcome was chosen: no list of every outcome kind the diary knows.
+  await expect(dialog.getByText(/must be yes, no, void/i)).toHaveCount(0);
+  await dialog.getByRole('spinbutton', { name: 'Value' }).fill('1840');
+  await dialog.getByRole('button', { name: 'Resolve', exact: true }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByTestId('toast').filter({ hasText: 'Resolved: 1,840 pallets.' })).toBeVisible();
+});
+
+test('after an import is refused or an export saved, the keyboard is still on the control it used', async () => {
+  const { page } = app;
+  await page.goto(`${server().url.split('?')[0]}#/settings`);
+  // A spreadsheet without its closes_at column.
+  const csv = 'question_id,title,rule,kind,tags,opened_at,time_zone,forecast_at,p\nq1,Depot lease renewed,,event_by_deadline,,2026-01-05T09:00:00Z,Europe/London,2026-01-05T09:10:00Z,0.6\n';
+  const picker = page.getByLabel('Import a diary file…');
+  await picker.focus();
+  await picker.setInputFiles({ name: 'leases.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+  await expect(page.getByText(/leases\.csv: .*"closes_at" is missing/)).toBeVisible();
+  await expect(picker).toBeFocused();
+
+  const exportCsv = page.getByRole('button', { name: 'Export spreadsheet (CSV)' });
+  const download = page.waitForEvent('download');
+  await exportCsv.focus();
+  await page.keyboard.press('Enter');
+  await download;
+  await expect(page.getByTestId('toast').filter({ hasText: /^Exported / })).toBeVisible();
+  await expect(exportCsv).toBeFocused();
+});
+
+test('at 1024 and 800 wide the Questions list keeps each status inside its pill and wraps a favourite’s name between words', async () => {
+  const { page } = app;
+  const day = 86_400_000;
+  await apiCall(server().url, 'createQuestion', {
+    title: 'Harbour crane survey signed off',
+    opened_at: new Date(Date.now() - 30 * day).toISOString(),
+    closes_at: new Date(Date.now() - 2 * day).toISOString(),
+  });
+  await apiCall(server().url, 'createQuestion', {
+    title: 'Which vendor will the fraud team pick?',
+    closes_at: new Date(Date.now() + 30 * day).toISOString(),
+    type: 'choice',
+    options: ['Ferncastle Analytics', 'Tarnwell Data'],
+    first_forecast: { probs: [0.5, 0.5] },
+  });
+  // The list was open before the questions were added over the API: load it afresh.
+  await page.reload();
+  const table = page.getByTestId('question-table');
+  for (const width of [1024, 800]) {
+    await page.setViewportSize({ width, height: 860 });
+    await expect(table.getByText('Awaiting resolution')).toBeVisible();
+    await expect(table.getByText('Ferncastle Analytics 50%')).toBeVisible();
+    const fits = await page.evaluate(() => {
+      const badge = [...document.querySelectorAll('[data-testid=question-table] .badge')].find((b) => b.textContent === 'Awaiting resolution')!;
+      const cell = [...document.querySelectorAll('[data-testid=question-table] td')].find((td) => td.textContent === 'Ferncastle Analytics 50%')!;
+      const style = getComputedStyle(cell);
+      const context = document.createElement('canvas').getContext('2d')!;
+      context.font = `${style.fontWeight} ${style.fontSize} ${style.fontFamily}`;
+      const room = cell.clientWidth - parseFloat(style.paddingLeft) - parseFloat(style.paddingRight);
+      const widest = Math.max(...(cell.textContent ?? '').split(' ').map((word) => context.measureText(word).width));
+      return { statusInPill: badge.scrollWidth <= badge.clientWidth, wordFits: widest <= room };
+    });
+    expect(fits, `at ${width} wide`).toEqual({ statusInPill: true, wordFits: true });
+  }
+});
+
+test('saving a choice forecast unchanged says it was kept and the check-in is done, as the yes/no Desk does', async () => {
+  const { page } = app;
+  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+    title: 'Which depot closes first?',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'choice',
+    options: ['Alder', 'Birch'],
+    first_forecast: { probs: [0.6, 0.4] },
+  });
+  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByTestId('toast').filter({ hasText: 'Kept at Alder 60%; check-in done.' })).toBeVisible();
+});
