@@ -312,38 +312,30 @@ export const MIGRATIONS: readonly Migration[] = [
         last_seq     INTEGER,
         last_p       REAL
       ) WITHOUT ROWID;
-      INSERT INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days)
-        SELECT id, title, kind, type, opened_at, closes_at, time_zone, checkin_days FROM questions q
+      -- What the table must hold, computed from the tables themselves: the one statement of
+      -- the rule. A trigger brings a question up to date by deleting its row and inserting
+      -- what this view gives for it (nothing when it is resolved or gone), in the table's
+      -- column order.
+      CREATE VIEW unresolved_questions_computed AS
+        SELECT q.id, q.title, q.kind, q.type, q.opened_at, q.closes_at, q.time_zone, q.checkin_days,
+          (SELECT at FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1) AS last_at,
+          (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1) AS last_seq,
+          (SELECT p FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1) AS last_p
+        FROM questions q
         WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = q.id);
-      UPDATE unresolved_questions SET (last_at, last_seq, last_p) =
-        (SELECT at, seq, p FROM forecasts WHERE question_id = unresolved_questions.id ORDER BY at DESC, seq DESC LIMIT 1);
+      INSERT INTO unresolved_questions SELECT * FROM unresolved_questions_computed;
 
       CREATE TRIGGER unresolved_question_added AFTER INSERT ON questions
-      WHEN NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = NEW.id)
       BEGIN
-        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
-        SELECT NEW.id, NEW.title, NEW.kind, NEW.type, NEW.opened_at, NEW.closes_at, NEW.time_zone, NEW.checkin_days, f.at, f.seq, f.p
-        FROM (SELECT 1) LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = NEW.id ORDER BY at DESC, seq DESC LIMIT 1) f;
+        DELETE FROM unresolved_questions WHERE id = NEW.id;
+        INSERT INTO unresolved_questions SELECT * FROM unresolved_questions_computed WHERE id = NEW.id;
       END;
-      CREATE TRIGGER unresolved_question_changed AFTER UPDATE OF title, kind, opened_at, closes_at, time_zone, checkin_days ON questions
-      WHEN NEW.id IS OLD.id
+      -- Under another id too (the app never renames; another program may, with foreign keys
+      -- deferred, moving the revisions and resolution before or after, or deleting them).
+      CREATE TRIGGER unresolved_question_changed AFTER UPDATE OF id, title, kind, opened_at, closes_at, time_zone, checkin_days ON questions
       BEGIN
-        UPDATE unresolved_questions SET title = NEW.title, kind = NEW.kind, opened_at = NEW.opened_at,
-          closes_at = NEW.closes_at, time_zone = NEW.time_zone, checkin_days = NEW.checkin_days
-        WHERE id = NEW.id;
-      END;
-      -- A question given another id (the app never does; another program may, with foreign
-      -- keys deferred): it leaves the table under the old id and stands under the new one as
-      -- the rows filed under that id say, since its revisions and resolution may have been
-      -- moved to it before, may follow, or may have been deleted instead.
-      CREATE TRIGGER unresolved_question_renamed AFTER UPDATE OF id ON questions
-      WHEN NEW.id IS NOT OLD.id
-      BEGIN
-        DELETE FROM unresolved_questions WHERE id = OLD.id;
-        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
-        SELECT NEW.id, NEW.title, NEW.kind, NEW.type, NEW.opened_at, NEW.closes_at, NEW.time_zone, NEW.checkin_days, f.at, f.seq, f.p
-        FROM (SELECT 1) LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = NEW.id ORDER BY at DESC, seq DESC LIMIT 1) f
-        WHERE NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = NEW.id);
+        DELETE FROM unresolved_questions WHERE id IN (OLD.id, NEW.id);
+        INSERT INTO unresolved_questions SELECT * FROM unresolved_questions_computed WHERE id IN (OLD.id, NEW.id);
       END;
       CREATE TRIGGER unresolved_question_removed AFTER DELETE ON questions
       BEGIN
@@ -354,26 +346,19 @@ export const MIGRATIONS: readonly Migration[] = [
         DELETE FROM unresolved_questions WHERE id = NEW.question_id;
       END;
       CREATE TRIGGER unresolved_question_reopened AFTER DELETE ON resolutions
-      WHEN NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = OLD.question_id)
       BEGIN
-        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
-        SELECT q.id, q.title, q.kind, q.type, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.seq, f.p
-        FROM questions q LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = OLD.question_id ORDER BY at DESC, seq DESC LIMIT 1) f
-        WHERE q.id = OLD.question_id;
+        DELETE FROM unresolved_questions WHERE id = OLD.question_id;
+        INSERT INTO unresolved_questions SELECT * FROM unresolved_questions_computed WHERE id = OLD.question_id;
       END;
-      -- A resolution moved to another question (the app never does; another program may):
-      -- the question it now settles leaves the table, the one it left comes back unless
-      -- another resolution still settles it.
+      -- A resolution moved to another question (the app never does; another program may).
       CREATE TRIGGER unresolved_resolution_moved AFTER UPDATE OF question_id ON resolutions
-      WHEN NEW.question_id IS NOT OLD.question_id
       BEGIN
-        DELETE FROM unresolved_questions WHERE id = NEW.question_id;
-        INSERT OR REPLACE INTO unresolved_questions (id, title, kind, type, opened_at, closes_at, time_zone, checkin_days, last_at, last_seq, last_p)
-        SELECT q.id, q.title, q.kind, q.type, q.opened_at, q.closes_at, q.time_zone, q.checkin_days, f.at, f.seq, f.p
-        FROM questions q LEFT JOIN (SELECT at, seq, p FROM forecasts WHERE question_id = OLD.question_id ORDER BY at DESC, seq DESC LIMIT 1) f
-        WHERE q.id = OLD.question_id AND NOT EXISTS (SELECT 1 FROM resolutions WHERE question_id = OLD.question_id);
+        DELETE FROM unresolved_questions WHERE id IN (OLD.question_id, NEW.question_id);
+        INSERT INTO unresolved_questions SELECT * FROM unresolved_questions_computed WHERE id IN (OLD.question_id, NEW.question_id);
       END;
-      -- A new revision is the latest when it is later, or as late and entered after (seq only grows).
+      -- The hot path (an import writes millions of revisions): a new revision is the latest
+      -- when it is later, or as late and entered after (seq only grows), so the row is
+      -- updated in place rather than computed again.
       CREATE TRIGGER unresolved_revision_added AFTER INSERT ON forecasts
       BEGIN
         UPDATE unresolved_questions SET last_at = NEW.at, last_seq = NEW.seq, last_p = NEW.p
@@ -381,15 +366,16 @@ export const MIGRATIONS: readonly Migration[] = [
       END;
       CREATE TRIGGER unresolved_revision_changed AFTER UPDATE OF question_id, at, seq, p ON forecasts
       BEGIN
-        UPDATE unresolved_questions SET (last_at, last_seq, last_p) =
-          (SELECT at, seq, p FROM forecasts WHERE question_id = unresolved_questions.id ORDER BY at DESC, seq DESC LIMIT 1)
-        WHERE id IN (OLD.question_id, NEW.question_id);
+        DELETE FROM unresolved_questions WHERE id IN (OLD.question_id, NEW.question_id);
+        INSERT INTO unresolved_questions SELECT * FROM unresolved_questions_computed WHERE id IN (OLD.question_id, NEW.question_id);
       END;
+      -- Only the latest revision's removal changes anything (a question's deletion removes
+      -- every revision; the others cost a lookup).
       CREATE TRIGGER unresolved_revision_removed AFTER DELETE ON forecasts
+      WHEN OLD.seq IS (SELECT last_seq FROM unresolved_questions WHERE id = OLD.question_id)
       BEGIN
-        UPDATE unresolved_questions SET (last_at, last_seq, last_p) =
-          (SELECT at, seq, p FROM forecasts WHERE question_id = unresolved_questions.id ORDER BY at DESC, seq DESC LIMIT 1)
-        WHERE id = OLD.question_id AND last_seq = OLD.seq;
+        DELETE FROM unresolved_questions WHERE id = OLD.question_id;
+        INSERT INTO unresolved_questions SELECT * FROM unresolved_questions_computed WHERE id = OLD.question_id;
       END;
     `,
   },
