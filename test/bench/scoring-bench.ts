@@ -6,23 +6,13 @@
  * other work shares the machine. Run: `npx tsx test/bench/scoring-bench.ts`.
  */
 import { computeScoreReport, computeScorecardDetail, type ScoringQuestion } from '../../shared/scoring/index';
+import { mulberry32 } from './make-diary';
 
 const QUESTIONS = 10_000;
 const FORECASTS_PER_QUESTION = 20; // on average; pairs of questions get 20 − d and 20 + d
 const RUNS = 5;
 const DAY = 86_400_000;
 
-/** mulberry32: small, fast, seedable. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function buildDiary(seed: number, shuffleForecasts: boolean): ScoringQuestion[] {
   const rand = mulberry32(seed);

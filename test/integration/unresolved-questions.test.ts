@@ -15,6 +15,7 @@ import { callOrThrow } from '../../main/service/dispatch';
 import { unresolvedQuestions } from '../../main/service/nudges';
 import { MIGRATIONS, SCHEMA_VERSION } from '../../main/store/migrations';
 import { migrate } from '../../main/store/open';
+import { mulberry32 } from '../bench/make-diary';
 import { exportJson, openTestDiary, tempDir } from '../support/temp-diary';
 
 const NOW = Date.parse('2026-06-01T12:00:00Z');
@@ -43,22 +44,10 @@ function assertKept(db: Database.Database, step: string): void {
   assert.deepEqual(held, truth, `after ${step}`);
 }
 
-/** A small deterministic generator (mulberry32), so a failure names a reproducible sequence. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 test('every change through the service, and each one undone, leaves exactly the unresolved questions in the table', async () => {
   const d = openTestDiary({ now: iso(NOW) });
   const db = d.service.store.read;
-  const next = random(20261203);
+  const next = mulberry32(20261203); // seeded, so a failure names a reproducible sequence
   const pick = <T>(list: readonly T[]): T => list[Math.floor(next() * list.length)]!;
   const ids: string[] = [];
   const undos: string[] = [];

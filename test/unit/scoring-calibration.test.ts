@@ -10,21 +10,11 @@ import {
   calibrationFit,
   wilsonInterval,
 } from '../../shared/scoring/index';
+import { mulberry32 } from '../bench/make-diary';
 
 const close = (actual: number, expected: number, tol: number, what: string) =>
   assert.ok(Math.abs(actual - expected) <= tol, `${what}: got ${actual}, expected ${expected} ± ${tol}`);
 
-/** Seeded PRNG (mulberry32) so the random checks are reproducible. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 test('scorecard bins: edges (2k − 1)/20, a forecast falls in the bin of edges ≤ p', () => {
   // Derived from SCORING.md: bin 0 is [0, 0.05), bin 1 [0.05, 0.15), …, bin 10 [0.95, 1].

@@ -9,6 +9,7 @@ import type {
   ScoringNumericForecast,
   ScoringNumericQuestion,
 } from '../../shared/scoring/index';
+export { mulberry32 } from '../bench/make-diary';
 
 export const DAY = 86_400_000;
 export const T0 = Date.UTC(2026, 0, 1);
@@ -16,17 +17,6 @@ export const T0 = Date.UTC(2026, 0, 1);
 export const close = (actual: number | null, expected: number, tol: number, what: string): void =>
   assert.ok(actual !== null && Math.abs(actual - expected) <= tol, `${what}: got ${actual}, expected ${expected} ± ${tol}`);
 
-/** Seeded PRNG (mulberry32) so the random checks are reproducible. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Fisher–Yates with the given PRNG; returns a new array. */
 export function shuffled<T>(xs: readonly T[], rand: () => number): T[] {
