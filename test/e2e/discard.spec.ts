@@ -7,7 +7,7 @@
  */
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import type { Settings } from '../../shared/domain';
-import { apiCall, expectNoSeriousViolations } from './helpers';
+import { apiCall, expectNoSeriousViolations, openNewQuestion } from './helpers';
 import { openApp, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
@@ -79,11 +79,10 @@ test('Edit asks only when something was changed', async ({ browser }) => {
   const app = await openApp(browser, server(), {}, 'questions');
   const { page } = app;
   try {
-    const created = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+    await openNewQuestion(page, server().url, {
       title: 'Depot lease renewed',
       closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
     });
-    await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(created.id)}`);
     await page.getByRole('button', { name: 'Edit' }).click();
     const dialog = page.getByRole('dialog', { name: 'Edit question' });
     await page.keyboard.press('Escape');

@@ -12,7 +12,7 @@
  */
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import type { BinaryQuestion, QuestionSummary } from '../../shared/domain';
-import { apiCall, expectNoSeriousViolations } from './helpers';
+import { apiCall, expectNoSeriousViolations, openNewQuestion } from './helpers';
 import { openApp, useDiaryServer, type AppPage } from './serve';
 
 const server = useDiaryServer();
@@ -298,7 +298,7 @@ test('Edit says a close before the opening beside Closes, without internal names
 
 test('Edit of a numeric question says when it opened beside a close before it, and what to do', async () => {
   const { page } = app;
-  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+  await openNewQuestion(page, server().url, {
     title: 'Eastgate pallets in Q1',
     opened_at: '2026-10-24T08:03:00Z',
     closes_at: '2031-03-31T16:00:00Z',
@@ -308,7 +308,6 @@ test('Edit of a numeric question says when it opened beside a close before it, a
     value_kind: 'number',
     levels: [0.1, 0.5, 0.9],
   });
-  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
   await page.getByRole('button', { name: 'Edit' }).click();
   const dialog = page.getByRole('dialog', { name: 'Edit question' });
   const closes = dialog.getByRole('textbox', { name: 'Closes', exact: true });

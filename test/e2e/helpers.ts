@@ -1,4 +1,4 @@
-/** Steps several e2e files share: adding a question through the quick-add form. */
+/** Steps several e2e files share: adding a question through the quick-add form, or through the API and opening its page. */
 import { expect, type Page } from '@playwright/test';
 
 export interface QuickAddInput {
@@ -52,6 +52,13 @@ export async function apiCall<T>(serverUrl: string, operation: string, request: 
   const envelope = (await response.json()) as { ok: true; value: T } | { ok: false; error: unknown };
   if (!envelope.ok) throw new Error(`${operation} was refused: ${JSON.stringify(envelope.error)}`);
   return envelope.value;
+}
+
+/** Creates a question through the API (`request` as createQuestion takes it) and opens its page; returns its id. */
+export async function openNewQuestion(page: Page, serverUrl: string, request: object): Promise<string> {
+  const { id } = await apiCall<{ id: string }>(serverUrl, 'createQuestion', request);
+  await page.goto(`${serverUrl.split('?')[0]}#/questions/${encodeURIComponent(id)}`);
+  return id;
 }
 
 /** An axe scan with the WCAG 2.2 AA and best-practice rules; serious or critical findings fail. */

@@ -4,7 +4,7 @@
  * place after an action that makes the page wait.
  */
 import { expect, test } from '@playwright/test';
-import { apiCall } from './helpers';
+import { apiCall, openNewQuestion } from './helpers';
 import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
@@ -13,7 +13,7 @@ const app = useAppPage(server);
 
 test('resolving a numeric question with the value box empty marks only the value box', async () => {
   const { page } = app;
-  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+  await openNewQuestion(page, server().url, {
     title: 'Pallets through Eastgate in the quarter',
     opened_at: '2026-01-05T09:00:00Z',
     closes_at: '2026-03-31T16:00:00Z',
@@ -23,7 +23,6 @@ test('resolving a numeric question with the value box empty marks only the value
     value_kind: 'number',
     levels: [0.1, 0.5, 0.9],
   });
-  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
   await page.getByRole('button', { name: 'Resolve' }).click();
   const dialog = page.getByRole('dialog', { name: 'Resolve the question' });
   await expect(dialog.getByRole('radio', { name: 'The value is known' })).toBeChecked();
@@ -95,14 +94,13 @@ test('at 1024 and 800 wide the Questions list keeps each status inside its pill 
 
 test('saving a choice forecast unchanged says it was kept and the check-in is done, as the yes/no Desk does', async () => {
   const { page } = app;
-  const q = await apiCall<{ id: string }>(server().url, 'createQuestion', {
+  await openNewQuestion(page, server().url, {
     title: 'Which depot closes first?',
     closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
     type: 'choice',
     options: ['Alder', 'Birch'],
     first_forecast: { probs: [0.6, 0.4] },
   });
-  await page.goto(`${server().url.split('?')[0]}#/questions/${encodeURIComponent(q.id)}`);
   await page.getByRole('button', { name: 'Revise' }).click();
   const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
   await dialog.getByRole('button', { name: 'Save revision' }).click();
