@@ -2,15 +2,17 @@
  * The readable form of `forelog score` (without --json): the headline figures with their
  * sample sizes, in plain words, for a terminal.
  */
+import { groupedDigits } from '../shared/grouped-digits';
 import type { ChoiceReport, NumericReport, ScoreReport } from '../shared/scoring';
 
 const num = (v: number | null, digits = 3): string => (v === null ? '—' : v.toFixed(digits));
-const GROUPED = new Intl.NumberFormat('en-GB');
-const COST = new Intl.NumberFormat('en-GB', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 /** A count, digits grouped: 30,000. */
-const count = (n: number): string => GROUPED.format(n);
+const count = groupedDigits;
+/** Made on first use: the first Intl object of a process costs a start of the command line ~20 ms. */
+let COST: Intl.NumberFormat | undefined;
 /** A summed cost, digits grouped, two decimals; null is a total larger than a double holds. */
-const cost = (v: number | null): string => (v === null ? 'too large to add up' : COST.format(v));
+const cost = (v: number | null): string =>
+  v === null ? 'too large to add up' : (COST ??= new Intl.NumberFormat('en-GB', { minimumFractionDigits: 2, maximumFractionDigits: 2 })).format(v);
 const pct = (v: number | null): string => (v === null ? '—' : `${Math.round(v * 100)}%`);
 
 type Row = (label: string, value: string, note?: string) => void;

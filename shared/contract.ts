@@ -11,6 +11,7 @@ import type { ChoiceHindsightEntry, NumericHindsightEntry } from './hindsight-en
 import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf } from './question-types';
 import type { ChoiceDetail, ChoiceReport, NumericDetail, NumericReport, ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
+import { groupedDigits } from './grouped-digits';
 
 const id = v.id('must be an id');
 
@@ -539,7 +540,7 @@ export const MESSAGE_PROBLEMS = 10;
 export function notAccepted(lines: string[]): ApiError {
   const named = lines.slice(0, MESSAGE_PROBLEMS).join('; ');
   const more = lines.length - MESSAGE_PROBLEMS;
-  const rest = more > 0 ? `; and ${more.toLocaleString('en-US')} more (each is listed in fields)` : '';
+  const rest = more > 0 ? `; and ${groupedDigits(more)} more (each is listed in fields)` : '';
   return new ApiError('invalid', `The request was not accepted: ${named}${rest}. Nothing was changed.`, lines);
 }
 

@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { MAX_OPTIONS, MIN_OPTIONS, sumMiss, sumsToOne } from './choice-vector';
 import { QUESTION_TYPES, VALUE_KINDS } from './domain';
 import { dateToDays } from './numeric-value';
+import { groupedDigits } from './grouped-digits';
 import { quantileLevelsProblem, quantilesProblem } from './quantile-levels';
 import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
 
@@ -134,7 +135,7 @@ const atMost = (max: number) => ({
     `must be at most ${grouped(max)} characters${typeof issue.input === 'string' ? `; it has ${grouped(issue.input.length)}` : ''}`,
 });
 
-const grouped = (n: number) => n.toLocaleString('en-US');
+const grouped = groupedDigits;
 
 /** One line of text, trimmed, not empty once trimmed: after this rule SQLite's length(trim(x)) > 0 holds too. */
 const filledLine = (max: number, empty = 'must not be empty') => text('one').trim().min(1, { message: empty }).max(max, atMost(max));
@@ -159,7 +160,7 @@ export const searchText = text('one').max(200, { message: 'must be at most 200 c
 /** A whole number from `min` to `max` (paging: an offset or a page size). */
 export function count(max: number, min = 0) {
   // Past 2^53 − 1 whole numbers are no longer told apart; say so rather than "0 or more" to a 2^53.
-  const [low, high] = [min.toLocaleString('en-GB'), max.toLocaleString('en-GB')];
+  const [low, high] = [groupedDigits(min), groupedDigits(max)];
   const rule = max === Number.MAX_SAFE_INTEGER ? `must be a whole number, ${low} or more (at most ${high})` : `must be a whole number from ${low} to ${high}`;
   return z
     .number({ error: rule })

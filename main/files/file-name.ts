@@ -5,6 +5,7 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
+import { groupedDigits } from '../../shared/grouped-digits';
 
 export const NAME_MAX_BYTES = 255;
 
@@ -19,7 +20,7 @@ export function fileNameProblem(file: string): string | null {
     const bytes = Buffer.byteLength(parts[i]!);
     if (bytes <= NAME_MAX_BYTES) continue;
     const whose = i === parts.length - 1 ? 'its name' : `the name of its folder ${parts[i]!.slice(0, 40)}…`;
-    return `${resolved}: ${whose} is ${bytes.toLocaleString('en-GB')} bytes long, more than the ${NAME_MAX_BYTES} a file name may have; choose a shorter name.`;
+    return `${resolved}: ${whose} is ${groupedDigits(bytes)} bytes long, more than the ${NAME_MAX_BYTES} a file name may have; choose a shorter name.`;
   }
   return null;
 }

@@ -477,33 +477,38 @@ ${lateLine(e.forecasts.length - counting.length)}${resolutionLine(e.resolution, 
 </article>`;
 }
 
-const NUMBER_FORMAT = new Intl.NumberFormat(LOCALE, { maximumFractionDigits: 4 });
-const DATE_VALUE_FORMAT = new Intl.DateTimeFormat(LOCALE, { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' });
+// Made on first use, not at load: the first Intl object of a process costs every start of
+// the command line ~20 ms, and most commands never write a briefing.
+let numberFormat: Intl.NumberFormat | undefined;
+let dateValueFormat: Intl.DateTimeFormat | undefined;
+const formatNumber = (x: number): string => (numberFormat ??= new Intl.NumberFormat(LOCALE, { maximumFractionDigits: 4 })).format(x);
+const formatDateValue = (ms: number): string =>
+  (dateValueFormat ??= new Intl.DateTimeFormat(LOCALE, { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' })).format(ms);
 
 /** A numeric question's value as the reader sees it: a number with its unit, or a calendar date. */
 function shownValue(q: { value_kind: ValueKind; unit: string }, value: NumericValue): string {
-  if (q.value_kind === 'date') return DATE_VALUE_FORMAT.format(Date.parse(`${String(value)}T00:00:00Z`));
-  const n = NUMBER_FORMAT.format(value as number);
+  if (q.value_kind === 'date') return formatDateValue(Date.parse(`${String(value)}T00:00:00Z`));
+  const n = formatNumber(value as number);
   return q.unit ? `${n} ${q.unit}` : n;
 }
 
 /** A range of a numeric question: "12–21 weeks", or two dates "1 Mar 2026 – 20 Mar 2026". */
 function shownRange(q: { value_kind: ValueKind; unit: string }, low: NumericValue, high: NumericValue): string {
   if (q.value_kind === 'date') return `${shownValue(q, low)} – ${shownValue(q, high)}`;
-  const span = `${NUMBER_FORMAT.format(low as number)}–${NUMBER_FORMAT.format(high as number)}`;
+  const span = `${formatNumber(low as number)}–${formatNumber(high as number)}`;
   return q.unit ? `${span} ${q.unit}` : span;
 }
 
 /** A forecast's values in level order: "10 / 14 / 20 weeks", or dates each in full. */
 function shownValues(q: { value_kind: ValueKind; unit: string }, values: readonly NumericValue[]): string {
   if (q.value_kind === 'date') return values.map((x) => shownValue(q, x)).join(' / ');
-  const list = values.map((x) => NUMBER_FORMAT.format(x as number)).join(' / ');
+  const list = values.map((x) => formatNumber(x as number)).join(' / ');
   return q.unit ? `${list} ${q.unit}` : list;
 }
 
 /** How far outside the range, in the question's unit: days for a date. */
 function shownDistance(e: NumericHindsightEntry): string {
-  const n = NUMBER_FORMAT.format(e.distance);
+  const n = formatNumber(e.distance);
   if (e.value_kind === 'date') return `${n} ${e.distance === 1 ? 'day' : 'days'} ${e.side === 'below' ? 'before' : 'after'} it`;
   return `${e.unit ? `${n} ${e.unit}` : n} ${e.side} it`;
 }

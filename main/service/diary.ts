@@ -88,7 +88,8 @@ import { dataVersion, loadScoringInput, startStepwiseRead, type ScoringInput, ty
 export interface DiaryContext {
   store: StoreHandles;
   now: () => number;
-  systemTimeZone: string;
+  /** The system's zone, for a diary without one of its own (asked only then). */
+  systemTimeZone: () => string;
   /** Builds the example diary for an empty diary (injected so the service stays small). */
   demo: (now: number) => unknown;
 }

@@ -96,7 +96,8 @@ export function openDiary(options: OpenOptions): DiaryService {
     busyTimeoutMs: options.busyTimeoutMs,
     onMigrating: options.onMigrating,
   });
-  const diary = createDiary({ store, now, systemTimeZone: options.timeZone ?? systemTimeZone(), demo: buildDemoDiary });
+  let zone = options.timeZone;
+  const diary = createDiary({ store, now, systemTimeZone: () => (zone ??= systemTimeZone()), demo: buildDemoDiary });
   const dispatch = createDispatch(diary.handlers, options.onInternalError ?? (() => {}), store.path);
   const stopWarming = options.warmScores ? warmScoresWhileIdle(diary, options.onInternalError ?? (() => {})) : () => {};
   return {
