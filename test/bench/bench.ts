@@ -8,6 +8,8 @@
  *   - `score --json` against a yardstick: test/bench/score_peer.py, the same core figures
  *     (Brier, log score, calibration bins) computed with numpy from the exported file by
  *     Debian's /usr/bin/python3, timed as a whole process in the same run; it must agree;
+ *     and the reading floor (test/bench/reading-floor.cjs): Node and SQLite alone passing
+ *     the same revisions to JavaScript, the least any scorer over this storage could take;
  *   - reading the diary for scoring and the engine's own compute, in process, and the
  *     reading ahead a running app does while idle (total, steps, longest step);
  *   - `due`, `dueCount` and a page of `listQuestions` per call to a running `forelog serve`;
@@ -45,6 +47,7 @@ declare const location: { hash: string };
 const ROOT = path.resolve(import.meta.dirname, '..', '..');
 const CLI = path.join(ROOT, 'dist', 'main', 'cli.cjs');
 const PEER = path.join(ROOT, 'test', 'bench', 'score_peer.py');
+const FLOOR = path.join(ROOT, 'test', 'bench', 'reading-floor.cjs');
 const PYTHON = '/usr/bin/python3';
 const CHROMIUM = '/usr/bin/chromium';
 const REVISIONS_PER_QUESTION = 20;
@@ -250,6 +253,8 @@ async function measure(questions: number, rows: Map<string, Row>): Promise<void>
     put('score --json (whole process)', ms(score.median));
     put('numpy peer (whole process)', `${ms(peer.median)} (${peerAgrees(JSON.parse(peer.last.stdout), report)})`);
     put('score ÷ peer', `${(score.median / peer.median).toFixed(2)}`);
+    const floor = repeat(times, () => run(process.execPath, [FLOOR, dbPath]));
+    put('reading floor (Node + SQLite alone, whole process)', `${ms(floor.median)} (÷ peer ${(floor.median / peer.median).toFixed(2)})`);
     fs.rmSync(exported, { force: true });
 
     const service = openDiary({ dbPath });
