@@ -11,7 +11,7 @@
  * 0.1 + 0.2 as 0.3). A function called once per row receives each value as the double
  * SQLite holds and writes it into typed arrays.
  */
-import type { ForecastColumns, ScoringChoiceQuestion, ScoringForecast, ScoringNumericQuestion, ScoringQuestion } from '../../shared/scoring';
+import type { ForecastColumns, ScoringChoiceForecast, ScoringChoiceQuestion, ScoringForecast, ScoringNumericForecast, ScoringNumericQuestion, ScoringQuestion } from '../../shared/scoring';
 import { readSnapshot, type Db } from '../store/open';
 
 /** Revisions as parallel columns; row i belongs to the question at index `slot[i]` of the answer. */
@@ -19,6 +19,7 @@ interface RevisionRows {
   n: number;
   slot: Int32Array;
   at: Float64Array;
+  /** The probability; for a choice or numeric revision (readTypedRevisions), one of its values. */
   p: Float64Array;
   seq: Float64Array;
 }
@@ -97,18 +98,28 @@ function collectorFor(db: Db): { current: Collector | null } {
  * rowid, so no text crosses per revision. `capacity` is a first guess at the row count.
  */
 function readRevisions(db: Db, range: RowidRange, slotOf: SlotOf, capacity: number): RevisionRows {
+  // Question by question (CROSS JOIN keeps questions the outer loop), each one's revisions
+  // from the (question_id, at, seq, p) index alone: no lookup per revision.
+  return collectRows(
+    db,
+    `SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id
+     WHERE q.type = 'binary' AND q.rowid BETWEEN ? AND ?`,
+    [range.from, range.to],
+    slotOf,
+    capacity,
+  );
+}
+
+/**
+ * Runs `sql`, a query that calls the collecting function once per row as
+ * (question rowid, at, p, seq), and returns the rows it collected, in the order SQLite gave them.
+ */
+function collectRows(db: Db, sql: string, params: readonly number[], slotOf: SlotOf, capacity: number): RevisionRows {
   const holder = collectorFor(db);
   const rows = emptyRows(capacity);
   holder.current = { slotOf, rows };
   try {
-    // Question by question (CROSS JOIN keeps questions the outer loop), each one's revisions
-    // from the (question_id, at, seq, p) index alone: no lookup per revision.
-    db.prepare(
-      `SELECT count(${COLLECT_FN}(q.rowid, f.at, f.p, f.seq)) FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id
-       WHERE q.type = 'binary' AND q.rowid BETWEEN ? AND ?`,
-    )
-      .pluck()
-      .get(range.from, range.to);
+    db.prepare(sql).pluck().get(...params);
   } finally {
     holder.current = null;
   }
@@ -321,70 +332,45 @@ export function dataVersion(db: Db): number {
   return db.pragma('data_version', { simple: true }) as number;
 }
 
-/** A choice or numeric revision as read: its values in order (probabilities; quantiles). */
-interface TypedRevision {
-  at: number;
-  seq: number;
-  values: number[];
-}
-
-const COLLECT_VALUE_FN = 'forelog_collect_value';
-/** Where the value-collecting function sends each row during one read; `current` is null between reads. */
-interface ValueCollector {
-  current: ((slot: number, seq: number, at: number, value: number) => void) | null;
-  slotOf: SlotOf;
-}
-const valueCollectors = new WeakMap<Db, ValueCollector>();
-
 /**
- * Every choice and numeric revision's values, grouped by question slot, through a
- * collecting SQL function (see the module comment): a million stored values would cost
- * seconds as row arrays, and only each revision's own list is built here.
+ * Every choice and numeric revision, grouped by question slot in entry order (as the rest
+ * of the service lists revisions; the engine orders by time itself), each made by `make`
+ * from its time, entry number and values. The values of all revisions lie in one
+ * Float64Array and each revision gets its own stretch of it as a view: a million stored
+ * values cross into JavaScript through the collecting function (see the module comment)
+ * into typed columns, with no array or boxed number per value, which kept the collector
+ * of a mixed diary busy collecting garbage for most of its time.
  */
-function readTypedRevisions(db: Db, slotOf: SlotOf, questionCount: number): TypedRevision[][] {
-  let holder = valueCollectors.get(db);
-  if (!holder) {
-    const made: ValueCollector = { current: null, slotOf: () => -1 };
-    db.function(COLLECT_VALUE_FN, { directOnly: true }, (questionRowid: unknown, seq: unknown, at: unknown, value: unknown) => {
-      if (made.current === null) throw new Error(`${COLLECT_VALUE_FN} belongs to the scoring reader and cannot be called on its own`);
-      made.current(made.slotOf(questionRowid as number), seq as number, at as number, value as number);
-      return null;
-    });
-    valueCollectors.set(db, made);
-    holder = made;
+function readTypedRevisions<F>(db: Db, slotOf: SlotOf, questionCount: number, make: (slot: number, at: number, seq: number, values: Float64Array) => F): F[][] {
+  // Question by question, each one's revisions from its index, each revision's values in
+  // position order from the values' primary key: a revision's values arrive together. The
+  // collector's "p" column carries the value here.
+  const rows = collectRows(
+    db,
+    `SELECT count(${COLLECT_FN}(q.rowid, f.at, v.value, f.seq))
+     FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id CROSS JOIN forecast_values v ON v.forecast_id = f.id
+     WHERE q.type <> 'binary'`,
+    [],
+    slotOf,
+    1024,
+  );
+  const bySlot: { revision: F; seq: number }[][] = Array.from({ length: questionCount }, () => []);
+  const { slot, at, p: values, seq } = rows;
+  for (let from = 0; from < rows.n; ) {
+    let to = from + 1;
+    while (to < rows.n && slot[to] === slot[from] && seq[to] === seq[from]) to++;
+    bySlot[slot[from]!]!.push({ revision: make(slot[from]!, at[from]!, seq[from]!, values.subarray(from, to)), seq: seq[from]! });
+    from = to;
   }
-  const bySlot: TypedRevision[][] = Array.from({ length: questionCount }, () => []);
-  holder.slotOf = slotOf;
-  holder.current = (slot, seq, at, value) => {
-    const list = bySlot[slot]!;
-    const last = list[list.length - 1];
-    if (last !== undefined && last.seq === seq) last.values.push(value);
-    else list.push({ at, seq, values: [value] });
-  };
-  try {
-    // Question by question, each one's revisions from its index, each revision's values in
-    // position order from the values' primary key.
-    db.prepare(
-      `SELECT count(${COLLECT_VALUE_FN}(q.rowid, f.seq, f.at, v.value))
-       FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id CROSS JOIN forecast_values v ON v.forecast_id = f.id
-       WHERE q.type <> 'binary'`,
-    )
-      .pluck()
-      .get();
-  } finally {
-    holder.current = null;
-    holder.slotOf = () => -1;
-  }
-  // In entry order, as the rest of the service lists revisions (the engine orders by time itself).
-  for (const list of bySlot) {
+  return bySlot.map((list) => {
     for (let i = 1; i < list.length; i++) {
       if (list[i - 1]!.seq > list[i]!.seq) {
         list.sort((a, b) => a.seq - b.seq);
         break;
       }
     }
-  }
-  return bySlot;
+    return list.map((r) => r.revision);
+  });
 }
 
 /**
@@ -417,7 +403,9 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
   for (const [qid, level] of db.prepare('SELECT question_id, level FROM question_levels ORDER BY question_id, position').raw().all() as [string, number][]) {
     push(levels, qid, level);
   }
-  const revisionsBySlot = readTypedRevisions(db, slotLookup(rows.map((row) => row[0])), rows.length);
+  const revisionsBySlot = readTypedRevisions(db, slotLookup(rows.map((row) => row[0])), rows.length, (slot, at, seq, values) =>
+    rows[slot]![3] === 'choice' ? { at, probs: values, seq } : { at, quantiles: values, seq },
+  );
   rows.forEach(([, id, title, type, closes, ordered, unit, kind, outcome, at, option, value, tags], slot) => {
     const base = { id, title, tags: tagList(tags), closes_at: closes };
     const revisions = revisionsBySlot[slot]!;
@@ -429,7 +417,7 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
         option_count: stated.length,
         ordered: ordered === 1,
         option_base_rates: stated.length > 0 && stated.every((r) => r !== null) ? (stated as number[]) : null,
-        forecasts: revisions.map((f) => ({ at: f.at, probs: f.values, seq: f.seq })),
+        forecasts: revisions as ScoringChoiceForecast[], // made as a choice question's above
       });
     } else {
       numeric.push({
@@ -438,7 +426,7 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
         unit: unit ?? '',
         value_kind: kind ?? 'number',
         levels: levels.get(id) ?? [],
-        forecasts: revisions.map((f) => ({ at: f.at, quantiles: f.values, seq: f.seq })),
+        forecasts: revisions as ScoringNumericForecast[], // made as a numeric question's above
       });
     }
   });

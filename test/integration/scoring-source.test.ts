@@ -142,6 +142,49 @@ test('revisions reach their own questions; the same time is settled by entry ord
   assert.equal(row.p1, 0.9);
 });
 
+test("choice and numeric revisions reach their own questions in entry order, each one's values in position order and bit for bit", async () => {
+  const d = openTestDiary({ now: '2026-04-10T12:00:00Z' });
+  const third = 1 / 3;
+  const up = nextDouble(0.8, true);
+  // Entered out of time order, two at one instant, and the two questions' revisions
+  // interleaved in the table (the file lists questions one after the other, so the second
+  // question's are written by a second import).
+  const choice = (id: string, forecasts: { at: string; probs: number[] }[]) => ({
+    id, title: `Choice ${id}`, type: 'choice', options: ['a', 'b', 'c'], opened_at: '2026-01-01T00:00:00Z', closes_at: '2026-03-01T00:00:00Z', forecasts,
+  });
+  const numeric = (id: string, forecasts: { at: string; quantiles: number[] }[]) => ({
+    id, title: `Numeric ${id}`, type: 'numeric', unit: 'weeks', opened_at: '2026-01-01T00:00:00Z', closes_at: '2026-03-01T00:00:00Z', forecasts,
+  });
+  const c1 = [
+    { at: '2026-02-01T00:00:00Z', probs: [third, third, 1 - 2 * third] },
+    { at: '2026-01-05T00:00:00Z', probs: [0.1, 0.2, 0.7] },
+    { at: '2026-02-01T00:00:00Z', probs: [up, 0.1, 1 - up - 0.1] },
+  ];
+  const n1 = [
+    { at: '2026-02-10T00:00:00Z', quantiles: [0.1 + 0.2, 5e-324 + 1, 12] },
+    { at: '2026-01-07T00:00:00Z', quantiles: [-3, 2 ** -1022, 7.5] },
+  ];
+  const file = (questions: unknown[]) => ({ diary: { format: 'forelog-diary', version: 1, questions } });
+  await d.call('importDiary', file([choice('c1', c1), numeric('n1', n1)]));
+  await d.call('importDiary', file([choice('c2', [{ at: '2026-01-03T00:00:00Z', probs: [1, 0, 0] }]), numeric('n2', [{ at: '2026-01-04T00:00:00Z', quantiles: [1, 2, 3] }])]));
+  const input = loadScoringInput(d.service.store.read);
+  const read = <T>(list: T[], id: string) => (list as (T & { id: string })[]).find((q) => q.id === id)!;
+  const asRead = (values: ArrayLike<number>) => Array.from(values, bits);
+  assert.deepEqual(
+    read(input.choice, 'c1').forecasts.map((f) => [f.at, asRead(f.probs)]),
+    c1.map((f) => [Date.parse(f.at), asRead(f.probs)]),
+    'every revision of c1 in the order entered, values bit for bit',
+  );
+  assert.deepEqual(
+    read(input.numeric, 'n1').forecasts.map((f) => [f.at, asRead(f.quantiles)]),
+    n1.map((f) => [Date.parse(f.at), asRead(f.quantiles)]),
+  );
+  assert.deepEqual(read(input.choice, 'c2').forecasts.map((f) => Array.from(f.probs)), [[1, 0, 0]]);
+  assert.deepEqual(read(input.numeric, 'n2').forecasts.map((f) => Array.from(f.quantiles)), [[1, 2, 3]]);
+  const seqs = read(input.choice, 'c1').forecasts.map((f) => f.seq);
+  assert.deepEqual([...seqs].sort((x, y) => x - y), seqs, 'entry order');
+});
+
 test('a copy or a replaced forecast list is scored from what it holds', async () => {
   const d = openTestDiary({ now: '2026-04-10T12:00:00Z' });
   const q = await d.call('createQuestion', { ...base, title: 'Copied', first_forecast: { p: 0.7, at: '2026-01-10T09:00:00Z' } });
