@@ -258,7 +258,7 @@ export interface ScoringInput {
 }
 
 export function loadScoringInput(db: Db): ScoringInput {
-  return readSnapshot(db, () => ({ binary: finishBinary(db, [readBinaryRange(db, EVERY_ROWID, revisionBound(db))]), ...readTyped(db) }));
+  return readSnapshot(db, () => ({ binary: finishBinary(db, [readBinaryRange(db, EVERY_ROWID, revisionBound(db))]), ...readTyped(db, EVERY_ROWID) }));
 }
 
 /** seq only grows (AUTOINCREMENT), so the largest is a bound on the revision count, found in one step. */
@@ -266,7 +266,7 @@ function revisionBound(db: Db): number {
   return ((db.prepare('SELECT max(seq) FROM forecasts').pluck().get() as number | null) ?? 0) + 1;
 }
 
-/** The yes/no questions per background step (about 50 ms each at 20 revisions per question here). */
+/** The questions per background step (about 50 ms each at 20 yes/no revisions per question here). */
 export const QUESTIONS_PER_STEP = 2_000;
 
 /**
@@ -289,7 +289,7 @@ export function startStepwiseRead(db: Db, questionsPerStep = QUESTIONS_PER_STEP)
   const version = dataVersion(db);
   const last = (db.prepare('SELECT max(rowid) FROM questions').pluck().get() as number | null) ?? 0;
   const parts: BinaryPart[] = [];
-  let binary: ScoringQuestion[] | null = null;
+  const typedParts: TypedPart[] = [];
   let next = (db.prepare('SELECT min(rowid) FROM questions').pluck().get() as number | null) ?? 1;
   let done = false;
   const read: StepwiseRead = {
@@ -302,23 +302,19 @@ export function startStepwiseRead(db: Db, questionsPerStep = QUESTIONS_PER_STEP)
         return true;
       }
       if (next <= last) {
-        parts.push(
-          readSnapshot(db, () => {
-            // The step ends at its questionsPerStep-th question, however sparse the rowids are.
-            const to = (db.prepare('SELECT rowid FROM questions WHERE rowid >= ? ORDER BY rowid LIMIT 1 OFFSET ?').pluck().get(next, questionsPerStep - 1) as number | undefined) ?? last;
-            const range = { from: next, to };
-            next = to + 1;
-            return readBinaryRange(db, range, 20 * questionsPerStep);
-          }),
-        );
+        readSnapshot(db, () => {
+          // The step ends at its questionsPerStep-th question, however sparse the rowids are.
+          const to = (db.prepare('SELECT rowid FROM questions WHERE rowid >= ? ORDER BY rowid LIMIT 1 OFFSET ?').pluck().get(next, questionsPerStep - 1) as number | undefined) ?? last;
+          const range = { from: next, to };
+          next = to + 1;
+          parts.push(readBinaryRange(db, range, 20 * questionsPerStep));
+          typedParts.push(readTyped(db, range));
+        });
         return false;
       }
-      // Then two last steps: the references, and the other types, each whole (a small part of a diary).
-      if (binary === null) {
-        binary = readSnapshot(db, () => finishBinary(db, parts));
-        return false;
-      }
-      const typed = readSnapshot(db, () => readTyped(db));
+      // Then a last step: the references, and the parts put together in export order.
+      const binary = readSnapshot(db, () => finishBinary(db, parts));
+      const typed = { choice: inExportOrder(typedParts.flatMap((t) => t.choice), byClose, byId), numeric: inExportOrder(typedParts.flatMap((t) => t.numeric), byClose, byId) };
       if (dataVersion(db) === version) read.input = { binary, ...typed };
       done = true;
       return true;
@@ -333,7 +329,7 @@ export function dataVersion(db: Db): number {
 }
 
 /**
- * Every choice and numeric revision, grouped by question slot in entry order (as the rest
+ * Every revision of the choice and numeric questions whose rowids lie in `range`, grouped by question slot in entry order (as the rest
  * of the service lists revisions; the engine orders by time itself), each made by `make`
  * from its time, entry number and values. The values of all revisions lie in one
  * Float64Array and each revision gets its own stretch of it as a view: a million stored
@@ -341,7 +337,7 @@ export function dataVersion(db: Db): number {
  * into typed columns, with no array or boxed number per value, which kept the collector
  * of a mixed diary busy collecting garbage for most of its time.
  */
-function readTypedRevisions<F>(db: Db, slotOf: SlotOf, questionCount: number, make: (slot: number, at: number, seq: number, values: Float64Array) => F): F[][] {
+function readTypedRevisions<F>(db: Db, range: RowidRange, slotOf: SlotOf, questionCount: number, make: (slot: number, at: number, seq: number, values: Float64Array) => F): F[][] {
   // Question by question, each one's revisions from its index, each revision's values in
   // position order from the values' primary key: a revision's values arrive together. The
   // collector's "p" column carries the value here.
@@ -349,8 +345,8 @@ function readTypedRevisions<F>(db: Db, slotOf: SlotOf, questionCount: number, ma
     db,
     `SELECT count(${COLLECT_FN}(q.rowid, f.at, v.value, f.seq))
      FROM questions q CROSS JOIN forecasts f ON f.question_id = q.id CROSS JOIN forecast_values v ON v.forecast_id = f.id
-     WHERE q.type <> 'binary'`,
-    [],
+     WHERE q.type <> 'binary' AND q.rowid BETWEEN ? AND ?`,
+    [range.from, range.to],
     slotOf,
     1024,
   );
@@ -373,19 +369,28 @@ function readTypedRevisions<F>(db: Db, slotOf: SlotOf, questionCount: number, ma
   });
 }
 
+/** Choice and numeric questions of some rowids, each list in export order. */
+interface TypedPart {
+  choice: ScoringChoiceQuestion[];
+  numeric: ScoringNumericQuestion[];
+}
+
+const byClose = (q: { closes_at: number }) => q.closes_at;
+const byId = (q: { id: string }) => q.id;
+
 /**
- * The choice and numeric questions, with their revisions' values as numbers (a numeric
- * date question's as days since 1970-01-01, as stored).
+ * The choice and numeric questions whose rowids lie in `range`, in export order, with their
+ * revisions' values as numbers (a numeric date question's as days since 1970-01-01, as stored).
  */
-function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringNumericQuestion[] } {
+function readTyped(db: Db, range: RowidRange): TypedPart {
   type Row = [rowid: number, id: string, title: string, type: 'choice' | 'numeric', closes: number, ordered: number | null, unit: string | null, kind: 'number' | 'date' | null, outcome: string | null, at: number | null, option: number | null, value: number | null, tags: string | null];
   const rows = db
     .prepare(
       `SELECT q.rowid, q.id, q.title, q.type, q.closes_at, q.ordered, q.unit, q.value_kind, r.outcome, r.at, r.option, r.value, ${TAGS_OF_Q}
-       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary'`,
+       FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id WHERE q.type <> 'binary' AND q.rowid BETWEEN ? AND ?`,
     )
     .raw()
-    .all() as Row[];
+    .all(range.from, range.to) as Row[];
   inExportOrder(rows, (row) => row[4], (row) => row[1]);
   const choice: ScoringChoiceQuestion[] = [];
   const numeric: ScoringNumericQuestion[] = [];
@@ -397,13 +402,19 @@ function readTyped(db: Db): { choice: ScoringChoiceQuestion[]; numeric: ScoringN
     if (list) list.push(item);
     else map.set(key, [item]);
   };
-  for (const [qid, rate] of db.prepare('SELECT question_id, base_rate FROM question_options ORDER BY question_id, position').raw().all() as [string, number | null][]) {
+  // Options and levels of the range's questions only, each question's in position order.
+  const ofRange = (table: string, column: string) =>
+    db
+      .prepare(`SELECT t.question_id, t.${column} FROM questions q CROSS JOIN ${table} t ON t.question_id = q.id WHERE q.type <> 'binary' AND q.rowid BETWEEN ? AND ? ORDER BY q.rowid, t.position`)
+      .raw()
+      .all(range.from, range.to);
+  for (const [qid, rate] of ofRange('question_options', 'base_rate') as [string, number | null][]) {
     push(rates, qid, rate);
   }
-  for (const [qid, level] of db.prepare('SELECT question_id, level FROM question_levels ORDER BY question_id, position').raw().all() as [string, number][]) {
+  for (const [qid, level] of ofRange('question_levels', 'level') as [string, number][]) {
     push(levels, qid, level);
   }
-  const revisionsBySlot = readTypedRevisions(db, slotLookup(rows.map((row) => row[0])), rows.length, (slot, at, seq, values) =>
+  const revisionsBySlot = readTypedRevisions(db, range, slotLookup(rows.map((row) => row[0])), rows.length, (slot, at, seq, values) =>
     rows[slot]![3] === 'choice' ? { at, probs: values, seq } : { at, quantiles: values, seq },
   );
   rows.forEach(([, id, title, type, closes, ordered, unit, kind, outcome, at, option, value, tags], slot) => {
