@@ -172,6 +172,10 @@ export const hindsightRequest = z
     offset: v.count(Number.MAX_SAFE_INTEGER).optional(),
     /** The most entries to return, 1 to LIST_PAGE_MAX; every one when left out. */
     limit: v.count(LIST_PAGE_MAX, 1).optional(),
+    /** The most `choice_entries` to return, from the first, 1 to LIST_PAGE_MAX; every one when left out. */
+    choice_limit: v.count(LIST_PAGE_MAX, 1).optional(),
+    /** The most `numeric_surprises` to return, from the first, 1 to LIST_PAGE_MAX; every one when left out. */
+    numeric_limit: v.count(LIST_PAGE_MAX, 1).optional(),
   })
   .refine(...v.toNotBeforeFrom);
 
@@ -424,10 +428,19 @@ export interface Hindsight {
   misses: number;
   /** Yes/no confident hits in the whole selection (0 unless `include_hits`). */
   hits: number;
-  /** Choice questions whose top choice was held at the threshold: misses, and hits with include_hits (shared/hindsight-entries.ts). Not paged. */
+  /**
+   * Choice questions whose top choice was held at the threshold: misses, and hits with
+   * include_hits (shared/hindsight-entries.ts); the first `choice_limit`, or all.
+   */
   choice_entries: ChoiceHindsightEntry[];
-  /** Numeric questions whose outcome fell outside the final forecast's widest range, the largest surprise first. Not paged. */
+  /** Choice confident misses in the whole selection, however many `choice_entries` holds. */
+  choice_miss_count: number;
+  /** Choice confident hits in the whole selection (0 unless `include_hits`). */
+  choice_hit_count: number;
+  /** Numeric questions whose outcome fell outside the final forecast's widest range, the largest surprise first; the first `numeric_limit`, or all. */
   numeric_surprises: NumericHindsightEntry[];
+  /** Numeric surprises in the whole selection, however many `numeric_surprises` holds. */
+  numeric_surprise_count: number;
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;
 }

@@ -1233,12 +1233,17 @@ export function createDiary(ctx: DiaryContext) {
       const offset = req.offset ?? 0;
       const filter = { tag: req.tag, from: req.from, to: req.to };
       const page = confidentCalls(scoredSet(filter), req.threshold, req.include_hits, detailsOf(isBinary, t), { offset, limit: req.limit });
+      const choice = choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t), req.choice_limit);
+      const numeric = numericHindsight(typed.numeric, options, detailsOf(isNumeric, t), req.numeric_limit);
       return {
         threshold: req.threshold,
         offset,
         ...page,
-        choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
-        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
+        choice_entries: choice.entries,
+        choice_miss_count: choice.misses,
+        choice_hit_count: choice.hits,
+        numeric_surprises: numeric.entries,
+        numeric_surprise_count: numeric.count,
         report: binaryReport(filter),
       };
     },
@@ -1256,8 +1261,8 @@ export function createDiary(ctx: DiaryContext) {
         report: binaryReport({ tag: req.tag }),
         questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
         threshold: req.threshold,
-        choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)),
-        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
+        choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)).entries,
+        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)).entries,
       });
       return { html, title: briefingTitle(req.tag ?? null) };
     },

@@ -32,6 +32,8 @@ function revisions<F extends { at: string; seq: number; note: string }>(forecast
  * @param scoring the choice questions as the engine reads them
  * @param filter tag and window-end bounds, as for the Scorecard
  * @param details the full questions for some ids (notes, options, rule)
+ * @param limit how many entries to return in full, from the first; all when undefined
+ *   (the counts always cover every call)
  */
 export function choiceHindsight(
   scoring: readonly ScoringChoiceQuestion[],
@@ -39,10 +41,13 @@ export function choiceHindsight(
   threshold: number,
   includeHits: boolean,
   details: (ids: string[]) => ChoiceQuestion[],
-): ChoiceHindsightEntry[] {
-  const calls = computeChoiceConfidentCalls(scoring, filter, threshold, includeHits);
+  limit?: number,
+): { entries: ChoiceHindsightEntry[]; misses: number; hits: number } {
+  const all = computeChoiceConfidentCalls(scoring, filter, threshold, includeHits);
+  const misses = all.filter((c) => c.verdict === 'miss').length;
+  const calls = all.slice(0, limit);
   const byId = new Map(details(calls.map((c) => c.id)).map((q) => [q.id, q]));
-  return calls.map((c): ChoiceHindsightEntry => {
+  const entries = calls.map((c): ChoiceHindsightEntry => {
     const q = byId.get(c.id)!;
     return {
       id: q.id,
@@ -64,6 +69,7 @@ export function choiceHindsight(
       forecasts: revisions(q.forecasts, c.T).map((f) => ({ at: f.at, probs: f.probs, note: f.note, counted: f.counted })),
     };
   });
+  return { entries, misses, hits: all.length - misses };
 }
 
 /**
@@ -73,15 +79,19 @@ export function choiceHindsight(
  * @param scoring the numeric questions as the engine reads them (dates as days)
  * @param filter tag and window-end bounds, as for the Scorecard
  * @param details the full questions for some ids (notes, unit, rule)
+ * @param limit how many surprises to return in full, from the first; all when undefined
+ *   (the count always covers every one)
  */
 export function numericHindsight(
   scoring: readonly ScoringNumericQuestion[],
   filter: ScoreFilter,
   details: (ids: string[]) => NumericQuestion[],
-): NumericHindsightEntry[] {
-  const surprises = computeNumericSurprises(scoring, filter);
+  limit?: number,
+): { entries: NumericHindsightEntry[]; count: number } {
+  const all = computeNumericSurprises(scoring, filter);
+  const surprises = all.slice(0, limit);
   const byId = new Map(details(surprises.map((s) => s.id)).map((q) => [q.id, q]));
-  return surprises.map((s): NumericHindsightEntry => {
+  const entries = surprises.map((s): NumericHindsightEntry => {
     const q = byId.get(s.id)!;
     const value = (x: number) => fromStoredValue(x, q.value_kind);
     return {
@@ -105,5 +115,6 @@ export function numericHindsight(
       forecasts: revisions(q.forecasts, s.T).map((f) => ({ at: f.at, quantiles: f.quantiles, note: f.note, counted: f.counted })),
     };
   });
+  return { entries, count: all.length };
 }
 

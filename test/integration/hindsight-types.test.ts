@@ -129,6 +129,23 @@ test('the threshold and include_hits apply to choice calls; tag and date filters
   assert.equal((await d.call('hindsight', { from: '2026-04-20', to: '2026-04-20' })).numeric_surprises.length, 2);
 });
 
+test('choice_limit and numeric_limit list only the first calls of their list; the counts cover the whole selection', async () => {
+  const { d, miss, milder, hit, wide, early } = await diary();
+  const whole = await d.call('hindsight', { threshold: 0.7, include_hits: true });
+  assert.deepEqual([whole.choice_miss_count, whole.choice_hit_count, whole.numeric_surprise_count], [2, 1, 2], 'without limits: every call, counted');
+  assert.equal(whole.choice_entries.length, 3);
+  const paged = await d.call('hindsight', { threshold: 0.7, include_hits: true, choice_limit: 1, numeric_limit: 1 });
+  assert.deepEqual(paged.choice_entries.map((e: { id: string }) => e.id), [miss], 'the first of misses-then-hits');
+  assert.deepEqual(paged.numeric_surprises.map((s: { id: string }) => s.id), [wide], 'the largest surprise first');
+  assert.deepEqual([paged.choice_miss_count, paged.choice_hit_count, paged.numeric_surprise_count], [2, 1, 2]);
+  const more = await d.call('hindsight', { threshold: 0.7, include_hits: true, choice_limit: 3, numeric_limit: 2 });
+  assert.deepEqual(more.choice_entries.map((e: { id: string }) => e.id), [miss, milder, hit]);
+  assert.deepEqual(more.numeric_surprises.map((s: { id: string }) => s.id), [wide, early]);
+  assert.deepEqual(paged.report, whole.report, 'the calibration summary covers the whole selection either way');
+  await assert.rejects(d.call('hindsight', { choice_limit: 0 }), /choice_limit: must be a whole number from 1 to 1,000/);
+  await assert.rejects(d.call('hindsight', { numeric_limit: 1.5 }), /numeric_limit: must be a whole number from 1 to 1,000/);
+});
+
 test('a revision after the window end is shown but marked as not counted', async () => {
   const { d, wide } = await diary();
   await d.call('addForecast', { question_id: wide, quantiles: [28, 29, 30], note: 'knew by then', at: '2026-05-01T09:00:00.000Z' });

@@ -5,9 +5,8 @@
  * it added, so a keyboard user carries on where the list ended.
  */
 import { useEffect, useRef, useState, type ReactNode } from 'react';
-import { Button } from '../../components/Button';
+import { ShowMore } from '../../components/ShowMore';
 import type { DeskItem } from './items';
-import { formatCount } from '../../dates';
 
 /** Cards drawn at first in each group, and added by each "Show more". */
 export const DESK_PAGE = 30;
@@ -27,27 +26,20 @@ export function DeskGroupList({ items, render }: DeskGroupListProps) {
     focusFrom.current = null;
     listRef.current?.children[index]?.querySelector<HTMLElement>('h3 a')?.focus();
   }, [shown]);
-  const more = items.length - shown;
   return (
     <>
       <ul className="desk-group__list" ref={listRef}>
         {items.slice(0, shown).map(render)}
       </ul>
-      {more > 0 ? (
-        <div className="desk-group__more">
-          <Button
-            onClick={() => {
-              focusFrom.current = shown;
-              setShown((n) => n + DESK_PAGE);
-            }}
-          >
-            Show {Math.min(more, DESK_PAGE)} more
-          </Button>
-          <span className="muted">
-            {formatCount(shown)} of {formatCount(items.length)} shown
-          </span>
-        </div>
-      ) : null}
+      <ShowMore
+        shown={Math.min(shown, items.length)}
+        total={items.length}
+        page={DESK_PAGE}
+        onMore={() => {
+          focusFrom.current = shown;
+          setShown((n) => n + DESK_PAGE);
+        }}
+      />
     </>
   );
 }

@@ -13,6 +13,7 @@ import { describeError } from '../../api/errors';
 import { useLoad } from '../../api/useLoad';
 import { Button } from '../../components/Button';
 import { EmptyState } from '../../components/EmptyState';
+import { ShowMore } from '../../components/ShowMore';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { useDefaultTimeZone } from '../../diaryInfo';
 import { useDebounced, useDocumentTitle } from '../../hooks';
@@ -33,6 +34,10 @@ const SETTLE_MS = 150;
 /** Calls listed at first and added by each "Show more": each is a card with its whole history. */
 const ENTRY_PAGE = 20;
 
+/** How many calls of each list (yes/no, choice, numeric) are asked for. */
+type Shown = Record<'binary' | 'choice' | 'numeric', number>;
+const FIRST_PAGES: Shown = { binary: ENTRY_PAGE, choice: ENTRY_PAGE, numeric: ENTRY_PAGE };
+
 interface Asked {
   key: string;
   request: Request<'hindsight'>;
@@ -47,8 +52,8 @@ export function HindsightScreen() {
   useDocumentTitle('Hindsight');
   const timeZone = useDefaultTimeZone();
   const [selection, change] = useQueryState(decodeSelection, encodeSelection);
-  // How many calls are listed; "Show more" adds a page.
-  const [shown, setShown] = useState(ENTRY_PAGE);
+  // How many calls are listed, of each list; its "Show more" adds a page.
+  const [shown, setShown] = useState<Shown>(FIRST_PAGES);
   const built = useMemo(() => buildSelection(selection, timeZone), [selection, timeZone]);
   const wanted = useMemo(() => asked(selection, built.request), [selection, built.request]);
 
@@ -56,13 +61,16 @@ export function HindsightScreen() {
   const [active, setActive] = useState<Asked>(() => wanted ?? asked(INITIAL_SELECTION, buildSelection(INITIAL_SELECTION, timeZone).request)!);
   if (wanted && wanted.key !== active.key) {
     setActive(wanted);
-    setShown(ENTRY_PAGE);
+    setShown(FIRST_PAGES);
   }
   const settled = useDebounced(active, SETTLE_MS);
 
   const loaded = useLoad(
-    () => api.hindsight({ ...settled.request, limit: shown }).then((hindsight) => ({ key: settled.key, hindsight })),
-    [settled.key, shown],
+    () =>
+      api
+        .hindsight({ ...settled.request, limit: shown.binary, choice_limit: shown.choice, numeric_limit: shown.numeric })
+        .then((hindsight) => ({ key: settled.key, hindsight })),
+    [settled.key, shown.binary, shown.choice, shown.numeric],
   );
   const list = useLoad(() => api.listTags({}), []);
   // How many times the briefing was asked for: each ask brings the open preview into view.
@@ -99,7 +107,7 @@ export function HindsightScreen() {
           hindsight={loaded.data.hindsight}
           selection={settled.selection}
           timeZone={timeZone}
-          onMore={() => setShown((n) => n + ENTRY_PAGE)}
+          onMore={(list) => setShown((n) => ({ ...n, [list]: n[list] + ENTRY_PAGE }))}
           busy={loaded.loading}
         />
       ) : loaded.error ? null : (
@@ -127,28 +135,18 @@ interface BodyProps {
   hindsight: Hindsight;
   selection: HindsightSelection;
   timeZone: string;
-  onMore: () => void;
+  onMore: (list: keyof Shown) => void;
   busy: boolean;
 }
 
+
+
 function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyProps) {
   const { report, threshold, entries } = hindsight;
-  const listed = hindsight.offset + entries.length;
-  const more = hindsight.misses + hindsight.hits - listed;
-  const moreButton =
-    more > 0 ? (
-      <div className="hs-more">
-        <Button onClick={onMore} busy={busy}>
-          Show {Math.min(more, ENTRY_PAGE)} more
-        </Button>
-        <span className="muted">
-          {listed} of {hindsight.misses + hindsight.hits} listed
-        </span>
-      </div>
-    ) : null;
+  const moreButton = <ShowMore shown={hindsight.offset + entries.length} total={hindsight.misses + hindsight.hits} page={ENTRY_PAGE} onMore={() => onMore('binary')} busy={busy} />;
   const filtered = selection.tag !== '' || selection.from !== '' || selection.to !== '';
   // The counts are yes/no counts; choice and numeric questions bring their own entries.
-  const typedEntries = hindsight.choice_entries.length + hindsight.numeric_surprises.length;
+  const typedEntries = hindsight.choice_miss_count + hindsight.choice_hit_count + hindsight.numeric_surprise_count;
   if (report.scored === 0 && typedEntries === 0) {
     return (
       <EmptyState title={filtered ? 'Nothing scored in this selection' : 'Nothing scored yet'} actions={<a href={hrefTo('questions')}>Go to Questions</a>}>
@@ -204,7 +202,13 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
             ) : null}
           </>
         ) : null}
-        <TypedEntrySections hindsight={hindsight} includeHits={selection.includeHits} timeZone={timeZone} />
+        <TypedEntrySections
+          hindsight={hindsight}
+          includeHits={selection.includeHits}
+          timeZone={timeZone}
+          moreChoice={(listed, total) => <ShowMore shown={listed} total={total} page={ENTRY_PAGE} onMore={() => onMore('choice')} busy={busy} />}
+          moreNumeric={(listed, total) => <ShowMore shown={listed} total={total} page={ENTRY_PAGE} onMore={() => onMore('numeric')} busy={busy} />}
+        />
       </div>
       <aside className="hs-aside">
         <CalibrationSummary report={report} subject={describeSelection(selection)} />

@@ -179,35 +179,53 @@ function TypedSection({ id, title, children, n }: { id: string; title: string; n
   );
 }
 
+interface TypedSectionsProps {
+  hindsight: Hindsight;
+  includeHits: boolean;
+  timeZone: string;
+  /** The "Show more" control for the choice list and for the numeric one (made by the screen, which knows the page size). */
+  moreChoice: (listed: number, total: number) => ReactNode;
+  moreNumeric: (listed: number, total: number) => ReactNode;
+}
+
 /**
  * The choice and numeric sections, after the yes/no ones: each appears only when it has an
- * entry, since the filter's counts of scored questions are yes/no counts.
+ * entry, since the filter's counts of scored questions are yes/no counts. Each list comes a
+ * page at a time (misses, then hits, for choice questions), with the whole selection's
+ * count in its heading.
  */
-export function TypedEntrySections({ hindsight, includeHits, timeZone }: { hindsight: Hindsight; includeHits: boolean; timeZone: string }) {
+export function TypedEntrySections({ hindsight, includeHits, timeZone, moreChoice, moreNumeric }: TypedSectionsProps) {
   const misses = hindsight.choice_entries.filter((e) => e.verdict === 'miss');
   const hits = includeHits ? hindsight.choice_entries.filter((e) => e.verdict === 'hit') : [];
   const surprises = hindsight.numeric_surprises;
+  const choiceTotal = hindsight.choice_miss_count + (includeHits ? hindsight.choice_hit_count : 0);
+  const choiceMore = moreChoice(misses.length + hits.length, choiceTotal);
+  // The control sits where the listing stopped: among the misses while some are unlisted, else after the hits.
+  const moreInMisses = misses.length < hindsight.choice_miss_count;
   return (
     <>
-      {misses.length ? (
-        <TypedSection id="hs-choice-misses" title="Multiple choice: confident misses" n={misses.length}>
+      {hindsight.choice_miss_count ? (
+        <TypedSection id="hs-choice-misses" title="Multiple choice: confident misses" n={hindsight.choice_miss_count}>
           {misses.map((e) => (
             <ChoiceEntryCard key={e.id} entry={e} timeZone={timeZone} />
           ))}
+          {moreInMisses ? choiceMore : null}
         </TypedSection>
       ) : null}
-      {hits.length ? (
-        <TypedSection id="hs-choice-hits" title="Multiple choice: confident hits" n={hits.length}>
+      {includeHits && hindsight.choice_hit_count ? (
+        <TypedSection id="hs-choice-hits" title="Multiple choice: confident hits" n={hindsight.choice_hit_count}>
           {hits.map((e) => (
             <ChoiceEntryCard key={e.id} entry={e} timeZone={timeZone} />
           ))}
+          {moreInMisses ? null : choiceMore}
         </TypedSection>
       ) : null}
-      {surprises.length ? (
-        <TypedSection id="hs-surprises" title="Numbers and dates: surprises (outside your widest range)" n={surprises.length}>
+      {hindsight.numeric_surprise_count ? (
+        <TypedSection id="hs-surprises" title="Numbers and dates: surprises (outside your widest range)" n={hindsight.numeric_surprise_count}>
           {surprises.map((e) => (
             <SurpriseCard key={e.id} entry={e} timeZone={timeZone} />
           ))}
+          {moreNumeric(surprises.length, hindsight.numeric_surprise_count)}
         </TypedSection>
       ) : null}
     </>

@@ -4,7 +4,8 @@
  * beside where they should, whether revising helped (relative WIS), and each question's
  * weighted interval score in its own unit (never averaged across questions).
  */
-import { memo } from 'react';
+import { memo, useEffect, useRef, useState } from 'react';
+import { ShowMore } from '../../components/ShowMore';
 import type { CoverageRow, NumericQuestionRow, NumericReport } from '../../../../shared/scoring/types';
 import { formatValue, levelName } from '../../forecastEntry/numericEntry';
 import { pct, questions, score2 } from './format';
@@ -25,7 +26,22 @@ function scoreIn(row: NumericQuestionRow, value: number | null): string {
   return row.unit ? `${text} ${row.unit}` : text;
 }
 
+/** Rows of the per-question table drawn at first, and added by each "Show more": a diary of thousands of numeric questions would otherwise draw them all. */
+const WIS_PAGE = 25;
+
 export const NumericSection = memo(function NumericSection({ report, rows }: { report: NumericReport; rows: NumericQuestionRow[] }) {
+  const [shown, setShown] = useState(WIS_PAGE);
+  // A new selection starts again at the first page.
+  useEffect(() => setShown(WIS_PAGE), [rows]);
+  // After "Show more", focus moves to the first row it added, so a keyboard user reads on from there.
+  const focusFrom = useRef<number | null>(null);
+  const body = useRef<HTMLTableSectionElement>(null);
+  useEffect(() => {
+    const index = focusFrom.current;
+    if (index === null) return;
+    focusFrom.current = null;
+    body.current?.rows[index]?.querySelector<HTMLElement>('th')?.focus();
+  }, [shown]);
   const n = report.scored;
   if (n === 0) {
     return (
@@ -174,13 +190,15 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
                 <th scope="col" className="num">Interval score</th>
               </tr>
             </thead>
-            <tbody>
-              {rows.map((row) => {
+            <tbody ref={body}>
+              {rows.slice(0, shown).map((row) => {
                 const m = row.quantiles.length;
                 const median = row.levels.indexOf(0.5);
                 return (
                   <tr key={row.id}>
-                    <th scope="row">{row.title}</th>
+                    <th scope="row" tabIndex={-1}>
+                      {row.title}
+                    </th>
                     <td>
                       {m > 1
                         ? `${show(row, row.quantiles[0]!)} – ${show(row, row.quantiles[m - 1]!)} (median ${show(row, row.quantiles[median]!)})`
@@ -198,6 +216,15 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
             </tbody>
           </table>
         </div>
+        <ShowMore
+          shown={Math.min(shown, rows.length)}
+          total={rows.length}
+          page={WIS_PAGE}
+          onMore={() => {
+            focusFrom.current = shown;
+            setShown((n) => n + WIS_PAGE);
+          }}
+        />
       </section>
     </div>
   );

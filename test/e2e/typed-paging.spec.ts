@@ -1,0 +1,86 @@
+/**
+ * Lists of choice and numeric questions that grow with the diary come a page at a time:
+ * Hindsight's choice confident misses and numeric surprises (20 at first, then "Show more",
+ * the heading counting the whole selection), and the Scorecard's per-question table of
+ * numeric scores (25 rows at first; focus moves to the first row added). Axe scans each.
+ */
+import { expect, test } from '@playwright/test';
+import { apiCall, expectNoSeriousViolations } from './helpers';
+import { useAppPage, useDiaryServer } from './serve';
+
+const server = useDiaryServer();
+test.describe.configure({ mode: 'serial' });
+test.setTimeout(120_000);
+
+const DAY = 86_400_000;
+const iso = (daysAgo: number) => new Date(Date.now() - daysAgo * DAY).toISOString();
+const app = useAppPage(server);
+
+const CHOICE_MISSES = 23;
+const SURPRISES = 27;
+
+/** Invented resolved questions: every choice call at 90 % went to another option, every numeric range missed the outcome. */
+async function seed(): Promise<void> {
+  const common = { opened_at: iso(60), closes_at: iso(10), rule: 'As the board minutes record it.' };
+  const questions = [
+    ...Array.from({ length: CHOICE_MISSES }, (_, i) => ({
+      ...common,
+      id: `pick-${i + 1}`,
+      title: `Vendor pick ${i + 1}`,
+      type: 'choice',
+      options: ['Harrowgate', 'Lunsford', 'Neither'],
+      forecasts: [{ at: iso(50), probs: [0.9, 0.05, 0.05], note: `Pick note ${i + 1}` }],
+      resolution: { outcome: 'option', option: 1, at: iso(5) },
+    })),
+    ...Array.from({ length: SURPRISES }, (_, i) => ({
+      ...common,
+      id: `weeks-${i + 1}`,
+      title: `Weeks to sign-off, workstream ${i + 1}`,
+      type: 'numeric',
+      unit: 'weeks',
+      forecasts: [{ at: iso(50), quantiles: [10, 12, 14] }],
+      resolution: { outcome: 'value', value: 20 + i, at: iso(5) },
+    })),
+  ];
+  await apiCall(server().url, 'importDiary', { diary: { format: 'forelog-diary', version: 1, questions } });
+}
+
+test('Hindsight lists 20 choice misses and 20 surprises at first, and the rest with each list’s Show more', async () => {
+  await seed();
+  const { page } = app;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  await page.locator('[data-hindsight-ready="true"]').waitFor();
+  const misses = page.getByTestId('hs-choice-misses');
+  const surprises = page.getByTestId('hs-surprises');
+  await expect(misses.getByRole('heading', { level: 2 })).toHaveText(`Multiple choice: confident misses (${CHOICE_MISSES})`);
+  await expect(surprises.getByRole('heading', { level: 2 })).toHaveText(`Numbers and dates: surprises (outside your widest range) (${SURPRISES})`);
+  await expect(page.getByTestId('hindsight-choice-entry')).toHaveCount(20);
+  await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(20);
+  await expect(misses).toContainText(`20 of ${CHOICE_MISSES} shown`);
+
+  await misses.getByRole('button', { name: `Show ${CHOICE_MISSES - 20} more` }).click();
+  await page.locator('[data-hindsight-ready="true"]').waitFor();
+  await expect(page.getByTestId('hindsight-choice-entry')).toHaveCount(CHOICE_MISSES);
+  await expect(misses.getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);
+  await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(20, { timeout: 10_000 });
+
+  await surprises.getByRole('button', { name: `Show ${SURPRISES - 20} more` }).click();
+  await page.locator('[data-hindsight-ready="true"]').waitFor();
+  await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(SURPRISES);
+  await expect(page.getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);
+  await expectNoSeriousViolations(page, 'Hindsight with every choice and numeric call listed');
+});
+
+test('the Scorecard’s numeric table shows 25 questions at first; Show more adds the rest and moves focus to the first added', async () => {
+  const { page } = app;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Scorecard' }).click();
+  await page.locator('[data-scorecard-ready="true"]').waitFor();
+  const table = page.getByTestId('numeric-questions');
+  await expect(table.locator('tbody tr')).toHaveCount(25);
+  await expect(page.getByTestId('numeric-section')).toContainText(`25 of ${SURPRISES} shown`);
+  await page.getByTestId('numeric-section').getByRole('button', { name: `Show ${SURPRISES - 25} more` }).click();
+  await expect(table.locator('tbody tr')).toHaveCount(SURPRISES);
+  await expect(table.locator('tbody tr').nth(25).locator('th')).toBeFocused();
+  await expect(page.getByTestId('numeric-section').getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);
+  await expectNoSeriousViolations(page, 'Scorecard with every numeric question listed');
+});
