@@ -20,8 +20,8 @@
  *     ≤ 100 ms at 10,000 questions; every screen within 1 s at 100,000.
  * Then a mixed diary of 10,000 questions (yes/no, choice and numeric; make-diary.ts
  * buildMixedDiaryFile): import, export, `score --json`, and the engine's time for all three
- * types' reports in process (issue 9's target: within 150 ms); `npm run bench -- --mixed`
- * measures only that diary.
+ * types' reports in process (issue 9's target: within 150 ms), and the browser figures
+ * (medians of 3); `npm run bench -- --mixed` measures only that diary.
  * Whole-process figures are medians of 5 (3 at 100,000), in-process and per-call ones of 5,
  * browser ones of 5 (1 at 100,000); the load average before and after is printed because
  * other work on the machine inflates them.
@@ -343,7 +343,7 @@ const MIXED = 10_000;
  * each): import, export, `score --json` as whole processes, and the scoring engine in
  * process, all three types' reports (what `score --json` computes) on the same input.
  */
-function measureMixed(put: (label: string, value: string) => void): void {
+async function measureMixed(put: (label: string, value: string) => void): Promise<void> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-bench-mixed-'));
   const say = (what: string) => process.stderr.write(`[mixed ${MIXED.toLocaleString('en')}] ${what}…\n`);
   try {
@@ -390,6 +390,11 @@ function measureMixed(put: (label: string, value: string) => void): void {
     } finally {
       service.close();
     }
+    // The screens too: a third of the calls on Hindsight and the Scorecard are choice and numeric ones.
+    if (!process.argv.includes('--no-browser') && fs.existsSync(CHROMIUM)) {
+      say('browser mode');
+      await browserFigures(dbPath, 3, 60_000, put).catch((err: unknown) => put('browser mode', `not measured: ${(err as Error).message.split('\n')[0]}`));
+    }
   } finally {
     fs.rmSync(dir, { recursive: true, force: true });
   }
@@ -415,7 +420,7 @@ async function main(): Promise<void> {
   }
 
   const mixed = new Map<string, string>();
-  if (screensAt < 0) measureMixed((label, value) => mixed.set(label, value));
+  if (screensAt < 0) await measureMixed((label, value) => mixed.set(label, value));
 
   const cpus = os.cpus();
   const header = ['', ...sizes.map((s) => `${s.toLocaleString('en')} questions`)];
