@@ -44,7 +44,7 @@ export interface BriefingInput {
   time_zone: string;
   /** The scorecard for the same tag (`score` with `{ tag }`). */
   report: ScoreReport;
-  /** Every question carrying the tag (all when tag is null), resolved and open. */
+  /** The questions carrying the tag (all when tag is null): at least every yes/no one and every open one (others are left out). */
   questions: Question[];
   /**
    * Confident = final forecast ≥ threshold on a No, or ≤ 1 − threshold on a Yes (a miss),

@@ -1252,14 +1252,14 @@ export function createDiary(ctx: DiaryContext) {
       const s = settings();
       const options = scoreOptions({ tag: req.tag });
       const t = now();
-      const all = qs.loadBundles(read).map((b) => qs.toQuestion(b, t));
+      const all = qs.loadBundles(read, qs.briefingQuestionIds(read, req.tag)).map((b) => qs.toQuestion(b, t));
       const typed = typedScoringInput();
       const html = renderBriefing({
         tag: req.tag ?? null,
         generated_at: now(),
         time_zone: s.time_zone,
         report: binaryReport({ tag: req.tag }),
-        questions: req.tag ? all.filter((q) => q.tags.includes(req.tag!)) : all,
+        questions: all, // of the tag already
         threshold: req.threshold,
         choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)).entries,
         numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)).entries,

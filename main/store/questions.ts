@@ -442,6 +442,19 @@ export interface QuestionBundle {
  * Loads whole questions in a fixed number of queries (twelve), whatever their number, so exporting or scoring a
  * large diary does not issue a query per question.
  */
+/**
+ * The questions a briefing reads in full: every yes/no question (its scorecard and
+ * confident calls) and the open questions of every type (its open table), of one tag or
+ * all. Resolved choice and numeric questions reach a briefing only as its misses and
+ * surprises, read apart; with a third of a diary such questions, loading them in full
+ * took most of a briefing's time.
+ */
+export function briefingQuestionIds(db: Db, tag?: string): string[] {
+  const ofTag = tag === undefined ? '' : 'AND EXISTS (SELECT 1 FROM question_tags t WHERE t.question_id = q.id AND t.tag = ?)';
+  return stmt(db, `SELECT q.id FROM questions q WHERE (q.type = 'binary' OR NOT EXISTS (SELECT 1 FROM resolutions r WHERE r.question_id = q.id)) ${ofTag}`, 'pluck')
+    .all(...(tag === undefined ? [] : [tag])) as string[];
+}
+
 export function loadBundles(db: Db, ids?: string[]): QuestionBundle[] {
   const filter = ids ? `WHERE question_id IN (SELECT value FROM json_each(?))` : '';
   const qFilter = ids ? `WHERE id IN (SELECT value FROM json_each(?))` : '';

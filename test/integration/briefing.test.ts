@@ -14,7 +14,7 @@ import { briefingTitle, renderBriefing, wholePercent, escapeHtml, type BriefingI
 import { BRIEFING_STYLE_HASH } from '../../main/service/briefing-style';
 import { buildDemoDiary } from '../../main/service/demo';
 import { CONTENT_SECURITY_POLICY } from '../../main/shell/csp';
-import { isBinary, type BinaryQuestion } from '../../shared/domain';
+import { isBinary, type BinaryQuestion, type Question } from '../../shared/domain';
 import type { ScoreReport, ScorecardDetail } from '../../shared/scoring';
 import { openTestDiary, type TestDiary } from '../support/temp-diary';
 
@@ -221,6 +221,30 @@ test('the briefing for a tag: header, scorecard, calibration table and SVG, entr
     assert.ok(pages >= 1, `the PDF has ${pages} pages`);
   } finally {
     await page.close();
+  }
+});
+
+test('the briefing reads only what it shows: the same document as one made from every question of the diary, resolved choice and numeric ones too', async () => {
+  const diary = openTestDiary({ now: NOW, timeZone: 'Europe/London' });
+  await diary.call('importDiary', { diary: buildDemoDiary(diary.clock.now) });
+  const every: Question[] = [];
+  for (const q of (await diary.call('listQuestions', {})).questions) every.push(await diary.call('getQuestion', { id: q.id }));
+  assert.ok(every.some((q) => q.type !== 'binary' && q.resolution !== null), 'the example diary has resolved choice or numeric questions');
+  for (const tag of [null, ...new Set(every.flatMap((q) => q.tags))]) {
+    const filter = tag === null ? {} : { tag };
+    const { html } = await diary.call('briefing', { ...filter, threshold: THRESHOLD });
+    const hindsight = await diary.call('hindsight', { ...filter, threshold: THRESHOLD });
+    const expected = renderBriefing({
+      tag,
+      generated_at: diary.clock.now,
+      time_zone: 'Europe/London',
+      report: hindsight.report,
+      questions: every,
+      threshold: THRESHOLD,
+      choice_misses: hindsight.choice_entries,
+      numeric_surprises: hindsight.numeric_surprises,
+    });
+    assert.equal(html, expected, `briefing for ${tag ?? 'the whole diary'}`);
   }
 });
 
