@@ -1,9 +1,10 @@
 /**
- * "Show 20 more" under a list that is shown a page at a time, with how many of how many
- * are on screen; nothing once every item is. Lists that grow with the diary (the Desk's
- * groups, Hindsight's calls, the Scorecard's numeric questions) stay quick to open and to
- * read with a screen reader by rendering a page, never the whole diary.
+ * "Show 20 more" for a list that is shown a page at a time, with how many of how many are
+ * on screen; nothing once every item is. Lists that grow with the diary (the Desk's
+ * groups, Hindsight's calls, the Scorecard's numeric questions, a question's history) stay
+ * quick to open and to read with a screen reader by rendering a page, never all of it.
  */
+import { useEffect, useRef } from 'react';
 import { Button } from './Button';
 import { formatCount } from '../dates';
 
@@ -17,19 +18,41 @@ interface ShowMoreProps {
   onMore: () => void;
   /** While the next page is on its way. */
   busy?: boolean;
+  /** 'earlier' for a list in time order that shows its latest items and adds older ones above them. */
+  direction?: 'more' | 'earlier';
 }
 
-export function ShowMore({ shown, total, page, onMore, busy = false }: ShowMoreProps) {
+export function ShowMore({ shown, total, page, onMore, busy = false, direction = 'more' }: ShowMoreProps) {
   const more = total - shown;
   if (more <= 0) return null;
   return (
     <div className="show-more">
       <Button onClick={onMore} busy={busy}>
-        Show {formatCount(Math.min(more, page))} more
+        Show {formatCount(Math.min(more, page))} {direction}
       </Button>
       <span className="muted">
-        {formatCount(shown)} of {formatCount(total)} shown
+        {formatCount(shown)} of {formatCount(total)} shown{direction === 'earlier' ? ', the latest' : ''}
       </span>
     </div>
   );
+}
+
+/**
+ * Focus for a list that grows a page at a time: call the returned function with the index
+ * of the first item a press adds, and once the list has drawn it (`shown` changed), focus
+ * moves to the element `find` gives for that index. A keyboard or screen-reader user then
+ * carries on from there instead of being left on a button that may have gone.
+ */
+export function useFocusAfterMore(shown: number, find: (index: number) => HTMLElement | null | undefined): (index: number) => void {
+  const pending = useRef<number | null>(null);
+  useEffect(() => {
+    const index = pending.current;
+    if (index === null) return;
+    pending.current = null;
+    find(index)?.focus();
+    // Only a new page moves focus; `find` is read as it is then.
+  }, [shown]);
+  return (index) => {
+    pending.current = index;
+  };
 }

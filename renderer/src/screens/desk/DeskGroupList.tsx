@@ -4,8 +4,8 @@
  * a morning's work looks like; "Show more" adds the next, and focus moves to the first card
  * it added, so a keyboard user carries on where the list ended.
  */
-import { useEffect, useRef, useState, type ReactNode } from 'react';
-import { ShowMore } from '../../components/ShowMore';
+import { useRef, useState, type ReactNode } from 'react';
+import { ShowMore, useFocusAfterMore } from '../../components/ShowMore';
 import type { DeskItem } from './items';
 
 /** Cards drawn at first in each group, and added by each "Show more". */
@@ -18,14 +18,8 @@ export interface DeskGroupListProps {
 
 export function DeskGroupList({ items, render }: DeskGroupListProps) {
   const [shown, setShown] = useState(DESK_PAGE);
-  const focusFrom = useRef<number | null>(null);
   const listRef = useRef<HTMLUListElement>(null);
-  useEffect(() => {
-    const index = focusFrom.current;
-    if (index === null) return;
-    focusFrom.current = null;
-    listRef.current?.children[index]?.querySelector<HTMLElement>('h3 a')?.focus();
-  }, [shown]);
+  const focusFrom = useFocusAfterMore(shown, (index) => listRef.current?.children[index]?.querySelector<HTMLElement>('h3 a'));
   return (
     <>
       <ul className="desk-group__list" ref={listRef}>
@@ -36,7 +30,7 @@ export function DeskGroupList({ items, render }: DeskGroupListProps) {
         total={items.length}
         page={DESK_PAGE}
         onMore={() => {
-          focusFrom.current = shown;
+          focusFrom(shown);
           setShown((n) => n + DESK_PAGE);
         }}
       />

@@ -3,8 +3,9 @@
  * per revision or reference forecast with its time, its figures (a probability, a chance per
  * option or a value per level), its note or source, and a delete action.
  */
-import type { ReactNode } from 'react';
+import { useRef, useState, type ReactNode } from 'react';
 import { Button } from '../../components/Button';
+import { ShowMore, useFocusAfterMore } from '../../components/ShowMore';
 import { formatCount, formatInstant } from '../../dates';
 
 export interface EntryRow {
@@ -32,9 +33,30 @@ interface EntryTableProps {
   onDelete: (id: string) => void;
 }
 
+/**
+ * Rows drawn at first, the latest, and added above them by each "Show earlier": a question
+ * revised every day for years would otherwise draw thousands of rows before its page shows.
+ */
+export const HISTORY_PAGE = 100;
+
 export function EntryTable({ kind, caption, headers, cellClassName, cellTestId, detailHeader, empty, zone, rows, onDelete }: EntryTableProps) {
+  const [shown, setShown] = useState(HISTORY_PAGE);
+  const hidden = Math.max(0, rows.length - shown);
+  // After "Show earlier", focus moves to the earliest row now shown: reading on goes forward in time.
+  const body = useRef<HTMLTableSectionElement>(null);
+  const focusFirst = useFocusAfterMore(shown, () => body.current?.rows[0]?.querySelector<HTMLElement>('td'));
   return (
     <div className="table-card">
+      <ShowMore
+        shown={rows.length - hidden}
+        total={rows.length}
+        page={HISTORY_PAGE}
+        direction="earlier"
+        onMore={() => {
+          focusFirst(0);
+          setShown((n) => n + HISTORY_PAGE);
+        }}
+      />
       <table data-testid={kind === 'revision' ? 'revisions-table' : 'references-table'}>
         <caption className="table-card__caption">
           {caption} ({formatCount(rows.length)})
@@ -53,7 +75,7 @@ export function EntryTable({ kind, caption, headers, cellClassName, cellTestId, 
             </th>
           </tr>
         </thead>
-        <tbody>
+        <tbody ref={body}>
           {rows.length === 0 ? (
             <tr>
               <td colSpan={headers.length + 3} className="muted">
@@ -61,9 +83,9 @@ export function EntryTable({ kind, caption, headers, cellClassName, cellTestId, 
               </td>
             </tr>
           ) : (
-            rows.map((row) => (
+            rows.slice(hidden).map((row) => (
               <tr key={row.id} data-testid={`${kind}-row`}>
-                <td className="nowrap">
+                <td className="nowrap" tabIndex={-1}>
                   <time dateTime={row.at}>{formatInstant(row.at, zone, false)}</time>
                 </td>
                 {row.cells.map((cell, k) => (

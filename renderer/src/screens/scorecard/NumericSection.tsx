@@ -5,7 +5,7 @@
  * weighted interval score in its own unit (never averaged across questions).
  */
 import { memo, useEffect, useRef, useState } from 'react';
-import { ShowMore } from '../../components/ShowMore';
+import { ShowMore, useFocusAfterMore } from '../../components/ShowMore';
 import type { CoverageRow, NumericQuestionRow, NumericReport } from '../../../../shared/scoring/types';
 import { formatValue, levelName } from '../../forecastEntry/numericEntry';
 import { pct, questions, score2 } from './format';
@@ -34,14 +34,8 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
   // A new selection starts again at the first page.
   useEffect(() => setShown(WIS_PAGE), [rows]);
   // After "Show more", focus moves to the first row it added, so a keyboard user reads on from there.
-  const focusFrom = useRef<number | null>(null);
   const body = useRef<HTMLTableSectionElement>(null);
-  useEffect(() => {
-    const index = focusFrom.current;
-    if (index === null) return;
-    focusFrom.current = null;
-    body.current?.rows[index]?.querySelector<HTMLElement>('th')?.focus();
-  }, [shown]);
+  const focusFrom = useFocusAfterMore(shown, (index) => body.current?.rows[index]?.querySelector<HTMLElement>('th'));
   const n = report.scored;
   if (n === 0) {
     return (
@@ -221,7 +215,7 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
           total={rows.length}
           page={WIS_PAGE}
           onMore={() => {
-            focusFrom.current = shown;
+            focusFrom(shown);
             setShown((n) => n + WIS_PAGE);
           }}
         />

@@ -1,8 +1,9 @@
 /**
- * Lists of choice and numeric questions that grow with the diary come a page at a time:
- * Hindsight's choice confident misses and numeric surprises (20 at first, then "Show more",
- * the heading counting the whole selection), and the Scorecard's per-question table of
- * numeric scores (25 rows at first; focus moves to the first row added). Axe scans each.
+ * Lists that grow with the diary come a page at a time: Hindsight's choice confident
+ * misses and numeric surprises (20 at first, then "Show more", the heading counting the
+ * whole selection), the Scorecard's per-question table of numeric scores (25 rows at first;
+ * focus moves to the first row added), and a question's history (its latest 100 revisions;
+ * "Show earlier" adds older ones above). Axe scans each.
  */
 import { expect, test } from '@playwright/test';
 import { apiCall, expectNoSeriousViolations } from './helpers';
@@ -83,4 +84,26 @@ test('the Scorecard’s numeric table shows 25 questions at first; Show more add
   await expect(table.locator('tbody tr').nth(25).locator('th')).toBeFocused();
   await expect(page.getByTestId('numeric-section').getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);
   await expectNoSeriousViolations(page, 'Scorecard with every numeric question listed');
+});
+
+test('a long history shows its latest 100 revisions; Show earlier adds the older ones above and focus moves to the earliest shown', async () => {
+  const { page } = app;
+  const start = Date.now() - 200 * DAY;
+  const forecasts = Array.from({ length: 130 }, (_, i) => ({ at: new Date(start + i * DAY).toISOString(), p: 0.3 + (i % 5) / 10, note: `Daily read ${i + 1}` }));
+  await apiCall(server().url, 'importDiary', {
+    diary: { format: 'forelog-diary', version: 1, questions: [{ id: 'daily', title: 'Harrowgate renews the framework', opened_at: iso(210), closes_at: iso(-30), forecasts }] },
+  });
+  await page.goto(`${server().url.split('?')[0]}#/questions/daily`);
+  const rows = page.getByTestId('revisions-table').getByTestId('revision-row');
+  await expect(rows).toHaveCount(100);
+  await expect(rows.first()).toContainText('Daily read 31');
+  await expect(rows.last()).toContainText('Daily read 130');
+  await expect(page.getByTestId('revisions-table')).toContainText('Your forecasts (130)');
+  await expect(page.getByText('100 of 130 shown, the latest')).toBeVisible();
+  await page.getByRole('button', { name: 'Show 30 earlier' }).click();
+  await expect(rows).toHaveCount(130);
+  await expect(rows.first()).toContainText('Daily read 1');
+  await expect(rows.first().locator('td').first()).toBeFocused();
+  await expect(page.getByRole('button', { name: /Show \d+ earlier/ })).toHaveCount(0);
+  await expectNoSeriousViolations(page, 'a question with its whole long history shown');
 });
