@@ -21,6 +21,7 @@ import {
   windowEnd,
   type ReportBin,
   type ScoreReport,
+  type ScorecardDetail,
   type ScoredQuestionRow,
   type ScoringQuestion,
 } from '../../shared/scoring';
@@ -44,8 +45,16 @@ export interface BriefingInput {
   time_zone: string;
   /** The scorecard for the same tag (`score` with `{ tag }`). */
   report: ScoreReport;
-  /** The questions carrying the tag (all when tag is null): at least every yes/no one and every open one (others are left out). */
-  questions: Question[];
+  /**
+   * The tag's yes/no questions as scored: `computeScorecardDetail` over them (per-question
+   * rows included) and the engine's input it came from (for the base-rate and reference
+   * counts). The scoring rules are the engine's; the briefing only selects and shows.
+   */
+  scored: { detail: ScorecardDetail; questions: readonly ScoringQuestion[] };
+  /** The full yes/no questions of some ids, called once for the confident calls the briefing shows. */
+  details: (ids: string[]) => BinaryQuestion[];
+  /** The tag's open questions (all when tag is null), of every type. */
+  open: Question[];
   /**
    * Confident = final forecast ≥ threshold on a No, or ≤ 1 − threshold on a Yes (a miss),
    * and the mirror image for a hit. From 0.5 to 1; INTERFACES.md §2 uses 0.8. At 0.5 a
@@ -153,19 +162,35 @@ const error = (row: ScoredQuestionRow): number => Math.abs(row.p - (row.outcome 
  * of `ScoreReport.confident_misses`) and confident hits (most recent window end first).
  * Which calls are confident, and misses or hits, is `confidentVerdict`'s rule.
  */
-function confidentCalls(rows: readonly ScoredQuestionRow[], byId: ReadonlyMap<string, BinaryQuestion>, threshold: number) {
-  const misses: ConfidentCall[] = [];
-  const hits: ConfidentCall[] = [];
+function confidentRows(rows: readonly ScoredQuestionRow[], threshold: number) {
+  const misses: ScoredQuestionRow[] = [];
+  const hits: ScoredQuestionRow[] = [];
   for (const row of rows) {
     const verdict = confidentVerdict(row.p, row.outcome === 'yes' ? 1 : 0, threshold);
-    if (verdict === null) continue;
-    const call = { row, question: byId.get(row.id)! };
-    if (verdict === 'miss') misses.push(call);
-    else hits.push(call);
+    if (verdict === 'miss') misses.push(row);
+    else if (verdict === 'hit') hits.push(row);
   }
-  misses.sort((a, b) => error(b.row) - error(a.row) || (a.row.id < b.row.id ? -1 : a.row.id > b.row.id ? 1 : 0));
-  hits.sort((a, b) => b.row.T - a.row.T || (a.row.id < b.row.id ? -1 : a.row.id > b.row.id ? 1 : 0));
+  misses.sort((a, b) => error(b) - error(a) || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  hits.sort((a, b) => b.T - a.T || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   return { misses, hits };
+}
+
+/**
+ * What `renderBriefing` reads about the questions, made from full questions (as
+ * getQuestion answers them), the tag's alone; costs enter no figure a briefing shows. The
+ * service gives the same from its own scoring input instead, which a large diary has
+ * ready; a test checks the two documents are the same.
+ */
+export function briefingSources(questions: readonly Question[], tag: string | null): Pick<BriefingInput, 'scored' | 'details' | 'open'> {
+  const ofTag = tag === null ? questions : questions.filter((q) => q.tags.includes(tag));
+  const binary = ofTag.filter(isBinary);
+  const scoring = binary.map(toScoringQuestion);
+  const byId = new Map(binary.map((q) => [q.id, q]));
+  return {
+    scored: { detail: computeScorecardDetail(scoring, { default_costs: { false_alarm: 1, miss: 1 } }), questions: scoring },
+    details: (ids) => ids.map((id) => byId.get(id)!),
+    open: ofTag.filter((q) => q.resolution === null),
+  };
 }
 
 // ── Sections ────────────────────────────────────────────────────────────────────────────
@@ -410,14 +435,14 @@ ${rest.join('\n')}
 </section>`;
 }
 
-function confidentSections(ctx: Context, misses: ConfidentCall[], hits: ConfidentCall[]): string {
+/** The confident calls as shown: every miss, and the most recent hits (at most MAX_CONFIDENT_HITS of `hitCount`). */
+function confidentSections(ctx: Context, misses: ConfidentCall[], shown: ConfidentCall[], hitCount: number): string {
   const { threshold, time_zone } = ctx.input;
   const hi = wholePercent(threshold);
   const lo = wholePercent(Number((1 - threshold).toFixed(12)));
-  const shown = hits.slice(0, MAX_CONFIDENT_HITS);
   const hitLede =
-    hits.length > shown.length
-      ? `The ${shown.length} most recent of ${hits.length}: final forecast ${hi} or more on a Yes, or ${lo} or less on a No.`
+    hitCount > shown.length
+      ? `The ${shown.length} most recent of ${hitCount}: final forecast ${hi} or more on a Yes, or ${lo} or less on a No.`
       : `Final forecast ${hi} or more on a Yes, or ${lo} or less on a No.`;
   return `${entrySection(
     'misses',
@@ -595,8 +620,7 @@ function lastForecastText(q: Question): string {
 }
 
 function openQuestions(ctx: Context): string {
-  const open = ctx.input.questions
-    .filter((q) => q.resolution === null)
+  const open = ctx.input.open
     .map((q) => ({ q, closes: instant(q.closes_at, `question ${q.id} closes_at`) }))
     .sort((a, b) => a.closes - b.closes || (a.q.title < b.q.title ? -1 : a.q.title > b.q.title ? 1 : 0));
   if (open.length === 0) return `<section id="open"><h2>Open questions</h2><p class="muted">No open questions.</p></section>`;
@@ -626,7 +650,8 @@ export function briefingTitle(tag: string | null): string {
  * Renders the briefing as a complete HTML document.
  *
  * @param input the tag (null: the whole diary), when and in which zone it is generated,
- *   the tag's `ScoreReport`, every question of the tag, and the confidence threshold
+ *   the tag's `ScoreReport` and scored yes/no questions, a way to read the confident calls
+ *   in full, the tag's open questions, and the confidence threshold
  * @returns `<!doctype html>` text with one <style> element, inline SVG, no script and no
  *   external reference; every piece of user text escaped
  * @throws RangeError when the time zone is unknown, the threshold is not in [0.5, 1], or
@@ -643,13 +668,8 @@ export function renderBriefing(input: BriefingInput): string {
     throw new RangeError(`renderBriefing: generated_at is ${String(input.generated_at)}; pass the time in epoch milliseconds.`);
   }
   const tag = input.tag;
-  const questions = tag === null ? input.questions : input.questions.filter((q) => q.tags.includes(tag));
   // The scorecard, calibration and confident calls are yes/no questions'; the open table lists every type.
-  const binary = questions.filter(isBinary);
-  const scoring = binary.map(toScoringQuestion);
-  // Costs do not enter any figure used here; the engine only requires them to be valid.
-  const detail = computeScorecardDetail(scoring, { default_costs: { false_alarm: 1, miss: 1 } });
-  const byId = new Map(binary.map((q) => [q.id, q]));
+  const { detail, questions: scoring } = input.scored;
   const scoringById = new Map(scoring.map((q) => [q.id, q]));
   let withBaseRate = 0;
   let withReference = 0;
@@ -660,14 +680,18 @@ export function renderBriefing(input: BriefingInput): string {
   }
   const subject = tag === null ? 'the whole diary' : tag;
   const ctx: Context = {
-    input: { ...input, questions },
+    input,
     subject,
     brierInterval: detail.brier_interval,
     logInterval: detail.log_interval,
     withBaseRate,
     withReference,
   };
-  const { misses, hits } = confidentCalls(detail.per_question, byId, input.threshold);
+  // Only the calls shown are read in full.
+  const { misses, hits } = confidentRows(detail.per_question, input.threshold);
+  const shownHits = hits.slice(0, MAX_CONFIDENT_HITS);
+  const full = new Map(input.details([...misses, ...shownHits].map((row) => row.id)).map((q) => [q.id, q]));
+  const call = (row: ScoredQuestionRow): ConfidentCall => ({ row, question: full.get(row.id)! });
   const typed = typedSections(ctx);
   return `<!doctype html>
 <html lang="en">
@@ -683,7 +707,7 @@ export function renderBriefing(input: BriefingInput): string {
 ${header(ctx)}
 ${scorecard(ctx)}
 ${calibration(ctx)}
-${confidentSections(ctx, misses, hits)}
+${confidentSections(ctx, misses.map(call), shownHits.map(call), hits.length)}
 ${typed ? `${typed}\n` : ''}${openQuestions(ctx)}
 <footer>Forelog briefing for ${escapeHtml(subject)}, made from the diary on this computer. Figures as defined in Forelog's scoring notes; dates in ${escapeHtml(input.time_zone)} unless marked. Scores describe past calls, not future ones.</footer>
 </main>

@@ -442,16 +442,10 @@ export interface QuestionBundle {
  * Loads whole questions in a fixed number of queries (twelve), whatever their number, so exporting or scoring a
  * large diary does not issue a query per question.
  */
-/**
- * The questions a briefing reads in full: every yes/no question (its scorecard and
- * confident calls) and the open questions of every type (its open table), of one tag or
- * all. Resolved choice and numeric questions reach a briefing only as its misses and
- * surprises, read apart; with a third of a diary such questions, loading them in full
- * took most of a briefing's time.
- */
-export function briefingQuestionIds(db: Db, tag?: string): string[] {
+/** The ids of the open questions (no resolution), of every type, of one tag or all (a briefing's open table). */
+export function openQuestionIds(db: Db, tag?: string): string[] {
   const ofTag = tag === undefined ? '' : 'AND EXISTS (SELECT 1 FROM question_tags t WHERE t.question_id = q.id AND t.tag = ?)';
-  return stmt(db, `SELECT q.id FROM questions q WHERE (q.type = 'binary' OR NOT EXISTS (SELECT 1 FROM resolutions r WHERE r.question_id = q.id)) ${ofTag}`, 'pluck')
+  return stmt(db, `SELECT q.id FROM questions q WHERE NOT EXISTS (SELECT 1 FROM resolutions r WHERE r.question_id = q.id) ${ofTag}`, 'pluck')
     .all(...(tag === undefined ? [] : [tag])) as string[];
 }
 

@@ -10,7 +10,7 @@ import assert from 'node:assert/strict';
 import fs from 'node:fs';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Locator, type Page } from '@playwright/test';
-import { briefingTitle, renderBriefing, wholePercent, escapeHtml, type BriefingInput } from '../../main/service/briefing';
+import { briefingSources, briefingTitle, renderBriefing, wholePercent, escapeHtml, type BriefingInput } from '../../main/service/briefing';
 import { BRIEFING_STYLE_HASH } from '../../main/service/briefing-style';
 import { buildDemoDiary } from '../../main/service/demo';
 import { CONTENT_SECURITY_POLICY } from '../../main/shell/csp';
@@ -65,7 +65,7 @@ function input(loaded: Loaded, tag: string | null, extra: Partial<BriefingInput>
     generated_at: loaded.diary.clock.now,
     time_zone: 'Europe/London',
     report: loaded.report,
-    questions: loaded.questions,
+    ...briefingSources(loaded.questions, tag),
     threshold: THRESHOLD,
     choice_misses: [],
     numeric_surprises: [],
@@ -224,7 +224,7 @@ test('the briefing for a tag: header, scorecard, calibration table and SVG, entr
   }
 });
 
-test('the briefing reads only what it shows: the same document as one made from every question of the diary, resolved choice and numeric ones too', async () => {
+test('the briefing the service makes from its scoring input is the one made from every question of the diary in full, whole and per tag', async () => {
   const diary = openTestDiary({ now: NOW, timeZone: 'Europe/London' });
   await diary.call('importDiary', { diary: buildDemoDiary(diary.clock.now) });
   const every: Question[] = [];
@@ -239,7 +239,7 @@ test('the briefing reads only what it shows: the same document as one made from 
       generated_at: diary.clock.now,
       time_zone: 'Europe/London',
       report: hindsight.report,
-      questions: every,
+      ...briefingSources(every, tag),
       threshold: THRESHOLD,
       choice_misses: hindsight.choice_entries,
       numeric_surprises: hindsight.numeric_surprises,
