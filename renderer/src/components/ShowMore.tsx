@@ -20,15 +20,28 @@ interface ShowMoreProps {
   busy?: boolean;
   /** 'earlier' for a list in time order that shows its latest items and adds older ones above them. */
   direction?: 'more' | 'earlier';
+  /**
+   * The most the list may show (a request's own limit), and what to say once it does:
+   * how to see the others instead.
+   */
+  cap?: { at: number; note: string };
 }
 
-export function ShowMore({ shown, total, page, onMore, busy = false, direction = 'more' }: ShowMoreProps) {
+export function ShowMore({ shown, total, page, onMore, busy = false, direction = 'more', cap }: ShowMoreProps) {
   const more = total - shown;
   if (more <= 0) return null;
+  const room = cap ? cap.at - shown : Infinity;
+  if (room <= 0) {
+    return (
+      <p className="show-more muted" role="status">
+        {formatCount(shown)} of {formatCount(total)} shown, the most one page holds; {cap!.note}
+      </p>
+    );
+  }
   return (
     <div className="show-more">
       <Button onClick={onMore} busy={busy}>
-        Show {formatCount(Math.min(more, page))} {direction}
+        Show {formatCount(Math.min(more, page, room))} {direction}
       </Button>
       <span className="muted">
         {formatCount(shown)} of {formatCount(total)} shown{direction === 'earlier' ? ', the latest' : ''}

@@ -7,7 +7,7 @@
  * on screen, "false" while one is on its way. Tests wait on it rather than on timing.
  */
 import { useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
-import type { Hindsight, HindsightEntry, Request } from '../../../../shared/contract';
+import { LIST_PAGE_MAX, type Hindsight, type HindsightEntry, type Request } from '../../../../shared/contract';
 import { api } from '../../api/client';
 import { describeError } from '../../api/errors';
 import { useLoad } from '../../api/useLoad';
@@ -37,6 +37,9 @@ const ENTRY_PAGE = 20;
 /** How many calls of each list (yes/no, choice, numeric) are asked for. */
 type Shown = Record<'binary' | 'choice' | 'numeric', number>;
 const FIRST_PAGES: Shown = { binary: ENTRY_PAGE, choice: ENTRY_PAGE, numeric: ENTRY_PAGE };
+
+/** A `hindsight` request lists at most LIST_PAGE_MAX calls of each list. */
+const CAP = { at: LIST_PAGE_MAX, note: 'choose a tag or a date range above to see the others.' };
 
 interface Asked {
   key: string;
@@ -107,7 +110,7 @@ export function HindsightScreen() {
           hindsight={loaded.data.hindsight}
           selection={settled.selection}
           timeZone={timeZone}
-          onMore={(list) => setShown((n) => ({ ...n, [list]: n[list] + ENTRY_PAGE }))}
+          onMore={(list) => setShown((n) => ({ ...n, [list]: Math.min(LIST_PAGE_MAX, n[list] + ENTRY_PAGE) }))}
           busy={loaded.loading}
         />
       ) : loaded.error ? null : (
@@ -143,7 +146,7 @@ interface BodyProps {
 
 function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyProps) {
   const { report, threshold, entries } = hindsight;
-  const moreButton = <ShowMore shown={hindsight.offset + entries.length} total={hindsight.misses + hindsight.hits} page={ENTRY_PAGE} onMore={() => onMore('binary')} busy={busy} />;
+  const moreButton = <ShowMore shown={hindsight.offset + entries.length} total={hindsight.misses + hindsight.hits} page={ENTRY_PAGE} onMore={() => onMore('binary')} busy={busy} cap={CAP} />;
   const filtered = selection.tag !== '' || selection.from !== '' || selection.to !== '';
   // The counts are yes/no counts; choice and numeric questions bring their own entries.
   const typedEntries = hindsight.choice_miss_count + hindsight.choice_hit_count + hindsight.numeric_surprise_count;
@@ -206,8 +209,8 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
           hindsight={hindsight}
           includeHits={selection.includeHits}
           timeZone={timeZone}
-          moreChoice={(listed, total) => <ShowMore shown={listed} total={total} page={ENTRY_PAGE} onMore={() => onMore('choice')} busy={busy} />}
-          moreNumeric={(listed, total) => <ShowMore shown={listed} total={total} page={ENTRY_PAGE} onMore={() => onMore('numeric')} busy={busy} />}
+          moreChoice={(listed, total) => <ShowMore shown={listed} total={total} page={ENTRY_PAGE} onMore={() => onMore('choice')} busy={busy} cap={CAP} />}
+          moreNumeric={(listed, total) => <ShowMore shown={listed} total={total} page={ENTRY_PAGE} onMore={() => onMore('numeric')} busy={busy} cap={CAP} />}
         />
       </div>
       <aside className="hs-aside">
