@@ -4,7 +4,7 @@
  * groups, Hindsight's calls, the Scorecard's numeric questions, a question's history) stay
  * quick to open and to read with a screen reader by rendering a page, never all of it.
  */
-import { useEffect, useRef } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Button } from './Button';
 import { formatCount } from '../dates';
 
@@ -56,7 +56,7 @@ export function ShowMore({ shown, total, page, onMore, busy = false, direction =
  * moves to the element `find` gives for that index. A keyboard or screen-reader user then
  * carries on from there instead of being left on a button that may have gone.
  */
-export function useFocusAfterMore(shown: number, find: (index: number) => HTMLElement | null | undefined): (index: number) => void {
+function useFocusAfterMore(shown: number, find: (index: number) => HTMLElement | null | undefined): (index: number) => void {
   const pending = useRef<number | null>(null);
   useEffect(() => {
     const index = pending.current;
@@ -67,5 +67,23 @@ export function useFocusAfterMore(shown: number, find: (index: number) => HTMLEl
   }, [shown]);
   return (index) => {
     pending.current = index;
+  };
+}
+
+/**
+ * How many items of a list drawn a page at a time are shown: `more` adds a page and, once
+ * it is drawn, focuses what `find` gives for its first item (see useFocusAfterMore);
+ * `reset` goes back to the first page (a new selection).
+ */
+export function usePages(page: number, find: (index: number) => HTMLElement | null | undefined) {
+  const [shown, setShown] = useState(page);
+  const focusFrom = useFocusAfterMore(shown, find);
+  return {
+    shown,
+    more: () => {
+      focusFrom(shown);
+      setShown((n) => n + page);
+    },
+    reset: () => setShown(page),
   };
 }

@@ -4,8 +4,8 @@
  * a morning's work looks like; "Show more" adds the next, and focus moves to the first card
  * it added, so a keyboard user carries on where the list ended.
  */
-import { useRef, useState, type ReactNode } from 'react';
-import { ShowMore, useFocusAfterMore } from '../../components/ShowMore';
+import { useRef, type ReactNode } from 'react';
+import { ShowMore, usePages } from '../../components/ShowMore';
 import type { DeskItem } from './items';
 
 /** Cards drawn at first in each group, and added by each "Show more". */
@@ -17,23 +17,14 @@ export interface DeskGroupListProps {
 }
 
 export function DeskGroupList({ items, render }: DeskGroupListProps) {
-  const [shown, setShown] = useState(DESK_PAGE);
   const listRef = useRef<HTMLUListElement>(null);
-  const focusFrom = useFocusAfterMore(shown, (index) => listRef.current?.children[index]?.querySelector<HTMLElement>('h3 a'));
+  const { shown, more } = usePages(DESK_PAGE, (index) => listRef.current?.children[index]?.querySelector<HTMLElement>('h3 a'));
   return (
     <>
       <ul className="desk-group__list" ref={listRef}>
         {items.slice(0, shown).map(render)}
       </ul>
-      <ShowMore
-        shown={Math.min(shown, items.length)}
-        total={items.length}
-        page={DESK_PAGE}
-        onMore={() => {
-          focusFrom(shown);
-          setShown((n) => n + DESK_PAGE);
-        }}
-      />
+      <ShowMore shown={Math.min(shown, items.length)} total={items.length} page={DESK_PAGE} onMore={more} />
     </>
   );
 }

@@ -3,9 +3,9 @@
  * per revision or reference forecast with its time, its figures (a probability, a chance per
  * option or a value per level), its note or source, and a delete action.
  */
-import { useRef, useState, type ReactNode } from 'react';
+import { useRef, type ReactNode } from 'react';
 import { Button } from '../../components/Button';
-import { ShowMore, useFocusAfterMore } from '../../components/ShowMore';
+import { ShowMore, usePages } from '../../components/ShowMore';
 import { formatCount, formatInstant } from '../../dates';
 
 export interface EntryRow {
@@ -40,23 +40,13 @@ interface EntryTableProps {
 export const HISTORY_PAGE = 100;
 
 export function EntryTable({ kind, caption, headers, cellClassName, cellTestId, detailHeader, empty, zone, rows, onDelete }: EntryTableProps) {
-  const [shown, setShown] = useState(HISTORY_PAGE);
-  const hidden = Math.max(0, rows.length - shown);
   // After "Show earlier", focus moves to the earliest row now shown: reading on goes forward in time.
   const body = useRef<HTMLTableSectionElement>(null);
-  const focusFirst = useFocusAfterMore(shown, () => body.current?.rows[0]?.querySelector<HTMLElement>('td'));
+  const { shown, more } = usePages(HISTORY_PAGE, () => body.current?.rows[0]?.querySelector<HTMLElement>('td'));
+  const hidden = Math.max(0, rows.length - shown);
   return (
     <div className="table-card">
-      <ShowMore
-        shown={rows.length - hidden}
-        total={rows.length}
-        page={HISTORY_PAGE}
-        direction="earlier"
-        onMore={() => {
-          focusFirst(0);
-          setShown((n) => n + HISTORY_PAGE);
-        }}
-      />
+      <ShowMore shown={rows.length - hidden} total={rows.length} page={HISTORY_PAGE} direction="earlier" onMore={more} />
       <table data-testid={kind === 'revision' ? 'revisions-table' : 'references-table'}>
         <caption className="table-card__caption">
           {caption} ({formatCount(rows.length)})

@@ -4,8 +4,8 @@
  * beside where they should, whether revising helped (relative WIS), and each question's
  * weighted interval score in its own unit (never averaged across questions).
  */
-import { memo, useEffect, useRef, useState } from 'react';
-import { ShowMore, useFocusAfterMore } from '../../components/ShowMore';
+import { memo, useEffect, useRef } from 'react';
+import { ShowMore, usePages } from '../../components/ShowMore';
 import type { CoverageRow, NumericQuestionRow, NumericReport } from '../../../../shared/scoring/types';
 import { formatValue, levelName } from '../../forecastEntry/numericEntry';
 import { pct, questions, score2 } from './format';
@@ -30,12 +30,11 @@ function scoreIn(row: NumericQuestionRow, value: number | null): string {
 const WIS_PAGE = 25;
 
 export const NumericSection = memo(function NumericSection({ report, rows }: { report: NumericReport; rows: NumericQuestionRow[] }) {
-  const [shown, setShown] = useState(WIS_PAGE);
-  // A new selection starts again at the first page.
-  useEffect(() => setShown(WIS_PAGE), [rows]);
   // After "Show more", focus moves to the first row it added, so a keyboard user reads on from there.
   const body = useRef<HTMLTableSectionElement>(null);
-  const focusFrom = useFocusAfterMore(shown, (index) => body.current?.rows[index]?.querySelector<HTMLElement>('th'));
+  const { shown, more, reset } = usePages(WIS_PAGE, (index) => body.current?.rows[index]?.querySelector<HTMLElement>('th'));
+  // A new selection starts again at the first page.
+  useEffect(reset, [rows]);
   const n = report.scored;
   if (n === 0) {
     return (
@@ -210,15 +209,7 @@ export const NumericSection = memo(function NumericSection({ report, rows }: { r
             </tbody>
           </table>
         </div>
-        <ShowMore
-          shown={Math.min(shown, rows.length)}
-          total={rows.length}
-          page={WIS_PAGE}
-          onMore={() => {
-            focusFrom(shown);
-            setShown((n) => n + WIS_PAGE);
-          }}
-        />
+        <ShowMore shown={Math.min(shown, rows.length)} total={rows.length} page={WIS_PAGE} onMore={more} />
       </section>
     </div>
   );
