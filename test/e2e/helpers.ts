@@ -36,6 +36,11 @@ export async function quickAdd(page: Page, input: QuickAddInput): Promise<void> 
   await expect(page.getByTestId('toast').filter({ hasText: `Added “${input.title}”` })).toBeVisible();
 }
 
+/** The ISO 8601 instant `days` before now (negative: ahead), for times of seeded questions. */
+export function daysAgo(days: number): string {
+  return new Date(Date.now() - days * 86_400_000).toISOString();
+}
+
 /** A datetime-local value `days` from now (UTC clock), for closes that must lie ahead. */
 export function daysFromNow(days: number): string {
   return new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 16);

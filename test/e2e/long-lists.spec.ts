@@ -6,15 +6,14 @@
  * "Show earlier" adds older ones above). Axe scans each.
  */
 import { expect, test } from '@playwright/test';
-import { apiCall, expectNoSeriousViolations } from './helpers';
+import { apiCall, daysAgo, expectNoSeriousViolations } from './helpers';
 import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
 test.setTimeout(120_000);
 
-const DAY = 86_400_000;
-const iso = (daysAgo: number) => new Date(Date.now() - daysAgo * DAY).toISOString();
+const iso = daysAgo;
 const app = useAppPage(server);
 
 const CHOICE_MISSES = 23;
@@ -88,8 +87,7 @@ test('the Scorecard’s numeric table shows 25 questions at first; Show more add
 
 test('a long history shows its latest 100 revisions; Show earlier adds the older ones above and focus moves to the earliest shown', async () => {
   const { page } = app;
-  const start = Date.now() - 200 * DAY;
-  const forecasts = Array.from({ length: 130 }, (_, i) => ({ at: new Date(start + i * DAY).toISOString(), p: 0.3 + (i % 5) / 10, note: `Daily read ${i + 1}` }));
+  const forecasts = Array.from({ length: 130 }, (_, i) => ({ at: iso(200 - i), p: 0.3 + (i % 5) / 10, note: `Daily read ${i + 1}` }));
   await apiCall(server().url, 'importDiary', {
     diary: { format: 'forelog-diary', version: 1, questions: [{ id: 'daily', title: 'Harrowgate renews the framework', opened_at: iso(210), closes_at: iso(-30), forecasts }] },
   });

@@ -8,15 +8,14 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Hindsight, Scorecard } from '../../shared/contract';
-import { apiCall, expectNoSeriousViolations, afterRedraw } from './helpers';
+import { apiCall, daysAgo, expectNoSeriousViolations, afterRedraw } from './helpers';
 import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
 test.setTimeout(120_000);
 
-const DAY = 86_400_000;
-const iso = (daysAgo: number) => new Date(Date.now() - daysAgo * DAY).toISOString();
+const iso = daysAgo;
 
 const app = useAppPage(server);
 
