@@ -378,11 +378,11 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   /** The place of a record in its file, as its error messages name it. */
-  function recordError(item: { index: number; row?: number }, code: ApiError['code'], column: string, reason: string): ApiError {
+  function recordError(item: { index: number; row?: number; question: FileQuestion }, code: ApiError['code'], column: string, reason: string): ApiError {
     if (item.row !== undefined) {
       return new ApiError(code, `Row ${item.row}, column ${column}: ${reason}. Nothing was imported.`, [`${column}: ${reason}`]);
     }
-    return new ApiError(code, `${questionRecordName(item.index)} is not valid: field ${column}: ${reason}. Nothing was imported.`, [
+    return new ApiError(code, `${questionRecordName(item.index, item.question)} is not valid: field ${column}: ${reason}. Nothing was imported.`, [
       `questions[${item.index}].${column}: ${reason}`,
     ]);
   }
@@ -518,7 +518,7 @@ export function createDiary(ctx: DiaryContext) {
               );
             }
             if (err instanceof ApiError) {
-              throw new ApiError(err.code, `${questionRecordName(item.index)} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
+              throw new ApiError(err.code, `${questionRecordName(item.index, q)} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
             }
             throw err;
           }

@@ -131,10 +131,10 @@ test('the first bad record is named with its index, line and field, after thousa
   const bad = question(2500, { forecasts: [{ at: '2026-01-05T09:05:00Z', p: 1.5 }] });
   const text = JSON.stringify({ ...DIARY, questions: [...good, bad, question(2501)] }, null, 2);
   const line = text.split('\n').findIndex((l) => l.includes('"id": "q2500"'));
-  await refusesText(d, text, `Question 2501 (questions[2500]) is not valid: field forecasts[0].p: must be a probability between 0 and 1 (the record starts on line ${line}). Nothing was imported.`);
+  await refusesText(d, text, `Question 2501 (questions[2500], “Question 2500”) is not valid: field forecasts[0].p: must be a probability between 0 and 1 (the record starts on line ${line}). Nothing was imported.`);
   // An id already in the diary is found by the insert itself, and named the same way.
   const again = JSON.stringify({ ...DIARY, questions: [question(90_000), buildDemoDiary(d.clock.now).questions[3]] });
-  await refusesText(d, again, /^Question 2 \(questions\[1\]\) is not valid: field id: ".+" is already in this diary \(was this file imported before\? Import it with merge to add only the questions that are new\)\. Nothing was imported\.$/, 'conflict');
+  await refusesText(d, again, /^Question 2 \(questions\[1\], “.+”\) is not valid: field id: ".+" is already in this diary \(was this file imported before\? Import it with merge to add only the questions that are new\)\. Nothing was imported\.$/, 'conflict');
 });
 
 test('numbers read exactly as JSON.parse reads them, down to the last bit, through import and export', async () => {
