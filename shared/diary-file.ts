@@ -467,6 +467,7 @@ function unreadable(err: JsonStreamError): DiaryFileError {
  */
 export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   const seen = { format: false, version: false, questions: false };
+  let version: unknown;
   const ids = new Set<string>();
   try {
     for (const part of readObjectStream(chunks, { streamed: 'questions', maxDepth: v.MAX_NESTING })) {
@@ -476,9 +477,14 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
       else if (part.key === 'format') {
         checkFormat(part.value);
         seen.format = true;
+        if (seen.version) checkVersion(version);
       } else if (part.key === 'version') {
-        checkVersion(part.value);
+        // Judged once the file is known to be a diary: another program's JSON with a
+        // "version" of its own ("1.0.0" in a package.json) is "not a Forelog diary file",
+        // not a diary from a newer Forelog.
+        version = part.value;
         seen.version = true;
+        if (seen.format) checkVersion(version);
       } else if (part.key === 'settings') {
         const settings = readSettings(part.value);
         if (settings) yield { kind: 'settings', settings };
@@ -489,6 +495,7 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   }
   if (!seen.format) checkFormat(undefined);
   if (!seen.version) checkVersion(undefined);
+  // (A version seen before the format was checked when the format came.)
   if (!seen.questions) throw questionsNotAList();
 }
 

@@ -118,6 +118,10 @@ test('format, version and questions are checked wherever they stand; the records
   const many = Array.from({ length: 30 }, (_, i) => question(i + 1));
   await refusesText(d, JSON.stringify({ questions: many, version: 1, format: 'something-else' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
   await refusesText(d, JSON.stringify({ questions: many, format: 'forelog-diary' }), 'This diary file has no "version"; this Forelog reads version 1 (written "version": 1). Nothing was imported.');
+  // Another program's JSON with a version of its own is not a diary, not one from a newer Forelog.
+  await refusesText(d, JSON.stringify({ name: 'quarterly-model', version: '1.0.0' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
+  await refusesText(d, JSON.stringify({ version: 2, format: 'forelog-diary', questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
+  await refusesText(d, JSON.stringify({ format: 'forelog-diary', version: 2, questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
   await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[") Nothing was imported.');
