@@ -18,7 +18,7 @@ import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { Select } from '../../components/Select';
 import { TextField } from '../../components/TextField';
-import { formatCount, timeZoneNames, zoneName } from '../../dates';
+import { formatCount, formatTimeText, timePlaceholder, timeZoneNames, zoneName } from '../../dates';
 import { useDiaryInfo } from '../../diaryInfo';
 import { replacedValues, useSettingsUndoToast } from '../../forgiving/settingsUndo';
 import { useDocumentTitle } from '../../hooks';
@@ -198,8 +198,10 @@ function NudgeSection({ draft, set, error }: SectionProps) {
 }
 
 /**
- * A time of day typed as 24-hour HH:MM, the form the diary stores: a browser's time picker
- * would show 10:30 PM on some systems while the Desk and nudges speak of 22:30.
+ * A time of day, typed and shown as every other time box has it (`parseTimeText`): "22:00",
+ * or "10:00 PM" where the locale uses a 12-hour clock, as the Desk and nudges write times.
+ * The draft turns it into the diary's 24-hour HH:MM on save (`quietTimeValue`). A text box
+ * rather than the browser's time picker, whose clock follows the system, not the page.
  */
 function TimeOfDayField({ label, value, onChange, error }: { label: string; value: string; onChange: (value: string) => void; error: string | undefined }) {
   return (
@@ -208,11 +210,10 @@ function TimeOfDayField({ label, value, onChange, error }: { label: string; valu
       value={value}
       onChange={onChange}
       error={error}
-      hint="24-hour, HH:MM"
-      inputMode="numeric"
+      hint={`e.g. ${formatTimeText({ hour: 22, minute: 0 })}`}
       autoComplete="off"
-      maxLength={5}
-      placeholder="22:00"
+      maxLength={20}
+      placeholder={timePlaceholder()}
       className="settings__time"
     />
   );
