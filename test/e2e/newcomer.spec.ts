@@ -107,3 +107,44 @@ test('saving a choice forecast unchanged says it was kept and the check-in is do
   await expect(dialog).toBeHidden();
   await expect(page.getByTestId('toast').filter({ hasText: 'Kept at Alder 60%; check-in done.' })).toBeVisible();
 });
+
+test('a value pasted with its unit or spaces goes into a number box as the number, and text that is no number is refused with a word', async () => {
+  const { page } = app;
+  await page.context().grantPermissions(['clipboard-read', 'clipboard-write']);
+  const paste = async (box: ReturnType<typeof page.getByRole>, text: string) => {
+    await page.evaluate((t) => navigator.clipboard.writeText(t), text);
+    await box.focus();
+    await page.keyboard.press('ControlOrMeta+V');
+  };
+  await openNewQuestion(page, server().url, {
+    title: 'Pallets through Westgate in the quarter',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'numeric',
+    unit: 'pallets',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  const low = dialog.getByRole('spinbutton', { name: /^P10/ });
+  const mid = dialog.getByRole('spinbutton', { name: /^P50/ });
+  const high = dialog.getByRole('spinbutton', { name: /^P90/ });
+  // Copied from a report: the unit the box already shows, a thousands comma, spaces.
+  await paste(low, '1,500 pallets');
+  await expect(low).toHaveValue('1500');
+  await expect(dialog.getByTestId('comma-warning')).toContainText('so this reads as 1500');
+  await paste(mid, ' 1800 ');
+  await expect(mid).toHaveValue('1800');
+  // Not a number: nothing goes in, and the box says why instead of "Enter a value" later.
+  await paste(high, 'about 2100');
+  await expect(high).toHaveValue('');
+  await expect(dialog.getByTestId('paste-warning')).toHaveText('⚠ Not pasted: “about 2100” is not a number. Type or paste digits only, e.g. 2100 or 12.5.');
+  await expect(high).toHaveAccessibleDescription(/Not pasted: “about 2100” is not a number/);
+  await paste(high, '2,100 Pallets');
+  await expect(high).toHaveValue('2100');
+  await expect(dialog.getByTestId('paste-warning')).toHaveCount(0);
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByTestId('revision-row')).toHaveCount(1);
+  await expect(page.getByTestId('revision-row').getByRole('cell')).toContainText(['1,500 pallets', '1,800 pallets', '2,100 pallets']);
+});
