@@ -375,7 +375,9 @@ export function dayRange(fromText: string, toText: string, timeZone: string): Da
  * A time as the diary writes it in its messages for every caller ("2027-03-13 17:00
  * Europe/London", shared/time-rules.ts `onClock`): a date, a 24-hour wall time and its zone.
  */
-const ON_CLOCK = /\b(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2}) ([A-Za-z_]+(?:\/[A-Za-z0-9_+-]+)+|UTC)\b/g;
+// Seconds appear when the time has them (a question opened "now" from a form): shown, like
+// every time in the window, to the minute.
+const ON_CLOCK = /\b(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2})(?::\d{2})? ([A-Za-z_]+(?:\/[A-Za-z0-9_+-]+)+|UTC)\b/g;
 
 /**
  * The diary's message with its times written as every other date in the window ("13 Mar

@@ -148,3 +148,26 @@ test('a value pasted with its unit or spaces goes into a number box as the numbe
   await expect(page.getByTestId('revision-row')).toHaveCount(1);
   await expect(page.getByTestId('revision-row').getByRole('cell')).toContainText(['1,500 pallets', '1,800 pallets', '2,100 pallets']);
 });
+
+test('a resolution dated before the question opened is refused in the window’s words: the opening as a date of the window, no internal names', async () => {
+  const { page } = app;
+  await openNewQuestion(page, server().url, {
+    title: 'Depot lease renewed before the spring',
+    // Opened from a form "now": the opening has seconds.
+    opened_at: '2026-11-23T14:50:46.120Z',
+    closes_at: '2027-03-31T16:00:00Z',
+    time_zone: 'Europe/London',
+    first_forecast: { p: 0.6, at: '2026-11-23T14:50:46.120Z' },
+  });
+  await page.getByRole('button', { name: 'Resolve' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Resolve the question' });
+  await dialog.getByRole('radio', { name: 'No', exact: true }).check();
+  await dialog.getByRole('textbox', { name: 'Resolved at', exact: true }).fill('01/11/2026');
+  await dialog.getByRole('button', { name: 'Resolve', exact: true }).click();
+  const message = dialog.getByTestId('field-error');
+  await expect(message).toHaveText(
+    "⚠ Must not be before the question opened (23 Nov 2026, 14:50 GMT); if it happened earlier, first move the question's opening time back",
+  );
+  await expect(dialog).not.toContainText('opened_at');
+  await expect(dialog).not.toContainText('2026-11-23');
+});
