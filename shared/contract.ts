@@ -322,6 +322,8 @@ export interface ImportConflict {
 
 export interface DiaryInfo {
   question_count: number;
+  /** How many of the example diary's questions (loadDemo) are in the diary; removeDemo takes them out. */
+  example_questions: number;
   /** Where the diary file lives, for the about box; null in tests. */
   location: string | null;
   time_zone: string;
@@ -350,6 +352,7 @@ export const operations = {
   importText: importTextRequest,
   exportText: exportTextRequest,
   loadDemo: empty,
+  removeDemo: empty,
   score: scoreRequest,
   due: dueRequest,
   dueCount: dueRequest,
@@ -384,6 +387,11 @@ export interface Responses {
   importText: ImportResult;
   exportText: ExportedText;
   loadDemo: { added: number };
+  /**
+   * The example diary's questions taken out in one step, the user's own left as they are;
+   * one `undo` token per question removed (undo them newest first, like any several steps).
+   */
+  removeDemo: { removed: number; undo: string[] };
   score: Scorecard;
   due: DueList;
   dueCount: DueCount;

@@ -266,6 +266,15 @@ export function createDiary(ctx: DiaryContext) {
     });
   }
 
+  /** The ids of the example diary's questions (they are fixed: "demo-…"), read once. */
+  let exampleIdList: string[] | null = null;
+  function exampleIds(): string[] {
+    exampleIdList ??= ((ctx.demo(now()) as { questions?: { id?: unknown }[] }).questions ?? [])
+      .map((q) => q.id)
+      .filter((id): id is string => typeof id === 'string');
+    return exampleIdList;
+  }
+
   function requireQuestionRow(id: string): qs.QuestionRow {
     const row = qs.questionRow(write, id);
     if (!row) throw notFound('question', id);
@@ -823,7 +832,12 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   const handlers: Handlers = {
-    diaryInfo: () => ({ question_count: qs.questionCount(read), location: store.path, time_zone: settings().time_zone }),
+    diaryInfo: () => ({
+      question_count: qs.questionCount(read),
+      example_questions: exampleIds().filter((id) => qs.questionRow(read, id) !== undefined).length,
+      location: store.path,
+      time_zone: settings().time_zone,
+    }),
 
     listQuestions,
 
@@ -1110,6 +1124,18 @@ export function createDiary(ctx: DiaryContext) {
         );
       if (qs.questionCount(read) > 0) throw notEmpty();
       return importParsed(ctx.demo(now()), { onlyIntoEmpty: notEmpty });
+    },
+
+    removeDemo: () => {
+      // Each example question goes as deleteQuestion takes one, so each comes back with its own undo.
+      const undo: string[] = [];
+      transact(() => {
+        for (const id of exampleIds()) {
+          if (qs.questionRow(write, id) === undefined) continue;
+          undo.push(tracked('deleteQuestion', id, () => qs.deleteQuestionRow(write, id)));
+        }
+      });
+      return { removed: undo.length, undo };
     },
 
     due: (req) => {
