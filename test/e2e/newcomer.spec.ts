@@ -171,3 +171,18 @@ test('a resolution dated before the question opened is refused in the window’s
   await expect(dialog).not.toContainText('opened_at');
   await expect(dialog).not.toContainText('2026-11-23');
 });
+
+test('a date copied as the window writes it (“1 Nov 2026”, “Nov 1, 2026”) goes back into a date box', async () => {
+  const { page } = app;
+  await page.goto(`${server().url.split('?')[0]}#/scorecard`);
+  const from = page.getByRole('textbox', { name: 'From', exact: true });
+  await from.fill('1 Nov 2026');
+  await from.press('Tab');
+  await expect(page).toHaveURL(/[?&]from=2026-11-01(&|$)/);
+  await expect(page.getByTestId('field-error')).toHaveCount(0);
+  const to = page.getByRole('textbox', { name: 'To', exact: true });
+  await to.fill('Fri, 20 Nov 2026');
+  await to.press('Tab');
+  await expect(page).toHaveURL(/[?&]to=2026-11-20(&|$)/);
+  await expect(page.getByTestId('field-error')).toHaveCount(0);
+});
