@@ -186,3 +186,20 @@ test('a date copied as the window writes it (“1 Nov 2026”, “Nov 1, 2026”
   await expect(page).toHaveURL(/[?&]to=2026-11-20(&|$)/);
   await expect(page.getByTestId('field-error')).toHaveCount(0);
 });
+
+test('the Questions list says how a choice or numeric question resolved, as it does Yes or No', async () => {
+  const { page } = app;
+  const url = server().url;
+  const make = (request: object) => apiCall<{ id: string }>(url, 'createQuestion', { opened_at: '2026-10-01T09:00:00Z', closes_at: '2026-11-20T16:00:00Z', time_zone: 'Europe/London', ...request });
+  const supplier = await make({ title: 'Which haulier wins the Eastgate lane?', type: 'choice', options: ['Kestrowe', 'Ambledene'], first_forecast: { probs: [0.7, 0.3], at: '2026-10-01T09:00:00Z' } });
+  await apiCall(url, 'resolveQuestion', { id: supplier.id, outcome: 'option', option: 1, at: '2026-11-21T09:00:00Z' });
+  const pallets = await make({ title: 'Pallets through Eastgate in November', type: 'numeric', unit: 'pallets', value_kind: 'number', levels: [0.1, 0.5, 0.9], first_forecast: { quantiles: [1500, 1800, 2100], at: '2026-10-01T09:00:00Z' } });
+  await apiCall(url, 'resolveQuestion', { id: pallets.id, outcome: 'value', value: 2940, at: '2026-11-21T09:00:00Z' });
+  await page.goto(`${url.split('?')[0]}#/questions`);
+  // Added over the API while the page was open: load it afresh.
+  await page.reload();
+  await page.setViewportSize({ width: 1024, height: 860 });
+  const row = (title: string) => page.getByTestId('question-table').getByRole('row').filter({ has: page.getByRole('link', { name: title }) });
+  await expect(row('Which haulier wins the Eastgate lane?')).toContainText('Resolved · Ambledene');
+  await expect(row('Pallets through Eastgate in November')).toContainText('Resolved · 2,940 pallets');
+});
