@@ -192,6 +192,9 @@ test('the Questions list says how a choice or numeric question resolved, as it d
   const url = server().url;
   const make = (request: object) => apiCall<{ id: string }>(url, 'createQuestion', { opened_at: '2026-10-01T09:00:00Z', closes_at: '2026-11-20T16:00:00Z', time_zone: 'Europe/London', ...request });
   const supplier = await make({ title: 'Which haulier wins the Eastgate lane?', type: 'choice', options: ['Kestrowe', 'Ambledene'], first_forecast: { probs: [0.7, 0.3], at: '2026-10-01T09:00:00Z' } });
+  const long = 'Kestrowe Freight & Warehousing International Holdings Limited';
+  const partner = await make({ title: 'Which partner takes the northern corridor?', type: 'choice', options: [long, 'Other'], first_forecast: { probs: [0.6, 0.4], at: '2026-10-01T09:00:00Z' } });
+  await apiCall(url, 'resolveQuestion', { id: partner.id, outcome: 'option', option: 0, at: '2026-11-21T09:00:00Z' });
   await apiCall(url, 'resolveQuestion', { id: supplier.id, outcome: 'option', option: 1, at: '2026-11-21T09:00:00Z' });
   const pallets = await make({ title: 'Pallets through Eastgate in November', type: 'numeric', unit: 'pallets', value_kind: 'number', levels: [0.1, 0.5, 0.9], first_forecast: { quantiles: [1500, 1800, 2100], at: '2026-10-01T09:00:00Z' } });
   await apiCall(url, 'resolveQuestion', { id: pallets.id, outcome: 'value', value: 2940, at: '2026-11-21T09:00:00Z' });
@@ -202,4 +205,11 @@ test('the Questions list says how a choice or numeric question resolved, as it d
   const row = (title: string) => page.getByTestId('question-table').getByRole('row').filter({ has: page.getByRole('link', { name: title }) });
   await expect(row('Which haulier wins the Eastgate lane?')).toContainText('Resolved · Ambledene');
   await expect(row('Pallets through Eastgate in November')).toContainText('Resolved · 2,940 pallets');
+  // A long option wraps inside its status cell instead of running over the next column.
+  await expect(row('Which partner takes the northern corridor?')).toContainText(`Resolved · ${long}`);
+  for (const width of [1440, 1024]) {
+    await page.setViewportSize({ width, height: 860 });
+    const inside = await row('Which partner takes the northern corridor?').locator('.status-pill .badge').evaluate((badge) => badge.scrollWidth <= badge.clientWidth);
+    expect(inside, `at ${width} wide`).toBe(true);
+  }
 });

@@ -32,8 +32,9 @@ export function numericSummary(levels: readonly number[], quantiles: readonly nu
  * open and void ones.
  */
 export function resolvedText(q: Pick<QuestionSummary, 'type' | 'options' | 'value_kind' | 'unit' | 'resolved_option' | 'resolved_value'>, locale?: string): string | null {
-  if (q.type === 'choice' && q.resolved_option !== null) return q.options?.[q.resolved_option] ?? `Option ${q.resolved_option + 1}`;
-  if (q.type === 'numeric' && q.resolved_value !== null && q.value_kind) {
+  // typeof, not !== null: a row from a diary service without these fields says nothing rather than "Option NaN".
+  if (q.type === 'choice' && typeof q.resolved_option === 'number') return q.options?.[q.resolved_option] ?? `Option ${q.resolved_option + 1}`;
+  if (q.type === 'numeric' && (typeof q.resolved_value === 'number' || typeof q.resolved_value === 'string') && q.value_kind) {
     return formatValue(toStoredValue(q.resolved_value, q.value_kind), q.value_kind, q.unit ?? '', locale);
   }
   return null;
