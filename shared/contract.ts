@@ -437,6 +437,8 @@ export interface Hindsight {
   numeric_surprises: NumericHindsightEntry[];
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;
+  /** 95 % interval around `report.brier`, exactly the Scorecard's `detail.brier_interval`; null with fewer than two scored. */
+  brier_interval: [number, number] | null;
 }
 
 export interface DueList {

@@ -56,6 +56,7 @@ import {
   computeNumericReport,
   computeScoreReport,
   computeScorecardDetail,
+  brierIntervalOf,
   isStale,
   prepareScoredSet,
   type ScoreOptions,
@@ -1265,6 +1266,7 @@ export function createDiary(ctx: DiaryContext) {
         choice_entries: choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t)),
         numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)),
         report: binaryReport(filter),
+        brier_interval: brierIntervalOf(scoredSet(filter)),
       };
     },
 

@@ -207,7 +207,7 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
         <TypedEntrySections hindsight={hindsight} includeHits={selection.includeHits} timeZone={timeZone} />
       </div>
       <aside className="hs-aside">
-        <CalibrationSummary report={report} subject={describeSelection(selection)} />
+        <CalibrationSummary report={report} brierInterval={hindsight.brier_interval} subject={describeSelection(selection)} />
       </aside>
     </div>
   );
