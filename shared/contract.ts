@@ -327,6 +327,8 @@ export interface ImportConflict {
 
 export interface DiaryInfo {
   question_count: number;
+  /** How many of the example diary's questions (loadDemo) are in the diary; removeDemo takes them out. */
+  example_questions: number;
   /** Where the diary file lives, for the about box; null in tests. */
   location: string | null;
   time_zone: string;
@@ -355,6 +357,7 @@ export const operations = {
   importText: importTextRequest,
   exportText: exportTextRequest,
   loadDemo: empty,
+  removeDemo: empty,
   score: scoreRequest,
   due: dueRequest,
   dueCount: dueRequest,
@@ -389,6 +392,11 @@ export interface Responses {
   importText: ImportResult;
   exportText: ExportedText;
   loadDemo: { added: number };
+  /**
+   * The example diary's questions taken out in one step, the user's own left as they are;
+   * one `undo` token per question removed (undo them newest first, like any several steps).
+   */
+  removeDemo: { removed: number; undo: string[] };
   score: Scorecard;
   due: DueList;
   dueCount: DueCount;
@@ -443,6 +451,8 @@ export interface Hindsight {
   numeric_surprise_count: number;
   /** The same filter's scorecard, for the calibration summary beside the entries. */
   report: ScoreReport;
+  /** 95 % interval around `report.brier`, exactly the Scorecard's `detail.brier_interval`; null with fewer than two scored. */
+  brier_interval: [number, number] | null;
 }
 
 export interface DueList {

@@ -97,12 +97,39 @@ export type FileForecast = z.output<typeof fileForecast>;
 export type FileReference = z.output<typeof fileReference>;
 export type FileResolutionChange = z.output<typeof fileResolutionChange>;
 
+/** How much of a title a message quotes; enough to find the record with the editor's search. */
+const TITLE_QUOTED = 60;
+
+/**
+ * What a message says to find a record by, after its place: its title in curly quotes
+ * (“Depot lease renewed”, the first 60 characters and "…" when longer), or, when the record
+ * has no title a message can show (missing, not text, blank, or with control characters),
+ * its id as `id "q7"`; nothing when it has neither.
+ */
+function recordLabel(record: unknown): string | null {
+  if (typeof record !== 'object' || record === null || Array.isArray(record)) return null;
+  const { title, id } = record as { title?: unknown; id?: unknown };
+  const shown = (text: unknown): string | null =>
+    typeof text === 'string' && text.trim() !== '' && v.controlCharacterProblem(text, 'one') === null ? text.trim() : null;
+  const t = shown(title);
+  if (t !== null) {
+    const chars = [...t];
+    return `“${chars.length > TITLE_QUOTED ? `${chars.slice(0, TITLE_QUOTED).join('').trimEnd()}…` : t}”`;
+  }
+  const i = shown(id);
+  return i === null ? null : `id "${i}"`;
+}
+
 /**
  * How messages name question record `index` of a file: counted as people count, with the
- * index a program uses beside it ("Question 2 (questions[1])").
+ * index a program uses beside it, then — given the record — its title (or else its id), so
+ * the user can find it in the file: "Question 2 (questions[1], “Depot lease renewed”)",
+ * "Question 4 (questions[3], id "q7")", or "Question 2 (questions[1])" for a record with
+ * neither. docs/diary-file.md states the form.
  */
-export function questionRecordName(index: number): string {
-  return `Question ${index + 1} (questions[${index}])`;
+export function questionRecordName(index: number, record?: unknown): string {
+  const label = record === undefined ? null : recordLabel(record);
+  return `Question ${index + 1} (questions[${index}]${label === null ? '' : `, ${label}`})`;
 }
 
 // The same rules and messages as the API's updateSettings; keys Forelog does not know are ignored.
@@ -378,12 +405,12 @@ function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: numb
   if (!r.success) {
     const issue = r.error.issues[0]!;
     const field = v.formatPath(issue.path) || '(record)';
-    throw new DiaryFileError(`${questionRecordName(index)} is not valid: field ${field}: ${v.issueReason(issue, true)}${where}. Nothing was imported.`, index, field);
+    throw new DiaryFileError(`${questionRecordName(index, raw)} is not valid: field ${field}: ${v.issueReason(issue, true)}${where}. Nothing was imported.`, index, field);
   }
   if (r.data.id !== undefined) {
     if (ids.has(r.data.id)) {
       throw new DiaryFileError(
-        `${questionRecordName(index)} is not valid: field id: "${r.data.id}" is used by an earlier record${where}. Nothing was imported.`,
+        `${questionRecordName(index, raw)} is not valid: field id: "${r.data.id}" is used by an earlier record${where}. Nothing was imported.`,
         index,
         'id',
       );
@@ -440,6 +467,7 @@ function unreadable(err: JsonStreamError): DiaryFileError {
  */
 export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   const seen = { format: false, version: false, questions: false };
+  let version: unknown;
   const ids = new Set<string>();
   try {
     for (const part of readObjectStream(chunks, { streamed: 'questions', maxDepth: v.MAX_NESTING })) {
@@ -449,9 +477,14 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
       else if (part.key === 'format') {
         checkFormat(part.value);
         seen.format = true;
+        if (seen.version) checkVersion(version);
       } else if (part.key === 'version') {
-        checkVersion(part.value);
+        // Judged once the file is known to be a diary: another program's JSON with a
+        // "version" of its own ("1.0.0" in a package.json) is "not a Forelog diary file",
+        // not a diary from a newer Forelog.
+        version = part.value;
         seen.version = true;
+        if (seen.format) checkVersion(version);
       } else if (part.key === 'settings') {
         const settings = readSettings(part.value);
         if (settings) yield { kind: 'settings', settings };
@@ -462,6 +495,7 @@ export function* readDiaryText(chunks: Iterable<string>): Generator<DiaryItem> {
   }
   if (!seen.format) checkFormat(undefined);
   if (!seen.version) checkVersion(undefined);
+  // (A version seen before the format was checked when the format came.)
   if (!seen.questions) throw questionsNotAList();
 }
 

@@ -258,6 +258,10 @@ export interface QuestionSummary {
   forecast_count: number;
   status: QuestionStatus;
   outcome: AnyOutcome | null;
+  /** A choice question resolved to an option: its index in `options`; otherwise null. */
+  resolved_option: number | null;
+  /** A numeric question resolved to a value: the value (a `YYYY-MM-DD` text for dates); otherwise null. */
+  resolved_value: NumericValue | null;
   /** Event-by-deadline forecast left well above its glide path for longer than its check-in cadence. */
   stale: boolean;
 }

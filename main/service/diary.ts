@@ -56,6 +56,7 @@ import {
   computeNumericReport,
   computeScoreReport,
   computeScorecardDetail,
+  brierIntervalOf,
   isStale,
   prepareScoredSet,
   type ScoreOptions,
@@ -267,6 +268,15 @@ export function createDiary(ctx: DiaryContext) {
     });
   }
 
+  /** The ids of the example diary's questions (they are fixed: "demo-…"), read once. */
+  let exampleIdList: string[] | null = null;
+  function exampleIds(): string[] {
+    exampleIdList ??= ((ctx.demo(now()) as { questions?: { id?: unknown }[] }).questions ?? [])
+      .map((q) => q.id)
+      .filter((id): id is string => typeof id === 'string');
+    return exampleIdList;
+  }
+
   function requireQuestionRow(id: string): qs.QuestionRow {
     const row = qs.questionRow(write, id);
     if (!row) throw notFound('question', id);
@@ -379,11 +389,11 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   /** The place of a record in its file, as its error messages name it. */
-  function recordError(item: { index: number; row?: number }, code: ApiError['code'], column: string, reason: string): ApiError {
+  function recordError(item: { index: number; row?: number; question: FileQuestion }, code: ApiError['code'], column: string, reason: string): ApiError {
     if (item.row !== undefined) {
       return new ApiError(code, `Row ${item.row}, column ${column}: ${reason}. Nothing was imported.`, [`${column}: ${reason}`]);
     }
-    return new ApiError(code, `${questionRecordName(item.index)} is not valid: field ${column}: ${reason}. Nothing was imported.`, [
+    return new ApiError(code, `${questionRecordName(item.index, item.question)} is not valid: field ${column}: ${reason}. Nothing was imported.`, [
       `questions[${item.index}].${column}: ${reason}`,
     ]);
   }
@@ -519,7 +529,7 @@ export function createDiary(ctx: DiaryContext) {
               );
             }
             if (err instanceof ApiError) {
-              throw new ApiError(err.code, `${questionRecordName(item.index)} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
+              throw new ApiError(err.code, `${questionRecordName(item.index, q)} is not valid: ${err.fields[0] ?? err.message}. Nothing was imported.`, err.fields);
             }
             throw err;
           }
@@ -824,7 +834,12 @@ export function createDiary(ctx: DiaryContext) {
   }
 
   const handlers: Handlers = {
-    diaryInfo: () => ({ question_count: qs.questionCount(read), location: store.path, time_zone: settings().time_zone }),
+    diaryInfo: () => ({
+      question_count: qs.questionCount(read),
+      example_questions: exampleIds().filter((id) => qs.questionRow(read, id) !== undefined).length,
+      location: store.path,
+      time_zone: settings().time_zone,
+    }),
 
     listQuestions,
 
@@ -1113,6 +1128,18 @@ export function createDiary(ctx: DiaryContext) {
       return importParsed(ctx.demo(now()), { onlyIntoEmpty: notEmpty });
     },
 
+    removeDemo: () => {
+      // Each example question goes as deleteQuestion takes one, so each comes back with its own undo.
+      const undo: string[] = [];
+      transact(() => {
+        for (const id of exampleIds()) {
+          if (qs.questionRow(write, id) === undefined) continue;
+          undo.push(tracked('deleteQuestion', id, () => qs.deleteQuestionRow(write, id)));
+        }
+      });
+      return { removed: undo.length, undo };
+    },
+
     due: (req) => {
       const s = settings();
       const at = req.at !== undefined ? ms(req.at) : now();
@@ -1245,6 +1272,7 @@ export function createDiary(ctx: DiaryContext) {
         numeric_surprises: numeric.entries,
         numeric_surprise_count: numeric.count,
         report: binaryReport(filter),
+        brier_interval: brierIntervalOf(scoredSet(filter)),
       };
     },
 

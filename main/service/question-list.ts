@@ -93,6 +93,8 @@ interface PageRow {
   base_rate: number | null;
   checkin_days: number | null;
   outcome: AnyOutcome | null;
+  resolved_option: number | null;
+  resolved_value: number | null;
   last_p: number | null;
   last_at: number | null;
   status: number;
@@ -228,7 +230,7 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
         (
           read
             .prepare(
-              `SELECT q.id, q.title, q.type, q.unit, q.value_kind, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome, f.p AS last_p, f.at AS last_at
+              `SELECT q.id, q.title, q.type, q.unit, q.value_kind, q.kind, q.opened_at, q.closes_at, q.time_zone, q.base_rate, q.checkin_days, r.outcome, r.option AS resolved_option, r.value AS resolved_value, f.p AS last_p, f.at AS last_at
                FROM questions q LEFT JOIN resolutions r ON r.question_id = q.id
                LEFT JOIN forecasts f ON f.seq = (SELECT seq FROM forecasts WHERE question_id = q.id ORDER BY at DESC, seq DESC LIMIT 1)
                WHERE q.id IN (SELECT value FROM json_each(?))`,
@@ -266,6 +268,8 @@ export function listQuestionPage(ctx: ListContext, req: ValidRequest<'listQuesti
           forecast_count: counts.get(r.id) ?? 0,
           status: QUESTION_STATUSES[r.status]!,
           outcome: r.outcome,
+          resolved_option: r.type === 'choice' && r.outcome === 'option' ? r.resolved_option : null,
+          resolved_value: r.type === 'numeric' && r.outcome === 'value' && r.resolved_value !== null ? fromStoredValue(r.resolved_value, kind) : null,
           stale: !r.outcome && ctx.stale(r, r.last_p !== null && r.last_at !== null ? { p: r.last_p, at: r.last_at } : null),
         };
       });

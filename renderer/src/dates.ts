@@ -218,13 +218,73 @@ export function formatDateText(date: { year: number; month: number; day: number 
 
 export type Read<T> = { ok: true; value: T } | { ok: false; error: string };
 
+const nameMaps = new Map<string, { months: Map<string, number>; weekdays: Set<string> }>();
+
 /**
- * A date typed in the locale's order ("31/03/2026" in the UK), or as ISO "2026-03-31".
- * The year must have four digits: "03/04/26" could be read three ways.
+ * The month and weekday names a date box reads, lower case without a final point: the
+ * locale's own short and long ones ("nov", "november", "sept") and the English ones.
+ */
+function dateNames(locale: string): { months: Map<string, number>; weekdays: Set<string> } {
+  let names = nameMaps.get(locale);
+  if (!names) {
+    const months = new Map<string, number>();
+    const weekdays = new Set<string>();
+    const plain = (text: string) => text.toLowerCase().replace(/\.$/, '');
+    for (const loc of [locale, 'en-GB', 'en-US']) {
+      for (const style of ['short', 'long'] as const) {
+        const month = new Intl.DateTimeFormat(loc, { month: style, timeZone: 'UTC' });
+        for (let m = 0; m < 12; m++) months.set(plain(month.format(Date.UTC(2026, m, 15))), m + 1);
+        const weekday = new Intl.DateTimeFormat(loc, { weekday: style, timeZone: 'UTC' });
+        for (let d = 0; d < 7; d++) weekdays.add(plain(weekday.format(Date.UTC(2026, 0, 4 + d))));
+      }
+    }
+    names = { months, weekdays };
+    nameMaps.set(locale, names);
+  }
+  return names;
+}
+
+/**
+ * A date written with its month's name, as the window itself writes dates ("20 Nov 2026",
+ * "Nov 20, 2026", "Fri, 20 Nov 2026", "20th November 2026"); null when `text` is not one.
+ */
+function namedMonthDate(text: string, locale: string): { year: number; month: number; day: number } | null {
+  const { months, weekdays } = dateNames(locale);
+  const tokens = text.toLowerCase().match(/\p{L}+\.?|\d+/gu) ?? [];
+  let month: number | undefined;
+  const numbers: string[] = [];
+  for (const token of tokens) {
+    if (/^\d/.test(token)) numbers.push(token);
+    else {
+      const word = token.replace(/\.$/, '');
+      const m = months.get(word);
+      if (m !== undefined && month === undefined) month = m;
+      else if (!weekdays.has(word) && !['st', 'nd', 'rd', 'th'].includes(word)) return null;
+    }
+  }
+  if (month === undefined || numbers.length !== 2) return null;
+  const yearText = numbers.find((n) => n.length === 4);
+  const dayText = numbers.find((n) => n.length <= 2);
+  return yearText && dayText ? { year: Number(yearText), month, day: Number(dayText) } : null;
+}
+
+/**
+ * A date typed in the locale's order ("31/03/2026" in the UK), as ISO "2026-03-31", or with
+ * its month's name as the window writes dates ("31 Mar 2026", "Mar 31, 2026"), so a date
+ * copied from a list or a heading goes back into a date box. The year must have four
+ * digits: "03/04/26" could be read three ways.
  */
 export function parseDateText(text: string, locale = userLocale()): Read<{ year: number; month: number; day: number }> {
   const { order, placeholder } = dateOrder(locale);
   const trimmed = text.trim();
+  if (/\p{L}/u.test(trimmed)) {
+    const named = namedMonthDate(trimmed, locale);
+    if (!named) return { ok: false, error: `write the date as ${placeholder}` };
+    if (named.day < 1 || named.day > daysInMonth(named.year, named.month)) {
+      return { ok: false, error: `that month has no day ${named.day}; write the date as ${placeholder}` };
+    }
+    return { ok: true, value: named };
+  }
   const iso = /^(\d{4})-(\d{1,2})-(\d{1,2})$/.exec(trimmed);
   const groups = iso ? [iso[1]!, iso[2]!, iso[3]!] : trimmed.split(/[^0-9]+/).filter(Boolean);
   const keys: DateOrder['order'] = iso ? ['year', 'month', 'day'] : order;
@@ -375,7 +435,9 @@ export function dayRange(fromText: string, toText: string, timeZone: string): Da
  * A time as the diary writes it in its messages for every caller ("2027-03-13 17:00
  * Europe/London", shared/time-rules.ts `onClock`): a date, a 24-hour wall time and its zone.
  */
-const ON_CLOCK = /\b(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2}) ([A-Za-z_]+(?:\/[A-Za-z0-9_+-]+)+|UTC)\b/g;
+// Seconds appear when the time has them (a question opened "now" from a form): shown, like
+// every time in the window, to the minute.
+const ON_CLOCK = /\b(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2})(?::\d{2})? ([A-Za-z_]+(?:\/[A-Za-z0-9_+-]+)+|UTC)\b/g;
 
 /**
  * The diary's message with its times written as every other date in the window ("13 Mar

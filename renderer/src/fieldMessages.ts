@@ -8,7 +8,7 @@
 import type { ZodType } from 'zod';
 import { describeIssues } from '../../shared/validation';
 import { fieldReasons } from './api/errors';
-import { clockTimesAsShown } from './dates';
+import { clockTimesAsShown, userLocale } from './dates';
 
 export interface FieldPlacement {
   /** Field names the form shows (request paths, e.g. "closes_at", "first_forecast.p"). */
@@ -40,9 +40,9 @@ export function fieldName(path: string, labels: Readonly<Record<string, string>>
  * "This is not a valid tag…"); the diary's times ("2026-09-24 08:48 Europe/London") are
  * written as the window writes dates.
  */
-export function plainReason(reason: string, labels: Readonly<Record<string, string>> = {}): string {
+export function plainReason(reason: string, labels: Readonly<Record<string, string>> = {}, locale = userLocale()): string {
   // Times first, so a zone name's underscore ("America/New_York") is not read as an internal name.
-  let text = clockTimesAsShown(reason).replace(/\s*\(([a-z]+(?:_[a-z]+)+)\)/g, '');
+  let text = clockTimesAsShown(reason, locale).replace(/\s*\(([a-z]+(?:_[a-z]+)+)\)/g, '');
   text = text.replace(SNAKE, (name) => (labels[name] ? `“${labels[name]}”` : words(name))).trim();
   if (/^(is|lists|has|was)\b/.test(text)) text = `This ${text}`;
   return text.charAt(0).toUpperCase() + text.slice(1);

@@ -13,6 +13,17 @@ function clampInterval(iv: [number, number] | null, low: number, high: number): 
 }
 
 /**
+ * The 95 % interval around the mean final Brier score of a scored set, as the Scorecard shows
+ * it (`brier_interval` below): normal approximation, clamped to [0, 1]; null with fewer than
+ * two questions. Hindsight shows the same interval beside the same figure.
+ */
+export function brierIntervalOf(set: ScoredSet): [number, number] | null {
+  const briers = new Float64Array(set.n);
+  for (let i = 0; i < set.n; i++) briers[i] = (set.p[i]! - set.o[i]!) ** 2;
+  return clampInterval(normalMeanInterval(briers), 0, 1);
+}
+
+/**
  * Per-question rows sorted by window end (ties by id), the cumulative mean Brier score
  * by window end (questions sharing a window end make one point), ROC curve points, and
  * 95 % normal-approximation intervals for the mean Brier and log scores (mean ± 1.96·sd/√n,
@@ -46,7 +57,7 @@ export function computeScorecardDetail(questions: readonly ScoringQuestion[], op
       brier: (p[i]! - o[i]!) ** 2,
     };
   }
-  const brierInterval = normalMeanInterval(rows.map((r) => r.brier));
+  const brierInterval = brierIntervalOf(set);
   rows.sort((a, b) => a.T - b.T || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
 
   const running: RunningBrierPoint[] = [];
@@ -62,7 +73,7 @@ export function computeScorecardDetail(questions: readonly ScoringQuestion[], op
     per_question: rows,
     running_brier: running,
     roc: n === 0 ? [] : rocCurve(p, o),
-    brier_interval: clampInterval(brierInterval, 0, 1),
+    brier_interval: brierInterval,
     log_interval: clampInterval(normalMeanInterval(logLoss), 0, Infinity),
     auc_n: { yes, no: n - yes },
   };

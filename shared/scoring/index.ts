@@ -5,7 +5,7 @@
 export type * from './types';
 export { computeScoreReport } from './report';
 export { CONFIDENT_THRESHOLD, confidentVerdict } from './confidence';
-export { computeScorecardDetail } from './detail';
+export { brierIntervalOf, computeScorecardDetail } from './detail';
 export {
   forEachScored,
   prepareScoredSet,

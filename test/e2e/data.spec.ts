@@ -42,7 +42,7 @@ test('export in three formats, import a file back, refuse a bad one', async ({ b
     const ics = await download(/calendar/i);
     expect(ics.text.startsWith('BEGIN:VCALENDAR\r\nVERSION:2.0\r\n')).toBe(true);
 
-    // A file with a bad record in the middle: refused whole, the record and field named.
+    // A file with a bad record in the middle: refused whole, the record (by its title too, to find it in the file) and field named.
     const input = section.getByLabel('Import a diary file…');
     const bad = {
       format: 'forelog-diary',
@@ -53,7 +53,7 @@ test('export in three formats, import a file back, refuse a bad one', async ({ b
       ],
     };
     await input.setInputFiles({ name: 'bad.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) });
-    await expect(section.getByText(/bad\.json: Question 2 \(questions\[1\]\) is not valid: field forecasts\[0\]\.p/)).toBeVisible();
+    await expect(section.getByText(/bad\.json: Question 2 \(questions\[1\], “Broken”\) is not valid: field forecasts\[0\]\.p/)).toBeVisible();
 
     // A good CSV adds its questions.
     const one = 'title,closes_at,forecast_at,p\r\nImported from a spreadsheet,2031-01-01T00:00:00Z,2030-01-01T00:00:00Z,0.4\r\n';

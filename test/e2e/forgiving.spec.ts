@@ -168,6 +168,9 @@ test('a correction keeps the earlier resolution in the history shown on the ques
     await toast(page, 'Resolution corrected to No.').getByRole('button', { name: 'Undo' }).click();
     await expect(page.getByTestId('resolution-history')).toHaveCount(0);
     await expect(page.getByRole('heading', { name: /^Resolved Yes/ })).toBeVisible();
+    // Two undos of one question say the same thing: one message, not a stack of twins.
+    // Counted once, not waited for: the first toast would go by itself after a few seconds.
+    expect(await toast(page, `Undone: “${TITLES.corrected}” is back as it was.`).count()).toBe(1);
     const q = await call<Question>('getQuestion', { id: ids.corrected });
     expect(q.resolution?.note).toBe('Published on the website');
     expect(q.resolution_history).toEqual([]);

@@ -103,7 +103,7 @@ test('at 80% the entries are the scorecard’s confident misses, each with its n
   const { page } = app;
   await openHindsight(page);
 
-  const { report } = await call<Scorecard>(server(), 'score', {});
+  const { report, detail } = await call<Scorecard>(server(), 'score', {});
   expect(report.confident_misses.length, 'the example diary has confident misses to review').toBeGreaterThan(0);
   const entries = page.getByTestId('hindsight-entry');
   await expect(entries).toHaveCount(report.confident_misses.length);
@@ -137,6 +137,9 @@ test('at 80% the entries are the scorecard’s confident misses, each with its n
   await expect(page.getByTestId('hindsight-count')).toContainText(`among n = ${report.scored} scored questions`);
   await expect(page.getByTestId('scored-n')).toHaveText(`n = ${report.scored}`);
   await expect(page.getByTestId('brier')).toHaveText(report.brier!.toFixed(3));
+  // …with the Scorecard's own interval beside it, so a Brier of few questions reads as the rough guess it is.
+  const [low, high] = detail.brier_interval!;
+  await expect(page.getByTestId('brier-interval')).toHaveText(`95% interval ${low.toFixed(3)}–${high.toFixed(3)}`);
   await expect(page.getByTestId('calibration-bins').locator('tbody tr')).toHaveCount(report.bins.length);
   const { slope, intercept, reason } = report.calibration;
   if (slope === null || intercept === null) {

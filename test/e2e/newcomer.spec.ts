@@ -107,3 +107,109 @@ test('saving a choice forecast unchanged says it was kept and the check-in is do
   await expect(dialog).toBeHidden();
   await expect(page.getByTestId('toast').filter({ hasText: 'Kept at Alder 60%; check-in done.' })).toBeVisible();
 });
+
+test('a value pasted with its unit or spaces goes into a number box as the number, and text that is no number is refused with a word', async () => {
+  const { page } = app;
+  await page.context().grantPermissions(['clipboard-read', 'clipboard-write']);
+  const paste = async (box: ReturnType<typeof page.getByRole>, text: string) => {
+    await page.evaluate((t) => navigator.clipboard.writeText(t), text);
+    await box.focus();
+    await page.keyboard.press('ControlOrMeta+V');
+  };
+  await openNewQuestion(page, server().url, {
+    title: 'Pallets through Westgate in the quarter',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'numeric',
+    unit: 'pallets',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  const low = dialog.getByRole('spinbutton', { name: /^P10/ });
+  const mid = dialog.getByRole('spinbutton', { name: /^P50/ });
+  const high = dialog.getByRole('spinbutton', { name: /^P90/ });
+  // Copied from a report: the unit the box already shows, a thousands comma, spaces.
+  await paste(low, '1,500 pallets');
+  await expect(low).toHaveValue('1500');
+  await expect(dialog.getByTestId('comma-warning')).toContainText('so this reads as 1500');
+  await paste(mid, ' 1800 ');
+  await expect(mid).toHaveValue('1800');
+  // Not a number: nothing goes in, and the box says why instead of "Enter a value" later.
+  await paste(high, 'about 2100');
+  await expect(high).toHaveValue('');
+  await expect(dialog.getByTestId('paste-warning')).toHaveText('⚠ Not pasted: “about 2100” is not a number. Type or paste digits only, e.g. 2100 or 12.5.');
+  await expect(high).toHaveAccessibleDescription(/Not pasted: “about 2100” is not a number/);
+  await paste(high, '2,100 Pallets');
+  await expect(high).toHaveValue('2100');
+  await expect(dialog.getByTestId('paste-warning')).toHaveCount(0);
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByTestId('revision-row')).toHaveCount(1);
+  await expect(page.getByTestId('revision-row').getByRole('cell')).toContainText(['1,500 pallets', '1,800 pallets', '2,100 pallets']);
+});
+
+test('a resolution dated before the question opened is refused in the window’s words: the opening as a date of the window, no internal names', async () => {
+  const { page } = app;
+  await openNewQuestion(page, server().url, {
+    title: 'Depot lease renewed before the spring',
+    // Opened from a form "now": the opening has seconds.
+    opened_at: '2026-11-23T14:50:46.120Z',
+    closes_at: '2027-03-31T16:00:00Z',
+    time_zone: 'Europe/London',
+    first_forecast: { p: 0.6, at: '2026-11-23T14:50:46.120Z' },
+  });
+  await page.getByRole('button', { name: 'Resolve' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Resolve the question' });
+  await dialog.getByRole('radio', { name: 'No', exact: true }).check();
+  await dialog.getByRole('textbox', { name: 'Resolved at', exact: true }).fill('01/11/2026');
+  await dialog.getByRole('button', { name: 'Resolve', exact: true }).click();
+  const message = dialog.getByTestId('field-error');
+  await expect(message).toHaveText(
+    "⚠ Must not be before the question opened (23 Nov 2026, 14:50 GMT); if it happened earlier, first move the question's opening time back",
+  );
+  await expect(dialog).not.toContainText('opened_at');
+  await expect(dialog).not.toContainText('2026-11-23');
+});
+
+test('a date copied as the window writes it (“1 Nov 2026”, “Nov 1, 2026”) goes back into a date box', async () => {
+  const { page } = app;
+  await page.goto(`${server().url.split('?')[0]}#/scorecard`);
+  const from = page.getByRole('textbox', { name: 'From', exact: true });
+  await from.fill('1 Nov 2026');
+  await from.press('Tab');
+  await expect(page).toHaveURL(/[?&]from=2026-11-01(&|$)/);
+  await expect(page.getByTestId('field-error')).toHaveCount(0);
+  const to = page.getByRole('textbox', { name: 'To', exact: true });
+  await to.fill('Fri, 20 Nov 2026');
+  await to.press('Tab');
+  await expect(page).toHaveURL(/[?&]to=2026-11-20(&|$)/);
+  await expect(page.getByTestId('field-error')).toHaveCount(0);
+});
+
+test('the Questions list says how a choice or numeric question resolved, as it does Yes or No', async () => {
+  const { page } = app;
+  const url = server().url;
+  const make = (request: object) => apiCall<{ id: string }>(url, 'createQuestion', { opened_at: '2026-10-01T09:00:00Z', closes_at: '2026-11-20T16:00:00Z', time_zone: 'Europe/London', ...request });
+  const supplier = await make({ title: 'Which haulier wins the Eastgate lane?', type: 'choice', options: ['Kestrowe', 'Ambledene'], first_forecast: { probs: [0.7, 0.3], at: '2026-10-01T09:00:00Z' } });
+  const long = 'Kestrowe Freight & Warehousing International Holdings Limited';
+  const partner = await make({ title: 'Which partner takes the northern corridor?', type: 'choice', options: [long, 'Other'], first_forecast: { probs: [0.6, 0.4], at: '2026-10-01T09:00:00Z' } });
+  await apiCall(url, 'resolveQuestion', { id: partner.id, outcome: 'option', option: 0, at: '2026-11-21T09:00:00Z' });
+  await apiCall(url, 'resolveQuestion', { id: supplier.id, outcome: 'option', option: 1, at: '2026-11-21T09:00:00Z' });
+  const pallets = await make({ title: 'Pallets through Eastgate in November', type: 'numeric', unit: 'pallets', value_kind: 'number', levels: [0.1, 0.5, 0.9], first_forecast: { quantiles: [1500, 1800, 2100], at: '2026-10-01T09:00:00Z' } });
+  await apiCall(url, 'resolveQuestion', { id: pallets.id, outcome: 'value', value: 2940, at: '2026-11-21T09:00:00Z' });
+  await page.goto(`${url.split('?')[0]}#/questions`);
+  // Added over the API while the page was open: load it afresh.
+  await page.reload();
+  await page.setViewportSize({ width: 1024, height: 860 });
+  const row = (title: string) => page.getByTestId('question-table').getByRole('row').filter({ has: page.getByRole('link', { name: title }) });
+  await expect(row('Which haulier wins the Eastgate lane?')).toContainText('Resolved · Ambledene');
+  await expect(row('Pallets through Eastgate in November')).toContainText('Resolved · 2,940 pallets');
+  // A long option wraps inside its status cell instead of running over the next column.
+  await expect(row('Which partner takes the northern corridor?')).toContainText(`Resolved · ${long}`);
+  for (const width of [1440, 1024]) {
+    await page.setViewportSize({ width, height: 860 });
+    const inside = await row('Which partner takes the northern corridor?').locator('.status-pill .badge').evaluate((badge) => badge.scrollWidth <= badge.clientWidth);
+    expect(inside, `at ${width} wide`).toBe(true);
+  }
+});

@@ -78,6 +78,12 @@ test('choice and numeric sections show the diary’s own figures, with sample si
   await expect(numeric.getByTestId('coverage-reading').first()).toContainText(`Your 80% ranges caught the outcome ${coverage.inside} times in ${coverage.n}`);
   await expect(numeric.getByTestId('headline-numeric-coverage-n')).toHaveText(`n = ${coverage.n}`);
   await expect(numeric.getByTestId('numeric-questions').getByRole('row')).toHaveCount(card.report.numeric.scored + 1);
+  // Each question's WIS and interval score are written one way: two decimals, in the question's unit.
+  for (const row of card.numeric_detail.per_question) {
+    const cells = numeric.getByTestId('numeric-questions').getByRole('row').filter({ has: page.getByRole('rowheader', { name: row.title, exact: true }) }).getByRole('cell');
+    await expect(cells.nth(2)).toHaveText(`${row.wis.toFixed(2)} weeks`);
+    await expect(cells.nth(3)).toHaveText(`${row.interval_score!.toFixed(2)} weeks (80%)`);
+  }
   await expect(numeric.getByTestId('landed-table')).toContainText('below P10');
   for (const scheme of ['light', 'dark'] as const) {
     await page.emulateMedia({ colorScheme: scheme });

@@ -132,7 +132,7 @@ test('import --merge skips what is there unchanged, and a conflict is one line t
   const { db, file } = londonDiary();
   const plain = forelog('import', file, '--db', db);
   assert.equal(plain.status, 1);
-  assert.match(plain.stderr, /^forelog: Question 1 \(questions\[0\]\) is not valid: field id: "checkin" is already in this diary \(was this file imported before\? Import it with merge/);
+  assert.match(plain.stderr, /^forelog: Question 1 \(questions\[0\], “Harbour bridge reopens”\) is not valid: field id: "checkin" is already in this diary \(was this file imported before\? Import it with merge/);
   const merged = forelog('import', '--merge', file, '--db', db);
   assert.equal(merged.status, 0, merged.stderr);
   assert.equal(merged.stdout, `Imported 0 questions into ${db}; skipped 2 questions already in it unchanged.\n`);

@@ -57,7 +57,7 @@ test('import is all-or-nothing: a bad record in the middle names itself and leav
   const r = forelog('import', bad, '--db', db);
   assert.equal(r.status, 1);
   assert.equal(r.stderr.trim().split('\n').length, 1, 'one line on stderr');
-  assert.match(r.stderr, /Question 2 \(questions\[1\]\) is not valid: field forecasts\[0\]\.p: must be a probability between 0 and 1/);
+  assert.match(r.stderr, /Question 2 \(questions\[1\], “Question 3”\) is not valid: field forecasts\[0\]\.p: must be a probability between 0 and 1/);
   assert.equal(forelog('export', '--db', db).stdout, before, 'content unchanged');
 });
 

@@ -38,3 +38,30 @@ test('the example diary fills the choice and numeric sections of the Scorecard',
   assert.deepEqual([wide.id, wide.value, wide.low, wide.high, wide.distance, wide.unit], ['demo-norrowby-routing-weeks', 29, 12, 21, 8, 'weeks']);
   assert.ok(wide.forecasts.every((f: { note: string }) => f.note.length > 0), 'the notes of the time come with it');
 });
+
+test('the example diary is removed in one step, the user’s own questions kept, and every removed question comes back with undo', async () => {
+  const d = openTestDiary({ timeZone: 'Europe/London' });
+  const { added } = await d.call('loadDemo', {});
+  // A newcomer tries the example out, then writes a call of their own.
+  await d.call('addForecast', { question_id: 'demo-norrowby-phase2-sow', p: 0.55, note: 'trying the revise form' });
+  const own = await d.call('createQuestion', { title: 'Quellmoor signs phase 2', closes_at: '2031-03-31T16:00:00Z', first_forecast: { p: 0.6 } });
+  const first = await d.call('diaryInfo', {});
+  assert.equal(first.question_count, added + 1);
+  assert.equal(first.example_questions, added);
+  const before = d.service.diary.exportText('json').text;
+
+  const { removed, undo } = await d.call('removeDemo', {});
+  assert.equal(removed, added);
+  assert.equal(undo.length, added);
+  const info = await d.call('diaryInfo', {});
+  assert.equal(info.question_count, 1);
+  assert.equal(info.example_questions, 0);
+  assert.deepEqual((await d.call('listQuestions', {})).questions.map((q: { id: string }) => q.id), [own.id]);
+  // Nothing left to remove: an answer, not a refusal.
+  assert.deepEqual(await d.call('removeDemo', {}), { removed: 0, undo: [] });
+
+  // Undone newest first, the diary is exactly as it was.
+  for (const token of [...undo].reverse()) await d.call('undo', { token });
+  assert.equal(d.service.diary.exportText('json').text, before);
+  assert.equal((await d.call('diaryInfo', {})).example_questions, added);
+});

@@ -118,6 +118,10 @@ test('format, version and questions are checked wherever they stand; the records
   const many = Array.from({ length: 30 }, (_, i) => question(i + 1));
   await refusesText(d, JSON.stringify({ questions: many, version: 1, format: 'something-else' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
   await refusesText(d, JSON.stringify({ questions: many, format: 'forelog-diary' }), 'This diary file has no "version"; this Forelog reads version 1 (written "version": 1). Nothing was imported.');
+  // Another program's JSON with a version of its own is not a diary, not one from a newer Forelog.
+  await refusesText(d, JSON.stringify({ name: 'quarterly-model', version: '1.0.0' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
+  await refusesText(d, JSON.stringify({ version: 2, format: 'forelog-diary', questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
+  await refusesText(d, JSON.stringify({ format: 'forelog-diary', version: 2, questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
   await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[") Nothing was imported.');
@@ -131,10 +135,10 @@ test('the first bad record is named with its index, line and field, after thousa
   const bad = question(2500, { forecasts: [{ at: '2026-01-05T09:05:00Z', p: 1.5 }] });
   const text = JSON.stringify({ ...DIARY, questions: [...good, bad, question(2501)] }, null, 2);
   const line = text.split('\n').findIndex((l) => l.includes('"id": "q2500"'));
-  await refusesText(d, text, `Question 2501 (questions[2500]) is not valid: field forecasts[0].p: must be a probability between 0 and 1 (the record starts on line ${line}). Nothing was imported.`);
+  await refusesText(d, text, `Question 2501 (questions[2500], “Question 2500”) is not valid: field forecasts[0].p: must be a probability between 0 and 1 (the record starts on line ${line}). Nothing was imported.`);
   // An id already in the diary is found by the insert itself, and named the same way.
   const again = JSON.stringify({ ...DIARY, questions: [question(90_000), buildDemoDiary(d.clock.now).questions[3]] });
-  await refusesText(d, again, /^Question 2 \(questions\[1\]\) is not valid: field id: ".+" is already in this diary \(was this file imported before\? Import it with merge to add only the questions that are new\)\. Nothing was imported\.$/, 'conflict');
+  await refusesText(d, again, /^Question 2 \(questions\[1\], “.+”\) is not valid: field id: ".+" is already in this diary \(was this file imported before\? Import it with merge to add only the questions that are new\)\. Nothing was imported\.$/, 'conflict');
 });
 
 test('numbers read exactly as JSON.parse reads them, down to the last bit, through import and export', async () => {

@@ -46,6 +46,12 @@ test('confident misses come with the notes written at the time, in the scorecard
   assert.deepEqual(first.forecasts.map((f: { note: string }) => f.note), ['looks likely', 'sponsor confident']);
   assert.equal(first.resolution.note, 'resolved no');
   assert.equal(h.report.scored, 4);
+  // The Brier score's interval is the Scorecard's, for the whole selection and for a tag.
+  const { detail } = await d.call('score', {});
+  assert.ok(Array.isArray(h.brier_interval));
+  assert.deepEqual(h.brier_interval, detail.brier_interval);
+  const tagged = await d.call('hindsight', { tag: 'other' });
+  assert.deepEqual(tagged.brier_interval, (await d.call('score', { tag: 'other' })).detail.brier_interval);
 });
 
 test('hits on request, threshold adjustable, filtered by tag', async () => {

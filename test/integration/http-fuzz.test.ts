@@ -197,6 +197,7 @@ const VALID: { [K in OperationName]: (n: number) => Request<K> } = {
   importText: () => ({ format: 'json', text: smallDiary() as unknown as string }),
   exportText: (n) => ({ format: pick(['json', 'csv', 'ics'] as const, n) }),
   loadDemo: () => ({}),
+  removeDemo: () => ({}),
   score: () => ({ tag: 'fuzz', from: '2026-01-01', to: '2026-12-31T23:59:59Z', costs: { false_alarm: 1, miss: 2 } }),
   due: () => ({ at: '2026-06-01T12:00:00Z' }),
 

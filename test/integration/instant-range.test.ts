@@ -126,7 +126,7 @@ test('a diary file or CSV holding an instant outside the range is refused, namin
     });
   const json = await d.service.dispatch('importText', { format: 'json', text: file('9999-12-31T23:59:59.999-14:00') });
   assert.equal(json.ok, false);
-  if (!json.ok) assert.match(json.error.message, /Question 1 \(questions\[0\]\) .*field forecasts\[0\]\.at: must be between 1900 and 2199/);
+  if (!json.ok) assert.match(json.error.message, /Question 1 \(questions\[0\], “Far”\) is not valid: field forecasts\[0\]\.at: must be between 1900 and 2199/);
   const csv = [
     'title,opened_at,closes_at,forecast_at,p',
     `Far,2026-01-01T00:00:00Z,2027-01-01T00:00:00Z,${BEFORE},0.5`,
@@ -149,7 +149,7 @@ test('a file question closing at the first instant, with no opening time, is ref
   assert.equal(fromJson.ok, false);
   if (!fromJson.ok) {
     assert.equal(fromJson.error.code, 'invalid');
-    assert.match(fromJson.error.message, /Question 1 \(questions\[0\]\) is not valid: closes_at: must be after 1900-01-01T00:00:00.000Z when the question has no opened_at/);
+    assert.match(fromJson.error.message, /Question 1 \(questions\[0\], “First instant”\) is not valid: closes_at: must be after 1900-01-01T00:00:00.000Z when the question has no opened_at/);
   }
   const csv = ['title,closes_at', `First instant,${earliest}`].join('\r\n');
   const fromCsv = await d.service.dispatch('importText', { format: 'csv', text: csv });

@@ -130,41 +130,41 @@ test('a field of another type in a file is an error naming the record and the fi
   const cases: [object, string][] = [
     [
       { type: 'choice', title: 'Which?', options: ['A', 'B'], closes_at: iso(NOW + DAY), forecasts: [{ at: iso(NOW - DAY), p: 0.4 }] },
-      'Question 2 (questions[1]) is not valid: field forecasts[0].p: does not apply: a choice question takes probs, one probability per option',
+      'Question 2 (questions[1], “Which?”) is not valid: field forecasts[0].p: does not apply: a choice question takes probs, one probability per option',
     ],
     [
       { title: 'Yes or no', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'option', option: 0, at: iso(NOW - DAY) } },
-      'Question 2 (questions[1]) is not valid: field resolution.outcome: must be yes or no or void for a yes/no question (got option)',
+      'Question 2 (questions[1], “Yes or no”) is not valid: field resolution.outcome: must be yes or no or void for a yes/no question (got option)',
     ],
     [
       { type: 'numeric', title: 'How many?', value_kind: 'date', closes_at: iso(NOW + DAY), forecasts: [{ at: iso(NOW - DAY), quantiles: [1, 2, 3] }] },
-      "Question 2 (questions[1]) is not valid: field forecasts[0].quantiles[0]: must be a date YYYY-MM-DD (this question's values are dates), not 1",
+      "Question 2 (questions[1], “How many?”) is not valid: field forecasts[0].quantiles[0]: must be a date YYYY-MM-DD (this question's values are dates), not 1",
     ],
     [
       { type: 'numeric', title: 'How many?', unit: 'weeks', base_rate: 0.2, closes_at: iso(NOW + DAY), forecasts: [] },
-      'Question 2 (questions[1]) is not valid: field base_rate: applies to yes/no questions only; this is a numeric question',
+      'Question 2 (questions[1], “How many?”) is not valid: field base_rate: applies to yes/no questions only; this is a numeric question',
     ],
     [
       { type: 'choice', title: 'Which?', options: ['A', 'B'], closes_at: iso(NOW + DAY), forecasts: [{ at: iso(NOW - DAY), probs: [0.5, 0.4] }] },
-      'Question 2 (questions[1]) is not valid: field forecasts[0].probs: must sum to 100 %, they sum to 90 % (10 % short)',
+      'Question 2 (questions[1], “Which?”) is not valid: field forecasts[0].probs: must sum to 100 %, they sum to 90 % (10 % short)',
     ],
     [
       // A number written as text is not taken for a broken date: the value is meant as a number.
       { type: 'numeric', title: 'How many?', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'value', value: '5', at: iso(NOW - DAY) } },
-      'Question 2 (questions[1]) is not valid: field resolution.value: must be a number, or a date YYYY-MM-DD for a question about a date (got the text "5")',
+      'Question 2 (questions[1], “How many?”) is not valid: field resolution.value: must be a number, or a date YYYY-MM-DD for a question about a date (got the text "5")',
     ],
     [
       { type: 'numeric', title: 'How many?', closes_at: iso(NOW + DAY), forecasts: [{ at: iso(NOW - DAY), quantiles: ['1', '2', 'x'.repeat(5000)] }] },
-      'Question 2 (questions[1]) is not valid: field forecasts[0].quantiles[0]: must be a number, or a date YYYY-MM-DD for a question about a date (got the text "1")',
+      'Question 2 (questions[1], “How many?”) is not valid: field forecasts[0].quantiles[0]: must be a number, or a date YYYY-MM-DD for a question about a date (got the text "1")',
     ],
     [
       { type: 'numeric', title: 'When?', value_kind: 'date', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'value', value: '2026-02-30', at: iso(NOW - DAY) } },
-      'Question 2 (questions[1]) is not valid: field resolution.value: must be a real calendar date YYYY-MM-DD (got "2026-02-30")',
+      'Question 2 (questions[1], “When?”) is not valid: field resolution.value: must be a real calendar date YYYY-MM-DD (got "2026-02-30")',
     ],
     [
       // Written -1e400 in the file (JSON.stringify cannot): a number, too large to hold, not "not a number".
       { type: 'numeric', title: 'How many?', closes_at: iso(NOW + DAY), forecasts: [], resolution: { outcome: 'value', value: 'written -1e400', at: iso(NOW - DAY) } },
-      'Question 2 (questions[1]) is not valid: field resolution.value: must be a number, or a date YYYY-MM-DD for a question about a date: the one given is beyond about ±1.8e308, too large to hold',
+      'Question 2 (questions[1], “How many?”) is not valid: field resolution.value: must be a number, or a date YYYY-MM-DD for a question about a date: the one given is beyond about ±1.8e308, too large to hold',
     ],
   ];
   for (const [bad, message] of cases) {

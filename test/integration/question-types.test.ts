@@ -113,6 +113,18 @@ test('choice and numeric questions come back exactly as given, with their defaul
   assert.deepEqual(byId.get(c.id), { ...byId.get(c.id), type: 'choice', options: c.options, last_probs: [0.1, 0.2, 0.7], last_p: null, levels: null });
   assert.deepEqual(byId.get(n.id), { ...byId.get(n.id), type: 'numeric', unit: 'weeks', value_kind: 'number', levels: [0.1, 0.5, 0.9], last_quantiles: awkward, forecast_count: 2 });
   assert.deepEqual((byId.get(date.id) as { last_quantiles: unknown }).last_quantiles, date.forecasts[0]!.quantiles);
+  // Open questions have nothing resolved to show.
+  assert.equal(byId.get(c.id)!.resolved_option, null);
+  assert.equal(byId.get(n.id)!.resolved_value, null);
+  // Resolved, the list says to what: the option's index, the value (a date as its text).
+  await d.call('resolveQuestion', { id: c.id, outcome: 'option', option: 2, at: iso(NOW - 60_000) });
+  await d.call('resolveQuestion', { id: n.id, outcome: 'value', value: 16.5, at: iso(NOW - 60_000) });
+  await d.call('resolveQuestion', { id: date.id, outcome: 'value', value: '2026-07-24', at: iso(NOW - 60_000) });
+  const resolved = new Map<string, Record<string, unknown>>((await d.call('listQuestions', {})).questions.map((q: Record<string, unknown>) => [q.id as string, q]));
+  assert.deepEqual([resolved.get(c.id)!.resolved_option, resolved.get(c.id)!.resolved_value], [2, null]);
+  assert.deepEqual([resolved.get(n.id)!.resolved_option, resolved.get(n.id)!.resolved_value], [null, 16.5]);
+  assert.equal(resolved.get(date.id)!.resolved_value, '2026-07-24');
+  for (const id of [c.id, n.id, date.id]) await d.call('reopenQuestion', { id });
   // Search finds a choice question by one of its options too.
   const found = await d.call('listQuestions', { text: 'ambleDENE' });
   assert.deepEqual(found.questions.map((q: { id: string }) => q.id), [c.id]);

@@ -100,7 +100,7 @@ test('a written history imports as given (notes optional), and a bad entry is na
   const bad = { ...question, id: 'h2', resolution_history: [entry, { ...entry, change: 'edited' }] };
   await assert.rejects(
     d.call('importDiary', { diary: { format: 'forelog-diary', version: 1, questions: [bad] } }),
-    (err: unknown) => err instanceof ApiError && err.message === 'Question 1 (questions[0]) is not valid: field resolution_history[1].change: must be corrected or reopened. Nothing was imported.',
+    (err: unknown) => err instanceof ApiError && err.message === 'Question 1 (questions[0], “Corrected elsewhere”) is not valid: field resolution_history[1].change: must be corrected or reopened. Nothing was imported.',
   );
   // Deleting the question takes its history with it.
   await d.call('deleteQuestion', { id: 'h1' });

@@ -243,7 +243,7 @@ test('a request of the wrong shape, or missing a field, is told so in plain word
   assert.ok(!wrong.ok);
   if (!wrong.ok) assert.deepEqual(wrong.error.fields, ['title: must be text', 'closes_at: must be an ISO 8601 date-time text']);
   await assert.rejects(d.call('importText', { format: 'json', text: '{"format":"forelog-diary","version":1,"questions":[{"title":"No close","forecasts":[]}]}' }), {
-    message: 'Question 1 (questions[0]) is not valid: field closes_at: is required (it must be an ISO 8601 date-time text) (the record starts on line 1). Nothing was imported.',
+    message: 'Question 1 (questions[0], “No close”) is not valid: field closes_at: is required (it must be an ISO 8601 date-time text) (the record starts on line 1). Nothing was imported.',
   });
   const file = '{"format":"forelog-diary","version":1,"questions":[null]}';
   await assert.rejects(d.call('importText', { format: 'json', text: file }), {

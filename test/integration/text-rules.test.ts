@@ -90,7 +90,7 @@ test('diary files and CSV are held to the same text rules, naming the record or 
   });
   const json = await d.service.dispatch('importText', { format: 'json', text: file });
   assert.equal(json.ok, false);
-  if (!json.ok) assert.match(json.error.message, /Question 2 \(questions\[1\]\) .*field id: must be one line without control characters/);
+  if (!json.ok) assert.match(json.error.message, /Question 2 \(questions\[1\], “Bad id”\) is not valid: field id: must be one line without control characters/);
   const csv = `title,closes_at,forecast_at,p,note\r\nFine,${CLOSES},2026-01-01T00:00:00Z,0.5,"a \u0000 note"\r\n`;
   const fromCsv = await d.service.dispatch('importText', { format: 'csv', text: csv });
   assert.equal(fromCsv.ok, false);

@@ -101,7 +101,7 @@ test('a record reads exactly as the schema reads it, and a bad one is refused in
         () => readOne(raw),
         (err: unknown) =>
           err instanceof DiaryFileError &&
-          err.message === `${questionRecordName(0)} is not valid: field ${formatPath(issue.path) || '(record)'}: ${issueReason(issue, true)}. Nothing was imported.`,
+          err.message === `${questionRecordName(0, raw)} is not valid: field ${formatPath(issue.path) || '(record)'}: ${issueReason(issue, true)}. Nothing was imported.`,
       );
     }),
     { seed: 20261202, numRuns: 4000 },
@@ -123,4 +123,31 @@ test('plain revisions come out with their times as epoch milliseconds and their 
     { at: Date.UTC(2026, 2, 31, 16), p: 0.25 },
     { at: Date.UTC(2026, 3, 1), p: 1, note: 'sure' },
   ]);
+});
+
+test('a refused record is named by its place and its title, or its id when it has no title a message can show', () => {
+  const refusal = (record: Record<string, unknown>): string => {
+    const file = { format: 'forelog-diary', version: 1, questions: [{ title: 'Fine', closes_at: '2031-01-01T00:00:00Z', forecasts: [] }, record] };
+    try {
+      [...diaryItems(file)];
+    } catch (err) {
+      assert.ok(err instanceof DiaryFileError);
+      return err.message;
+    }
+    return assert.fail('the file was accepted');
+  };
+  const badP = { closes_at: '2031-01-01T00:00:00Z', forecasts: [{ at: '2030-01-01T00:00:00Z', p: 7 }] };
+  assert.equal(
+    refusal({ id: 'q7', title: '  Depot lease renewed ', ...badP }),
+    'Question 2 (questions[1], “Depot lease renewed”) is not valid: field forecasts[0].p: must be a probability between 0 and 1. Nothing was imported.',
+  );
+  // No title, or one that cannot be shown on one line: the id instead.
+  assert.match(refusal({ id: 'q7', ...badP }), /^Question 2 \(questions\[1\], id "q7"\) is not valid: field title: /);
+  assert.match(refusal({ id: 'q7', title: 'two\nlines', ...badP }), /^Question 2 \(questions\[1\], id "q7"\) is not valid: field title: /);
+  // Neither: the place alone.
+  assert.match(refusal({ title: 42, ...badP }), /^Question 2 \(questions\[1\]\) is not valid: field title: /);
+  // A long title is quoted by its first 60 characters.
+  const long = `Northgate ${'renewal '.repeat(30)}`.trim();
+  assert.ok(refusal({ title: long, ...badP }).startsWith(`Question 2 (questions[1], “${long.slice(0, 60).trimEnd()}…”) is not valid: field forecasts[0].p`));
+  assert.equal(questionRecordName(3), 'Question 4 (questions[3])');
 });

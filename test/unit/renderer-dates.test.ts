@@ -14,6 +14,7 @@ import {
   formatDateText,
   formatInstant,
   formatNearby,
+  formatDay,
   formatTimeText,
   localToIso,
   plural,
@@ -70,6 +71,25 @@ test('the date box follows the locale’s order, and what it shows reads back', 
   assert.deepEqual(parseDateText('4/3/2026', 'en-GB'), { ok: true, value: { year: 2026, month: 3, day: 4 } }, 'the 4th of March in the UK');
   assert.deepEqual(parseDateText('4/3/2026', 'en-US'), { ok: true, value: { year: 2026, month: 4, day: 3 } }, 'the 3rd of April in the US');
   assert.deepEqual(parseDateText('2026-03-04', 'en-US'), { ok: true, value: { year: 2026, month: 3, day: 4 } }, 'ISO is read in every locale');
+});
+
+test('a date written with its month’s name, as the window writes dates, is read back in a date box', () => {
+  const nov20 = { ok: true, value: { year: 2026, month: 11, day: 20 } };
+  // As the window writes it: the lists and headings (formatDay, formatInstant), copied back.
+  for (const locale of ['en-GB', 'en-US']) {
+    const shown = formatDay(Date.UTC(2026, 10, 20, 12), 'UTC', {}, locale);
+    assert.deepEqual(parseDateText(shown, locale), nov20, `${locale}: ${shown}`);
+  }
+  for (const text of ['20 Nov 2026', 'Nov 20, 2026', 'Fri, 20 Nov 2026', '20th November 2026', ' 20 nov. 2026 ']) {
+    assert.deepEqual(parseDateText(text, 'en-GB'), nov20, text);
+  }
+  assert.deepEqual(parseDateText('4 Sept 2026', 'en-GB'), { ok: true, value: { year: 2026, month: 9, day: 4 } });
+  assert.deepEqual(parseDateText('20. Nov. 2026', 'de-DE'), nov20, 'German short month');
+  assert.deepEqual(parseDateText('20. November 2026', 'de-DE'), nov20, 'German long month');
+  // Still refused: no year, a day the month lacks, a word that is no date.
+  assert.deepEqual(parseDateText('20 Nov', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
+  assert.deepEqual(parseDateText('31 Nov 2026', 'en-GB'), { ok: false, error: 'that month has no day 31; write the date as dd/mm/yyyy' });
+  assert.deepEqual(parseDateText('about 20 Nov 2026', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
 });
 
 test('a date that is not one says why, in the user’s terms', () => {

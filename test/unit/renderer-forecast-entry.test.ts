@@ -15,7 +15,7 @@ import {
   readValue,
 } from '../../renderer/src/forecastEntry/numericEntry';
 import { LEVEL_PRESETS, levelsText, readOptionBaseRates, readOptions } from '../../renderer/src/questionTypes/definition';
-import { choiceSummary, lastForecastText, numericSummary } from '../../renderer/src/questionTypes/summaries';
+import { choiceSummary, lastForecastText, numericSummary, resolvedText } from '../../renderer/src/questionTypes/summaries';
 import { quantileLevelsProblem } from '../../shared/quantile-levels';
 
 test('the live total adds the filled boxes and lists the blank and the unreadable ones', () => {
@@ -176,4 +176,14 @@ test('the Questions list shows the last forecast of every type', () => {
     lastForecastText({ ...none, type: 'numeric', last_p: null, levels: [0.1, 0.5, 0.9], last_quantiles: ['2026-03-01', '2026-03-31', '2026-05-01'], value_kind: 'date', unit: '' }, 'en-GB'),
     '31 Mar 2026 (1 Mar 2026 – 1 May 2026)',
   );
+});
+
+test('the Questions list says how a choice or numeric question resolved: the option, the value or the date', () => {
+  const none = { options: null, value_kind: null, unit: null, resolved_option: null, resolved_value: null };
+  assert.equal(resolvedText({ ...none, type: 'choice', options: ['Kestrowe', 'Ambledene'], resolved_option: 1 }), 'Ambledene');
+  assert.equal(resolvedText({ ...none, type: 'numeric', value_kind: 'number', unit: 'pallets', resolved_value: 2940 }, 'en-GB'), '2,940 pallets');
+  assert.equal(resolvedText({ ...none, type: 'numeric', value_kind: 'date', unit: '', resolved_value: '2026-11-12' }, 'en-GB'), '12 Nov 2026');
+  // Not resolved to an option or value (open, void), or yes/no: nothing to add.
+  assert.equal(resolvedText({ ...none, type: 'choice', options: ['A', 'B'] }), null);
+  assert.equal(resolvedText({ ...none, type: 'binary' }), null);
 });

@@ -3,6 +3,7 @@
  * exactly 0% and 100% stored, a fraction strictly between 0 and 1 typed — with the numbers
  * one step either side; the diary's `field: reason` lines in plain words beside the right
  * field (renderer/src/fieldMessages.ts); the Brier identity's signs
+ * and a score in a numeric question's unit, always two decimals
  * (renderer/src/screens/scorecard/format.ts); and the thinking tools' intervals
  * (renderer/src/tools/format.ts).
  */
@@ -12,7 +13,7 @@ import { createQuestionRequest, settingsPatch } from '../../shared/contract';
 import { plainReason, placeReasons, schemaReasons } from '../../renderer/src/fieldMessages';
 import { percentAdvice, percentToProbability } from '../../renderer/src/percent';
 import { readDecimal } from '../../shared/numeric-value';
-import { cost, identityRows, score3 } from '../../renderer/src/screens/scorecard/format';
+import { cost, identityRows, score3, unitScore } from '../../renderer/src/screens/scorecard/format';
 import { formatCount } from '../../renderer/src/dates';
 import { formatRange } from '../../renderer/src/tools/format';
 
@@ -138,4 +139,13 @@ test('a refusal shown in a banner writes the diary’s times as the window write
   const { describeError } = await import('../../renderer/src/api/errors');
   const shown = describeError(new Error("The request was not accepted: changes.opened_at: must not be after the question's first revision (2026-11-02 09:30 Europe/London). Nothing was changed."));
   assert.match(shown, /first revision \((2 Nov 2026, 09:30|Nov 2, 2026, 9:30 AM) GMT\)\. Nothing was changed\.$/);
+});
+
+test('a score in a numeric question\'s unit always has two decimals, grouped as the locale groups digits, and a tiny one is not written as a perfect 0', () => {
+  // What the Scorecard showed before: "1.9", "1.333", "0.005", "980", "9000" in one column.
+  assert.deepEqual([1.9, 4 / 3, 980, 9000, 19.333333, 0].map((x) => unitScore(x, 'en-GB')), ['1.90', '1.33', '980.00', '9,000.00', '19.33', '0.00']);
+  assert.equal(unitScore(1234.5, 'de-DE'), '1.234,50');
+  assert.equal(unitScore(0.004, 'en-US'), 'under 0.01');
+  assert.equal(unitScore(0.005, 'en-US'), '0.01');
+  assert.equal(unitScore(-0, 'en-GB'), '0.00');
 });

@@ -5,9 +5,14 @@
  * A comma typed into the box is dropped by the browser where the locale writes decimals with a
  * point, so "12,5" reads 125 — right for "1,000", wrong for a decimal comma. Which was meant
  * cannot be told, so the box says what happened and how to write a decimal.
+ *
+ * A paste the box cannot hold whole ("2,100 pallets") goes in without the box's unit and the
+ * spaces around it; text that is still not a number is refused with a word, not dropped
+ * silently (`pastedNumber.ts`).
  */
 import { useId, useState, type ComponentProps } from 'react';
 import { FieldFrame, describedBy } from './FieldFrame';
+import { readPastedNumber } from './pastedNumber';
 
 export interface NumberFieldProps extends Omit<ComponentProps<'input'>, 'onChange' | 'value' | 'type'> {
   label: string;
@@ -19,13 +24,16 @@ export interface NumberFieldProps extends Omit<ComponentProps<'input'>, 'onChang
   error?: string | undefined;
 }
 
-export function NumberField({ label, value, onChange, suffix, hint, error, required, id, className, onKeyDown, onFocus, ...rest }: NumberFieldProps) {
+export function NumberField({ label, value, onChange, suffix, hint, error, required, id, className, onKeyDown, onFocus, onPaste, ...rest }: NumberFieldProps) {
   const generated = useId();
   const controlId = id ?? generated;
   const commaId = `${controlId}-comma`;
   // Whether a comma was typed since the box last took focus.
   const [comma, setComma] = useState(false);
-  const described = [describedBy(controlId, hint, error), comma ? commaId : ''].filter(Boolean).join(' ') || undefined;
+  // Pasted text that is not a number, shown until the box takes focus again or changes.
+  const [refused, setRefused] = useState<string | null>(null);
+  const refusedId = `${controlId}-pasted`;
+  const described = [describedBy(controlId, hint, error), comma ? commaId : '', refused !== null ? refusedId : ''].filter(Boolean).join(' ') || undefined;
   return (
     <FieldFrame controlId={controlId} label={label} hint={hint} error={error} required={required} className={className}>
       <span className="input-with-suffix">
@@ -45,9 +53,32 @@ export function NumberField({ label, value, onChange, suffix, hint, error, requi
           }}
           onFocus={(event) => {
             setComma(false);
+            setRefused(null);
             onFocus?.(event);
           }}
-          onChange={(event) => onChange(event.target.value)}
+          onPaste={(event) => {
+            onPaste?.(event);
+            if (event.defaultPrevented) return;
+            const read = readPastedNumber(event.clipboardData.getData('text/plain'), suffix);
+            if (read.kind === 'as-is') {
+              setRefused(null);
+              if (event.clipboardData.getData('text/plain').includes(',')) setComma(true);
+              return;
+            }
+            event.preventDefault();
+            if (read.kind === 'refused') {
+              setRefused(read.text);
+              return;
+            }
+            setRefused(null);
+            if (read.text.includes(',')) setComma(true);
+            // insertText goes through the browser's own editing, so the change event fires and Undo takes it back.
+            document.execCommand('insertText', false, read.text);
+          }}
+          onChange={(event) => {
+            setRefused(null);
+            onChange(event.target.value);
+          }}
         />
         {suffix ? (
           <span className="input-suffix" aria-hidden="true">
@@ -59,6 +90,12 @@ export function NumberField({ label, value, onChange, suffix, hint, error, requi
         <p className="field-warning" id={commaId} data-testid="comma-warning" aria-live="polite">
           <span aria-hidden="true">⚠ </span>
           Commas are dropped here{value === '' ? '' : `, so this reads as ${value}`}. For a decimal, type a point (12.5).
+        </p>
+      ) : null}
+      {refused !== null ? (
+        <p className="field-warning" id={refusedId} data-testid="paste-warning" aria-live="polite">
+          <span aria-hidden="true">⚠ </span>
+          Not pasted: “{refused.length > 40 ? `${refused.slice(0, 40)}…` : refused}” is not a number. Type or paste digits only, e.g. 2100 or 12.5.
         </p>
       ) : null}
     </FieldFrame>

@@ -23,9 +23,13 @@ export function statusLabel(status: QuestionStatus): string {
   return LABELS[status];
 }
 
-/** The question's status in words; a resolved yes/no question also says how it resolved. */
-export function StatusPill({ status, outcome }: { status: QuestionStatus; outcome?: AnyOutcome | null | undefined }) {
-  const text = status === 'resolved' && (outcome === 'yes' || outcome === 'no') ? `Resolved · ${OUTCOME_LABELS[outcome]}` : LABELS[status];
+/**
+ * The question's status in words; a resolved question also says how it resolved: Yes or No,
+ * or for another type what `resolved` says (the option, the value).
+ */
+export function StatusPill({ status, outcome, resolved }: { status: QuestionStatus; outcome?: AnyOutcome | null | undefined; resolved?: string | null | undefined }) {
+  const how = outcome === 'yes' || outcome === 'no' ? OUTCOME_LABELS[outcome] : resolved;
+  const text = status === 'resolved' && how ? `Resolved · ${how}` : LABELS[status];
   return (
     <span className="status-pill" data-status={status}>
       <Badge tone={TONES[status]}>{text}</Badge>

@@ -10,17 +10,9 @@
  */
 import { createContext, useCallback, useContext, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
 
-export type ToastAction = { label: string; href: string } | { label: string; onClick: () => void };
+import { withToast, type ToastInput, type ToastItem } from './toastList';
 
-export interface ToastInput {
-  message: string;
-  tone?: 'success' | 'error' | 'info';
-  action?: ToastAction;
-}
-
-interface ToastItem extends ToastInput {
-  id: number;
-}
+export type { ToastAction, ToastInput } from './toastList';
 
 interface ToastApi {
   show: (toast: ToastInput) => void;
@@ -52,7 +44,8 @@ export function ToastProvider({ children }: { children: ReactNode }) {
   }, []);
   const show = useCallback((toast: ToastInput) => {
     const id = nextId.current++;
-    setToasts((list) => [...list.slice(-3), { ...toast, id }]);
+    // The same message again (Undo pressed twice) shows the one already there again rather than a twin.
+    setToasts((list) => withToast(list, toast, id));
   }, []);
   const api = useMemo(() => ({ show }), [show]);
 
@@ -115,7 +108,8 @@ function Toast({ toast, onDismiss }: { toast: ToastItem; onDismiss: (id: number)
     if (paused) return;
     const timer = window.setTimeout(() => onDismiss(toast.id), lifetime);
     return () => window.clearTimeout(timer);
-  }, [paused, lifetime, onDismiss, toast.id]);
+    // A repeat (toast.shown) starts the time again.
+  }, [paused, lifetime, onDismiss, toast.id, toast.shown]);
 
   function onKeyDown(event: KeyboardEvent<HTMLDivElement>) {
     if (event.key === 'Escape') {
@@ -135,7 +129,10 @@ function Toast({ toast, onDismiss }: { toast: ToastItem; onDismiss: (id: number)
       onBlur={() => setPaused(false)}
       onKeyDown={onKeyDown}
     >
-      <p className="toast__message">{shortenQuotes(toast.message)}</p>
+      {/* A new paragraph per showing, so a screen reader reads a repeated message again. */}
+      <p key={toast.shown} className="toast__message">
+        {shortenQuotes(toast.message)}
+      </p>
       {action && 'href' in action ? (
         <a className="toast__action" href={action.href} onClick={() => onDismiss(toast.id)} aria-keyshortcuts={TOAST_KEY}>
           {action.label}

@@ -5,6 +5,8 @@
  * its own clock; its answer lands beside the same field.
  */
 import { beforeOpeningProblem, futureProblem } from '../../../shared/time-rules';
+import { userLocale } from '../dates';
+import { plainReason } from '../fieldMessages';
 
 export interface Opening {
   opened_at: string;
@@ -16,9 +18,12 @@ export type TimedThing = 'the opening time (when the question was posed)' | 'a r
 
 /**
  * The reason `at` (ISO) cannot be true, or null: never in the future; and, when `opening` is
- * given, never before the question opened.
+ * given, never before the question opened. In plain words, as the diary's own answer would
+ * be shown beside the field (`plainReason`): the opening written as the window writes dates,
+ * no request names such as "opened_at".
  */
-export function typedTimeProblem(at: string, what: TimedThing, opening?: Opening, now = Date.now()): string | null {
+export function typedTimeProblem(at: string, what: TimedThing, opening?: Opening, now = Date.now(), locale = userLocale()): string | null {
   const ms = Date.parse(at);
-  return futureProblem(ms, now, what) ?? (opening ? beforeOpeningProblem(ms, Date.parse(opening.opened_at), opening.time_zone) : null);
+  const reason = futureProblem(ms, now, what) ?? (opening ? beforeOpeningProblem(ms, Date.parse(opening.opened_at), opening.time_zone) : null);
+  return reason === null ? null : plainReason(reason, {}, locale);
 }

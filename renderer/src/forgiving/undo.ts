@@ -21,6 +21,8 @@ export interface UndoableChange {
   undo: string | readonly string[];
   /** What the question was called, for the message after undoing. */
   title: string;
+  /** What the message after undoing says, when one question's title would not tell it (a change to many questions). */
+  undoneMessage?: string;
   /** Runs after a successful undo, e.g. to go back to a question that was deleted. */
   afterUndo?: (result: UndoResult) => void;
 }
@@ -41,10 +43,10 @@ export function useUndoToast(): (change: UndoableChange) => void {
           const result = await undoSteps(tokens, (token) => api.undo({ token }));
           change.afterUndo?.(result);
           // A link to the question, unless its page is the one open (undone from the page itself).
-          const path = result.question ? questionPath(result.question.id) : null;
+          const path = result.question && change.undoneMessage === undefined ? questionPath(result.question.id) : null;
           const elsewhere = path !== null && parseRoute(window.location.hash).path !== path;
           toast.show({
-            message: undoneMessage(result, change.title),
+            message: change.undoneMessage ?? undoneMessage(result, change.title),
             ...(path !== null && elsewhere ? { action: { label: 'Open question', href: hrefTo(path) } } : {}),
           });
         } catch (error) {

@@ -26,6 +26,20 @@ export function numericSummary(levels: readonly number[], quantiles: readonly nu
   return `${centre} (${low} – ${high})`;
 }
 
+/**
+ * How a choice or numeric question resolved, in a few words for the list's status ("Ambledene",
+ * "2,940 pallets", "12 Nov 2026"); null for yes/no questions (the pill says Yes or No itself),
+ * open and void ones.
+ */
+export function resolvedText(q: Pick<QuestionSummary, 'type' | 'options' | 'value_kind' | 'unit' | 'resolved_option' | 'resolved_value'>, locale?: string): string | null {
+  // typeof, not !== null: a row from a diary service without these fields says nothing rather than "Option NaN".
+  if (q.type === 'choice' && typeof q.resolved_option === 'number') return q.options?.[q.resolved_option] ?? `Option ${q.resolved_option + 1}`;
+  if (q.type === 'numeric' && (typeof q.resolved_value === 'number' || typeof q.resolved_value === 'string') && q.value_kind) {
+    return formatValue(toStoredValue(q.resolved_value, q.value_kind), q.value_kind, q.unit ?? '', locale);
+  }
+  return null;
+}
+
 /** The Questions list's "last forecast" cell for a question of any type; "—" with none. */
 export function lastForecastText(q: Pick<QuestionSummary, 'type' | 'last_p' | 'options' | 'last_probs' | 'levels' | 'last_quantiles' | 'value_kind' | 'unit'>, locale?: string): string {
   if (q.type === 'choice') return q.options && q.last_probs ? choiceSummary(q.options, q.last_probs) : '—';

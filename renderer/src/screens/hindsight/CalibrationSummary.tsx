@@ -2,13 +2,14 @@
  * The selection's calibration beside its confident calls: how many questions were scored,
  * their Brier score, how often each level of stated probability came true (with the Wilson
  * interval, so a bin of two reads as the guess it is), and the calibration slope in words or
- * the reason it is missing. Figures come from the same filter's `ScoreReport`.
+ * the reason it is missing. Figures come from the same filter's `ScoreReport`; the Brier
+ * score's 95% interval is the Scorecard's own (`Hindsight.brier_interval`).
  */
 import type { ScoreReport } from '../../../../shared/scoring/types';
 import { percentInterval, score3, slopeReading, wholePercent } from './wording';
 import { formatCount } from '../../dates';
 
-export function CalibrationSummary({ report, subject }: { report: ScoreReport; subject: string }) {
+export function CalibrationSummary({ report, brierInterval, subject }: { report: ScoreReport; brierInterval: [number, number] | null; subject: string }) {
   const notCounted = [
     report.open ? `${formatCount(report.open)} open` : '',
     report.void ? `${formatCount(report.void)} void` : '',
@@ -28,6 +29,12 @@ export function CalibrationSummary({ report, subject }: { report: ScoreReport; s
         <div>
           <dt>Brier score</dt>
           <dd data-testid="brier">{score3(report.brier)}</dd>
+          {/* The interval beside the figure, as on the Scorecard: a Brier of few questions is a rough guess. */}
+          {brierInterval ? (
+            <dd className="hs-summary__interval" data-testid="brier-interval">
+              95% interval {score3(brierInterval[0])}–{score3(brierInterval[1])}
+            </dd>
+          ) : null}
         </div>
       </dl>
       <p className="hs-summary__note">

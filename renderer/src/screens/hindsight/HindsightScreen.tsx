@@ -214,7 +214,7 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
         />
       </div>
       <aside className="hs-aside">
-        <CalibrationSummary report={report} subject={describeSelection(selection)} />
+        <CalibrationSummary report={report} brierInterval={hindsight.brier_interval} subject={describeSelection(selection)} />
       </aside>
     </div>
   );

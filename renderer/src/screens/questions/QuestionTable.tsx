@@ -13,7 +13,7 @@ import type { ListSort } from '../../../../shared/contract';
 import { StatusPill } from '../../components/StatusPill';
 import { formatInstant } from '../../dates';
 import { formatPercent } from '../../percent';
-import { lastForecastText } from '../../questionTypes/summaries';
+import { lastForecastText, resolvedText } from '../../questionTypes/summaries';
 import { hrefTo, navigate, questionPath } from '../../routing';
 import { countCaption, type ListQuery } from './listQuery';
 import type { QuestionPages } from './useQuestionPages';
@@ -144,7 +144,7 @@ export function QuestionTable({ pages, query, busy, onSort }: QuestionTableProps
                   ) : null}
                 </td>
                 <td>
-                  <StatusPill status={q.status} outcome={q.outcome} />
+                  <StatusPill status={q.status} outcome={q.outcome} resolved={resolvedText(q)} />
                 </td>
                 <td>
                   <time dateTime={q.closes_at}>{formatInstant(q.closes_at, q.time_zone)}</time>

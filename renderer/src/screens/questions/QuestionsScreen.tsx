@@ -82,7 +82,7 @@ function FirstRun({ onNew }: { onNew: () => void }) {
       }
     >
       <p>Write down a call you are making — a question, when it closes, the base rate and your probability — and revise it as evidence arrives.</p>
-      <p>Or look around first with an example diary from an invented scenario; you can delete its questions whenever you like.</p>
+      <p>Or look around first with an example diary from an invented scenario; when you are done, Settings removes it in one step and keeps your own questions.</p>
     </EmptyState>
   );
 }

@@ -8,7 +8,7 @@ import { memo, useEffect, useRef } from 'react';
 import { ShowMore, usePages } from '../../components/ShowMore';
 import type { CoverageRow, NumericQuestionRow, NumericReport } from '../../../../shared/scoring/types';
 import { formatValue, levelName } from '../../forecastEntry/numericEntry';
-import { pct, questions, score2 } from './format';
+import { pct, questions, score2, unitScore } from './format';
 import { Tile } from './Headline';
 import { LevelCalibrationChart, type LevelRow } from './LevelCalibrationChart';
 import { coverageReading, gapName, quantileSentence, revisingSentence } from './typedReadings';
@@ -18,11 +18,11 @@ function show(row: NumericQuestionRow, value: number): string {
   return formatValue(value, row.value_kind, row.unit);
 }
 
-/** A score in the question's unit: days for a date question. */
+/** A score in the question's unit (days for a date question), two decimals like every other (`unitScore`). */
 function scoreIn(row: NumericQuestionRow, value: number | null): string {
   if (value === null) return '—';
-  const text = String(Number(value.toPrecision(4)));
-  if (row.value_kind === 'date') return `${text} day${text === '1' ? '' : 's'}`;
+  const text = unitScore(value);
+  if (row.value_kind === 'date') return `${text} days`;
   return row.unit ? `${text} ${row.unit}` : text;
 }
 

@@ -3,7 +3,7 @@
  * percents, intervals as "21–94%". One place, so the headline, the tables and the chart
  * tooltips never disagree about how a figure is written.
  */
-import { formatCount } from '../../dates';
+import { formatCount, userLocale } from '../../dates';
 
 /** The typographic minus, so negative skill scores read as numbers and not as hyphens. */
 function signed(text: string): string {
@@ -39,6 +39,26 @@ export function pctInterval(low: number, high: number): string {
 /** e.g. [0.099, 0.306] → "0.099–0.306". */
 export function scoreInterval(iv: readonly [number, number]): string {
   return `${score3(iv[0])}–${score3(iv[1])}`;
+}
+
+const unitScoreFormats = new Map<string, Intl.NumberFormat>();
+
+/**
+ * A score in a numeric question's own unit (WIS, interval score): always two decimals,
+ * digits grouped as the user's locale groups them — 1.9 → "1.90", 1.3333 → "1.33",
+ * 9000 → "9,000.00" — so a column of them lines up and one figure is never written with
+ * three decimals in one row and none in the next. A score above 0 too small for two
+ * decimals reads "under 0.01", never "0.00": 0 means a perfect forecast. (Relative WIS, a
+ * ratio, has two decimals too: `score2`.)
+ */
+export function unitScore(x: number, locale = userLocale()): string {
+  let format = unitScoreFormats.get(locale);
+  if (!format) {
+    format = new Intl.NumberFormat(locale, { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+    unitScoreFormats.set(locale, format);
+  }
+  if (x > 0 && x < 0.005) return `under ${format.format(0.01)}`;
+  return format.format(x + 0); // + 0: -0 reads "0.00"
 }
 
 /** "1 question" / "22 questions". */

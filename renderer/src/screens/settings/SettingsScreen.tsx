@@ -3,7 +3,7 @@
  * hours), the diary's time zone, the default costs of a false alarm and a miss with the
  * action threshold they imply, where the diary file lives, and the diary's files in and out.
  */
-import { useId, useMemo, useState, type FormEvent } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type FormEvent } from 'react';
 import { settingsPatch } from '../../../../shared/contract';
 import type { Settings } from '../../../../shared/domain';
 import { costLossThreshold } from '../../../../shared/scoring/decisions';
@@ -12,15 +12,17 @@ import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
 import { useLoad } from '../../api/useLoad';
 import { Button } from '../../components/Button';
+import { ConfirmDialog } from '../../components/ConfirmDialog';
 import { DiscardDialog } from '../../components/DiscardDialog';
 import { ErrorBanner } from '../../components/ErrorBanner';
 import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { Select } from '../../components/Select';
 import { TextField } from '../../components/TextField';
-import { formatCount, timeZoneNames, zoneName } from '../../dates';
+import { formatCount, formatTimeText, plural, timePlaceholder, timeZoneNames, zoneName } from '../../dates';
 import { useDiaryInfo } from '../../diaryInfo';
 import { replacedValues, useSettingsUndoToast } from '../../forgiving/settingsUndo';
+import { useUndoToast } from '../../forgiving/undo';
 import { useDocumentTitle } from '../../hooks';
 import { useForm } from '../../forms';
 import { useLeaveGuard } from '../../leaveGuard';
@@ -198,8 +200,10 @@ function NudgeSection({ draft, set, error }: SectionProps) {
 }
 
 /**
- * A time of day typed as 24-hour HH:MM, the form the diary stores: a browser's time picker
- * would show 10:30 PM on some systems while the Desk and nudges speak of 22:30.
+ * A time of day, typed and shown as every other time box has it (`parseTimeText`): "22:00",
+ * or "10:00 PM" where the locale uses a 12-hour clock, as the Desk and nudges write times.
+ * The draft turns it into the diary's 24-hour HH:MM on save (`quietTimeValue`). A text box
+ * rather than the browser's time picker, whose clock follows the system, not the page.
  */
 function TimeOfDayField({ label, value, onChange, error }: { label: string; value: string; onChange: (value: string) => void; error: string | undefined }) {
   return (
@@ -208,11 +212,10 @@ function TimeOfDayField({ label, value, onChange, error }: { label: string; valu
       value={value}
       onChange={onChange}
       error={error}
-      hint="24-hour, HH:MM"
-      inputMode="numeric"
+      hint={`e.g. ${formatTimeText({ hour: 22, minute: 0 })}`}
       autoComplete="off"
-      maxLength={5}
-      placeholder="22:00"
+      maxLength={20}
+      placeholder={timePlaceholder()}
       className="settings__time"
     />
   );
@@ -278,9 +281,37 @@ function CostSection({ draft, set, error }: SectionProps) {
 
 function DiaryFile() {
   const info = useDiaryInfo();
+  const undoToast = useUndoToast();
+  const heading = useRef<HTMLHeadingElement>(null);
+  const [asking, setAsking] = useState(false);
+  const examples = info.data?.example_questions ?? 0;
+  // The Remove button goes with the example: once the section shows that, the keyboard moves
+  // to the section's heading rather than falling to the page (the dialog hands it back to the button).
+  const [removing, setRemoving] = useState(false);
+  useEffect(() => {
+    if (!removing || examples > 0 || asking) return;
+    setRemoving(false);
+    heading.current?.focus();
+  }, [removing, examples, asking]);
+
+  async function removeExample() {
+    const { removed, undo } = await api.removeDemo({});
+    setRemoving(true);
+    setAsking(false);
+    diaryChanged();
+    if (removed === 0) return;
+    const what = `the example diary’s ${plural(removed, 'question')}`;
+    undoToast({
+      message: `Removed ${what}; your own questions are as they were.`,
+      undo,
+      title: 'the example diary',
+      undoneMessage: `Undone: ${what} are back.`,
+    });
+  }
+
   return (
     <section className="card settings__section" aria-labelledby="settings-diary">
-      <h2 id="settings-diary" className="card__title">
+      <h2 id="settings-diary" className="card__title" ref={heading} tabIndex={-1}>
         Diary
       </h2>
       {info.error && !info.data ? <ErrorBanner message={describeError(info.error)} onRetry={info.reload} /> : null}
@@ -290,8 +321,25 @@ function DiaryFile() {
           <dd data-testid="diary-location">{info.data.location ? <code className="settings__path">{info.data.location}</code> : 'Not kept in a file (a temporary diary).'}</dd>
           <dt>Questions</dt>
           <dd>{formatCount(info.data.question_count)}</dd>
+          {examples > 0 ? (
+            <>
+              <dt>Example diary</dt>
+              <dd data-testid="example-diary">
+                {plural(examples, 'question')} from the invented example.{' '}
+                <Button size="sm" onClick={() => setAsking(true)}>
+                  Remove the example diary
+                </Button>
+              </dd>
+            </>
+          ) : null}
         </dl>
       ) : null}
+      <ConfirmDialog open={asking} title="Remove the example diary?" confirmLabel="Remove the example" onConfirm={removeExample} onClose={() => setAsking(false)}>
+        <p>
+          Its {plural(examples, 'question')} leave the diary, with their forecasts and resolutions; the questions you wrote yourself
+          stay as they are. Undo in the message that follows brings them back.
+        </p>
+      </ConfirmDialog>
     </section>
   );
 }
