@@ -122,7 +122,8 @@ function keepPermissions(fd: number, mode: number): void {
 
 function removeQuietly(file: string): void {
   try {
-    fs.rmSync(file, { force: true });
+    // Recursive: a leftover may be a working folder (main/files/work-folder.ts).
+    fs.rmSync(file, { force: true, recursive: true });
   } catch {
     // The error that stopped the write is the one to report.
   }
@@ -139,10 +140,11 @@ function processRuns(pid: number): boolean {
 }
 
 /**
- * Removes the temporary files that writes of one target left in `folder` when their process
- * was killed half way (SIGKILL, a power cut): their names match `pattern`, whose first
- * group is the writer's process id, and that process has ended. A write still under way in
- * another process keeps its file. Best effort: a file that cannot be listed or removed stays.
+ * Removes the temporary files (or folders) that writes of one target left in `folder` when
+ * their process was killed half way (SIGKILL, a power cut): their names match `pattern`,
+ * whose first group is the writer's process id, and that process has ended. A write still
+ * under way in another process keeps its file. Best effort: a file that cannot be listed or
+ * removed stays.
  */
 export function clearLeftovers(folder: string, pattern: RegExp): void {
   let names: string[];

@@ -6,10 +6,10 @@
 import Database from 'better-sqlite3';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { clearLeftovers, escapeRegExp, temporaryStem } from '../files/atomic-write';
 import { fileNameProblem, isDiaryFile } from '../files/file-name';
+import { makeWorkFolder } from '../files/work-folder';
 import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
 import { openStore, type Db, type StoreHandles } from '../store/open';
@@ -167,7 +167,7 @@ export async function restoreFrom(backupFile: string, dbPath: string, stamp: num
   const { questions } = inspectBackup(source);
   // The normal opener: a newer diary or another program's file is refused untouched.
   const live = openStore(target);
-  const work = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-restore-'));
+  const work = makeWorkFolder('restore');
   try {
     if (live.readOnly) throw new StoreError('read_only', target, describeProblem('read_only', target));
     const copy = path.join(work, 'restore.sqlite');

@@ -6,9 +6,9 @@
  */
 import Database from 'better-sqlite3';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { fileNameProblem } from '../files/file-name';
+import { makeWorkFolder } from '../files/work-folder';
 import { describeProblem, StoreError, toStoreError } from './errors';
 import { MIGRATIONS, SCHEMA_VERSION, type Migration } from './migrations';
 
@@ -289,7 +289,7 @@ function openReadOnly(file: string, options: OpenStoreOptions): StoreHandles {
     if (!needsPrivateCopy(err)) throw err;
   }
 
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-read-only-'));
+  const dir = makeWorkFolder('read-only');
   const removeDir = () => fs.rmSync(dir, { recursive: true, force: true });
   try {
     const copy = path.join(dir, path.basename(file));
