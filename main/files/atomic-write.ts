@@ -14,6 +14,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileNameProblem, NAME_MAX_BYTES } from './file-name';
+import { exportOverProblem } from './sqlite-files';
 
 export type Chunk = string | Uint8Array;
 /** Whole content, or chunks in order (e.g. a generator that reads the diary batch by batch). */
@@ -197,6 +198,8 @@ export function writeFileAtomic(target: string, content: FileContent): void {
     if ((err as NodeJS.ErrnoException).code !== 'ENOENT') throw describe(err as NodeJS.ErrnoException, target, true);
   }
   if (existing?.isDirectory()) throw describe(Object.assign(new Error('is a folder'), { code: 'EISDIR', syscall: 'open' }), target, true);
+  const database = exportOverProblem(destination);
+  if (database) throw new FileWriteError(`Could not write ${target}: ${database} ${existing ? 'The file that was there is unchanged.' : 'No file was written.'}`, 'EEXIST');
 
   if (existing && !existing.isFile()) {
     let fd: number;

@@ -9,6 +9,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { clearLeftovers, escapeRegExp, temporaryStem } from '../files/atomic-write';
 import { fileNameProblem, isDiaryFile } from '../files/file-name';
+import { copyOverProblem } from '../files/sqlite-files';
 import { makeWorkFolder } from '../files/work-folder';
 import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
@@ -57,6 +58,8 @@ function copyTarget(file: string): string {
  */
 async function writeCopy(source: Db, sourcePath: string, file: string, onProgress?: (percent: number) => void): Promise<void> {
   const target = copyTarget(file);
+  const unsafe = copyOverProblem(target);
+  if (unsafe) throw new Error(`Could not write ${target}: ${unsafe} No copy was written; the diary is unchanged.`);
   // Not ending in .sqlite, so a partial copy is never taken for one of the rolling backups.
   // "NAME.partial-<pid up to 7 digits>-<8 hex>-journal" adds at most 33 bytes to the name.
   const stem = temporaryStem(path.basename(target), 33);
