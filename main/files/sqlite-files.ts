@@ -16,10 +16,14 @@ import fs from 'node:fs';
 const SQLITE_HEADER = Buffer.from('SQLite format 3\0', 'latin1');
 const BESIDE = ['-wal', '-shm', '-journal'] as const;
 
-/** Does `file` start as every SQLite database does? (False when it cannot be read.) */
+/**
+ * Is `file` a regular file that starts as every SQLite database does? (False when it cannot
+ * be read.) Only regular files are opened: reading a terminal or a named pipe would wait.
+ */
 export function isSqliteDatabase(file: string): boolean {
   let fd: number | undefined;
   try {
+    if (!fs.statSync(file).isFile()) return false;
     fd = fs.openSync(file, 'r');
     const head = Buffer.alloc(SQLITE_HEADER.length);
     return fs.readSync(fd, head, 0, head.length, 0) === head.length && head.equals(SQLITE_HEADER);

@@ -6,7 +6,7 @@
  * nothing is written.
  */
 import assert from 'node:assert/strict';
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
@@ -14,6 +14,7 @@ import { inspectBackup } from '../../main/service/backup';
 import { callOrThrow } from '../../main/service/dispatch';
 import { openDiary } from '../../main/service/index';
 import { ROOT } from '../support/diary-process';
+import { setTimeout as sleep } from 'node:timers/promises';
 import { openTestDiary, tempDir } from '../support/temp-diary';
 
 const CLOSES = '2027-01-01T00:00:00Z';
@@ -110,4 +111,29 @@ test('an export over a diary, or over a file SQLite keeps beside one, is refused
   d.service.exportDiaryFile(json, 'json');
   d.service.exportDiaryFile(json, 'json');
   assert.match(fs.readFileSync(json, 'utf8'), /"Exported"/);
+});
+
+test('an export to a named pipe still goes straight to its reader: the check for a database never opens it', { skip: process.platform === 'win32' && 'no named pipes' }, async () => {
+  const d = openTestDiary();
+  await d.call('createQuestion', { title: 'Through the pipe', closes_at: CLOSES });
+  const pipe = path.join(tempDir(), 'pipe');
+  assert.equal(spawnSync('mkfifo', [pipe]).status, 0);
+  const ends = (child: ChildProcess) => new Promise<number | null>((resolve) => child.on('close', resolve));
+  const reader = spawn('cat', [pipe]);
+  let read = '';
+  reader.stdout.on('data', (c: Buffer) => (read += c.toString()));
+  const readerEnded = ends(reader);
+  const writer = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'main', 'cli.ts'), 'export', pipe, '--db', d.dbPath], { cwd: ROOT });
+  const writerEnded = ends(writer);
+  // Opening the pipe to read it as well waited for a second writer for ever: give up after a minute.
+  const giveUp = new AbortController();
+  const status = await Promise.race([writerEnded, sleep(60_000, 'still waiting', { signal: giveUp.signal }).catch(() => 'ended')]);
+  giveUp.abort();
+  if (status === 'still waiting') {
+    writer.kill('SIGKILL');
+    reader.kill('SIGKILL');
+  }
+  assert.equal(status, 0);
+  assert.equal(await readerEnded, 0);
+  assert.match(read, /"title": "Through the pipe"/);
 });
