@@ -100,6 +100,16 @@ async function writeCopy(source: Db, sourcePath: string, file: string, onProgres
   }
 }
 
+/**
+ * Removes the partial copies (with their journals) that backups killed half way left in
+ * `dir` under names starting with `prefix`. writeCopy clears a target's own leftovers, but
+ * copies named by the time they are taken (the daily copies, restore's safety copies) are
+ * never written to the same name again, so theirs are cleared here, by the name's start.
+ */
+function clearPartialCopies(dir: string, prefix: string): void {
+  clearLeftovers(dir, new RegExp(`^${escapeRegExp(prefix)}.*\\.partial-(\\d+)-[0-9a-f]{8}(?:-journal|-wal|-shm)?$`));
+}
+
 export async function backupTo(store: StoreHandles, file: string, onProgress?: (percent: number) => void): Promise<void> {
   const target = copyTarget(file);
   if (isDiaryFile(target, store.path)) throw new Error('The backup file cannot be the diary itself (or a file SQLite keeps beside it); choose another file name.');
@@ -184,6 +194,7 @@ export async function restoreFrom(backupFile: string, dbPath: string, stamp: num
     const safetyCopy = live.created
       ? null
       : target.replace(/(\.sqlite)?$/, `.before-restore-${new Date(stamp).toISOString().replace(/[:.]/g, '-')}.sqlite`);
+    if (safetyCopy) clearPartialCopies(path.dirname(target), path.basename(target).replace(/(\.sqlite)?$/, '.before-restore-'));
     await replaceContents(live, copy, async () => {
       if (safetyCopy) await writeCopy(live.read, target, safetyCopy);
     });
@@ -210,6 +221,7 @@ export async function rollingBackup(
 ): Promise<{ created: string | null; removed: string[] }> {
   if (!Number.isInteger(keep) || keep < 1) throw new RangeError(`keep must be a whole number of copies, at least 1 (got ${keep}).`);
   fs.mkdirSync(dir, { recursive: true });
+  clearPartialCopies(dir, ROLLING_BACKUP_PREFIX);
   const day = new Date(now).toISOString().slice(0, 10);
   const existing = () =>
     fs
