@@ -6,7 +6,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
-import { isCheckout, staleReason } from '../scripts/freshness.mjs';
+import { isCheckout } from '../scripts/freshness.mjs';
 import { ApiError, parseRequest, type DueList, type ImportResult } from '../shared/contract';
 import { NUDGE_KIND_NAMES } from '../shared/domain';
 import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
@@ -14,6 +14,7 @@ import { version as VERSION } from '../package.json';
 import { FileWriteError, writeToDescriptor, type Chunk } from './files/atomic-write';
 import { fileNameProblem } from './files/file-name';
 import { defaultDiaryPath } from './paths';
+import { freshRenderer } from './renderer-build';
 import { formatScoreTable } from './score-table';
 import { inspectBackup, restoreFrom } from './service/backup';
 import { callOrThrow, storeFailure } from './service/dispatch';
@@ -273,7 +274,7 @@ async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (serv
 /**
  * Finds the built renderer next to this program. In a source checkout it is built first
  * when missing or older than the sources, so `forelog serve` always shows the screens as
- * the code stands.
+ * the code stands (safely beside other servers of the same checkout: main/renderer-build.ts).
  */
 async function rendererDir(): Promise<string> {
   // This file is main/cli.ts (run from source) or dist/main/cli.cjs (built); an installed
@@ -285,13 +286,14 @@ async function rendererDir(): Promise<string> {
     if (fs.existsSync(path.join(installed, 'index.html'))) return installed;
     throw new Error('The app screens are missing from this installation; reinstall Forelog.');
   }
-  const reason = staleReason(root, 'renderer');
-  if (reason !== null) {
-    process.stderr.write(`Building the app screens (${reason})…\n`);
-    const vite = await import('vite');
-    await vite.build({ root: path.join(root, 'renderer'), configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn' });
-  }
-  return path.join(root, 'dist', 'renderer');
+  return freshRenderer(
+    root,
+    async (outDir) => {
+      const vite = await import('vite');
+      await vite.build({ root: path.join(root, 'renderer'), configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn', build: { outDir, emptyOutDir: true } });
+    },
+    (reason) => process.stderr.write(`Building the app screens (${reason})…\n`),
+  );
 }
 
 /** `forelog due` for a person: each time on the diary's clock (`zone`), snoozed nudges after the due ones. */

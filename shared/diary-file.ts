@@ -453,6 +453,13 @@ function unreadable(err: JsonStreamError): DiaryFileError {
       return new DiaryFileError(`The file cannot be read at ${err.message}; a diary file never nests that deep. Nothing was imported.`, null, null);
     case 'duplicate':
       return new DiaryFileError(`The file cannot be read at ${err.message}. Nothing was imported.`, null, null);
+    case 'too-long':
+      // A question's record holds all its revisions, so it is the value that grows.
+      return new DiaryFileError(
+        `The file cannot be read at ${err.message}; a question's record (with all its revisions and notes) must fit in that. Nothing was imported.`,
+        null,
+        null,
+      );
     default:
       return new DiaryFileError(`The file is not valid JSON at ${err.message}; nothing was imported. Is it a Forelog diary file?`, null, null);
   }

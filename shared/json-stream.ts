@@ -11,12 +11,13 @@
  */
 import { BACKSLASH, CLOSE_BRACE, CLOSE_BRACKET, COLON, COMMA, OPEN_BRACE, OPEN_BRACKET, QUOTE } from './json-codes';
 import { duplicateMember, memberCount } from './json-duplicates';
+import { LONGEST_TEXT } from './longest-text';
 
 /** Why the text could not be read; `line` and `column` (1-based) say where. */
 export class JsonStreamError extends Error {
   constructor(
     message: string,
-    readonly kind: 'syntax' | 'depth' | 'not-object' | 'duplicate',
+    readonly kind: 'syntax' | 'depth' | 'not-object' | 'duplicate' | 'too-long',
     readonly line: number,
     readonly column: number,
   ) {
@@ -138,8 +139,16 @@ class Scanner {
     this.drop(this.pos);
     const startLine = (this.valueLine = this.line);
     const startColumn = this.column;
-    // Text of the value from earlier chunks, when it spans more than one.
+    // Text of the value from earlier chunks, when it spans more than one, and its length.
     let pieces: string[] | null = null;
+    let held = 0;
+    const tooLong = () =>
+      new JsonStreamError(
+        `line ${startLine}, column ${startColumn + 1}: the value that starts here is longer than ${LONGEST_TEXT.toLocaleString('en-GB')} characters, the most that can be read as one piece`,
+        'too-long',
+        startLine,
+        startColumn + 1,
+      );
     const closers = this.closers;
     closers.length = 0;
     const first = this.buf.charCodeAt(0);
@@ -153,6 +162,8 @@ class Scanner {
         // The value goes on in the next chunk: keep what was read and go on there. An
         // escape's backslash at the very end carries over as i = length + 1.
         const length = this.buf.length;
+        held += length;
+        if (held > LONGEST_TEXT) throw tooLong();
         (pieces ??= []).push(this.buf);
         this.drop(length);
         if (!this.pull()) {
@@ -199,6 +210,7 @@ class Scanner {
         i++;
       }
     }
+    if (held + i > LONGEST_TEXT) throw tooLong();
     const text = pieces ? pieces.join('') + this.buf.slice(0, i) : this.buf.slice(0, i);
     this.pos = i;
     let value: unknown;

@@ -81,12 +81,16 @@ export function wallTimeAt(ms: number, timeZone: string): WallTime {
   };
 }
 
-/** UTC offset of `timeZone` at instant `ms`, in minutes east of UTC. */
-export function offsetMinutesAt(ms: number, timeZone: string): number {
+/**
+ * UTC offset of `timeZone` at instant `ms`, in milliseconds east of UTC (whole seconds).
+ * Not rounded to minutes: before standard time many zones kept local mean time, whose
+ * offsets have seconds (Amsterdam +0:19:32 until 1937, Monrovia −0:44:30 until 1972), and
+ * a wall time read with a rounded offset lands up to 30 seconds off.
+ */
+function offsetMsAt(ms: number, timeZone: string): number {
   const w = wallTimeAt(ms, timeZone);
   const asUtc = Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second);
-  const whole = Math.floor(ms / 1000) * 1000;
-  return Math.round((asUtc - whole) / 60_000);
+  return asUtc - Math.floor(ms / 1000) * 1000;
 }
 
 const DAY_MS = 86_400_000;
@@ -96,20 +100,20 @@ const STEADY_DAYS_KEPT = 200_000;
 let steadyDaysKept = 0;
 
 /**
- * `offsetMinutesAt`, with the answer for a whole UTC day remembered when the zone's offset
+ * `offsetMsAt`, with the answer for a whole UTC day remembered when the zone's offset
  * is the same at the day's first and last second, i.e. when no transition falls in it (a
  * zone's clock changes at most once in a day). Turning wall times into instants asks three
  * or four offsets each, and planning a large diary's nudges turns thousands: most of them
  * fall on days already asked about. A day with a transition is answered exactly each time.
  */
-function steadyOffsetMinutesAt(ms: number, timeZone: string): number {
+function steadyOffsetMsAt(ms: number, timeZone: string): number {
   // A day's ends must be dates too: near the ends of the Date range (±8.64e15 ms) ask directly.
-  if (!(Math.abs(ms) < 8.64e15 - 2 * DAY_MS)) return offsetMinutesAt(ms, timeZone);
+  if (!(Math.abs(ms) < 8.64e15 - 2 * DAY_MS)) return offsetMsAt(ms, timeZone);
   const day = Math.floor(ms / DAY_MS);
   let offset = steadyOffsets.get(timeZone)?.get(day);
   if (offset === undefined) {
-    const first = offsetMinutesAt(day * DAY_MS, timeZone);
-    offset = first === offsetMinutesAt(day * DAY_MS + DAY_MS - 1000, timeZone) ? first : NaN;
+    const first = offsetMsAt(day * DAY_MS, timeZone);
+    offset = first === offsetMsAt(day * DAY_MS + DAY_MS - 1000, timeZone) ? first : NaN;
     // Bounded by starting afresh: a long-running app plans the same days again and again.
     if (steadyDaysKept >= STEADY_DAYS_KEPT) {
       steadyOffsets.clear();
@@ -123,7 +127,7 @@ function steadyOffsetMinutesAt(ms: number, timeZone: string): number {
     days.set(day, offset);
     steadyDaysKept++;
   }
-  return Number.isNaN(offset) ? offsetMinutesAt(ms, timeZone) : offset;
+  return Number.isNaN(offset) ? offsetMsAt(ms, timeZone) : offset;
 }
 
 /**
@@ -133,14 +137,14 @@ function steadyOffsetMinutesAt(ms: number, timeZone: string): number {
 export function wallTimeToInstant(wall: WallTime, timeZone: string): number {
   const naive = Date.UTC(wall.year, wall.month - 1, wall.day, wall.hour, wall.minute, wall.second);
   // Offsets a day either side bracket any single transition near this wall time.
-  const before = steadyOffsetMinutesAt(naive - DAY_MS, timeZone);
-  const after = steadyOffsetMinutesAt(naive + DAY_MS, timeZone);
-  const candidates = [naive - before * 60_000, naive - after * 60_000].sort((a, b) => a - b);
+  const before = steadyOffsetMsAt(naive - DAY_MS, timeZone);
+  const after = steadyOffsetMsAt(naive + DAY_MS, timeZone);
+  const candidates = [naive - before, naive - after].sort((a, b) => a - b);
   for (const t of candidates) {
-    if (steadyOffsetMinutesAt(t, timeZone) * 60_000 === naive - t) return t; // first occurrence
+    if (steadyOffsetMsAt(t, timeZone) === naive - t) return t; // first occurrence
   }
   // In a gap: read with the offset in force before it.
-  return naive - before * 60_000;
+  return naive - before;
 }
 
 const LOCAL_RE = /^(\d{4})-(\d{2})-(\d{2})[T ](\d{2}):(\d{2})(?::(\d{2}))?$/;

@@ -14,6 +14,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileNameProblem, NAME_MAX_BYTES } from './file-name';
+import { exportOverProblem } from './sqlite-files';
 
 export type Chunk = string | Uint8Array;
 /** Whole content, or chunks in order (e.g. a generator that reads the diary batch by batch). */
@@ -122,7 +123,8 @@ function keepPermissions(fd: number, mode: number): void {
 
 function removeQuietly(file: string): void {
   try {
-    fs.rmSync(file, { force: true });
+    // Recursive: a leftover may be a working folder (main/files/work-folder.ts).
+    fs.rmSync(file, { force: true, recursive: true });
   } catch {
     // The error that stopped the write is the one to report.
   }
@@ -139,10 +141,11 @@ function processRuns(pid: number): boolean {
 }
 
 /**
- * Removes the temporary files that writes of one target left in `folder` when their process
- * was killed half way (SIGKILL, a power cut): their names match `pattern`, whose first
- * group is the writer's process id, and that process has ended. A write still under way in
- * another process keeps its file. Best effort: a file that cannot be listed or removed stays.
+ * Removes the temporary files (or folders) that writes of one target left in `folder` when
+ * their process was killed half way (SIGKILL, a power cut): their names match `pattern`,
+ * whose first group is the writer's process id, and that process has ended. A write still
+ * under way in another process keeps its file. Best effort: a file that cannot be listed or
+ * removed stays.
  */
 export function clearLeftovers(folder: string, pattern: RegExp): void {
   let names: string[];
@@ -195,6 +198,8 @@ export function writeFileAtomic(target: string, content: FileContent): void {
     if ((err as NodeJS.ErrnoException).code !== 'ENOENT') throw describe(err as NodeJS.ErrnoException, target, true);
   }
   if (existing?.isDirectory()) throw describe(Object.assign(new Error('is a folder'), { code: 'EISDIR', syscall: 'open' }), target, true);
+  const database = exportOverProblem(destination);
+  if (database) throw new FileWriteError(`Could not write ${target}: ${database} ${existing ? 'The file that was there is unchanged.' : 'No file was written.'}`, 'EEXIST');
 
   if (existing && !existing.isFile()) {
     let fd: number;

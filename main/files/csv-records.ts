@@ -6,6 +6,7 @@
  * lines come out as records with one empty field, so row numbers stay those a
  * spreadsheet shows. A double quote anywhere else is an error with its row and line.
  */
+import { LONGEST_TEXT } from '../../shared/longest-text';
 
 /** Text that is not CSV; `row` counts records from 1 (the header), `line` physical lines from 1. */
 export class CsvSyntaxError extends Error {
@@ -77,6 +78,17 @@ export function* readCsvRecords(chunks: Iterable<string>): Generator<CsvRecord> 
   let skipLf = false;
   /** The last chunk ended inside a quoted field with a CR, counted as a line break. */
   let quotedCr = false;
+  /** Adds `piece` to the field being read; a field too long to hold as one string is refused by its place. */
+  const gather = (piece: string): void => {
+    if (carry.length + piece.length > LONGEST_TEXT) {
+      throw new CsvSyntaxError(
+        `The file cannot be read at row ${row}, line ${rowLine}: field ${fields.length + 1} is longer than ${LONGEST_TEXT.toLocaleString('en-GB')} characters, the most that can be read as one piece (no column holds nearly that much). Correct it and import again.`,
+        row,
+        rowLine,
+      );
+    }
+    carry += piece;
+  };
 
   for (const text of chunks) {
     const n = text.length;
@@ -117,7 +129,7 @@ export function* readCsvRecords(chunks: Iterable<string>): Generator<CsvRecord> 
         // A CRLF inside a quoted field, cut between two chunks, is one line break, not two.
         if (quotedCr && i === 0 && end > 0 && text.charCodeAt(0) === LF) line--;
         quotedCr = end === n && n > i && text.charCodeAt(n - 1) === CR;
-        carry += text.slice(from, end);
+        gather(text.slice(from, end));
         if (q === -1) {
           i = n;
           break;
@@ -129,7 +141,7 @@ export function* readCsvRecords(chunks: Iterable<string>): Generator<CsvRecord> 
       if (state === State.Quote) {
         const c = text.charCodeAt(i);
         if (c === QUOTE) {
-          carry += '"';
+          gather('"');
           state = State.Quoted;
           i = from = i + 1;
           continue;
@@ -159,7 +171,7 @@ export function* readCsvRecords(chunks: Iterable<string>): Generator<CsvRecord> 
         j++;
       }
       if (j === n) {
-        carry += text.slice(from, n);
+        gather(text.slice(from, n));
         state = State.Plain;
         i = n;
         break;
@@ -171,7 +183,8 @@ export function* readCsvRecords(chunks: Iterable<string>): Generator<CsvRecord> 
           line,
         );
       }
-      fields.push(carry + text.slice(from, j));
+      gather(text.slice(from, j));
+      fields.push(carry);
       carry = '';
       state = State.Start;
       i = from = j + 1;

@@ -6,10 +6,11 @@
 import Database from 'better-sqlite3';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { clearLeftovers, escapeRegExp, temporaryStem } from '../files/atomic-write';
 import { fileNameProblem, isDiaryFile } from '../files/file-name';
+import { copyOverProblem } from '../files/sqlite-files';
+import { makeWorkFolder } from '../files/work-folder';
 import { describeProblem, problemOf, StoreError, toStoreError } from '../store/errors';
 import { SCHEMA_VERSION } from '../store/migrations';
 import { openStore, type Db, type StoreHandles } from '../store/open';
@@ -57,6 +58,8 @@ function copyTarget(file: string): string {
  */
 async function writeCopy(source: Db, sourcePath: string, file: string, onProgress?: (percent: number) => void): Promise<void> {
   const target = copyTarget(file);
+  const unsafe = copyOverProblem(target);
+  if (unsafe) throw new Error(`Could not write ${target}: ${unsafe} No copy was written; the diary is unchanged.`);
   // Not ending in .sqlite, so a partial copy is never taken for one of the rolling backups.
   // "NAME.partial-<pid up to 7 digits>-<8 hex>-journal" adds at most 33 bytes to the name.
   const stem = temporaryStem(path.basename(target), 33);
@@ -95,6 +98,16 @@ async function writeCopy(source: Db, sourcePath: string, file: string, onProgres
     if (problem === 'disk_full' || problem === 'read_only' || problem === 'io_error') throw toStoreError(err, target, 'copy');
     throw toStoreError(err, sourcePath) ?? err;
   }
+}
+
+/**
+ * Removes the partial copies (with their journals) that backups killed half way left in
+ * `dir` under names starting with `prefix`. writeCopy clears a target's own leftovers, but
+ * copies named by the time they are taken (the daily copies, restore's safety copies) are
+ * never written to the same name again, so theirs are cleared here, by the name's start.
+ */
+function clearPartialCopies(dir: string, prefix: string): void {
+  clearLeftovers(dir, new RegExp(`^${escapeRegExp(prefix)}.*\\.partial-(\\d+)-[0-9a-f]{8}(?:-journal|-wal|-shm)?$`));
 }
 
 export async function backupTo(store: StoreHandles, file: string, onProgress?: (percent: number) => void): Promise<void> {
@@ -167,7 +180,7 @@ export async function restoreFrom(backupFile: string, dbPath: string, stamp: num
   const { questions } = inspectBackup(source);
   // The normal opener: a newer diary or another program's file is refused untouched.
   const live = openStore(target);
-  const work = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-restore-'));
+  const work = makeWorkFolder('restore');
   try {
     if (live.readOnly) throw new StoreError('read_only', target, describeProblem('read_only', target));
     const copy = path.join(work, 'restore.sqlite');
@@ -181,6 +194,7 @@ export async function restoreFrom(backupFile: string, dbPath: string, stamp: num
     const safetyCopy = live.created
       ? null
       : target.replace(/(\.sqlite)?$/, `.before-restore-${new Date(stamp).toISOString().replace(/[:.]/g, '-')}.sqlite`);
+    if (safetyCopy) clearPartialCopies(path.dirname(target), path.basename(target).replace(/(\.sqlite)?$/, '.before-restore-'));
     await replaceContents(live, copy, async () => {
       if (safetyCopy) await writeCopy(live.read, target, safetyCopy);
     });
@@ -207,6 +221,7 @@ export async function rollingBackup(
 ): Promise<{ created: string | null; removed: string[] }> {
   if (!Number.isInteger(keep) || keep < 1) throw new RangeError(`keep must be a whole number of copies, at least 1 (got ${keep}).`);
   fs.mkdirSync(dir, { recursive: true });
+  clearPartialCopies(dir, ROLLING_BACKUP_PREFIX);
   const day = new Date(now).toISOString().slice(0, 10);
   const existing = () =>
     fs

@@ -6,9 +6,9 @@
  */
 import Database from 'better-sqlite3';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { fileNameProblem } from '../files/file-name';
+import { makeWorkFolder } from '../files/work-folder';
 import { describeProblem, StoreError, toStoreError } from './errors';
 import { MIGRATIONS, SCHEMA_VERSION, type Migration } from './migrations';
 
@@ -143,11 +143,18 @@ function canRead(file: string): boolean {
   }
 }
 
-/** Refuses a file that holds a newer schema, or tables of some other program. */
+/**
+ * Refuses a file that holds a newer schema, or tables of some other program. The version
+ * and the tables are read in one statement, so from one snapshot: read one after the
+ * other, another process creating the same new diary could commit its first migration in
+ * between (version 0, then Forelog's tables), and its diary was called another program's.
+ */
 function checkVersion(db: Db, file: string): number {
-  const version = db.pragma('user_version', { simple: true }) as number;
+  const { version, tables } = db
+    .prepare("SELECT (SELECT user_version FROM pragma_user_version) AS version, EXISTS (SELECT 1 FROM sqlite_master WHERE type = 'table') AS tables")
+    .get() as { version: number; tables: number };
   if (version > SCHEMA_VERSION) throw new NewerDatabaseError(file, version);
-  if (version === 0 && db.prepare("SELECT 1 FROM sqlite_master WHERE type = 'table' LIMIT 1").get()) {
+  if (version === 0 && tables) {
     throw new StoreError(
       'not_a_diary',
       file,
@@ -289,7 +296,7 @@ function openReadOnly(file: string, options: OpenStoreOptions): StoreHandles {
     if (!needsPrivateCopy(err)) throw err;
   }
 
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'forelog-read-only-'));
+  const dir = makeWorkFolder('read-only');
   const removeDir = () => fs.rmSync(dir, { recursive: true, force: true });
   try {
     const copy = path.join(dir, path.basename(file));

@@ -63,6 +63,14 @@ test('weekly check-in keeps the wall-clock time across DST in New York, London a
   assert.equal(checkinFrom('2025-03-31T22:00:00.000Z', 7, 'Australia/Sydney'), '2025-04-07T23:00:00.000Z');
 });
 
+test('check-ins keep the wall-clock time to the second in a zone whose offset had seconds', () => {
+  // tzdata: Kolkata (Madras time) +5:21:10 in 1901: 05:21:10 local is 00:00:00Z, three days on too.
+  assert.equal(checkinFrom('1901-01-01T00:00:00.000Z', 3, 'Asia/Kolkata'), '1901-01-04T00:00:00.000Z');
+  // tzdata: Monrovia −0:44:30 until 1972-01-07, then UTC: 09:00 local is 09:44:30Z, then 09:00Z.
+  assert.equal(checkinFrom('1960-03-01T09:44:30.000Z', 7, 'Africa/Monrovia'), '1960-03-08T09:44:30.000Z');
+  assert.equal(checkinFrom('1972-01-03T09:44:30.000Z', 7, 'Africa/Monrovia'), '1972-01-10T09:00:00.000Z');
+});
+
 test('check-ins landing in a gap or a repeated hour follow RFC 5545 §3.3.5 in London and Sydney', () => {
   // London 2025-03-30 01:00–02:00 is skipped; 01:30 reads with GMT (the offset before) → 01:30Z = 02:30 BST.
   assert.equal(checkinFrom('2025-03-29T01:30:00.000Z', 1, 'Europe/London'), '2025-03-30T01:30:00.000Z');

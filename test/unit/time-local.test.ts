@@ -68,16 +68,16 @@ test('wall times become the same instants with remembered day offsets as when In
   // The oracle: the RFC 5545 resolution of wallTimeToInstant with every offset asked afresh.
   const offsetAt = (ms: number, zone: string) => {
     const w = wallTimeAt(ms, zone);
-    return Math.round((Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second) - Math.floor(ms / 1000) * 1000) / 60_000);
+    return Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second) - Math.floor(ms / 1000) * 1000;
   };
   const oracle = (w: WallTime, zone: string) => {
     const naive = Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second);
     const before = offsetAt(naive - 86_400_000, zone);
     const after = offsetAt(naive + 86_400_000, zone);
-    for (const t of [naive - before * 60_000, naive - after * 60_000].sort((a, b) => a - b)) {
-      if (offsetAt(t, zone) * 60_000 === naive - t) return t;
+    for (const t of [naive - before, naive - after].sort((a, b) => a - b)) {
+      if (offsetAt(t, zone) === naive - t) return t;
     }
-    return naive - before * 60_000;
+    return naive - before;
   };
   // Zones with an hour's change, half an hour's (Lord Howe), a negative summer offset (Dublin),
   // a skipped calendar day (Apia, end of 2011), changes at odd times (Casablanca, St John's).
@@ -94,4 +94,19 @@ test('wall times become the same instants with remembered day offsets as when In
     }
   }
   assert.ok(checked > 50_000);
+});
+
+test('a wall time in a zone whose offset had seconds (local mean time) is read to the second, and reads back the same', () => {
+  // tzdata: Monrovia kept −0:44:30 until 1972-01-07; Kolkata (Madras time) +5:21:10 until 1906.
+  assert.equal(toIso(parseLocalInZone('1960-06-01T12:00', 'Africa/Monrovia')!), '1960-06-01T12:44:30.000Z');
+  assert.equal(toIso(parseLocalInZone('1901-01-01T05:21:10', 'Asia/Kolkata')!), '1901-01-01T00:00:00.000Z');
+  assert.equal(formatLocal(Date.parse('1960-06-01T12:44:30Z'), 'Africa/Monrovia'), '1960-06-01 12:00');
+  // Every noon (never in a gap) from 1900 to 1975 comes back as the same wall time.
+  for (const zone of ['Africa/Monrovia', 'Asia/Kolkata', 'Europe/Dublin', 'Africa/Abidjan', 'Asia/Kathmandu', 'Europe/Moscow']) {
+    for (let day = Date.UTC(1900, 0, 1); day < Date.UTC(1975, 0, 1); day += 86_400_000) {
+      const d = new Date(day);
+      const wall: WallTime = { year: d.getUTCFullYear(), month: d.getUTCMonth() + 1, day: d.getUTCDate(), hour: 12, minute: 0, second: 0 };
+      assert.deepEqual(wallTimeAt(wallTimeToInstant(wall, zone), zone), wall, `${zone} ${toIso(day).slice(0, 10)}`);
+    }
+  }
 });
