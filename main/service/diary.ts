@@ -50,19 +50,23 @@ import {
 import { toStoredValue } from '../../shared/numeric-value';
 import { beforeOpeningProblem, earlyStateResolutionWarning, futureProblem, isEarlyStateResolution, onClock } from '../../shared/time-rules';
 import {
+  computeChoiceConfidentCalls,
   computeChoiceDetail,
   computeChoiceReport,
   computeNumericDetail,
   computeNumericReport,
+  computeNumericSurprises,
   computeScoreReport,
   computeScorecardDetail,
   brierIntervalOf,
   isStale,
   prepareScoredSet,
+  type ChoiceConfidentCall,
   type ScoreOptions,
   type ScoreReport,
   type ScoredSet,
   type ScoringQuestion,
+  type SurpriseDetail,
 } from '../../shared/scoring';
 import { INSTANT_RANGE, isInstantInRange, parseInstant, parseRangeBound, toIso } from '../../shared/time';
 import * as v from '../../shared/validation';
@@ -741,6 +745,18 @@ export function createDiary(ctx: DiaryContext) {
     return value;
   }
 
+  /** The choice confident calls of a selection, kept like the other figures: Hindsight's pages ask for them again and again. */
+  function choiceCalls(filter: Filter, threshold: number, includeHits: boolean): ChoiceConfidentCall[] {
+    return remembered(`choice-calls|${filterKey(filter)}|${threshold}|${includeHits}`, () =>
+      computeChoiceConfidentCalls(typedScoringInput().choice, scoreOptions(filter), threshold, includeHits),
+    );
+  }
+
+  /** The numeric surprises of a selection, kept like the other figures. */
+  function surprises(filter: Filter): SurpriseDetail[] {
+    return remembered(`surprises|${filterKey(filter)}`, () => computeNumericSurprises(typedScoringInput().numeric, scoreOptions(filter)));
+  }
+
   const filterKey = (req: Filter) =>
     JSON.stringify([req.tag ?? null, req.from ?? null, req.to ?? null, req.costs?.false_alarm ?? null, req.costs?.miss ?? null]);
 
@@ -1254,14 +1270,12 @@ export function createDiary(ctx: DiaryContext) {
       }),
 
     hindsight: (req) => {
-      const options = scoreOptions(req);
       const t = now();
-      const typed = typedScoringInput();
       const offset = req.offset ?? 0;
       const filter = { tag: req.tag, from: req.from, to: req.to };
       const page = confidentCalls(scoredSet(filter), req.threshold, req.include_hits, detailsOf(isBinary, t), { offset, limit: req.limit });
-      const choice = choiceHindsight(typed.choice, options, req.threshold, req.include_hits, detailsOf(isChoice, t), req.choice_limit);
-      const numeric = numericHindsight(typed.numeric, options, detailsOf(isNumeric, t), req.numeric_limit);
+      const choice = choiceHindsight(choiceCalls(filter, req.threshold, req.include_hits), detailsOf(isChoice, t), req.choice_limit);
+      const numeric = numericHindsight(surprises(filter), detailsOf(isNumeric, t), req.numeric_limit);
       return {
         threshold: req.threshold,
         offset,
@@ -1281,7 +1295,6 @@ export function createDiary(ctx: DiaryContext) {
       const filter = { tag: req.tag };
       const options = scoreOptions(filter);
       const t = now();
-      const typed = typedScoringInput();
       // From the scoring input a running app has read ahead; only the calls shown and the
       // open questions are loaded in full (at 100,000 questions, loading every question took
       // a minute and gigabytes).
@@ -1295,8 +1308,8 @@ export function createDiary(ctx: DiaryContext) {
         details: detailsOf(isBinary, t),
         open: qs.loadBundles(read, qs.openQuestionIds(read, req.tag)).map((b) => qs.toQuestion(b, t)),
         threshold: req.threshold,
-        choice_misses: choiceHindsight(typed.choice, options, req.threshold, false, detailsOf(isChoice, t)).entries,
-        numeric_surprises: numericHindsight(typed.numeric, options, detailsOf(isNumeric, t)).entries,
+        choice_misses: choiceHindsight(choiceCalls(filter, req.threshold, false), detailsOf(isChoice, t)).entries,
+        numeric_surprises: numericHindsight(surprises(filter), detailsOf(isNumeric, t)).entries,
       });
       return { html, title: briefingTitle(req.tag ?? null) };
     },

@@ -2,19 +2,13 @@
  * Hindsight for choice and numeric questions: confident calls on the top choice and
  * surprises of a range, each with every revision and the note written at the time. Which
  * questions count, their final forecasts and the selection itself come from
- * shared/scoring (`computeChoiceConfidentCalls`, `computeNumericSurprises`), the one home
- * of those rules; this module only adds what the user wrote.
+ * shared/scoring (`computeChoiceConfidentCalls`, `computeNumericSurprises`, which the
+ * service calls), the one home of those rules; this module only adds what the user wrote.
  */
 import type { ChoiceQuestion, NumericQuestion } from '../../shared/domain';
 import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../shared/hindsight-entries';
 import { fromStoredValue } from '../../shared/numeric-value';
-import {
-  computeChoiceConfidentCalls,
-  computeNumericSurprises,
-  type ScoreFilter,
-  type ScoringChoiceQuestion,
-  type ScoringNumericQuestion,
-} from '../../shared/scoring';
+import type { ChoiceConfidentCall, SurpriseDetail } from '../../shared/scoring';
 import { toIso } from '../../shared/time';
 
 /** Revisions oldest first (same time: entered first), each marked counted when made at or before the window end T. */
@@ -26,24 +20,20 @@ function revisions<F extends { at: string; seq: number; note: string }>(forecast
 }
 
 /**
- * Choice questions whose top choice was held at `threshold` or more: misses (another
- * option came true), and hits when `includeHits`; misses first, the most confident first.
+ * Choice questions whose top choice was held at the threshold or more: misses (another
+ * option came true), and hits when asked for; misses first, the most confident first.
  *
- * @param scoring the choice questions as the engine reads them
- * @param filter tag and window-end bounds, as for the Scorecard
+ * @param all the selection's confident calls, as `computeChoiceConfidentCalls` gives them
+ *   (the caller keeps them while the diary is unchanged: paging asks again and again)
  * @param details the full questions for some ids (notes, options, rule)
  * @param limit how many entries to return in full, from the first; all when undefined
  *   (the counts always cover every call)
  */
 export function choiceHindsight(
-  scoring: readonly ScoringChoiceQuestion[],
-  filter: ScoreFilter,
-  threshold: number,
-  includeHits: boolean,
+  all: readonly ChoiceConfidentCall[],
   details: (ids: string[]) => ChoiceQuestion[],
   limit?: number,
 ): { entries: ChoiceHindsightEntry[]; misses: number; hits: number } {
-  const all = computeChoiceConfidentCalls(scoring, filter, threshold, includeHits);
   const misses = all.filter((c) => c.verdict === 'miss').length;
   const calls = all.slice(0, limit);
   const byId = new Map(details(calls.map((c) => c.id)).map((q) => [q.id, q]));
@@ -76,19 +66,17 @@ export function choiceHindsight(
  * Numeric questions whose outcome fell outside the widest range of the final forecast,
  * the largest surprise (distance outside ÷ width) first, ranges of zero width before them.
  *
- * @param scoring the numeric questions as the engine reads them (dates as days)
- * @param filter tag and window-end bounds, as for the Scorecard
+ * @param all the selection's surprises, as `computeNumericSurprises` gives them (dates as
+ *   days; the caller keeps them while the diary is unchanged)
  * @param details the full questions for some ids (notes, unit, rule)
  * @param limit how many surprises to return in full, from the first; all when undefined
  *   (the count always covers every one)
  */
 export function numericHindsight(
-  scoring: readonly ScoringNumericQuestion[],
-  filter: ScoreFilter,
+  all: readonly SurpriseDetail[],
   details: (ids: string[]) => NumericQuestion[],
   limit?: number,
 ): { entries: NumericHindsightEntry[]; count: number } {
-  const all = computeNumericSurprises(scoring, filter);
   const surprises = all.slice(0, limit);
   const byId = new Map(details(surprises.map((s) => s.id)).map((q) => [q.id, q]));
   const entries = surprises.map((s): NumericHindsightEntry => {

@@ -146,6 +146,20 @@ test('choice_limit and numeric_limit list only the first calls of their list; th
   await assert.rejects(d.call('hindsight', { numeric_limit: 1.5 }), /numeric_limit: must be a whole number from 1 to 1,000/);
 });
 
+test('kept choice calls and surprises follow the diary, and each threshold and hits choice is its own answer', async () => {
+  const { d, miss, milder, hit, wide, early } = await diary();
+  const ids = (list: { id: string }[]) => list.map((e) => e.id);
+  assert.deepEqual(ids((await d.call('hindsight', {})).choice_entries), [miss]);
+  assert.deepEqual(ids((await d.call('hindsight', { threshold: 0.7, include_hits: true })).choice_entries), [miss, milder, hit]);
+  assert.deepEqual(ids((await d.call('hindsight', { threshold: 0.7 })).choice_entries), [miss, milder], 'hits only when asked for');
+  assert.deepEqual(ids((await d.call('hindsight', {})).choice_entries), [miss], 'the earlier answer is not leaked into the default one');
+  await d.call('deleteQuestion', { id: miss });
+  await d.call('deleteQuestion', { id: wide });
+  const after = await d.call('hindsight', {});
+  assert.deepEqual([ids(after.choice_entries), after.choice_miss_count], [[], 0], 'a deleted question is gone at once');
+  assert.deepEqual([ids(after.numeric_surprises), after.numeric_surprise_count], [[early], 1]);
+});
+
 test('a revision after the window end is shown but marked as not counted', async () => {
   const { d, wide } = await diary();
   await d.call('addForecast', { question_id: wide, quantiles: [28, 29, 30], note: 'knew by then', at: '2026-05-01T09:00:00.000Z' });
