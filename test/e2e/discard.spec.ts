@@ -23,6 +23,33 @@ async function openQuickAdd(page: Page): Promise<Locator> {
   return dialog;
 }
 
+test('an untouched New question closes without asking, even when the diary’s time zone arrives after it opened', async ({ browser }) => {
+  // The diary's zone differs from this computer's, and its answer is held back until the form is open.
+  await apiCall(server().url, 'updateSettings', { time_zone: 'Europe/Lisbon' });
+  const context = await browser.newContext({ timezoneId: 'Pacific/Auckland' });
+  const page = await context.newPage();
+  let release = () => {};
+  const held = new Promise<void>((resolve) => (release = resolve));
+  await page.route('**/api/diaryInfo', async (route) => {
+    await held;
+    await route.continue();
+  });
+  try {
+    await page.goto(`${server().url}#/questions`);
+    await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+    const dialog = await openQuickAdd(page);
+    const answered = page.waitForResponse('**/api/diaryInfo');
+    release();
+    await answered;
+    await expect(dialog.getByRole('combobox', { name: 'Time zone for closes' })).toHaveValue('Europe/Lisbon');
+    await page.keyboard.press('Escape');
+    await expect(dialog).toBeHidden();
+    await expect(prompt(page)).toHaveCount(0);
+  } finally {
+    await context.close();
+  }
+});
+
 test('a half-filled dialog asks before Escape, ×, a click outside or Cancel throw the text away', async ({ browser }) => {
   const app = await openApp(browser, server(), {}, 'questions');
   const { page } = app;

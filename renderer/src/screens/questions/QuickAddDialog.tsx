@@ -84,7 +84,11 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   const [kind, setKind] = useState<QuestionKind>('event_by_deadline');
   const [closesLocal, setClosesLocal] = useState('');
   const [openedLocal, setOpenedLocal] = useState('');
-  const [timeZone, setTimeZone] = useState(defaultZone);
+  // The zone the user chose, if any; until then the diary's, which may arrive after the form
+  // opens (a form that copied it at opening kept this computer's zone and, once the diary's
+  // came, counted itself as changed and asked to discard an untouched form).
+  const [chosenZone, setTimeZone] = useState<string | null>(null);
+  const timeZone = chosenZone ?? defaultZone;
   const [baseRate, setBaseRate] = useState('');
   const [baseRateNote, setBaseRateNote] = useState('');
   const [firstP, setFirstP] = useState('');
@@ -101,7 +105,7 @@ function QuickAddForm({ onDone }: { onDone: () => void }) {
   }, []);
 
   const dirty =
-    title !== '' || rule !== '' || kind !== 'event_by_deadline' || closesLocal !== '' || openedLocal !== '' || timeZone !== defaultZone ||
+    title !== '' || rule !== '' || kind !== 'event_by_deadline' || closesLocal !== '' || openedLocal !== '' || (chosenZone !== null && chosenZone !== defaultZone) ||
     baseRate !== '' || baseRateNote !== '' || firstP !== '' || firstNote !== '' || tags.length > 0 || typed.dirty;
 
   async function onSubmit(event: FormEvent) {
