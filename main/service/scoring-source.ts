@@ -538,5 +538,5 @@ function finishBinary(db: Db, parts: readonly BinaryPart[]): ScoringQuestion[] {
     .raw()
     .all() as [number, number, number][];
   for (const [rowid, at, p] of references) byRowid.get(rowid)?.references.push({ at, p });
-  return inExportOrder(questions, (q) => q.closes_at, (q) => q.id);
+  return inExportOrder(questions, byClose, byId);
 }

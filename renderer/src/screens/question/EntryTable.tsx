@@ -37,7 +37,7 @@ interface EntryTableProps {
  * Rows drawn at first, the latest, and added above them by each "Show earlier": a question
  * revised every day for years would otherwise draw thousands of rows before its page shows.
  */
-export const HISTORY_PAGE = 100;
+const HISTORY_PAGE = 100;
 
 export function EntryTable({ kind, caption, headers, cellClassName, cellTestId, detailHeader, empty, zone, rows, onDelete }: EntryTableProps) {
   // After "Show earlier", focus moves to the earliest row now shown: reading on goes forward in time.
