@@ -11,6 +11,7 @@ import type { ChoiceHindsightEntry, NumericHindsightEntry } from './hindsight-en
 import { entryIssues, questionTypeIssues, resolutionPairingIssues, shapeOf } from './question-types';
 import type { ChoiceDetail, ChoiceReport, NumericDetail, NumericReport, ScorecardDetail, ScoreReport } from './scoring/types';
 import * as v from './validation';
+import { CONFIDENT_THRESHOLD } from './scoring/confidence';
 import { groupedDigits } from './grouped-digits';
 
 const id = v.id('must be an id');
@@ -166,7 +167,7 @@ export const hindsightRequest = z
     threshold: z
       .number({ error: 'must be a number' })
       .refine((t) => t >= 0.5 && t <= 1, { message: 'must be between 0.5 and 1' })
-      .default(0.8),
+      .default(CONFIDENT_THRESHOLD),
     include_hits: z.boolean({ error: 'must be true or false' }).default(false),
     /** How many entries to skip (paging); 0 when left out. */
     offset: v.count(Number.MAX_SAFE_INTEGER).optional(),

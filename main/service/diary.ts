@@ -58,6 +58,7 @@ import {
   computeNumericSurprises,
   computeScoreReport,
   computeScorecardDetail,
+  CONFIDENT_THRESHOLD,
   brierIntervalOf,
   isStale,
   prepareScoredSet,
@@ -704,10 +705,12 @@ export function createDiary(ctx: DiaryContext) {
 
   function warmStep(version: number): boolean {
     if (scoringCache?.version === version) {
-      // Last, the scored set that both screens start from (no filter), in one step of its own.
-      const key = `set|${filterKey({})}`;
-      if (figures?.version === version && figures.byKey.has(key)) return true;
-      scoredSet({});
+      // Then what a first visit to the Scorecard and Hindsight asks for (no filter, the
+      // default threshold), one figure per step: on a diary of every type the Scorecard's
+      // choice and numeric figures alone took 0.3 s of its first visit.
+      if (warmed?.version !== version) warmed = { version, done: 0 };
+      if (warmed.done === WARM_FIGURES.length) return true;
+      WARM_FIGURES[warmed.done++]!();
       return false;
     }
     if (stepwise?.version !== version) stepwise = startStepwiseRead(read);
@@ -717,6 +720,17 @@ export function createDiary(ctx: DiaryContext) {
     if (input !== null) scoringCache = { version, input };
     return false; // the caller looks again: either the input is now current, or the diary moved on
   }
+
+  /** The figures reading ahead computes after the input, in this order (see warmStep); each is kept by `remembered`. */
+  const WARM_FIGURES: (() => unknown)[] = [
+    () => scoredSet({}),
+    () => scoreJson({}),
+    () => handlers.score({}),
+    () => choiceCalls({}, CONFIDENT_THRESHOLD, false),
+    () => surprises({}),
+  ];
+  /** How many of them are computed for the diary state `version`. */
+  let warmed: { version: number; done: number } | null = null;
 
   /** The yes/no questions as the engine sees them; "what if" costs replace each question's own. */
   function scoringInput(req: { costs?: { false_alarm: number; miss: number } }): ScoringQuestion[] {

@@ -391,7 +391,7 @@ test('warming up ahead of need reads the input in steps until it is current, and
   while (!d.service.diary.warmScoringInput()) calls++;
   assert.ok(calls >= 1);
   assert.equal(d.service.diary.warmScoringInput(), true, 'nothing left to do while the diary stays as it is');
-  for (const [op, request] of [['score', {}], ['hindsight', { include_hits: true }], ['score', { tag: 'pricing' }]] as const) {
+  for (const [op, request] of [['score', {}], ['hindsight', {}], ['hindsight', { include_hits: true }], ['score', { tag: 'pricing' }]] as const) {
     assert.deepEqual(await d.call(op, request as never), await coldCall(d, op, request), op);
   }
 });
