@@ -7,9 +7,10 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { isCheckout } from '../scripts/freshness.mjs';
-import { ApiError, parseRequest, type DueList, type ImportResult } from '../shared/contract';
+import { ApiError, parseRequest, type DueList, type ImportResult, type TagCount } from '../shared/contract';
 import { NUDGE_KIND_NAMES } from '../shared/domain';
-import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, toIso } from '../shared/time';
+import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, parseRangeBound, toIso } from '../shared/time';
+import { readInstant } from '../shared/validation';
 import { version as VERSION } from '../package.json';
 import { FileWriteError, writeToDescriptor, type Chunk } from './files/atomic-write';
 import { fileNameProblem } from './files/file-name';
@@ -189,7 +190,27 @@ function onDiaryClock(option: string, text: string | undefined, timeZone: string
       `--${option} ${text} is not a date and time that exists; write it as ${bareDate ? '2026-03-31 (a UTC day), ' : ''}2026-03-31T17:00 (on the diary's clock, ${timeZone}) or 2026-03-31T17:00+01:00`,
     );
   }
+  // Anything else goes to the service as written: a time with an offset or Z (or, for --from
+  // and --to, a bare date). What it could not read is said here in the command line's own
+  // terms — the service's message names only the forms a request may carry, not the diary's clock.
+  const readable = bareDate ? parseRangeBound(text, option === 'to' ? 'to' : 'from') !== null : typeof readInstant(text) === 'number';
+  if (!readable) {
+    throw new UsageError(
+      `--${option} ${text} is not a ${bareDate ? 'date or time' : 'time'} Forelog can read; write ${bareDate ? '2026-03-31 (a UTC day), ' : ''}2026-03-31T17:00 (on the diary's clock, ${timeZone}) or 2026-03-31T17:00+01:00 (year first, 24-hour clock)`,
+    );
+  }
   return text;
+}
+
+/**
+ * An empty scorecard for a tag no question has is most often a typo (tags match exactly):
+ * says so on stderr, with the tags the diary has, and leaves the answer on stdout as it is.
+ */
+function unknownTagNote(tag: string, tags: readonly TagCount[]): void {
+  if (tags.some((t) => t.tag === tag)) return;
+  const SHOWN = 12;
+  const known = tags.length === 0 ? 'it has no tags yet' : `its tags: ${tags.slice(0, SHOWN).map((t) => t.tag).join(', ')}${tags.length > SHOWN ? `, and ${tags.length - SHOWN} more` : ''}`;
+  process.stderr.write(`forelog: no question in this diary has the tag "${tag}" (tags match exactly); ${known}.\n`);
 }
 
 /** The diary path the arguments name, for messages about the file after a failure. */
@@ -360,7 +381,7 @@ async function run(argv: string[]): Promise<void> {
       if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv for import (got "${format}")`);
       const tooLong = fileNameProblem(file);
       if (tooLong) throw new Error(`${tooLong} Nothing was imported.`);
-      if (!fs.existsSync(file)) throw new Error(`there is no file at ${file}; check the path`);
+      if (!fs.existsSync(file)) throw new Error(`There is no file at ${file}. Check the path; nothing was imported.`);
       // Streamed from the file: no size limit, all or nothing.
       const progress = progressLine(`Importing ${file}`, 'saving');
       let result: ImportResult;
@@ -399,7 +420,9 @@ async function run(argv: string[]): Promise<void> {
       const report = await withDiary(dbPath, { create: false }, async (s) => {
         const zone = s.diary.settings().time_zone;
         const request = { tag: values.tag, from: onDiaryClock('from', values.from, zone, true), to: onDiaryClock('to', values.to, zone, true) };
-        return s.diary.scoreReport(parseRequest('score', request));
+        const report = s.diary.scoreReport(parseRequest('score', request));
+        if (values.tag !== undefined) unknownTagNote(values.tag, (await s.diary.handlers.listTags({})).tags);
+        return report;
       });
       if (values.json) writeStdout(`${JSON.stringify(report, null, 2)}\n`);
       else {

@@ -46,6 +46,7 @@ function londonDiary(): { db: string; file: string } {
           title: 'Signed in the last half hour of June, London time',
           opened_at: '2026-06-01T08:00:00Z',
           closes_at: '2026-06-30T23:30:00Z',
+          tags: ['harbour', 'leases'],
           forecasts: [{ at: '2026-06-02T08:00:00Z', p: 0.8 }],
           resolution: { outcome: 'yes', at: '2026-06-30T23:30:00Z' },
         },
@@ -103,12 +104,38 @@ test('--from and --to: a bare date is that UTC day, a date and time without offs
     bad.stderr,
     "forelog: --from 2026-02-30T10:00 is not a date and time that exists; write it as 2026-03-31 (a UTC day), 2026-03-31T17:00 (on the diary's clock, Europe/London) or 2026-03-31T17:00+01:00. See forelog --help.\n",
   );
+  // A form the command line cannot read is refused in its own terms (the diary's clock
+  // included), not with the API's message, which names only forms with an offset.
+  for (const [option, text] of [['--from', '31/03/2026'], ['--to', '2026-13-01'], ['--from', 'yesterday']]) {
+    const r = forelog('score', option!, text!, '--db', db);
+    assert.equal(r.status, 1, text);
+    assert.equal(
+      r.stderr,
+      `forelog: ${option} ${text} is not a date or time Forelog can read; write 2026-03-31 (a UTC day), 2026-03-31T17:00 (on the diary's clock, Europe/London) or 2026-03-31T17:00+01:00 (year first, 24-hour clock). See forelog --help.\n`,
+    );
+  }
+  const tomorrow = forelog('due', '--at', 'tomorrow', '--db', db);
+  assert.equal(
+    tomorrow.stderr,
+    "forelog: --at tomorrow is not a time Forelog can read; write 2026-03-31T17:00 (on the diary's clock, Europe/London) or 2026-03-31T17:00+01:00 (year first, 24-hour clock). See forelog --help.\n",
+  );
   const help = forelog('--help');
   assert.match(help.stdout, /2026-03-31 {18}a bare date: that whole day in UTC/);
   assert.match(help.stdout, /2026-03-31T17:00 {12}a date and time without offset: on the diary's clock/);
 });
 
-test('an option the command does not use is refused, and the help hint comes once', () => {
+test('score --tag with a tag no question has says so on stderr with the diary’s tags; the answer on stdout stays as it was', () => {
+  const { db } = londonDiary();
+  const typo = forelog('score', '--json', '--tag', 'harbor', '--db', db);
+  assert.equal(typo.status, 0);
+  assert.equal((JSON.parse(typo.stdout) as { scored: number }).scored, 0);
+  assert.equal(typo.stderr, 'forelog: no question in this diary has the tag "harbor" (tags match exactly); its tags: harbour, leases.\n');
+  const known = forelog('score', '--json', '--tag', 'harbour', '--db', db);
+  assert.equal(known.stderr, '');
+  assert.equal((JSON.parse(known.stdout) as { scored: number }).scored, 1);
+});
+
+test('an option the command does not use is refused, and the help hint comes once; a missing import file is named', () => {
   const { db } = londonDiary();
   const cases: [string[], string][] = [
     [['score', '--port', '3'], 'forelog: score does not use --port; it takes --tag, --from, --to, --json. See forelog --help.\n'],
@@ -119,6 +146,7 @@ test('an option the command does not use is refused, and the help hint comes onc
     [['score', '--tag'], 'forelog: --tag needs a value: write --tag VALUE (or --tag=VALUE for one that starts with a dash). See forelog --help.\n'],
     [['score', '--tag', '-x'], 'forelog: --tag needs a value: write --tag VALUE (or --tag=VALUE for one that starts with a dash). See forelog --help.\n'],
     [['score', '--json=1'], 'forelog: --json takes no value; write --json alone. See forelog --help.\n'],
+    [['import', 'no-such-export.json'], 'forelog: There is no file at no-such-export.json. Check the path; nothing was imported.\n'],
   ];
   for (const [args, stderr] of cases) {
     const r = forelog(...args, '--db', db);
