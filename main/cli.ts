@@ -417,18 +417,17 @@ async function run(argv: string[]): Promise<void> {
     }
     case 'score': {
       if (positionals.length) throw new UsageError('takes no FILE; filter with --tag, --from and --to');
-      const report = await withDiary(dbPath, { create: false }, async (s) => {
+      const text = await withDiary(dbPath, { create: false }, async (s) => {
         const zone = s.diary.settings().time_zone;
-        const request = { tag: values.tag, from: onDiaryClock('from', values.from, zone, true), to: onDiaryClock('to', values.to, zone, true) };
-        const report = s.diary.scoreReport(parseRequest('score', request));
+        const request = parseRequest('score', { tag: values.tag, from: onDiaryClock('from', values.from, zone, true), to: onDiaryClock('to', values.to, zone, true) });
         if (values.tag !== undefined) unknownTagNote(values.tag, (await s.diary.handlers.listTags({})).tags);
-        return report;
-      });
-      if (values.json) writeStdout(`${JSON.stringify(report, null, 2)}\n`);
-      else {
+        if (values.json) return `${JSON.stringify(s.diary.scoreReport(request), null, 2)}\n`;
+        // The readable form also prints the headline scores' intervals, which are the Scorecard's, not part of the JSON.
+        const { report, detail } = await s.diary.handlers.score(request);
         const note = [values.tag && `tag ${values.tag}`, values.from && `from ${values.from}`, values.to && `to ${values.to}`].filter(Boolean).join(', ');
-        writeStdout(formatScoreTable(report, note));
-      }
+        return formatScoreTable(report, note, { brier: detail.brier_interval, log: detail.log_interval });
+      });
+      writeStdout(text);
       return;
     }
     case 'due': {

@@ -17,6 +17,9 @@ const pct = (v: number | null): string => (v === null ? '—' : `${Math.round(v 
 
 type Row = (label: string, value: string, note?: string) => void;
 
+/** A headline score's 95 % interval as a note (none when fewer than two questions are scored). */
+const interval = (range: [number, number] | null): string => (range === null ? '' : ` · 95% interval ${num(range[0])}–${num(range[1])}`);
+
 const counted = (c: { scored: number; unscored: number; void: number; open: number }) => c.scored + c.unscored + c.void + c.open;
 const countsLine = (c: { scored: number; unscored: number; void: number; open: number }) =>
   `  ${count(c.scored)} scored · ${count(c.unscored)} resolved without a counting forecast · ${count(c.void)} void · ${count(c.open)} open`;
@@ -25,7 +28,11 @@ const countsLine = (c: { scored: number; unscored: number; void: number; open: n
  * The scorecard for a terminal. The yes/no figures come first, as they always did; the
  * multiple-choice and numeric sections follow when the selection holds such questions.
  */
-export function formatScoreTable(r: ScoreReport & { choice?: ChoiceReport; numeric?: NumericReport }, filterNote: string): string {
+export function formatScoreTable(
+  r: ScoreReport & { choice?: ChoiceReport; numeric?: NumericReport },
+  filterNote: string,
+  intervals: { brier: [number, number] | null; log: [number, number] | null },
+): string {
   const lines: string[] = [];
   const row: Row = (label, value, note = '') => lines.push(`  ${label.padEnd(30)} ${value.padStart(9)}  ${note}`.trimEnd());
   lines.push(`Forelog scorecard${filterNote ? ` (${filterNote})` : ''}`);
@@ -44,9 +51,9 @@ export function formatScoreTable(r: ScoreReport & { choice?: ChoiceReport; numer
     return `${lines.join('\n')}\n`;
   }
   lines.push('', 'Accuracy (lower is better)');
-  row('Brier score (final)', num(r.brier), '0 perfect · 0.25 always 50%');
+  row('Brier score (final)', num(r.brier), `0 perfect · 0.25 always 50%${interval(intervals.brier)}`);
   row('Brier score (time-averaged)', num(r.brier_time_avg));
-  row('Log score', num(r.log_score), 'natural log');
+  row('Log score', num(r.log_score), `natural log${interval(intervals.log)}`);
   lines.push('', 'Calibration');
   for (const b of r.bins) {
     row(`  said ~${b.index * 10}% (n=${count(b.n)})`, pct(b.observed), `came true; 95% interval ${pct(b.wilson_low)}–${pct(b.wilson_high)}`);

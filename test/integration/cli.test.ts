@@ -133,6 +133,29 @@ test('demo fills only an empty diary', () => {
   assert.match(again.stderr, /only be loaded into an empty diary/);
 });
 
+test('score without --json prints the headline scores with their 95 % intervals, as the Scorecard does', () => {
+  const dir = tempDir();
+  const file = path.join(dir, 'three.json');
+  const q = (id: string, p: number, outcome: 'yes' | 'no') => ({
+    id,
+    title: `Question ${id}`,
+    opened_at: '2026-01-05T09:00:00Z',
+    closes_at: '2026-03-31T17:00:00Z',
+    forecasts: [{ at: '2026-01-06T09:00:00Z', p }],
+    resolution: { outcome, at: '2026-03-31T17:00:00Z' },
+  });
+  fs.writeFileSync(file, JSON.stringify({ format: 'forelog-diary', version: 1, questions: [q('a', 0.9, 'yes'), q('b', 0.7, 'yes'), q('c', 0.4, 'no')] }));
+  const db = path.join(dir, 'd.sqlite');
+  assert.equal(forelog('import', file, '--db', db).status, 0);
+  const r = forelog('score', '--db', db);
+  assert.equal(r.status, 0, r.stderr);
+  // Worked by hand (mean ± 1.96·s/√n, s the sample standard deviation; common practice, see
+  // docs/scoring.md): Brier scores 0.01, 0.09, 0.16 → 0.0867 ± 0.0849; log scores −ln 0.9,
+  // −ln 0.7, −ln 0.6 → 0.3243 ± 0.2316.
+  assert.match(r.stdout, /Brier score \(final\) +0\.087 +0 perfect · 0\.25 always 50% · 95% interval 0\.002–0\.172\n/);
+  assert.match(r.stdout, /Log score +0\.324 +natural log · 95% interval 0\.093–0\.556\n/);
+});
+
 test('backup and restore round-trip, keeping a safety copy of the replaced diary', () => {
   const dir = tempDir();
   const db = path.join(dir, 'd.sqlite');
