@@ -2,8 +2,9 @@
  * Lists that grow with the diary come a page at a time: Hindsight's choice confident
  * misses and numeric surprises (20 at first, then "Show more", the heading counting the
  * whole selection), the Scorecard's per-question table of numeric scores (25 rows at first;
- * focus moves to the first row added), and a question's history (its latest 100 revisions;
- * "Show earlier" adds older ones above). Axe scans each.
+ * focus moves to the first row added), a question's history (its latest 100 revisions;
+ * "Show earlier" adds older ones above) and a Hindsight card's revisions (its latest 10).
+ * Axe scans each.
  */
 import { expect, test } from '@playwright/test';
 import { apiCall, daysAgo, expectNoSeriousViolations } from './helpers';
@@ -104,4 +105,34 @@ test('a long history shows its latest 100 revisions; Show earlier adds the older
   await expect(rows.first().locator('td').first()).toBeFocused();
   await expect(page.getByRole('button', { name: /Show \d+ earlier/ })).toHaveCount(0);
   await expectNoSeriousViolations(page, 'a question with its whole long history shown');
+});
+
+test('a Hindsight card shows its latest 10 revisions; Show earlier adds older ones above, 50 at a time, focus on the earliest shown', async () => {
+  const { page } = app;
+  const forecasts = Array.from({ length: 64 }, (_, i) => ({ at: iso(200 - i), p: 0.9, note: `Weekly read ${i + 1}` }));
+  await apiCall(server().url, 'importDiary', {
+    diary: {
+      format: 'forelog-diary',
+      version: 1,
+      questions: [{ id: 'weekly', title: 'Lunsford keeps the depot open', opened_at: iso(210), closes_at: iso(10), forecasts, resolution: { outcome: 'no', at: iso(5) } }],
+    },
+  });
+  await page.goto(`${server().url.split('?')[0]}#/hindsight`);
+  await page.locator('[data-hindsight-ready="true"]').waitFor();
+  const card = page.locator('[data-testid="hindsight-entry"][data-id="weekly"]');
+  const notes = card.getByTestId('revision-note');
+  await expect(notes).toHaveCount(10);
+  await expect(notes.first()).toHaveText('Weekly read 55');
+  await expect(notes.last()).toHaveText('Weekly read 64');
+  await expect(card.getByRole('table')).toContainText('The latest revisions, with what you wrote at the time');
+  await expect(card.getByText('10 of 64 shown, the latest')).toBeVisible();
+  await card.getByRole('button', { name: 'Show 50 earlier' }).click();
+  await expect(notes).toHaveCount(60);
+  await expect(notes.first()).toHaveText('Weekly read 5');
+  await expect(card.locator('tbody tr').first().locator('td').first()).toBeFocused();
+  await card.getByRole('button', { name: 'Show 4 earlier' }).click();
+  await expect(notes).toHaveCount(64);
+  await expect(card.getByRole('table')).toContainText('Every revision, with what you wrote at the time');
+  await expect(card.getByRole('button', { name: /Show \d+ earlier/ })).toHaveCount(0);
+  await expectNoSeriousViolations(page, 'a Hindsight card with its whole long history shown');
 });

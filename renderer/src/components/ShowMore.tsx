@@ -73,10 +73,11 @@ function useFocusAfterMore(shown: number, find: (index: number) => HTMLElement |
 /**
  * How many items of a list drawn a page at a time are shown: `more` adds a page and, once
  * it is drawn, focuses what `find` gives for its first item (see useFocusAfterMore);
- * `reset` goes back to the first page (a new selection).
+ * `reset` goes back to the first page (a new selection). The first page holds `first`
+ * items when it differs from the others.
  */
-export function usePages(page: number, find: (index: number) => HTMLElement | null | undefined) {
-  const [shown, setShown] = useState(page);
+export function usePages(page: number, find: (index: number) => HTMLElement | null | undefined, first = page) {
+  const [shown, setShown] = useState(first);
   const focusFrom = useFocusAfterMore(shown, find);
   return {
     shown,
@@ -84,6 +85,6 @@ export function usePages(page: number, find: (index: number) => HTMLElement | nu
       focusFrom(shown);
       setShown((n) => n + page);
     },
-    reset: () => setShown(page),
+    reset: () => setShown(first),
   };
 }

@@ -1,12 +1,13 @@
 /**
  * One confident call: what was asked and by which rule, the final number against what
- * happened, and every revision with the note written at the time — the notes are why the
- * review exists, so they get the most room. Revisions made after the window end are shown
+ * happened, and its revisions with the note written at the time (the latest first in view,
+ * the rest a press away) — the notes are why the review exists, so they get the most room. Revisions made after the window end are shown
  * but marked: they never count towards a score.
  */
 import { useId } from 'react';
 import type { HindsightEntry } from '../../../../shared/contract';
 import { Badge } from '../../components/Badge';
+import { RevisionTable } from './RevisionTable';
 import { formatInstant } from '../../dates';
 import { hrefTo, questionPath } from '../../routing';
 import { PathSparkline } from './PathSparkline';
@@ -63,36 +64,11 @@ export function EntryCard({ entry, threshold, timeZone }: EntryCardProps) {
         </p>
       ) : null}
 
-      <table className="hs-revisions" data-testid="revisions">
-        <caption className="hs-revisions__caption">Every revision, with what you wrote at the time</caption>
-        <thead>
-          <tr>
-            <th scope="col">When</th>
-            <th scope="col" className="num">
-              You said
-            </th>
-            <th scope="col">Note</th>
-          </tr>
-        </thead>
-        <tbody>
-          {entry.forecasts.map((f, i) => (
-            <tr key={i} className={f.counted ? undefined : 'hs-revisions__late'} data-counted={f.counted ? 'true' : 'false'}>
-              <td className="nowrap">
-                {formatInstant(f.at, timeZone, false)}
-                {f.counted ? null : (
-                  <span className="hs-revisions__late-mark">
-                    <Badge tone="amber">late, not scored</Badge>
-                  </span>
-                )}
-              </td>
-              <td className="num hs-revisions__p">{wholePercent(f.p)}</td>
-              <td className="hs-revisions__note note" data-testid="revision-note">
-                {f.note ? f.note : <span className="muted">No note written.</span>}
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+      <RevisionTable
+        revisions={entry.forecasts.map((f) => ({ at: f.at, note: f.note, counted: f.counted, said: wholePercent(f.p) }))}
+        timeZone={timeZone}
+        figures="probability"
+      />
 
       <div className="hs-entry__resolution">
         <p className="hs-entry__resolved">

@@ -10,52 +10,13 @@ import type { Hindsight } from '../../../../shared/contract';
 import type { ChoiceHindsightEntry, NumericHindsightEntry } from '../../../../shared/hindsight-entries';
 import { toStoredValue } from '../../../../shared/numeric-value';
 import { Badge } from '../../components/Badge';
+import { RevisionTable, type Revision } from './RevisionTable';
 import { formatCount, formatInstant } from '../../dates';
 import { formatValue } from '../../forecastEntry/numericEntry';
 import { numericSummary } from '../../questionTypes/summaries';
 import { hrefTo, questionPath } from '../../routing';
 import { choiceVerdictSentence, everyOption, surpriseSentence } from './typedWording';
 import './typedEntries.css';
-
-interface Revision {
-  at: string;
-  note: string;
-  counted: boolean;
-  said: string;
-}
-
-function Revisions({ revisions, timeZone }: { revisions: Revision[]; timeZone: string }) {
-  return (
-    <table className="hs-revisions" data-testid="revisions">
-      <caption className="hs-revisions__caption">Every revision, with what you wrote at the time</caption>
-      <thead>
-        <tr>
-          <th scope="col">When</th>
-          <th scope="col">You said</th>
-          <th scope="col">Note</th>
-        </tr>
-      </thead>
-      <tbody>
-        {revisions.map((f, i) => (
-          <tr key={i} className={f.counted ? undefined : 'hs-revisions__late'} data-counted={f.counted ? 'true' : 'false'}>
-            <td className="nowrap">
-              {formatInstant(f.at, timeZone, false)}
-              {f.counted ? null : (
-                <span className="hs-revisions__late-mark">
-                  <Badge tone="amber">late, not scored</Badge>
-                </span>
-              )}
-            </td>
-            <td className="hs-revisions__said">{f.said}</td>
-            <td className="hs-revisions__note note" data-testid="revision-note">
-              {f.note ? f.note : <span className="muted">No note written.</span>}
-            </td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
-  );
-}
 
 interface CardFrameProps {
   id: string;
@@ -100,7 +61,7 @@ function CardFrame(p: CardFrameProps) {
           <span className="hs-label">Rule</span> {p.rule}
         </p>
       ) : null}
-      <Revisions revisions={p.revisions} timeZone={p.timeZone} />
+      <RevisionTable revisions={p.revisions} timeZone={p.timeZone} figures="typed" />
       <div className="hs-entry__resolution">
         <p className="hs-entry__resolved">
           <span className="hs-label">Resolved: {p.resolved}</span> {formatInstant(p.resolution.at, p.timeZone)}
