@@ -9,8 +9,7 @@ import { parseArgs } from 'node:util';
 import { isCheckout } from '../scripts/freshness.mjs';
 import { ApiError, parseRequest, type DueList, type ImportResult, type TagCount } from '../shared/contract';
 import { NUDGE_KIND_NAMES } from '../shared/domain';
-import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseLocalInZone, parseRangeBound, toIso } from '../shared/time';
-import { readInstant } from '../shared/validation';
+import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseInstant, parseLocalInZone, parseRangeBound, toIso } from '../shared/time';
 import { version as VERSION } from '../package.json';
 import { FileWriteError, writeToDescriptor, type Chunk } from './files/atomic-write';
 import { fileNameProblem } from './files/file-name';
@@ -191,9 +190,10 @@ function onDiaryClock(option: string, text: string | undefined, timeZone: string
     );
   }
   // Anything else goes to the service as written: a time with an offset or Z (or, for --from
-  // and --to, a bare date). What it could not read is said here in the command line's own
-  // terms — the service's message names only the forms a request may carry, not the diary's clock.
-  const readable = bareDate ? parseRangeBound(text, option === 'to' ? 'to' : 'from') !== null : typeof readInstant(text) === 'number';
+  // and --to, a bare date), whose range the service checks. A form it could not read is said
+  // here in the command line's own terms — the service's message names only the forms a
+  // request may carry, not the diary's clock.
+  const readable = bareDate ? parseRangeBound(text, option === 'to' ? 'to' : 'from') !== null : parseInstant(text) !== null;
   if (!readable) {
     throw new UsageError(
       `--${option} ${text} is not a ${bareDate ? 'date or time' : 'time'} Forelog can read; write ${bareDate ? '2026-03-31 (a UTC day), ' : ''}2026-03-31T17:00 (on the diary's clock, ${timeZone}) or 2026-03-31T17:00+01:00 (year first, 24-hour clock)`,

@@ -181,5 +181,5 @@ test('forelog due --json prints the documented shape', async () => {
   assert.deepEqual(out.nudges.map((n: { kind: string }) => n.kind), ['checkin', 'window_closed']);
   const bad = spawnSync(process.execPath, ['--import', 'tsx', path.join(root, 'main', 'cli.ts'), 'due', '--at', 'tomorrow', '--db', d.dbPath], { cwd: root, encoding: 'utf8' });
   assert.equal(bad.status, 1);
-  assert.match(bad.stderr, /at: must be an ISO 8601/);
+  assert.match(bad.stderr, /--at tomorrow is not a time Forelog can read; write 2026-03-31T17:00 \(on the diary's clock, .*\) or 2026-03-31T17:00\+01:00/);
 });
