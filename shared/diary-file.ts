@@ -110,7 +110,7 @@ function recordLabel(record: unknown): string | null {
   if (typeof record !== 'object' || record === null || Array.isArray(record)) return null;
   const { title, id } = record as { title?: unknown; id?: unknown };
   const shown = (text: unknown): string | null =>
-    typeof text === 'string' && text.trim() !== '' && v.controlCharacterProblem(text, 'one') === null ? text.trim() : null;
+    typeof text === 'string' && v.showsSomething(text) && v.controlCharacterProblem(text, 'one') === null ? text.trim() : null;
   const t = shown(title);
   if (t !== null) {
     const chars = [...t];
@@ -241,7 +241,7 @@ const isNote = (x: unknown): x is string => typeof x === 'string' && x.length <=
 function filledLine(x: unknown, max: number): string | null {
   if (typeof x !== 'string' || v.controlCharacterProblem(x, 'one') !== null) return null;
   const t = x.trim();
-  return t.length >= 1 && t.length <= max ? t : null;
+  return t.length >= 1 && t.length <= max && v.showsSomething(t) ? t : null;
 }
 /** The instant rule (v.instantMs) as epoch ms; null when it is not one. */
 function instantOf(x: unknown): number | null {

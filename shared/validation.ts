@@ -137,8 +137,24 @@ const atMost = (max: number) => ({
 
 const grouped = groupedDigits;
 
-/** One line of text, trimmed, not empty once trimmed: after this rule SQLite's length(trim(x)) > 0 holds too. */
-const filledLine = (max: number, empty = 'must not be empty') => text('one').trim().min(1, { message: empty }).max(max, atMost(max));
+/**
+ * Text that shows nothing: white space and the characters Unicode says a renderer may leave
+ * undrawn (zero-width spaces and joiners, the word joiner, soft hyphens, variation selectors,
+ * the Hangul fillers), plus the blank Braille pattern. trim() keeps these, so a title of
+ * zero-width spaces passed as filled and then showed as an empty row nobody could read.
+ */
+const INVISIBLE_ONLY = /^[\p{White_Space}\p{Default_Ignorable_Code_Point}\u2800]*$/u;
+
+/** True when `text` has at least one character that shows (the filled-line rule below; the diary file's fast path reuses it). */
+export const showsSomething = (text: string): boolean => !INVISIBLE_ONLY.test(text);
+
+/** One line of text, trimmed, not empty once trimmed, with something visible: after this rule SQLite's length(trim(x)) > 0 holds too. */
+const filledLine = (max: number, empty = 'must not be empty') =>
+  text('one')
+    .trim()
+    .min(1, { message: empty })
+    .max(max, atMost(max))
+    .refine(showsSomething, { message: `${empty}: it holds only invisible characters (such as zero-width spaces); write some visible text` });
 
 export const title = filledLine(300);
 
