@@ -24,7 +24,7 @@ import {
 } from './domain';
 import { ByteText, copyInto, numberBytes, utf8 } from './byte-text';
 import { JsonStreamError, readObjectStream } from './json-stream';
-import { isValidTimeZone, ISO_MAX_BYTES, writeIso } from './time';
+import { ISO_MAX_BYTES, writeIso, zoneName } from './time';
 import * as v from './validation';
 
 export const DIARY_FORMAT = 'forelog-diary';
@@ -314,8 +314,9 @@ function plainQuestion(raw: unknown): FileQuestion | null {
   if (closes === null || (opened !== null && !(closes > opened))) return null;
   out.closes_at = closes;
   if (r.time_zone !== undefined) {
-    if (typeof r.time_zone !== 'string' || !isValidTimeZone(r.time_zone)) return null;
-    out.time_zone = r.time_zone;
+    const zone = typeof r.time_zone === 'string' ? zoneName(r.time_zone) : null;
+    if (zone === null) return null;
+    out.time_zone = zone;
   }
   if (r.base_rate !== undefined) {
     if (r.base_rate !== null && !isProbability(r.base_rate)) return null;

@@ -38,6 +38,25 @@ export function isValidTimeZone(timeZone: string): boolean {
   }
 }
 
+let zoneNamesByLowerCase: Map<string, string> | undefined;
+
+/**
+ * The spelling of zone name `timeZone` a diary keeps, or null when this runtime knows no such
+ * zone. Intl reads zone names in any case, so "europe/london" worked everywhere but was kept
+ * as typed: shown so on every page and in every export, and not the name the zone picker
+ * lists. A name that differs only in case from one the runtime lists, or from the runtime's
+ * own name for it, takes that spelling ("Europe/London"); any other name is kept as given,
+ * so an alias in its own spelling (US/Pacific, Asia/Kolkata) reads back exactly as written.
+ */
+export function zoneName(timeZone: string): string | null {
+  if (!isValidTimeZone(timeZone)) return null;
+  zoneNamesByLowerCase ??= new Map(Intl.supportedValuesOf('timeZone').map((name) => [name.toLowerCase(), name]));
+  const listed = zoneNamesByLowerCase.get(timeZone.toLowerCase());
+  if (listed !== undefined) return listed;
+  const own = formatterFor(timeZone).resolvedOptions().timeZone;
+  return own.toLowerCase() === timeZone.toLowerCase() ? own : timeZone;
+}
+
 /** The system's own zone, falling back to UTC. */
 export function systemTimeZone(): string {
   try {

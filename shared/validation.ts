@@ -8,7 +8,7 @@ import { QUESTION_TYPES, VALUE_KINDS } from './domain';
 import { dateToDays } from './numeric-value';
 import { groupedDigits } from './grouped-digits';
 import { quantileLevelsProblem, quantilesProblem } from './quantile-levels';
-import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
+import { INSTANT_RANGE_RULE, isInstantInRange, parseInstant, parseRangeBound, zoneName } from './time';
 
 /**
  * zod's own words for a wrong shape ("Invalid input: expected object, received array",
@@ -85,9 +85,13 @@ export const tags = z
   .max(32, { message: 'at most 32 tags per question' })
   .refine((list) => new Set(list).size === list.length, { message: 'lists the same tag twice' });
 
-export const timeZone = z
-  .string({ error: 'must be an IANA time zone name' })
-  .refine(isValidTimeZone, { message: 'is not a time zone this system knows (use an IANA name such as Europe/London)' });
+/** An IANA zone name, in the spelling `zoneName` keeps (its usual case). */
+export const timeZone = z.string({ error: 'must be an IANA time zone name' }).transform((text, ctx) => {
+  const name = zoneName(text);
+  if (name !== null) return name;
+  ctx.addIssue({ code: 'custom', message: 'is not a time zone this system knows (use an IANA name such as Europe/London)' });
+  return z.NEVER;
+});
 
 /**
  * Control characters in text. One-line fields (titles, names, sources, ids, search text)
