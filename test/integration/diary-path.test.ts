@@ -27,6 +27,25 @@ test('reading commands on a missing diary fail naming the path and create nothin
   assert.deepEqual(fs.readdirSync(dir), [], 'no file and no folder was made');
 });
 
+test('reading commands on an empty file refuse it as no diary and leave it as it was, 0 bytes or an empty SQLite file', () => {
+  const dir = tempDir();
+  const empty = path.join(dir, 'notes.txt');
+  fs.writeFileSync(empty, '');
+  const blank = path.join(dir, 'blank.sqlite');
+  new Database(blank).exec('CREATE TABLE t (x); DROP TABLE t').close(); // a SQLite file with nothing left in it
+  const blankBytes = fs.readFileSync(blank);
+  for (const [file, bytes] of [[empty, Buffer.alloc(0)], [blank, blankBytes]] as const) {
+    for (const args of [['score', '--json'], ['due'], ['export'], ['backup', path.join(dir, 'copy.sqlite')]]) {
+      const r = forelog(...args, '--db', file);
+      assert.equal(r.status, 1, args.join(' '));
+      assert.equal(r.stderr, `forelog: There is no diary at ${file}: the file is empty. Forelog left it unchanged. Check the path (--db).\n`);
+      assert.equal(r.stdout, '');
+      assert.deepEqual(fs.readFileSync(file), bytes, `${args[0]} left ${path.basename(file)} as it was`);
+    }
+  }
+  assert.deepEqual(fs.readdirSync(dir).sort(), ['blank.sqlite', 'notes.txt'], 'no copy, -wal or -shm was made');
+});
+
 test('commands that add data may start a new diary, and say so on stderr', () => {
   const dir = tempDir();
   const seed = path.join(dir, 'seed.json');
