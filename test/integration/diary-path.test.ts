@@ -52,9 +52,14 @@ test('commands that add data may start a new diary, and say so on stderr', () =>
   fs.writeFileSync(seed, JSON.stringify({ format: 'forelog-diary', version: 1, questions: [{ title: 'First call', closes_at: '2027-01-01T00:00:00Z', forecasts: [] }] }));
 
   const imported = path.join(dir, 'new', 'imported.sqlite');
+  // What an import killed half way through a new diary leaves (its process, 4,194,303, has ended):
+  // the next new diary in that folder clears it.
+  fs.mkdirSync(path.join(dir, 'new'));
+  for (const suffix of ['', '-wal', '-shm']) fs.writeFileSync(path.join(dir, 'new', `.forelog-new-4194303-0badf00d.sqlite${suffix}`), 'left');
   const first = forelog('import', seed, '--db', imported);
   assert.equal(first.status, 0, first.stderr);
   assert.equal(first.stderr, `Created a new diary at ${imported}.\n`);
+  assert.deepEqual(fs.readdirSync(path.join(dir, 'new')), ['imported.sqlite'], 'only the diary: no temporary copy, old or new');
   const again = forelog('import', seed, '--db', imported);
   assert.equal(again.status, 0, again.stderr);
   assert.equal(again.stderr, '', 'an existing diary is not announced');
