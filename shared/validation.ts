@@ -255,11 +255,19 @@ export const options = z
   .superRefine((list, ctx) => {
     const seen = new Map<string, number>();
     list.forEach((label, i) => {
-      const first = seen.get(label);
-      if (first !== undefined) ctx.addIssue({ code: 'custom', message: `repeats option ${first} ("${label}"); each option must be different`, path: [i] });
-      else seen.set(label, i);
+      const key = optionLook(label);
+      const first = seen.get(key);
+      if (first === undefined) seen.set(key, i);
+      else {
+        // Two labels that look the same on screen cannot be told apart when forecasting or resolving.
+        const how = list[first] === label ? '' : ' (they differ only in characters that do not show, or in how an accent is written)';
+        ctx.addIssue({ code: 'custom', message: `repeats option ${first} ("${list[first]}")${how}; each option must be different`, path: [i] });
+      }
     });
   });
+
+/** How an option's label looks, what two options must not share: composed accents (NFC), without the characters that show nothing. */
+export const optionLook = (label: string): string => label.normalize('NFC').replace(/\p{Default_Ignorable_Code_Point}/gu, '');
 
 /** A choice question's option, by its 0-based place in the list. */
 export const optionIndex = z
