@@ -143,6 +143,8 @@ function parse(argv: string[]): Parsed {
       if (token.kind !== 'option') continue;
       if (seen.has(token.name)) throw new UsageError(`--${token.name} is given twice; give it once`);
       seen.add(token.name);
+      // An empty value (--db "$UNSET") would be read as the current folder, or as no filter.
+      if (token.value === '') throw new UsageError(`--${token.name} is given an empty value; write --${token.name} VALUE`);
     }
     return { command: positionals[0], positionals: positionals.slice(1), values };
   } catch (err) {

@@ -25,6 +25,13 @@ test('reading commands on a missing diary fail naming the path and create nothin
     assert.equal(r.stdout, '');
   }
   assert.deepEqual(fs.readdirSync(dir), [], 'no file and no folder was made');
+  // An empty --db (a variable that was not set) names no file; it was read as the current folder.
+  for (const args of [['score', '--db', ''], ['import', path.join(dir, 'x.json'), '--db='], ['due', '--at', '', '--db', missing]]) {
+    const r = forelog(...args);
+    assert.equal(r.status, 1, args.join(' '));
+    const option = args.find((a) => a.startsWith('--') && a !== '--db') ?? '--db';
+    assert.equal(r.stderr, `forelog: ${option.replace('=', '')} is given an empty value; write ${option.replace('=', '')} VALUE. See forelog --help.\n`);
+  }
 });
 
 test('reading commands on an empty file refuse it as no diary and leave it as it was, 0 bytes or an empty SQLite file', () => {
