@@ -146,6 +146,8 @@ function parse(argv: string[]): Parsed {
       // An empty value (--db "$UNSET") would be read as the current folder, or as no filter.
       if (token.value === '') throw new UsageError(`--${token.name} is given an empty value; write --${token.name} VALUE`);
     }
+    // An empty FILE ("$UNSET") would be read as the current folder, or its name as no format.
+    if (positionals.includes('')) throw new UsageError('an argument is empty (""); give the path of a file');
     return { command: positionals[0], positionals: positionals.slice(1), values };
   } catch (err) {
     if (err instanceof UsageError) throw err;

@@ -32,6 +32,11 @@ test('reading commands on a missing diary fail naming the path and create nothin
     const option = args.find((a) => a.startsWith('--') && a !== '--db') ?? '--db';
     assert.equal(r.stderr, `forelog: ${option.replace('=', '')} is given an empty value; write ${option.replace('=', '')} VALUE. See forelog --help.\n`);
   }
+  for (const command of ['export', 'backup', 'import', 'restore']) {
+    const r = forelog(command, '', '--db', missing);
+    assert.equal(r.stderr, 'forelog: an argument is empty (""); give the path of a file. See forelog --help.\n', command);
+  }
+  assert.deepEqual(fs.readdirSync(dir), [], 'still nothing made');
 });
 
 test('reading commands on an empty file refuse it as no diary and leave it as it was, 0 bytes or an empty SQLite file', () => {
