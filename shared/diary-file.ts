@@ -171,8 +171,12 @@ function checkVersion(version: unknown): void {
     throw new DiaryFileError(`This diary file has no "version"; this Forelog reads version ${DIARY_VERSION} (written "version": ${DIARY_VERSION}). Nothing was imported.`, null, 'version');
   }
   if (version !== DIARY_VERSION) {
+    // Only a later version number is a newer Forelog's file; "1" (text) or 0.5 is a mistake in this one.
+    const later = typeof version === 'number' && Number.isInteger(version) && version > DIARY_VERSION;
     throw new DiaryFileError(
-      `This diary file is version ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}. Nothing was imported; update Forelog to import it.`,
+      later
+        ? `This diary file is version ${version}; this Forelog reads version ${DIARY_VERSION}. Nothing was imported; update Forelog to import it.`
+        : `This diary file's "version" is ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}, written "version": ${DIARY_VERSION} (a number). Nothing was imported.`,
       null,
       'version',
     );

@@ -122,6 +122,10 @@ test('format, version and questions are checked wherever they stand; the records
   await refusesText(d, JSON.stringify({ name: 'quarterly-model', version: '1.0.0' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
   await refusesText(d, JSON.stringify({ version: 2, format: 'forelog-diary', questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
   await refusesText(d, JSON.stringify({ format: 'forelog-diary', version: 2, questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
+  // A version written as text or as a fraction is a slip in this file, not a newer Forelog's: updating would not help.
+  for (const version of ['1', 0.5, 0, null]) {
+    await refusesText(d, JSON.stringify({ format: 'forelog-diary', version, questions: [] }), `This diary file's "version" is ${JSON.stringify(version)}; this Forelog reads version 1, written "version": 1 (a number). Nothing was imported.`);
+  }
   await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[") Nothing was imported.');
