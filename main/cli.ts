@@ -2,6 +2,7 @@
  * `forelog <command>`: the diary from the command line (INTERFACES.md §2). Every command
  * takes `--db PATH` and, on failure, exits non-zero with a one-line message on stderr.
  */
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -11,7 +12,7 @@ import { ApiError, parseRequest, type DueList, type ImportResult, type TagCount 
 import { NUDGE_KIND_NAMES } from '../shared/domain';
 import { BARE_DATE_FORM, formatLocal, LOCAL_DATE_TIME_FORM, parseInstant, parseLocalInZone, parseRangeBound, toIso } from '../shared/time';
 import { version as VERSION } from '../package.json';
-import { FileWriteError, writeToDescriptor, type Chunk } from './files/atomic-write';
+import { clearLeftovers, FileWriteError, syncFolder, writeToDescriptor, type Chunk } from './files/atomic-write';
 import { fileNameProblem } from './files/file-name';
 import { defaultDiaryPath } from './paths';
 import { freshRenderer } from './renderer-build';
@@ -142,7 +143,11 @@ function parse(argv: string[]): Parsed {
       if (token.kind !== 'option') continue;
       if (seen.has(token.name)) throw new UsageError(`--${token.name} is given twice; give it once`);
       seen.add(token.name);
+      // An empty value (--db "$UNSET") would be read as the current folder, or as no filter.
+      if (token.value === '') throw new UsageError(`--${token.name} is given an empty value; write --${token.name} VALUE`);
     }
+    // An empty FILE ("$UNSET") would be read as the current folder, or its name as no format.
+    if (positionals.includes('')) throw new UsageError('an argument is empty (""); give the path of a file');
     return { command: positionals[0], positionals: positionals.slice(1), values };
   } catch (err) {
     if (err instanceof UsageError) throw err;
@@ -261,35 +266,73 @@ function noteCreated(created: boolean, location: string): void {
 /**
  * Opens the diary for one command. Commands that only read (`create: false`) refuse a
  * missing file, naming the path, and create nothing; commands that add data may start a
- * new diary, and say so.
+ * new diary (`newDiary`), and say so.
  */
-/** True when the diary has no question (or not even the table yet: a new file whose setup failed). */
-function holdsNoQuestions(service: DiaryService): boolean {
+async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (service: DiaryService) => Promise<T>): Promise<T> {
+  if (mode.create) {
+    const made = await newDiary(dbPath, fn);
+    if (made) return made.result;
+  }
+  const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });
+  const { created } = service.store;
   try {
-    return service.store.read.prepare('SELECT count(*) FROM questions').pluck().get() === 0;
-  } catch {
-    return !service.store.read.prepare("SELECT 1 FROM sqlite_master WHERE name = 'questions'").get();
+    const result = await fn(service);
+    noteCreated(created, service.location);
+    return result;
+  } finally {
+    service.close();
   }
 }
 
-async function withDiary<T>(dbPath: string, mode: { create: boolean }, fn: (service: DiaryService) => Promise<T>): Promise<T> {
-  const service = openDiary({ dbPath, create: mode.create, onInternalError: reportInternal, onMigrating: noteMigrating(dbPath) });
-  const { created } = service.store;
+/** `.forelog-new-<pid>-<8 hex>.sqlite` and SQLite's files beside it; the first group is the maker's process id. */
+const STAGING = /^\.forelog-new-(\d+)-[0-9a-f]{8}\.sqlite(?:-wal|-shm|-journal)?$/;
+
+/**
+ * Runs `fn` on a new diary when there is none at `dbPath`: the diary is made under a
+ * temporary name in the same folder and appears under its own, whole, only once `fn` has
+ * succeeded (a hard link, which never replaces a file). A refused command therefore leaves
+ * nothing behind and never removes a path another process may have opened meanwhile (before,
+ * a refused import deleted the empty diary it had made, even when another command had just
+ * started writing to it). Null when the diary is to be opened in place instead: one exists,
+ * another process made one meanwhile, the temporary one could not be made or linked (a file
+ * system without hard links) — the caller then runs `fn` on the path itself, whose open
+ * gives the right message if it cannot be made.
+ */
+async function newDiary<T>(dbPath: string, fn: (service: DiaryService) => Promise<T>): Promise<{ result: T } | null> {
+  const target = path.resolve(dbPath);
+  if (fs.existsSync(target) || fileNameProblem(target)) return null;
+  const folder = path.dirname(target);
+  clearLeftovers(folder, STAGING);
+  const staging = path.join(folder, `.forelog-new-${process.pid}-${randomBytes(4).toString('hex')}.sqlite`);
+  const remove = () => {
+    for (const suffix of ['', '-wal', '-shm', '-journal']) fs.rmSync(`${staging}${suffix}`, { force: true });
+  };
+  let service: DiaryService;
+  try {
+    service = openDiary({ dbPath: staging, onInternalError: reportInternal });
+  } catch {
+    remove();
+    return null;
+  }
   let result: T;
   try {
     result = await fn(service);
   } catch (err) {
-    const empty = created && holdsNoQuestions(service);
     service.close();
-    // A diary made for a command that then added nothing (a refused import) is not left
-    // behind, unless another process may be using it: its -wal file outlives our handles
-    // while any other connection has the diary open (SQLite removes it with the last one).
-    if (empty && !fs.existsSync(`${service.location}-wal`)) for (const suffix of ['', '-wal', '-shm']) fs.rmSync(`${service.location}${suffix}`, { force: true });
+    remove();
     throw err;
   }
   service.close();
-  noteCreated(created, service.location);
-  return result;
+  try {
+    fs.linkSync(staging, target);
+  } catch {
+    remove();
+    return null;
+  }
+  remove();
+  syncFolder(folder);
+  noteCreated(true, target);
+  return { result };
 }
 
 /**

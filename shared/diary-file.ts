@@ -24,7 +24,7 @@ import {
 } from './domain';
 import { ByteText, copyInto, numberBytes, utf8 } from './byte-text';
 import { JsonStreamError, readObjectStream } from './json-stream';
-import { isValidTimeZone, ISO_MAX_BYTES, writeIso } from './time';
+import { ISO_MAX_BYTES, writeIso, zoneName } from './time';
 import * as v from './validation';
 
 export const DIARY_FORMAT = 'forelog-diary';
@@ -110,7 +110,7 @@ function recordLabel(record: unknown): string | null {
   if (typeof record !== 'object' || record === null || Array.isArray(record)) return null;
   const { title, id } = record as { title?: unknown; id?: unknown };
   const shown = (text: unknown): string | null =>
-    typeof text === 'string' && text.trim() !== '' && v.controlCharacterProblem(text, 'one') === null ? text.trim() : null;
+    typeof text === 'string' && v.showsSomething(text) && v.controlCharacterProblem(text, 'one') === null ? text.trim() : null;
   const t = shown(title);
   if (t !== null) {
     const chars = [...t];
@@ -171,8 +171,12 @@ function checkVersion(version: unknown): void {
     throw new DiaryFileError(`This diary file has no "version"; this Forelog reads version ${DIARY_VERSION} (written "version": ${DIARY_VERSION}). Nothing was imported.`, null, 'version');
   }
   if (version !== DIARY_VERSION) {
+    // Only a later version number is a newer Forelog's file; "1" (text) or 0.5 is a mistake in this one.
+    const later = typeof version === 'number' && Number.isInteger(version) && version > DIARY_VERSION;
     throw new DiaryFileError(
-      `This diary file is version ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}. Nothing was imported; update Forelog to import it.`,
+      later
+        ? `This diary file is version ${version}; this Forelog reads version ${DIARY_VERSION}. Nothing was imported; update Forelog to import it.`
+        : `This diary file's "version" is ${JSON.stringify(version)}; this Forelog reads version ${DIARY_VERSION}, written "version": ${DIARY_VERSION} (a number). Nothing was imported.`,
       null,
       'version',
     );
@@ -241,7 +245,7 @@ const isNote = (x: unknown): x is string => typeof x === 'string' && x.length <=
 function filledLine(x: unknown, max: number): string | null {
   if (typeof x !== 'string' || v.controlCharacterProblem(x, 'one') !== null) return null;
   const t = x.trim();
-  return t.length >= 1 && t.length <= max ? t : null;
+  return t.length >= 1 && t.length <= max && v.showsSomething(t) ? t : null;
 }
 /** The instant rule (v.instantMs) as epoch ms; null when it is not one. */
 function instantOf(x: unknown): number | null {
@@ -314,8 +318,9 @@ function plainQuestion(raw: unknown): FileQuestion | null {
   if (closes === null || (opened !== null && !(closes > opened))) return null;
   out.closes_at = closes;
   if (r.time_zone !== undefined) {
-    if (typeof r.time_zone !== 'string' || !isValidTimeZone(r.time_zone)) return null;
-    out.time_zone = r.time_zone;
+    const zone = typeof r.time_zone === 'string' ? zoneName(r.time_zone) : null;
+    if (zone === null) return null;
+    out.time_zone = zone;
   }
   if (r.base_rate !== undefined) {
     if (r.base_rate !== null && !isProbability(r.base_rate)) return null;

@@ -38,6 +38,25 @@ export function isValidTimeZone(timeZone: string): boolean {
   }
 }
 
+let zoneNamesByLowerCase: Map<string, string> | undefined;
+
+/**
+ * The spelling of zone name `timeZone` a diary keeps, or null when this runtime knows no such
+ * zone. Intl reads zone names in any case, so "europe/london" worked everywhere but was kept
+ * as typed: shown so on every page and in every export, and not the name the zone picker
+ * lists. A name that differs only in case from one the runtime lists, or from the runtime's
+ * own name for it, takes that spelling ("Europe/London"); any other name is kept as given,
+ * so an alias in its own spelling (US/Pacific, Asia/Kolkata) reads back exactly as written.
+ */
+export function zoneName(timeZone: string): string | null {
+  if (!isValidTimeZone(timeZone)) return null;
+  zoneNamesByLowerCase ??= new Map(Intl.supportedValuesOf('timeZone').map((name) => [name.toLowerCase(), name]));
+  const listed = zoneNamesByLowerCase.get(timeZone.toLowerCase());
+  if (listed !== undefined) return listed;
+  const own = formatterFor(timeZone).resolvedOptions().timeZone;
+  return own.toLowerCase() === timeZone.toLowerCase() ? own : timeZone;
+}
+
 /** The system's own zone, falling back to UTC. */
 export function systemTimeZone(): string {
   try {
@@ -356,8 +375,11 @@ export function writeIso(ms: number, out: Uint8Array, at: number): number {
 /** How a bare date is written: "2026-03-31". */
 export const BARE_DATE_FORM = /^(\d{4})-(\d{2})-(\d{2})$/;
 
-/** How a date and time without offset is written: "2026-03-31T17:00", seconds optional. */
-export const LOCAL_DATE_TIME_FORM = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/;
+/**
+ * How a date and time without offset is written: "2026-03-31T17:00", seconds optional, and
+ * after them a fraction of up to nine digits as an instant may have ("17:00:00.250").
+ */
+export const LOCAL_DATE_TIME_FORM = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(?::\d{2}(\.\d{1,9})?)?$/;
 
 /**
  * A date-range bound for filters: an ISO instant, or a bare date `YYYY-MM-DD` meaning that
@@ -387,13 +409,18 @@ export function formatLocal(ms: number, timeZone: string): string {
 }
 
 /**
- * A date and time written without an offset ("2026-03-31T17:00", seconds optional) read on
+ * A date and time written without an offset ("2026-03-31T17:00", seconds and their fraction optional) read on
  * `timeZone`'s clock, as epoch ms (RFC 5545 §3.3.5 for skipped and repeated wall times);
  * null when `text` is not of that form. Text with an offset or `Z`, or a bare date, is not
  * this form: read it with parseInstant or parseRangeBound.
  */
 export function parseLocalInZone(text: string, timeZone: string): number | null {
-  if (!LOCAL_DATE_TIME_FORM.test(text.trim())) return null;
-  const wall = parseLocalDateTime(text);
-  return wall ? wallTimeToInstant(wall, timeZone) : null;
+  const trimmed = text.trim();
+  const form = LOCAL_DATE_TIME_FORM.exec(trimmed);
+  if (!form) return null;
+  // A fraction is read to the millisecond, cut as parseInstant cuts one (Date.parse): the
+  // same time written with an offset lands on the same instant.
+  const fraction = form[1] ?? '';
+  const wall = parseLocalDateTime(trimmed.slice(0, trimmed.length - fraction.length));
+  return wall ? wallTimeToInstant(wall, timeZone) + Number(`${fraction.slice(1)}000`.slice(0, 3)) : null;
 }

@@ -8,7 +8,7 @@ import { QUESTION_TYPES, VALUE_KINDS } from './domain';
 import { dateToDays } from './numeric-value';
 import { groupedDigits } from './grouped-digits';
 import { quantileLevelsProblem, quantilesProblem } from './quantile-levels';
-import { INSTANT_RANGE_RULE, isInstantInRange, isValidTimeZone, parseInstant, parseRangeBound } from './time';
+import { INSTANT_RANGE_RULE, isInstantInRange, parseInstant, parseRangeBound, zoneName } from './time';
 
 /**
  * zod's own words for a wrong shape ("Invalid input: expected object, received array",
@@ -85,9 +85,13 @@ export const tags = z
   .max(32, { message: 'at most 32 tags per question' })
   .refine((list) => new Set(list).size === list.length, { message: 'lists the same tag twice' });
 
-export const timeZone = z
-  .string({ error: 'must be an IANA time zone name' })
-  .refine(isValidTimeZone, { message: 'is not a time zone this system knows (use an IANA name such as Europe/London)' });
+/** An IANA zone name, in the spelling `zoneName` keeps (its usual case). */
+export const timeZone = z.string({ error: 'must be an IANA time zone name' }).transform((text, ctx) => {
+  const name = zoneName(text);
+  if (name !== null) return name;
+  ctx.addIssue({ code: 'custom', message: 'is not a time zone this system knows (use an IANA name such as Europe/London)' });
+  return z.NEVER;
+});
 
 /**
  * Control characters in text. One-line fields (titles, names, sources, ids, search text)
@@ -137,8 +141,24 @@ const atMost = (max: number) => ({
 
 const grouped = groupedDigits;
 
-/** One line of text, trimmed, not empty once trimmed: after this rule SQLite's length(trim(x)) > 0 holds too. */
-const filledLine = (max: number, empty = 'must not be empty') => text('one').trim().min(1, { message: empty }).max(max, atMost(max));
+/**
+ * Text that shows nothing: white space and the characters Unicode says a renderer may leave
+ * undrawn (zero-width spaces and joiners, the word joiner, soft hyphens, variation selectors,
+ * the Hangul fillers), plus the blank Braille pattern. trim() keeps these, so a title of
+ * zero-width spaces passed as filled and then showed as an empty row nobody could read.
+ */
+const INVISIBLE_ONLY = /^[\p{White_Space}\p{Default_Ignorable_Code_Point}\u2800]*$/u;
+
+/** True when `text` has at least one character that shows (the filled-line rule below; the diary file's fast path reuses it). */
+export const showsSomething = (text: string): boolean => !INVISIBLE_ONLY.test(text);
+
+/** One line of text, trimmed, not empty once trimmed, with something visible: after this rule SQLite's length(trim(x)) > 0 holds too. */
+const filledLine = (max: number, empty = 'must not be empty') =>
+  text('one')
+    .trim()
+    .min(1, { message: empty })
+    .max(max, atMost(max))
+    .refine(showsSomething, { message: `${empty}: it holds only invisible characters (such as zero-width spaces); write some visible text` });
 
 export const title = filledLine(300);
 
@@ -235,11 +255,19 @@ export const options = z
   .superRefine((list, ctx) => {
     const seen = new Map<string, number>();
     list.forEach((label, i) => {
-      const first = seen.get(label);
-      if (first !== undefined) ctx.addIssue({ code: 'custom', message: `repeats option ${first} ("${label}"); each option must be different`, path: [i] });
-      else seen.set(label, i);
+      const key = optionLook(label);
+      const first = seen.get(key);
+      if (first === undefined) seen.set(key, i);
+      else {
+        // Two labels that look the same on screen cannot be told apart when forecasting or resolving.
+        const how = list[first] === label ? '' : ' (they differ only in characters that do not show, or in how an accent is written)';
+        ctx.addIssue({ code: 'custom', message: `repeats option ${first} ("${list[first]}")${how}; each option must be different`, path: [i] });
+      }
     });
   });
+
+/** How an option's label looks, what two options must not share: composed accents (NFC), without the characters that show nothing. */
+export const optionLook = (label: string): string => label.normalize('NFC').replace(/\p{Default_Ignorable_Code_Point}/gu, '');
 
 /** A choice question's option, by its 0-based place in the list. */
 export const optionIndex = z

@@ -100,7 +100,7 @@ export function writeToDescriptor(fd: number, content: FileContent): void {
 }
 
 /** Flushes a folder's entry list, so the rename itself survives a power cut. Not possible everywhere (Windows); then skipped. */
-function syncFolder(folder: string): void {
+export function syncFolder(folder: string): void {
   let fd: number | undefined;
   try {
     fd = fs.openSync(folder, 'r');

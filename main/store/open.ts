@@ -242,13 +242,25 @@ function nativeOf(options: OpenStoreOptions): { nativeBinding?: string } {
   return options.nativeBinding ? { nativeBinding: options.nativeBinding } : {};
 }
 
+/**
+ * An empty file (0 bytes, or a SQLite database with nothing in it) holds no diary. A command
+ * that only reads (`create: false`) refuses it as it refuses a missing one: it used to make
+ * the file a whole new diary (175 KB of tables) while saying nothing, so `forelog export
+ * --db notes.txt` turned an empty text file into a database.
+ */
+function refuseEmpty(version: number, file: string, options: OpenStoreOptions): void {
+  if (version === 0 && options.create === false) {
+    throw new StoreError('missing', file, `There is no diary at ${file}: the file is empty. Forelog left it unchanged. Check the path (--db).`);
+  }
+}
+
 function openWritable(file: string, created: boolean, options: OpenStoreOptions): StoreHandles {
   const busy = options.busyTimeoutMs ?? DEFAULT_BUSY_TIMEOUT_MS;
   const write = new Database(file, nativeOf(options));
   try {
     configure(write, busy);
-    // Refuse before touching anything: a newer or foreign file is left exactly as it was.
-    checkVersion(write, file);
+    // Refuse before touching anything: a newer, foreign or (for reading) empty file is left exactly as it was.
+    refuseEmpty(checkVersion(write, file), file, options);
     write.pragma('journal_mode = WAL');
     write.pragma('synchronous = FULL');
     migrate(write, MIGRATIONS, options.onMigrating);
@@ -289,7 +301,9 @@ function openReadOnly(file: string, options: OpenStoreOptions): StoreHandles {
   let read: Db | undefined;
   try {
     read = readOnlyHandle(file);
-    if (checkVersion(read, file) === SCHEMA_VERSION) return handles(file, readOnlyHandle(file), read, { readOnly: true, created: false });
+    const version = checkVersion(read, file);
+    refuseEmpty(version, file, options);
+    if (version === SCHEMA_VERSION) return handles(file, readOnlyHandle(file), read, { readOnly: true, created: false });
     read.close();
   } catch (err) {
     read?.close();
@@ -305,7 +319,7 @@ function openReadOnly(file: string, options: OpenStoreOptions): StoreHandles {
     if (fs.existsSync(`${file}-wal`)) fs.copyFileSync(`${file}-wal`, `${copy}-wal`);
     const prepare = new Database(copy, nativeOf(options));
     try {
-      checkVersion(prepare, file);
+      refuseEmpty(checkVersion(prepare, file), file, options);
       migrate(prepare, MIGRATIONS, options.onMigrating);
     } finally {
       prepare.close();

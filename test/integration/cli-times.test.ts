@@ -98,6 +98,14 @@ test('--from and --to: a bare date is that UTC day, a date and time without offs
   assert.equal(scored('--to', '2026-06-30'), 1);
   assert.equal(scored('--to', '2026-07-01T00:29:59'), 0);
   assert.equal(scored('--from', '2026-06-30T23:30:00Z', '--to', '2026-06-30T23:30:00Z'), 1);
+  // A fraction of a second is read on the diary's clock too, to the millisecond (before, the
+  // time was sent on unread and refused as lacking an offset).
+  assert.equal(scored('--to', '2026-07-01T00:29:59.999'), 0);
+  assert.equal(scored('--to', '2026-07-01T00:30:00.000'), 1);
+  assert.equal(scored('--from', '2026-07-01T00:30:00.0009'), 1, 'cut to the millisecond, as a time with an offset is');
+  assert.equal(scored('--from', '2026-07-01T00:30:00.001'), 0);
+  const due = forelog('due', '--at', '2026-07-01T09:00:00.25', '--json', '--db', db);
+  assert.equal(JSON.parse(due.stdout).at, '2026-07-01T08:00:00.250Z', due.stderr);
   const bad = forelog('score', '--from', '2026-02-30T10:00', '--db', db);
   assert.equal(bad.status, 1);
   assert.equal(

@@ -6,6 +6,7 @@
  */
 import assert from 'node:assert/strict';
 import Database from 'better-sqlite3';
+import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
@@ -125,4 +126,34 @@ test('commands racing to create the same new diary: the one that succeeds keeps 
       check.close();
     }
   }
+});
+
+test('a refused import into a new path never removes a diary another process has opened there', async () => {
+  // The import reads a named pipe, so the test holds it at the moment it reads its file.
+  // Meanwhile another process opens the same path and has not read it yet (a starting app
+  // or command). Before, the refused import then deleted "its" empty diary, and everything
+  // the other process wrote afterwards went into a file that no longer had a name.
+  const dir = tempDir();
+  const db = path.join(dir, 'new.sqlite');
+  const pipe = path.join(dir, 'incoming.json');
+  spawnSync('mkfifo', [pipe]);
+  const importing = forelogAsync('import', pipe, '--db', db);
+  const writer = await fs.promises.open(pipe, 'w'); // resolves once the import reads the pipe
+  const other = new Database(db);
+  await writer.write('{"format": "forelog-diary", "version": 1, "questions": [{"title": "No close"}]}');
+  await writer.close();
+  const refused = await importing;
+  assert.equal(refused.status, 1);
+  assert.match(refused.stderr, /Nothing was imported/);
+
+  other.exec("CREATE TABLE kept (note TEXT); INSERT INTO kept VALUES ('written after the refusal')");
+  other.close();
+  assert.ok(fs.existsSync(db), 'the file the other process opened is still there');
+  const check = new Database(db, { readonly: true });
+  try {
+    assert.deepEqual(check.prepare('SELECT note FROM kept').pluck().all(), ['written after the refusal']);
+  } finally {
+    check.close();
+  }
+  assert.deepEqual(fs.readdirSync(dir).sort(), ['incoming.json', 'new.sqlite'], 'the refused import left no file of its own');
 });

@@ -122,6 +122,10 @@ test('format, version and questions are checked wherever they stand; the records
   await refusesText(d, JSON.stringify({ name: 'quarterly-model', version: '1.0.0' }), 'This is not a Forelog diary file: "format" must be "forelog-diary". Nothing was imported.');
   await refusesText(d, JSON.stringify({ version: 2, format: 'forelog-diary', questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
   await refusesText(d, JSON.stringify({ format: 'forelog-diary', version: 2, questions: [] }), /^This diary file is version 2; this Forelog reads version 1\. Nothing was imported; update Forelog/);
+  // A version written as text or as a fraction is a slip in this file, not a newer Forelog's: updating would not help.
+  for (const version of ['1', 0.5, 0, null]) {
+    await refusesText(d, JSON.stringify({ format: 'forelog-diary', version, questions: [] }), `This diary file's "version" is ${JSON.stringify(version)}; this Forelog reads version 1, written "version": 1 (a number). Nothing was imported.`);
+  }
   await refusesText(d, JSON.stringify({ ...DIARY }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, JSON.stringify({ ...DIARY, questions: { q: 1 } }), '"questions" must be a list (it may be empty). Nothing was imported.');
   await refusesText(d, '[1, 2]', 'This is not a Forelog diary file: expected a JSON object with "format": "forelog-diary". (line 1, column 1: expected a JSON object ("{") but found "[") Nothing was imported.');
@@ -285,4 +289,34 @@ test('a long history imports whole and in order: revisions at the same time keep
     exported.questions[0].forecasts.map((f: { note: string; lenses?: unknown[] }) => [f.note, f.lenses?.length ?? 0]),
     forecasts.map((f) => [f.note, f.lenses ? 1 : 0]),
   );
+});
+
+test('a time zone name in the wrong case is kept in its usual spelling, in requests, settings, diary files and CSV; an alias stays as written', async () => {
+  const d = openTestDiary();
+  const created = await d.call('createQuestion', { title: 'Typed zone', closes_at: '2030-01-01T00:00:00Z', time_zone: 'europe/london' });
+  assert.equal(created.time_zone, 'Europe/London');
+  await d.call('updateQuestion', { id: created.id, changes: { time_zone: 'AMERICA/NEW_YORK' } });
+  assert.equal((await d.call('getQuestion', { id: created.id })).time_zone, 'America/New_York');
+  await d.call('updateSettings', { time_zone: 'asia/tokyo' });
+  assert.equal(d.service.diary.settings().time_zone, 'Asia/Tokyo');
+
+  const file = JSON.stringify({
+    ...DIARY,
+    settings: { time_zone: 'pacific/auckland' },
+    questions: [
+      { id: 'plain', title: 'Plain', closes_at: '2030-01-01T00:00:00Z', time_zone: 'europe/paris', forecasts: [{ at: '2026-01-01T00:00:00Z', p: 0.5 }] },
+      { id: 'alias', title: 'Alias', closes_at: '2030-01-01T00:00:00Z', time_zone: 'US/Pacific', forecasts: [] },
+      { id: 'lenses', title: 'Lenses', closes_at: '2030-01-01T00:00:00Z', time_zone: 'africa/lagos', forecasts: [{ at: '2026-01-01T00:00:00Z', p: 0.5, lenses: [{ name: 'outside view', p: 0.5 }] }] },
+    ],
+  });
+  const into = openTestDiary();
+  await into.call('importText', { format: 'json', text: file });
+  const exported = JSON.parse(into.service.diary.exportText('json').text) as { settings: { time_zone: string }; questions: { id: string; time_zone: string }[] };
+  assert.equal(exported.settings.time_zone, 'Pacific/Auckland');
+  assert.deepEqual(Object.fromEntries(exported.questions.map((q) => [q.id, q.time_zone])), { plain: 'Europe/Paris', alias: 'US/Pacific', lenses: 'Africa/Lagos' });
+
+  const csv = openTestDiary();
+  await csv.call('importText', { format: 'csv', text: 'question_id,title,closes_at,time_zone\r\nc1,From CSV,2030-01-01T00:00:00Z,australia/sydney\r\n' });
+  assert.equal((await csv.call('getQuestion', { id: 'c1' })).time_zone, 'Australia/Sydney');
+  await refusesText(d, JSON.stringify({ ...DIARY, questions: [{ title: 'Nowhere', closes_at: '2030-01-01T00:00:00Z', time_zone: 'europe/nowhere', forecasts: [] }] }), /field time_zone: is not a time zone this system knows/);
 });

@@ -25,6 +25,37 @@ test('reading commands on a missing diary fail naming the path and create nothin
     assert.equal(r.stdout, '');
   }
   assert.deepEqual(fs.readdirSync(dir), [], 'no file and no folder was made');
+  // An empty --db (a variable that was not set) names no file; it was read as the current folder.
+  for (const args of [['score', '--db', ''], ['import', path.join(dir, 'x.json'), '--db='], ['due', '--at', '', '--db', missing]]) {
+    const r = forelog(...args);
+    assert.equal(r.status, 1, args.join(' '));
+    const option = args.find((a) => a.startsWith('--') && a !== '--db') ?? '--db';
+    assert.equal(r.stderr, `forelog: ${option.replace('=', '')} is given an empty value; write ${option.replace('=', '')} VALUE. See forelog --help.\n`);
+  }
+  for (const command of ['export', 'backup', 'import', 'restore']) {
+    const r = forelog(command, '', '--db', missing);
+    assert.equal(r.stderr, 'forelog: an argument is empty (""); give the path of a file. See forelog --help.\n', command);
+  }
+  assert.deepEqual(fs.readdirSync(dir), [], 'still nothing made');
+});
+
+test('reading commands on an empty file refuse it as no diary and leave it as it was, 0 bytes or an empty SQLite file', () => {
+  const dir = tempDir();
+  const empty = path.join(dir, 'notes.txt');
+  fs.writeFileSync(empty, '');
+  const blank = path.join(dir, 'blank.sqlite');
+  new Database(blank).exec('CREATE TABLE t (x); DROP TABLE t').close(); // a SQLite file with nothing left in it
+  const blankBytes = fs.readFileSync(blank);
+  for (const [file, bytes] of [[empty, Buffer.alloc(0)], [blank, blankBytes]] as const) {
+    for (const args of [['score', '--json'], ['due'], ['export'], ['backup', path.join(dir, 'copy.sqlite')]]) {
+      const r = forelog(...args, '--db', file);
+      assert.equal(r.status, 1, args.join(' '));
+      assert.equal(r.stderr, `forelog: There is no diary at ${file}: the file is empty. Forelog left it unchanged. Check the path (--db).\n`);
+      assert.equal(r.stdout, '');
+      assert.deepEqual(fs.readFileSync(file), bytes, `${args[0]} left ${path.basename(file)} as it was`);
+    }
+  }
+  assert.deepEqual(fs.readdirSync(dir).sort(), ['blank.sqlite', 'notes.txt'], 'no copy, -wal or -shm was made');
 });
 
 test('commands that add data may start a new diary, and say so on stderr', () => {
@@ -33,9 +64,14 @@ test('commands that add data may start a new diary, and say so on stderr', () =>
   fs.writeFileSync(seed, JSON.stringify({ format: 'forelog-diary', version: 1, questions: [{ title: 'First call', closes_at: '2027-01-01T00:00:00Z', forecasts: [] }] }));
 
   const imported = path.join(dir, 'new', 'imported.sqlite');
+  // What an import killed half way through a new diary leaves (its process, 4,194,303, has ended):
+  // the next new diary in that folder clears it.
+  fs.mkdirSync(path.join(dir, 'new'));
+  for (const suffix of ['', '-wal', '-shm']) fs.writeFileSync(path.join(dir, 'new', `.forelog-new-4194303-0badf00d.sqlite${suffix}`), 'left');
   const first = forelog('import', seed, '--db', imported);
   assert.equal(first.status, 0, first.stderr);
   assert.equal(first.stderr, `Created a new diary at ${imported}.\n`);
+  assert.deepEqual(fs.readdirSync(path.join(dir, 'new')), ['imported.sqlite'], 'only the diary: no temporary copy, old or new');
   const again = forelog('import', seed, '--db', imported);
   assert.equal(again.status, 0, again.stderr);
   assert.equal(again.stderr, '', 'an existing diary is not announced');

@@ -129,6 +129,42 @@ test('half of a surrogate pair is refused in every way in; whole characters outs
   assert.equal(exportJson(d.service), before);
 });
 
+test('a title, source, lens name or option of invisible characters only is refused in every way in, naming the field', async () => {
+  // Zero-width space, joiners, word joiner, soft hyphen, variation selector, Hangul filler,
+  // blank Braille: trim() keeps them all, so such a title was accepted and showed as nothing.
+  const d = openTestDiary();
+  const q = await d.call('createQuestion', { title: 'Visible', closes_at: CLOSES });
+  const before = exportJson(d.service);
+  const INVISIBLE = ' \u200b\u200c\u200d\u2060\u00ad\ufe0f\u3164\u2800 ';
+  const refused: [string, unknown, string][] = [
+    ['createQuestion', { title: INVISIBLE, closes_at: CLOSES }, 'title'],
+    ['createQuestion', { title: '\u200b', closes_at: CLOSES }, 'title'],
+    ['updateQuestion', { id: q.id, changes: { title: '\u2060\u2060' } }, 'changes.title'],
+    ['addReference', { question_id: q.id, p: 0.5, source: '\u200b' }, 'source'],
+    ['addForecast', { question_id: q.id, p: 0.5, lenses: [{ name: '\u200d', p: 0.5 }] }, 'lenses[0].name'],
+    ['createQuestion', { type: 'choice', title: 'Pick', closes_at: CLOSES, options: ['Kestrowe', '\u200b'] }, 'options[1]'],
+  ];
+  for (const [op, request, field] of refused) {
+    const answer = await d.service.dispatch(op, request);
+    assert.equal(answer.ok, false, `${op} ${JSON.stringify(request)}`);
+    if (answer.ok) continue;
+    assert.equal(answer.error.code, 'invalid', op);
+    assert.match(answer.error.fields.join('\n'), new RegExp(`^${field.replace(/[[\]]/g, '\\$&')}: .*only invisible characters`, 'm'), op);
+  }
+  const file = JSON.stringify({ format: 'forelog-diary', version: 1, questions: [{ id: 'z1', title: '\u200b\u200b', closes_at: CLOSES, forecasts: [] }] });
+  const json = await d.service.dispatch('importText', { format: 'json', text: file });
+  assert.equal(json.ok, false);
+  if (!json.ok) assert.match(json.error.message, /Question 1 \(questions\[0\], id "z1"\) .*field title: must not be empty: it holds only invisible characters/);
+  const csv = `title,closes_at,forecast_at,p\r\n\u200b,${CLOSES},2026-01-01T00:00:00Z,0.5\r\n`;
+  const fromCsv = await d.service.dispatch('importText', { format: 'csv', text: csv });
+  assert.equal(fromCsv.ok, false);
+  if (!fromCsv.ok) assert.match(fromCsv.error.message, /Row 2, column title: .*only invisible characters/);
+  assert.equal(exportJson(d.service), before);
+  // A visible title keeps its invisible characters exactly (a joiner inside an emoji, a soft hyphen).
+  const kept = await d.call('createQuestion', { title: 'Team \u{1F469}\u200d\u{1F4BB} re\u00adview', closes_at: CLOSES });
+  assert.equal(kept.title, 'Team \u{1F469}\u200d\u{1F4BB} re\u00adview');
+});
+
 /** Strings rich in the characters where the two notions of "empty" could differ. */
 const tricky = fc.string({
   unit: fc.oneof(

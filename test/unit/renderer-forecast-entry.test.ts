@@ -135,6 +135,9 @@ test('a choice question needs 2 to 12 distinct, non-empty options', () => {
   assert.deepEqual(readOptions([' Kestrowe ', 'Ambledene', 'Neither']), { ok: true, value: ['Kestrowe', 'Ambledene', 'Neither'] });
   const repeat = readOptions(['Kestrowe', 'Ambledene', 'Kestrowe ']);
   assert.equal(!repeat.ok && repeat.error, 'Option 3: repeats option 1; each option must differ.');
+  // Labels that look the same (a zero-width space more, an accent written as a separate mark) are the same option.
+  const lookAlike = readOptions(['Kestrowe', 'Café', 'Kestrowe\u200b', 'Cafe\u0301']);
+  assert.deepEqual(!lookAlike.ok && lookAlike.problems, { 2: 'repeats option 1; each option must differ', 3: 'repeats option 2; each option must differ' });
   const empty = readOptions(['Kestrowe', ' ']);
   assert.equal(!empty.ok && empty.error, 'Option 2: write the option, or remove it.');
   assert.equal(readOptions(['Only']).ok, false);

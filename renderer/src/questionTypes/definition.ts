@@ -6,6 +6,7 @@
  */
 import { MAX_OPTIONS, MIN_OPTIONS } from '../../../shared/choice-vector';
 import { DEFAULT_QUANTILE_LEVELS } from '../../../shared/quantile-levels';
+import { optionLook } from '../../../shared/validation';
 import type { Parsed } from '../percent';
 import { readChoiceForecast, type ChoiceProblems } from '../forecastEntry/choiceEntry';
 import { levelName } from '../forecastEntry/numericEntry';
@@ -46,15 +47,16 @@ export function levelsText(levels: readonly number[]): string {
 
 /**
  * The option boxes as labels, or what is wrong: fewer than 2 or more than 12, an empty
- * label, a label given twice (compared trimmed, as saved).
+ * label, a label given twice (compared trimmed, as saved, and as it looks: `optionLook`).
  */
 export function readOptions(texts: readonly string[]): Parsed<string[]> & { problems?: Record<number, string> } {
   const labels = texts.map((t) => t.trim());
+  const looks = labels.map(optionLook);
   const problems: Record<number, string> = {};
   labels.forEach((label, k) => {
     if (label === '') problems[k] = 'write the option, or remove it';
     else {
-      const first = labels.indexOf(label);
+      const first = looks.indexOf(looks[k]!);
       if (first < k) problems[k] = `repeats option ${first + 1}; each option must differ`;
     }
   });
