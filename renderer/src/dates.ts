@@ -374,6 +374,28 @@ export function wallText(date: { year: number; month: number; day: number }, tim
   return `${String(date.year).padStart(4, '0')}-${pad(date.month)}-${pad(date.day)}T${pad(time.hour)}:${pad(time.minute)}`;
 }
 
+/**
+ * A date, a time and perhaps seconds or the zone label, written in one box: typed in the
+ * locale's order ("04/12/2026 14:30"), ISO ("2026-12-04T14:30:00"), or copied from a read-back
+ * line ("Fri, 4 Dec 2026, 14:30 GMT"). Split into what the date and time boxes show; null when
+ * `text` is not both. A zone label must be the one `timeZone` shows at that time (or the
+ * zone's name): a time copied from another zone is left for the user to place, never moved.
+ * Seconds are dropped — the boxes hold minutes.
+ */
+export function splitDateTimeText(text: string, timeZone: string, locale = userLocale()): { date: string; time: string } | null {
+  const m = /^(.*?\d)(?:\s*,\s*|\s+|T)(\d{1,2}[:.]\d{2})(?::\d{2}(?:\.\d+)?)?(\s*[ap]\.?\s*m\.?)?(?:\s+(\S+))?$/i.exec(text.trim());
+  if (!m) return null;
+  const day = parseDateText(m[1]!, locale);
+  const clock = parseTimeText(`${m[2]!}${m[3] ?? ''}`, locale);
+  if (!day.ok || !clock.ok) return null;
+  const zone = m[4];
+  if (zone !== undefined) {
+    const at = wallTimeToInstant({ ...day.value, ...clock.value, second: 0 }, timeZone);
+    if (zone !== zoneLabel(at, timeZone, locale) && zone !== timeZone && zone !== zoneName(timeZone)) return null;
+  }
+  return { date: formatDateText(day.value, locale), time: formatTimeText(clock.value, locale) };
+}
+
 // ---------------------------------------------------------------------------------------
 // Wall-clock text and instants.
 

@@ -263,6 +263,26 @@ test('dates are typed day/month/year and read back with the zone’s offset', as
   expect(list.questions.map((q) => q.closes_at)).toEqual(['2030-12-31T22:00:00.000Z']);
 });
 
+test('a date and time typed or pasted into the date box fill both boxes, the read-back line included', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  const date = dialog.getByRole('textbox', { name: 'Closes', exact: true });
+  const time = dialog.getByRole('textbox', { name: 'Closes: time' });
+  await dialog.getByLabel('Time zone for closes').selectOption('Europe/London');
+  await date.fill('30/12/2030 09:15');
+  await expect(date).toHaveValue('30/12/2030');
+  await expect(time).toHaveValue('09:15');
+  const readback = dialog.getByTestId('datetime-readback');
+  await expect(readback).toHaveText('Mon, 30 Dec 2030, 09:15 GMT');
+
+  // The read-back line, copied into the Opened box, is taken whole.
+  const opened = dialog.getByRole('textbox', { name: 'Opened', exact: true });
+  await opened.fill('Mon, 30 Dec 2030, 09:15 GMT');
+  await expect(opened).toHaveValue('30/12/2030');
+  await expect(dialog.getByRole('textbox', { name: 'Opened: time' })).toHaveValue('09:15');
+  await discard(page, dialog);
+});
+
 test('an optional date that is not a date is not taken as “now”: the save stops at it', async () => {
   const { page } = app;
   await page.getByRole('link', { name: 'Northgate signs phase 3 by New Year’s Eve' }).click();

@@ -19,6 +19,7 @@ import {
   localToIso,
   plural,
   parseDateText,
+  splitDateTimeText,
   parseTimeText,
   timePlaceholder,
   wallText,
@@ -90,6 +91,26 @@ test('a date written with its month’s name, as the window writes dates, is rea
   assert.deepEqual(parseDateText('20 Nov', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('31 Nov 2026', 'en-GB'), { ok: false, error: 'that month has no day 31; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('about 20 Nov 2026', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
+});
+
+test('a date and time written in the date box split into the two boxes, as typed or as a read-back line writes them', () => {
+  const both = { date: '04/12/2026', time: '14:30' };
+  for (const text of ['04/12/2026 14:30', '4/12/2026, 14:30', '2026-12-04 14:30', '2026-12-04T14:30:00', ' 4 Dec 2026 14.30 ', '4 Dec 2026, 2:30 pm']) {
+    assert.deepEqual(splitDateTimeText(text, 'UTC', 'en-GB'), both, text);
+  }
+  // What the read-back line under the boxes shows goes back in, zone label and all.
+  const shown = formatInstant(Date.UTC(2026, 11, 4, 14, 30), 'UTC', { weekday: true }, 'en-GB');
+  assert.equal(shown, 'Fri, 4 Dec 2026, 14:30 GMT');
+  assert.deepEqual(splitDateTimeText(shown, 'UTC', 'en-GB'), both);
+  const summer = formatInstant(Date.UTC(2026, 6, 1, 16), 'Europe/London', { weekday: true }, 'en-US');
+  assert.deepEqual(splitDateTimeText(summer, 'Europe/London', 'en-US'), { date: '07/01/2026', time: '5:00 PM' }, summer);
+  assert.deepEqual(splitDateTimeText('01/07/2026 17:00 Europe/London', 'Europe/London', 'en-GB'), { date: '01/07/2026', time: '17:00' });
+  // Another zone's label is not this field's time: left as typed, never moved to another hour.
+  assert.equal(splitDateTimeText('Wed 1 Jul 2026, 17:00 GMT+2', 'Europe/London', 'en-GB'), null);
+  // A date alone, a time that is not one, or text that is no date stays in the date box.
+  for (const text of ['04/12/2026', '4 Dec 2026', '04/12/2026 25:00', 'about 4 Dec 2026 14:30', '14:30']) {
+    assert.equal(splitDateTimeText(text, 'UTC', 'en-GB'), null, text);
+  }
 });
 
 test('a date that is not one says why, in the user’s terms', () => {
