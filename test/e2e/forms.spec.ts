@@ -90,6 +90,25 @@ test('a bad tag left in the tag box stops the save and says why', async () => {
   expect(list.questions.map((q) => q.tags)).toEqual([['client:harbour']]);
 });
 
+test('a list of tags pasted with commas adds each tag, and keeps any bad one in the box with the reason', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Quellmoor renews the cold-store lease');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('31/12/2030 17:00');
+  const tags = dialog.getByLabel('Tags', { exact: true });
+  await tags.fill('client:quellmoor, Renewals,, cold store');
+  await tags.press('Enter');
+  await expect(dialog.getByRole('list', { name: 'Tags: chosen' }).getByRole('listitem')).toHaveText(['client:quellmoor×', 'renewals×']);
+  await expect(tags).toHaveValue('cold store');
+  await expect(tags).toHaveAccessibleDescription(/“cold store” is not a valid tag/);
+
+  await tags.fill('cold-store');
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeHidden();
+  const list = await apiCall<{ questions: QuestionSummary[] }>(server().url, 'listQuestions', { text: 'cold-store lease' });
+  expect(list.questions.map((q) => q.tags)).toEqual([['client:quellmoor', 'renewals', 'cold-store']]);
+});
+
 test('0% and 100% are warned about and saved; 0.5 asks whether 50% was meant', async () => {
   const { page } = app;
   const dialog = await openQuickAdd(page);
