@@ -11,6 +11,26 @@ const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
 const app = useAppPage(server);
 
+test('on an empty diary the briefing button says why there is nothing to brief on, and works once a question is written', async () => {
+  const { page } = app;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  const briefing = page.getByRole('button', { name: 'Briefing for the whole diary' });
+  await expect(briefing).toBeDisabled();
+  await expect(briefing).toHaveAccessibleDescription(/Nothing to brief on yet: a briefing lists your confident misses and open questions\. Write a question first\./);
+  await page.screenshot({ path: 'test/e2e/artifacts/newcomer-empty-briefing.png' });
+
+  await page.getByRole('main').focus();
+  await page.keyboard.press('n');
+  const dialog = page.getByRole('dialog', { name: 'New question' });
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Eastgate depot opens its second shift');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('30/06/2031 17:00');
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByTestId('briefing-unavailable')).toHaveCount(0);
+  await briefing.click();
+  await expect(page.getByRole('button', { name: 'Close preview' })).toBeVisible();
+});
+
 test('resolving a numeric question with the value box empty marks only the value box', async () => {
   const { page } = app;
   await openNewQuestion(page, server().url, {
