@@ -233,3 +233,58 @@ test('the Questions list says how a choice or numeric question resolved, as it d
     expect(inside, `at ${width} wide`).toBe(true);
   }
 });
+
+test('a range or words typed into a number box stop the save with a reason, instead of saving the box as empty', async () => {
+  const { page } = app;
+  await page.getByRole('main').focus();
+  await page.keyboard.press('n');
+  const dialog = page.getByRole('dialog', { name: 'New question' });
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Northgate renews the yard lease');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('30/06/2031 17:00');
+  // Typed key by key, as a person does: the browser keeps "60-70" on screen but reads it as no number.
+  const base = dialog.getByRole('spinbutton', { name: 'Base rate', exact: true });
+  const mine = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
+  await base.pressSequentially('20-30');
+  await mine.pressSequentially('60-70');
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeVisible();
+  await expect(base).toBeFocused();
+  await expect(base).toHaveAccessibleDescription(/This is not one number\. Type a single number such as 12\.5/);
+  await expect(mine).toHaveAccessibleDescription(/This is not one number/);
+  const list = await apiCall<{ questions: { title: string }[] }>(server().url, 'listQuestions', { text: 'yard lease' });
+  expect(list.questions).toEqual([]);
+
+  // The slider replaces the text with a number; a number typed over the other box clears its message.
+  await dialog.getByRole('slider', { name: 'Base rate (slider)' }).fill('25');
+  await expect(base).toHaveValue('25');
+  await mine.fill('65');
+  await expect(mine).not.toHaveAccessibleDescription(/not one number/);
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeHidden();
+  const saved = await apiCall<{ questions: { base_rate: number | null; last_p: number | null }[] }>(server().url, 'listQuestions', { text: 'yard lease' });
+  expect(saved.questions.map((q) => [q.base_rate, q.last_p])).toEqual([[0.25, 0.65]]);
+});
+
+test('a numeric range typed with its unit says the box holds no number, not “Enter a value”', async () => {
+  const { page } = app;
+  await openNewQuestion(page, server().url, {
+    title: 'Weeks from kickoff to go-live at Westgate',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'numeric',
+    unit: 'weeks',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  const low = dialog.getByRole('spinbutton', { name: /^P10/ });
+  await low.pressSequentially('8 weeks');
+  await dialog.getByRole('spinbutton', { name: /^P50/ }).fill('12');
+  await dialog.getByRole('spinbutton', { name: /^P90/ }).fill('20');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(low).toHaveAccessibleDescription(/This is not one number/);
+  await expect(low).not.toHaveAccessibleDescription(/Enter a value/);
+  await low.fill('8');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+});
