@@ -285,7 +285,8 @@ export function parseDateText(text: string, locale = userLocale()): Read<{ year:
     }
     return { ok: true, value: named };
   }
-  const iso = /^(\d{4})-(\d{1,2})-(\d{1,2})$/.exec(trimmed);
+  // Year first is always year, month, day ("2026-12-04", "2026/12/04", "2026.12.04"): no one writes year, day, month.
+  const iso = /^(\d{4})[-/.](\d{1,2})[-/.](\d{1,2})$/.exec(trimmed);
   const groups = iso ? [iso[1]!, iso[2]!, iso[3]!] : trimmed.split(/[^0-9]+/).filter(Boolean);
   const keys: DateOrder['order'] = iso ? ['year', 'month', 'day'] : order;
   if (groups.length !== 3) return { ok: false, error: `write the date as ${placeholder}` };

@@ -120,6 +120,13 @@ test('a date that is not one says why, in the user’s terms', () => {
   assert.deepEqual(parseDateText('1/0/2026', 'en-GB'), { ok: false, error: '0 is not a month; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('0/1/2026', 'en-GB'), { ok: false, error: 'that month has no day 0; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('03/04/26', 'en-GB'), { ok: false, error: 'write the year with four digits (dd/mm/yyyy)' });
+  // Year first is read as year, month, day in any locale, not refused as a short year.
+  for (const locale of ['en-GB', 'en-US']) {
+    for (const text of ['2026/12/04', '2026.12.04', '2026-12-04', '2026/12/4']) {
+      assert.deepEqual(parseDateText(text, locale), { ok: true, value: { year: 2026, month: 12, day: 4 } }, `${locale}: ${text}`);
+    }
+  }
+  assert.deepEqual(parseDateText('2026/13/04', 'en-GB'), { ok: false, error: '13 is not a month; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('next Tuesday', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
 });
 
