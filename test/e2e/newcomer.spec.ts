@@ -288,3 +288,25 @@ test('a numeric range typed with its unit says the box holds no number, not “E
   await dialog.getByRole('button', { name: 'Save revision' }).click();
   await expect(dialog).toBeHidden();
 });
+
+test('a range typed into a choice box says it is not one number, not that the box was left blank', async () => {
+  const { page } = app;
+  await openNewQuestion(page, server().url, {
+    title: 'Which haulier wins the Eastgate tender?',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'choice',
+    options: ['Alder', 'Birch', 'Cedar'],
+    first_forecast: { probs: [0.5, 0.3, 0.2] },
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  const birch = dialog.getByRole('spinbutton', { name: 'Birch' });
+  await birch.fill('');
+  await birch.pressSequentially('30-40');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(birch).toHaveAccessibleDescription(/This is not one number/);
+  await expect(birch).not.toHaveAccessibleDescription(/give a chance/);
+  await birch.fill('30');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+});
