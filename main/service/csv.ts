@@ -94,6 +94,8 @@ export class CsvError extends Error {
     message: string,
     readonly row: number | null,
     readonly column: string | null,
+    /** What is wrong with the cell, without where it is (the API's `column: reason` line); null when the message says it all. */
+    readonly reason: string | null = null,
   ) {
     super(message);
     this.name = 'CsvError';
@@ -376,7 +378,7 @@ export function* diaryCsvBytes(batches: Iterable<ExportBatch>, withTypes = false
 // Import
 
 function nothingImported(row: number, column: string, reason: string): CsvError {
-  return new CsvError(`Row ${row}, column ${column}: ${reason}. Nothing was imported.`, row, column);
+  return new CsvError(`Row ${row}, column ${column}: ${reason}. Nothing was imported.`, row, column, reason);
 }
 
 /** Applies a schema to one cell's value; the first problem becomes a row-and-column error. */

@@ -301,7 +301,12 @@ test('a bad row in the middle rejects the whole file, naming its row and column;
   const message = 'Row 4, column p: must be a probability between 0 and 1. Nothing was imported.';
   refuses(text, message, 4, 'p');
   // Rows 2 and 3 were already written when row 4 was read: the one transaction takes them back.
-  await assert.rejects(d.call('importText', { format: 'csv', text }), (err: unknown) => err instanceof ApiError && err.code === 'invalid' && err.message === message);
+  await assert.rejects(d.call('importText', { format: 'csv', text }), (err: unknown) => {
+    assert.ok(err instanceof ApiError && err.code === 'invalid' && err.message === message);
+    // The column's line says what is wrong and on which row, not the whole message again.
+    assert.deepEqual(err.fields, ['p: must be a probability between 0 and 1 (row 4)']);
+    return true;
+  });
   assert.equal(d.service.diary.exportText('json').text, before);
 });
 
