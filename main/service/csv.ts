@@ -391,6 +391,19 @@ function check<T>(schema: z.ZodType<T>, value: unknown, row: number, column: str
 }
 
 /**
+ * The tags cell's tags, separated by spaces. A bad one is named as written, not by its place
+ * in a list the user never sees ("[1]"); a comma gets its own hint, as spreadsheets and the
+ * app's own tag box use commas between tags.
+ */
+function tagsCell(text: string, row: number): string[] {
+  const tags = text === '' ? [] : text.split(/\s+/);
+  const bad = tags.find((tag) => !v.TAG_PATTERN.test(tag));
+  if (bad === undefined) return tags;
+  const commas = bad.includes(',') ? '; separate tags with spaces, not commas' : '';
+  throw nothingImported(row, 'tags', `“${bad}” is not a valid tag: ${v.TAG_RULE}${commas}`);
+}
+
+/**
  * A revision's or a reference's time as epoch ms: the instant rule read directly (every
  * row has one); zod, with the same rule, words a refusal.
  */
@@ -474,7 +487,7 @@ function readQuestionCells(cell: Cell, row: number): Record<QuestionColumn, unkn
     title: text('title', Q.title),
     rule: text('rule', Q.rule),
     kind: optional('kind', Q.kind, (t) => t.toLowerCase()),
-    tags: check(Q.tags, tags === '' ? [] : tags.split(/\s+/), row, 'tags'),
+    tags: check(Q.tags, tagsCell(tags, row), row, 'tags'),
     opened_at: optional('opened_at', Q.opened_at),
     closes_at: check(Q.closes_at, cell('closes_at').trim(), row, 'closes_at'),
     time_zone: optional('time_zone', Q.time_zone),
