@@ -310,3 +310,16 @@ test('a range typed into a choice box says it is not one number, not that the bo
   await dialog.getByRole('button', { name: 'Save revision' }).click();
   await expect(dialog).toBeHidden();
 });
+
+test('a search longer than the diary takes searches for its start and says so, instead of an error over the unfiltered list', async () => {
+  const { page } = app;
+  await apiCall(server().url, 'createQuestion', { title: 'Marrow Quay crane contract is extended', closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString() });
+  await page.reload();
+  const search = page.getByRole('searchbox', { name: 'Search' });
+  // A paragraph pasted from an e-mail: 389 characters, every word in the title.
+  await search.fill('Marrow Quay crane contract is extended '.repeat(10).trim());
+  await expect(search).toHaveAccessibleDescription('A search reads up to 200 characters: this searches for the first 200 of 389.');
+  await expect(page.getByRole('alert')).toHaveCount(0);
+  await expect(page.getByRole('link', { name: 'Marrow Quay crane contract is extended' })).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Eastgate depot opens its second shift' })).toHaveCount(0);
+});
