@@ -381,7 +381,8 @@ export function wallText(date: { year: number; month: number; day: number }, tim
  * line ("Fri, 4 Dec 2026, 14:30 GMT"). Split into what the date and time boxes show; null when
  * `text` is not both. A zone label must be the one `timeZone` shows at that time (or the
  * zone's name): a time copied from another zone is left for the user to place, never moved.
- * Seconds are dropped — the boxes hold minutes.
+ * Seconds are dropped — the boxes hold minutes. On a 12-hour clock an hour from 1 to 12 needs
+ * its am/pm, which may still be on its way while the text is typed.
  */
 export function splitDateTimeText(text: string, timeZone: string, locale = userLocale()): { date: string; time: string } | null {
   const m = /^(.*?\d)(?:\s*,\s*|\s+|T)(\d{1,2}[:.]\d{2})(?::\d{2}(?:\.\d+)?)?(\s*[ap]\.?\s*m\.?)?(?:\s+(\S+))?$/i.exec(text.trim());
@@ -389,6 +390,8 @@ export function splitDateTimeText(text: string, timeZone: string, locale = userL
   const day = parseDateText(m[1]!, locale);
   const clock = parseTimeText(`${m[2]!}${m[3] ?? ''}`, locale);
   if (!day.ok || !clock.ok) return null;
+  // On a 12-hour clock "2:30" may be the start of "2:30 pm" still being typed: wait for the mark.
+  if (m[3] === undefined && uses12Hour(locale) && clock.value.hour >= 1 && clock.value.hour <= 12) return null;
   const zone = m[4];
   if (zone !== undefined) {
     const at = wallTimeToInstant({ ...day.value, ...clock.value, second: 0 }, timeZone);

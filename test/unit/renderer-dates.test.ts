@@ -105,6 +105,10 @@ test('a date and time written in the date box split into the two boxes, as typed
   const summer = formatInstant(Date.UTC(2026, 6, 1, 16), 'Europe/London', { weekday: true }, 'en-US');
   assert.deepEqual(splitDateTimeText(summer, 'Europe/London', 'en-US'), { date: '07/01/2026', time: '5:00 PM' }, summer);
   assert.deepEqual(splitDateTimeText('01/07/2026 17:00 Europe/London', 'Europe/London', 'en-GB'), { date: '01/07/2026', time: '17:00' });
+  // Typed on a 12-hour clock, "2:30" waits for its am/pm; "14:30" cannot be the start of one.
+  assert.equal(splitDateTimeText('12/04/2026 2:30', 'UTC', 'en-US'), null);
+  assert.deepEqual(splitDateTimeText('12/04/2026 2:30 pm', 'UTC', 'en-US'), { date: '12/04/2026', time: '2:30 PM' });
+  assert.deepEqual(splitDateTimeText('12/04/2026 14:30', 'UTC', 'en-US'), { date: '12/04/2026', time: '2:30 PM' });
   // Another zone's label is not this field's time: left as typed, never moved to another hour.
   assert.equal(splitDateTimeText('Wed 1 Jul 2026, 17:00 GMT+2', 'Europe/London', 'en-GB'), null);
   // A date alone, a time that is not one, or text that is no date stays in the date box.
