@@ -323,3 +323,22 @@ test('a search longer than the diary takes searches for its start and says so, i
   await expect(page.getByRole('link', { name: 'Marrow Quay crane contract is extended' })).toBeVisible();
   await expect(page.getByRole('link', { name: 'Eastgate depot opens its second shift' })).toHaveCount(0);
 });
+
+test('in a browser window narrower than the desktop app allows, the navigation fits and the page does not scroll sideways', async () => {
+  const { page } = app;
+  for (const width of [600, 480]) {
+    await page.setViewportSize({ width, height: 700 });
+    const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link');
+    await expect(links).toHaveCount(5);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth), `at ${width} wide`).toBe(0);
+    if (width === 600) {
+      // Every link whole inside the window; the home link keeps its name for screen readers.
+      for (const link of await links.all()) {
+        const box = (await link.boundingBox())!;
+        expect(box.x + box.width, `${await link.innerText()} at ${width} wide`).toBeLessThanOrEqual(width);
+      }
+      await expect(page.getByRole('link', { name: 'Forelog, home' })).toBeVisible();
+    }
+  }
+  await page.screenshot({ path: 'test/e2e/artifacts/newcomer-narrow-bar.png', clip: { x: 0, y: 0, width: 480, height: 120 } });
+});
