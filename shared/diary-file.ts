@@ -152,6 +152,8 @@ export class DiaryFileError extends Error {
     message: string,
     readonly record: number | null,
     readonly field: string | null,
+    /** What is wrong with the field, without which record it is in (the API's `field: reason` line); null when the message says it all. */
+    readonly reason: string | null = null,
   ) {
     super(message);
     this.name = 'DiaryFileError';
@@ -410,7 +412,8 @@ function readQuestion(raw: unknown, index: number, ids: Set<string>, line?: numb
   if (!r.success) {
     const issue = r.error.issues[0]!;
     const field = v.formatPath(issue.path) || '(record)';
-    throw new DiaryFileError(`${questionRecordName(index, raw)} is not valid: field ${field}: ${v.issueReason(issue, true)}${where}. Nothing was imported.`, index, field);
+    const reason = v.issueReason(issue, true);
+    throw new DiaryFileError(`${questionRecordName(index, raw)} is not valid: field ${field}: ${reason}${where}. Nothing was imported.`, index, field, reason);
   }
   if (r.data.id !== undefined) {
     if (ids.has(r.data.id)) {

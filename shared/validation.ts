@@ -174,8 +174,11 @@ export const source = filledLine(200, 'must name the source');
 export const id = (typeError = 'must be text') =>
   text('one', typeError).min(1, { message: 'must not be empty' }).max(200, { message: 'must be at most 200 characters' });
 
+/** The longest search the question list takes, in UTF-16 code units (the Questions screen searches for this much of a longer text). */
+export const SEARCH_MAX_CHARS = 200;
+
 /** Search text for the question list. */
-export const searchText = text('one').max(200, { message: 'must be at most 200 characters' });
+export const searchText = text('one').max(SEARCH_MAX_CHARS, { message: `must be at most ${SEARCH_MAX_CHARS} characters` });
 
 /** A whole number from `min` to `max` (paging: an offset or a page size). */
 export function count(max: number, min = 0) {

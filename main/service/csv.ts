@@ -94,6 +94,8 @@ export class CsvError extends Error {
     message: string,
     readonly row: number | null,
     readonly column: string | null,
+    /** What is wrong with the cell, without where it is (the API's `column: reason` line); null when the message says it all. */
+    readonly reason: string | null = null,
   ) {
     super(message);
     this.name = 'CsvError';
@@ -376,7 +378,7 @@ export function* diaryCsvBytes(batches: Iterable<ExportBatch>, withTypes = false
 // Import
 
 function nothingImported(row: number, column: string, reason: string): CsvError {
-  return new CsvError(`Row ${row}, column ${column}: ${reason}. Nothing was imported.`, row, column);
+  return new CsvError(`Row ${row}, column ${column}: ${reason}. Nothing was imported.`, row, column, reason);
 }
 
 /** Applies a schema to one cell's value; the first problem becomes a row-and-column error. */
@@ -386,6 +388,19 @@ function check<T>(schema: z.ZodType<T>, value: unknown, row: number, column: str
   const issue = r.error.issues[0]!;
   const inner = v.formatPath(issue.path);
   throw nothingImported(row, column, inner ? `${inner}: ${issue.message}` : issue.message);
+}
+
+/**
+ * The tags cell's tags, separated by spaces. A bad one is named as written, not by its place
+ * in a list the user never sees ("[1]"); a comma gets its own hint, as spreadsheets and the
+ * app's own tag box use commas between tags.
+ */
+function tagsCell(text: string, row: number): string[] {
+  const tags = text === '' ? [] : text.split(/\s+/);
+  const bad = tags.find((tag) => !v.TAG_PATTERN.test(tag));
+  if (bad === undefined) return tags;
+  const commas = bad.includes(',') ? '; separate tags with spaces, not commas' : '';
+  throw nothingImported(row, 'tags', `“${bad}” is not a valid tag: ${v.TAG_RULE}${commas}`);
 }
 
 /**
@@ -472,7 +487,7 @@ function readQuestionCells(cell: Cell, row: number): Record<QuestionColumn, unkn
     title: text('title', Q.title),
     rule: text('rule', Q.rule),
     kind: optional('kind', Q.kind, (t) => t.toLowerCase()),
-    tags: check(Q.tags, tags === '' ? [] : tags.split(/\s+/), row, 'tags'),
+    tags: check(Q.tags, tagsCell(tags, row), row, 'tags'),
     opened_at: optional('opened_at', Q.opened_at),
     closes_at: check(Q.closes_at, cell('closes_at').trim(), row, 'closes_at'),
     time_zone: optional('time_zone', Q.time_zone),

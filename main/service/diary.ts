@@ -219,8 +219,15 @@ const detached = (id: string): string => (' ' + id).slice(1);
 
 /** A reader's refusal as the API error the user sees; anything else (a file that cannot be read) passes through. */
 function asImportError(err: unknown): unknown {
-  if (err instanceof DiaryFileError) return new ApiError('invalid', err.message, err.field ? [`${err.field}: ${err.message}`] : []);
-  if (err instanceof CsvError) return new ApiError('invalid', err.message, err.column ? [`${err.column}: ${err.message}`] : []);
+  // The `field: reason` line names the place once: the reason with its record or row, not the whole message again.
+  if (err instanceof DiaryFileError) {
+    const line = err.reason !== null && err.record !== null ? `${err.reason} (question ${err.record + 1})` : err.message;
+    return new ApiError('invalid', err.message, err.field ? [`${err.field}: ${line}`] : []);
+  }
+  if (err instanceof CsvError) {
+    const line = err.reason !== null && err.row !== null ? `${err.reason} (row ${err.row})` : err.message;
+    return new ApiError('invalid', err.message, err.column ? [`${err.column}: ${line}`] : []);
+  }
   if (err instanceof TextDecodingError) return new ApiError('invalid', `${err.message} Nothing was imported.`);
   return err;
 }

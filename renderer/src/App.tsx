@@ -119,7 +119,7 @@ function Shell() {
       <header className="app-bar">
         <a className="app-bar__brand" href={hrefTo(HOME_PATH)} aria-label="Forelog, home">
           <span className="app-bar__mark" aria-hidden="true" />
-          Forelog
+          <span className="app-bar__name">Forelog</span>
         </a>
         <nav aria-label="Main" className="app-bar__nav">
           <ul>

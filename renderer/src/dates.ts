@@ -285,7 +285,8 @@ export function parseDateText(text: string, locale = userLocale()): Read<{ year:
     }
     return { ok: true, value: named };
   }
-  const iso = /^(\d{4})-(\d{1,2})-(\d{1,2})$/.exec(trimmed);
+  // Year first is always year, month, day ("2026-12-04", "2026/12/04", "2026.12.04"): no one writes year, day, month.
+  const iso = /^(\d{4})[-/.](\d{1,2})[-/.](\d{1,2})$/.exec(trimmed);
   const groups = iso ? [iso[1]!, iso[2]!, iso[3]!] : trimmed.split(/[^0-9]+/).filter(Boolean);
   const keys: DateOrder['order'] = iso ? ['year', 'month', 'day'] : order;
   if (groups.length !== 3) return { ok: false, error: `write the date as ${placeholder}` };
@@ -372,6 +373,31 @@ export function parseTimeText(text: string, locale = userLocale()): Read<{ hour:
 /** The "YYYY-MM-DDTHH:MM" wall-time text forms keep, from its parts. */
 export function wallText(date: { year: number; month: number; day: number }, time: { hour: number; minute: number }): string {
   return `${String(date.year).padStart(4, '0')}-${pad(date.month)}-${pad(date.day)}T${pad(time.hour)}:${pad(time.minute)}`;
+}
+
+/**
+ * A date, a time and perhaps seconds or the zone label, written in one box: typed in the
+ * locale's order ("04/12/2026 14:30"), ISO ("2026-12-04T14:30:00"), or copied from a read-back
+ * line ("Fri, 4 Dec 2026, 14:30 GMT"). Split into what the date and time boxes show; null when
+ * `text` is not both. A zone label must be the one `timeZone` shows at that time (or the
+ * zone's name): a time copied from another zone is left for the user to place, never moved.
+ * Seconds are dropped — the boxes hold minutes. On a 12-hour clock an hour from 1 to 12 needs
+ * its am/pm, which may still be on its way while the text is typed.
+ */
+export function splitDateTimeText(text: string, timeZone: string, locale = userLocale()): { date: string; time: string } | null {
+  const m = /^(.*?\d)(?:\s*,\s*|\s+|T)(\d{1,2}[:.]\d{2})(?::\d{2}(?:\.\d+)?)?(\s*[ap]\.?\s*m\.?)?(?:\s+(\S+))?$/i.exec(text.trim());
+  if (!m) return null;
+  const day = parseDateText(m[1]!, locale);
+  const clock = parseTimeText(`${m[2]!}${m[3] ?? ''}`, locale);
+  if (!day.ok || !clock.ok) return null;
+  // On a 12-hour clock "2:30" may be the start of "2:30 pm" still being typed: wait for the mark.
+  if (m[3] === undefined && uses12Hour(locale) && clock.value.hour >= 1 && clock.value.hour <= 12) return null;
+  const zone = m[4];
+  if (zone !== undefined) {
+    const at = wallTimeToInstant({ ...day.value, ...clock.value, second: 0 }, timeZone);
+    if (zone !== zoneLabel(at, timeZone, locale) && zone !== timeZone && zone !== zoneName(timeZone)) return null;
+  }
+  return { date: formatDateText(day.value, locale), time: formatTimeText(clock.value, locale) };
 }
 
 // ---------------------------------------------------------------------------------------

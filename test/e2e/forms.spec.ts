@@ -90,6 +90,25 @@ test('a bad tag left in the tag box stops the save and says why', async () => {
   expect(list.questions.map((q) => q.tags)).toEqual([['client:harbour']]);
 });
 
+test('a list of tags pasted with commas adds each tag, and keeps any bad one in the box with the reason', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Quellmoor renews the cold-store lease');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('31/12/2030 17:00');
+  const tags = dialog.getByLabel('Tags', { exact: true });
+  await tags.fill('client:quellmoor, Renewals,, cold store');
+  await tags.press('Enter');
+  await expect(dialog.getByRole('list', { name: 'Tags: chosen' }).getByRole('listitem')).toHaveText(['client:quellmoor×', 'renewals×']);
+  await expect(tags).toHaveValue('cold store');
+  await expect(tags).toHaveAccessibleDescription(/“cold store” is not a valid tag/);
+
+  await tags.fill('cold-store');
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeHidden();
+  const list = await apiCall<{ questions: QuestionSummary[] }>(server().url, 'listQuestions', { text: 'cold-store lease' });
+  expect(list.questions.map((q) => q.tags)).toEqual([['client:quellmoor', 'renewals', 'cold-store']]);
+});
+
 test('0% and 100% are warned about and saved; 0.5 asks whether 50% was meant', async () => {
   const { page } = app;
   const dialog = await openQuickAdd(page);
@@ -261,6 +280,26 @@ test('dates are typed day/month/year and read back with the zone’s offset', as
   const list = await apiCall<{ questions: QuestionSummary[] }>(server().url, 'listQuestions', { text: 'phase 3' });
   // 17:00 in New York in winter (UTC−5) is 22:00Z.
   expect(list.questions.map((q) => q.closes_at)).toEqual(['2030-12-31T22:00:00.000Z']);
+});
+
+test('a date and time typed or pasted into the date box fill both boxes, the read-back line included', async () => {
+  const { page } = app;
+  const dialog = await openQuickAdd(page);
+  const date = dialog.getByRole('textbox', { name: 'Closes', exact: true });
+  const time = dialog.getByRole('textbox', { name: 'Closes: time' });
+  await dialog.getByLabel('Time zone for closes').selectOption('Europe/London');
+  await date.fill('30/12/2030 09:15');
+  await expect(date).toHaveValue('30/12/2030');
+  await expect(time).toHaveValue('09:15');
+  const readback = dialog.getByTestId('datetime-readback');
+  await expect(readback).toHaveText('Mon, 30 Dec 2030, 09:15 GMT');
+
+  // The read-back line, copied into the Opened box, is taken whole.
+  const opened = dialog.getByRole('textbox', { name: 'Opened', exact: true });
+  await opened.fill('Mon, 30 Dec 2030, 09:15 GMT');
+  await expect(opened).toHaveValue('30/12/2030');
+  await expect(dialog.getByRole('textbox', { name: 'Opened: time' })).toHaveValue('09:15');
+  await discard(page, dialog);
 });
 
 test('an optional date that is not a date is not taken as “now”: the save stops at it', async () => {

@@ -140,6 +140,8 @@ test('at 80% the entries are the scorecard’s confident misses, each with its n
   // …with the Scorecard's own interval beside it, so a Brier of few questions reads as the rough guess it is.
   const [low, high] = detail.brier_interval!;
   await expect(page.getByTestId('brier-interval')).toHaveText(`95% interval ${low.toFixed(3)}–${high.toFixed(3)}`);
+  // The 50% reference is written as the Scorecard writes it.
+  await expect(page.getByText('Brier: mean squared distance from what happened')).toContainText('0 is perfect, always saying 50% scores 0.25.');
   await expect(page.getByTestId('calibration-bins').locator('tbody tr')).toHaveCount(report.bins.length);
   const { slope, intercept, reason } = report.calibration;
   if (slope === null || intercept === null) {

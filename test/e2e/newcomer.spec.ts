@@ -11,6 +11,26 @@ const server = useDiaryServer();
 test.describe.configure({ mode: 'serial' });
 const app = useAppPage(server);
 
+test('on an empty diary the briefing button says why there is nothing to brief on, and works once a question is written', async () => {
+  const { page } = app;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  const briefing = page.getByRole('button', { name: 'Briefing for the whole diary' });
+  await expect(briefing).toBeDisabled();
+  await expect(briefing).toHaveAccessibleDescription(/Nothing to brief on yet: a briefing lists your confident misses and open questions\. Write a question first\./);
+  await page.screenshot({ path: 'test/e2e/artifacts/newcomer-empty-briefing.png' });
+
+  await page.getByRole('main').focus();
+  await page.keyboard.press('n');
+  const dialog = page.getByRole('dialog', { name: 'New question' });
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Eastgate depot opens its second shift');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('30/06/2031 17:00');
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByTestId('briefing-unavailable')).toHaveCount(0);
+  await briefing.click();
+  await expect(page.getByRole('button', { name: 'Close preview' })).toBeVisible();
+});
+
 test('resolving a numeric question with the value box empty marks only the value box', async () => {
   const { page } = app;
   await openNewQuestion(page, server().url, {
@@ -212,4 +232,113 @@ test('the Questions list says how a choice or numeric question resolved, as it d
     const inside = await row('Which partner takes the northern corridor?').locator('.status-pill .badge').evaluate((badge) => badge.scrollWidth <= badge.clientWidth);
     expect(inside, `at ${width} wide`).toBe(true);
   }
+});
+
+test('a range or words typed into a number box stop the save with a reason, instead of saving the box as empty', async () => {
+  const { page } = app;
+  await page.getByRole('main').focus();
+  await page.keyboard.press('n');
+  const dialog = page.getByRole('dialog', { name: 'New question' });
+  await dialog.getByRole('textbox', { name: 'Question', exact: true }).fill('Northgate renews the yard lease');
+  await dialog.getByRole('textbox', { name: 'Closes', exact: true }).fill('30/06/2031 17:00');
+  // Typed key by key, as a person does: the browser keeps "60-70" on screen but reads it as no number.
+  const base = dialog.getByRole('spinbutton', { name: 'Base rate', exact: true });
+  const mine = dialog.getByRole('spinbutton', { name: 'Your probability', exact: true });
+  await base.pressSequentially('20-30');
+  await mine.pressSequentially('60-70');
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeVisible();
+  await expect(base).toBeFocused();
+  await expect(base).toHaveAccessibleDescription(/This is not one number\. Type a single number such as 12\.5/);
+  await expect(mine).toHaveAccessibleDescription(/This is not one number/);
+  const list = await apiCall<{ questions: { title: string }[] }>(server().url, 'listQuestions', { text: 'yard lease' });
+  expect(list.questions).toEqual([]);
+
+  // The slider replaces the text with a number; a number typed over the other box clears its message.
+  await dialog.getByRole('slider', { name: 'Base rate (slider)' }).fill('25');
+  await expect(base).toHaveValue('25');
+  await mine.fill('65');
+  await expect(mine).not.toHaveAccessibleDescription(/not one number/);
+  await dialog.getByRole('button', { name: 'Save question' }).click();
+  await expect(dialog).toBeHidden();
+  const saved = await apiCall<{ questions: { base_rate: number | null; last_p: number | null }[] }>(server().url, 'listQuestions', { text: 'yard lease' });
+  expect(saved.questions.map((q) => [q.base_rate, q.last_p])).toEqual([[0.25, 0.65]]);
+});
+
+test('a numeric range typed with its unit says the box holds no number, not “Enter a value”', async () => {
+  const { page } = app;
+  await openNewQuestion(page, server().url, {
+    title: 'Weeks from kickoff to go-live at Westgate',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'numeric',
+    unit: 'weeks',
+    value_kind: 'number',
+    levels: [0.1, 0.5, 0.9],
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  const low = dialog.getByRole('spinbutton', { name: /^P10/ });
+  await low.pressSequentially('8 weeks');
+  await dialog.getByRole('spinbutton', { name: /^P50/ }).fill('12');
+  await dialog.getByRole('spinbutton', { name: /^P90/ }).fill('20');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(low).toHaveAccessibleDescription(/This is not one number/);
+  await expect(low).not.toHaveAccessibleDescription(/Enter a value/);
+  await low.fill('8');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+});
+
+test('a range typed into a choice box says it is not one number, not that the box was left blank', async () => {
+  const { page } = app;
+  await openNewQuestion(page, server().url, {
+    title: 'Which haulier wins the Eastgate tender?',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'choice',
+    options: ['Alder', 'Birch', 'Cedar'],
+    first_forecast: { probs: [0.5, 0.3, 0.2] },
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  const birch = dialog.getByRole('spinbutton', { name: 'Birch' });
+  await birch.fill('');
+  await birch.pressSequentially('30-40');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(birch).toHaveAccessibleDescription(/This is not one number/);
+  await expect(birch).not.toHaveAccessibleDescription(/give a chance/);
+  await birch.fill('30');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+});
+
+test('a search longer than the diary takes searches for its start and says so, instead of an error over the unfiltered list', async () => {
+  const { page } = app;
+  await apiCall(server().url, 'createQuestion', { title: 'Marrow Quay crane contract is extended', closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString() });
+  await page.reload();
+  const search = page.getByRole('searchbox', { name: 'Search' });
+  // A paragraph pasted from an e-mail: 389 characters, every word in the title.
+  await search.fill('Marrow Quay crane contract is extended '.repeat(10).trim());
+  await expect(search).toHaveAccessibleDescription('A search reads up to 200 characters: this searches for the first 200 of 389.');
+  await expect(page.getByRole('alert')).toHaveCount(0);
+  await expect(page.getByRole('link', { name: 'Marrow Quay crane contract is extended' })).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Eastgate depot opens its second shift' })).toHaveCount(0);
+});
+
+test('in a browser window narrower than the desktop app allows, the navigation fits and the page does not scroll sideways', async () => {
+  const { page } = app;
+  for (const width of [600, 480]) {
+    await page.setViewportSize({ width, height: 700 });
+    const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link');
+    await expect(links).toHaveCount(5);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth), `at ${width} wide`).toBe(0);
+    if (width === 600) {
+      // Every link whole inside the window; the home link keeps its name for screen readers.
+      for (const link of await links.all()) {
+        const box = (await link.boundingBox())!;
+        expect(box.x + box.width, `${await link.innerText()} at ${width} wide`).toBeLessThanOrEqual(width);
+      }
+      await expect(page.getByRole('link', { name: 'Forelog, home' })).toBeVisible();
+    }
+  }
+  await page.screenshot({ path: 'test/e2e/artifacts/newcomer-narrow-bar.png', clip: { x: 0, y: 0, width: 480, height: 120 } });
 });

@@ -301,7 +301,12 @@ test('a bad row in the middle rejects the whole file, naming its row and column;
   const message = 'Row 4, column p: must be a probability between 0 and 1. Nothing was imported.';
   refuses(text, message, 4, 'p');
   // Rows 2 and 3 were already written when row 4 was read: the one transaction takes them back.
-  await assert.rejects(d.call('importText', { format: 'csv', text }), (err: unknown) => err instanceof ApiError && err.code === 'invalid' && err.message === message);
+  await assert.rejects(d.call('importText', { format: 'csv', text }), (err: unknown) => {
+    assert.ok(err instanceof ApiError && err.code === 'invalid' && err.message === message);
+    // The column's line says what is wrong and on which row, not the whole message again.
+    assert.deepEqual(err.fields, ['p: must be a probability between 0 and 1 (row 4)']);
+    return true;
+  });
   assert.equal(d.service.diary.exportText('json').text, before);
 });
 
@@ -368,7 +373,8 @@ test('each cell is checked with the diary file rules, and the message names row 
     [{ ...Q1, closes_at: '30/09/2026' }, 'must be an ISO 8601 date-time with an offset or Z, e.g. 2026-03-31T17:00:00+01:00', 'closes_at'],
     [{ ...Q1, ...F1, p: '0,4' }, '"0,4" is not a number; write it with a decimal point and nothing else, e.g. 0.35', 'p'],
     [{ ...Q1, ...F1, p: '40%' }, '"40%" is not a number; write it with a decimal point and nothing else, e.g. 0.35', 'p'],
-    [{ ...Q1, tags: 'renewals Client:North' }, '[1]: is not a valid tag: a tag is 1–64 lower-case letters, digits or - _ : . / starting with a letter or digit (e.g. client:northgate)', 'tags'],
+    [{ ...Q1, tags: 'renewals Client:North' }, '“Client:North” is not a valid tag: a tag is 1–64 lower-case letters, digits or - _ : . / starting with a letter or digit (e.g. client:northgate)', 'tags'],
+    [{ ...Q1, tags: 'client:north, renewals' }, '“client:north,” is not a valid tag: a tag is 1–64 lower-case letters, digits or - _ : . / starting with a letter or digit (e.g. client:northgate); separate tags with spaces, not commas', 'tags'],
     [{ ...Q1, kind: 'sometime' }, 'must be event_by_deadline or state_at_deadline', 'kind'],
     [{ ...Q1, time_zone: 'Mars/Olympus' }, 'is not a time zone this system knows (use an IANA name such as Europe/London)', 'time_zone'],
     [{ ...Q1, checkin_days: '2.5' }, 'must be a whole number of days', 'checkin_days'],

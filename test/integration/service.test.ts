@@ -244,6 +244,8 @@ test('a request of the wrong shape, or missing a field, is told so in plain word
   if (!wrong.ok) assert.deepEqual(wrong.error.fields, ['title: must be text', 'closes_at: must be an ISO 8601 date-time text']);
   await assert.rejects(d.call('importText', { format: 'json', text: '{"format":"forelog-diary","version":1,"questions":[{"title":"No close","forecasts":[]}]}' }), {
     message: 'Question 1 (questions[0], “No close”) is not valid: field closes_at: is required (it must be an ISO 8601 date-time text) (the record starts on line 1). Nothing was imported.',
+    // The field's line says what is wrong and in which question, not the whole message again.
+    fields: ['closes_at: is required (it must be an ISO 8601 date-time text) (question 1)'],
   });
   const file = '{"format":"forelog-diary","version":1,"questions":[null]}';
   await assert.rejects(d.call('importText', { format: 'json', text: file }), {

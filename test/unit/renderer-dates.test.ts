@@ -19,6 +19,7 @@ import {
   localToIso,
   plural,
   parseDateText,
+  splitDateTimeText,
   parseTimeText,
   timePlaceholder,
   wallText,
@@ -92,6 +93,30 @@ test('a date written with its month’s name, as the window writes dates, is rea
   assert.deepEqual(parseDateText('about 20 Nov 2026', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
 });
 
+test('a date and time written in the date box split into the two boxes, as typed or as a read-back line writes them', () => {
+  const both = { date: '04/12/2026', time: '14:30' };
+  for (const text of ['04/12/2026 14:30', '4/12/2026, 14:30', '2026-12-04 14:30', '2026-12-04T14:30:00', ' 4 Dec 2026 14.30 ', '4 Dec 2026, 2:30 pm']) {
+    assert.deepEqual(splitDateTimeText(text, 'UTC', 'en-GB'), both, text);
+  }
+  // What the read-back line under the boxes shows goes back in, zone label and all.
+  const shown = formatInstant(Date.UTC(2026, 11, 4, 14, 30), 'UTC', { weekday: true }, 'en-GB');
+  assert.equal(shown, 'Fri, 4 Dec 2026, 14:30 GMT');
+  assert.deepEqual(splitDateTimeText(shown, 'UTC', 'en-GB'), both);
+  const summer = formatInstant(Date.UTC(2026, 6, 1, 16), 'Europe/London', { weekday: true }, 'en-US');
+  assert.deepEqual(splitDateTimeText(summer, 'Europe/London', 'en-US'), { date: '07/01/2026', time: '5:00 PM' }, summer);
+  assert.deepEqual(splitDateTimeText('01/07/2026 17:00 Europe/London', 'Europe/London', 'en-GB'), { date: '01/07/2026', time: '17:00' });
+  // Typed on a 12-hour clock, "2:30" waits for its am/pm; "14:30" cannot be the start of one.
+  assert.equal(splitDateTimeText('12/04/2026 2:30', 'UTC', 'en-US'), null);
+  assert.deepEqual(splitDateTimeText('12/04/2026 2:30 pm', 'UTC', 'en-US'), { date: '12/04/2026', time: '2:30 PM' });
+  assert.deepEqual(splitDateTimeText('12/04/2026 14:30', 'UTC', 'en-US'), { date: '12/04/2026', time: '2:30 PM' });
+  // Another zone's label is not this field's time: left as typed, never moved to another hour.
+  assert.equal(splitDateTimeText('Wed 1 Jul 2026, 17:00 GMT+2', 'Europe/London', 'en-GB'), null);
+  // A date alone, a time that is not one, or text that is no date stays in the date box.
+  for (const text of ['04/12/2026', '4 Dec 2026', '04/12/2026 25:00', 'about 4 Dec 2026 14:30', '14:30']) {
+    assert.equal(splitDateTimeText(text, 'UTC', 'en-GB'), null, text);
+  }
+});
+
 test('a date that is not one says why, in the user’s terms', () => {
   assert.deepEqual(parseDateText('31/13/2026', 'en-GB'), { ok: false, error: '13 is not a month; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('29/02/2027', 'en-GB'), { ok: false, error: 'that month has no day 29; write the date as dd/mm/yyyy' });
@@ -99,6 +124,13 @@ test('a date that is not one says why, in the user’s terms', () => {
   assert.deepEqual(parseDateText('1/0/2026', 'en-GB'), { ok: false, error: '0 is not a month; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('0/1/2026', 'en-GB'), { ok: false, error: 'that month has no day 0; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('03/04/26', 'en-GB'), { ok: false, error: 'write the year with four digits (dd/mm/yyyy)' });
+  // Year first is read as year, month, day in any locale, not refused as a short year.
+  for (const locale of ['en-GB', 'en-US']) {
+    for (const text of ['2026/12/04', '2026.12.04', '2026-12-04', '2026/12/4']) {
+      assert.deepEqual(parseDateText(text, locale), { ok: true, value: { year: 2026, month: 12, day: 4 } }, `${locale}: ${text}`);
+    }
+  }
+  assert.deepEqual(parseDateText('2026/13/04', 'en-GB'), { ok: false, error: '13 is not a month; write the date as dd/mm/yyyy' });
   assert.deepEqual(parseDateText('next Tuesday', 'en-GB'), { ok: false, error: 'write the date as dd/mm/yyyy' });
 });
 

@@ -19,6 +19,7 @@ import {
   localToIso,
   parseDateText,
   parseTimeText,
+  splitDateTimeText,
   timePlaceholder,
   timeZoneNames,
   wallText,
@@ -70,9 +71,6 @@ function read(texts: Texts): Reading {
   return { local: wallText(day.value, clock.value), problem: null };
 }
 
-/** A pasted or typed "2026-03-31T17:00" fills both boxes. */
-const WHOLE = /^\s*\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}\s*$/;
-
 export function DateTimeField({ label, local, onLocalChange, timeZone, onTimeZoneChange, hint, error, required, id }: DateTimeFieldProps) {
   const generated = useId();
   const controlId = id ?? generated;
@@ -93,7 +91,8 @@ export function DateTimeField({ label, local, onLocalChange, timeZone, onTimeZon
   useFieldProblem(reading.problem ? `${label}: ${reading.problem}` : null);
 
   function change(next: Texts) {
-    const whole = WHOLE.test(next.date) ? textsFor(next.date.trim().replace(' ', 'T')) : next;
+    // A date and time pasted or typed into the date box ("04/12/2026 14:30", a copied read-back line) fills both boxes.
+    const whole = splitDateTimeText(next.date, timeZone) ?? next;
     setTexts(whole);
     onLocalChange(read(whole).local);
   }

@@ -13,6 +13,7 @@
 import { useId, useState, type ComponentProps } from 'react';
 import { FieldFrame, describedBy } from './FieldFrame';
 import { readPastedNumber } from './pastedNumber';
+import { useUnreadableNumber } from './unreadableNumber';
 
 export interface NumberFieldProps extends Omit<ComponentProps<'input'>, 'onChange' | 'value' | 'type'> {
   label: string;
@@ -24,7 +25,7 @@ export interface NumberFieldProps extends Omit<ComponentProps<'input'>, 'onChang
   error?: string | undefined;
 }
 
-export function NumberField({ label, value, onChange, suffix, hint, error, required, id, className, onKeyDown, onFocus, onPaste, ...rest }: NumberFieldProps) {
+export function NumberField({ label, value, onChange, suffix, hint, error, required, id, className, onKeyDown, onFocus, onPaste, onBlur, ...rest }: NumberFieldProps) {
   const generated = useId();
   const controlId = id ?? generated;
   const commaId = `${controlId}-comma`;
@@ -33,9 +34,11 @@ export function NumberField({ label, value, onChange, suffix, hint, error, requi
   // Pasted text that is not a number, shown until the box takes focus again or changes.
   const [refused, setRefused] = useState<string | null>(null);
   const refusedId = `${controlId}-pasted`;
-  const described = [describedBy(controlId, hint, error), comma ? commaId : '', refused !== null ? refusedId : ''].filter(Boolean).join(' ') || undefined;
+  const unreadable = useUnreadableNumber(label, value);
+  const shownError = unreadable.message ?? error;
+  const described = [describedBy(controlId, hint, shownError), comma ? commaId : '', refused !== null ? refusedId : ''].filter(Boolean).join(' ') || undefined;
   return (
-    <FieldFrame controlId={controlId} label={label} hint={hint} error={error} required={required} className={className}>
+    <FieldFrame controlId={controlId} label={label} hint={hint} error={shownError} required={required} className={className}>
       <span className="input-with-suffix">
         <input
           inputMode="decimal"
@@ -45,8 +48,13 @@ export function NumberField({ label, value, onChange, suffix, hint, error, requi
           className="input input--number"
           value={value}
           required={required}
-          aria-invalid={error ? true : undefined}
+          aria-invalid={shownError ? true : undefined}
           aria-describedby={described}
+          onInput={unreadable.onInput}
+          onBlur={(event) => {
+            unreadable.onBlur(event);
+            onBlur?.(event);
+          }}
           onKeyDown={(event) => {
             if (event.key === ',') setComma(true);
             onKeyDown?.(event);

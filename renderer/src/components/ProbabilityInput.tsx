@@ -8,6 +8,7 @@ import { useId, useState } from 'react';
 import { commaAsPoint, pastedPercentText } from './decimalComma';
 import { FieldFrame, describedBy } from './FieldFrame';
 import { PercentAdvice, hasPercentAdvice } from './PercentAdvice';
+import { useUnreadableNumber } from './unreadableNumber';
 
 export interface ProbabilityInputProps {
   label: string;
@@ -29,9 +30,11 @@ export function ProbabilityInput({ label, value, onChange, hint, error, required
   const [typed, setTyped] = useState<string | null>(null);
   const numeric = Number(value);
   const sliderValue = value.trim() !== '' && Number.isFinite(numeric) ? Math.min(100, Math.max(0, numeric)) : 50;
-  const described = [describedBy(controlId, hint, error), hasPercentAdvice(value) ? adviceId : ''].filter(Boolean).join(' ') || undefined;
+  const unreadable = useUnreadableNumber(label, value);
+  const shownError = unreadable.message ?? error;
+  const described = [describedBy(controlId, hint, shownError), hasPercentAdvice(value) ? adviceId : ''].filter(Boolean).join(' ') || undefined;
   return (
-    <FieldFrame controlId={controlId} label={label} hint={hint} error={error} required={required} className="probability">
+    <FieldFrame controlId={controlId} label={label} hint={hint} error={shownError} required={required} className="probability">
       <span className="probability__row">
         <input
           type="range"
@@ -56,8 +59,10 @@ export function ProbabilityInput({ label, value, onChange, hint, error, required
             value={value}
             required={required}
             data-autofocus={autoFocus ? '' : undefined}
-            aria-invalid={error ? true : undefined}
+            aria-invalid={shownError ? true : undefined}
             aria-describedby={described}
+            onInput={unreadable.onInput}
+            onBlur={unreadable.onBlur}
             onKeyDown={commaAsPoint}
             onPaste={pastedPercentText}
             onChange={(event) => {

@@ -1,6 +1,6 @@
 /**
  * Tags typed one at a time: Enter or comma adds the tag, Backspace in an empty box removes the
- * last one. Tags are lower-cased and checked against the diary's tag rule before they are added,
+ * last one; a list pasted with commas adds each tag in it. Tags are lower-cased and checked against the diary's tag rule before they are added,
  * so the user learns about a bad tag while typing rather than on save; a bad tag left in the
  * box stops the form from saving (it would otherwise be dropped without a word).
  */
@@ -9,13 +9,19 @@ import { TAG_PATTERN, TAG_RULE } from '../../../shared/validation';
 import { useFieldProblem } from '../forms';
 import { FieldFrame, describedBy } from './FieldFrame';
 
-/** The draft as the tag it would become. */
-function normalise(draft: string): string {
-  return draft.trim().replace(/,+$/, '').trim().toLowerCase();
+/** The draft's pieces as typed: a pasted list ("client:quellmoor, renewals") holds several. */
+function piecesOf(draft: string): string[] {
+  return draft
+    .split(',')
+    .map((piece) => piece.trim())
+    .filter((piece) => piece !== '');
 }
 
-function tagProblem(tag: string): string | null {
-  return tag === '' || TAG_PATTERN.test(tag) ? null : `“${tag}” is not a valid tag: ${TAG_RULE}. Fix it or clear the box.`;
+const isTag = (piece: string): boolean => TAG_PATTERN.test(piece.toLowerCase());
+
+function tagProblem(pieces: readonly string[]): string | null {
+  const bad = pieces.find((piece) => !isTag(piece));
+  return bad === undefined ? null : `“${bad.toLowerCase()}” is not a valid tag: ${TAG_RULE}. Fix it or clear the box.`;
 }
 
 export interface TagInputProps {
@@ -35,24 +41,16 @@ export function TagInput({ label, tags, onChange, suggestions = [], hint, error,
   const listId = `${controlId}-suggestions`;
   const [draft, setDraft] = useState('');
   const [draftError, setDraftError] = useState<string | undefined>();
-  useFieldProblem(tagProblem(normalise(draft)));
+  useFieldProblem(tagProblem(piecesOf(draft)));
 
-  /** Adds the draft if it is a valid new tag; returns whether the draft was consumed. */
-  function commit(): boolean {
-    const tag = normalise(draft);
-    if (tag === '') {
-      setDraft('');
-      return false;
-    }
-    const problem = tagProblem(tag);
-    if (problem) {
-      setDraftError(problem);
-      return false;
-    }
-    if (!tags.includes(tag)) onChange([...tags, tag]);
-    setDraft('');
-    setDraftError(undefined);
-    return true;
+  /** Adds the draft's valid tags; any that are not stay in the box as typed, with the reason, so nothing typed is dropped. */
+  function commit() {
+    const pieces = piecesOf(draft);
+    const added = [...new Set(pieces.filter(isTag).map((piece) => piece.toLowerCase()))].filter((tag) => !tags.includes(tag));
+    if (added.length) onChange([...tags, ...added]);
+    const left = pieces.filter((piece) => !isTag(piece));
+    setDraft(left.join(', '));
+    setDraftError(tagProblem(left) ?? undefined);
   }
 
   function onKeyDown(event: KeyboardEvent<HTMLInputElement>) {

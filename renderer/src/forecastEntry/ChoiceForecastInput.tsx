@@ -10,6 +10,7 @@ import { Button } from '../components/Button';
 import { FieldError } from '../components/FieldError';
 import { PercentAdvice, hasPercentAdvice } from '../components/PercentAdvice';
 import { commaAsPoint, pastedPercentText } from '../components/decimalComma';
+import { useUnreadableNumber } from '../components/unreadableNumber';
 import { choiceTotal, spreadRest, totalText, type ChoiceProblems } from './choiceEntry';
 import './forecastEntry.css';
 
@@ -63,55 +64,24 @@ export function ChoiceForecastInput({ label, options, value, onChange, problems,
         </p>
       ) : null}
       <ol className="choice-entry__options">
-        {options.map((option, k) => {
-          const boxId = `${id}-${k}`;
-          const error = problems?.options[k];
-          const adviceId = `${boxId}-advice`;
-          const text = value[k] ?? '';
-          const described = [error ? `${boxId}-error` : '', hasPercentAdvice(text, false) ? adviceId : ''].filter(Boolean).join(' ');
-          return (
-            <li key={k} className={['choice-entry__option', error ? 'field--invalid' : ''].filter(Boolean).join(' ')}>
-              <label htmlFor={boxId} className="choice-entry__label">
-                {option}
-              </label>
-              <span className="input-with-suffix">
-                <input
-                  type="number"
-                  inputMode="decimal"
-                  id={boxId}
-                  className="input input--number input--percent"
-                  min={0}
-                  max={100}
-                  step="any"
-                  value={text}
-                  data-autofocus={autoFocus && k === 0 ? '' : undefined}
-                  aria-invalid={error ? true : undefined}
-                  aria-describedby={described || undefined}
-                  onKeyDown={commaAsPoint}
-                  onPaste={pastedPercentText}
-                  onChange={(event) => {
-                    const next = typed.slice();
-                    next[k] = event.target.value;
-                    setTyped(next);
-                    set(k, event.target.value);
-                  }}
-                />
-                <span className="input-suffix" aria-hidden="true">
-                  %
-                </span>
-              </span>
-              <FieldError id={`${boxId}-error`} message={error} />
-              <PercentAdvice
-                value={text}
-                onChange={(percentText) => set(k, percentText)}
-                id={adviceId}
-                boxId={boxId}
-                typed={total.complete ? null : (typed[k] ?? null)}
-                warnCertain={false}
-              />
-            </li>
-          );
-        })}
+        {options.map((option, k) => (
+          <OptionBox
+            key={k}
+            option={option}
+            boxId={`${id}-${k}`}
+            text={value[k] ?? ''}
+            error={problems?.options[k]}
+            autoFocus={autoFocus === true && k === 0}
+            typed={total.complete ? null : (typed[k] ?? null)}
+            onType={(text) => {
+              const next = typed.slice();
+              next[k] = text;
+              setTyped(next);
+              set(k, text);
+            }}
+            onSet={(text) => set(k, text)}
+          />
+        ))}
       </ol>
       <div className="choice-entry__footer">
         <p className={`choice-entry__total choice-entry__total--${totalState}`} id={totalId} role="status" data-testid="choice-total">
@@ -130,5 +100,59 @@ export function ChoiceForecastInput({ label, options, value, onChange, problems,
       ) : null}
       <FieldError id={`${id}-total-error`} message={totalError} />
     </fieldset>
+  );
+}
+
+interface OptionBoxProps {
+  option: string;
+  boxId: string;
+  text: string;
+  error: string | undefined;
+  autoFocus: boolean;
+  /** What was last typed into the box, for the 0.5 question; null when not to ask. */
+  typed: string | null;
+  /** Typed into the box. */
+  onType: (text: string) => void;
+  /** Set by the box's advice ("Use 50%"). */
+  onSet: (text: string) => void;
+}
+
+/** One option's percent box, with its own message when what it holds is not a number. */
+function OptionBox({ option, boxId, text, error, autoFocus, typed, onType, onSet }: OptionBoxProps) {
+  const unreadable = useUnreadableNumber(option, text);
+  const shownError = unreadable.message ?? error;
+  const adviceId = `${boxId}-advice`;
+  const described = [shownError ? `${boxId}-error` : '', hasPercentAdvice(text, false) ? adviceId : ''].filter(Boolean).join(' ');
+  return (
+    <li className={['choice-entry__option', shownError ? 'field--invalid' : ''].filter(Boolean).join(' ')}>
+      <label htmlFor={boxId} className="choice-entry__label">
+        {option}
+      </label>
+      <span className="input-with-suffix">
+        <input
+          type="number"
+          inputMode="decimal"
+          id={boxId}
+          className="input input--number input--percent"
+          min={0}
+          max={100}
+          step="any"
+          value={text}
+          data-autofocus={autoFocus ? '' : undefined}
+          aria-invalid={shownError ? true : undefined}
+          aria-describedby={described || undefined}
+          onInput={unreadable.onInput}
+          onBlur={unreadable.onBlur}
+          onKeyDown={commaAsPoint}
+          onPaste={pastedPercentText}
+          onChange={(event) => onType(event.target.value)}
+        />
+        <span className="input-suffix" aria-hidden="true">
+          %
+        </span>
+      </span>
+      <FieldError id={`${boxId}-error`} message={shownError} />
+      <PercentAdvice value={text} onChange={onSet} id={adviceId} boxId={boxId} typed={typed} warnCertain={false} />
+    </li>
   );
 }

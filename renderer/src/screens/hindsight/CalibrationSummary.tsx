@@ -6,7 +6,8 @@
  * score's 95% interval is the Scorecard's own (`Hindsight.brier_interval`).
  */
 import type { ScoreReport } from '../../../../shared/scoring/types';
-import { percentInterval, score3, slopeReading, wholePercent } from './wording';
+import { ALWAYS_HALF_BRIER, pctInterval, score3 } from '../scorecard/format';
+import { slopeReading, wholePercent } from './wording';
 import { formatCount } from '../../dates';
 
 export function CalibrationSummary({ report, brierInterval, subject }: { report: ScoreReport; brierInterval: [number, number] | null; subject: string }) {
@@ -38,7 +39,7 @@ export function CalibrationSummary({ report, brierInterval, subject }: { report:
         </div>
       </dl>
       <p className="hs-summary__note">
-        Brier: mean squared distance from what happened; 0 is perfect, always saying 50% scores 0.250.
+        Brier: mean squared distance from what happened; 0 is perfect, always saying 50% scores {ALWAYS_HALF_BRIER}.
         {notCounted.length ? ` Not counted here: ${notCounted.join(', ')}.` : ''}
       </p>
       {report.bins.length ? (
@@ -64,7 +65,7 @@ export function CalibrationSummary({ report, brierInterval, subject }: { report:
                 <th scope="row">~{wholePercent(bin.mean_p)}</th>
                 <td className="num">{formatCount(bin.n)}</td>
                 <td className="num">{wholePercent(bin.observed)}</td>
-                <td className="num">{percentInterval(bin.wilson_low, bin.wilson_high)}</td>
+                <td className="num">{pctInterval(bin.wilson_low, bin.wilson_high)}</td>
               </tr>
             ))}
           </tbody>

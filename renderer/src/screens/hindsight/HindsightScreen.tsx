@@ -6,7 +6,7 @@
  * The root carries `data-hindsight-ready`: "true" once the answer for the current choices is
  * on screen, "false" while one is on its way. Tests wait on it rather than on timing.
  */
-import { useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
+import { useCallback, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import { LIST_PAGE_MAX, type Hindsight, type HindsightEntry, type Request } from '../../../../shared/contract';
 import { api } from '../../api/client';
 import { describeError } from '../../api/errors';
@@ -15,7 +15,7 @@ import { Button } from '../../components/Button';
 import { EmptyState } from '../../components/EmptyState';
 import { ShowMore } from '../../components/ShowMore';
 import { ErrorBanner } from '../../components/ErrorBanner';
-import { useDefaultTimeZone } from '../../diaryInfo';
+import { useDefaultTimeZone, useDiaryInfo } from '../../diaryInfo';
 import { useDebounced, useDocumentTitle } from '../../hooks';
 import { hrefTo, useQueryState } from '../../routing';
 import { BriefingPreview } from './BriefingPreview';
@@ -84,6 +84,10 @@ export function HindsightScreen() {
     briefingButton.current?.focus();
   }, []);
 
+  // An empty diary has nothing to brief on: the button says so rather than opening a blank document.
+  const nothingToBrief = useDiaryInfo().data?.question_count === 0;
+  const nothingToBriefId = useId();
+
   const current = loaded.data && loaded.data.key === active.key && !loaded.loading;
   const tag = settled.request.tag ?? '';
   const threshold = settled.request.threshold ?? DEFAULT_THRESHOLD_PERCENT / 100;
@@ -95,15 +99,28 @@ export function HindsightScreen() {
           <h1>Hindsight</h1>
           <p className="hs-lede">Calls you were confident about that went the other way, with what you wrote at the time.</p>
         </div>
-        <Button ref={briefingButton} variant="primary" onClick={() => setBriefingAsks((n) => n + 1)}>
-          {tag ? 'Briefing for this tag' : 'Briefing for the whole diary'}
-        </Button>
+        <div className="hs-header__briefing">
+          <Button
+            ref={briefingButton}
+            variant="primary"
+            onClick={() => setBriefingAsks((n) => n + 1)}
+            disabled={nothingToBrief}
+            aria-describedby={nothingToBrief ? nothingToBriefId : undefined}
+          >
+            {tag ? 'Briefing for this tag' : 'Briefing for the whole diary'}
+          </Button>
+          {nothingToBrief ? (
+            <p className="hs-header__briefing-why" id={nothingToBriefId} data-testid="briefing-unavailable">
+              Nothing to brief on yet: a briefing lists your confident misses and open questions. Write a question first.
+            </p>
+          ) : null}
+        </div>
       </header>
       <p className="hs-caution" data-testid="caution">
         Scores describe past calls, not future ones. Small samples mislead: every count here shows its n.
       </p>
       <HindsightFilters selection={selection} tags={list.data?.tags ?? []} problems={built.problems} timeZone={timeZone} onChange={change} />
-      {briefingAsks > 0 ? <BriefingPreview tag={tag} threshold={threshold} focusSignal={briefingAsks} onClose={closeBriefing} /> : null}
+      {briefingAsks > 0 && !nothingToBrief ? <BriefingPreview tag={tag} threshold={threshold} focusSignal={briefingAsks} onClose={closeBriefing} /> : null}
       {loaded.error ? <ErrorBanner message={describeError(loaded.error)} onRetry={loaded.reload} /> : null}
       {loaded.data ? (
         <HindsightBody

@@ -13,19 +13,6 @@ export function wholePercent(p: number): string {
   return `${r}%`;
 }
 
-/** e.g. 0.2026 → "0.203": Brier scores differ in the third decimal. */
-export function score3(x: number | null): string {
-  if (x === null || !Number.isFinite(x)) return '—';
-  const fixed = x.toFixed(3);
-  if (fixed === '-0.000') return '0.000';
-  return fixed.startsWith('-') ? `−${fixed.slice(1)}` : fixed;
-}
-
-/** e.g. (0.21, 0.94) → "21–94%". */
-export function percentInterval(low: number, high: number): string {
-  return `${Math.round(low * 100)}–${Math.round(high * 100)}%`;
-}
-
 /** "You said 85%; it did not happen." — the final forecast against the outcome. */
 export function verdictSentence(finalP: number, outcome: 'yes' | 'no'): string {
   return `You said ${wholePercent(finalP)}; ${outcome === 'yes' ? 'it happened' : 'it did not happen'}.`;

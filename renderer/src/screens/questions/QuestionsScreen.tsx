@@ -5,6 +5,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { LIST_SORTS, type ListSort, type SortDirection } from '../../../../shared/contract';
 import { QUESTION_STATUSES } from '../../../../shared/domain';
+import { SEARCH_MAX_CHARS } from '../../../../shared/validation';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
 import { describeError } from '../../api/errors';
@@ -89,7 +90,12 @@ function FirstRun({ onNew }: { onNew: () => void }) {
 
 function QuestionList() {
   const [query, change] = useQueryState(decodeListQuery, encodeListQuery);
-  const search = query.text.trim();
+  const typed = query.text.trim();
+  // A longer search (a pasted paragraph) is searched for by its start, and the box says so,
+  // rather than refused with the diary's limit as an error over an unfiltered list.
+  const search = typed.length > SEARCH_MAX_CHARS ? typed.slice(0, SEARCH_MAX_CHARS).replace(/[\uD800-\uDBFF]$/, '').trim() : typed;
+  const searchHint =
+    typed.length > SEARCH_MAX_CHARS ? `A search reads up to ${formatCount(SEARCH_MAX_CHARS)} characters: this searches for the first ${formatCount(SEARCH_MAX_CHARS)} of ${formatCount(typed.length)}.` : undefined;
   const request = useMemo(
     () => ({
       ...(query.status !== 'all' ? { status: query.status } : {}),
@@ -111,7 +117,7 @@ function QuestionList() {
   return (
     <>
       <div role="search" className="filters" aria-label="Filter questions">
-        <TextField label="Search" type="search" value={query.text} onChange={(text) => change({ text })} placeholder="Title, rule or note" className="filters__search" />
+        <TextField label="Search" type="search" value={query.text} onChange={(text) => change({ text })} placeholder="Title, rule or note" hint={searchHint} className="filters__search" />
         <Select label="Status" value={query.status} options={STATUS_OPTIONS} onChange={(v) => change({ status: v as StatusFilter })} />
         <Select label="Tag" value={query.tag} options={tagOptions} onChange={(tag) => change({ tag })} />
         <Select

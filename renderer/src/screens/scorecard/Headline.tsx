@@ -6,7 +6,7 @@ import { memo, type ReactNode } from 'react';
 import { MIN_CALIBRATION_N, recalibrate } from '../../../../shared/scoring/index';
 import type { Scorecard } from '../../../../shared/contract';
 import type { ReportBin, ScoreReport } from '../../../../shared/scoring/types';
-import { binLabel, pct, pctInterval, questions, score2, score3, scoreInterval } from './format';
+import { ALWAYS_HALF_BRIER, binLabel, pct, pctInterval, questions, score2, score3, scoreInterval } from './format';
 import { formatCount } from '../../dates';
 
 export interface TileProps {
@@ -74,7 +74,7 @@ export const Headline = memo(function Headline({ report, detail }: { report: Sco
   return (
     <div className="sc-tiles">
       <Tile id="brier" label="Brier score" value={score3(report.brier)} n={n} interval={detail.brier_interval && scoreInterval(detail.brier_interval)} tone="ink">
-        Brier {score2(report.brier)} over {questions(n)} — 0 is perfect, always saying 50% scores 0.25.
+        Brier {score2(report.brier)} over {questions(n)} — 0 is perfect, always saying 50% scores {ALWAYS_HALF_BRIER}.
       </Tile>
       <Tile id="brier-time" label="Time-averaged Brier" value={score3(report.brier_time_avg)} n={n}>
         Each forecast’s squared error weighted by how long it stood before the window ended (final Brier {score2(report.brier)}).

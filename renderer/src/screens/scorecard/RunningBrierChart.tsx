@@ -12,7 +12,7 @@ import { formatCount, formatDay, formatTick } from '../../dates';
 import { ChartFigure } from './ChartFigure';
 import { cssColor } from '../../chart/colors';
 import { BASE_OPTIONS, axisStyle, thin, useChart, type Palette } from './chartKit';
-import { score3 } from './format';
+import { ALWAYS_HALF_BRIER, score3 } from './format';
 
 /** More points than this cannot be told apart on a chart this wide. */
 const MAX_POINTS = 200;
@@ -20,7 +20,7 @@ const DAY_MS = 86_400_000;
 
 const LEGEND: LegendItem[] = [
   { label: 'Your running Brier score', color: '--chart-own', dash: [], marker: 'circle', lineWidth: 2.5 },
-  { label: 'Always 50% (0.25)', color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 },
+  { label: `Always 50% (${ALWAYS_HALF_BRIER})`, color: '--chart-base-rate', dash: DASHED, marker: 'none', lineWidth: 1.5 },
 ];
 
 /** What the axis and tooltip callbacks (set once, at creation) read for the data drawn now. */

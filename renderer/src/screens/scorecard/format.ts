@@ -1,7 +1,8 @@
 /**
- * Numbers on the Scorecard as people read them: scores to three decimals, rates as whole
- * percents, intervals as "21–94%". One place, so the headline, the tables and the chart
- * tooltips never disagree about how a figure is written.
+ * Numbers on the Scorecard and Hindsight's calibration summary as people read them: scores
+ * to three decimals, rates as whole percents, intervals as "21–94%". One place, so the
+ * headline, the tables, the chart tooltips and Hindsight never disagree about how a figure
+ * is written.
  */
 import { formatCount, userLocale } from '../../dates';
 
@@ -17,6 +18,13 @@ export function score3(x: number | null | undefined): string {
   const fixed = x.toFixed(3);
   return signed(fixed === '-0.000' ? '0.000' : fixed);
 }
+
+/**
+ * What always saying 50% scores on the Brier scale, as every screen writes it beside a Brier
+ * score (the Scorecard, Hindsight, the running chart's reference line), so one is never
+ * "0.25" and another "0.250".
+ */
+export const ALWAYS_HALF_BRIER = '0.25';
 
 /** Two decimals, for the short form in a sentence ("Brier 0.20 over 22 questions"). */
 export function score2(x: number | null | undefined): string {
