@@ -189,6 +189,16 @@ test('resolving Yes from the Desk, with a note, removes the item and lowers the 
     const question = await call<Question>(server(), 'getQuestion', { id: ids.closed });
     expect(question.resolution?.outcome).toBe('yes');
     expect(question.resolution?.note).toBe('Signed on the last day; see the client e-mail.');
+
+    // Undo brings the question back with the note as it was typed, its box open, not an
+    // empty card; resolving again saves the same note.
+    await page.getByTestId('toast').filter({ hasText: `Resolved “${TITLES.closed}”` }).getByRole('button', { name: 'Undo' }).click();
+    await expect(closed.getByLabel('Resolution note')).toHaveValue('Signed on the last day; see the client e-mail.');
+    await expectCount(page, 4);
+    await closed.getByRole('group', { name: 'Resolve' }).getByRole('button', { name: 'Yes' }).click();
+    await expect(closed).toHaveCount(0);
+    await expectCount(page, 3);
+    expect((await call<Question>(server(), 'getQuestion', { id: ids.closed })).resolution?.note).toBe('Signed on the last day; see the client e-mail.');
     expect(app.problems).toEqual([]);
   } finally {
     await app.close();
@@ -249,6 +259,16 @@ test('revising a check-in from the Desk saves the new number and clears the chec
     const question = await call<BinaryQuestion>(server(), 'getQuestion', { id: ids.checkin });
     expect(question.forecasts.map((f) => f.p)).toEqual([0.9, 0.6]);
     expect(question.forecasts[1]?.note).toBe('The board moved the vote to next quarter.');
+
+    // Undo brings back the revision as typed, in its open form; saving it again adds it once more.
+    await page.getByTestId('toast').filter({ hasText: `Revised “${TITLES.checkin}”` }).getByRole('button', { name: 'Undo' }).click();
+    await expect(checkin.getByRole('spinbutton', { name: 'New probability' })).toHaveValue('60');
+    await expect(checkin.getByLabel('What changed')).toHaveValue('The board moved the vote to next quarter.');
+    await expectCount(page, 2);
+    await checkin.getByRole('button', { name: 'Save revision' }).click();
+    await expect(checkin).toHaveCount(0);
+    await expectCount(page, 1);
+    expect((await call<BinaryQuestion>(server(), 'getQuestion', { id: ids.checkin })).forecasts.map((f) => f.p)).toEqual([0.9, 0.6]);
     expect(app.problems).toEqual([]);
   } finally {
     await app.close();

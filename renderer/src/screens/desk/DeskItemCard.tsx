@@ -40,19 +40,38 @@ interface Props {
   now: number;
   /** The diary's zone: snoozes run out on its mornings. */
   diaryTimeZone: string;
-  onDone: (item: DeskItem, done: Done) => void;
+  /** `typed`: what the card held when it acted, to give back if the action is undone. */
+  onDone: (item: DeskItem, done: Done, typed: TypedOnCard) => void;
   onFailed: (message: string) => void;
+  /** What the card held when an action it took was undone: it opens with it again. */
+  restored?: TypedOnCard | undefined;
+  /** Told once the card has taken `restored` up. */
+  onRestored?: (id: string) => void;
 }
 
 type Panel = 'none' | 'note' | 'revise' | 'snooze';
 
-export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Props) {
+/**
+ * A yes/no card's typed text: the resolution note and the revision's number and note, and
+ * the panel they were in. Undoing a resolution or a revision made from the card brings the
+ * question back with them, not with empty boxes (typed text is never thrown away).
+ */
+export interface TypedOnCard {
+  note: string;
+  revision: RevisionDraft;
+  panel: 'none' | 'note' | 'revise';
+}
+
+export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed, restored, onRestored }: Props) {
   const titleId = useId();
-  const [panel, setPanel] = useState<Panel>('none');
+  const [panel, setPanel] = useState<Panel>(restored?.panel ?? 'none');
   const [busy, setBusy] = useState(false);
-  const [note, setNote] = useState('');
+  const [note, setNote] = useState(restored?.note ?? '');
   // What was typed in the revise panel outlives the panel (Escape, Cancel), like the note does.
-  const [revision, setRevision] = useState<RevisionDraft>(() => ({ p: percentText(item.last_p), note: '' }));
+  const [revision, setRevision] = useState<RevisionDraft>(() => restored?.revision ?? { p: percentText(item.last_p), note: '' });
+  useEffect(() => {
+    if (restored) onRestored?.(item.id);
+  }, [restored, onRestored, item.id]);
   const href = hrefTo(questionPath(item.id));
   const toResolve = item.group === 'resolve';
   const typed = useTypedQuestion(item);
@@ -64,7 +83,7 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed }: Pro
   function finish(done: Done) {
     setBusy(true);
     setPanel('none');
-    onDone(item, done);
+    onDone(item, done, { note, revision, panel: panel === 'snooze' ? 'none' : panel });
   }
 
   /** Runs an answer; null from it means the user stopped at a warning, and nothing changed. */
@@ -274,7 +293,7 @@ function NoteField({ note, onChange }: { note: string; onChange: (note: string) 
   );
 }
 
-interface RevisionDraft {
+export interface RevisionDraft {
   p: string;
   note: string;
 }

@@ -18,7 +18,7 @@ import { useDocumentTitle } from '../../hooks';
 import { hrefTo } from '../../routing';
 import { QUICK_ADD_ARIA_SHORTCUTS, QUICK_ADD_SHORTCUT_TEXT, useQuickAdd } from '../questions/quickAdd';
 import { DeskGroupList } from './DeskGroupList';
-import { DeskItemCard, type Done } from './DeskItemCard';
+import { DeskItemCard, type Done, type TypedOnCard } from './DeskItemCard';
 import { GROUPS, deskItems, summary, type DeskItem } from './items';
 import { SnoozedSection } from './SnoozedSection';
 import { useDue } from './useDueCount';
@@ -48,12 +48,20 @@ export function DeskScreen() {
     (link ?? headingRef.current)?.focus();
   }, [due.data, items]);
 
+  // What a card held when its action was undone, by question id, until the card is drawn again with it.
+  const restoring = useRef(new Map<string, TypedOnCard>());
+  const onRestored = useCallback((id: string) => restoring.current.delete(id), []);
+  // A question the undo did not bring back to the Desk keeps nothing for a later visit.
+  useEffect(() => {
+    for (const id of restoring.current.keys()) if (!items.some((i) => i.id === id)) restoring.current.delete(id);
+  }, [items]);
+
   const onDone = useCallback(
-    (item: DeskItem, done: Done) => {
+    (item: DeskItem, done: Done, typed: TypedOnCard) => {
       const index = items.findIndex((i) => i.id === item.id);
       const next = items[index + 1] ?? items[index - 1] ?? null;
       focusPlan.current = { id: item.id, next: next?.id ?? null };
-      undoToast({ message: done.message, undo: done.undo, title: item.title });
+      undoToast({ message: done.message, undo: done.undo, title: item.title, afterUndo: () => restoring.current.set(item.id, typed) });
       diaryChanged();
     },
     [items, undoToast],
@@ -94,7 +102,16 @@ export function DeskScreen() {
                 <DeskGroupList
                   items={listed}
                   render={(item) => (
-                    <DeskItemCard key={item.id} item={item} now={now} diaryTimeZone={diaryTimeZone} onDone={onDone} onFailed={onFailed} />
+                    <DeskItemCard
+                      key={item.id}
+                      item={item}
+                      now={now}
+                      diaryTimeZone={diaryTimeZone}
+                      onDone={onDone}
+                      onFailed={onFailed}
+                      restored={restoring.current.get(item.id)}
+                      onRestored={onRestored}
+                    />
                   )}
                 />
               </section>
