@@ -64,6 +64,17 @@ test('the example diary loads from the empty screen', async ({ browser }) => {
   }
 });
 
+/**
+ * Filters the list to one status and waits until the list shows that status only: the first
+ * link clicked before the filtered page arrives would be a row of the unfiltered list.
+ */
+async function showOnly(page: Page, status: 'open' | 'resolved'): Promise<void> {
+  await page.getByLabel('Status').selectOption(status);
+  const table = page.getByTestId('question-table');
+  await expect(table.locator(`.status-pill:not([data-status="${status}"])`)).toHaveCount(0);
+  await expect(table.locator(`.status-pill[data-status="${status}"]`).first()).toBeVisible();
+}
+
 for (const scheme of SCHEMES) {
   test(`Questions with the example diary (${scheme})`, async ({ browser }) => {
     await checkScreen(browser, scheme, 'questions', async (page) => {
@@ -73,7 +84,7 @@ for (const scheme of SCHEMES) {
 
   test(`a resolved question's page (${scheme})`, async ({ browser }) => {
     await checkScreen(browser, scheme, 'question-resolved', async (page) => {
-      await page.getByLabel('Status').selectOption('resolved');
+      await showOnly(page, 'resolved');
       await page.getByTestId('question-table').getByRole('link').first().click();
       await expect(page.getByTestId('history-chart')).toBeVisible();
       await expect(page.getByRole('button', { name: 'Reopen' })).toBeVisible();
@@ -82,7 +93,7 @@ for (const scheme of SCHEMES) {
 
   test(`an open question's page (${scheme})`, async ({ browser }) => {
     await checkScreen(browser, scheme, 'question-open', async (page) => {
-      await page.getByLabel('Status').selectOption('open');
+      await showOnly(page, 'open');
       await page.getByTestId('question-table').getByRole('link').first().click();
       await expect(page.getByTestId('history-chart')).toBeVisible();
       await expect(page.getByRole('button', { name: 'Revise' })).toBeVisible();
