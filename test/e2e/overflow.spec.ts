@@ -13,7 +13,7 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Question } from '../../shared/domain';
-import { apiCall, expectNoSeriousViolations } from './helpers';
+import { apiCall, drawEveryChart, expectNoSeriousViolations } from './helpers';
 import { openApp, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
@@ -135,6 +135,7 @@ for (const size of SIZES) {
         await page.goto(`${server().url.split('?')[0]}#/${screen.hash()}`);
         await screen.ready(page);
         expect(await overflow(page), `${screen.name} at ${size.width}×${size.height}`).toBeLessThanOrEqual(0);
+        if (screen.name === 'scorecard') await drawEveryChart(page);
         await page.screenshot({ path: `test/e2e/artifacts/overflow-${screen.name}-${size.width}.png`, fullPage: true });
 
         if (screen.name.startsWith('question-')) {

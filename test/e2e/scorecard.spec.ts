@@ -11,6 +11,7 @@ import { expect, test, type Locator, type Page } from '@playwright/test';
 import type { Responses } from '../../shared/contract';
 import { recalibrate } from '../../shared/scoring/helpers';
 import { addCalendarDays, parseLocalDateTime, toIso, toLocalInputValue, wallTimeToInstant } from '../../shared/time';
+import { drawEveryChart } from './helpers';
 import { openApp, useDiaryServer, type AppPage } from './serve';
 
 const server = useDiaryServer();
@@ -303,6 +304,30 @@ test('what-if costs move the threshold and the 2×2 table; default costs are sav
   }
 });
 
+test('a chart far down the page is drawn once the user scrolls near it', async ({ browser }) => {
+  const app = await openApp(browser, server());
+  try {
+    await openScorecard(app);
+    const page = app.page;
+    // The first chart is drawn with the page; the last (numeric calibration, screens below) waits.
+    await expect(page.getByTestId('calibration-chart').locator('canvas')).toHaveAttribute('data-drawn', 'true');
+    const far = page.getByTestId('quantile-calibration-chart').locator('canvas');
+    await expect(far).not.toHaveAttribute('data-drawn', 'true');
+    await far.scrollIntoViewIfNeeded();
+    await expect(far).toHaveAttribute('data-drawn', 'true');
+    const inked = await far.evaluate((canvas: HTMLCanvasElement) => {
+      const pixels = canvas.getContext('2d')!.getImageData(0, 0, canvas.width, canvas.height).data;
+      let n = 0;
+      for (let i = 3; i < pixels.length; i += 4) if (pixels[i] !== 0) n++;
+      return n;
+    });
+    expect(inked, 'pixels drawn on the canvas').toBeGreaterThan(1000);
+    expect(app.problems, 'the page logged errors').toEqual([]);
+  } finally {
+    await app.close();
+  }
+});
+
 for (const scheme of ['light', 'dark'] as const) {
   test(`the Scorecard passes an axe scan and is photographed (${scheme})`, async ({ browser }) => {
     // The example diary fills the yes/no, choice and numeric sections: a long page to scan.
@@ -312,6 +337,7 @@ for (const scheme of ['light', 'dark'] as const) {
       await openScorecard(app);
       await expect(app.page.getByTestId('calibration-chart')).toBeVisible();
       await expectNoSeriousViolations(app.page, `the Scorecard (${scheme})`);
+      await drawEveryChart(app.page);
       await app.page.screenshot({ path: `test/e2e/artifacts/scorecard-${scheme}.png`, fullPage: true });
       expect(app.problems, 'the page logged errors').toEqual([]);
     } finally {

@@ -8,7 +8,7 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import type { Hindsight, Scorecard } from '../../shared/contract';
-import { apiCall, daysAgo, expectNoSeriousViolations, afterRedraw } from './helpers';
+import { apiCall, daysAgo, expectNoSeriousViolations, afterRedraw, drawEveryChart } from './helpers';
 import { useAppPage, useDiaryServer } from './serve';
 
 const server = useDiaryServer();
@@ -90,7 +90,7 @@ test('choice and numeric sections show the diary’s own figures, with sample si
     await expectNoSeriousViolations(page, `the Scorecard with choice and numeric sections (${scheme})`);
     for (const width of [1024, 1920]) {
       await page.setViewportSize({ width, height: 900 });
-      await afterRedraw(page);
+      await drawEveryChart(page);
       await page.screenshot({ path: `test/e2e/artifacts/types-scorecard-${scheme}-${width}.png`, fullPage: true });
     }
   }

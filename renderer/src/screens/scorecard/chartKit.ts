@@ -78,9 +78,61 @@ export function percentAxis(colors: Palette, title: string, stepSize: number) {
 }
 
 /**
- * Creates the chart when the canvas appears (and again when the colour scheme changes);
- * whenever `data` changes afterwards, calls `apply` to put it into the existing chart and
- * redraws at once (`update('none')`: no animation, drawn before the effect returns).
+ * Canvases waiting to be drawn until they come within a screen's height of view, and the
+ * observer that notices. A diary with every question type gives the Scorecard nine charts
+ * over some eight screens' height; creating them all before the first paint made the screen
+ * appear a quarter of a second later, for charts the user has not scrolled to.
+ */
+const waiting = new Map<Element, () => void>();
+let nearView: IntersectionObserver | null = null;
+
+function drawWaiting(target: Element): void {
+  const draw = waiting.get(target);
+  if (!draw) return;
+  waiting.delete(target);
+  nearView?.unobserve(target);
+  draw();
+}
+
+/**
+ * Calls `draw` once `target` is within one viewport height of the visible part of the page
+ * (at once where the browser cannot tell), or before the page is printed. Returns a function
+ * that cancels the wait.
+ */
+function whenNearView(target: Element, draw: () => void): () => void {
+  // Already near view: drawn now, in the same task, so what the user sees first is complete.
+  const box = target.getBoundingClientRect();
+  const screen = window.innerHeight;
+  if (typeof IntersectionObserver === 'undefined' || (box.bottom >= -screen && box.top <= 2 * screen)) {
+    draw();
+    return () => undefined;
+  }
+  nearView ??= new IntersectionObserver(
+    (entries) => {
+      for (const entry of entries) if (entry.isIntersecting) drawWaiting(entry.target);
+    },
+    { rootMargin: '100% 0px' },
+  );
+  waiting.set(target, draw);
+  nearView.observe(target);
+  return () => {
+    if (waiting.delete(target)) nearView?.unobserve(target);
+  };
+}
+
+// A printout shows every chart, scrolled to or not.
+if (typeof window !== 'undefined') {
+  window.addEventListener('beforeprint', () => {
+    for (const target of [...waiting.keys()]) drawWaiting(target);
+  });
+}
+
+/**
+ * Creates the chart when its canvas comes near view (and again when the colour scheme
+ * changes); whenever `data` changes afterwards, calls `apply` to put it into the existing
+ * chart and redraws at once (`update('none')`: no animation, drawn before the effect returns).
+ * Until the chart exists the latest data waits in `latest`, so it is drawn with what is
+ * current when created. The canvas carries `data-drawn="true"` once drawn.
  *
  * @param create the chart's configuration without data (colours given)
  * @param apply puts `data` into the chart: datasets, labels, axis limits
@@ -100,15 +152,20 @@ export function useChart<TType extends ChartType, D>(
   useEffect(() => {
     const canvas = canvasRef.current;
     if (!canvas) return;
-    const colors = palette();
-    const { create: make, apply: put, data: current } = latest.current;
-    const chart = new Chart<TType>(canvas, make(colors));
-    put(chart, current, colors);
-    chart.update('none');
-    chartRef.current = { chart, colors, data: current };
+    const cancel = whenNearView(canvas, () => {
+      const colors = palette();
+      const { create: make, apply: put, data: current } = latest.current;
+      const chart = new Chart<TType>(canvas, make(colors));
+      put(chart, current, colors);
+      chart.update('none');
+      chartRef.current = { chart, colors, data: current };
+      canvas.setAttribute('data-drawn', 'true');
+    });
     return () => {
-      chart.destroy();
+      cancel();
+      chartRef.current?.chart.destroy();
       chartRef.current = null;
+      canvas.removeAttribute('data-drawn');
     };
   }, [canvasRef, scheme]);
 

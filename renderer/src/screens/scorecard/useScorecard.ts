@@ -10,7 +10,9 @@
  * same commit that asks for new data (a layout effect), "true" in the passive effect of the
  * commit that rendered the answer. React runs the children's passive effects — where each
  * chart takes its new data and redraws — before the parent's, so "true" means every figure is
- * drawn, without a second render just to flip the flag.
+ * drawn, without a second render just to flip the flag. (A chart more than a screen's height
+ * below the visible part is first created when scrolled near, with the data current then; its
+ * canvas carries `data-drawn` once it is.)
  */
 import { useCallback, useEffect, useLayoutEffect, useRef, useState, type RefObject } from 'react';
 import type { Request, Scorecard } from '../../../../shared/contract';
