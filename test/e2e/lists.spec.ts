@@ -198,15 +198,15 @@ test('Scorecard and Hindsight keep their filters in the address: reload, Back an
   await expect(page.getByTestId('hindsight-count')).toContainText('1 confident hit');
 });
 
-test('Hindsight lists 20 calls at first and the rest with Show more, keeping the count of all', async () => {
+test('Hindsight lists 10 calls at first and the rest with Show more, keeping the count of all', async () => {
   const { page } = app;
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
   await page.locator('[data-hindsight-ready="true"]').waitFor();
   const misses = MORE_MISSES + 1;
   await expect(page.getByTestId('hindsight-count')).toContainText(`${misses} confident misses`);
-  await expect(page.getByTestId('hindsight-entry')).toHaveCount(20);
+  await expect(page.getByTestId('hindsight-entry')).toHaveCount(10);
   await expect(page.getByTestId('hs-misses').getByRole('heading', { level: 2 })).toHaveText(`Confident misses (${misses})`);
-  await page.getByRole('button', { name: `Show ${misses - 20} more` }).click();
+  await page.getByRole('button', { name: `Show ${misses - 10} more` }).click();
   await page.locator('[data-hindsight-ready="true"]').waitFor();
   await expect(page.getByTestId('hindsight-entry')).toHaveCount(misses);
   await expect(page.getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);

@@ -46,7 +46,7 @@ async function seed(): Promise<void> {
   await apiCall(server().url, 'importDiary', { diary: { format: 'forelog-diary', version: 1, questions } });
 }
 
-test('Hindsight lists 20 choice misses and 20 surprises at first, and the rest with each list’s Show more', async () => {
+test('Hindsight lists 10 choice misses and 10 surprises at first, and the rest with each list’s Show more', async () => {
   await seed();
   const { page } = app;
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
@@ -55,17 +55,17 @@ test('Hindsight lists 20 choice misses and 20 surprises at first, and the rest w
   const surprises = page.getByTestId('hs-surprises');
   await expect(misses.getByRole('heading', { level: 2 })).toHaveText(`Multiple choice: confident misses (${CHOICE_MISSES})`);
   await expect(surprises.getByRole('heading', { level: 2 })).toHaveText(`Numbers and dates: surprises (outside your widest range) (${SURPRISES})`);
-  await expect(page.getByTestId('hindsight-choice-entry')).toHaveCount(20);
-  await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(20);
-  await expect(misses).toContainText(`20 of ${CHOICE_MISSES} shown`);
+  await expect(page.getByTestId('hindsight-choice-entry')).toHaveCount(10);
+  await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(10);
+  await expect(misses).toContainText(`10 of ${CHOICE_MISSES} shown`);
 
-  await misses.getByRole('button', { name: `Show ${CHOICE_MISSES - 20} more` }).click();
+  await misses.getByRole('button', { name: `Show ${CHOICE_MISSES - 10} more` }).click();
   await page.locator('[data-hindsight-ready="true"]').waitFor();
   await expect(page.getByTestId('hindsight-choice-entry')).toHaveCount(CHOICE_MISSES);
   await expect(misses.getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);
-  await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(20, { timeout: 10_000 });
+  await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(10, { timeout: 10_000 });
 
-  await surprises.getByRole('button', { name: `Show ${SURPRISES - 20} more` }).click();
+  await surprises.getByRole('button', { name: `Show ${SURPRISES - 10} more` }).click();
   await page.locator('[data-hindsight-ready="true"]').waitFor();
   await expect(page.getByTestId('hindsight-numeric-entry')).toHaveCount(SURPRISES);
   await expect(page.getByRole('button', { name: /Show \d+ more/ })).toHaveCount(0);
