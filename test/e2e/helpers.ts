@@ -88,16 +88,10 @@ export async function afterRedraw(page: Page): Promise<void> {
 }
 
 /**
- * Draws every Scorecard chart before a full-page photograph: a chart more than a screen's
- * height below the visible part is created only when scrolled near, so each one not yet drawn
- * is scrolled into view in turn; then back to the top, and two frames for the redraw.
+ * Waits for every Scorecard chart before a full-page photograph: a chart more than a screen's
+ * height below the visible part is created just after the page appears, one per task.
  */
 export async function drawEveryChart(page: Page): Promise<void> {
-  const undrawn = page.locator('[data-scorecard-ready] canvas:not([data-drawn])');
-  while ((await undrawn.count()) > 0) {
-    await undrawn.first().scrollIntoViewIfNeeded();
-    await afterRedraw(page);
-  }
-  await page.evaluate(() => window.scrollTo(0, 0));
+  await expect(page.locator('[data-scorecard-ready] canvas:not([data-drawn])')).toHaveCount(0);
   await afterRedraw(page);
 }

@@ -78,61 +78,61 @@ export function percentAxis(colors: Palette, title: string, stepSize: number) {
 }
 
 /**
- * Canvases waiting to be drawn until they come within a screen's height of view, and the
- * observer that notices. A diary with every question type gives the Scorecard nine charts
- * over some eight screens' height; creating them all before the first paint made the screen
- * appear a quarter of a second later, for charts the user has not scrolled to.
+ * Charts waiting to be drawn, in page order, and whether a task to draw the next is queued.
+ * A diary with every question type gives the Scorecard nine charts over some eight screens'
+ * height; creating them all before the first paint made the screen appear a quarter of a
+ * second later. The charts in view are drawn with the page; the others one per task right
+ * after, so the page stays responsive and every chart is there a moment later, scrolled to or
+ * not (a full-page capture or a printout included).
  */
-const waiting = new Map<Element, () => void>();
-let nearView: IntersectionObserver | null = null;
+const waiting: (() => void)[] = [];
+let queued = false;
 
-function drawWaiting(target: Element): void {
-  const draw = waiting.get(target);
-  if (!draw) return;
-  waiting.delete(target);
-  nearView?.unobserve(target);
-  draw();
+function drawNextWaiting(): void {
+  queued = false;
+  waiting.shift()?.();
+  if (waiting.length > 0) queueNext();
+}
+
+function queueNext(): void {
+  if (queued) return;
+  queued = true;
+  setTimeout(drawNextWaiting, 0);
 }
 
 /**
- * Calls `draw` once `target` is within one viewport height of the visible part of the page
- * (at once where the browser cannot tell), or before the page is printed. Returns a function
- * that cancels the wait.
+ * Calls `draw` at once when `target` is within one viewport height of the visible part of the
+ * page, otherwise in a task of its own soon after. Returns a function that cancels the wait.
  */
-function whenNearView(target: Element, draw: () => void): () => void {
-  // Already near view: drawn now, in the same task, so what the user sees first is complete.
+function drawSoon(target: Element, draw: () => void): () => void {
   const box = target.getBoundingClientRect();
   const screen = window.innerHeight;
-  if (typeof IntersectionObserver === 'undefined' || (box.bottom >= -screen && box.top <= 2 * screen)) {
+  if (box.bottom >= -screen && box.top <= 2 * screen) {
     draw();
     return () => undefined;
   }
-  nearView ??= new IntersectionObserver(
-    (entries) => {
-      for (const entry of entries) if (entry.isIntersecting) drawWaiting(entry.target);
-    },
-    { rootMargin: '100% 0px' },
-  );
-  waiting.set(target, draw);
-  nearView.observe(target);
+  const job = () => draw();
+  waiting.push(job);
+  queueNext();
   return () => {
-    if (waiting.delete(target)) nearView?.unobserve(target);
+    const at = waiting.indexOf(job);
+    if (at >= 0) waiting.splice(at, 1);
   };
 }
 
-// A printout shows every chart, scrolled to or not.
+// A printout started before the queue has run still shows every chart.
 if (typeof window !== 'undefined') {
   window.addEventListener('beforeprint', () => {
-    for (const target of [...waiting.keys()]) drawWaiting(target);
+    for (const job of waiting.splice(0)) job();
   });
 }
 
 /**
- * Creates the chart when its canvas comes near view (and again when the colour scheme
- * changes); whenever `data` changes afterwards, calls `apply` to put it into the existing
- * chart and redraws at once (`update('none')`: no animation, drawn before the effect returns).
- * Until the chart exists the latest data waits in `latest`, so it is drawn with what is
- * current when created. The canvas carries `data-drawn="true"` once drawn.
+ * Creates the chart at once when its canvas is near view, otherwise just after (and again
+ * when the colour scheme changes); whenever `data` changes afterwards, calls `apply` to put it
+ * into the existing chart and redraws at once (`update('none')`: no animation, drawn before
+ * the effect returns). Until the chart exists the latest data waits in `latest`, so it is
+ * drawn with what is current when created. The canvas carries `data-drawn="true"` once drawn.
  *
  * @param create the chart's configuration without data (colours given)
  * @param apply puts `data` into the chart: datasets, labels, axis limits
@@ -152,7 +152,7 @@ export function useChart<TType extends ChartType, D>(
   useEffect(() => {
     const canvas = canvasRef.current;
     if (!canvas) return;
-    const cancel = whenNearView(canvas, () => {
+    const cancel = drawSoon(canvas, () => {
       const colors = palette();
       const { create: make, apply: put, data: current } = latest.current;
       const chart = new Chart<TType>(canvas, make(colors));

@@ -10,9 +10,9 @@
  * same commit that asks for new data (a layout effect), "true" in the passive effect of the
  * commit that rendered the answer. React runs the children's passive effects — where each
  * chart takes its new data and redraws — before the parent's, so "true" means every figure is
- * drawn, without a second render just to flip the flag. (A chart more than a screen's height
- * below the visible part is first created when scrolled near, with the data current then; its
- * canvas carries `data-drawn` once it is.)
+ * drawn, without a second render just to flip the flag. (On a first visit a chart more than a
+ * screen's height below the visible part is created in a task of its own just after, with the
+ * data current then; its canvas carries `data-drawn` once it is.)
  */
 import { useCallback, useEffect, useLayoutEffect, useRef, useState, type RefObject } from 'react';
 import type { Request, Scorecard } from '../../../../shared/contract';
