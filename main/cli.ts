@@ -67,6 +67,61 @@ const COMMAND_OPTIONS: Record<string, readonly string[]> = {
 
 class UsageError extends Error {}
 
+/** Every option the command line knows (each command takes some of them: COMMAND_OPTIONS). */
+const OPTIONS = {
+  db: { type: 'string' },
+  port: { type: 'string' },
+  format: { type: 'string' },
+  tag: { type: 'string' },
+  from: { type: 'string' },
+  to: { type: 'string' },
+  at: { type: 'string' },
+  json: { type: 'boolean' },
+  merge: { type: 'boolean' },
+  help: { type: 'boolean', short: 'h' },
+  version: { type: 'boolean', short: 'V' },
+} as const;
+
+/**
+ * The one of `names` a mistyped `word` most likely meant — a letter added, dropped, changed or
+ * swapped with its neighbour (case ignored) for every three letters of the name, at most two —
+ * for a "did you mean" hint; none when two names are as close.
+ */
+function closestName(word: string, names: readonly string[]): string | undefined {
+  const typed = word.toLowerCase();
+  let best: string | undefined;
+  let bestDistance = Infinity;
+  let tie = false;
+  for (const name of names) {
+    const d = editDistance(typed, name.toLowerCase());
+    if (d > Math.min(2, Math.floor(name.length / 3))) continue;
+    if (d < bestDistance) [best, bestDistance, tie] = [name, d, false];
+    else if (d === bestDistance) tie = true;
+  }
+  return tie ? undefined : best;
+}
+
+/** Optimal string alignment distance: insertions, deletions, substitutions and swaps of neighbours. */
+function editDistance(a: string, b: string): number {
+  const rows: number[][] = Array.from({ length: a.length + 1 }, (_, i) => [i, ...Array<number>(b.length).fill(0)]);
+  for (let j = 1; j <= b.length; j++) rows[0]![j] = j;
+  for (let i = 1; i <= a.length; i++) {
+    for (let j = 1; j <= b.length; j++) {
+      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
+      let d = Math.min(rows[i - 1]![j]! + 1, rows[i]![j - 1]! + 1, rows[i - 1]![j - 1]! + cost);
+      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) d = Math.min(d, rows[i - 2]![j - 2]! + 1);
+      rows[i]![j] = d;
+    }
+  }
+  return rows[a.length]![b.length]!;
+}
+
+/** " (did you mean X?)" when `word` is close to exactly one of `names`, else "". */
+function didYouMean(word: string, names: readonly string[], shown: (name: string) => string): string {
+  const name = closestName(word, names);
+  return name === undefined ? '' : ` (did you mean ${shown(name)}?)`;
+}
+
 /** Set when stdout's reader went away (`forelog export | head`): the rest is not wanted. */
 class StdoutClosed extends Error {}
 
@@ -123,19 +178,7 @@ function parse(argv: string[]): Parsed {
       allowPositionals: true,
       strict: true,
       tokens: true,
-      options: {
-        db: { type: 'string' },
-        port: { type: 'string' },
-        format: { type: 'string' },
-        tag: { type: 'string' },
-        from: { type: 'string' },
-        to: { type: 'string' },
-        at: { type: 'string' },
-        json: { type: 'boolean' },
-        merge: { type: 'boolean' },
-        help: { type: 'boolean', short: 'h' },
-        version: { type: 'boolean', short: 'V' },
-      },
+      options: OPTIONS,
     });
     // node:util keeps only the last of a repeated option; which one was meant is not ours to guess.
     const seen = new Set<string>();
@@ -155,7 +198,10 @@ function parse(argv: string[]): Parsed {
     const code = (err as NodeJS.ErrnoException).code;
     const message = (err as Error).message;
     const option = /'(-[^' ]+)/.exec(message)?.[1];
-    if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') throw new UsageError(`there is no option ${option ?? ''}`.trimEnd());
+    if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') {
+      const hint = option?.startsWith('--') ? didYouMean(option.slice(2).split('=')[0]!, Object.keys(OPTIONS), (name) => `--${name}`) : '';
+      throw new UsageError(`there is no option ${option ?? ''}`.trimEnd() + hint);
+    }
     if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
       const name = option ?? 'the option';
       if (/does not take an argument/.test(message)) throw new UsageError(`${name} takes no value; write ${name} alone`);
@@ -515,7 +561,7 @@ async function run(argv: string[]): Promise<void> {
       return;
     }
     default:
-      throw new UsageError(`unknown command "${command}"`);
+      throw new UsageError(`unknown command "${command}"${didYouMean(command ?? '', Object.keys(COMMAND_OPTIONS), (name) => `"${name}"`)}`);
   }
 }
 

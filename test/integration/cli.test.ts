@@ -202,6 +202,26 @@ test('failures exit non-zero with one line: unknown command, missing file, not a
   assert.match(r.stderr, /not a Forelog diary file/);
 });
 
+test('a mistyped command or option names the one probably meant; a word close to none, or to two, gets no guess', () => {
+  const db = path.join(tempDir(), 'd.sqlite');
+  const cases: [string[], string][] = [
+    [['scor'], 'forelog: unknown command "scor" (did you mean "score"?). See forelog --help.'],
+    [['Export'], 'forelog: unknown command "Export" (did you mean "export"?). See forelog --help.'],
+    [['imoprt', 'x.json'], 'forelog: unknown command "imoprt" (did you mean "import"?). See forelog --help.'],
+    [['frobnicate'], 'forelog: unknown command "frobnicate". See forelog --help.'],
+    [['score', '--jsno'], 'forelog: there is no option --jsno (did you mean --json?). See forelog --help.'],
+    [['due', '--at=2026-01-01', '--jason'], 'forelog: there is no option --jason (did you mean --json?). See forelog --help.'],
+    // Two letters from both --at and --db, and a two-letter name is too short to guess from.
+    [['score', '--ab'], 'forelog: there is no option --ab. See forelog --help.'],
+  ];
+  for (const [args, line] of cases) {
+    const r = forelog(...args, '--db', db);
+    assert.equal(r.status, 1, args.join(' '));
+    assert.equal(r.stderr, `${line}\n`, args.join(' '));
+  }
+  assert.equal(fs.existsSync(db), false, 'no diary was created');
+});
+
 test('--version prints the version from package.json and touches no diary; with a command it is refused', () => {
   const { version } = JSON.parse(fs.readFileSync(path.join(ROOT, 'package.json'), 'utf8')) as { version: string };
   const db = path.join(tempDir(), 'd.sqlite');
