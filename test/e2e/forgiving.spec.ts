@@ -168,6 +168,14 @@ test('a correction keeps the earlier resolution in the history shown on the ques
     await toast(page, 'Resolution corrected to No.').getByRole('button', { name: 'Undo' }).click();
     await expect(page.getByTestId('resolution-history')).toHaveCount(0);
     await expect(page.getByRole('heading', { name: /^Resolved Yes/ })).toBeVisible();
+    // The undone correction's dialog opens again as it was typed, to save it again or discard it.
+    const again = page.getByRole('dialog', { name: 'Correct the resolution' });
+    await expect(again.getByRole('radio', { name: 'No', exact: true })).toBeChecked();
+    await expect(again.getByLabel('Note', { exact: true })).toHaveValue('The review was postponed to next year');
+    await expect(again.getByLabel('Why the correction')).toHaveValue('Misread the draft as the final review');
+    await again.getByRole('button', { name: 'Cancel' }).click();
+    await page.getByRole('alertdialog', { name: 'Discard your changes?' }).getByRole('button', { name: 'Discard', exact: true }).click();
+    await expect(again).toBeHidden();
     // Two undos of one question say the same thing: one message, not a stack of twins.
     // Counted once, not waited for: the first toast would go by itself after a few seconds.
     expect(await toast(page, `Undone: “${TITLES.corrected}” is back as it was.`).count()).toBe(1);

@@ -4,7 +4,8 @@
  * toast whose Undo takes it back; the head with its actions; the resolution panel; the key
  * figures; the facts every question has; the history section; and the confirmations.
  */
-import { useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
+import type { UndoResult } from '../../../../shared/contract';
 import type { Question, QuestionStatus, Settings } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
@@ -17,6 +18,7 @@ import { formatInstant, zoneName } from '../../dates';
 import { useUndoToast } from '../../forgiving/undo';
 import { hrefTo, navigate, questionPath } from '../../routing';
 import { reopenWording } from './questionFacts';
+import type { TypedInDialog } from './questionForms';
 
 type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
 type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
@@ -27,12 +29,31 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at
   const [dialog, setDialog] = useState<DialogName | null>(null);
   const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);
   const [reopenNote, setReopenNote] = useState('');
+  // A dialog opened again by an Undo: what it held, and the question as the undo left it (the
+  // page's own copy is reloaded only after), so the form starts from both.
+  const [restoring, setRestoring] = useState<{ dialog: DialogName; typed: TypedInDialog; question: Question } | null>(null);
+  // Whether anything is open when an Undo comes: it never closes a dialog in use.
+  const busy = useRef(false);
+  useEffect(() => {
+    busy.current = dialog !== null || pendingDelete !== null;
+  }, [dialog, pendingDelete]);
 
-  function saved(message: string, undo: string) {
+  function saved(message: string, undo: string, typed?: TypedInDialog) {
+    const from = dialog;
     setDialog(null);
+    setRestoring(null);
     setPendingDelete(null);
     diaryChanged();
-    undoToast({ message, undo, title: q.title });
+    // Undoing a revision or a resolution opens its dialog again with what was typed (typed text is never thrown away).
+    const reopen =
+      typed && from
+        ? (result: UndoResult) => {
+            if (!result.question || busy.current) return;
+            setRestoring({ dialog: from, typed, question: result.question });
+            setDialog(from);
+          }
+        : undefined;
+    undoToast({ message, undo, title: q.title, ...(reopen ? { afterUndo: reopen } : {}) });
   }
 
   async function deleteQuestion() {
@@ -59,7 +80,14 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at
   return {
     dialog,
     open: setDialog,
-    close: () => setDialog(null),
+    close: () => {
+      setDialog(null);
+      setRestoring(null);
+    },
+    /** What the dialog `name` is given back after an Undo, if it is the one reopened. */
+    restored: (name: DialogName) => (restoring?.dialog === name ? restoring.typed : undefined),
+    /** The question as the Undo that reopened a dialog left it; null otherwise. */
+    restoredQuestion: restoring?.question ?? null,
     pendingDelete,
     setPendingDelete,
     reopenNote,
