@@ -311,6 +311,58 @@ test('a range typed into a choice box says it is not one number, not that the bo
   await expect(dialog).toBeHidden();
 });
 
+test('a range typed into a lens box says it is not one number, and the revision waits, instead of the lens being dropped', async () => {
+  const { page } = app;
+  const id = await openNewQuestion(page, server().url, {
+    title: 'Southgate signs the cold-store lease',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    first_forecast: { p: 0.4 },
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  await dialog.locator('summary', { hasText: 'Lenses' }).click();
+  await dialog.getByRole('button', { name: 'Add lens' }).click();
+  const p = dialog.getByRole('spinbutton', { name: 'Lens 1 probability' });
+  const weight = dialog.getByRole('spinbutton', { name: 'Lens 1 weight' });
+  await p.pressSequentially('60-70');
+  await weight.fill('');
+  await weight.pressSequentially('1-2');
+  // A lens with its name cleared and an unreadable number was skipped as an empty row.
+  await dialog.getByRole('combobox', { name: 'Lens 1 name' }).fill('');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeVisible();
+  await expect(p).toHaveAccessibleDescription(/This is not one number\. Type a single number such as 12\.5/);
+  await expect(weight).toHaveAccessibleDescription(/This is not one number/);
+  const unchanged = await apiCall<{ forecasts: unknown[] }>(server().url, 'getQuestion', { id });
+  expect(unchanged.forecasts).toHaveLength(1);
+  await dialog.getByRole('combobox', { name: 'Lens 1 name' }).fill('outside view');
+  await p.fill('65');
+  await weight.fill('1');
+  await expect(p).not.toHaveAccessibleDescription(/not one number/);
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+  const saved = await apiCall<{ forecasts: { lenses?: { p: number }[] }[] }>(server().url, 'getQuestion', { id });
+  expect(saved.forecasts.at(-1)?.lenses?.map((l) => l.p)).toEqual([0.65]);
+});
+
+test('a range typed into Hindsight’s “Confident at” says it is not one number and what to type', async () => {
+  const { page } = app;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  const box = page.getByRole('spinbutton', { name: 'Confident at', exact: true });
+  // Emptied to type a new number, the box stays empty (80 came back into it) and says what it wants.
+  await box.fill('');
+  await expect(box).toHaveValue('');
+  await expect(box).toHaveAccessibleDescription(/Must be a percentage from 50 to 99/);
+  await box.pressSequentially('60-70');
+  await box.blur();
+  await expect(box).toHaveAccessibleDescription(/This is not one number\. Type a single number such as 12\.5/);
+  await expect(box).not.toHaveAccessibleDescription(/must be a percentage/i);
+  await box.fill('70');
+  await expect(box).toHaveValue('70');
+  await expect(box).not.toHaveAccessibleDescription(/not one number/);
+  await expect(page).toHaveURL(/confident=70/);
+});
+
 test('a search longer than the diary takes searches for its start and says so, instead of an error over the unfiltered list', async () => {
   const { page } = app;
   await apiCall(server().url, 'createQuestion', { title: 'Marrow Quay crane contract is extended', closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString() });
