@@ -368,9 +368,23 @@ test('a search longer than the diary takes searches for its start and says so, i
   await apiCall(server().url, 'createQuestion', { title: 'Marrow Quay crane contract is extended', closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString() });
   await page.reload();
   const search = page.getByRole('searchbox', { name: 'Search' });
+  const status = page.getByRole('combobox', { name: 'Status' });
+  const before: Record<number, { x: number; y: number } | null> = {};
+  for (const width of [1024, 1920]) {
+    await page.setViewportSize({ width, height: 800 });
+    before[width] = await status.boundingBox();
+  }
   // A paragraph pasted from an e-mail: 389 characters, every word in the title.
   await search.fill('Marrow Quay crane contract is extended '.repeat(10).trim());
   await expect(search).toHaveAccessibleDescription('A search reads up to 200 characters: this searches for the first 200 of 389.');
+  // The hint under the search box does not move the Status box beside it.
+  for (const width of [1024, 1920]) {
+    await page.setViewportSize({ width, height: 800 });
+    const after = await status.boundingBox();
+    expect({ x: after?.x, y: after?.y }, `the Status box at ${width} wide`).toEqual({ x: before[width]?.x, y: before[width]?.y });
+    await page.screenshot({ path: `test/e2e/artifacts/newcomer-long-search-${width}.png`, clip: { x: 0, y: 0, width, height: 400 } });
+  }
+  await page.setViewportSize({ width: 1280, height: 860 });
   await expect(page.getByRole('alert')).toHaveCount(0);
   await expect(page.getByRole('link', { name: 'Marrow Quay crane contract is extended' })).toBeVisible();
   await expect(page.getByRole('link', { name: 'Eastgate depot opens its second shift' })).toHaveCount(0);
