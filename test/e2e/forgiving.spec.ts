@@ -165,6 +165,10 @@ test('a correction keeps the earlier resolution in the history shown on the ques
     // Undo the reopening, then the correction: newest first, back to the first resolution.
     await toast(page, 'Reopened').getByRole('button', { name: 'Undo' }).click();
     await expect(rows).toHaveCount(1);
+    // The undone reopening's confirmation opens again with why, as typed.
+    await expect(reopen.getByLabel('Why reopen')).toHaveValue('The regulator withdrew the postponement');
+    await reopen.getByRole('button', { name: 'Cancel' }).click();
+    await expect(reopen).toBeHidden();
     await toast(page, 'Resolution corrected to No.').getByRole('button', { name: 'Undo' }).click();
     await expect(page.getByTestId('resolution-history')).toHaveCount(0);
     await expect(page.getByRole('heading', { name: /^Resolved Yes/ })).toBeVisible();

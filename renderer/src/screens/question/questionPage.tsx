@@ -38,22 +38,30 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at
     busy.current = dialog !== null || pendingDelete !== null;
   }, [dialog, pendingDelete]);
 
-  function saved(message: string, undo: string, typed?: TypedInDialog) {
-    const from = dialog;
+  /** Says what was done, with its Undo; `again` gives back what was typed once it is undone, unless a dialog is in use by then. */
+  function announce(message: string, undo: string, again?: (result: UndoResult) => void) {
     setDialog(null);
     setRestoring(null);
     setPendingDelete(null);
     diaryChanged();
+    const afterUndo = again ? (result: UndoResult) => void (busy.current ? null : again(result)) : undefined;
+    undoToast({ message, undo, title: q.title, ...(afterUndo ? { afterUndo } : {}) });
+  }
+
+  function saved(message: string, undo: string, typed?: TypedInDialog) {
+    const from = dialog;
     // Undoing a revision or a resolution opens its dialog again with what was typed (typed text is never thrown away).
-    const reopen =
+    announce(
+      message,
+      undo,
       typed && from
-        ? (result: UndoResult) => {
-            if (!result.question || busy.current) return;
+        ? (result) => {
+            if (!result.question) return;
             setRestoring({ dialog: from, typed, question: result.question });
             setDialog(from);
           }
-        : undefined;
-    undoToast({ message, undo, title: q.title, ...(reopen ? { afterUndo: reopen } : {}) });
+        : undefined,
+    );
   }
 
   async function deleteQuestion() {
@@ -72,9 +80,14 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at
   }
 
   async function reopen() {
-    const { undo } = await api.reopenQuestion({ id: q.id, ...(reopenNote.trim() ? { note: reopenNote } : {}) });
+    const note = reopenNote;
+    const { undo } = await api.reopenQuestion({ id: q.id, ...(note.trim() ? { note } : {}) });
     setReopenNote('');
-    saved(reopenWording(q, Date.now()).done, undo);
+    // Undone, the question is resolved again and the confirmation opens again with why, as typed.
+    announce(reopenWording(q, Date.now()).done, undo, () => {
+      setReopenNote(note);
+      setDialog('reopen');
+    });
   }
 
   return {
