@@ -31,6 +31,22 @@ test('on an empty diary the briefing button says why there is nothing to brief o
   await expect(page.getByRole('button', { name: 'Close preview' })).toBeVisible();
 });
 
+test('with nothing scored yet, Hindsight counts open choice questions as the Scorecard does, not only yes/no ones', async () => {
+  const { page } = app;
+  await apiCall(server().url, 'createQuestion', {
+    title: 'Which yard takes the Eastgate overflow?',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'choice',
+    options: ['North yard', 'South yard'],
+    first_forecast: { probs: [0.6, 0.4] },
+  });
+  const here = 'Here: 2 open, 0 resolved without a forecast before the window ended, 0 void.';
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Scorecard' }).click();
+  await expect(page.getByText(here)).toBeVisible();
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  await expect(page.getByTestId('hindsight-here')).toHaveText(here);
+});
+
 test('resolving a numeric question with the value box empty marks only the value box', async () => {
   const { page } = app;
   await openNewQuestion(page, server().url, {
