@@ -149,7 +149,7 @@ function QuestionPage({ question: q, settings }: { question: BinaryQuestion; set
       />
 
       <ReviseDialog question={dq} open={dialog === 'revise'} onClose={close} onSaved={saved} restored={actions.restored('revise')} />
-      <ReferenceDialog question={q} open={dialog === 'reference'} onClose={close} onSaved={saved} />
+      <ReferenceDialog question={dq} open={dialog === 'reference'} onClose={close} onSaved={saved} restored={actions.restored('reference')} />
       <ResolveDialog question={dq} open={dialog === 'resolve'} onClose={close} onSaved={saved} restored={actions.restored('resolve')} />
       <EditDialog question={q} open={dialog === 'edit'} onClose={close} onSaved={saved} />
       <QuestionConfirmations

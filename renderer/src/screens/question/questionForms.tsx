@@ -16,6 +16,7 @@ import { isoToLocal, localToIso } from '../../dates';
 import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import type { FieldPlacement, FormState } from '../../forms';
+import type { ReferenceTyped } from './ReferenceDialog';
 import type { ResolveTyped } from './ResolveDialog';
 import type { ReviseTyped } from './ReviseDialog';
 import type { TypedEntryTyped } from './TypedEntryDialog';
@@ -32,10 +33,10 @@ export interface QuestionDialogProps<Q> {
 }
 
 /**
- * What a revise or resolve form held when it saved, by form. Undoing that save opens the form
+ * What a revise, reference or resolve form held when it saved, by form. Undoing that save opens the form
  * again with it (typed text is never thrown away); each form takes up only its own kind.
  */
-export type TypedInDialog = TypedEntryTyped | TypedResolveTyped | ReviseTyped | ResolveTyped;
+export type TypedInDialog = TypedEntryTyped | TypedResolveTyped | ReviseTyped | ResolveTyped | ReferenceTyped;
 
 /** A resolve form's time, note and why a correction; `atLocal` null when the time was left as shown. */
 export interface NotesTyped {
