@@ -44,7 +44,11 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at
     setRestoring(null);
     setPendingDelete(null);
     diaryChanged();
-    const afterUndo = again ? (result: UndoResult) => void (busy.current ? null : again(result)) : undefined;
+    const afterUndo = again
+      ? (result: UndoResult) => {
+          if (!busy.current) again(result);
+        }
+      : undefined;
     undoToast({ message, undo, title: q.title, ...(afterUndo ? { afterUndo } : {}) });
   }
 
