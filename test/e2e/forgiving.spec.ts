@@ -165,9 +165,21 @@ test('a correction keeps the earlier resolution in the history shown on the ques
     // Undo the reopening, then the correction: newest first, back to the first resolution.
     await toast(page, 'Reopened').getByRole('button', { name: 'Undo' }).click();
     await expect(rows).toHaveCount(1);
+    // The undone reopening's confirmation opens again with why, as typed.
+    await expect(reopen.getByLabel('Why reopen')).toHaveValue('The regulator withdrew the postponement');
+    await reopen.getByRole('button', { name: 'Cancel' }).click();
+    await expect(reopen).toBeHidden();
     await toast(page, 'Resolution corrected to No.').getByRole('button', { name: 'Undo' }).click();
     await expect(page.getByTestId('resolution-history')).toHaveCount(0);
     await expect(page.getByRole('heading', { name: /^Resolved Yes/ })).toBeVisible();
+    // The undone correction's dialog opens again as it was typed, to save it again or discard it.
+    const again = page.getByRole('dialog', { name: 'Correct the resolution' });
+    await expect(again.getByRole('radio', { name: 'No', exact: true })).toBeChecked();
+    await expect(again.getByLabel('Note', { exact: true })).toHaveValue('The review was postponed to next year');
+    await expect(again.getByLabel('Why the correction')).toHaveValue('Misread the draft as the final review');
+    await again.getByRole('button', { name: 'Cancel' }).click();
+    await page.getByRole('alertdialog', { name: 'Discard your changes?' }).getByRole('button', { name: 'Discard', exact: true }).click();
+    await expect(again).toBeHidden();
     // Two undos of one question say the same thing: one message, not a stack of twins.
     // Counted once, not waited for: the first toast would go by itself after a few seconds.
     expect(await toast(page, `Undone: “${TITLES.corrected}” is back as it was.`).count()).toBe(1);

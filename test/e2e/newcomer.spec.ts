@@ -31,6 +31,22 @@ test('on an empty diary the briefing button says why there is nothing to brief o
   await expect(page.getByRole('button', { name: 'Close preview' })).toBeVisible();
 });
 
+test('with nothing scored yet, Hindsight counts open choice questions as the Scorecard does, not only yes/no ones', async () => {
+  const { page } = app;
+  await apiCall(server().url, 'createQuestion', {
+    title: 'Which yard takes the Eastgate overflow?',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    type: 'choice',
+    options: ['North yard', 'South yard'],
+    first_forecast: { probs: [0.6, 0.4] },
+  });
+  const here = 'Here: 2 open, 0 resolved without a forecast before the window ended, 0 void.';
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Scorecard' }).click();
+  await expect(page.getByText(here)).toBeVisible();
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  await expect(page.getByTestId('hindsight-here')).toHaveText(here);
+});
+
 test('resolving a numeric question with the value box empty marks only the value box', async () => {
   const { page } = app;
   await openNewQuestion(page, server().url, {
@@ -311,14 +327,80 @@ test('a range typed into a choice box says it is not one number, not that the bo
   await expect(dialog).toBeHidden();
 });
 
+test('a range typed into a lens box says it is not one number, and the revision waits, instead of the lens being dropped', async () => {
+  const { page } = app;
+  const id = await openNewQuestion(page, server().url, {
+    title: 'Southgate signs the cold-store lease',
+    closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString(),
+    first_forecast: { p: 0.4 },
+  });
+  await page.getByRole('button', { name: 'Revise' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Revise your forecast' });
+  await dialog.locator('summary', { hasText: 'Lenses' }).click();
+  await dialog.getByRole('button', { name: 'Add lens' }).click();
+  const p = dialog.getByRole('spinbutton', { name: 'Lens 1 probability' });
+  const weight = dialog.getByRole('spinbutton', { name: 'Lens 1 weight' });
+  await p.pressSequentially('60-70');
+  await weight.fill('');
+  await weight.pressSequentially('1-2');
+  // A lens with its name cleared and an unreadable number was skipped as an empty row.
+  await dialog.getByRole('combobox', { name: 'Lens 1 name' }).fill('');
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeVisible();
+  await expect(p).toHaveAccessibleDescription(/This is not one number\. Type a single number such as 12\.5/);
+  await expect(weight).toHaveAccessibleDescription(/This is not one number/);
+  const unchanged = await apiCall<{ forecasts: unknown[] }>(server().url, 'getQuestion', { id });
+  expect(unchanged.forecasts).toHaveLength(1);
+  await dialog.getByRole('combobox', { name: 'Lens 1 name' }).fill('outside view');
+  await p.fill('65');
+  await weight.fill('1');
+  await expect(p).not.toHaveAccessibleDescription(/not one number/);
+  await dialog.getByRole('button', { name: 'Save revision' }).click();
+  await expect(dialog).toBeHidden();
+  const saved = await apiCall<{ forecasts: { lenses?: { p: number }[] }[] }>(server().url, 'getQuestion', { id });
+  expect(saved.forecasts.at(-1)?.lenses?.map((l) => l.p)).toEqual([0.65]);
+});
+
+test('a range typed into Hindsight’s “Confident at” says it is not one number and what to type', async () => {
+  const { page } = app;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Hindsight' }).click();
+  const box = page.getByRole('spinbutton', { name: 'Confident at', exact: true });
+  // Emptied to type a new number, the box stays empty (80 came back into it) and says what it wants.
+  await box.fill('');
+  await expect(box).toHaveValue('');
+  await expect(box).toHaveAccessibleDescription(/Must be a percentage from 50 to 99/);
+  await box.pressSequentially('60-70');
+  await box.blur();
+  await expect(box).toHaveAccessibleDescription(/This is not one number\. Type a single number such as 12\.5/);
+  await expect(box).not.toHaveAccessibleDescription(/must be a percentage/i);
+  await box.fill('70');
+  await expect(box).toHaveValue('70');
+  await expect(box).not.toHaveAccessibleDescription(/not one number/);
+  await expect(page).toHaveURL(/confident=70/);
+});
+
 test('a search longer than the diary takes searches for its start and says so, instead of an error over the unfiltered list', async () => {
   const { page } = app;
   await apiCall(server().url, 'createQuestion', { title: 'Marrow Quay crane contract is extended', closes_at: new Date(Date.now() + 30 * 86_400_000).toISOString() });
   await page.reload();
   const search = page.getByRole('searchbox', { name: 'Search' });
+  const status = page.getByRole('combobox', { name: 'Status' });
+  const before: Record<number, { x: number; y: number } | null> = {};
+  for (const width of [1024, 1920]) {
+    await page.setViewportSize({ width, height: 800 });
+    before[width] = await status.boundingBox();
+  }
   // A paragraph pasted from an e-mail: 389 characters, every word in the title.
   await search.fill('Marrow Quay crane contract is extended '.repeat(10).trim());
   await expect(search).toHaveAccessibleDescription('A search reads up to 200 characters: this searches for the first 200 of 389.');
+  // The hint under the search box does not move the Status box beside it.
+  for (const width of [1024, 1920]) {
+    await page.setViewportSize({ width, height: 800 });
+    const after = await status.boundingBox();
+    expect({ x: after?.x, y: after?.y }, `the Status box at ${width} wide`).toEqual({ x: before[width]?.x, y: before[width]?.y });
+    await page.screenshot({ path: `test/e2e/artifacts/newcomer-long-search-${width}.png`, clip: { x: 0, y: 0, width, height: 400 } });
+  }
+  await page.setViewportSize({ width: 1280, height: 860 });
   await expect(page.getByRole('alert')).toHaveCount(0);
   await expect(page.getByRole('link', { name: 'Marrow Quay crane contract is extended' })).toBeVisible();
   await expect(page.getByRole('link', { name: 'Eastgate depot opens its second shift' })).toHaveCount(0);

@@ -58,13 +58,29 @@ test('quick add, two revisions, a reference and a Yes resolution show up in the 
     await dialog.getByLabel('What changed').fill(note);
     await dialog.getByRole('button', { name: 'Save revision' }).click();
     await expect(dialog).toBeHidden();
-    await expect(page.getByTestId('toast').filter({ hasText: `Revised to ${p}%.` })).toBeVisible();
+    const toast = page.getByTestId('toast').filter({ hasText: `Revised to ${p}%.` });
+    await expect(toast).toBeVisible();
+    if (p === '70') {
+      // Undone, the revision's dialog opens again as typed; saving it again makes it once more.
+      await toast.getByRole('button', { name: 'Undo' }).click();
+      await expect(dialog).toBeVisible();
+      await expect(box).toHaveValue('70');
+      await expect(dialog.getByLabel('What changed')).toHaveValue(note);
+      await dialog.getByRole('button', { name: 'Save revision' }).click();
+      await expect(dialog).toBeHidden();
+    }
   }
 
   await page.getByRole('button', { name: 'Add reference' }).click();
   const reference = page.getByRole('dialog', { name: 'Add a reference forecast' });
   await reference.getByRole('spinbutton', { name: 'Their probability', exact: true }).fill('60');
   await reference.getByRole('textbox', { name: 'Source' }).fill('client’s view');
+  await reference.getByRole('button', { name: 'Add reference' }).click();
+  await expect(reference).toBeHidden();
+  // The same for a reference: Undo opens its dialog again with the number and the source.
+  await page.getByTestId('toast').filter({ hasText: 'Added client’s view’s 60%.' }).getByRole('button', { name: 'Undo' }).click();
+  await expect(reference.getByRole('spinbutton', { name: 'Their probability', exact: true })).toHaveValue('60');
+  await expect(reference.getByRole('textbox', { name: 'Source' })).toHaveValue('client’s view');
   await reference.getByRole('button', { name: 'Add reference' }).click();
   await expect(reference).toBeHidden();
 

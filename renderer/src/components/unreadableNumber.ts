@@ -18,6 +18,8 @@ export const UNREADABLE_NUMBER = 'This is not one number. Type a single number s
 export interface UnreadableNumber {
   /** The message to show beside the box, or undefined. */
   message: string | undefined;
+  /** The box holds text it cannot read, whether or not the message shows yet: any other reason for it being empty is wrong. */
+  now: boolean;
   onInput: (event: FormEvent<HTMLInputElement>) => void;
   onBlur: (event: FocusEvent<HTMLInputElement>) => void;
 }
@@ -32,6 +34,7 @@ export function useUnreadableNumber(label: string, value: string): UnreadableNum
   useFieldProblem(unreadable ? `${label}: ${UNREADABLE_NUMBER}` : null);
   return {
     message: unreadable && (left || refused) ? UNREADABLE_NUMBER : undefined,
+    now: unreadable,
     onInput: (event) => {
       setUnreadable(event.currentTarget.validity.badInput);
       setLeft(false);

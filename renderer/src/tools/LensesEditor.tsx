@@ -10,6 +10,7 @@ import { FieldError } from '../components/FieldError';
 import { commaAsPoint, pastedPercentText } from '../components/decimalComma';
 import { FieldFrame, describedBy } from '../components/FieldFrame';
 import { PercentAdvice, hasPercentAdvice } from '../components/PercentAdvice';
+import { UNREADABLE_NUMBER, useUnreadableNumber } from '../components/unreadableNumber';
 import { percentAdvice } from '../percent';
 import { estimateText, formatEstimate, numberOrNull } from './format';
 import {
@@ -72,7 +73,12 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
   const a = numberOrNull(extremize);
   const pooled = pooledSuggestion(lenses, a);
   const sliderValue = a === null ? EXTREMIZE_MIN : Math.min(EXTREMIZE_MAX, Math.max(EXTREMIZE_MIN, a));
-  const extremizeError = a === null || a < EXTREMIZE_MIN || a > EXTREMIZE_MAX ? `Must be between ${EXTREMIZE_MIN} and ${EXTREMIZE_MAX}` : undefined;
+  const extremizeUnreadable = useUnreadableNumber('Extremizing factor', extremize);
+  const extremizeError = extremizeUnreadable.now
+    ? UNREADABLE_NUMBER
+    : a === null || a < EXTREMIZE_MIN || a > EXTREMIZE_MAX
+      ? `Must be between ${EXTREMIZE_MIN} and ${EXTREMIZE_MAX}`
+      : undefined;
 
   function change(key: number, part: 'name' | 'p' | 'weight', value: string) {
     onLensesChange(lenses.map((l) => (l.key === key ? { ...l, [part]: value } : l)));
@@ -108,77 +114,9 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
               <span />
             </div>
             <ol className="lens-list" ref={listRef}>
-              {lenses.map((lens, i) => {
-                const label = `Lens ${i + 1}`;
-                const nameId = `${listId}-${lens.key}-name`;
-                const pId = `${listId}-${lens.key}-p`;
-                const weightId = `${listId}-${lens.key}-weight`;
-                const errors = {
-                  name: error(lensField(lens.key, 'name')),
-                  p: error(lensField(lens.key, 'p')),
-                  weight: error(lensField(lens.key, 'weight')),
-                };
-                return (
-                  <li key={lens.key} className="lens-grid" data-testid="lens-row">
-                    <input
-                      type="text"
-                      id={nameId}
-                      className="input"
-                      list={`${listId}-names`}
-                      aria-label={`${label} name`}
-                      value={lens.name}
-                      maxLength={80}
-                      aria-invalid={errors.name ? true : undefined}
-                      aria-describedby={describedBy(nameId, undefined, errors.name)}
-                      onChange={(event) => change(lens.key, 'name', event.target.value)}
-                    />
-                    <span className="input-with-suffix">
-                      <input
-                        type="number"
-                        inputMode="decimal"
-                        id={pId}
-                        data-lens={lens.key}
-                        className="input input--number input--percent"
-                        min={0}
-                        max={100}
-                        step="any"
-                        aria-label={`${label} probability`}
-                        value={lens.p}
-                        aria-invalid={errors.p ? true : undefined}
-                        aria-describedby={[describedBy(pId, undefined, errors.p), hasPercentAdvice(lens.p) ? `${pId}-advice` : ''].filter(Boolean).join(' ') || undefined}
-                        onKeyDown={commaAsPoint}
-                        onPaste={pastedPercentText}
-                        onChange={(event) => change(lens.key, 'p', event.target.value)}
-                      />
-                      <span className="input-suffix" aria-hidden="true">
-                        %
-                      </span>
-                    </span>
-                    <input
-                      type="number"
-                      inputMode="decimal"
-                      id={weightId}
-                      className="input input--number lens-grid__weight"
-                      min={0}
-                      step="any"
-                      aria-label={`${label} weight`}
-                      value={lens.weight}
-                      aria-invalid={errors.weight ? true : undefined}
-                      aria-describedby={describedBy(weightId, undefined, errors.weight)}
-                      onChange={(event) => change(lens.key, 'weight', event.target.value)}
-                    />
-                    <Button size="sm" variant="ghost" className="btn--danger-text" onClick={() => remove(lens.key)} aria-label={`Remove ${label.toLowerCase()}${lens.name.trim() ? ` (${lens.name.trim()})` : ''}`}>
-                      Remove
-                    </Button>
-                    <div className="lens-grid__errors">
-                      <FieldError id={`${nameId}-error`} message={errors.name} />
-                      <FieldError id={`${pId}-error`} message={errors.p} />
-                      <PercentAdvice value={lens.p} onChange={(value) => change(lens.key, 'p', value)} id={`${pId}-advice`} boxId={pId} />
-                      <FieldError id={`${weightId}-error`} message={errors.weight} />
-                    </div>
-                  </li>
-                );
-              })}
+              {lenses.map((lens, i) => (
+                <LensRow key={lens.key} lens={lens} label={`Lens ${i + 1}`} idPrefix={`${listId}-${lens.key}`} listId={listId} error={error} onChange={change} onRemove={remove} />
+              ))}
             </ol>
             <datalist id={`${listId}-names`}>
               {SUGGESTED_LENS_NAMES.map((name) => (
@@ -228,6 +166,8 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
                   value={extremize}
                   aria-invalid={extremizeError ? true : undefined}
                   aria-describedby={describedBy(extremizeId, 'hint', extremizeError)}
+                  onInput={extremizeUnreadable.onInput}
+                  onBlur={extremizeUnreadable.onBlur}
                   onChange={(event) => onExtremizeChange(event.target.value)}
                 />
               </span>
@@ -252,5 +192,99 @@ export function LensesEditor({ lenses, onLensesChange, extremize, onExtremizeCha
         ) : null}
       </div>
     </details>
+  );
+}
+
+interface LensRowProps {
+  lens: LensDraft;
+  /** "Lens 2". */
+  label: string;
+  idPrefix: string;
+  /** The editor's id, naming the list of suggested names. */
+  listId: string;
+  error: (field: string) => string | undefined;
+  onChange: (key: number, part: 'name' | 'p' | 'weight', value: string) => void;
+  onRemove: (key: number) => void;
+}
+
+/**
+ * One lens: its name, probability and weight, and the reasons beside them. A number box
+ * holding text it cannot read ("60-70", "about 2") says so and holds the revision back,
+ * instead of the lens being taken as unfilled (`useUnreadableNumber`).
+ */
+function LensRow({ lens, label, idPrefix, listId, error, onChange, onRemove }: LensRowProps) {
+  const nameId = `${idPrefix}-name`;
+  const pId = `${idPrefix}-p`;
+  const weightId = `${idPrefix}-weight`;
+  const unreadableP = useUnreadableNumber(`${label} probability`, lens.p);
+  const unreadableWeight = useUnreadableNumber(`${label} weight`, lens.weight);
+  const errors = {
+    name: error(lensField(lens.key, 'name')),
+    p: unreadableP.message ?? (unreadableP.now && error(lensField(lens.key, 'p')) ? UNREADABLE_NUMBER : error(lensField(lens.key, 'p'))),
+    weight: unreadableWeight.message ?? (unreadableWeight.now && error(lensField(lens.key, 'weight')) ? UNREADABLE_NUMBER : error(lensField(lens.key, 'weight'))),
+  };
+  return (
+    <li className="lens-grid" data-testid="lens-row">
+      <input
+        type="text"
+        id={nameId}
+        className="input"
+        list={`${listId}-names`}
+        aria-label={`${label} name`}
+        value={lens.name}
+        maxLength={80}
+        aria-invalid={errors.name ? true : undefined}
+        aria-describedby={describedBy(nameId, undefined, errors.name)}
+        onChange={(event) => onChange(lens.key, 'name', event.target.value)}
+      />
+      <span className="input-with-suffix">
+        <input
+          type="number"
+          inputMode="decimal"
+          id={pId}
+          data-lens={lens.key}
+          className="input input--number input--percent"
+          min={0}
+          max={100}
+          step="any"
+          aria-label={`${label} probability`}
+          value={lens.p}
+          aria-invalid={errors.p ? true : undefined}
+          aria-describedby={[describedBy(pId, undefined, errors.p), hasPercentAdvice(lens.p) ? `${pId}-advice` : ''].filter(Boolean).join(' ') || undefined}
+          onKeyDown={commaAsPoint}
+          onPaste={pastedPercentText}
+          onInput={unreadableP.onInput}
+          onBlur={unreadableP.onBlur}
+          onChange={(event) => onChange(lens.key, 'p', event.target.value)}
+        />
+        <span className="input-suffix" aria-hidden="true">
+          %
+        </span>
+      </span>
+      <input
+        type="number"
+        inputMode="decimal"
+        id={weightId}
+        className="input input--number lens-grid__weight"
+        min={0}
+        step="any"
+        aria-label={`${label} weight`}
+        value={lens.weight}
+        aria-invalid={errors.weight ? true : undefined}
+        aria-describedby={describedBy(weightId, undefined, errors.weight)}
+        onInput={unreadableWeight.onInput}
+        onBlur={unreadableWeight.onBlur}
+        onChange={(event) => onChange(lens.key, 'weight', event.target.value)}
+      />
+      <Button size="sm" variant="ghost" className="btn--danger-text" onClick={() => onRemove(lens.key)} aria-label={`Remove ${label.toLowerCase()}${lens.name.trim() ? ` (${lens.name.trim()})` : ''}`}>
+        Remove
+      </Button>
+      <div className="lens-grid__errors">
+        <FieldError id={`${nameId}-error`} message={errors.name} />
+        <FieldError id={`${pId}-error`} message={errors.p} />
+        <PercentAdvice value={lens.p} onChange={(value) => onChange(lens.key, 'p', value)} id={`${pId}-advice`} boxId={pId} />
+        <FieldError id={`${weightId}-error`} message={errors.weight} />
+      </div>
+    </li>
   );
 }

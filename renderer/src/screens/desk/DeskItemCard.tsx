@@ -19,6 +19,7 @@ import { TextArea } from '../../components/TextArea';
 import { TextField } from '../../components/TextField';
 import { useForm } from '../../forms';
 import type { TypedQuestion } from '../question/TypedEntryDialog';
+import type { TypedInDialog } from '../question/questionForms';
 import { formatPercent, percentText, percentToProbability } from '../../percent';
 import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
 import { hrefTo, questionPath } from '../../routing';
@@ -54,12 +55,14 @@ type Panel = 'none' | 'note' | 'revise' | 'snooze';
 /**
  * A yes/no card's typed text: the resolution note and the revision's number and note, and
  * the panel they were in. Undoing a resolution or a revision made from the card brings the
- * question back with them, not with empty boxes (typed text is never thrown away).
+ * question back with them, not with empty boxes (typed text is never thrown away). A choice
+ * or numeric card keeps what its dialog held instead, and opens that dialog again with it.
  */
 export interface TypedOnCard {
   note: string;
   revision: RevisionDraft;
   panel: 'none' | 'note' | 'revise';
+  dialog?: TypedInDialog;
 }
 
 export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed, restored, onRestored }: Props) {
@@ -80,10 +83,10 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed, resto
   // leaves, moves, or stays with new facts), so a second click cannot repeat the action.
   useEffect(() => setBusy(false), [item]);
 
-  function finish(done: Done) {
+  function finish(done: Done, dialog?: TypedInDialog) {
     setBusy(true);
     setPanel('none');
-    onDone(item, done, { note, revision, panel: panel === 'snooze' ? 'none' : panel });
+    onDone(item, done, { note, revision, panel: panel === 'snooze' ? 'none' : panel, ...(dialog ? { dialog } : {}) });
   }
 
   /** Runs an answer; null from it means the user stopped at a warning, and nothing changed. */
@@ -119,7 +122,7 @@ export function DeskItemCard({ item, now, diaryTimeZone, onDone, onFailed, resto
       </div>
       <div className="desk-item__actions">
         {item.type !== 'binary' ? (
-          <TypedDeskActions item={item} q={typed} toResolve={toResolve} disabled={busy} onDone={finish} />
+          <TypedDeskActions item={item} q={typed} toResolve={toResolve} disabled={busy} onDone={finish} restored={restored?.dialog} />
         ) : toResolve ? (
           <ResolveButtons
             item={item}

@@ -13,6 +13,7 @@ import { Button } from '../../components/Button';
 import { choiceSummary, numericSummary } from '../../questionTypes/summaries';
 import { TypedEntryDialog, type TypedQuestion } from '../question/TypedEntryDialog';
 import { TypedResolveDialog } from '../question/TypedResolveDialog';
+import type { TypedInDialog } from '../question/questionForms';
 import { latestEntry } from '../question/typedFacts';
 import type { Done } from './DeskItemCard';
 import type { DeskItem } from './items';
@@ -39,17 +40,27 @@ export function TypedDeskActions({
   toResolve,
   disabled,
   onDone,
+  restored,
 }: {
   item: DeskItem;
   q: TypedQuestion | undefined;
   toResolve: boolean;
   disabled: boolean;
-  onDone: (done: Done) => void;
+  /** `typed`: what the dialog held, to give back if the change is undone. */
+  onDone: (done: Done, typed?: TypedInDialog) => void;
+  /** What a dialog held when its change was undone: that dialog opens again with it, once the question is read. */
+  restored?: TypedInDialog | undefined;
 }) {
-  const [dialog, setDialog] = useState<'revise' | 'resolve' | null>(null);
-  const saved = (message: string, undo: string) => {
+  // Given back once: a dialog closed after it (saved, or its changes discarded) opens afresh.
+  const [kept, setKept] = useState(restored);
+  const [dialog, setDialog] = useState<'revise' | 'resolve' | null>(restored ? (restored.form === 'typed-resolve' ? 'resolve' : 'revise') : null);
+  const close = () => {
     setDialog(null);
-    onDone({ message: `“${item.title}”: ${message}`, undo: [undo] });
+    setKept(undefined);
+  };
+  const saved = (message: string, undo: string, typed?: TypedInDialog) => {
+    close();
+    onDone({ message: `“${item.title}”: ${message}`, undo: [undo] }, typed);
   };
   return (
     <>
@@ -58,8 +69,8 @@ export function TypedDeskActions({
       </Button>
       {q ? (
         <>
-          <TypedEntryDialog question={q} mode="forecast" open={dialog === 'revise'} onClose={() => setDialog(null)} onSaved={saved} />
-          <TypedResolveDialog question={q} open={dialog === 'resolve'} onClose={() => setDialog(null)} onSaved={saved} />
+          <TypedEntryDialog question={q} mode="forecast" open={dialog === 'revise'} onClose={close} onSaved={saved} restored={kept} />
+          <TypedResolveDialog question={q} open={dialog === 'resolve'} onClose={close} onSaved={saved} restored={kept} />
         </>
       ) : null}
     </>

@@ -25,6 +25,7 @@ import { HindsightFilters } from './HindsightFilters';
 import { TypedEntrySections } from './TypedEntryCards';
 import { DEFAULT_THRESHOLD_PERCENT, INITIAL_SELECTION, buildSelection, decodeSelection, encodeSelection, type HindsightSelection } from './selection';
 import { confidentMeaning, wholePercent } from './wording';
+import { viewTotals } from '../scorecard/format';
 import './hindsight.css';
 import { formatCount, plural } from '../../dates';
 
@@ -130,6 +131,7 @@ export function HindsightScreen() {
       {loaded.data ? (
         <HindsightBody
           hindsight={loaded.data.hindsight}
+          request={settled.request}
           selection={settled.selection}
           timeZone={timeZone}
           onMore={(list) => setShown((n) => ({ ...n, [list]: Math.min(LIST_PAGE_MAX, n[list] + ENTRY_PAGE) }))}
@@ -158,6 +160,8 @@ function describeSelection(selection: HindsightSelection): string {
 
 interface BodyProps {
   hindsight: Hindsight;
+  /** The request the entries answer: its tag and dates choose the questions counted. */
+  request: Request<'hindsight'>;
   selection: HindsightSelection;
   timeZone: string;
   onMore: (list: keyof Shown) => void;
@@ -166,7 +170,23 @@ interface BodyProps {
 
 
 
-function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyProps) {
+/**
+ * "Here: 2 open, …" over every type, as the Scorecard counts them: the review's own counts are
+ * yes/no only, and a diary of choice questions read "0 open". Read from the same selection's scorecard.
+ */
+function ViewCounts({ request }: { request: Request<'hindsight'> }) {
+  const { tag, from, to } = request;
+  const loaded = useLoad(() => api.score({ ...(tag ? { tag } : {}), ...(from ? { from } : {}), ...(to ? { to } : {}) }), [tag, from, to]);
+  if (!loaded.data) return null;
+  const totals = viewTotals(loaded.data.report);
+  return (
+    <p data-testid="hindsight-here">
+      Here: {formatCount(totals.open)} open, {formatCount(totals.unscored)} resolved without a forecast before the window ended, {formatCount(totals.void)} void.
+    </p>
+  );
+}
+
+function HindsightBody({ hindsight, request, selection, timeZone, onMore, busy }: BodyProps) {
   const { report, threshold, entries } = hindsight;
   const moreButton = <ShowMore shown={hindsight.offset + entries.length} total={hindsight.misses + hindsight.hits} page={ENTRY_PAGE} onMore={() => onMore('binary')} busy={busy} cap={CAP} />;
   const filtered = selection.tag !== '' || selection.from !== '' || selection.to !== '';
@@ -179,9 +199,7 @@ function HindsightBody({ hindsight, selection, timeZone, onMore, busy }: BodyPro
           n = 0 scored questions{filtered ? ` (${describeSelection(selection)})` : ''}. Hindsight needs resolved questions with a forecast made
           before their window closed.
         </p>
-        <p>
-          Here: {report.open} open, {report.unscored} resolved without a forecast before the window ended, {report.void} void.
-        </p>
+        <ViewCounts request={request} />
       </EmptyState>
     );
   }

@@ -73,6 +73,9 @@ export function QuestionScreen({ params }: ScreenProps) {
 function QuestionPage({ question: q, settings }: { question: BinaryQuestion; settings: Settings }) {
   const actions = useQuestionActions(q);
   const { dialog, close, saved, pendingDelete } = actions;
+  // A dialog reopened by an Undo starts from the question as the undo left it.
+  const back = actions.restoredQuestion;
+  const dq = back && back.type === 'binary' ? back : q;
   const status = questionStatus(Date.parse(q.closes_at), q.resolution?.outcome ?? null, Date.now(), settings.closing_soon_hours);
   const last = lastForecast(q);
   const lastReference = [...q.references].sort((a, b) => Date.parse(a.at) - Date.parse(b.at)).at(-1);
@@ -145,9 +148,9 @@ function QuestionPage({ question: q, settings }: { question: BinaryQuestion; set
         }
       />
 
-      <ReviseDialog question={q} open={dialog === 'revise'} onClose={close} onSaved={saved} />
-      <ReferenceDialog question={q} open={dialog === 'reference'} onClose={close} onSaved={saved} />
-      <ResolveDialog question={q} open={dialog === 'resolve'} onClose={close} onSaved={saved} />
+      <ReviseDialog question={dq} open={dialog === 'revise'} onClose={close} onSaved={saved} restored={actions.restored('revise')} />
+      <ReferenceDialog question={dq} open={dialog === 'reference'} onClose={close} onSaved={saved} restored={actions.restored('reference')} />
+      <ResolveDialog question={dq} open={dialog === 'resolve'} onClose={close} onSaved={saved} restored={actions.restored('resolve')} />
       <EditDialog question={q} open={dialog === 'edit'} onClose={close} onSaved={saved} />
       <QuestionConfirmations
         q={q}

@@ -19,13 +19,22 @@ export const ReferenceDialog = questionDialog(ReferenceForm, (question) => ({ ti
 const LABELS = { p: 'Their probability', source: 'Source', at: 'As of' };
 const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
-function ReferenceForm({ question, onClose, onSaved }: QuestionFormProps<Question>) {
+/** What the yes/no reference form held when it saved (questionForms.tsx, `TypedInDialog`). */
+export interface ReferenceTyped {
+  form: 'reference';
+  p: string;
+  source: string;
+  atLocal: string;
+}
+
+function ReferenceForm({ question, onClose, onSaved, restored }: QuestionFormProps<Question>) {
+  const mine = restored?.form === 'reference' ? restored : undefined;
   const form = useForm();
   const cancel = useCloseRequest(onClose);
   const listId = useId();
-  const [p, setP] = useState('');
-  const [source, setSource] = useState('');
-  const [atLocal, setAtLocal] = useState('');
+  const [p, setP] = useState(mine?.p ?? '');
+  const [source, setSource] = useState(mine?.source ?? '');
+  const [atLocal, setAtLocal] = useState(mine?.atLocal ?? '');
   const knownSources = [...new Set(question.references.map((r) => r.source))];
   const dirty = p !== '' || source !== '' || atLocal !== '';
 
@@ -46,7 +55,7 @@ function ReferenceForm({ question, onClose, onSaved }: QuestionFormProps<Questio
     const ok = await form.submit(async () => {
       undo = (await api.addReference(request)).undo;
     }, PLACEMENT);
-    if (ok) onSaved(`Added ${source.trim()}’s ${p.trim()}%.`, undo);
+    if (ok) onSaved(`Added ${source.trim()}’s ${p.trim()}%.`, undo, { form: 'reference', p, source, atLocal });
   }
 
   return (

@@ -15,7 +15,7 @@ import { Form } from '../../components/Form';
 import { OUTCOME_HINTS, OutcomeIcon } from '../../components/OutcomeMark';
 import { OUTCOME_LABELS } from '../../components/StatusPill';
 import { useForm } from '../../forms';
-import { questionDialog, type QuestionFormProps, ResolutionNoteFields, resolveDialogFrame, useResolutionNotes, useSendResolution } from './questionForms';
+import { type NotesTyped, questionDialog, type QuestionFormProps, ResolutionNoteFields, resolveDialogFrame, useResolutionNotes, useSendResolution } from './questionForms';
 
 const OUTCOME_CHOICES = (['yes', 'no', 'void'] as const).map((outcome) => ({
   value: outcome,
@@ -29,13 +29,21 @@ const PLACEMENT = { fields: Object.keys(LABELS), labels: LABELS };
 
 export const ResolveDialog = questionDialog(ResolveForm, resolveDialogFrame);
 
-function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<BinaryQuestion>) {
+/** What the yes/no resolve form held when it saved (questionForms.tsx, `TypedInDialog`). */
+export interface ResolveTyped {
+  form: 'resolve';
+  outcome: Outcome | '';
+  notes: NotesTyped;
+}
+
+function ResolveForm({ question, onClose, onSaved, restored }: QuestionFormProps<BinaryQuestion>) {
   const form = useForm();
   const send = useSendResolution(form, PLACEMENT);
   const cancel = useCloseRequest(onClose);
   const current = question.resolution;
-  const notes = useResolutionNotes(question);
-  const [outcome, setOutcome] = useState<Outcome | ''>(current?.outcome ?? '');
+  const mine = restored?.form === 'resolve' ? restored : undefined;
+  const notes = useResolutionNotes(question, mine?.notes);
+  const [outcome, setOutcome] = useState<Outcome | ''>(mine?.outcome ?? current?.outcome ?? '');
   const dirty = outcome !== (current?.outcome ?? '') || notes.dirty;
 
   async function onSubmit(event: FormEvent) {
@@ -47,7 +55,8 @@ function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<BinaryQue
     if (!form.check(found, { schema: resolveRequest, request, placement: PLACEMENT }) || outcome === '') return;
     const chosen = outcome;
     const undo = await send(`Resolve ${OUTCOME_LABELS[chosen]} anyway`, (confirm) => api.resolveQuestion({ ...request, outcome: chosen, ...(confirm ? { confirm } : {}) }));
-    if (undo !== null) onSaved(current ? `Resolution corrected to ${OUTCOME_LABELS[chosen]}.` : `Resolved ${OUTCOME_LABELS[chosen]}.`, undo);
+    if (undo !== null)
+      onSaved(current ? `Resolution corrected to ${OUTCOME_LABELS[chosen]}.` : `Resolved ${OUTCOME_LABELS[chosen]}.`, undo, { form: 'resolve', outcome, notes: notes.typed() });
   }
 
   return (

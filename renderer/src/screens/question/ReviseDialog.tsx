@@ -27,15 +27,26 @@ export const ReviseDialog = questionDialog(ReviseForm, (question) => ({ title: '
 const LABELS = { p: 'Your probability', note: 'What changed', at: 'As of', lenses: 'Lenses' };
 const PLACEMENT = { fields: ['p', 'note', 'at'], labels: LABELS };
 
-function ReviseForm({ question, onClose, onSaved }: QuestionFormProps<BinaryQuestion>) {
+/** What the yes/no revise form held when it saved (questionForms.tsx, `TypedInDialog`). */
+export interface ReviseTyped {
+  form: 'revise';
+  p: string;
+  note: string;
+  atLocal: string;
+  lenses: LensDraft[];
+  extremize: string;
+}
+
+function ReviseForm({ question, onClose, onSaved, restored }: QuestionFormProps<BinaryQuestion>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
+  const mine = restored?.form === 'revise' ? restored : undefined;
   const [initialP] = useState(() => percentText(lastForecast(question)?.p));
-  const [p, setP] = useState(initialP);
-  const [note, setNote] = useState('');
-  const [atLocal, setAtLocal] = useState('');
-  const [lenses, setLenses] = useState<LensDraft[]>([]);
-  const [extremize, setExtremize] = useState('1');
+  const [p, setP] = useState(mine?.p ?? initialP);
+  const [note, setNote] = useState(mine?.note ?? '');
+  const [atLocal, setAtLocal] = useState(mine?.atLocal ?? '');
+  const [lenses, setLenses] = useState<LensDraft[]>(mine?.lenses ?? []);
+  const [extremize, setExtremize] = useState(mine?.extremize ?? '1');
   const stated = percentToProbability(p);
   const dirty = p !== initialP || note !== '' || atLocal !== '' || lenses.length > 0 || extremize !== '1';
 
@@ -63,7 +74,7 @@ function ReviseForm({ question, onClose, onSaved }: QuestionFormProps<BinaryQues
     const ok = await form.submit(async () => {
       undo = (await api.addForecast(request)).undo;
     }, PLACEMENT);
-    if (ok) onSaved(`Revised to ${p.trim()}%.`, undo);
+    if (ok) onSaved(`Revised to ${p.trim()}%.`, undo, { form: 'revise', p, note, atLocal, lenses, extremize });
   }
 
   return (

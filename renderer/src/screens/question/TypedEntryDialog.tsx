@@ -33,11 +33,21 @@ interface Props extends QuestionDialogProps<TypedQuestion> {
   mode: 'forecast' | 'reference';
 }
 
-export function TypedEntryDialog({ question, mode, open, onClose, onSaved }: Props) {
+/** What the choice/numeric revise or reference form held when it saved (questionForms.tsx, `TypedInDialog`). */
+export interface TypedEntryTyped {
+  form: 'typed-entry';
+  mode: Props['mode'];
+  texts: string[];
+  note: string;
+  source: string;
+  atLocal: string;
+}
+
+export function TypedEntryDialog({ question, mode, open, onClose, onSaved, restored }: Props) {
   const title = mode === 'forecast' ? 'Revise your forecast' : 'Add a reference forecast';
   return (
     <Dialog open={open} onClose={onClose} title={title} description={question.title}>
-      <EntryForm question={question} mode={mode} onClose={onClose} onSaved={onSaved} />
+      <EntryForm question={question} mode={mode} onClose={onClose} onSaved={onSaved} restored={restored} />
     </Dialog>
   );
 }
@@ -55,14 +65,16 @@ function initialTexts(question: TypedQuestion, mode: Props['mode']): string[] {
   });
 }
 
-function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
+function EntryForm({ question, mode, onClose, onSaved, restored }: Omit<Props, 'open'>) {
   const form = useForm();
   const cancel = useCloseRequest(onClose);
+  // Boxes given back only to the same kind of entry, with one per option or level as now.
+  const mine = restored?.form === 'typed-entry' && restored.mode === mode ? restored : undefined;
   const [initial] = useState(() => initialTexts(question, mode));
-  const [texts, setTexts] = useState(initial);
-  const [note, setNote] = useState('');
-  const [source, setSource] = useState('');
-  const [atLocal, setAtLocal] = useState('');
+  const [texts, setTexts] = useState(mine && mine.texts.length === initial.length ? mine.texts : initial);
+  const [note, setNote] = useState(mine?.note ?? '');
+  const [source, setSource] = useState(mine?.source ?? '');
+  const [atLocal, setAtLocal] = useState(mine?.atLocal ?? '');
   const [problems, setProblems] = useState<ChoiceProblems | NumericProblems | undefined>(undefined);
   // Typed into since the last save attempt: the form's reason for the boxes is stale then.
   const [edited, setEdited] = useState(false);
@@ -101,10 +113,11 @@ function EntryForm({ question, mode, onClose, onSaved }: Omit<Props, 'open'>) {
       undo = (mode === 'forecast' ? await api.addForecast({ ...common, note }) : await api.addReference({ ...common, source })).undo;
     }, placement);
     if (!ok) return;
-    if (mode === 'reference') onSaved(`Reference from ${source.trim()}: ${entryText(question, value)}.`, undo);
+    const typed: TypedEntryTyped = { form: 'typed-entry', mode, texts, note, source, atLocal };
+    if (mode === 'reference') onSaved(`Reference from ${source.trim()}: ${entryText(question, value)}.`, undo, typed);
     // The same numbers now confirm the forecast: said as the yes/no Desk says it.
-    else if (!at && repeatsLatest(question, value)) onSaved(`Kept at ${entryText(question, value)}; check-in done.`, undo);
-    else onSaved(`Revised to ${entryText(question, value)}.`, undo);
+    else if (!at && repeatsLatest(question, value)) onSaved(`Kept at ${entryText(question, value)}; check-in done.`, undo, typed);
+    else onSaved(`Revised to ${entryText(question, value)}.`, undo, typed);
   }
 
   // The contract's or the service's reason for the whole vector shows under the boxes.

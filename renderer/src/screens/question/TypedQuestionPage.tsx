@@ -37,6 +37,9 @@ function latestText(q: TypedQuestion, of: 'forecasts' | 'references'): string {
 export function TypedQuestionPage({ question: q, settings }: { question: TypedQuestion; settings: Settings }) {
   const actions = useQuestionActions(q);
   const { dialog, close, saved } = actions;
+  // A dialog reopened by an Undo starts from the question as the undo left it.
+  const back = actions.restoredQuestion;
+  const dq = back && back.type !== 'binary' ? back : q;
   const status = questionStatus(Date.parse(q.closes_at), q.resolution?.outcome ?? null, Date.now(), settings.closing_soon_hours);
   const zone = q.time_zone;
   const lastForecast = q.type === 'choice' ? latestEntry(q.forecasts) : latestEntry(q.forecasts);
@@ -126,9 +129,9 @@ export function TypedQuestionPage({ question: q, settings }: { question: TypedQu
         }
       />
 
-      <TypedEntryDialog question={q} mode="forecast" open={dialog === 'revise'} onClose={close} onSaved={saved} />
-      <TypedEntryDialog question={q} mode="reference" open={dialog === 'reference'} onClose={close} onSaved={saved} />
-      <TypedResolveDialog question={q} open={dialog === 'resolve'} onClose={close} onSaved={saved} />
+      <TypedEntryDialog question={dq} mode="forecast" open={dialog === 'revise'} onClose={close} onSaved={saved} restored={actions.restored('revise')} />
+      <TypedEntryDialog question={dq} mode="reference" open={dialog === 'reference'} onClose={close} onSaved={saved} restored={actions.restored('reference')} />
+      <TypedResolveDialog question={dq} open={dialog === 'resolve'} onClose={close} onSaved={saved} restored={actions.restored('resolve')} />
       <TypedEditDialog question={q} open={dialog === 'edit'} onClose={close} onSaved={saved} />
       <QuestionConfirmations
         q={q}

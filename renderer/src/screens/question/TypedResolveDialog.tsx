@@ -16,7 +16,7 @@ import { Form } from '../../components/Form';
 import { NumberField } from '../../components/NumberField';
 import { formatValue, readValue } from '../../forecastEntry/numericEntry';
 import { useForm } from '../../forms';
-import { questionDialog, type QuestionFormProps, ResolutionNoteFields, resolveDialogFrame, useResolutionNotes, useSendResolution } from './questionForms';
+import { type NotesTyped, questionDialog, type QuestionFormProps, ResolutionNoteFields, resolveDialogFrame, useResolutionNotes, useSendResolution } from './questionForms';
 import type { TypedQuestion } from './TypedEntryDialog';
 
 const LABELS = { outcome: 'Outcome', option: 'Outcome', value: 'Value', at: 'Resolved at', note: 'Note', correction_note: 'Why the correction' };
@@ -32,18 +32,27 @@ function initialChoice(question: TypedQuestion): string {
   return r.outcome === 'option' ? String(r.option) : 'value';
 }
 
-function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<TypedQuestion>) {
+/** What the choice/numeric resolve form held when it saved (questionForms.tsx, `TypedInDialog`). */
+export interface TypedResolveTyped {
+  form: 'typed-resolve';
+  choice: string;
+  valueText: string;
+  notes: NotesTyped;
+}
+
+function ResolveForm({ question, onClose, onSaved, restored }: QuestionFormProps<TypedQuestion>) {
   const form = useForm();
   const send = useSendResolution(form, PLACEMENT);
   const cancel = useCloseRequest(onClose);
   const current = question.resolution;
-  const notes = useResolutionNotes(question);
+  const mine = restored?.form === 'typed-resolve' ? restored : undefined;
+  const notes = useResolutionNotes(question, mine?.notes);
   const [initial] = useState(() => ({
     choice: initialChoice(question),
     value: current?.outcome === 'value' ? String(current.value) : '',
   }));
-  const [choice, setChoice] = useState(initial.choice);
-  const [valueText, setValueText] = useState(initial.value);
+  const [choice, setChoice] = useState(mine?.choice ?? initial.choice);
+  const [valueText, setValueText] = useState(mine?.valueText ?? initial.value);
   const dirty = choice !== initial.choice || valueText !== initial.value || notes.dirty;
 
   const choices =
@@ -78,7 +87,8 @@ function ResolveForm({ question, onClose, onSaved }: QuestionFormProps<TypedQues
     const undo = await send(`Resolve ${outcomeText(question, chosen)} anyway`, (confirm) =>
       api.resolveQuestion({ id: question.id, ...chosen, ...extra, ...(confirm ? { confirm } : {}) }),
     );
-    if (undo !== null) onSaved(`${current ? 'Resolution corrected to' : 'Resolved:'} ${outcomeText(question, chosen)}.`, undo);
+    if (undo !== null)
+      onSaved(`${current ? 'Resolution corrected to' : 'Resolved:'} ${outcomeText(question, chosen)}.`, undo, { form: 'typed-resolve', choice, valueText, notes: notes.typed() });
   }
 
   return (

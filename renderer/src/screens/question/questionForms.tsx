@@ -16,13 +16,33 @@ import { isoToLocal, localToIso } from '../../dates';
 import { sendAskingFirst, useAskFirst } from '../../forgiving/AskFirst';
 import { typedTimeProblem } from '../../forgiving/timeChecks';
 import type { FieldPlacement, FormState } from '../../forms';
+import type { ReferenceTyped } from './ReferenceDialog';
+import type { ResolveTyped } from './ResolveDialog';
+import type { ReviseTyped } from './ReviseDialog';
+import type { TypedEntryTyped } from './TypedEntryDialog';
+import type { TypedResolveTyped } from './TypedResolveDialog';
 
 export interface QuestionDialogProps<Q> {
   question: Q;
   open: boolean;
   onClose: () => void;
-  /** What was done, and the token that undoes it. */
-  onSaved: (message: string, undo: string) => void;
+  /** What was done, the token that undoes it, and what the form held, to give back if it is undone. */
+  onSaved: (message: string, undo: string, typed?: TypedInDialog) => void;
+  /** What the form held when a save from it was undone: the form starts from it, not from the question. */
+  restored?: TypedInDialog | undefined;
+}
+
+/**
+ * What a revise, reference or resolve form held when it saved, by form. Undoing that save opens the form
+ * again with it (typed text is never thrown away); each form takes up only its own kind.
+ */
+export type TypedInDialog = TypedEntryTyped | TypedResolveTyped | ReviseTyped | ResolveTyped | ReferenceTyped;
+
+/** A resolve form's time, note and why a correction; `atLocal` null when the time was left as shown. */
+export interface NotesTyped {
+  atLocal: string | null;
+  note: string;
+  why: string;
 }
 
 /** What a dialog's form is given: the dialog's props but whether it is open (it exists only while open). */
@@ -30,13 +50,13 @@ export type QuestionFormProps<Q> = Omit<QuestionDialogProps<Q>, 'open'>;
 
 /**
  * A question dialog around its form. The form is mounted as the dialog opens, so it starts
- * from the question as it is then, and nothing typed survives a close.
+ * from the question as it is then (or from `restored`), and nothing typed survives a close.
  */
 export function questionDialog<Q>(QuestionForm: (props: QuestionFormProps<Q>) => ReactNode, frame: (question: Q) => { title: string; description?: string; size?: 'lg' }) {
-  return function QuestionDialog({ question, open, onClose, onSaved }: QuestionDialogProps<Q>) {
+  return function QuestionDialog({ question, open, onClose, onSaved, restored }: QuestionDialogProps<Q>) {
     return (
       <Dialog open={open} onClose={onClose} {...frame(question)}>
-        <QuestionForm question={question} onClose={onClose} onSaved={onSaved} />
+        <QuestionForm question={question} onClose={onClose} onSaved={onSaved} restored={restored} />
       </Dialog>
     );
   };
@@ -113,13 +133,13 @@ export async function saveQuestionChanges({ form, id, changes, found, placement,
   if (ok) onSaved('Question saved.', undo);
 }
 
-/** When the question resolved, the note and why a correction, as typed in the resolve dialog. */
-export function useResolutionNotes(question: Question) {
+/** When the question resolved, the note and why a correction, as typed in the resolve dialog (or as `restored` holds them). */
+export function useResolutionNotes(question: Question, restored?: NotesTyped) {
   const current = question.resolution;
   const [initialLocal] = useState(() => isoToLocal(current?.at ?? new Date().toISOString(), question.time_zone));
-  const [atLocal, setAtLocal] = useState(initialLocal);
-  const [note, setNote] = useState(current?.note ?? '');
-  const [why, setWhy] = useState('');
+  const [atLocal, setAtLocal] = useState(restored?.atLocal ?? initialLocal);
+  const [note, setNote] = useState(restored?.note ?? current?.note ?? '');
+  const [why, setWhy] = useState(restored?.why ?? '');
 
   /**
    * The time to send, with its problems put in `found`. The box shows minutes only. Left as
@@ -146,6 +166,8 @@ export function useResolutionNotes(question: Question) {
     setWhy,
     dirty: atLocal !== initialLocal || note !== (current?.note ?? '') || why !== '',
     readAt,
+    /** The boxes as typed, to give back if the resolution is undone. */
+    typed: (): NotesTyped => ({ atLocal: atLocal === initialLocal ? null : atLocal, note, why }),
     /** What the request carries besides the outcome. */
     extra: (at: string | null) => ({ note, ...(at ? { at } : {}), ...(current && why.trim() ? { correction_note: why } : {}) }),
   };

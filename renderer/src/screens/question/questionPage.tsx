@@ -4,7 +4,8 @@
  * toast whose Undo takes it back; the head with its actions; the resolution panel; the key
  * figures; the facts every question has; the history section; and the confirmations.
  */
-import { useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
+import type { UndoResult } from '../../../../shared/contract';
 import type { Question, QuestionStatus, Settings } from '../../../../shared/domain';
 import { api } from '../../api/client';
 import { diaryChanged } from '../../api/changes';
@@ -17,6 +18,7 @@ import { formatInstant, zoneName } from '../../dates';
 import { useUndoToast } from '../../forgiving/undo';
 import { hrefTo, navigate, questionPath } from '../../routing';
 import { reopenWording } from './questionFacts';
+import type { TypedInDialog } from './questionForms';
 
 type DialogName = 'revise' | 'reference' | 'resolve' | 'edit' | 'delete' | 'reopen';
 type PendingDelete = { kind: 'forecast' | 'reference'; id: string } | null;
@@ -27,12 +29,43 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at
   const [dialog, setDialog] = useState<DialogName | null>(null);
   const [pendingDelete, setPendingDelete] = useState<PendingDelete>(null);
   const [reopenNote, setReopenNote] = useState('');
+  // A dialog opened again by an Undo: what it held, and the question as the undo left it (the
+  // page's own copy is reloaded only after), so the form starts from both.
+  const [restoring, setRestoring] = useState<{ dialog: DialogName; typed: TypedInDialog; question: Question } | null>(null);
+  // Whether anything is open when an Undo comes: it never closes a dialog in use.
+  const busy = useRef(false);
+  useEffect(() => {
+    busy.current = dialog !== null || pendingDelete !== null;
+  }, [dialog, pendingDelete]);
 
-  function saved(message: string, undo: string) {
+  /** Says what was done, with its Undo; `again` gives back what was typed once it is undone, unless a dialog is in use by then. */
+  function announce(message: string, undo: string, again?: (result: UndoResult) => void) {
     setDialog(null);
+    setRestoring(null);
     setPendingDelete(null);
     diaryChanged();
-    undoToast({ message, undo, title: q.title });
+    const afterUndo = again
+      ? (result: UndoResult) => {
+          if (!busy.current) again(result);
+        }
+      : undefined;
+    undoToast({ message, undo, title: q.title, ...(afterUndo ? { afterUndo } : {}) });
+  }
+
+  function saved(message: string, undo: string, typed?: TypedInDialog) {
+    const from = dialog;
+    // Undoing a revision or a resolution opens its dialog again with what was typed (typed text is never thrown away).
+    announce(
+      message,
+      undo,
+      typed && from
+        ? (result) => {
+            if (!result.question) return;
+            setRestoring({ dialog: from, typed, question: result.question });
+            setDialog(from);
+          }
+        : undefined,
+    );
   }
 
   async function deleteQuestion() {
@@ -51,15 +84,27 @@ export function useQuestionActions(q: Pick<Question, 'id' | 'title' | 'closes_at
   }
 
   async function reopen() {
-    const { undo } = await api.reopenQuestion({ id: q.id, ...(reopenNote.trim() ? { note: reopenNote } : {}) });
+    const note = reopenNote;
+    const { undo } = await api.reopenQuestion({ id: q.id, ...(note.trim() ? { note } : {}) });
     setReopenNote('');
-    saved(reopenWording(q, Date.now()).done, undo);
+    // Undone, the question is resolved again and the confirmation opens again with why, as typed.
+    announce(reopenWording(q, Date.now()).done, undo, () => {
+      setReopenNote(note);
+      setDialog('reopen');
+    });
   }
 
   return {
     dialog,
     open: setDialog,
-    close: () => setDialog(null),
+    close: () => {
+      setDialog(null);
+      setRestoring(null);
+    },
+    /** What the dialog `name` is given back after an Undo, if it is the one reopened. */
+    restored: (name: DialogName) => (restoring?.dialog === name ? restoring.typed : undefined),
+    /** The question as the Undo that reopened a dialog left it; null otherwise. */
+    restoredQuestion: restoring?.question ?? null,
     pendingDelete,
     setPendingDelete,
     reopenNote,

@@ -33,6 +33,7 @@ import { RocChart } from './RocChart';
 import { RunningBrierChart } from './RunningBrierChart';
 import { SkillBars } from './SkillBars';
 import { useScorecard } from './useScorecard';
+import { viewTotals } from './format';
 import './scorecard.css';
 import { formatCount } from '../../dates';
 
@@ -99,8 +100,8 @@ interface BodyProps {
 function ScorecardBody({ card, filtered, timeZone, settings, filter, problems, whatIf, onWhatIf }: BodyProps) {
   const { report, detail, leads } = card;
   const inView = (r: { scored: number; unscored: number; void: number; open: number }) => r.scored + r.unscored + r.void + r.open > 0;
-  const all = [report, report.choice, report.numeric];
-  const total = (key: 'scored' | 'unscored' | 'void' | 'open') => all.reduce((sum, r) => sum + r[key], 0);
+  const totals = viewTotals(report);
+  const total = (key: keyof typeof totals) => totals[key];
   // Each type gets its sections when the view holds questions of it; yes/no comes first.
   const typed = (
     <>

@@ -4,7 +4,15 @@
  * headline, the tables, the chart tooltips and Hindsight never disagree about how a figure
  * is written.
  */
+import type { ScoreJson } from '../../../../shared/contract';
 import { formatCount, userLocale } from '../../dates';
+
+/** How many questions a view holds by standing, every type together: what "Here: 2 open, …" counts. */
+export function viewTotals(report: ScoreJson): Record<'scored' | 'unscored' | 'void' | 'open', number> {
+  const all = [report, report.choice, report.numeric];
+  const total = (key: 'scored' | 'unscored' | 'void' | 'open') => all.reduce((sum, r) => sum + r[key], 0);
+  return { scored: total('scored'), unscored: total('unscored'), void: total('void'), open: total('open') };
+}
 
 /** The typographic minus, so negative skill scores read as numbers and not as hyphens. */
 function signed(text: string): string {
