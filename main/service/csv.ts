@@ -31,7 +31,7 @@ import {
   type TypeShape,
 } from '../../shared/question-types';
 import { duplicateMember } from '../../shared/json-duplicates';
-import { DECIMAL_NUMBER } from '../../shared/numeric-value';
+import { DECIMAL_NUMBER, dateToDays } from '../../shared/numeric-value';
 import * as v from '../../shared/validation';
 import { CsvSyntaxError, readCsvRecords } from '../files/csv-records';
 
@@ -531,11 +531,29 @@ function numberList(text: string, row: number, column: string): number[] {
     });
 }
 
+/**
+ * Why one value of a date question's cell is not a date, naming it as written: the schema's
+ * message would give its place in a list the sheet never shows ("[1]") and call a number
+ * such as 16.5 "the text", since every cell is text.
+ */
+function dateCellProblem(t: string, hint: string): string | null {
+  if (dateToDays(t) !== null) return null;
+  const shown = t.length > 40 ? `${t.slice(0, 40)}…` : t;
+  return /^\d{4}-\d{2}-\d{2}$/.test(t)
+    ? `"${shown}" is not a real calendar date; ${hint}`
+    : `"${shown}" is not a date, and this question's values are dates; ${hint}`;
+}
+
 /** A cell of numeric values: numbers for a question about a number, dates YYYY-MM-DD for one about a date. */
 function valueList(text: string, row: number, column: string, shape: TypeShape): (number | string)[] {
   if (shape.type === 'numeric' && shape.value_kind === 'number') return numberList(text, row, column);
   const tokens = text.trim().split(/\s+/);
-  return shape.type === 'numeric' ? tokens : tokens.map((t) => (DECIMAL_NUMBER.test(t) ? Number(t) : t));
+  if (shape.type !== 'numeric') return tokens.map((t) => (DECIMAL_NUMBER.test(t) ? Number(t) : t));
+  for (const t of tokens) {
+    const problem = dateCellProblem(t, 'write each date as YYYY-MM-DD, separated by spaces, e.g. 2026-09-15 2026-10-20 2026-12-01');
+    if (problem) throw nothingImported(row, column, problem);
+  }
+  return tokens;
 }
 
 /** The type columns of one row, each checked with the diary file's rule for the field; undefined when empty. */
@@ -554,6 +572,8 @@ function readTypeCells(cell: Cell, row: number): Record<Extract<QuestionColumn, 
   if (ordered !== undefined && ordered !== 'true' && ordered !== 'false') throw nothingImported(row, 'ordered', `"${cell('ordered').trim()}" is not true or false`);
   const valueKind = trimmed('value_kind') === undefined ? undefined : check(v.valueKind, trimmed('value_kind')!.toLowerCase(), row, 'value_kind');
   const outcomeValue = trimmed('outcome_value');
+  const outcomeDateProblem = valueKind === 'date' && outcomeValue !== undefined ? dateCellProblem(outcomeValue, 'write the date as YYYY-MM-DD, e.g. 2026-09-15') : null;
+  if (outcomeDateProblem) throw nothingImported(row, 'outcome_value', outcomeDateProblem);
   return {
     type: trimmed('type') === undefined ? undefined : check(v.questionType, trimmed('type')!.toLowerCase(), row, 'type'),
     options: options === undefined ? undefined : check(v.options, optionList, row, 'options'),

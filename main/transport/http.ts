@@ -279,7 +279,15 @@ export async function startHttpServer(options: HttpServerOptions): Promise<Runni
 
   function serveStatic(req: http.IncomingMessage, res: http.ServerResponse, pathname: string): void {
     if (req.method !== 'GET' && req.method !== 'HEAD') {
-      res.writeHead(405, { Allow: 'GET, HEAD' }).end();
+      // Most often an API call with a misspelt prefix (/API/…): answer in the API's own
+      // shape, so a script reading the envelope learns what went wrong.
+      res.setHeader('Allow', 'GET, HEAD');
+      res.setHeader('Connection', 'close');
+      refuse(
+        res,
+        405,
+        `${pathname.slice(0, 100)} serves pages only (GET, HEAD); API calls are POST /api/<operation>, with /api/ in lower case. Nothing was changed.`,
+      );
       return;
     }
     let relative: string;

@@ -297,9 +297,8 @@ function collectSurprises<S extends Surprise>(set: NumericScoredSet, s: NumericS
     const high = set.q[off + c.upper]!;
     const y = set.y[i]!;
     if (y >= low && y <= high) continue;
-    const width = high - low;
     const q = set.questions[i]!;
-    const surprise: Surprise = { id: q.id, title: q.title, value: y, low, high, level: c.level, size: width === 0 ? null : (y < low ? low - y : y - high) / width };
+    const surprise: Surprise = { id: q.id, title: q.title, value: y, low, high, level: c.level, size: surpriseSize(y, low, high) };
     out.push(extra(i, surprise));
   }
   return out.sort((a, b) => {
@@ -309,6 +308,21 @@ function collectSurprises<S extends Surprise>(set: NumericScoredSet, s: NumericS
     }
     return b.size - a.size || byId(a, b);
   });
+}
+
+/**
+ * A surprise's size, distance outside ÷ width; null for a zero-width range. Near the ends of
+ * the double range (a file may hold any finite number) either difference can overflow: a
+ * width of 2e308 made the size 0, a surprise sized as none. A difference overflows only when
+ * both its operands are above about 1e292, far from the subnormals, so halving each is exact
+ * and leaves the ratio as it is.
+ */
+function surpriseSize(y: number, low: number, high: number): number | null {
+  const width = high - low;
+  if (width === 0) return null;
+  const distance = y < low ? low - y : y - high;
+  if (Number.isFinite(width) && Number.isFinite(distance)) return distance / width;
+  return (y < low ? low / 2 - y / 2 : y / 2 - high / 2) / (high / 2 - low / 2);
 }
 
 /** The surprises of `score --json`, in its members. */

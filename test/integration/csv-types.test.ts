@@ -175,7 +175,24 @@ test('each type rule is refused with its row and column, and nothing is imported
   );
   assert.equal(csvQuestions(csvText(row({ ...NUMERIC, ...F, quantiles: '10 10 20' })))[0]!.forecasts.length, 1, 'equal neighbours are allowed');
   refuses(csvText(row({ ...NUMERIC, ...F, quantiles: '10 20' })), `Row 2, column quantiles: must give one value per level (3), not 2${nothing}`, 2, 'quantiles');
-  refuses(csvText(row({ ...DATED, ...F, quantiles: '2026-07-01 2026-02-30 2026-08-01' })), `Row 2, column quantiles: [1]: must be a real calendar date YYYY-MM-DD (got "2026-02-30")${nothing}`, 2, 'quantiles');
+  // A date question's cell names the bad value as written, not by a list position the sheet never shows ("[1]"), and a
+  // number there is called what it is (it was called "must be a number, or a date", with got the text "1").
+  const DATES_HINT = 'write each date as YYYY-MM-DD, separated by spaces, e.g. 2026-09-15 2026-10-20 2026-12-01';
+  refuses(csvText(row({ ...DATED, ...F, quantiles: '2026-07-01 2026-02-30 2026-08-01' })), `Row 2, column quantiles: "2026-02-30" is not a real calendar date; ${DATES_HINT}${nothing}`, 2, 'quantiles');
+  refuses(csvText(row({ ...DATED, ...F, quantiles: '1 2 3' })), `Row 2, column quantiles: "1" is not a date, and this question's values are dates; ${DATES_HINT}${nothing}`, 2, 'quantiles');
+  refuses(csvText(row({ ...DATED, ...F, quantiles: '2026-07-01 2026-7-2 2026-08-01' })), `Row 2, column quantiles: "2026-7-2" is not a date, and this question's values are dates; ${DATES_HINT}${nothing}`, 2, 'quantiles');
+  refuses(
+    csvText(row({ ...DATED, reference_at: '2026-06-02T09:00:00.000Z', reference_source: 'plan', reference_quantiles: '2026-07-01 45000 2026-08-01' })),
+    `Row 2, column reference_quantiles: "45000" is not a date, and this question's values are dates; ${DATES_HINT}${nothing}`,
+    2,
+    'reference_quantiles',
+  );
+  refuses(
+    csvText(row({ ...DATED, outcome: 'value', outcome_value: '16.5', resolved_at: '2026-09-01T09:00:00.000Z' })),
+    `Row 2, column outcome_value: "16.5" is not a date, and this question's values are dates; write the date as YYYY-MM-DD, e.g. 2026-09-15${nothing}`,
+    2,
+    'outcome_value',
+  );
   refuses(csvText(row({ ...NUMERIC, ...F, quantiles: '2026-07-01 2026-07-02 2026-07-03' })), `Row 2, column quantiles: "2026-07-01" is not a number; separate the numbers with spaces and write each with a decimal point, e.g. 0.5 0.3 0.2${nothing}`, 2, 'quantiles');
   refuses(csvText(row({ ...NUMERIC, ...F, quantiles: '1 2 3', lenses: '[{"name":"outside view","p":0.3}]' })), `Row 2, column lenses: apply to yes/no questions only; this is a numeric question${nothing}`, 2, 'lenses');
   refuses(csvText(row({ ...NUMERIC, levels: '0.1 0.5' })), `Row 2, column levels: must be symmetric around 0.5: 0.1 needs 0.9${nothing}`, 2, 'levels');

@@ -256,3 +256,28 @@ test('a dispatch that throws or rejects gets a 500 answer, and the server keeps 
   const ok = await request(server.port, { path: '/api/fine', method: 'POST', headers, body: '{}' });
   assert.deepEqual(JSON.parse(ok.body), { ok: true, value: 3 });
 });
+
+test('a POST outside /api/ (wrong case, no slash) is refused with the JSON error shape, naming the path to use, and nothing is written', async () => {
+  const { d, server } = await setup();
+  const host = `127.0.0.1:${server.port}`;
+  const body = JSON.stringify({ title: 'Northgate signs', closes_at: '2099-01-01T00:00:00Z' });
+  for (const target of ['/API/createQuestion', '/Api/createQuestion', '/api', '/createQuestion']) {
+    const answer = await request(server.port, {
+      path: target,
+      method: 'POST',
+      headers: { Host: host, Authorization: `Bearer ${server.token}`, 'Content-Type': 'application/json' },
+      body,
+    });
+    assert.equal(answer.status, 405, target);
+    assert.equal(answer.headers.allow, 'GET, HEAD', target);
+    assert.match(answer.headers['content-type'] ?? '', /^application\/json/, target);
+    const envelope = JSON.parse(answer.body) as { ok: boolean; error: { code: string; message: string; fields: string[] } };
+    assert.equal(envelope.ok, false, target);
+    assert.equal(envelope.error.code, 'invalid', target);
+    assert.match(envelope.error.message, /POST \/api\/<operation>/, target);
+    assert.match(envelope.error.message, /Nothing was changed/, target);
+  }
+  const list = await d.service.dispatch('listQuestions', {});
+  assert.ok(list.ok);
+  assert.equal((list.value as { total: number }).total, 0);
+});

@@ -302,3 +302,33 @@ test('the scoring reader loads choice and numeric revisions as the numbers store
   const weeks = input.numeric.find((q) => q.id === ids.weeks)!;
   assert.deepEqual([weeks.unit, weeks.resolution], ['weeks', { outcome: 'value', value: 24.5, at: NOW - 3 * DAY }]);
 });
+
+test('a negative zero in a file (-0, -0.0) is kept as 0: export writes 0, and the same file merges again as unchanged', async () => {
+  // JSON and CSV allow "-0", but the diary keeps -0 and 0 as one number (they are equal, and
+  // SQLite stores them alike), so export writes 0 and a file from Forelog round-trips bit for
+  // bit; docs/diary-file.md says so. A merge must not call the hand-written file different.
+  const d = openTestDiary({ now: iso(NOW) });
+  const file = `{"format":"forelog-diary","version":1,"questions":[
+    {"id":"margin","type":"numeric","title":"Margin change","opened_at":"2026-01-01T00:00:00Z","closes_at":"2026-03-01T00:00:00Z",
+     "forecasts":[{"at":"2026-01-02T00:00:00Z","quantiles":[-1,-0,0.0]}],
+     "references":[{"at":"2026-01-02T00:00:00Z","quantiles":[-0.0,-0,1],"source":"plan"}],
+     "resolution":{"outcome":"value","value":-0,"at":"2026-02-01T00:00:00Z"}},
+    {"id":"renews","title":"Northgate renews","opened_at":"2026-01-01T00:00:00Z","closes_at":"2026-03-01T00:00:00Z","base_rate":-0,
+     "forecasts":[{"at":"2026-01-02T00:00:00Z","p":-0.0}]}]}`;
+  assert.deepEqual(await d.call('importText', { format: 'json', text: file }), { added: 2, skipped: 0 });
+  const text = exportJson(d.service);
+  const out = JSON.parse(text, (_key, value: unknown) => {
+    assert.ok(!Object.is(value, -0), 'export wrote a -0');
+    return value;
+  }) as { questions: { id: string; forecasts: { quantiles?: number[]; p?: number }[]; resolution: { value?: number } }[] };
+  const byId = new Map(out.questions.map((q) => [q.id, q]));
+  assert.deepEqual(byId.get('margin')!.forecasts[0]!.quantiles, [-1, 0, 0]);
+  assert.equal(byId.get('margin')!.resolution.value, 0);
+  assert.equal(byId.get('renews')!.forecasts[0]!.p, 0);
+  assert.deepEqual(await d.call('importText', { format: 'json', text: file, merge: true }), { added: 0, skipped: 2 });
+
+  const csv = (await d.call('exportText', { format: 'csv' })).text.replaceAll(',0,', ',-0,').replace('-1 0 0', '-1 -0 0.0');
+  assert.match(csv, /-1 -0 0\.0/);
+  assert.deepEqual(await d.call('importText', { format: 'csv', text: csv, merge: true }), { added: 0, skipped: 2 });
+  assert.equal(exportJson(d.service), text, 'nothing changed');
+});

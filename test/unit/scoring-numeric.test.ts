@@ -276,6 +276,24 @@ test('surprises: outside the widest range, sized by distance over width, worst f
   assert.equal(r.questions[2]!.interval_score, 20 + (2 / 0.1) * 30);
 });
 
+test('surprises near the ends of the double range: a width or distance past it still gives the true size', () => {
+  // Size = distance / width (SCORING.md). Here high − low (2e308) or y − high overflows to
+  // Infinity, which made the size 0 (a surprise sized and sorted as none) or Infinity; halved
+  // operands give the exact ratio, as both ends and the outcome are far above the smallest doubles.
+  const M = Number.MAX_VALUE;
+  const qs = [
+    numericQuestion('wide', M, nf([0, [-1e308, 0, 1e308]])), // (M − 1e308) / 2e308
+    numericQuestion('far', M, nf([0, [-1e308, -1e308, -0.5e308]])), // (M + 0.5e308) / 0.5e308
+    numericQuestion('near', 25, nf([0, [10, 15, 20]])), // 0.5
+  ];
+  const r = computeNumericReport(qs, {});
+  assert.deepEqual(r.surprises.map((x) => x.id), ['far', 'near', 'wide']);
+  close(r.surprises[0]!.size!, (M / 2 + 0.25e308) / 0.25e308, 1e-15, 'far');
+  close(r.surprises[2]!.size!, (M / 2 - 0.5e308) / 1e308, 1e-15, 'wide');
+  const details = computeNumericSurprises(qs, {});
+  assert.deepEqual(details.map((x) => [x.id, x.size]), r.surprises.map((x) => [x.id, x.size]));
+});
+
 test('counting: final and first forecasts, late forecasts, window end and filters as for yes/no', () => {
   // SCORING.md "Which forecasts count".
   const f = [
